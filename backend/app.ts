@@ -1,0 +1,72 @@
+import express, { type Express } from "express";
+import helmet from "helmet";
+import { toNodeHandler } from "better-auth/node";
+import { CLIENT_IP_HEADER } from "./auth";
+import type { AppDeps } from "./deps";
+import { errorHandler, forbidden, notFoundApi } from "./lib/errors";
+import { requireSession } from "./middleware/session";
+import { meRouter } from "./routes/me";
+import { membersRouter } from "./routes/members";
+import { projectsRouter } from "./routes/projects";
+import { publicRouter } from "./routes/public";
+import { suppliersRouter } from "./routes/suppliers";
+
+export const JSON_LIMIT = "2mb";
+
+export type AppOptions = {
+  /** Serves the client after the API (static build or Vite middleware); absent in API tests. */
+  mountClient?: (app: Express) => void;
+  /** Content-Security-Policy on (production); Vite's dev client needs inline scripts. */
+  strictCsp?: boolean;
+};
+
+/** Builds the Express app from its dependencies; `server.ts` listens, tests do not need to. */
+export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
+  const app = express();
+  app.disable("x-powered-by");
+  app.set("query parser", "simple");
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: options.strictCsp
+        ? {
+            directives: {
+              "default-src": ["'self'"],
+              "script-src": ["'self'"],
+              "style-src": ["'self'", "'unsafe-inline'"],
+              "img-src": ["'self'", "data:", "blob:"],
+              "font-src": ["'self'", "data:"],
+              "worker-src": ["'self'", "blob:"],
+              "connect-src": ["'self'"],
+            },
+          }
+        : false,
+    }),
+  );
+
+  // The rate limiter of better-auth keys on this header; only the socket's peer may set it.
+  app.use((req, _res, next) => {
+    req.headers[CLIENT_IP_HEADER] = req.socket.remoteAddress ?? "unknown";
+    next();
+  });
+
+  // Accounts come from invitations only.
+  app.post("/api/auth/sign-up/email", () => {
+    throw forbidden("Accounts are created by invitation. Ask an admin of your workspace to invite you.");
+  });
+  app.all("/api/auth/{*splat}", toNodeHandler(deps.auth));
+
+  app.use("/api", express.json({ limit: JSON_LIMIT }));
+  app.use("/api", publicRouter(deps));
+  app.use("/api", requireSession(deps.auth, deps.db));
+  app.use("/api", meRouter());
+  app.use("/api", projectsRouter(deps));
+  app.use("/api", suppliersRouter(deps));
+  app.use("/api", membersRouter(deps));
+  app.use("/api", notFoundApi);
+
+  options.mountClient?.(app);
+
+  app.use(errorHandler((err) => deps.log("unhandled error", err)));
+  return app;
+}

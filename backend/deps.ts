@@ -1,0 +1,11 @@
+import type { Auth } from "./auth";
+import type { Database } from "./db/client";
+
+/** What the app is built from; tests build it with an in-memory database. */
+export type AppDeps = {
+  db: Database;
+  auth: Auth;
+  /** Public address used in links (invitations, report e-mails). */
+  baseURL: string;
+  log: (message: string, err?: unknown) => void;
+};

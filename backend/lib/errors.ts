@@ -1,0 +1,84 @@
+import type { ErrorRequestHandler, RequestHandler } from "express";
+import { ZodError, type core } from "zod";
+
+export type FieldError = { path: string; message: string };
+
+/** An error that carries its HTTP status and a stable code for the client. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields?: FieldError[],
+  ) {
+    super(message);
+  }
+}
+
+export const badRequest = (message: string, fields?: FieldError[], code = "invalid_input") =>
+  new HttpError(400, code, message, fields);
+export const unauthorized = () => new HttpError(401, "unauthenticated", "Sign in to continue.");
+export const forbidden = (message = "Your role does not allow this.") => new HttpError(403, "forbidden", message);
+export const notFound = (what = "The resource") => new HttpError(404, "not_found", `${what} was not found.`);
+export const conflict = (message: string, code = "conflict") => new HttpError(409, code, message);
+
+/** `invariant`-style helper: throws a 404 unless the value exists. */
+export function found<T>(value: T | undefined | null, what: string): T {
+  if (value === undefined || value === null) throw notFound(what);
+  return value;
+}
+
+/** JSON path of a zod issue, e.g. `elements[2].size.x`. */
+export function formatPath(path: ReadonlyArray<PropertyKey>): string {
+  let out = "";
+  for (const part of path) {
+    if (typeof part === "number") out += `[${part}]`;
+    else out += out ? `.${String(part)}` : String(part);
+  }
+  return out;
+}
+
+export function zodFields(issues: ReadonlyArray<core.$ZodIssue>, prefix = ""): FieldError[] {
+  return issues.map((i) => {
+    const p = formatPath(i.path);
+    return { path: prefix && p ? `${prefix}.${p}` : prefix || p, message: i.message };
+  });
+}
+
+export const notFoundApi: RequestHandler = (req) => {
+  throw new HttpError(404, "not_found", `No API route ${req.method} ${req.path}.`);
+};
+
+/** The one error middleware: every failure leaves as the same JSON shape, never with internals. */
+export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
+  return (err, _req, res, _next) => {
+    if (err instanceof HttpError) {
+      res.status(err.status).json({
+        error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) },
+      });
+      return;
+    }
+    if (err instanceof ZodError) {
+      res.status(400).json({
+        error: { code: "invalid_input", message: "Some fields are not valid.", fields: zodFields(err.issues) },
+      });
+      return;
+    }
+    const e = err as { type?: string; status?: number; statusCode?: number };
+    if (e?.type === "entity.parse.failed") {
+      res.status(400).json({ error: { code: "malformed_json", message: "The request body is not valid JSON." } });
+      return;
+    }
+    if (e?.type === "entity.too.large") {
+      res.status(413).json({ error: { code: "too_large", message: "The request body is too large." } });
+      return;
+    }
+    const status = e?.status ?? e?.statusCode;
+    if (typeof status === "number" && status >= 400 && status < 500) {
+      res.status(status).json({ error: { code: "bad_request", message: "The request could not be read." } });
+      return;
+    }
+    log(err);
+    res.status(500).json({ error: { code: "internal", message: "Something went wrong on the server." } });
+  };
+}

@@ -1,0 +1,44 @@
+import { Router } from "express";
+import { CreateInvitationSchema, IdParamsSchema, UpdateMemberSchema } from "@shared/schemas/api";
+import type { AppDeps } from "../deps";
+import { parse } from "../lib/validate";
+import { actorOf, allow, can } from "../middleware/session";
+import { createInvitation, listInvitations, listMembers, removeMember, revokeInvitation, updateMember } from "../services/members";
+
+export function membersRouter({ db, baseURL }: AppDeps) {
+  const r = Router();
+  const admin = allow(...can.administer);
+
+  r.get("/members", admin, async (req, res) => {
+    res.json({ members: await listMembers(db, actorOf(req).workspaceId) });
+  });
+
+  r.patch("/members/:id", admin, async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const input = parse(UpdateMemberSchema, req);
+    res.json(await updateMember(db, actorOf(req), id, input));
+  });
+
+  r.delete("/members/:id", admin, async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    await removeMember(db, actorOf(req), id);
+    res.status(204).end();
+  });
+
+  r.get("/invitations", admin, async (req, res) => {
+    res.json({ invitations: await listInvitations(db, actorOf(req).workspaceId, baseURL) });
+  });
+
+  r.post("/invitations", admin, async (req, res) => {
+    const input = parse(CreateInvitationSchema, req);
+    res.status(201).json(await createInvitation(db, actorOf(req), input, baseURL));
+  });
+
+  r.delete("/invitations/:id", admin, async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    await revokeInvitation(db, actorOf(req).workspaceId, id);
+    res.status(204).end();
+  });
+
+  return r;
+}

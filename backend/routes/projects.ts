@@ -1,0 +1,47 @@
+import { Router } from "express";
+import { CreateProjectSchema, IdParamsSchema, ProjectListQuerySchema, UpdateProjectSchema } from "@shared/schemas/api";
+import type { AppDeps } from "../deps";
+import { parse } from "../lib/validate";
+import { actorOf, allow, can } from "../middleware/session";
+import { listProjectActivity } from "../services/activity";
+import { createProject, deleteProject, getProject, listProjects, updateProject } from "../services/projects";
+
+export function projectsRouter({ db }: AppDeps) {
+  const r = Router();
+
+  r.get("/projects", allow(...can.readWorkspace), async (req, res) => {
+    const { q } = parse(ProjectListQuerySchema, req, "query");
+    res.json({ projects: await listProjects(db, actorOf(req).workspaceId, q) });
+  });
+
+  r.post("/projects", allow(...can.write), async (req, res) => {
+    const input = parse(CreateProjectSchema, req);
+    res.status(201).json(await createProject(db, actorOf(req), input));
+  });
+
+  r.get("/projects/:id", allow(...can.readWorkspace), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.json(await getProject(db, actorOf(req).workspaceId, id));
+  });
+
+  r.patch("/projects/:id", allow(...can.write), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const input = parse(UpdateProjectSchema, req);
+    res.json(await updateProject(db, actorOf(req), id, input));
+  });
+
+  r.delete("/projects/:id", allow(...can.write), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    await deleteProject(db, actorOf(req), id);
+    res.status(204).end();
+  });
+
+  r.get("/projects/:id/activity", allow(...can.readWorkspace), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const actor = actorOf(req);
+    await getProject(db, actor.workspaceId, id);
+    res.json({ activity: await listProjectActivity(db, actor.workspaceId, id) });
+  });
+
+  return r;
+}

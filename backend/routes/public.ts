@@ -1,0 +1,30 @@
+import { Router } from "express";
+import { AcceptInvitationSchema, InvitationTokenParamsSchema } from "@shared/schemas/api";
+import type { AppDeps } from "../deps";
+import { parse } from "../lib/validate";
+import { acceptInvitation, previewInvitation } from "../services/members";
+
+/** Routes that need no session: health and the invitation hand-shake. */
+export function publicRouter({ db, auth }: AppDeps) {
+  const r = Router();
+
+  r.get("/health", (_req, res) => {
+    res.json({ status: "ok" });
+  });
+
+  r.get("/invitations/by-token/:token", async (req, res) => {
+    const { token } = parse(InvitationTokenParamsSchema, req, "params");
+    res.json(await previewInvitation(db, token));
+  });
+
+  r.post("/invitations/by-token/:token/accept", async (req, res) => {
+    const { token } = parse(InvitationTokenParamsSchema, req, "params");
+    const input = parse(AcceptInvitationSchema, req);
+    const headers = await acceptInvitation(db, auth, token, input);
+    const cookies = headers.getSetCookie();
+    if (cookies.length) res.setHeader("set-cookie", cookies);
+    res.json({ ok: true });
+  });
+
+  return r;
+}

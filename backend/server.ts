@@ -1,0 +1,57 @@
+import type { Express } from "express";
+import { createApp } from "./app";
+import { createAuth } from "./auth";
+import { buildClientIfNeeded, mountDevClient, mountStaticClient } from "./client";
+import { openDatabase } from "./db/client";
+import { parseEnv } from "./lib/env";
+import { loadSecret } from "./lib/secret";
+import { seedDemo } from "./seed";
+import { startHooks } from "./start-hooks";
+
+const env = parseEnv();
+const log = (message: string, err?: unknown) => {
+  if (err) console.error(`[orthostack] ${message}`, err);
+  else console.info(`[orthostack] ${message}`);
+};
+
+const { db, close } = await openDatabase(env.DATA_DIR);
+const baseURL = env.BASE_URL ?? `http://localhost:${env.PORT}`;
+const auth = createAuth({
+  db,
+  baseURL,
+  secret: loadSecret(env.DATA_DIR, env.BETTER_AUTH_SECRET),
+  trustedOrigins: [`http://127.0.0.1:${env.PORT}`],
+  signInPerMinute: env.SIGN_IN_PER_MINUTE,
+});
+const deps = { db, auth, baseURL, log };
+
+if (env.SEED_DEMO) {
+  const outcome = await seedDemo(db, auth);
+  log(outcome === "seeded" ? "seeded the demo workspace" : "database has a workspace; demo seed skipped");
+}
+await startHooks.run(deps);
+
+const dev = env.NODE_ENV === "development";
+let devApp: Express | undefined;
+if (!dev) await buildClientIfNeeded(log);
+const app = createApp(deps, {
+  strictCsp: !dev,
+  mountClient: dev ? (a) => void (devApp = a) : mountStaticClient,
+});
+if (devApp) await mountDevClient(devApp);
+
+const server = app.listen(env.PORT, env.HOST, () => {
+  log(`serving on ${baseURL} (data in ${env.DATA_DIR})`);
+});
+
+let stopping = false;
+const stop = async () => {
+  if (stopping) return;
+  stopping = true;
+  server.close();
+  await startHooks.stop();
+  await close();
+  process.exit(0);
+};
+process.on("SIGINT", stop);
+process.on("SIGTERM", stop);

@@ -1,0 +1,187 @@
+import { randomBytes } from "node:crypto";
+import { and, asc, desc, eq, ne, sql } from "drizzle-orm";
+import type { z } from "zod";
+import type { CreateInvitationSchema, Invitation, Member, Role, UpdateMemberSchema } from "@shared/schemas/api";
+import type { Auth } from "../auth";
+import type { Database } from "../db/client";
+import { invitations, members, suppliers, users, workspaces } from "../db/schema";
+import { badRequest, conflict, found, HttpError } from "../lib/errors";
+import type { Actor } from "../middleware/session";
+
+const INVITATION_DAYS = 7;
+
+export async function listMembers(db: Database, workspaceId: string): Promise<Member[]> {
+  const rows = await db
+    .select({
+      id: members.id,
+      userId: members.userId,
+      name: users.name,
+      email: users.email,
+      role: members.role,
+      supplierId: members.supplierId,
+      supplierName: suppliers.name,
+      createdAt: members.createdAt,
+    })
+    .from(members)
+    .innerJoin(users, eq(users.id, members.userId))
+    .leftJoin(suppliers, eq(suppliers.id, members.supplierId))
+    .where(eq(members.workspaceId, workspaceId))
+    .orderBy(asc(users.name));
+  return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
+}
+
+async function getMember(db: Database, workspaceId: string, id: string) {
+  const [m] = (await listMembers(db, workspaceId)).filter((x) => x.id === id);
+  return found(m, "The member");
+}
+
+async function assertSupplierInWorkspace(db: Database, workspaceId: string, supplierId: string | null | undefined) {
+  if (!supplierId) return;
+  const [s] = await db
+    .select({ id: suppliers.id })
+    .from(suppliers)
+    .where(and(eq(suppliers.workspaceId, workspaceId), eq(suppliers.id, supplierId)));
+  if (!s) throw badRequest("The supplier company does not exist.", [{ path: "supplierId", message: "no such supplier in this workspace" }]);
+}
+
+async function adminCount(db: Database, workspaceId: string, exceptMemberId: string) {
+  const [r] = await db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(members)
+    .where(and(eq(members.workspaceId, workspaceId), eq(members.role, "admin"), ne(members.id, exceptMemberId)));
+  return r.n;
+}
+
+export async function updateMember(db: Database, actor: Actor, id: string, input: z.infer<typeof UpdateMemberSchema>) {
+  const member = await getMember(db, actor.workspaceId, id);
+  const supplierId = input.role === "supplier" ? (input.supplierId ?? member.supplierId) : null;
+  if (input.role === "supplier" && !supplierId) {
+    throw badRequest("A supplier user must belong to a supplier company.", [{ path: "supplierId", message: "choose the supplier company" }]);
+  }
+  await assertSupplierInWorkspace(db, actor.workspaceId, supplierId);
+  if (member.role === "admin" && input.role !== "admin" && (await adminCount(db, actor.workspaceId, id)) === 0) {
+    throw conflict("The workspace must keep at least one admin.", "last_admin");
+  }
+  await db.update(members).set({ role: input.role, supplierId }).where(eq(members.id, id));
+  return getMember(db, actor.workspaceId, id);
+}
+
+export async function removeMember(db: Database, actor: Actor, id: string) {
+  const member = await getMember(db, actor.workspaceId, id);
+  if (member.userId === actor.userId) throw conflict("You cannot remove yourself.", "self_removal");
+  if (member.role === "admin" && (await adminCount(db, actor.workspaceId, id)) === 0) {
+    throw conflict("The workspace must keep at least one admin.", "last_admin");
+  }
+  await db.delete(members).where(eq(members.id, id));
+}
+
+// ---- invitations ------------------------------------------------------------------
+
+export const invitationLink = (baseURL: string, token: string) => `${baseURL.replace(/\/$/, "")}/invite/${token}`;
+
+function toInvitation(row: typeof invitations.$inferSelect, baseURL: string): Invitation {
+  const expired = row.status === "pending" && row.expiresAt.getTime() < Date.now();
+  return {
+    id: row.id,
+    email: row.email,
+    role: row.role,
+    supplierId: row.supplierId,
+    status: row.status,
+    link: row.status === "pending" && !expired ? invitationLink(baseURL, row.token) : null,
+    createdAt: row.createdAt.toISOString(),
+    expiresAt: row.expiresAt.toISOString(),
+  };
+}
+
+export async function listInvitations(db: Database, workspaceId: string, baseURL: string) {
+  const rows = await db.select().from(invitations).where(eq(invitations.workspaceId, workspaceId)).orderBy(desc(invitations.createdAt));
+  return rows.map((r) => toInvitation(r, baseURL));
+}
+
+export async function createInvitation(db: Database, actor: Actor, input: z.infer<typeof CreateInvitationSchema>, baseURL: string) {
+  await assertSupplierInWorkspace(db, actor.workspaceId, input.supplierId);
+  const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, input.email));
+  if (existing) throw conflict(`${input.email} already has an account.`, "already_member");
+  const token = randomBytes(24).toString("base64url");
+  const [row] = await db.transaction(async (tx) => {
+    // A newer invitation replaces any pending one for the same address.
+    await tx
+      .update(invitations)
+      .set({ status: "revoked" })
+      .where(and(eq(invitations.workspaceId, actor.workspaceId), eq(invitations.email, input.email), eq(invitations.status, "pending")));
+    return tx
+      .insert(invitations)
+      .values({
+        workspaceId: actor.workspaceId,
+        email: input.email,
+        role: input.role,
+        supplierId: input.role === "supplier" ? (input.supplierId ?? null) : null,
+        token,
+        invitedBy: actor.userId,
+        expiresAt: new Date(Date.now() + INVITATION_DAYS * 86_400_000),
+      })
+      .returning();
+  });
+  return toInvitation(row, baseURL);
+}
+
+export async function revokeInvitation(db: Database, workspaceId: string, id: string) {
+  const rows = await db
+    .update(invitations)
+    .set({ status: "revoked" })
+    .where(and(eq(invitations.workspaceId, workspaceId), eq(invitations.id, id), eq(invitations.status, "pending")))
+    .returning({ id: invitations.id });
+  found(rows[0], "The pending invitation");
+}
+
+async function pendingByToken(db: Database, token: string) {
+  const [row] = await db
+    .select({ invitation: invitations, workspaceName: workspaces.name })
+    .from(invitations)
+    .innerJoin(workspaces, eq(workspaces.id, invitations.workspaceId))
+    .where(eq(invitations.token, token));
+  if (!row || row.invitation.status !== "pending" || row.invitation.expiresAt.getTime() < Date.now()) {
+    throw new HttpError(404, "invitation_invalid", "This invitation is not valid any more. Ask your admin for a new one.");
+  }
+  return row;
+}
+
+export async function previewInvitation(db: Database, token: string) {
+  const { invitation, workspaceName } = await pendingByToken(db, token);
+  return { email: invitation.email, role: invitation.role as Role, workspaceName };
+}
+
+/**
+ * Creates the invitee's account through better-auth and returns its sign-in response headers
+ * (the session cookie). If joining the workspace fails, the new account is removed again so no
+ * half-made member is left.
+ */
+export async function acceptInvitation(db: Database, auth: Auth, token: string, input: { name: string; password: string }) {
+  const { invitation } = await pendingByToken(db, token);
+  const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, invitation.email));
+  if (existing) throw conflict(`${invitation.email} already has an account.`, "already_member");
+  const response = await auth.api.signUpEmail({
+    body: { email: invitation.email, password: input.password, name: input.name },
+    asResponse: true,
+  });
+  if (!response.ok) {
+    const body = (await response.json().catch(() => ({}))) as { message?: string };
+    throw badRequest(body.message ?? "The account could not be created.", [{ path: "password", message: body.message ?? "not accepted" }]);
+  }
+  const [user] = await db.select({ id: users.id }).from(users).where(eq(users.email, invitation.email));
+  try {
+    await db.transaction(async (tx) => {
+      await tx.insert(members).values({
+        workspaceId: invitation.workspaceId,
+        userId: user.id,
+        role: invitation.role,
+        supplierId: invitation.supplierId,
+      });
+      await tx.update(invitations).set({ status: "accepted", acceptedAt: new Date() }).where(eq(invitations.id, invitation.id));
+    });
+  } catch (e) {
+    await db.delete(users).where(eq(users.id, user.id));
+    throw e;
+  }
+  return response.headers;
+}

@@ -1,0 +1,119 @@
+import { and, asc, eq, ilike, or } from "drizzle-orm";
+import type { CreateProject, Project, UpdateProject } from "@shared/schemas/api";
+import type { Database } from "../db/client";
+import { projects, users } from "../db/schema";
+import { found } from "../lib/errors";
+import type { Actor } from "../middleware/session";
+import { recordActivity } from "./activity";
+
+/**
+ * Later features (studies) fill `lastStudy`; this hook keeps the projects service from
+ * depending on them.
+ */
+export type LastStudyLookup = (projectIds: string[]) => Promise<Map<string, NonNullable<Project["lastStudy"]>>>;
+let lastStudyLookup: LastStudyLookup = async () => new Map();
+export function setLastStudyLookup(fn: LastStudyLookup) {
+  lastStudyLookup = fn;
+}
+
+const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+const projectColumns = {
+  id: projects.id,
+  name: projects.name,
+  description: projects.description,
+  ownerId: projects.ownerId,
+  ownerName: users.name,
+  createdAt: projects.createdAt,
+  updatedAt: projects.updatedAt,
+};
+
+type Row = { id: string; name: string; description: string; ownerId: string | null; ownerName: string | null; createdAt: Date; updatedAt: Date };
+
+async function toProjects(rows: Row[]): Promise<Project[]> {
+  const last = await lastStudyLookup(rows.map((r) => r.id));
+  return rows.map((r) => ({
+    ...r,
+    createdAt: r.createdAt.toISOString(),
+    updatedAt: r.updatedAt.toISOString(),
+    lastStudy: last.get(r.id) ?? null,
+  }));
+}
+
+export async function listProjects(db: Database, workspaceId: string, q?: string): Promise<Project[]> {
+  const term = q ? `%${escapeLike(q)}%` : undefined;
+  const rows = await db
+    .select(projectColumns)
+    .from(projects)
+    .leftJoin(users, eq(users.id, projects.ownerId))
+    .where(
+      and(
+        eq(projects.workspaceId, workspaceId),
+        term ? or(ilike(projects.name, term), ilike(projects.description, term)) : undefined,
+      ),
+    )
+    .orderBy(asc(projects.name));
+  return toProjects(rows);
+}
+
+export async function getProject(db: Database, workspaceId: string, id: string): Promise<Project> {
+  const rows = await db
+    .select(projectColumns)
+    .from(projects)
+    .leftJoin(users, eq(users.id, projects.ownerId))
+    .where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, id)))
+    .limit(1);
+  const [project] = await toProjects(rows);
+  return found(project, "The project");
+}
+
+export async function createProject(db: Database, actor: Actor, input: CreateProject): Promise<Project> {
+  const id = await db.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(projects)
+      .values({ workspaceId: actor.workspaceId, name: input.name, description: input.description, ownerId: actor.userId })
+      .returning({ id: projects.id });
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId: row.id,
+      actorId: actor.userId,
+      action: "project.created",
+      summary: `created the project “${input.name}”`,
+    });
+    return row.id;
+  });
+  return getProject(db, actor.workspaceId, id);
+}
+
+export async function updateProject(db: Database, actor: Actor, id: string, input: UpdateProject): Promise<Project> {
+  const before = await getProject(db, actor.workspaceId, id);
+  await db.transaction(async (tx) => {
+    await tx
+      .update(projects)
+      .set({ ...(input.name !== undefined ? { name: input.name } : {}), ...(input.description !== undefined ? { description: input.description } : {}) })
+      .where(and(eq(projects.workspaceId, actor.workspaceId), eq(projects.id, id)));
+    if (input.name !== undefined && input.name !== before.name) {
+      await recordActivity(tx, {
+        workspaceId: actor.workspaceId,
+        projectId: id,
+        actorId: actor.userId,
+        action: "project.renamed",
+        summary: `renamed the project from “${before.name}” to “${input.name}”`,
+      });
+    }
+  });
+  return getProject(db, actor.workspaceId, id);
+}
+
+export async function deleteProject(db: Database, actor: Actor, id: string): Promise<void> {
+  const project = await getProject(db, actor.workspaceId, id);
+  await db.transaction(async (tx) => {
+    await tx.delete(projects).where(and(eq(projects.workspaceId, actor.workspaceId), eq(projects.id, id)));
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      actorId: actor.userId,
+      action: "project.deleted",
+      summary: `deleted the project “${project.name}”`,
+    });
+  });
+}

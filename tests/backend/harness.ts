@@ -1,0 +1,83 @@
+import type { AddressInfo } from "node:net";
+import type { Server } from "node:http";
+import { createApp } from "@backend/app";
+import { createAuth } from "@backend/auth";
+import { openDatabase, type DatabaseHandle } from "@backend/db/client";
+import type { AppDeps } from "@backend/deps";
+import { DEMO_PASSWORD, seedDemo } from "@backend/seed";
+import { startHooks } from "@backend/start-hooks";
+
+export type TestApp = {
+  url: string;
+  deps: AppDeps;
+  handle: DatabaseHandle;
+  /** Signs in with e-mail and password and returns the session cookie. */
+  signIn: (email: string, password?: string) => Promise<string>;
+  /** fetch against the app with JSON body and optional cookie. */
+  call: (method: string, path: string, opts?: { cookie?: string; body?: unknown; raw?: string; headers?: Record<string, string> }) => Promise<{ status: number; body: any; headers: Headers }>;
+  close: () => Promise<void>;
+};
+
+/** A fresh app on an in-memory PGlite, migrated from drizzle/ and seeded with the demo workspace. */
+export async function startTestApp(opts: { seed?: boolean; signInPerMinute?: number } = {}): Promise<TestApp> {
+  const handle = await openDatabase("memory://");
+  const baseURL = "http://localhost:3999";
+  const auth = createAuth({ db: handle.db, baseURL, secret: "test-secret-test-secret-test-secret-123", signInPerMinute: opts.signInPerMinute ?? 1000 });
+  const errors: unknown[] = [];
+  const deps: AppDeps = { db: handle.db, auth, baseURL, log: (_m, e) => errors.push(e) };
+  if (opts.seed !== false) await seedDemo(handle.db, auth);
+  await startHooks.run(deps);
+  const app = createApp(deps);
+  const server: Server = await new Promise((resolve) => {
+    const s = app.listen(0, "127.0.0.1", () => resolve(s));
+  });
+  const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+
+  const call: TestApp["call"] = async (method, path, o = {}) => {
+    const headers: Record<string, string> = { origin: baseURL, ...(o.headers ?? {}) };
+    if (o.cookie) headers.cookie = o.cookie;
+    let body: string | undefined;
+    if (o.raw !== undefined) {
+      body = o.raw;
+      headers["content-type"] ??= "application/json";
+    } else if (o.body !== undefined) {
+      body = JSON.stringify(o.body);
+      headers["content-type"] = "application/json";
+    }
+    const res = await fetch(url + path, { method, headers, body, redirect: "manual" });
+    const text = await res.text();
+    let parsed: unknown = text;
+    try {
+      parsed = text ? JSON.parse(text) : null;
+    } catch {
+      /* not JSON: leave the text */
+    }
+    return { status: res.status, body: parsed, headers: res.headers };
+  };
+
+  const signIn = async (email: string, password = DEMO_PASSWORD) => {
+    const res = await fetch(`${url}/api/auth/sign-in/email`, {
+      method: "POST",
+      headers: { "content-type": "application/json", origin: baseURL },
+      body: JSON.stringify({ email, password }),
+    });
+    if (!res.ok) throw new Error(`sign-in failed for ${email}: ${res.status}`);
+    return res.headers
+      .getSetCookie()
+      .map((c) => c.split(";")[0])
+      .join("; ");
+  };
+
+  return {
+    url,
+    deps,
+    handle,
+    signIn,
+    call,
+    close: async () => {
+      await new Promise((r) => server.close(r));
+      await startHooks.stop();
+      await handle.close();
+    },
+  };
+}

@@ -1,0 +1,74 @@
+import { fileURLToPath } from "node:url";
+import react from "@vitejs/plugin-react";
+import tailwindcss from "@tailwindcss/vite";
+import { defineConfig } from "vitest/config";
+
+const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
+
+// One alias scheme for tsc (tsconfig "paths"), Vite and vitest.
+const alias = {
+  "@shared": here("./shared"),
+  "@backend": here("./backend"),
+  "@frontend": here("./frontend"),
+};
+
+export default defineConfig({
+  root: here("./frontend"),
+  publicDir: false,
+  plugins: [react(), tailwindcss()],
+  resolve: { alias },
+  worker: { format: "es" },
+  build: {
+    outDir: here("./dist/client"),
+    emptyOutDir: true,
+    chunkSizeWarningLimit: 1800,
+  },
+  test: {
+    root: here("."),
+    projects: [
+      {
+        resolve: { alias },
+        test: {
+          name: "engine",
+          root: here("."),
+          environment: "node",
+          include: ["tests/engine/**/*.test.ts"],
+          testTimeout: 60_000,
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: "backend",
+          root: here("."),
+          environment: "node",
+          include: ["tests/backend/**/*.test.ts"],
+          testTimeout: 60_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        plugins: [react()],
+        resolve: { alias },
+        test: {
+          name: "frontend",
+          root: here("."),
+          environment: "jsdom",
+          include: ["tests/frontend/**/*.test.tsx", "tests/frontend/**/*.test.ts"],
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: "e2e",
+          root: here("."),
+          environment: "node",
+          include: ["tests/e2e/**/*.test.ts"],
+          testTimeout: 120_000,
+          hookTimeout: 180_000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});
