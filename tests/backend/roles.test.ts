@@ -1,0 +1,127 @@
+/**
+ * The role table: every API route, called as each role and as nobody. A route that is not in
+ * the table fails the first test, so a new route cannot ship without its rights written down.
+ */
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { randomUUID } from "node:crypto";
+import { eq } from "drizzle-orm";
+import { createApp } from "@backend/app";
+import { invitations, members, projects, supplierContacts, suppliers, users } from "@backend/db/schema";
+import type { Role } from "@shared/schemas/common";
+import { startTestApp, type TestApp } from "./harness";
+import { registeredApiRoutes } from "./route-table";
+
+type Who = Role | "nobody";
+const WHO: Who[] = ["nobody", "admin", "engineer", "reviewer", "supplier"];
+const STAFF: Role[] = ["admin", "engineer", "reviewer"];
+const WRITERS: Role[] = ["admin", "engineer"];
+const ADMIN: Role[] = ["admin"];
+const EVERYONE: Role[] = ["admin", "engineer", "reviewer", "supplier"];
+
+type Ctx = { t: TestApp; workspaceId: string; supplierId: string };
+type Row = {
+  route: string;
+  /** "public": no session needed; otherwise the roles that may. */
+  allowed: Role[] | "public";
+  /** Builds the concrete path (and a fresh resource for destructive calls). */
+  path?: (c: Ctx) => Promise<string> | string;
+  body?: (c: Ctx) => unknown;
+};
+
+let counter = 0;
+const uniq = () => `${Date.now().toString(36)}-${++counter}`;
+
+async function freshProject(c: Ctx) {
+  const [p] = await c.t.handle.db.insert(projects).values({ workspaceId: c.workspaceId, name: `p-${uniq()}` }).returning();
+  return p.id;
+}
+async function freshSupplier(c: Ctx) {
+  const [s] = await c.t.handle.db.insert(suppliers).values({ workspaceId: c.workspaceId, name: `s-${uniq()}` }).returning();
+  return s.id;
+}
+async function freshContact(c: Ctx) {
+  const [x] = await c.t.handle.db.insert(supplierContacts).values({ supplierId: c.supplierId, name: "c", email: `${uniq()}@x.example` }).returning();
+  return x.id;
+}
+async function freshMember(c: Ctx) {
+  const id = randomUUID();
+  await c.t.handle.db.insert(users).values({ id, name: "m", email: `${uniq()}@m.example` });
+  const [m] = await c.t.handle.db.insert(members).values({ workspaceId: c.workspaceId, userId: id, role: "engineer" }).returning();
+  return m.id;
+}
+async function freshInvitation(c: Ctx) {
+  const [i] = await c.t.handle.db
+    .insert(invitations)
+    .values({ workspaceId: c.workspaceId, email: `${uniq()}@i.example`, role: "engineer", token: `tok-${uniq()}-${"x".repeat(24)}`, expiresAt: new Date(Date.now() + 86_400_000) })
+    .returning();
+  return i;
+}
+
+export const ROUTES: Row[] = [
+  { route: "GET /api/health", allowed: "public" },
+  { route: "GET /api/invitations/by-token/:token", allowed: "public", path: async (c) => `/api/invitations/by-token/${(await freshInvitation(c)).token}` },
+  {
+    route: "POST /api/invitations/by-token/:token/accept",
+    allowed: "public",
+    path: async (c) => `/api/invitations/by-token/${(await freshInvitation(c)).token}/accept`,
+    body: () => ({ name: "Invitee", password: "long-enough-password" }),
+  },
+  { route: "GET /api/me", allowed: EVERYONE },
+  { route: "GET /api/projects", allowed: STAFF },
+  { route: "POST /api/projects", allowed: WRITERS, body: () => ({ name: `new ${uniq()}` }) },
+  { route: "GET /api/projects/:id", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}` },
+  { route: "PATCH /api/projects/:id", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}`, body: () => ({ name: `renamed ${uniq()}` }) },
+  { route: "DELETE /api/projects/:id", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}` },
+  { route: "GET /api/projects/:id/activity", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/activity` },
+  { route: "GET /api/suppliers", allowed: STAFF },
+  { route: "GET /api/suppliers/:id", allowed: STAFF, path: (c) => `/api/suppliers/${c.supplierId}` },
+  { route: "POST /api/suppliers", allowed: ADMIN, body: () => ({ name: `Supplier ${uniq()}`, kind: "die" }) },
+  { route: "PATCH /api/suppliers/:id", allowed: ADMIN, path: async (c) => `/api/suppliers/${await freshSupplier(c)}`, body: () => ({ kind: "board" }) },
+  { route: "DELETE /api/suppliers/:id", allowed: ADMIN, path: async (c) => `/api/suppliers/${await freshSupplier(c)}` },
+  { route: "POST /api/suppliers/:id/contacts", allowed: ADMIN, path: (c) => `/api/suppliers/${c.supplierId}/contacts`, body: () => ({ name: "Kit", email: `${uniq()}@k.example` }) },
+  { route: "DELETE /api/suppliers/:id/contacts/:contactId", allowed: ADMIN, path: async (c) => `/api/suppliers/${c.supplierId}/contacts/${await freshContact(c)}` },
+  { route: "GET /api/members", allowed: ADMIN },
+  { route: "PATCH /api/members/:id", allowed: ADMIN, path: async (c) => `/api/members/${await freshMember(c)}`, body: () => ({ role: "reviewer" }) },
+  { route: "DELETE /api/members/:id", allowed: ADMIN, path: async (c) => `/api/members/${await freshMember(c)}` },
+  { route: "GET /api/invitations", allowed: ADMIN },
+  { route: "POST /api/invitations", allowed: ADMIN, body: () => ({ email: `${uniq()}@new.example`, role: "engineer" }) },
+  { route: "DELETE /api/invitations/:id", allowed: ADMIN, path: async (c) => `/api/invitations/${(await freshInvitation(c)).id}` },
+];
+
+let t: TestApp;
+let ctx: Ctx;
+const cookies: Partial<Record<Who, string>> = {};
+
+beforeAll(async () => {
+  t = await startTestApp();
+  for (const role of EVERYONE) cookies[role] = await t.signIn(`${role}@example.com`);
+  const [s] = await t.handle.db.select().from(suppliers).where(eq(suppliers.name, "Larkfield Assembly"));
+  ctx = { t, workspaceId: s.workspaceId, supplierId: s.id };
+});
+afterAll(() => t?.close());
+
+describe("role table", () => {
+  it("covers every registered API route, and only those", () => {
+    const app = createApp(t.deps);
+    expect(ROUTES.map((r) => r.route).sort()).toEqual(registeredApiRoutes(app));
+  });
+
+  for (const row of ROUTES) {
+    for (const who of WHO) {
+      const expected =
+        row.allowed === "public" ? "allowed" : who === "nobody" ? 401 : row.allowed.includes(who) ? "allowed" : 403;
+      it(`${row.route} as ${who} → ${expected}`, async () => {
+        const [method, template] = row.route.split(" ");
+        const path = row.path ? await row.path(ctx) : template;
+        const body = row.body?.(ctx) ?? (method === "GET" || method === "DELETE" ? undefined : {});
+        const res = await t.call(method, path, { cookie: who === "nobody" ? undefined : cookies[who], body });
+        if (expected === "allowed") {
+          expect(res.status, JSON.stringify(res.body)).toBeLessThan(400);
+        } else {
+          expect(res.status).toBe(expected);
+          expect(res.body.error.code).toBe(expected === 401 ? "unauthenticated" : "forbidden");
+        }
+      });
+    }
+  }
+});
