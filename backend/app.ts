@@ -9,6 +9,7 @@ import { meRouter } from "./routes/me";
 import { membersRouter } from "./routes/members";
 import { projectsRouter } from "./routes/projects";
 import { publicRouter } from "./routes/public";
+import { revisionsRouter } from "./routes/revisions";
 import { suppliersRouter } from "./routes/suppliers";
 
 export const JSON_LIMIT = "2mb";
@@ -63,6 +64,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   app.use("/api", projectsRouter(deps));
   app.use("/api", suppliersRouter(deps));
   app.use("/api", membersRouter(deps));
+  app.use("/api", revisionsRouter(deps));
   app.use("/api", notFoundApi);
 
   options.mountClient?.(app);

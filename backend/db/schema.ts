@@ -4,7 +4,8 @@
  * its CLI generates for the drizzle adapter; the rest are Orthostack's own.
  */
 import { relations, sql } from "drizzle-orm";
-import { boolean, index, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import type { StackFile } from "@shared/schemas/stack-file";
+import { boolean, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 
 const timestamps = {
   createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
@@ -192,3 +193,55 @@ export const suppliersRelations = relations(suppliers, ({ many }) => ({ contacts
 export const supplierContactsRelations = relations(supplierContacts, ({ one }) => ({
   supplier: one(suppliers, { fields: [supplierContacts.supplierId], references: [suppliers.id] }),
 }));
+
+// ---- stack revisions and comments ------------------------------------------------
+export const REVISION_STATUSES = ["draft", "in_review", "approved"] as const;
+
+export const stackRevisions = pgTable(
+  "stack_revisions",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    workspaceId: uuid("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "cascade" }),
+    /** 1, 2, 3… within the project. */
+    number: integer("number").notNull(),
+    status: text("status", { enum: REVISION_STATUSES }).notNull().default("draft"),
+    /** The stack file of MODEL.md §9 (validated before it is stored). */
+    stack: jsonb("stack").$type<StackFile>().notNull(),
+    /** The requirements the stack must meet: [{metric, max, yield}]. */
+    requirements: jsonb("requirements").$type<Array<{ metric: string; max: number; yield: number }>>().notNull().default([]),
+    note: text("note").notNull().default(""),
+    basedOnId: uuid("based_on_id"),
+    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    submittedAt: timestamp("submitted_at", { withTimezone: true }),
+    submittedBy: text("submitted_by").references(() => users.id, { onDelete: "set null" }),
+    approvedAt: timestamp("approved_at", { withTimezone: true }),
+    approvedBy: text("approved_by").references(() => users.id, { onDelete: "set null" }),
+    ...timestamps,
+  },
+  (t) => [uniqueIndex("stack_revisions_project_number_idx").on(t.projectId, t.number)],
+);
+
+export const comments = pgTable(
+  "comments",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    workspaceId: uuid("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    projectId: uuid("project_id").references(() => projects.id, { onDelete: "cascade" }),
+    /** What the comment is on: a revision or a report. */
+    targetType: text("target_type", { enum: ["revision", "report"] }).notNull(),
+    targetId: uuid("target_id").notNull(),
+    authorId: text("author_id").references(() => users.id, { onDelete: "set null" }),
+    /** "comment", or the decision it records: "returned", "approved". */
+    kind: text("kind").notNull().default("comment"),
+    body: text("body").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
+  },
+  (t) => [index("comments_target_idx").on(t.targetType, t.targetId)],
+);

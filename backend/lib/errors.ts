@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from "express";
 import { ZodError, type core } from "zod";
+import { formatPath } from "@shared/schemas/stack-file";
 
 export type FieldError = { path: string; message: string };
 
@@ -26,16 +27,6 @@ export const conflict = (message: string, code = "conflict") => new HttpError(40
 export function found<T>(value: T | undefined | null, what: string): T {
   if (value === undefined || value === null) throw notFound(what);
   return value;
-}
-
-/** JSON path of a zod issue, e.g. `elements[2].size.x`. */
-export function formatPath(path: ReadonlyArray<PropertyKey>): string {
-  let out = "";
-  for (const part of path) {
-    if (typeof part === "number") out += `[${part}]`;
-    else out += out ? `.${String(part)}` : String(part);
-  }
-  return out;
 }
 
 export function zodFields(issues: ReadonlyArray<core.$ZodIssue>, prefix = ""): FieldError[] {

@@ -6,16 +6,20 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { createApp } from "@backend/app";
-import { invitations, members, projects, supplierContacts, suppliers, users } from "@backend/db/schema";
+import { readFileSync } from "node:fs";
+import { invitations, members, projects, stackRevisions, supplierContacts, suppliers, users } from "@backend/db/schema";
 import type { Role } from "@shared/schemas/common";
 import { startTestApp, type TestApp } from "./harness";
 import { registeredApiRoutes } from "./route-table";
+
+const REFERENCE = JSON.parse(readFileSync(new URL("../fixtures/stack-reference.json", import.meta.url), "utf8"));
 
 type Who = Role | "nobody";
 const WHO: Who[] = ["nobody", "admin", "engineer", "reviewer", "supplier"];
 const STAFF: Role[] = ["admin", "engineer", "reviewer"];
 const WRITERS: Role[] = ["admin", "engineer"];
 const ADMIN: Role[] = ["admin"];
+const REVIEWERS: Role[] = ["admin", "reviewer"];
 const EVERYONE: Role[] = ["admin", "engineer", "reviewer", "supplier"];
 
 type Ctx = { t: TestApp; workspaceId: string; supplierId: string };
@@ -48,6 +52,11 @@ async function freshMember(c: Ctx) {
   await c.t.handle.db.insert(users).values({ id, name: "m", email: `${uniq()}@m.example` });
   const [m] = await c.t.handle.db.insert(members).values({ workspaceId: c.workspaceId, userId: id, role: "engineer" }).returning();
   return m.id;
+}
+async function freshRevision(c: Ctx, status: "draft" | "in_review" | "approved" = "draft") {
+  const projectId = await freshProject(c);
+  const [r] = await c.t.handle.db.insert(stackRevisions).values({ workspaceId: c.workspaceId, projectId, number: 1, status, stack: REFERENCE }).returning();
+  return r.id;
 }
 async function freshInvitation(c: Ctx) {
   const [i] = await c.t.handle.db
@@ -86,6 +95,16 @@ export const ROUTES: Row[] = [
   { route: "GET /api/invitations", allowed: ADMIN },
   { route: "POST /api/invitations", allowed: ADMIN, body: () => ({ email: `${uniq()}@new.example`, role: "engineer" }) },
   { route: "DELETE /api/invitations/:id", allowed: ADMIN, path: async (c) => `/api/invitations/${(await freshInvitation(c)).id}` },
+  { route: "GET /api/projects/:id/revisions", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/revisions` },
+  { route: "POST /api/projects/:id/revisions", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}/revisions`, body: () => ({ stack: REFERENCE }) },
+  { route: "GET /api/revisions/:id", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}` },
+  { route: "PATCH /api/revisions/:id", allowed: WRITERS, path: async (c) => `/api/revisions/${await freshRevision(c)}`, body: () => ({ note: "changed" }) },
+  { route: "POST /api/revisions/:id/drafts", allowed: WRITERS, path: async (c) => `/api/revisions/${await freshRevision(c, "approved")}/drafts` },
+  { route: "POST /api/revisions/:id/submit", allowed: WRITERS, path: async (c) => `/api/revisions/${await freshRevision(c)}/submit` },
+  { route: "POST /api/revisions/:id/approve", allowed: REVIEWERS, path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/approve` },
+  { route: "POST /api/revisions/:id/return", allowed: REVIEWERS, path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/return`, body: () => ({ comment: "please fix" }) },
+  { route: "POST /api/revisions/:id/comments", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/comments`, body: () => ({ body: "looks fine" }) },
+  { route: "GET /api/revisions/:id/stack-file", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/stack-file` },
 ];
 
 let t: TestApp;

@@ -1,0 +1,218 @@
+import { and, asc, desc, eq, sql } from "drizzle-orm";
+import { alias } from "drizzle-orm/pg-core";
+import type { z } from "zod";
+import type { Requirement, Revision, RevisionSummary, CreateRevisionSchema, UpdateRevisionSchema } from "@shared/schemas/revisions";
+import type { Database } from "../db/client";
+import { comments, projects, stackRevisions, users } from "../db/schema";
+import { conflict, found } from "../lib/errors";
+import type { Actor } from "../middleware/session";
+import { recordActivity } from "./activity";
+import { checkRequirements, checkStack } from "./stack-check";
+
+const creator = alias(users, "creator");
+const approver = alias(users, "approver");
+
+const summaryColumns = {
+  id: stackRevisions.id,
+  projectId: stackRevisions.projectId,
+  number: stackRevisions.number,
+  status: stackRevisions.status,
+  stack: stackRevisions.stack,
+  note: stackRevisions.note,
+  basedOnId: stackRevisions.basedOnId,
+  createdByName: creator.name,
+  approvedByName: approver.name,
+  createdAt: stackRevisions.createdAt,
+  updatedAt: stackRevisions.updatedAt,
+  submittedAt: stackRevisions.submittedAt,
+  approvedAt: stackRevisions.approvedAt,
+};
+
+type SummaryRow = { stack: { name?: string }; createdAt: Date; updatedAt: Date; submittedAt: Date | null; approvedAt: Date | null } & Omit<
+  RevisionSummary,
+  "name" | "createdAt" | "updatedAt" | "submittedAt" | "approvedAt"
+>;
+
+const iso = (d: Date | null) => (d ? d.toISOString() : null);
+function toSummary({ stack, ...r }: SummaryRow): RevisionSummary {
+  return {
+    ...r,
+    name: stack.name ?? "",
+    createdAt: r.createdAt.toISOString(),
+    updatedAt: r.updatedAt.toISOString(),
+    submittedAt: iso(r.submittedAt),
+    approvedAt: iso(r.approvedAt),
+  };
+}
+
+async function assertProject(db: Database, workspaceId: string, projectId: string) {
+  const [p] = await db.select({ id: projects.id, name: projects.name }).from(projects).where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, projectId)));
+  return found(p, "The project");
+}
+
+export async function listRevisions(db: Database, workspaceId: string, projectId: string): Promise<RevisionSummary[]> {
+  await assertProject(db, workspaceId, projectId);
+  const rows = await db
+    .select(summaryColumns)
+    .from(stackRevisions)
+    .leftJoin(creator, eq(creator.id, stackRevisions.createdBy))
+    .leftJoin(approver, eq(approver.id, stackRevisions.approvedBy))
+    .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.projectId, projectId)))
+    .orderBy(desc(stackRevisions.number));
+  return rows.map(toSummary);
+}
+
+export async function getRevisionRow(db: Database, workspaceId: string, id: string) {
+  const [row] = await db.select().from(stackRevisions).where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, id)));
+  return found(row, "The stack revision");
+}
+
+export async function listComments(db: Database, targetType: "revision" | "report", targetId: string) {
+  const rows = await db
+    .select({ id: comments.id, authorName: users.name, kind: comments.kind, body: comments.body, createdAt: comments.createdAt })
+    .from(comments)
+    .leftJoin(users, eq(users.id, comments.authorId))
+    .where(and(eq(comments.targetType, targetType), eq(comments.targetId, targetId)))
+    .orderBy(asc(comments.createdAt));
+  return rows.map((c) => ({ ...c, createdAt: c.createdAt.toISOString() }));
+}
+
+export async function getRevision(db: Database, workspaceId: string, id: string): Promise<Revision> {
+  const [row] = await db
+    .select({ ...summaryColumns, requirements: stackRevisions.requirements })
+    .from(stackRevisions)
+    .leftJoin(creator, eq(creator.id, stackRevisions.createdBy))
+    .leftJoin(approver, eq(approver.id, stackRevisions.approvedBy))
+    .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, id)));
+  const r = found(row, "The stack revision");
+  const { requirements, ...summary } = r;
+  return { ...toSummary(summary), stack: r.stack, requirements, comments: await listComments(db, "revision", id) };
+}
+
+export async function createRevision(db: Database, actor: Actor, projectId: string, input: z.infer<typeof CreateRevisionSchema>, basedOnId?: string) {
+  await assertProject(db, actor.workspaceId, projectId);
+  const stack = checkStack(input.stack);
+  const requirements: Requirement[] = input.requirements ?? [];
+  checkRequirements(stack, requirements);
+  const id = await db.transaction(async (tx) => {
+    const [{ next }] = await tx
+      .select({ next: sql<number>`coalesce(max(${stackRevisions.number}), 0)::int + 1` })
+      .from(stackRevisions)
+      .where(eq(stackRevisions.projectId, projectId));
+    const [row] = await tx
+      .insert(stackRevisions)
+      .values({
+        workspaceId: actor.workspaceId,
+        projectId,
+        number: next,
+        stack,
+        requirements,
+        note: input.note ?? "",
+        basedOnId: basedOnId ?? null,
+        createdBy: actor.userId,
+      })
+      .returning({ id: stackRevisions.id });
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId,
+      actorId: actor.userId,
+      action: "revision.created",
+      summary: `started stack revision ${next}`,
+      data: { revisionId: row.id },
+    });
+    return row.id;
+  });
+  return getRevision(db, actor.workspaceId, id);
+}
+
+export async function updateRevision(db: Database, actor: Actor, id: string, input: z.infer<typeof UpdateRevisionSchema>) {
+  const row = await getRevisionRow(db, actor.workspaceId, id);
+  if (row.status !== "draft") {
+    throw conflict(
+      row.status === "approved"
+        ? "This revision is approved and frozen. Start a new draft from it to make changes."
+        : "This revision is in review. Wait for the reviewer, or ask them to send it back.",
+      "revision_frozen",
+    );
+  }
+  const stack = input.stack !== undefined ? checkStack(input.stack) : row.stack;
+  const requirements = input.requirements ?? row.requirements;
+  checkRequirements(stack, requirements);
+  await db
+    .update(stackRevisions)
+    .set({ stack, requirements, ...(input.note !== undefined ? { note: input.note } : {}) })
+    .where(and(eq(stackRevisions.id, id), eq(stackRevisions.status, "draft")));
+  return getRevision(db, actor.workspaceId, id);
+}
+
+type Transition = { from: Revision["status"]; to: Revision["status"]; action: string; verb: string };
+const TRANSITIONS = {
+  submit: { from: "draft", to: "in_review", action: "revision.submitted", verb: "submitted for review" },
+  approve: { from: "in_review", to: "approved", action: "revision.approved", verb: "approved" },
+  return: { from: "in_review", to: "draft", action: "revision.returned", verb: "sent back" },
+} satisfies Record<string, Transition>;
+
+const STATUS_WORDS: Record<Revision["status"], string> = { draft: "a draft", in_review: "in review", approved: "approved" };
+
+export async function transitionRevision(db: Database, actor: Actor, id: string, kind: keyof typeof TRANSITIONS, comment?: string) {
+  const t = TRANSITIONS[kind];
+  const row = await getRevisionRow(db, actor.workspaceId, id);
+  if (row.status !== t.from) {
+    throw conflict(`Revision ${row.number} is ${STATUS_WORDS[row.status]}; only a revision that is ${STATUS_WORDS[t.from]} can be ${t.verb}.`, "invalid_state");
+  }
+  const now = new Date();
+  await db.transaction(async (tx) => {
+    const changed = await tx
+      .update(stackRevisions)
+      .set({
+        status: t.to,
+        ...(kind === "submit" ? { submittedAt: now, submittedBy: actor.userId } : {}),
+        ...(kind === "approve" ? { approvedAt: now, approvedBy: actor.userId } : {}),
+      })
+      .where(and(eq(stackRevisions.id, id), eq(stackRevisions.status, t.from)))
+      .returning({ id: stackRevisions.id });
+    if (!changed.length) throw conflict("The revision changed meanwhile; reload and try again.", "invalid_state");
+    if (comment || kind !== "submit") {
+      await tx.insert(comments).values({
+        workspaceId: actor.workspaceId,
+        projectId: row.projectId,
+        targetType: "revision",
+        targetId: id,
+        authorId: actor.userId,
+        kind: kind === "return" ? "returned" : kind === "approve" ? "approved" : "comment",
+        body: comment ?? (kind === "approve" ? "Approved." : ""),
+      });
+    }
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId: row.projectId,
+      actorId: actor.userId,
+      action: t.action,
+      summary: `${t.verb} stack revision ${row.number}${comment ? `: “${comment.slice(0, 140)}”` : ""}`,
+      data: { revisionId: id },
+    });
+  });
+  return getRevision(db, actor.workspaceId, id);
+}
+
+export async function addRevisionComment(db: Database, actor: Actor, id: string, body: string) {
+  const row = await getRevisionRow(db, actor.workspaceId, id);
+  await db.transaction(async (tx) => {
+    await tx.insert(comments).values({ workspaceId: actor.workspaceId, projectId: row.projectId, targetType: "revision", targetId: id, authorId: actor.userId, body });
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId: row.projectId,
+      actorId: actor.userId,
+      action: "revision.commented",
+      summary: `commented on stack revision ${row.number}`,
+      data: { revisionId: id },
+    });
+  });
+  return listComments(db, "revision", id);
+}
+
+/** A new draft whose content is a copy of an existing revision (how an approved one is edited). */
+export async function draftFrom(db: Database, actor: Actor, id: string) {
+  const row = await getRevisionRow(db, actor.workspaceId, id);
+  return createRevision(db, actor, row.projectId, { stack: row.stack, requirements: row.requirements, note: `Based on revision ${row.number}.` }, row.id);
+}

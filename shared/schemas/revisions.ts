@@ -1,0 +1,76 @@
+import { z } from "zod";
+import { IdSchema } from "./common";
+
+export const RevisionStatusSchema = z.enum(["draft", "in_review", "approved"]);
+export type RevisionStatus = z.infer<typeof RevisionStatusSchema>;
+
+/** One requirement of a revision: |metric| ≤ max in at least `yield` of units. */
+export const RequirementSchema = z.object({
+  metric: z.string({ message: "metric is required" }).min(1, { message: "choose a metric" }),
+  max: z.number({ message: "limit must be a number" }).positive({ message: "limit must be greater than 0" }),
+  yield: z
+    .number({ message: "yield target must be a number" })
+    .gt(0, { message: "yield target must be above 0" })
+    .lt(1, { message: "yield target must be below 1 (e.g. 0.9973)" }),
+});
+export type Requirement = z.infer<typeof RequirementSchema>;
+export const RequirementsSchema = z.array(RequirementSchema).max(200, { message: "at most 200 requirements" });
+
+/** The stack itself is checked by the engine's validator (shared/schemas/stack-file). */
+export const CreateRevisionSchema = z.object({
+  stack: z.unknown().refine((v) => v !== undefined, { message: "stack is required" }),
+  requirements: RequirementsSchema.optional(),
+  note: z.string().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
+});
+export const UpdateRevisionSchema = z
+  .object({
+    stack: z.unknown().optional(),
+    requirements: RequirementsSchema.optional(),
+    note: z.string().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
+  })
+  .refine((v) => v.stack !== undefined || v.requirements !== undefined || v.note !== undefined, {
+    message: "give a stack, requirements or a note to change",
+  });
+export const ReturnRevisionSchema = z.object({
+  comment: z
+    .string({ message: "say why the revision goes back" })
+    .trim()
+    .min(1, { message: "say why the revision goes back" })
+    .max(4000, { message: "comment must be at most 4000 characters" }),
+});
+export const CommentBodySchema = z.object({
+  body: z.string({ message: "comment is required" }).trim().min(1, { message: "comment must not be empty" }).max(4000, { message: "comment must be at most 4000 characters" }),
+});
+
+export const CommentSchema = z.object({
+  id: IdSchema,
+  authorName: z.string().nullable(),
+  kind: z.string(),
+  body: z.string(),
+  createdAt: z.string(),
+});
+export type Comment = z.infer<typeof CommentSchema>;
+
+export const RevisionSummarySchema = z.object({
+  id: IdSchema,
+  projectId: IdSchema,
+  number: z.number().int(),
+  status: RevisionStatusSchema,
+  name: z.string(),
+  note: z.string(),
+  basedOnId: IdSchema.nullable(),
+  createdByName: z.string().nullable(),
+  approvedByName: z.string().nullable(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+  submittedAt: z.string().nullable(),
+  approvedAt: z.string().nullable(),
+});
+export type RevisionSummary = z.infer<typeof RevisionSummarySchema>;
+export const RevisionSchema = RevisionSummarySchema.extend({
+  stack: z.record(z.string(), z.unknown()),
+  requirements: RequirementsSchema,
+  comments: z.array(CommentSchema),
+});
+export type Revision = z.infer<typeof RevisionSchema>;
+export const RevisionListSchema = z.object({ revisions: z.array(RevisionSummarySchema) });

@@ -1,0 +1,115 @@
+import { readFileSync } from "node:fs";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { sql } from "drizzle-orm";
+import { stackRevisions } from "@backend/db/schema";
+import { startTestApp, type TestApp } from "./harness";
+
+const reference = JSON.parse(readFileSync(new URL("../fixtures/stack-reference.json", import.meta.url), "utf8"));
+
+let t: TestApp;
+const c: Record<string, string> = {};
+let projectId: string;
+
+beforeAll(async () => {
+  t = await startTestApp();
+  for (const role of ["admin", "engineer", "reviewer", "supplier"]) c[role] = await t.signIn(`${role}@example.com`);
+  const p = await t.call("POST", "/api/projects", { cookie: c.engineer, body: { name: "Revision tests" } });
+  projectId = p.body.id;
+});
+afterAll(() => t?.close());
+
+const revisionCount = async () => (await t.handle.db.select({ n: sql<number>`count(*)::int` }).from(stackRevisions).where(sql`${stackRevisions.projectId} = ${projectId}`))[0].n;
+
+describe("stack revisions", () => {
+  it("stores the reference stack and gives it back unchanged in meaning", async () => {
+    const r = await t.call("POST", `/api/projects/${projectId}/revisions`, {
+      cookie: c.engineer,
+      body: { stack: reference, requirements: [{ metric: "heading.maxAbsDeg", max: 2, yield: 0.99 }] },
+    });
+    expect(r.status).toBe(201);
+    expect(r.body).toMatchObject({ number: 1, status: "draft", name: "reference 9-axis stack" });
+    const file = await t.call("GET", `/api/revisions/${r.body.id}/stack-file`, { cookie: c.reviewer });
+    expect(file.status).toBe(200);
+    expect(file.headers.get("content-disposition")).toMatch(/attachment; filename="reference-9-axis-stack-rev1\.stack\.json"/);
+    expect(file.body).toEqual(reference);
+    // and the exported file is accepted again as a new revision
+    const again = await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: file.body } });
+    expect(again.status).toBe(201);
+    expect(again.body.number).toBe(2);
+  });
+
+  it("refuses a broken stack with a path for each problem and stores nothing", async () => {
+    const before = await revisionCount();
+    const broken = structuredClone(reference);
+    broken.elements[2].parent = "nowhere";
+    broken.elements[3].size.x = 0;
+    broken.elements.push({ ...broken.elements[4] });
+    const r = await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: broken } });
+    expect(r.status).toBe(400);
+    expect(r.body.error.code).toBe("invalid_stack");
+    const paths = r.body.error.fields.map((f: { path: string }) => f.path);
+    expect(paths).toContain("stack.elements[2].parent");
+    expect(paths).toContain("stack.elements[3].size.x");
+    expect(paths.some((p: string) => p.startsWith("stack.elements[6]"))).toBe(true);
+    expect(await revisionCount()).toBe(before);
+  });
+
+  it("refuses a requirement on a metric the stack does not have", async () => {
+    const r = await t.call("POST", `/api/projects/${projectId}/revisions`, {
+      cookie: c.engineer,
+      body: { stack: reference, requirements: [{ metric: "compass.maxAbsDeg", max: 2, yield: 0.99 }] },
+    });
+    expect(r.status).toBe(400);
+    expect(r.body.error.fields[0].path).toBe("requirements[0].metric");
+  });
+
+  it("moves draft → in review → approved, freezes it, and starts a new draft from it", async () => {
+    const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
+    const edited = structuredClone(reference);
+    edited.name = "edited stack";
+    const patch = await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.engineer, body: { stack: edited } });
+    expect(patch.status).toBe(200);
+    expect(patch.body.name).toBe("edited stack");
+
+    expect((await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.reviewer, body: {} })).status).toBe(409);
+    expect((await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {} })).body.status).toBe("in_review");
+    const inReviewPatch = await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.engineer, body: { note: "x" } });
+    expect(inReviewPatch.status).toBe(409);
+    expect(inReviewPatch.body.error.code).toBe("revision_frozen");
+
+    const approved = await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.reviewer, body: {} });
+    expect(approved.body.status).toBe("approved");
+    expect(approved.body.approvedByName).toBe("Rana Haddad");
+    const frozen = await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.engineer, body: { stack: reference } });
+    expect(frozen.status).toBe(409);
+    expect(frozen.body.error.message).toMatch(/approved and frozen/);
+
+    const draft = await t.call("POST", `/api/revisions/${rev.id}/drafts`, { cookie: c.engineer, body: {} });
+    expect(draft.status).toBe(201);
+    expect(draft.body).toMatchObject({ status: "draft", basedOnId: rev.id, name: "edited stack" });
+  });
+
+  it("a reviewer sends back with a comment, which is kept", async () => {
+    const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
+    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {} });
+    const noComment = await t.call("POST", `/api/revisions/${rev.id}/return`, { cookie: c.reviewer, body: {} });
+    expect(noComment.status).toBe(400);
+    expect(noComment.body.error.fields[0].path).toBe("comment");
+    const back = await t.call("POST", `/api/revisions/${rev.id}/return`, { cookie: c.reviewer, body: { comment: "Mag bond line: use the film's tolerance." } });
+    expect(back.body.status).toBe("draft");
+    expect(back.body.comments).toEqual([expect.objectContaining({ kind: "returned", body: "Mag bond line: use the film's tolerance.", authorName: "Rana Haddad" })]);
+    const act = await t.call("GET", `/api/projects/${projectId}/activity`, { cookie: c.reviewer });
+    expect(act.body.activity[0].action).toBe("revision.returned");
+  });
+
+  it("engineers write, reviewers review, suppliers get nothing", async () => {
+    const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
+    expect((await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.reviewer, body: { stack: reference } })).status).toBe(403);
+    expect((await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.reviewer, body: { note: "x" } })).status).toBe(403);
+    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {} });
+    expect((await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.engineer, body: {} })).status).toBe(403);
+    for (const path of [`/api/revisions/${rev.id}`, `/api/projects/${projectId}/revisions`, `/api/revisions/${rev.id}/stack-file`]) {
+      expect((await t.call("GET", path, { cookie: c.supplier })).status).toBe(403);
+    }
+  });
+});
