@@ -1,0 +1,68 @@
+import type { QueryClient } from "@tanstack/react-query";
+import { createBrowserRouter, Outlet, type RouteObject } from "react-router";
+import { AcceptInvitationRoute, acceptInvitationLoader } from "./routes/accept-invitation";
+import { homeLoader } from "./routes/app/home";
+import { AppLayout, appLayoutLoader } from "./routes/app/layout";
+import { MembersRoute, membersLoader } from "./routes/app/members";
+import { ProjectRoute, projectLoader } from "./routes/app/project";
+import { ProjectsRoute, projectsLoader } from "./routes/app/projects";
+import { ReportsRoute, reportsLoader } from "./routes/app/reports";
+import { SuppliersRoute, suppliersLoader } from "./routes/app/suppliers";
+import { NotFoundRoute } from "./routes/not-found";
+import { InvitationError, RootError, RouteError } from "./routes/route-error";
+import { SignInRoute, signInLoader } from "./routes/sign-in";
+import { NavigationProgress } from "./shell/navigation-progress";
+import { BootScreen } from "./shell/boot-screen";
+
+function Root() {
+  return (
+    <>
+      <NavigationProgress />
+      <Outlet />
+    </>
+  );
+}
+
+export function createRoutes(queryClient: QueryClient): RouteObject[] {
+  return [
+    {
+      element: <Root />,
+      errorElement: <RootError />,
+      hydrateFallbackElement: <BootScreen />,
+      children: [
+        { path: "/sign-in", loader: signInLoader(queryClient), element: <SignInRoute /> },
+        {
+          path: "/invite/:token",
+          loader: acceptInvitationLoader(queryClient),
+          element: <AcceptInvitationRoute />,
+          errorElement: <InvitationError />,
+        },
+        {
+          path: "/",
+          loader: appLayoutLoader(queryClient),
+          element: <AppLayout />,
+          errorElement: <RootError />,
+          children: [
+            {
+              // Pages fail inside the shell, so the navigation stays usable.
+              errorElement: <RouteError />,
+              children: [
+                { index: true, loader: homeLoader(queryClient) },
+                { path: "projects", loader: projectsLoader(queryClient), element: <ProjectsRoute /> },
+                { path: "projects/:id", loader: projectLoader(queryClient), element: <ProjectRoute /> },
+                { path: "suppliers", loader: suppliersLoader(queryClient), element: <SuppliersRoute /> },
+                { path: "members", loader: membersLoader(queryClient), element: <MembersRoute /> },
+                { path: "reports", loader: reportsLoader(queryClient), element: <ReportsRoute /> },
+                { path: "*", element: <NotFoundRoute /> },
+              ],
+            },
+          ],
+        },
+      ],
+    },
+  ];
+}
+
+export function createAppRouter(queryClient: QueryClient) {
+  return createBrowserRouter(createRoutes(queryClient));
+}

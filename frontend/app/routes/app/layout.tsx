@@ -1,0 +1,30 @@
+import type { QueryClient } from "@tanstack/react-query";
+import { Outlet, type LoaderFunctionArgs } from "react-router";
+import { useMe } from "@frontend/features/auth/api/get-me";
+import { requireMe } from "../../route-guards";
+import { SideNav } from "../../shell/side-nav";
+import { TopBar } from "../../shell/top-bar";
+
+export const appLayoutLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await requireMe(queryClient, request);
+    return null;
+  };
+
+export function AppLayout() {
+  const me = useMe();
+  return (
+    <div className="flex h-dvh overflow-hidden">
+      <SideNav role={me.role} />
+      <div className="flex min-w-0 flex-1 flex-col">
+        <TopBar me={me} />
+        <main className="min-h-0 flex-1 overflow-y-auto" id="main">
+          <div className="mx-auto w-full max-w-[1280px] px-6 py-6">
+            <Outlet />
+          </div>
+        </main>
+      </div>
+    </div>
+  );
+}

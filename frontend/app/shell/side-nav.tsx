@@ -1,0 +1,63 @@
+import type { ReactNode } from "react";
+import { NavLink } from "react-router";
+import type { Role } from "@shared/schemas/common";
+import { Logo } from "@frontend/components/ui/logo";
+import { MembersIcon, ProjectsIcon, ReportsIcon, SuppliersIcon } from "@frontend/components/ui/icons";
+import { cn } from "@frontend/lib/cn";
+
+type NavItem = { to: string; label: string; icon: ReactNode; note?: string };
+
+/** What each role sees in the navigation (DESIGN.md, "People and roles"). */
+export function navItemsFor(role: Role): NavItem[] {
+  const projects = { to: "/projects", label: "Projects", icon: <ProjectsIcon /> };
+  const suppliers = { to: "/suppliers", label: "Suppliers", icon: <SuppliersIcon /> };
+  switch (role) {
+    case "admin":
+      return [projects, suppliers, { to: "/members", label: "Members", icon: <MembersIcon /> }];
+    case "engineer":
+    case "reviewer":
+      return [projects, { ...suppliers, note: "read only" }];
+    case "supplier":
+      return [{ to: "/reports", label: "Reports", icon: <ReportsIcon /> }];
+  }
+}
+
+export function SideNav({ role }: { role: Role }) {
+  const items = navItemsFor(role);
+  return (
+    <aside className="flex w-56 shrink-0 flex-col bg-ink text-paper">
+      <div className="flex h-14 items-center border-b border-white/[0.08] px-4">
+        <Logo />
+      </div>
+      <nav aria-label="Main" className="flex-1 px-2 pt-4">
+        <ul className="space-y-0.5">
+          {items.map((item) => (
+            <li key={item.to}>
+              <NavLink
+                to={item.to}
+                className={({ isActive }) =>
+                  cn(
+                    "group relative flex h-8.5 items-center gap-2.5 rounded-md px-2.5 text-[13px] font-semibold transition-colors",
+                    isActive ? "bg-white/[0.09] text-white" : "text-paper/65 hover:bg-white/[0.05] hover:text-paper",
+                  )
+                }
+              >
+                {({ isActive }) => (
+                  <>
+                    {isActive ? <span className="absolute top-1.5 bottom-1.5 -left-2 w-[3px] rounded-r bg-mag" aria-hidden="true" /> : null}
+                    <span className={cn(isActive ? "text-mag" : "text-paper/50 group-hover:text-paper/75")}>{item.icon}</span>
+                    <span className="flex-1">{item.label}</span>
+                    {item.note ? <span className="text-[10px] font-medium text-paper/35">{item.note}</span> : null}
+                  </>
+                )}
+              </NavLink>
+            </li>
+          ))}
+        </ul>
+      </nav>
+      <div className="border-t border-white/[0.08] px-4 py-3 text-[11px] leading-4 text-paper/40">
+        Predictions from the tolerances entered. They do not replace qualification of built parts.
+      </div>
+    </aside>
+  );
+}

@@ -1,0 +1,78 @@
+import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
+import { cn } from "@frontend/lib/cn";
+
+const CONTROL =
+  "block w-full rounded-md border bg-white px-2.5 text-[13px] text-ink placeholder:text-ink/40 " +
+  "transition-colors focus:outline-none focus:ring-2 focus:ring-gyro/25 disabled:bg-paper disabled:text-ink/50";
+
+function controlClass(invalid: boolean, extra?: string) {
+  return cn(CONTROL, invalid ? "border-fail focus:border-fail" : "border-line hover:border-ink/30 focus:border-gyro", extra);
+}
+
+type FieldProps = {
+  label: ReactNode;
+  error?: string;
+  hint?: ReactNode;
+  /** Text at the right of the label, e.g. a unit or "optional". */
+  aside?: ReactNode;
+  className?: string;
+  children: (ids: { id: string; describedBy: string | undefined; invalid: boolean }) => ReactNode;
+};
+
+/** Label, control, hint and error wired together for assistive technology. */
+export function Field({ label, error, hint, aside, className, children }: FieldProps) {
+  const id = useId();
+  const hintId = hint ? `${id}-hint` : undefined;
+  const errorId = error ? `${id}-error` : undefined;
+  const describedBy = [errorId, hintId].filter(Boolean).join(" ") || undefined;
+  return (
+    <div className={cn("flex flex-col gap-1", className)}>
+      <div className="flex items-baseline justify-between gap-2">
+        <label htmlFor={id} className="text-xs font-semibold text-ink/80">
+          {label}
+        </label>
+        {aside ? <span className="text-2xs text-ink/50">{aside}</span> : null}
+      </div>
+      {children({ id, describedBy, invalid: !!error })}
+      {error ? (
+        <p id={errorId} role="alert" className="text-xs font-medium text-fail">
+          {error}
+        </p>
+      ) : hint ? (
+        <p id={hintId} className="text-xs text-ink/55">
+          {hint}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+type InputProps = InputHTMLAttributes<HTMLInputElement> & { invalid?: boolean };
+export function Input({ invalid = false, className, ...rest }: InputProps) {
+  return <input aria-invalid={invalid || undefined} className={controlClass(invalid, cn("h-8.5", className))} {...rest} />;
+}
+
+type TextareaProps = TextareaHTMLAttributes<HTMLTextAreaElement> & { invalid?: boolean };
+export function Textarea({ invalid = false, className, ...rest }: TextareaProps) {
+  return <textarea aria-invalid={invalid || undefined} className={controlClass(invalid, cn("py-2 leading-5", className))} {...rest} />;
+}
+
+type SelectProps = SelectHTMLAttributes<HTMLSelectElement> & { invalid?: boolean };
+export function Select({ invalid = false, className, children, ...rest }: SelectProps) {
+  return (
+    <select
+      aria-invalid={invalid || undefined}
+      className={controlClass(
+        invalid,
+        cn(
+          "h-8.5 appearance-none bg-[length:10px] bg-[right_0.6rem_center] bg-no-repeat pr-7",
+          "bg-[url(\"data:image/svg+xml,%3Csvg xmlns='http://www.w3.org/2000/svg' viewBox='0 0 10 6'%3E%3Cpath d='M1 1l4 4 4-4' fill='none' stroke='%2317212b' stroke-width='1.4' stroke-linecap='round'/%3E%3C/svg%3E\")]",
+          className,
+        ),
+      )}
+      {...rest}
+    >
+      {children}
+    </select>
+  );
+}

@@ -1,0 +1,21 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { z } from "zod";
+import type { AcceptInvitationSchema } from "@shared/schemas/api";
+import { api } from "@frontend/lib/api-client";
+
+export type AcceptInvitation = z.infer<typeof AcceptInvitationSchema>;
+
+const AcceptAnswerSchema = z.object({ ok: z.literal(true) });
+
+export async function acceptInvitation({ token, input }: { token: string; input: AcceptInvitation }): Promise<void> {
+  await api.post(`/api/invitations/by-token/${encodeURIComponent(token)}/accept`, input, AcceptAnswerSchema);
+}
+
+export function useAcceptInvitation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: acceptInvitation,
+    // The answer set a session cookie for the new member; start from a clean cache.
+    onSuccess: () => queryClient.clear(),
+  });
+}

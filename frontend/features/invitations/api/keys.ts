@@ -1,0 +1,4 @@
+export const invitationKeys = {
+  all: ["invitation"] as const,
+  byToken: (token: string) => [...invitationKeys.all, token] as const,
+};

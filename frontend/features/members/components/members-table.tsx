@@ -1,0 +1,188 @@
+import { useState, type FormEvent } from "react";
+import type { Member, Supplier } from "@shared/schemas/api";
+import { RoleSchema, type Role } from "@shared/schemas/common";
+import { Alert } from "@frontend/components/ui/alert";
+import { Button, IconButton } from "@frontend/components/ui/button";
+import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
+import { Dialog } from "@frontend/components/ui/dialog";
+import { Field, Select } from "@frontend/components/ui/field";
+import { TrashIcon } from "@frontend/components/ui/icons";
+import { RoleBadge } from "@frontend/components/ui/role-badge";
+import { Table, TableFrame, Td, Th, THead, Tr } from "@frontend/components/ui/table";
+import { formatDate, initials } from "@frontend/lib/format";
+import { ROLE_LABELS } from "@frontend/lib/permissions";
+import { useDeleteMember } from "../api/delete-member";
+import { useUpdateMember } from "../api/update-member";
+
+type Props = { members: Member[]; suppliers: Supplier[]; currentUserId: string };
+
+export function MembersTable({ members, suppliers, currentUserId }: Props) {
+  const update = useUpdateMember();
+  const [supplierFor, setSupplierFor] = useState<Member | null>(null);
+  const [removing, setRemoving] = useState<Member | null>(null);
+  const [rowError, setRowError] = useState<{ id: string; message: string } | null>(null);
+
+  function changeRole(member: Member, role: Role) {
+    if (role === member.role) return;
+    // A supplier user must belong to a supplier company; ask which before saving.
+    if (role === "supplier") return setSupplierFor(member);
+    setRowError(null);
+    update.mutate(
+      { id: member.id, changes: { role, supplierId: null } },
+      { onError: (error) => setRowError({ id: member.id, message: error.message }) },
+    );
+  }
+
+  return (
+    <>
+      <TableFrame>
+        <Table aria-label="Members">
+          <THead>
+            <tr>
+              <Th>Member</Th>
+              <Th className="w-44">Role</Th>
+              <Th>Supplier company</Th>
+              <Th align="right">Joined</Th>
+              <Th className="w-12">
+                <span className="sr-only">Actions</span>
+              </Th>
+            </tr>
+          </THead>
+          <tbody>
+            {members.map((member) => {
+              const self = member.userId === currentUserId;
+              const saving = update.isPending && update.variables?.id === member.id;
+              return (
+                <Tr key={member.id}>
+                  <Td className="py-2">
+                    <div className="flex items-center gap-2.5">
+                      <span className="flex size-7 shrink-0 items-center justify-center rounded-full bg-ink/[0.07] text-[10px] font-extrabold text-ink/70">
+                        {initials(member.name)}
+                      </span>
+                      <div className="min-w-0">
+                        <p className="font-bold text-ink">
+                          {member.name}
+                          {self ? <span className="ml-1.5 text-xs font-semibold text-ink/45">(you)</span> : null}
+                        </p>
+                        <p className="text-xs text-ink/55">{member.email}</p>
+                      </div>
+                    </div>
+                    {rowError?.id === member.id ? <p className="mt-1 text-xs font-medium text-fail">{rowError.message}</p> : null}
+                  </Td>
+                  <Td>
+                    {self ? (
+                      <RoleBadge role={member.role} />
+                    ) : (
+                      <Select
+                        aria-label={`Role of ${member.name}`}
+                        value={member.role}
+                        disabled={saving}
+                        className="h-7.5 w-36 text-xs font-semibold"
+                        onChange={(e) => changeRole(member, RoleSchema.parse(e.target.value))}
+                      >
+                        {RoleSchema.options.map((role) => (
+                          <option key={role} value={role}>
+                            {ROLE_LABELS[role]}
+                          </option>
+                        ))}
+                      </Select>
+                    )}
+                  </Td>
+                  <Td className="text-ink/75">{member.supplierName ?? <span className="text-ink/35">—</span>}</Td>
+                  <Td numeric className="text-ink/65">
+                    {formatDate(member.createdAt)}
+                  </Td>
+                  <Td className="text-right">
+                    {self ? null : (
+                      <IconButton label={`Remove ${member.name}`} variant="danger-ghost" onClick={() => setRemoving(member)}>
+                        <TrashIcon />
+                      </IconButton>
+                    )}
+                  </Td>
+                </Tr>
+              );
+            })}
+          </tbody>
+        </Table>
+      </TableFrame>
+      {supplierFor ? (
+        <SupplierRoleDialog key={supplierFor.id} member={supplierFor} suppliers={suppliers} onClose={() => setSupplierFor(null)} />
+      ) : null}
+      {removing ? <RemoveMemberDialog key={removing.id} member={removing} onClose={() => setRemoving(null)} /> : null}
+    </>
+  );
+}
+
+function SupplierRoleDialog({ member, suppliers, onClose }: { member: Member; suppliers: Supplier[]; onClose: () => void }) {
+  const [supplierId, setSupplierId] = useState(member.supplierId ?? "");
+  const [error, setError] = useState<string | null>(null);
+  const update = useUpdateMember();
+
+  function submit(event: FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    if (!supplierId) return setError("Choose the supplier company this person works for.");
+    update.mutate(
+      { id: member.id, changes: { role: "supplier", supplierId } },
+      { onSuccess: onClose, onError: (e) => setError(e.message) },
+    );
+  }
+
+  return (
+    <Dialog
+      open
+      onClose={onClose}
+      busy={update.isPending}
+      size="sm"
+      title={`Make ${member.name} a supplier user`}
+      description="Supplier users see only the reports released to their own company, and nothing else in the workspace."
+      onSubmit={submit}
+      footer={
+        <>
+          <Button variant="secondary" onClick={onClose} disabled={update.isPending}>
+            Cancel
+          </Button>
+          <Button type="submit" variant="primary" pending={update.isPending}>
+            Change role
+          </Button>
+        </>
+      }
+    >
+      {suppliers.length === 0 ? (
+        <Alert tone="info">Add a supplier company on the Suppliers page first.</Alert>
+      ) : (
+        <Field label="Supplier company" error={error ?? undefined}>
+          {({ id, describedBy, invalid }) => (
+            <Select id={id} value={supplierId} invalid={invalid} aria-describedby={describedBy} onChange={(e) => setSupplierId(e.target.value)}>
+              <option value="">Choose…</option>
+              {suppliers.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.name}
+                </option>
+              ))}
+            </Select>
+          )}
+        </Field>
+      )}
+    </Dialog>
+  );
+}
+
+function RemoveMemberDialog({ member, onClose }: { member: Member; onClose: () => void }) {
+  const remove = useDeleteMember();
+  return (
+    <ConfirmDialog
+      open
+      onClose={onClose}
+      title="Remove this member?"
+      confirmLabel="Remove member"
+      pending={remove.isPending}
+      error={remove.error?.message}
+      onConfirm={() => remove.mutate(member.id, { onSuccess: onClose })}
+    >
+      <p>
+        <strong className="font-bold text-ink">{member.name}</strong> ({member.email}) loses access to the workspace at once. Their
+        past activity stays on record. You can invite them again later.
+      </p>
+    </ConfirmDialog>
+  );
+}

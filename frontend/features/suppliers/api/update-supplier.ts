@@ -1,0 +1,19 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import type { z } from "zod";
+import { SupplierSchema, type Supplier, type UpdateSupplierSchema } from "@shared/schemas/api";
+import { api } from "@frontend/lib/api-client";
+import { supplierKeys } from "./keys";
+
+export type UpdateSupplier = z.infer<typeof UpdateSupplierSchema>;
+
+export function updateSupplier({ id, changes }: { id: string; changes: UpdateSupplier }): Promise<Supplier> {
+  return api.patch(`/api/suppliers/${encodeURIComponent(id)}`, changes, SupplierSchema);
+}
+
+export function useUpdateSupplier() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: updateSupplier,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: supplierKeys.all }),
+  });
+}

@@ -1,0 +1,123 @@
+import type { z } from "zod";
+import { ApiErrorSchema } from "@shared/schemas/common";
+
+export type FieldError = { path: string; message: string };
+
+/**
+ * Every failed call to our API becomes one of these, so screens can branch on the
+ * status or the code and put `fields` next to the inputs they belong to.
+ */
+export class ApiError extends Error {
+  readonly status: number;
+  readonly code: string;
+  readonly fields: FieldError[];
+
+  constructor(status: number, code: string, message: string, fields: FieldError[] = []) {
+    super(message);
+    this.name = "ApiError";
+    this.status = status;
+    this.code = code;
+    this.fields = fields;
+  }
+
+  /** The message for one form field, if the server sent one. */
+  fieldMessage(path: string): string | undefined {
+    return this.fields.find((f) => f.path === path)?.message;
+  }
+}
+
+export function isApiError(error: unknown): error is ApiError {
+  return error instanceof ApiError;
+}
+
+const FALLBACK_MESSAGES: Record<number, string> = {
+  400: "The request was not accepted.",
+  401: "Your session has ended. Sign in again.",
+  403: "Your role does not allow this.",
+  404: "This item does not exist or was removed.",
+  409: "This conflicts with the current state. Reload and try again.",
+  429: "Too many attempts. Wait a minute and try again.",
+};
+
+async function toApiError(response: Response): Promise<ApiError> {
+  let body: unknown = undefined;
+  try {
+    body = await response.json();
+  } catch {
+    // Not JSON (a proxy error page, an empty body): fall back to the status text below.
+  }
+  const parsed = ApiErrorSchema.safeParse(body);
+  if (parsed.success) {
+    const { code, message, fields } = parsed.data.error;
+    return new ApiError(response.status, code, message, fields ?? []);
+  }
+  const message =
+    FALLBACK_MESSAGES[response.status] ??
+    (response.status >= 500 ? "The server ran into a problem. Try again shortly." : `Request failed (${response.status}).`);
+  return new ApiError(response.status, `http_${response.status}`, message);
+}
+
+type RequestOptions = {
+  method?: "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
+  body?: unknown;
+  signal?: AbortSignal;
+};
+
+/**
+ * Calls our JSON API and parses the answer with the shared response schema, so a
+ * field the contract does not declare never reaches a component.
+ * Pass `null` as the schema for answers without a body (204).
+ */
+export async function apiRequest<S extends z.ZodType>(path: string, schema: S, options?: RequestOptions): Promise<z.infer<S>>;
+export async function apiRequest(path: string, schema: null, options?: RequestOptions): Promise<void>;
+export async function apiRequest(path: string, schema: z.ZodType | null, options: RequestOptions = {}): Promise<unknown> {
+  const { method = "GET", body, signal } = options;
+  let response: Response;
+  try {
+    response = await fetch(path, {
+      method,
+      signal,
+      credentials: "same-origin",
+      headers: {
+        Accept: "application/json",
+        ...(body !== undefined ? { "Content-Type": "application/json" } : {}),
+      },
+      body: body !== undefined ? JSON.stringify(body) : undefined,
+    });
+  } catch (cause) {
+    if (cause instanceof DOMException && cause.name === "AbortError") throw cause;
+    throw new ApiError(0, "network", "The server cannot be reached. Check the connection and try again.");
+  }
+
+  if (!response.ok) throw await toApiError(response);
+  if (schema === null || response.status === 204) return undefined;
+
+  let json: unknown;
+  try {
+    json = await response.json();
+  } catch {
+    throw new ApiError(response.status, "bad_response", "The server sent an answer that could not be read.");
+  }
+  const parsed = schema.safeParse(json);
+  if (!parsed.success) {
+    throw new ApiError(response.status, "bad_response", "The server sent an answer in an unexpected shape.");
+  }
+  return parsed.data;
+}
+
+export const api = {
+  get: <S extends z.ZodType>(path: string, schema: S, signal?: AbortSignal) => apiRequest(path, schema, { signal }),
+  post: <S extends z.ZodType>(path: string, body: unknown, schema: S) => apiRequest(path, schema, { method: "POST", body }),
+  patch: <S extends z.ZodType>(path: string, body: unknown, schema: S) => apiRequest(path, schema, { method: "PATCH", body }),
+  delete: (path: string) => apiRequest(path, null, { method: "DELETE" }),
+};
+
+/** Builds `/api/x?q=..` leaving out empty values. */
+export function withQuery(path: string, params: Record<string, string | undefined>): string {
+  const search = new URLSearchParams();
+  for (const [key, value] of Object.entries(params)) {
+    if (value !== undefined && value !== "") search.set(key, value);
+  }
+  const qs = search.toString();
+  return qs ? `${path}?${qs}` : path;
+}
