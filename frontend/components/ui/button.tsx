@@ -3,7 +3,7 @@ import { cn } from "@frontend/lib/cn";
 import { Spinner } from "./spinner";
 
 type Variant = "primary" | "secondary" | "ghost" | "danger" | "danger-ghost";
-type Size = "sm" | "md";
+type Size = "sm" | "md" | "icon";
 
 const VARIANTS: Record<Variant, string> = {
   primary: "bg-ink text-paper hover:bg-ink/90 border border-ink shadow-[0_1px_0_rgba(0,0,0,0.08)]",
@@ -15,6 +15,7 @@ const VARIANTS: Record<Variant, string> = {
 const SIZES: Record<Size, string> = {
   sm: "h-7 px-2.5 text-xs gap-1.5",
   md: "h-8.5 px-3.5 text-[13px] gap-2",
+  icon: "size-7 text-xs",
 };
 
 export type ButtonProps = ButtonHTMLAttributes<HTMLButtonElement> & {
@@ -49,7 +50,7 @@ export function Button({
       )}
       {...rest}
     >
-      {pending ? <Spinner size={size === "sm" ? 12 : 14} /> : icon}
+      {pending ? <Spinner size={size === "md" ? 14 : 12} /> : icon}
       {children}
     </button>
   );
@@ -64,14 +65,7 @@ export function IconButton({
   ...rest
 }: Omit<ButtonProps, "icon" | "size"> & { label: string }) {
   return (
-    <Button
-      aria-label={label}
-      title={label}
-      variant={variant}
-      size="sm"
-      className={cn("w-7 px-0", className)}
-      {...rest}
-    >
+    <Button aria-label={label} title={label} variant={variant} size="icon" className={className} {...rest}>
       {children}
     </Button>
   );

@@ -15,7 +15,8 @@ export function EmptyState({
   className?: string;
 }) {
   return (
-    <div className={cn("flex flex-col items-center px-6 py-10 text-center", className)}>
+    // Vertical padding is py-10 unless the caller sets its own.
+    <div className={cn("flex flex-col items-center px-6 text-center", className ?? "py-10")}>
       {icon ? (
         <div className="mb-3 flex size-10 items-center justify-center rounded-lg border border-line bg-paper text-ink/55">{icon}</div>
       ) : null}

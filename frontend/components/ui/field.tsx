@@ -2,7 +2,7 @@ import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttribu
 import { cn } from "@frontend/lib/cn";
 
 const CONTROL =
-  "block w-full rounded-md border bg-white px-2.5 text-[13px] text-ink placeholder:text-ink/40 " +
+  "block w-full rounded-md border bg-white px-2.5 text-ink placeholder:text-ink/40 " +
   "transition-colors focus:outline-none focus:ring-2 focus:ring-gyro/25 disabled:bg-paper disabled:text-ink/50";
 
 function controlClass(invalid: boolean, extra?: string) {
@@ -47,26 +47,31 @@ export function Field({ label, error, hint, aside, className, children }: FieldP
   );
 }
 
-type InputProps = InputHTMLAttributes<HTMLInputElement> & { invalid?: boolean };
-export function Input({ invalid = false, className, ...rest }: InputProps) {
-  return <input aria-invalid={invalid || undefined} className={controlClass(invalid, cn("h-8.5", className))} {...rest} />;
+// Height and text size come from `compact`, never from `className`, so the two never fight.
+const heightClass = (compact: boolean) => (compact ? "h-7.5 text-xs" : "h-8.5 text-[13px]");
+
+type InputProps = InputHTMLAttributes<HTMLInputElement> & { invalid?: boolean; compact?: boolean };
+export function Input({ invalid = false, compact = false, className, ...rest }: InputProps) {
+  return <input aria-invalid={invalid || undefined} className={controlClass(invalid, cn(heightClass(compact), className))} {...rest} />;
 }
 
 type TextareaProps = TextareaHTMLAttributes<HTMLTextAreaElement> & { invalid?: boolean };
 export function Textarea({ invalid = false, className, ...rest }: TextareaProps) {
-  return <textarea aria-invalid={invalid || undefined} className={controlClass(invalid, cn("py-2 leading-5", className))} {...rest} />;
+  return (
+    <textarea aria-invalid={invalid || undefined} className={controlClass(invalid, cn("py-2 text-[13px] leading-5", className))} {...rest} />
+  );
 }
 
-type SelectProps = SelectHTMLAttributes<HTMLSelectElement> & { invalid?: boolean };
-export function Select({ invalid = false, className, children, ...rest }: SelectProps) {
+type SelectProps = SelectHTMLAttributes<HTMLSelectElement> & { invalid?: boolean; compact?: boolean };
+export function Select({ invalid = false, compact = false, className, children, ...rest }: SelectProps) {
   return (
     <select
       aria-invalid={invalid || undefined}
       className={controlClass(
         invalid,
         cn(
-          "h-8.5 appearance-none bg-[length:10px] bg-[right_0.6rem_center] bg-no-repeat pr-7",
-          "bg-[url(\"data:image/svg+xml,%3Csvg xmlns='http://www.w3.org/2000/svg' viewBox='0 0 10 6'%3E%3Cpath d='M1 1l4 4 4-4' fill='none' stroke='%2317212b' stroke-width='1.4' stroke-linecap='round'/%3E%3C/svg%3E\")]",
+          heightClass(compact),
+          "select-chevron appearance-none pr-7",
           className,
         ),
       )}

@@ -10,6 +10,7 @@ export function Panel({
   className,
   bodyClassName,
   accent,
+  padded = true,
 }: {
   title: ReactNode;
   meta?: ReactNode;
@@ -19,6 +20,8 @@ export function Panel({
   bodyClassName?: string;
   /** A palette colour shown as a short bar before the title. */
   accent?: string;
+  /** The body's padding; off for a table that runs edge to edge. */
+  padded?: boolean;
 }) {
   return (
     <section className={cn("rounded-lg border border-line bg-panel shadow-[0_1px_2px_rgba(23,33,43,0.04)]", className)}>
@@ -30,7 +33,7 @@ export function Panel({
         </div>
         {actions ? <div className="flex items-center gap-1.5">{actions}</div> : null}
       </header>
-      <div className={cn("p-4", bodyClassName)}>{children}</div>
+      <div className={cn(padded && "p-4", bodyClassName)}>{children}</div>
     </section>
   );
 }

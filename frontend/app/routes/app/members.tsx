@@ -53,7 +53,7 @@ export function MembersRoute() {
               <MembersTable members={members.data ?? []} suppliers={supplierList} currentUserId={me.user.id} />
             )}
           </section>
-          <Panel title="Pending invitations" meta={<span className="tabular-nums">{pendingCount}</span>} bodyClassName="p-0">
+          <Panel title="Pending invitations" meta={<span className="tabular-nums">{pendingCount}</span>} padded={false}>
             {invitations.isError ? (
               <div className="p-4">
                 <Alert>{invitations.error.message}</Alert>

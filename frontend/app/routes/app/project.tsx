@@ -114,7 +114,7 @@ export function ProjectRoute() {
             and acknowledged by the supplier.
           </Upcoming>
         </div>
-        <Panel title="Activity" className="self-start" bodyClassName="max-h-[520px] overflow-y-auto p-4">
+        <Panel title="Activity" className="self-start" bodyClassName="max-h-[520px] overflow-y-auto">
           <ActivityList projectId={project.id} />
         </Panel>
       </div>
@@ -147,7 +147,7 @@ function Upcoming({ title, accent, arrives, children }: { title: string; accent:
       title={title}
       accent={accent}
       meta={<span className="tabular-nums">0</span>}
-      bodyClassName="flex h-full flex-col gap-3 p-4"
+      bodyClassName="flex h-full flex-col gap-3"
       className="flex flex-col"
     >
       <p className="text-[13px] leading-5 text-ink/65">{children}</p>

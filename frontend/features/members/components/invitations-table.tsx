@@ -32,7 +32,7 @@ export function InvitationsTable({ invitations, suppliers }: { invitations: Invi
             <Th>Invited</Th>
             <Th>Role</Th>
             <Th align="right">Expires</Th>
-            <Th className="text-right">
+            <Th align="right">
               <span className="sr-only">Actions</span>
             </Th>
           </tr>

@@ -77,7 +77,8 @@ export function MembersTable({ members, suppliers, currentUserId }: Props) {
                         aria-label={`Role of ${member.name}`}
                         value={member.role}
                         disabled={saving}
-                        className="h-7.5 w-36 text-xs font-semibold"
+                        compact
+                        className="w-36 font-semibold"
                         onChange={(e) => changeRole(member, RoleSchema.parse(e.target.value))}
                       >
                         {RoleSchema.options.map((role) => (

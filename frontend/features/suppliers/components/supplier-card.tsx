@@ -166,7 +166,7 @@ function AddContactForm({ supplierId, onDone }: { supplierId: string; onDone: ()
           value={name}
           invalid={!!errors.name}
           onChange={(e) => setName(e.target.value)}
-          className="h-7.5 text-xs"
+          compact
         />
         <Input
           aria-label="Contact e-mail"
@@ -175,7 +175,7 @@ function AddContactForm({ supplierId, onDone }: { supplierId: string; onDone: ()
           value={email}
           invalid={!!errors.email}
           onChange={(e) => setEmail(e.target.value)}
-          className="h-7.5 text-xs"
+          compact
         />
       </div>
       {message ? (

@@ -1,0 +1,66 @@
+import { mkdirSync } from "node:fs";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
+
+export const ARTIFACTS = fileURLToPath(new URL("../.artifacts", import.meta.url));
+
+export async function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: "/usr/bin/chromium",
+    headless: true,
+    args: [
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+      "--use-angle=swiftshader",
+      "--enable-unsafe-swiftshader",
+    ],
+  });
+}
+
+export type Session = { context: BrowserContext; page: Page; problems: string[] };
+
+/**
+ * A fresh context (own cookies) at a laptop's size. Page errors and failed API calls
+ * are collected, so a test can assert that the page stayed clean.
+ */
+export async function openSession(browser: Browser, baseURL: string): Promise<Session> {
+  const context = await browser.newContext({ baseURL, viewport: { width: 1440, height: 900 }, deviceScaleFactor: 1 });
+  const page = await context.newPage();
+  const problems: string[] = [];
+  page.on("pageerror", (error) => problems.push(`page error: ${error.message}`));
+  page.on("console", (message) => {
+    if (message.type() === "error") problems.push(`console error: ${message.text()}`);
+  });
+  page.setDefaultTimeout(15_000);
+  return { context, page, problems };
+}
+
+export const DEMO_PASSWORD = "orthostack-demo";
+
+export async function signIn(page: Page, email: string, password = DEMO_PASSWORD) {
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail address").fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+}
+
+export async function screenshot(page: Page, name: string) {
+  mkdirSync(ARTIFACTS, { recursive: true });
+  // Let web fonts settle so the picture shows Manrope, not a fallback.
+  await page.evaluate(() => document.fonts.ready);
+  await page.screenshot({ path: join(ARTIFACTS, `${name}.png`), fullPage: true });
+}
+
+/** The labels of the main navigation, in order. */
+export async function navLabels(page: Page): Promise<string[]> {
+  const nav = page.getByRole("navigation", { name: "Main" });
+  await nav.waitFor();
+  const links = await nav.getByRole("link").allInnerTexts();
+  return links.map((t) => t.split("\n")[0].trim());
+}

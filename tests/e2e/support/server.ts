@@ -1,0 +1,96 @@
+import { spawn, type ChildProcess } from "node:child_process";
+import { mkdtempSync, rmSync } from "node:fs";
+import { createServer } from "node:net";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
+
+const ROOT = fileURLToPath(new URL("../../..", import.meta.url));
+
+export type RunningServer = { baseURL: string; stop: () => Promise<void>; output: () => string };
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = createServer();
+    probe.unref();
+    probe.on("error", reject);
+    probe.listen(0, "127.0.0.1", () => {
+      const address = probe.address();
+      const port = typeof address === "object" && address ? address.port : 0;
+      probe.close(() => resolve(port));
+    });
+  });
+}
+
+async function waitForHealth(baseURL: string, child: ChildProcess, output: () => string, timeoutMs: number) {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`server exited with code ${child.exitCode}:\n${output()}`);
+    try {
+      const res = await fetch(`${baseURL}/api/health`);
+      if (res.ok) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`server did not answer /api/health within ${timeoutMs} ms:\n${output()}`);
+}
+
+/**
+ * The real server, as `npm start` runs it, on a free port with a fresh data folder
+ * (so the demo seed runs) and the built client from dist/client.
+ */
+export async function startServer(): Promise<RunningServer> {
+  const port = await freePort();
+  const dataDir = mkdtempSync(join(tmpdir(), "orthostack-e2e-"));
+  // The address better-auth and the invitation links use; the browser must use the same origin.
+  const baseURL = `http://localhost:${port}`;
+  let log = "";
+  const child = spawn("npx", ["tsx", "backend/server.ts"], {
+    cwd: ROOT,
+    // Own process group, so stopping it also stops the node process npx starts.
+    detached: true,
+    stdio: ["ignore", "pipe", "pipe"],
+    env: {
+      ...process.env,
+      PORT: String(port),
+      DATA_DIR: dataDir,
+      NODE_ENV: "production",
+      // One file signs in more often than a person would in a minute.
+      SIGN_IN_PER_MINUTE: "200",
+    },
+  });
+  child.stdout?.on("data", (d) => (log += d));
+  child.stderr?.on("data", (d) => (log += d));
+  const output = () => log;
+
+  const stop = async () => {
+    if (child.exitCode === null && child.pid) {
+      const exited = new Promise<void>((resolve) => child.once("exit", () => resolve()));
+      try {
+        process.kill(-child.pid, "SIGTERM");
+      } catch {
+        // already gone
+      }
+      const timer = setTimeout(() => {
+        try {
+          if (child.pid) process.kill(-child.pid, "SIGKILL");
+        } catch {
+          // already gone
+        }
+      }, 5000);
+      await exited;
+      clearTimeout(timer);
+    }
+    rmSync(dataDir, { recursive: true, force: true });
+  };
+
+  try {
+    await waitForHealth(baseURL, child, output, 150_000);
+  } catch (error) {
+    await stop();
+    throw error;
+  }
+  return { baseURL, stop, output };
+}
