@@ -31,10 +31,10 @@ function StackSection() {
       <rect x="96" y="172" width="228" height="4" fill={bond} />
       <rect x="96" y="140" width="228" height="32" rx="1.5" fill="#64748b" />
       {/* gyro + accel dies */}
-      <rect x="112" y="136" width="92" height="4" fill={bond} />
-      <rect x="112" y="106" width="92" height="30" rx="1.5" fill="#4f46e5" />
-      <rect x="218" y="136" width="92" height="4" fill={bond} />
-      <rect x="218" y="106" width="92" height="30" rx="1.5" fill="#0d9488" transform="rotate(-1.6 264 121)" />
+      <rect x="112" y="136" width="96" height="4" fill={bond} />
+      <rect x="112" y="106" width="96" height="30" rx="1.5" fill="#4f46e5" />
+      <rect x="212" y="136" width="96" height="4" fill={bond} />
+      <rect x="212" y="106" width="96" height="30" rx="1.5" fill="#0d9488" transform="rotate(-1.6 260 121)" />
       {/* magnetometer */}
       <rect x="160" y="102" width="100" height="4" fill={bond} />
       <rect x="160" y="76" width="100" height="26" rx="1.5" fill="#e4572e" />
@@ -43,7 +43,7 @@ function StackSection() {
       <g color="rgba(247,245,240,0.85)" stroke="currentColor" strokeWidth="1.4" fill="none">
         <path d="M136 121h22" markerEnd="url(#arrow)" />
         <path d="M136 121v-22" markerEnd="url(#arrow)" />
-        <g transform="rotate(-1.6 264 121)">
+        <g transform="rotate(-1.6 260 121)">
           <path d="M242 121h22" markerEnd="url(#arrow)" />
           <path d="M242 121v-22" markerEnd="url(#arrow)" />
         </g>
@@ -53,7 +53,7 @@ function StackSection() {
 
       {/* tolerance call-out on the tilted die */}
       <g stroke="rgba(247,245,240,0.55)" strokeWidth="1" fill="none">
-        <path d="M310 106h60M312 103.4l58-1.8" strokeDasharray="3 3" />
+        <path d="M308 106h60M308 103.2l60-1.7" strokeDasharray="3 3" />
         <path d="M362 92a20 20 0 0 1 0 16" markerEnd="url(#arrow)" color="rgba(247,245,240,0.55)" />
       </g>
       <text x="372" y="88" fill="rgba(247,245,240,0.8)" fontSize="11" fontWeight="700" fontFamily="Manrope, sans-serif" style={{ fontVariantNumeric: "tabular-nums" }}>
@@ -64,8 +64,8 @@ function StackSection() {
         <path d="M36 172h8M36 136h8" />
         <path d="M40 146v24" markerStart="url(#arrow)" markerEnd="url(#arrow)" color="rgba(247,245,240,0.55)" />
       </g>
-      <text x="14" y="128" fill="rgba(247,245,240,0.8)" fontSize="11" fontWeight="700" fontFamily="Manrope, sans-serif" style={{ fontVariantNumeric: "tabular-nums" }}>
-        25 ± 5 µm
+      <text x="10" y="128" fill="rgba(247,245,240,0.8)" fontSize="11" fontWeight="700" fontFamily="Manrope, sans-serif" style={{ fontVariantNumeric: "tabular-nums" }}>
+        180 ± 10 µm
       </text>
       <path d="M44 140h52" stroke="rgba(247,245,240,0.25)" strokeDasharray="2 3" />
     </svg>
