@@ -10,6 +10,7 @@ import { membersRouter } from "./routes/members";
 import { projectsRouter } from "./routes/projects";
 import { publicRouter } from "./routes/public";
 import { revisionsRouter } from "./routes/revisions";
+import { studiesRouter } from "./routes/studies";
 import { suppliersRouter } from "./routes/suppliers";
 
 export const JSON_LIMIT = "2mb";
@@ -65,6 +66,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   app.use("/api", suppliersRouter(deps));
   app.use("/api", membersRouter(deps));
   app.use("/api", revisionsRouter(deps));
+  app.use("/api", studiesRouter(deps));
   app.use("/api", notFoundApi);
 
   options.mountClient?.(app);

@@ -1,5 +1,6 @@
 import type { Auth } from "./auth";
 import type { Database } from "./db/client";
+import type { StudyQueue } from "./services/study-queue";
 
 /** What the app is built from; tests build it with an in-memory database. */
 export type AppDeps = {
@@ -8,4 +9,5 @@ export type AppDeps = {
   /** Public address used in links (invitations, report e-mails). */
   baseURL: string;
   log: (message: string, err?: unknown) => void;
+  studyQueue: StudyQueue;
 };

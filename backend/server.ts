@@ -6,6 +6,8 @@ import { openDatabase } from "./db/client";
 import { parseEnv } from "./lib/env";
 import { loadSecret } from "./lib/secret";
 import { seedDemo } from "./seed";
+import { StudyQueue } from "./services/study-queue";
+import { engineRunner } from "./services/study-runner";
 import { startHooks } from "./start-hooks";
 
 const env = parseEnv();
@@ -23,13 +25,15 @@ const auth = createAuth({
   trustedOrigins: [`http://127.0.0.1:${env.PORT}`],
   signInPerMinute: env.SIGN_IN_PER_MINUTE,
 });
-const deps = { db, auth, baseURL, log };
+const studyQueue = new StudyQueue(db, engineRunner({ threads: env.STUDY_THREADS }), log);
+const deps = { db, auth, baseURL, log, studyQueue };
 
 if (env.SEED_DEMO) {
   const outcome = await seedDemo(db, auth);
   log(outcome === "seeded" ? "seeded the demo workspace" : "database has a workspace; demo seed skipped");
 }
 await startHooks.run(deps);
+await studyQueue.start();
 
 const dev = env.NODE_ENV === "development";
 let devApp: Express | undefined;
@@ -49,6 +53,7 @@ const stop = async () => {
   if (stopping) return;
   stopping = true;
   server.close();
+  await studyQueue.stop();
   await startHooks.stop();
   await close();
   process.exit(0);

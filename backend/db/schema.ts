@@ -5,7 +5,7 @@
  */
 import { relations, sql } from "drizzle-orm";
 import type { StackFile } from "@shared/schemas/stack-file";
-import { boolean, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { boolean, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 
 const timestamps = {
   createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
@@ -245,3 +245,50 @@ export const comments = pgTable(
   },
   (t) => [index("comments_target_idx").on(t.targetType, t.targetId)],
 );
+
+// ---- studies ------------------------------------------------------------------------
+export const STUDY_STATUSES = ["queued", "running", "finished", "failed", "cancelled", "interrupted"] as const;
+
+export const studies = pgTable(
+  "studies",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    workspaceId: uuid("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "cascade" }),
+    revisionId: uuid("revision_id")
+      .notNull()
+      .references(() => stackRevisions.id, { onDelete: "cascade" }),
+    /** 1, 2, 3… within the project. */
+    number: integer("number").notNull(),
+    label: text("label").notNull().default(""),
+    status: text("status", { enum: STUDY_STATUSES }).notNull().default("queued"),
+    /** Frozen copies: the study file as run, and the stack it ran on (a draft may change later). */
+    study: jsonb("study").$type<Record<string, unknown>>().notNull(),
+    stack: jsonb("stack").$type<StackFile>().notNull(),
+    /** The site and the field found for it, when the inclination came from the WMM. */
+    site: jsonb("site").$type<Record<string, unknown> | null>(),
+    trialsDone: integer("trials_done").notNull().default(0),
+    trialsTotal: integer("trials_total").notNull().default(0),
+    trialsPerSecond: doublePrecision("trials_per_second"),
+    error: text("error"),
+    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    startedAt: timestamp("started_at", { withTimezone: true }),
+    finishedAt: timestamp("finished_at", { withTimezone: true }),
+    ...timestamps,
+  },
+  (t) => [uniqueIndex("studies_project_number_idx").on(t.projectId, t.number), index("studies_status_idx").on(t.status, t.createdAt)],
+);
+
+/** The result file and plot data; written in the same transaction that marks the study finished. */
+export const studyResults = pgTable("study_results", {
+  studyId: uuid("study_id")
+    .primaryKey()
+    .references(() => studies.id, { onDelete: "cascade" }),
+  result: jsonb("result").$type<Record<string, unknown>>().notNull(),
+  passes: boolean("passes"),
+  createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
+});

@@ -1,5 +1,6 @@
 import { validateStackFile, type StackFile } from "@shared/schemas/stack-file";
 import type { Requirement } from "@shared/schemas/revisions";
+import { metricIds } from "@shared/engine/model";
 import { badRequest } from "../lib/errors";
 
 /** Validates a stack file for the API: a 400 with one field per problem, paths under `stack`. */
@@ -17,25 +18,10 @@ export function checkStack(json: unknown): StackFile {
 
 /** Every requirement must name a metric the stack has. */
 export function checkRequirements(stack: StackFile, requirements: Requirement[]) {
-  const ids = new Set(metricIdsOf(stack));
+  const ids = new Set(metricIds(stack, {}));
   const fields = requirements.flatMap((r, i) =>
     ids.has(r.metric) ? [] : [{ path: `requirements[${i}].metric`, message: `the stack has no metric “${r.metric}”` }],
   );
   if (fields.length) throw badRequest("A requirement names a metric the stack does not have.", fields, "invalid_requirements");
 }
 
-// TEMPORARY until the engine exports its metric list: MODEL.md section 7.
-function metricIdsOf(stack: StackFile): string[] {
-  const ids: string[] = [];
-  const sensors = stack.elements.filter((e) => e.kind === "gyro" || e.kind === "accel" || e.kind === "mag");
-  for (const s of sensors) {
-    for (const i of ["x", "y", "z"]) {
-      for (const j of ["x", "y", "z"]) if (i !== j) ids.push(`${s.id}.crossAxisPct.${i}${j}`);
-      ids.push(`${s.id}.crossAxisTotalPct.${i}`, `${s.id}.axisMisalignDeg.${i}`);
-    }
-  }
-  for (const e of stack.elements) if (e.kind !== "board") ids.push(`${e.id}.tiltDeg`);
-  for (let a = 0; a < sensors.length; a++) for (let b = a + 1; b < sensors.length; b++) ids.push(`${sensors[a].id}~${sensors[b].id}.relRotDeg`);
-  if (sensors.some((s) => s.kind === "accel") && sensors.some((s) => s.kind === "mag")) ids.push("heading.maxAbsDeg", "heading.rmsDeg");
-  return ids;
-}

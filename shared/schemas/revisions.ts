@@ -1,19 +1,11 @@
 import { z } from "zod";
 import { IdSchema } from "./common";
+import { RequirementSchema, type Requirement } from "./study-file";
 
 export const RevisionStatusSchema = z.enum(["draft", "in_review", "approved"]);
 export type RevisionStatus = z.infer<typeof RevisionStatusSchema>;
 
-/** One requirement of a revision: |metric| ≤ max in at least `yield` of units. */
-export const RequirementSchema = z.object({
-  metric: z.string({ message: "metric is required" }).min(1, { message: "choose a metric" }),
-  max: z.number({ message: "limit must be a number" }).positive({ message: "limit must be greater than 0" }),
-  yield: z
-    .number({ message: "yield target must be a number" })
-    .gt(0, { message: "yield target must be above 0" })
-    .lt(1, { message: "yield target must be below 1 (e.g. 0.9973)" }),
-});
-export type Requirement = z.infer<typeof RequirementSchema>;
+export { RequirementSchema, type Requirement };
 export const RequirementsSchema = z.array(RequirementSchema).max(200, { message: "at most 200 requirements" });
 
 /** The stack itself is checked by the engine's validator (shared/schemas/stack-file). */

@@ -6,6 +6,8 @@ import { openDatabase, type DatabaseHandle } from "@backend/db/client";
 import type { AppDeps } from "@backend/deps";
 import { DEMO_PASSWORD, seedDemo } from "@backend/seed";
 import { startHooks } from "@backend/start-hooks";
+import { StudyQueue, type StudyRunner } from "@backend/services/study-queue";
+import { engineRunner } from "@backend/services/study-runner";
 
 export type TestApp = {
   url: string;
@@ -16,17 +18,22 @@ export type TestApp = {
   /** fetch against the app with JSON body and optional cookie. */
   call: (method: string, path: string, opts?: { cookie?: string; body?: unknown; raw?: string; headers?: Record<string, string> }) => Promise<{ status: number; body: any; headers: Headers }>;
   close: () => Promise<void>;
+  /** Stops like a crash: the server goes, the running study is dropped without a word to the database. */
+  crash: () => Promise<void>;
 };
 
 /** A fresh app on an in-memory PGlite, migrated from drizzle/ and seeded with the demo workspace. */
-export async function startTestApp(opts: { seed?: boolean; signInPerMinute?: number } = {}): Promise<TestApp> {
-  const handle = await openDatabase("memory://");
+export async function startTestApp(opts: { seed?: boolean; signInPerMinute?: number; runner?: StudyRunner; handle?: DatabaseHandle } = {}): Promise<TestApp> {
+  const handle = opts.handle ?? (await openDatabase("memory://"));
   const baseURL = "http://localhost:3999";
   const auth = createAuth({ db: handle.db, baseURL, secret: "test-secret-test-secret-test-secret-123", signInPerMinute: opts.signInPerMinute ?? 1000 });
   const errors: unknown[] = [];
-  const deps: AppDeps = { db: handle.db, auth, baseURL, log: (_m, e) => errors.push(e) };
+  const log = (_m: string, e?: unknown) => void errors.push(e);
+  const studyQueue = new StudyQueue(handle.db, opts.runner ?? engineRunner({ threads: 2 }), log);
+  const deps: AppDeps = { db: handle.db, auth, baseURL, log, studyQueue };
   if (opts.seed !== false) await seedDemo(handle.db, auth);
   await startHooks.run(deps);
+  await studyQueue.start();
   const app = createApp(deps);
   const server: Server = await new Promise((resolve) => {
     const s = app.listen(0, "127.0.0.1", () => resolve(s));
@@ -74,10 +81,15 @@ export async function startTestApp(opts: { seed?: boolean; signInPerMinute?: num
     handle,
     signIn,
     call,
+    crash: async () => {
+      studyQueue.abandon();
+      await new Promise((r) => server.close(r));
+    },
     close: async () => {
       await new Promise((r) => server.close(r));
+      await studyQueue.stop();
       await startHooks.stop();
-      await handle.close();
+      if (!opts.handle) await handle.close();
     },
   };
 }

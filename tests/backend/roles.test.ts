@@ -7,12 +7,14 @@ import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { createApp } from "@backend/app";
 import { readFileSync } from "node:fs";
-import { invitations, members, projects, stackRevisions, supplierContacts, suppliers, users } from "@backend/db/schema";
+import { invitations, members, projects, stackRevisions, studies, supplierContacts, suppliers, users } from "@backend/db/schema";
 import type { Role } from "@shared/schemas/common";
 import { startTestApp, type TestApp } from "./harness";
 import { registeredApiRoutes } from "./route-table";
 
 const REFERENCE = JSON.parse(readFileSync(new URL("../fixtures/stack-reference.json", import.meta.url), "utf8"));
+
+const STUDY = { ...JSON.parse(readFileSync(new URL("../fixtures/study-reference.json", import.meta.url), "utf8")), trials: 1000 };
 
 type Who = Role | "nobody";
 const WHO: Who[] = ["nobody", "admin", "engineer", "reviewer", "supplier"];
@@ -57,6 +59,15 @@ async function freshRevision(c: Ctx, status: "draft" | "in_review" | "approved" 
   const projectId = await freshProject(c);
   const [r] = await c.t.handle.db.insert(stackRevisions).values({ workspaceId: c.workspaceId, projectId, number: 1, status, stack: REFERENCE }).returning();
   return r.id;
+}
+async function freshStudy(c: Ctx, status: "queued" | "failed" | "finished" = "queued") {
+  const revisionId = await freshRevision(c);
+  const [rev] = await c.t.handle.db.select().from(stackRevisions).where(eq(stackRevisions.id, revisionId));
+  const [s] = await c.t.handle.db
+    .insert(studies)
+    .values({ workspaceId: c.workspaceId, projectId: rev.projectId, revisionId, number: 1, status, study: { ...STUDY }, stack: REFERENCE, trialsTotal: STUDY.trials })
+    .returning();
+  return s.id;
 }
 async function freshInvitation(c: Ctx) {
   const [i] = await c.t.handle.db
@@ -105,6 +116,12 @@ export const ROUTES: Row[] = [
   { route: "POST /api/revisions/:id/return", allowed: REVIEWERS, path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/return`, body: () => ({ comment: "please fix" }) },
   { route: "POST /api/revisions/:id/comments", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/comments`, body: () => ({ body: "looks fine" }) },
   { route: "GET /api/revisions/:id/stack-file", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/stack-file` },
+  { route: "GET /api/projects/:id/studies", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/studies` },
+  { route: "POST /api/revisions/:id/studies", allowed: WRITERS, path: async (c) => `/api/revisions/${await freshRevision(c)}/studies`, body: () => ({ study: STUDY }) },
+  { route: "GET /api/studies/:id", allowed: STAFF, path: async (c) => `/api/studies/${await freshStudy(c)}` },
+  { route: "POST /api/studies/:id/cancel", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c)}/cancel` },
+  { route: "POST /api/studies/:id/rerun", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c, "failed")}/rerun` },
+  { route: "GET /api/geomagnetic-field", allowed: STAFF, path: () => "/api/geomagnetic-field?latitudeDeg=52&longitudeDeg=-1&altitudeKm=0&date=2026-06-01" },
 ];
 
 let t: TestApp;
@@ -112,7 +129,10 @@ let ctx: Ctx;
 const cookies: Partial<Record<Who, string>> = {};
 
 beforeAll(async () => {
-  t = await startTestApp();
+  // studies in this table never finish: they wait until cancelled
+  t = await startTestApp({
+    runner: (_input, { signal }) => new Promise((_resolve, reject) => signal.addEventListener("abort", () => reject(new Error("cancelled")))),
+  });
   for (const role of EVERYONE) cookies[role] = await t.signIn(`${role}@example.com`);
   const [s] = await t.handle.db.select().from(suppliers).where(eq(suppliers.name, "Larkfield Assembly"));
   ctx = { t, workspaceId: s.workspaceId, supplierId: s.id };

@@ -1,0 +1,191 @@
+import { and, desc, eq, inArray, sql } from "drizzle-orm";
+import type { Project } from "@shared/schemas/api";
+import type { CreateStudy, Study, StudySummary } from "@shared/schemas/studies";
+import { validateStudy } from "@shared/schemas/study-file";
+import type { Database } from "../db/client";
+import { projects, stackRevisions, studies, studyResults, users } from "../db/schema";
+import { badRequest, conflict, found } from "../lib/errors";
+import type { Actor } from "../middleware/session";
+import { recordActivity } from "./activity";
+import { fieldAtSite } from "./geomagnetic";
+import { getRevisionRow } from "./revisions";
+import type { StudyQueue } from "./study-queue";
+
+const summaryColumns = {
+  id: studies.id,
+  projectId: studies.projectId,
+  revisionId: studies.revisionId,
+  revisionNumber: stackRevisions.number,
+  number: studies.number,
+  label: studies.label,
+  status: studies.status,
+  study: studies.study,
+  trialsDone: studies.trialsDone,
+  trialsTotal: studies.trialsTotal,
+  trialsPerSecond: studies.trialsPerSecond,
+  error: studies.error,
+  createdByName: users.name,
+  createdAt: studies.createdAt,
+  startedAt: studies.startedAt,
+  finishedAt: studies.finishedAt,
+  passes: studyResults.passes,
+};
+
+type Row = {
+  study: Record<string, unknown>;
+  trialsDone: number;
+  trialsTotal: number;
+  trialsPerSecond: number | null;
+  createdAt: Date;
+  startedAt: Date | null;
+  finishedAt: Date | null;
+  passes: boolean | null;
+} & Pick<StudySummary, "id" | "projectId" | "revisionId" | "revisionNumber" | "number" | "label" | "status" | "error" | "createdByName">;
+
+const iso = (d: Date | null) => (d ? d.toISOString() : null);
+
+function toSummary({ study, trialsDone, trialsTotal, trialsPerSecond, ...r }: Row): StudySummary {
+  return {
+    ...r,
+    trials: Number(study.trials),
+    seed: Number(study.seed),
+    progress: { done: trialsDone, total: trialsTotal || Number(study.trials), trialsPerSecond },
+    createdAt: r.createdAt.toISOString(),
+    startedAt: iso(r.startedAt),
+    finishedAt: iso(r.finishedAt),
+  };
+}
+
+function baseQuery(db: Database) {
+  return db
+    .select(summaryColumns)
+    .from(studies)
+    .innerJoin(stackRevisions, eq(stackRevisions.id, studies.revisionId))
+    .leftJoin(users, eq(users.id, studies.createdBy))
+    .leftJoin(studyResults, eq(studyResults.studyId, studies.id));
+}
+
+export async function listStudies(db: Database, workspaceId: string, projectId: string) {
+  const [p] = await db.select({ id: projects.id }).from(projects).where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, projectId)));
+  found(p, "The project");
+  const rows = await baseQuery(db)
+    .where(and(eq(studies.workspaceId, workspaceId), eq(studies.projectId, projectId)))
+    .orderBy(desc(studies.number));
+  return rows.map(toSummary);
+}
+
+export async function getStudy(db: Database, workspaceId: string, id: string, withResult = true): Promise<Study> {
+  const [row] = await baseQuery(db).where(and(eq(studies.workspaceId, workspaceId), eq(studies.id, id)));
+  const r = found(row, "The study");
+  const [extra] = await db.select({ stack: studies.stack, site: studies.site }).from(studies).where(eq(studies.id, id));
+  const [res] = withResult ? await db.select({ result: studyResults.result }).from(studyResults).where(eq(studyResults.studyId, id)) : [];
+  return {
+    ...toSummary(r),
+    study: r.study,
+    stack: extra.stack as unknown as Record<string, unknown>,
+    site: (extra.site as Study["site"]) ?? null,
+    result: res?.result ?? null,
+  };
+}
+
+/**
+ * Freezes the study file (with the revision's requirements when it names none, and the WMM
+ * inclination when a site is given) and the revision's stack, then queues it.
+ */
+export async function createStudy(db: Database, queue: StudyQueue, actor: Actor, revisionId: string, input: CreateStudy) {
+  const revision = await getRevisionRow(db, actor.workspaceId, revisionId);
+  const file: Record<string, unknown> = { ...input.study };
+  delete file.site;
+  let site: Study["site"] = null;
+  if (input.site) {
+    site = fieldAtSite(input.site);
+    file.inclinationDeg = Math.round(site.inclinationDeg * 1e4) / 1e4;
+  }
+  if (file.requirements === undefined && revision.requirements.length) file.requirements = revision.requirements;
+  const v = validateStudy(file, revision.stack);
+  if (!v.ok) {
+    throw badRequest(
+      `The study file has ${v.issues.length === 1 ? "a problem" : `${v.issues.length} problems`}; nothing was queued.`,
+      v.issues.map((i) => ({ path: i.path ? `study.${i.path}` : "study", message: i.message })),
+      "invalid_study",
+    );
+  }
+  const id = await db.transaction(async (tx) => {
+    const [{ next }] = await tx
+      .select({ next: sql<number>`coalesce(max(${studies.number}), 0)::int + 1` })
+      .from(studies)
+      .where(eq(studies.projectId, revision.projectId));
+    const [row] = await tx
+      .insert(studies)
+      .values({
+        workspaceId: actor.workspaceId,
+        projectId: revision.projectId,
+        revisionId,
+        number: next,
+        label: input.label ?? "",
+        study: v.study as Record<string, unknown>,
+        stack: revision.stack,
+        site,
+        trialsTotal: v.study.trials,
+        createdBy: actor.userId,
+      })
+      .returning({ id: studies.id });
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId: revision.projectId,
+      actorId: actor.userId,
+      action: "study.queued",
+      summary: `queued study ${next} on stack revision ${revision.number} (${v.study.trials.toLocaleString("en-US")} trials, seed ${v.study.seed})`,
+      data: { studyId: row.id },
+    });
+    return row.id;
+  });
+  queue.kick();
+  return getStudy(db, actor.workspaceId, id, false);
+}
+
+export async function cancelStudy(db: Database, queue: StudyQueue, actor: Actor, id: string) {
+  const s = await getStudy(db, actor.workspaceId, id, false);
+  if (s.status !== "queued" && s.status !== "running") throw conflict(`Study ${s.number} is ${s.status}; only a queued or running study can be cancelled.`, "invalid_state");
+  await queue.cancel(id);
+  await recordActivity(db, { workspaceId: actor.workspaceId, projectId: s.projectId, actorId: actor.userId, action: "study.cancelled", summary: `cancelled study ${s.number}` });
+  return getStudy(db, actor.workspaceId, id, false);
+}
+
+/** Puts an interrupted, failed or cancelled study back in the queue with the same frozen settings. */
+export async function rerunStudy(db: Database, queue: StudyQueue, actor: Actor, id: string) {
+  const s = await getStudy(db, actor.workspaceId, id, false);
+  if (!["interrupted", "failed", "cancelled"].includes(s.status)) {
+    throw conflict(`Study ${s.number} is ${s.status}; only an interrupted, failed or cancelled study can be run again.`, "invalid_state");
+  }
+  await db.transaction(async (tx) => {
+    await tx.delete(studyResults).where(eq(studyResults.studyId, id));
+    await tx
+      .update(studies)
+      .set({ status: "queued", trialsDone: 0, trialsPerSecond: null, error: null, startedAt: null, finishedAt: null, createdAt: new Date() })
+      .where(eq(studies.id, id));
+    await recordActivity(tx, { workspaceId: actor.workspaceId, projectId: s.projectId, actorId: actor.userId, action: "study.requeued", summary: `ran study ${s.number} again` });
+  });
+  queue.kick();
+  return getStudy(db, actor.workspaceId, id, false);
+}
+
+/** For the projects table: each project's newest study. */
+export async function lastStudies(db: Database, projectIds: string[]) {
+  const out = new Map<string, NonNullable<Project["lastStudy"]>>();
+  if (!projectIds.length) return out;
+  const rows = await db
+    .selectDistinctOn([studies.projectId], {
+      projectId: studies.projectId,
+      id: studies.id,
+      status: studies.status,
+      passes: studyResults.passes,
+      finishedAt: studies.finishedAt,
+    })
+    .from(studies)
+    .leftJoin(studyResults, eq(studyResults.studyId, studies.id))
+    .where(inArray(studies.projectId, projectIds))
+    .orderBy(studies.projectId, desc(studies.number));
+  for (const r of rows) out.set(r.projectId, { id: r.id, status: r.status, passes: r.passes, finishedAt: iso(r.finishedAt) });
+  return out;
+}

@@ -1,0 +1,49 @@
+import { z } from "zod";
+import { IdSchema } from "./common";
+import { FieldAtSiteSchema, SiteSchema } from "./site";
+
+export const StudyStatusSchema = z.enum(["queued", "running", "finished", "failed", "cancelled", "interrupted"]);
+export type StudyStatus = z.infer<typeof StudyStatusSchema>;
+
+/**
+ * Starting a study: the study file of MODEL.md (checked against the revision's stack by the
+ * engine's validator), optionally a site whose WMM inclination replaces `inclinationDeg`.
+ */
+export const CreateStudySchema = z.object({
+  study: z.record(z.string(), z.unknown(), { message: "study must be a study file (an object)" }),
+  site: SiteSchema.optional(),
+  label: z.string().trim().max(120, { message: "label must be at most 120 characters" }).optional(),
+});
+export type CreateStudy = z.infer<typeof CreateStudySchema>;
+
+export const StudySummarySchema = z.object({
+  id: IdSchema,
+  projectId: IdSchema,
+  revisionId: IdSchema,
+  revisionNumber: z.number().int(),
+  number: z.number().int(),
+  label: z.string(),
+  status: StudyStatusSchema,
+  progress: z.object({ done: z.number().int(), total: z.number().int(), trialsPerSecond: z.number().nullable() }),
+  trials: z.number().int(),
+  seed: z.number(),
+  passes: z.boolean().nullable(),
+  error: z.string().nullable(),
+  createdByName: z.string().nullable(),
+  createdAt: z.string(),
+  startedAt: z.string().nullable(),
+  finishedAt: z.string().nullable(),
+});
+export type StudySummary = z.infer<typeof StudySummarySchema>;
+
+export const StudySchema = StudySummarySchema.extend({
+  study: z.record(z.string(), z.unknown()),
+  stack: z.record(z.string(), z.unknown()),
+  site: FieldAtSiteSchema.nullable(),
+  /** The result file (MODEL.md §11) with its plot data, once finished. */
+  result: z.record(z.string(), z.unknown()).nullable(),
+});
+export type Study = z.infer<typeof StudySchema>;
+export const StudyListSchema = z.object({ studies: z.array(StudySummarySchema) });
+
+export const CompareQuerySchema = z.object({ a: IdSchema, b: IdSchema });

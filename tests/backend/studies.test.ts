@@ -1,0 +1,167 @@
+import { readFileSync } from "node:fs";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eq, sql } from "drizzle-orm";
+import { openDatabase, type DatabaseHandle } from "@backend/db/client";
+import { studies, studyResults } from "@backend/db/schema";
+import type { StudyRunner } from "@backend/services/study-queue";
+import { startTestApp, type TestApp } from "./harness";
+
+const fixture = (name: string) => JSON.parse(readFileSync(new URL(`../fixtures/${name}`, import.meta.url), "utf8"));
+const stack = fixture("stack-reference.json");
+const study = { ...fixture("study-reference.json"), trials: 2000 };
+
+async function until<T>(fn: () => Promise<T>, ok: (v: T) => boolean, ms = 30_000): Promise<T> {
+  const end = Date.now() + ms;
+  for (;;) {
+    const v = await fn();
+    if (ok(v)) return v;
+    if (Date.now() > end) throw new Error(`timed out; last value ${JSON.stringify(v).slice(0, 300)}`);
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}
+
+/** A runner that reports progress and waits until told to finish, or is cancelled. */
+function controllableRunner() {
+  let release: (() => void) | null = null;
+  let calls = 0;
+  const runner: StudyRunner = (input, { signal, onProgress }) =>
+    new Promise((resolve, reject) => {
+      calls++;
+      const total = Number(input.study.trials);
+      onProgress(Math.floor(total / 4), total);
+      signal.addEventListener("abort", () => reject(new Error("aborted")));
+      release = () => resolve({ result: { format: "orthostack.result/1", trials: total, seed: input.study.seed, metrics: {}, requirements: [] }, passes: true });
+    });
+  return { runner, finish: () => release?.(), calls: () => calls };
+}
+
+describe("studies with a controllable runner", () => {
+  let t: TestApp;
+  let handle: DatabaseHandle;
+  let ctl: ReturnType<typeof controllableRunner>;
+  const c: Record<string, string> = {};
+  let revisionId: string;
+
+  beforeAll(async () => {
+    handle = await openDatabase("memory://");
+    ctl = controllableRunner();
+    t = await startTestApp({ handle, runner: ctl.runner });
+    for (const role of ["admin", "engineer", "reviewer", "supplier"]) c[role] = await t.signIn(`${role}@example.com`);
+    const p = await t.call("POST", "/api/projects", { cookie: c.engineer, body: { name: "Study tests" } });
+    const rev = await t.call("POST", `/api/projects/${p.body.id}/revisions`, { cookie: c.engineer, body: { stack } });
+    revisionId = rev.body.id;
+  });
+  afterAll(async () => {
+    await t?.close();
+    await handle?.close();
+  });
+
+  it("queues with 202, shows progress while running, and stores the result on finishing", async () => {
+    const r = await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: c.engineer, body: { study } });
+    expect(r.status).toBe(202);
+    expect(["queued", "running"]).toContain(r.body.status);
+    const running = await until(() => t.call("GET", `/api/studies/${r.body.id}`, { cookie: c.reviewer }), (x) => x.body.status === "running" && x.body.progress.done > 0);
+    expect(running.body.progress).toMatchObject({ done: 500, total: 2000 });
+    expect(running.body.result).toBeNull();
+    ctl.finish();
+    const done = await until(() => t.call("GET", `/api/studies/${r.body.id}`, { cookie: c.reviewer }), (x) => x.body.status === "finished");
+    expect(done.body.result.format).toBe("orthostack.result/1");
+    expect(done.body.passes).toBe(true);
+    expect(done.body.stack).toEqual(stack);
+  });
+
+  it("refuses a bad study file with paths and queues nothing", async () => {
+    const before = (await handle.db.select({ n: sql<number>`count(*)::int` }).from(studies))[0].n;
+    for (const [bad, path] of [
+      [{ ...study, trials: 0 }, "study.trials"],
+      [{ ...study, requirements: [{ metric: "nope.tiltDeg", max: 1, yield: 0.9 }] }, "study.requirements[0].metric"],
+    ] as const) {
+      const r = await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: c.engineer, body: { study: bad } });
+      expect(r.status).toBe(400);
+      expect(r.body.error.code).toBe("invalid_study");
+      expect(r.body.error.fields.map((f: { path: string }) => f.path)).toContain(path);
+    }
+    expect((await handle.db.select({ n: sql<number>`count(*)::int` }).from(studies))[0].n).toBe(before);
+  });
+
+  it("takes the inclination from a site through the WMM and keeps what it found", async () => {
+    const { inclinationDeg: _drop, ...noInclination } = study;
+    const r = await t.call("POST", `/api/revisions/${revisionId}/studies`, {
+      cookie: c.engineer,
+      body: { study: noInclination, site: { latitudeDeg: 80, longitudeDeg: 0, altitudeKm: 0, date: "2025-01-01" } },
+    });
+    expect(r.status).toBe(202);
+    // WMM2025 test value at 80°N 0°E, 2025.0: I = 83.21°
+    expect(r.body.study.inclinationDeg).toBeCloseTo(83.21, 2);
+    expect(r.body.site.inclinationDeg).toBeCloseTo(83.21, 2);
+    await t.call("POST", `/api/studies/${r.body.id}/cancel`, { cookie: c.engineer, body: {} });
+  });
+
+  it("cancels a running study", async () => {
+    const r = await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: c.engineer, body: { study } });
+    await until(() => t.call("GET", `/api/studies/${r.body.id}`, { cookie: c.engineer }), (x) => x.body.status === "running");
+    const cancel = await t.call("POST", `/api/studies/${r.body.id}/cancel`, { cookie: c.engineer, body: {} });
+    expect(cancel.status).toBe(200);
+    expect(cancel.body.status).toBe("cancelled");
+    const again = await t.call("POST", `/api/studies/${r.body.id}/cancel`, { cookie: c.engineer, body: {} });
+    expect(again.status).toBe(409);
+    const none = await handle.db.select().from(studyResults).where(eq(studyResults.studyId, r.body.id));
+    expect(none).toHaveLength(0);
+  });
+
+  it("roles: reviewers read, suppliers get nothing", async () => {
+    expect((await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: c.reviewer, body: { study } })).status).toBe(403);
+    const list = await t.call("GET", `/api/projects/${(await t.call("GET", `/api/revisions/${revisionId}`, { cookie: c.engineer })).body.projectId}/studies`, { cookie: c.supplier });
+    expect(list.status).toBe(403);
+  });
+});
+
+describe("faults", () => {
+  it("a study that throws is failed with its message, and the server keeps serving", async () => {
+    const runner: StudyRunner = async () => {
+      throw new Error("the stack has no board");
+    };
+    const t = await startTestApp({ runner });
+    try {
+      const eng = await t.signIn("engineer@example.com");
+      const p = await t.call("POST", "/api/projects", { cookie: eng, body: { name: "x" } });
+      const rev = await t.call("POST", `/api/projects/${p.body.id}/revisions`, { cookie: eng, body: { stack } });
+      const s = await t.call("POST", `/api/revisions/${rev.body.id}/studies`, { cookie: eng, body: { study } });
+      const failed = await until(() => t.call("GET", `/api/studies/${s.body.id}`, { cookie: eng }), (x) => x.body.status === "failed");
+      expect(failed.body.error).toBe("the stack has no board");
+      expect((await t.call("GET", "/api/health")).status).toBe(200);
+    } finally {
+      await t.close();
+    }
+  });
+
+  it("after a stop mid-study the study is interrupted, and it can be run again", async () => {
+    const handle = await openDatabase("memory://");
+    const first = controllableRunner();
+    const t1 = await startTestApp({ handle, runner: first.runner });
+    const eng = await t1.signIn("engineer@example.com");
+    const p = await t1.call("POST", "/api/projects", { cookie: eng, body: { name: "restart" } });
+    const rev = await t1.call("POST", `/api/projects/${p.body.id}/revisions`, { cookie: eng, body: { stack } });
+    const s = await t1.call("POST", `/api/revisions/${rev.body.id}/studies`, { cookie: eng, body: { study } });
+    await until(() => t1.call("GET", `/api/studies/${s.body.id}`, { cookie: eng }), (x) => x.body.status === "running");
+    await t1.crash();
+
+    const second = controllableRunner();
+    const t2 = await startTestApp({ handle, runner: second.runner, seed: false });
+    try {
+      const eng2 = await t2.signIn("engineer@example.com");
+      const after = await t2.call("GET", `/api/studies/${s.body.id}`, { cookie: eng2 });
+      expect(after.body.status).toBe("interrupted");
+      expect(after.body.result).toBeNull();
+      const rerun = await t2.call("POST", `/api/studies/${s.body.id}/rerun`, { cookie: eng2, body: {} });
+      expect(rerun.status).toBe(202);
+      await until(() => t2.call("GET", `/api/studies/${s.body.id}`, { cookie: eng2 }), (x) => x.body.status === "running");
+      second.finish();
+      const done = await until(() => t2.call("GET", `/api/studies/${s.body.id}`, { cookie: eng2 }), (x) => x.body.status === "finished");
+      expect(done.body.result.trials).toBe(2000);
+    } finally {
+      await t2.close();
+      await handle.close();
+    }
+  });
+});
