@@ -50,8 +50,17 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await page.getByRole("button", { name: "Sign in" }).click();
 }
 
+/** Signs in and waits for the role's start page. */
+export async function signInAs(page: Page, email: string) {
+  await signIn(page, email);
+  await page.waitForURL((url) => url.pathname === "/projects" || url.pathname === "/reports");
+  await page.getByRole("navigation", { name: "Main" }).waitFor();
+}
+
 export async function screenshot(page: Page, name: string) {
   mkdirSync(ARTIFACTS, { recursive: true });
+  // Park the pointer on empty page space so no hover state is in the picture.
+  await page.mouse.move(page.viewportSize()!.width - 4, page.viewportSize()!.height - 4);
   // Let web fonts settle so the picture shows Manrope, not a fallback.
   await page.evaluate(() => document.fonts.ready);
   await page.screenshot({ path: join(ARTIFACTS, `${name}.png`), fullPage: true });

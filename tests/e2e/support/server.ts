@@ -46,6 +46,13 @@ export async function startServer(): Promise<RunningServer> {
   const dataDir = mkdtempSync(join(tmpdir(), "orthostack-e2e-"));
   // The address better-auth and the invitation links use; the browser must use the same origin.
   const baseURL = `http://localhost:${port}`;
+  // Vitest puts Vite's import.meta.env values (BASE_URL="/", MODE, DEV, PROD, SSR) and its
+  // own VITEST* flags into process.env; the server must start as `npm start` would.
+  const env: NodeJS.ProcessEnv = {};
+  for (const [key, value] of Object.entries(process.env)) {
+    if (["BASE_URL", "MODE", "DEV", "PROD", "SSR", "NODE_ENV"].includes(key) || key.startsWith("VITEST")) continue;
+    env[key] = value;
+  }
   let log = "";
   const child = spawn("npx", ["tsx", "backend/server.ts"], {
     cwd: ROOT,
@@ -53,7 +60,7 @@ export async function startServer(): Promise<RunningServer> {
     detached: true,
     stdio: ["ignore", "pipe", "pipe"],
     env: {
-      ...process.env,
+      ...env,
       PORT: String(port),
       DATA_DIR: dataDir,
       NODE_ENV: "production",
