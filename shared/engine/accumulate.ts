@@ -1,0 +1,310 @@
+/**
+ * Accumulating trials with bounded memory, mergeable across threads, and the same
+ * numbers for any thread count.
+ *
+ * Two kinds of state:
+ * - WorkerState (one per thread, any set of blocks): integer counts only (percentile
+ *   histograms, yield counts, heading-envelope histograms), exact extremes and the
+ *   worst trials (ties broken by trial index). Adding integers is exact, so these merge
+ *   to the same totals in any order.
+ * - BlockPartial (one per block, small): the floating-point sums (moments by Welford,
+ *   regression cross-products) and the raw values of the few tracked metrics. The
+ *   coordinator folds them strictly in block order, so float rounding is the same
+ *   whatever thread ran which block.
+ */
+import { LogHistogram } from "./histogram";
+import { createScratch, evaluateTrial, type Model } from "./model";
+import { BLOCK_SIZE } from "./random";
+import { blockSampler, blockTrials, type SamplingMode } from "./sampling";
+
+/**
+ * Percentile stores: metrics 2^-8 of the value over 2^-24..2^16; heading envelope
+ * 2^-4 over 2^-14..2^8 deg (a plot, and small enough that the 180 stores of a sweep stay
+ * in cache).
+ */
+export const METRIC_BITS = 8;
+export const ENVELOPE_BITS = 4;
+export const metricStore = (counts?: Uint32Array) => new LogHistogram(METRIC_BITS, -24, 40, counts);
+export const envelopeStore = (counts?: Uint32Array) => new LogHistogram(ENVELOPE_BITS, -14, 22, counts);
+const METRIC_LEN = 2 * metricStore(new Uint32Array(0)).perSign;
+const ENVELOPE_LEN = 2 * envelopeStore(new Uint32Array(0)).perSign;
+
+/**
+ * The regression sums use the first REG_TRIALS_PER_BLOCK trials of every block (1/8 of
+ * the sample): the cross-products cost p² per trial, and 1/8 of 10^6 trials already
+ * gives standardised coefficients to about ±0.003.
+ */
+export const REG_TRIALS_PER_BLOCK = 512;
+
+export interface TrackedSpec {
+  metric: number; // index into model.metrics
+  /** |v| limit of a requirement, or NaN */
+  limit: number;
+  /** coverage probability for adaptive stopping / convergence */
+  p: number;
+}
+
+export interface RegressionSpec {
+  /** draw indices used as regressors (non-degenerate draws) */
+  cols: Int32Array;
+  /** regressed metrics and their design: "linear" (signed metrics) or "squared" (magnitudes) */
+  metrics: { metric: number; design: "linear" | "squared" }[];
+  useLinear: boolean;
+  useSquared: boolean;
+}
+
+export interface Plan {
+  mode: SamplingMode;
+  seed: number;
+  trials: number; // maximum trials (adaptive) or exactly the trials
+  blocks: number;
+  requirements: { metric: number; max: number; yield: number; id: string }[];
+  tracked: TrackedSpec[];
+  regression: RegressionSpec;
+  worstK: number;
+}
+
+export interface WorkerState {
+  n: number;
+  nMetrics: number;
+  hist: Uint32Array; // nMetrics × 2·perSign
+  minAbs: Float64Array;
+  maxAbs: Float64Array;
+  min: Float64Array;
+  max: Float64Array;
+  pass: Float64Array; // per requirement
+  nAtt: number;
+  env: Uint32Array; // nAtt × 2·perSignEnv
+  envMin: Float64Array;
+  envMax: Float64Array;
+  worstK: number;
+  worstVal: Float64Array; // nMetrics × K, signed values, sorted by |v| descending
+  worstTrial: Float64Array; // nMetrics × K, -1 = empty
+}
+
+export interface BlockPartial {
+  block: number;
+  n: number;
+  /** per metric: mean, M2 (Welford within the block) */
+  moments: Float64Array;
+  /** n × tracked.length raw values, trial-major */
+  tracked: Float64Array;
+  /** upper triangles of Σ z zᵀ (z = [1, regressors]) for the linear and squared designs */
+  xtxLin: Float64Array | null;
+  xtxSq: Float64Array | null;
+  /** per regressed metric: Σ z·y (length p+1) then Σ y² */
+  xty: Float64Array | null;
+}
+
+export function metricHistogram(st: WorkerState, k: number): LogHistogram {
+  return metricStore(st.hist.subarray(k * METRIC_LEN, (k + 1) * METRIC_LEN));
+}
+
+export function envelopeHistogram(st: WorkerState, k: number): LogHistogram {
+  return envelopeStore(st.env.subarray(k * ENVELOPE_LEN, (k + 1) * ENVELOPE_LEN));
+}
+
+export function createWorkerState(m: Model, plan: Plan): WorkerState {
+  const nM = m.metrics.length;
+  const hLen = METRIC_LEN;
+  const eLen = ENVELOPE_LEN;
+  const nAtt = m.heading ? m.heading.attitudes.count : 0;
+  const K = plan.worstK;
+  return {
+    n: 0,
+    nMetrics: nM,
+    hist: new Uint32Array(nM * hLen),
+    minAbs: new Float64Array(nM).fill(Infinity),
+    maxAbs: new Float64Array(nM).fill(0),
+    min: new Float64Array(nM).fill(Infinity),
+    max: new Float64Array(nM).fill(-Infinity),
+    pass: new Float64Array(plan.requirements.length),
+    nAtt,
+    env: new Uint32Array(nAtt * eLen),
+    envMin: new Float64Array(nAtt).fill(Infinity),
+    envMax: new Float64Array(nAtt).fill(-Infinity),
+    worstK: K,
+    worstVal: new Float64Array(nM * K),
+    worstTrial: new Float64Array(nM * K).fill(-1),
+  };
+}
+
+function insertWorst(st: WorkerState, k: number, v: number, trial: number): void {
+  const K = st.worstK;
+  if (K === 0) return;
+  const o = k * K;
+  const a = Math.abs(v);
+  const wv = st.worstVal, wt = st.worstTrial;
+  // last slot is the smallest kept; order: |v| descending, then trial ascending
+  const lastT = wt[o + K - 1];
+  if (lastT >= 0) {
+    const la = Math.abs(wv[o + K - 1]);
+    if (a < la || (a === la && trial > lastT)) return;
+  }
+  let i = K - 1;
+  while (i > 0) {
+    const pt = wt[o + i - 1];
+    if (pt >= 0) {
+      const pa = Math.abs(wv[o + i - 1]);
+      if (pa > a || (pa === a && pt < trial)) break;
+    }
+    wv[o + i] = wv[o + i - 1];
+    wt[o + i] = wt[o + i - 1];
+    i--;
+  }
+  wv[o + i] = v;
+  wt[o + i] = trial;
+}
+
+/** Run one block of trials into the worker state; returns the block's float partial. */
+export function runBlock(m: Model, plan: Plan, st: WorkerState, block: number): BlockPartial {
+  const n = blockTrials(block, plan.trials);
+  const sampler = blockSampler(m, plan.mode, plan.seed, block, n);
+  const s = createScratch(m);
+  const draws = new Float64Array(m.drawCount);
+  const nM = m.metrics.length;
+  const moments = new Float64Array(2 * nM);
+  const nT = plan.tracked.length;
+  const tracked = new Float64Array(n * nT);
+  const trackedIdx = Int32Array.from(plan.tracked.map((t) => t.metric));
+
+  const reg = plan.regression;
+  const p = reg.cols.length;
+  const zLen = p + 1;
+  const triLen = (zLen * (zLen + 1)) / 2;
+  const xtxLin = reg.useLinear ? new Float64Array(triLen) : null;
+  const xtxSq = reg.useSquared ? new Float64Array(triLen) : null;
+  const nR = reg.metrics.length;
+  const xty = nR > 0 ? new Float64Array(nR * (zLen + 1)) : null;
+  const zLin = new Float64Array(zLen);
+  const zSq = new Float64Array(zLen);
+  const mu = Float64Array.from(reg.cols, (c) => m.drawDist[c].mean);
+
+  const hLen = METRIC_LEN;
+  const eLen = ENVELOPE_LEN;
+  const hist = metricStore(new Uint32Array(0));
+  const envH = envelopeStore(new Uint32Array(0));
+  const stHist = st.hist, stEnv = st.env, minAbs = st.minAbs, maxAbs = st.maxAbs, vMin = st.min, vMax = st.max;
+  const envMin = st.envMin, envMax = st.envMax, pass = st.pass;
+  const reqs = plan.requirements;
+  const nAtt = st.nAtt;
+  const firstTrial = block * BLOCK_SIZE;
+
+  for (let i = 0; i < n; i++) {
+    sampler.next(draws);
+    evaluateTrial(m, draws, s);
+    const vals = s.metrics;
+    const cnt = i + 1;
+    for (let k = 0; k < nM; k++) {
+      const v = vals[k];
+      // Welford
+      const mean = moments[2 * k];
+      const d = v - mean;
+      const nm = mean + d / cnt;
+      moments[2 * k] = nm;
+      moments[2 * k + 1] += d * (v - nm);
+      stHist[k * hLen + hist.index(v)]++;
+      const a = v < 0 ? -v : v;
+      if (a < minAbs[k]) minAbs[k] = a;
+      if (a > maxAbs[k]) maxAbs[k] = a;
+      if (v < vMin[k]) vMin[k] = v;
+      if (v > vMax[k]) vMax[k] = v;
+      if (st.worstK > 0) {
+        const lt = st.worstTrial[k * st.worstK + st.worstK - 1];
+        if (lt < 0 || a >= Math.abs(st.worstVal[k * st.worstK + st.worstK - 1])) insertWorst(st, k, v, firstTrial + i);
+      }
+    }
+    for (let r = 0; r < reqs.length; r++) {
+      const v = vals[reqs[r].metric];
+      if ((v < 0 ? -v : v) <= reqs[r].max) pass[r]++;
+    }
+    for (let t = 0; t < nT; t++) tracked[i * nT + t] = vals[trackedIdx[t]];
+    if (nAtt > 0) {
+      const he = s.headingErr;
+      for (let k = 0; k < nAtt; k++) {
+        const e = he[k];
+        stEnv[k * eLen + envH.index(e)]++;
+        if (e < envMin[k]) envMin[k] = e;
+        if (e > envMax[k]) envMax[k] = e;
+      }
+    }
+    if (nR > 0 && i < REG_TRIALS_PER_BLOCK) {
+      zLin[0] = 1;
+      zSq[0] = 1;
+      for (let j = 0; j < p; j++) {
+        const x = draws[reg.cols[j]];
+        zLin[j + 1] = x;
+        const dx = x - mu[j];
+        zSq[j + 1] = dx * dx;
+      }
+      if (xtxLin) accumulateTri(xtxLin, zLin, zLen);
+      if (xtxSq) accumulateTri(xtxSq, zSq, zLen);
+      for (let r = 0; r < nR; r++) {
+        const spec = reg.metrics[r];
+        const z = spec.design === "linear" ? zLin : zSq;
+        const v = vals[spec.metric];
+        const y = spec.design === "linear" ? v : v * v;
+        const o = r * (zLen + 1);
+        for (let j = 0; j < zLen; j++) xty![o + j] += z[j] * y;
+        xty![o + zLen] += y * y;
+      }
+    }
+  }
+  st.n += n;
+  return { block, n, moments, tracked, xtxLin, xtxSq, xty };
+}
+
+function accumulateTri(tri: Float64Array, z: Float64Array, len: number): void {
+  let o = 0;
+  for (let a = 0; a < len; a++) {
+    const za = z[a];
+    for (let b = a; b < len; b++) tri[o++] += za * z[b];
+  }
+}
+
+/** Merge worker states (exact: integer counts, extremes, worst lists). */
+export function mergeWorkerStates(states: WorkerState[]): WorkerState {
+  const [first, ...rest] = states;
+  const out: WorkerState = {
+    ...first,
+    hist: first.hist.slice(),
+    minAbs: first.minAbs.slice(),
+    maxAbs: first.maxAbs.slice(),
+    min: first.min.slice(),
+    max: first.max.slice(),
+    pass: first.pass.slice(),
+    env: first.env.slice(),
+    envMin: first.envMin.slice(),
+    envMax: first.envMax.slice(),
+    worstVal: first.worstVal.slice(),
+    worstTrial: first.worstTrial.slice(),
+  };
+  for (const s of rest) {
+    out.n += s.n;
+    for (let i = 0; i < out.hist.length; i++) out.hist[i] += s.hist[i];
+    for (let i = 0; i < out.env.length; i++) out.env[i] += s.env[i];
+    for (let k = 0; k < out.nMetrics; k++) {
+      out.minAbs[k] = Math.min(out.minAbs[k], s.minAbs[k]);
+      out.maxAbs[k] = Math.max(out.maxAbs[k], s.maxAbs[k]);
+      out.min[k] = Math.min(out.min[k], s.min[k]);
+      out.max[k] = Math.max(out.max[k], s.max[k]);
+      for (let j = 0; j < s.worstK; j++) {
+        const t = s.worstTrial[k * s.worstK + j];
+        if (t >= 0) insertWorst(out, k, s.worstVal[k * s.worstK + j], t);
+      }
+    }
+    for (let r = 0; r < out.pass.length; r++) out.pass[r] += s.pass[r];
+    for (let k = 0; k < out.nAtt; k++) {
+      out.envMin[k] = Math.min(out.envMin[k], s.envMin[k]);
+      out.envMax[k] = Math.max(out.envMax[k], s.envMax[k]);
+    }
+  }
+  return out;
+}
+
+/** Typed arrays of a worker state, for a zero-copy postMessage transfer list. */
+export function transferablesOf(x: WorkerState | BlockPartial): ArrayBuffer[] {
+  const out: ArrayBuffer[] = [];
+  for (const v of Object.values(x)) if (ArrayBuffer.isView(v)) out.push(v.buffer as ArrayBuffer);
+  return out;
+}

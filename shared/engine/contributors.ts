@@ -1,0 +1,178 @@
+/**
+ * Which tolerance drives a metric.
+ *
+ * Linearised at nominal (the point where every source sits at its mean), by central
+ * finite differences with step h = 10^-3·σ of each draw:
+ * - signed metric m (cross-axis %): m ≈ m0 + Σ a_k (x_k − μ_k), a_k = (m⁺ − m⁻)/2h, and
+ *   source s contributes Σ_{k∈s} a_k²σ_k² to Var(m) (sources are independent).
+ * - magnitude m = |g(x)| (tilt, misalignment, total cross-axis, relative rotation,
+ *   heading error): at nominal the derivative of a magnitude is zero or undefined, so
+ *   the linear share is taken on the mean square: for g affine in x,
+ *   E[m²] − m0² = Σ_k σ_k²·‖∂g/∂x_k‖², and ‖∂g/∂x_k‖² = (m⁺² + m⁻² − 2m0²)/2h² exactly.
+ *   (For the max-over-attitudes heading metric this uses the largest per-attitude slope,
+ *   an approximation that ranks the sources but does not add up to E[m²] exactly.)
+ *
+ * From the Monte Carlo sample, squared standardised regression coefficients (SRC²):
+ * ordinary least squares of the metric on the draws (signed metrics), or of the metric
+ * squared on the squared deviations (x_k − μ_k)² (magnitudes, whose linear regression on
+ * symmetric inputs is empty by symmetry). The cross-products are summed block by block
+ * (bounded memory); R² says how much of the variance the fit explains.
+ */
+import { Matrix, solve } from "ml-matrix";
+import { createScratch, evaluateTrial, meanDraws, type Model } from "./model";
+
+export interface SourceShare {
+  source: string;
+  /** contribution in the metric's unit squared (variance, or mean square for magnitudes) */
+  contribution: number;
+  share: number;
+}
+
+export interface LinearisedResult {
+  metric: string;
+  basis: "variance" | "meanSquare";
+  nominal: number;
+  /** √Σ contributions: linearised σ (signed) or RMS increase (magnitudes) */
+  total: number;
+  sources: SourceShare[];
+  /** per draw: central-difference slope (signed metrics) */
+  slopes: Float64Array;
+}
+
+/** Linearised contributions for the metrics given by index (all at once: one sweep of the draws). */
+export function linearisedContributions(m: Model, metricIdx: number[]): LinearisedResult[] {
+  const x0 = meanDraws(m);
+  const s = createScratch(m);
+  evaluateTrial(m, x0, s);
+  const m0 = Float64Array.from(metricIdx, (k) => s.metrics[k]);
+  const D = m.drawCount;
+  const nM = metricIdx.length;
+  const slopes = metricIdx.map(() => new Float64Array(D));
+  const contrib = metricIdx.map(() => new Float64Array(m.sources.length));
+  const x = x0.slice();
+  for (let d = 0; d < D; d++) {
+    const sigma = m.drawDist[d].sigma;
+    if (!(sigma > 0)) continue;
+    const h = 1e-3 * sigma;
+    x[d] = x0[d] + h;
+    evaluateTrial(m, x, s);
+    const plus = Float64Array.from(metricIdx, (k) => s.metrics[k]);
+    x[d] = x0[d] - h;
+    evaluateTrial(m, x, s);
+    const minus = Float64Array.from(metricIdx, (k) => s.metrics[k]);
+    x[d] = x0[d];
+    const src = m.drawSource[d];
+    for (let i = 0; i < nM; i++) {
+      const a = (plus[i] - minus[i]) / (2 * h);
+      slopes[i][d] = a;
+      if (m.metrics[metricIdx[i]].signed) contrib[i][src] += a * a * sigma * sigma;
+      else {
+        const g2 = (plus[i] * plus[i] + minus[i] * minus[i] - 2 * m0[i] * m0[i]) / (2 * h * h);
+        contrib[i][src] += Math.max(0, g2) * sigma * sigma;
+      }
+    }
+  }
+  return metricIdx.map((k, i) => {
+    const tot = contrib[i].reduce((a, b) => a + b, 0);
+    return {
+      metric: m.metrics[k].id,
+      basis: m.metrics[k].signed ? "variance" : "meanSquare",
+      nominal: m0[i],
+      total: Math.sqrt(tot),
+      sources: m.sources.map((src, j) => ({ source: src.id, contribution: contrib[i][j], share: tot > 0 ? contrib[i][j] / tot : 0 })),
+      slopes: slopes[i],
+    };
+  });
+}
+
+export interface StackUpRow {
+  metric: string;
+  nominal: number;
+  /** |m0| + Σ|a_k|·T_k: every tolerance at its limit in the worst direction */
+  worstCase: number;
+  /** |m0| + √Σ(a_k·T_k)²: root-sum-square of the tolerance limits */
+  rss: number;
+  /** linearised standard deviation √Σ a_k²σ_k² */
+  linearStd: number;
+}
+
+/** Worst-case and RSS stack-up of the signed metrics from the linearised slopes. */
+export function stackUp(m: Model, lin: LinearisedResult[]): StackUpRow[] {
+  return lin
+    .filter((l) => l.basis === "variance")
+    .map((l) => {
+      let wc = 0, rss = 0, v = 0;
+      for (let d = 0; d < m.drawCount; d++) {
+        const a = l.slopes[d];
+        const T = m.drawDist[d].halfWidth;
+        const sg = m.drawDist[d].sigma;
+        wc += Math.abs(a) * T;
+        rss += (a * T) ** 2;
+        v += (a * sg) ** 2;
+      }
+      return { metric: l.metric, nominal: l.nominal, worstCase: Math.abs(l.nominal) + wc, rss: Math.abs(l.nominal) + Math.sqrt(rss), linearStd: Math.sqrt(v) };
+    });
+}
+
+export interface RegressionResult {
+  metric: string;
+  design: "linear" | "squared";
+  r2: number;
+  sources: { source: string; src2: number; share: number }[];
+}
+
+/**
+ * SRC² from streamed sums: tri = upper triangle of Σ z zᵀ with z = [1, regressors],
+ * zy = Σ z·y, yy = Σ y². Returns null when the sample cannot support the fit.
+ */
+export function regressionFromSums(
+  m: Model, cols: Int32Array, tri: Float64Array, zy: Float64Array, yy: number, metric: string, design: "linear" | "squared",
+): RegressionResult | null {
+  const p = cols.length;
+  const L = p + 1;
+  const S = (a: number, b: number) => {
+    if (a > b) [a, b] = [b, a];
+    return tri[a * L - (a * (a - 1)) / 2 + (b - a)];
+  };
+  const n = S(0, 0);
+  if (p === 0 || n < p + 3) return null;
+  const mu = new Float64Array(L);
+  for (let j = 1; j < L; j++) mu[j] = S(0, j) / n;
+  const muY = zy[0] / n;
+  const varY = (yy - n * muY * muY) / (n - 1);
+  if (!(varY > 0)) return null;
+  const cov = new Matrix(p, p);
+  const cxy = new Matrix(p, 1);
+  const sd = new Float64Array(p);
+  for (let a = 0; a < p; a++) {
+    for (let b = a; b < p; b++) {
+      const c = (S(a + 1, b + 1) - n * mu[a + 1] * mu[b + 1]) / (n - 1);
+      cov.set(a, b, c);
+      cov.set(b, a, c);
+    }
+    sd[a] = Math.sqrt(Math.max(0, cov.get(a, a)));
+    cxy.set(a, 0, (zy[a + 1] - n * mu[a + 1] * muY) / (n - 1));
+  }
+  let beta: Matrix;
+  try {
+    beta = solve(cov, cxy, true);
+  } catch {
+    return null;
+  }
+  let explained = 0;
+  const sdY = Math.sqrt(varY);
+  const perSource = new Float64Array(m.sources.length);
+  for (let a = 0; a < p; a++) {
+    const b = beta.get(a, 0);
+    explained += b * cxy.get(a, 0);
+    const src = (b * sd[a]) / sdY;
+    perSource[m.drawSource[cols[a]]] += src * src;
+  }
+  const tot = perSource.reduce((x, y) => x + y, 0);
+  return {
+    metric,
+    design,
+    r2: explained / varY,
+    sources: m.sources.map((s, j) => ({ source: s.id, src2: perSource[j], share: tot > 0 ? perSource[j] / tot : 0 })),
+  };
+}

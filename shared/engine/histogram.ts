@@ -1,0 +1,202 @@
+/**
+ * Bounded percentile store: a signed log-bucket histogram read straight from the bits of
+ * the float (the idea of HDR histograms), so that adding a value is a few integer
+ * operations and no logarithm.
+ *
+ * Buckets: for |v| in [2^lowExp, 2^(lowExp + octaves)) each octave is cut into 2^bits
+ * equal buckets; below is one "near zero" bucket, above one overflow bucket up to the
+ * observed maximum. Negative values have their own mirror set, so signed and absolute
+ * percentiles come from the same counts. The metrics use bits = 8 over 2^-24..2^16
+ * (6e-8 to 65536 deg or %): 20,482 buckets per metric, whatever the trial count.
+ *
+ * Error. A bucket spans at most 2^-bits of its value (bits = 8: 0.39 %), which bounds
+ * the error of a percentile even if all its values sat at one bucket edge. Read with
+ * linear interpolation inside the bucket, a smooth density gives an error of second
+ * order in the bucket width: the test (tests/engine/histogram.test.ts) measures below
+ * 2e-5 of the value against exact order statistics of 10^5 normal and Rayleigh draws.
+ * The Monte Carlo standard error of a percentile, sqrt(p(1−p)/n)/f(q), is for the
+ * 99.73rd percentile of a Rayleigh-like output about 0.16 % of the value at n = 10^6 and
+ * 0.05 % at n = 10^7: the store adds a small fraction of the sampling error it reports.
+ * Counts are integers: merging two stores is exact and independent of order.
+ */
+
+const BIAS = 1023;
+
+const f64 = new Float64Array(1);
+const u32 = new Uint32Array(f64.buffer);
+const HI = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1 ? 1 : 0;
+
+export class LogHistogram {
+  readonly bits: number;
+  readonly lowExp: number;
+  readonly octaves: number;
+  /** buckets per sign: near-zero, OCTAVES·2^bits, overflow */
+  readonly perSign: number;
+  readonly counts: Uint32Array;
+  private readonly shift: number;
+  private readonly base: number;
+
+  /** buckets of 2^-bits per octave for |v| in [2^lowExp, 2^(lowExp + octaves)) */
+  constructor(bits: number, lowExp: number, octaves: number, counts?: Uint32Array) {
+    this.bits = bits;
+    this.lowExp = lowExp;
+    this.octaves = octaves;
+    this.perSign = octaves * (1 << bits) + 2;
+    this.counts = counts ?? new Uint32Array(2 * this.perSign);
+    this.shift = 20 - bits;
+    this.base = (BIAS + lowExp) << bits;
+  }
+
+  /** Bucket index of v: [0, perSign) for v >= 0, [perSign, 2·perSign) for v < 0. */
+  index(v: number): number {
+    f64[0] = v;
+    const hi = u32[HI];
+    const neg = hi >>> 31;
+    const key = (hi & 0x7fffffff) >>> this.shift;
+    let b = key - this.base + 1;
+    if (b < 1) b = 0;
+    else if (b > this.perSign - 2) b = this.perSign - 1;
+    return neg ? this.perSign + b : b;
+  }
+
+  add(v: number): void {
+    this.counts[this.index(v)]++;
+  }
+
+  merge(o: LogHistogram): void {
+    const c = this.counts, d = o.counts;
+    for (let i = 0; i < c.length; i++) c[i] += d[i];
+  }
+
+  /** [lower, upper) of |v| for magnitude bucket b in [0, perSign). */
+  magnitudeBounds(b: number, maxAbs: number): [number, number] {
+    if (b === 0) return [0, 2 ** this.lowExp];
+    const top = 2 ** (this.lowExp + this.octaves);
+    if (b === this.perSign - 1) return [top, Math.max(maxAbs, top)];
+    const k = b - 1;
+    const e = (k >> this.bits) + this.lowExp;
+    const mant = k & ((1 << this.bits) - 1);
+    const scale = 2 ** e / (1 << this.bits);
+    return [2 ** e + mant * scale, 2 ** e + (mant + 1) * scale];
+  }
+
+  total(): number {
+    let n = 0;
+    for (let i = 0; i < this.counts.length; i++) n += this.counts[i];
+    return n;
+  }
+
+  /**
+   * Percentile of |v| (q in [0, 1]) with the convention of linear interpolation between
+   * order statistics at rank q·(n − 1); values inside a bucket are taken as evenly
+   * spread; the result is clamped to the observed [minAbs, maxAbs].
+   */
+  quantileAbs(q: number, minAbs: number, maxAbs: number): number {
+    const P = this.perSign;
+    const c = this.counts;
+    const n = this.total();
+    if (n === 0) return NaN;
+    const r = q * (n - 1);
+    const lo = Math.floor(r), hi = Math.min(n - 1, lo + 1), frac = r - lo;
+    const at = (idx: number): number => {
+      let cum = 0;
+      for (let b = 0; b < P; b++) {
+        const k = c[b] + c[P + b];
+        if (k === 0) continue;
+        if (idx < cum + k) {
+          const [l, u] = this.magnitudeBounds(b, maxAbs);
+          return l + ((idx - cum + 0.5) / k) * (u - l);
+        }
+        cum += k;
+      }
+      return maxAbs;
+    };
+    const v = frac === 0 ? at(lo) : at(lo) + frac * (at(hi) - at(lo));
+    return Math.min(maxAbs, Math.max(minAbs, v));
+  }
+
+  /** Several |v| percentiles in one pass (qs ascending). */
+  quantilesAbs(qs: number[], minAbs: number, maxAbs: number): number[] {
+    return qs.map((q) => this.quantileAbs(q, minAbs, maxAbs));
+  }
+
+  /** Signed percentile, clamped to the observed [min, max]. */
+  quantileSigned(q: number, min: number, max: number): number {
+    const P = this.perSign;
+    const c = this.counts;
+    const n = this.total();
+    if (n === 0) return NaN;
+    const r = q * (n - 1);
+    const lo = Math.floor(r), hi = Math.min(n - 1, lo + 1), frac = r - lo;
+    const maxAbs = Math.max(Math.abs(min), Math.abs(max));
+    const at = (idx: number): number => {
+      let cum = 0;
+      // most negative first: negative buckets from the largest magnitude down
+      for (let b = P - 1; b >= 0; b--) {
+        const k = c[P + b];
+        if (k === 0) continue;
+        if (idx < cum + k) {
+          const [l, u] = this.magnitudeBounds(b, maxAbs);
+          return -(u - ((idx - cum + 0.5) / k) * (u - l));
+        }
+        cum += k;
+      }
+      for (let b = 0; b < P; b++) {
+        const k = c[b];
+        if (k === 0) continue;
+        if (idx < cum + k) {
+          const [l, u] = this.magnitudeBounds(b, maxAbs);
+          return l + ((idx - cum + 0.5) / k) * (u - l);
+        }
+        cum += k;
+      }
+      return max;
+    };
+    const v = frac === 0 ? at(lo) : at(lo) + frac * (at(hi) - at(lo));
+    return Math.min(max, Math.max(min, v));
+  }
+
+  /** Count of values with |v| <= limit (buckets straddling the limit are split evenly). */
+  countAbsAtMost(limit: number, maxAbs: number): number {
+    const P = this.perSign;
+    let n = 0;
+    for (let b = 0; b < P; b++) {
+      const k = this.counts[b] + this.counts[P + b];
+      if (k === 0) continue;
+      const [l, u] = this.magnitudeBounds(b, maxAbs);
+      if (u <= limit) n += k;
+      else if (l < limit) n += (k * (limit - l)) / (u - l);
+    }
+    return n;
+  }
+
+  /**
+   * Equal-width histogram for plots over [lo, hi] (signed values, or |v| when abs):
+   * each bucket's count goes to the plot bin that holds its midpoint.
+   */
+  plotBins(lo: number, hi: number, nBins: number, abs: boolean): { edges: number[]; counts: number[] } {
+    const P = this.perSign;
+    const counts = new Array<number>(nBins).fill(0);
+    const width = hi > lo ? (hi - lo) / nBins : 1;
+    const maxAbs = Math.max(Math.abs(lo), Math.abs(hi));
+    const put = (v: number, k: number) => {
+      let i = Math.floor((v - lo) / width);
+      if (i < 0) i = 0;
+      if (i >= nBins) i = nBins - 1;
+      counts[i] += k;
+    };
+    for (let b = 0; b < P; b++) {
+      const kp = this.counts[b], kn = this.counts[P + b];
+      if (kp === 0 && kn === 0) continue;
+      const [l, u] = this.magnitudeBounds(b, maxAbs);
+      const mid = 0.5 * (l + Math.min(u, maxAbs));
+      if (abs) put(mid, kp + kn);
+      else {
+        if (kp) put(mid, kp);
+        if (kn) put(-mid, kn);
+      }
+    }
+    const edges = Array.from({ length: nBins + 1 }, (_, i) => lo + i * width);
+    return { edges, counts };
+  }
+}

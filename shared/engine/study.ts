@@ -1,0 +1,353 @@
+/**
+ * Public entry points of the engine: prepare a study, run blocks, fold them, finalize
+ * the result file, regenerate one trial. The same functions serve the Node worker
+ * threads (backend/engine), the browser Web Worker (live estimates) and the tests.
+ */
+import type { StackFile } from "../schemas/stack-file";
+import type { StudyFile } from "../schemas/study-file";
+import type { ResultFile } from "../schemas/result-file";
+import {
+  createWorkerState,
+  envelopeHistogram,
+  metricHistogram,
+  runBlock,
+  type BlockPartial,
+  type Plan,
+  type RegressionSpec,
+  type TrackedSpec,
+  type WorkerState,
+} from "./accumulate";
+import { adaptiveConfig, Coordinator, type AdaptiveConfig } from "./coordinator";
+import { linearisedContributions, regressionFromSums, stackUp } from "./contributors";
+import { compileModel, evaluateTrial, createScratch, poses, type ElementPose, type Model } from "./model";
+import { BLOCK_SIZE } from "./random";
+import { drawsOfTrial } from "./sampling";
+import { wilson } from "./stats";
+import { ENGINE_VERSION } from "./version";
+
+export { BLOCK_SIZE, ENGINE_VERSION };
+export type { BlockPartial, WorkerState, Plan, Model, ElementPose };
+
+export interface StudyOverrides {
+  trials?: number;
+  seed?: number;
+}
+
+export interface PreparedStudy {
+  stack: StackFile;
+  study: StudyFile;
+  model: Model;
+  plan: Plan;
+  adaptive: AdaptiveConfig | null;
+}
+
+/** Compile a validated stack and study into a model and a plan of blocks. */
+export function prepareStudy(stack: StackFile, study: StudyFile, overrides: StudyOverrides = {}): PreparedStudy {
+  const s: StudyFile = { ...study, trials: overrides.trials ?? study.trials, seed: overrides.seed ?? study.seed };
+  const model = compileModel(stack, s);
+  const idx = (id: string) => {
+    const k = model.metricIndex.get(id);
+    if (k === undefined) throw new Error(`the stack has no metric "${id}" (validate the study first)`);
+    return k;
+  };
+  const requirements = (s.requirements ?? []).map((r) => ({ id: r.metric, metric: idx(r.metric), max: r.max, yield: r.yield }));
+  const tracked: TrackedSpec[] = [];
+  for (const r of requirements) if (!tracked.some((t) => t.metric === r.metric)) tracked.push({ metric: r.metric, limit: r.max, p: r.yield });
+  for (const id of s.adaptive?.metrics ?? []) {
+    const k = idx(id);
+    if (!tracked.some((t) => t.metric === k)) tracked.push({ metric: k, limit: NaN, p: s.adaptive?.coverage ?? 0.95 });
+  }
+  if (tracked.length === 0 && model.metrics.length > 0) {
+    const k = model.metricIndex.get("heading.maxAbsDeg") ?? 0;
+    tracked.push({ metric: k, limit: NaN, p: s.adaptive?.coverage ?? 0.95 });
+  }
+
+  const cols = Int32Array.from(
+    model.drawDist.map((d, i) => (d.sigma > 0 ? i : -1)).filter((i) => i >= 0),
+  );
+  const regMetrics: RegressionSpec["metrics"] = [];
+  for (const r of requirements) {
+    if (regMetrics.some((x) => x.metric === r.metric)) continue;
+    regMetrics.push({ metric: r.metric, design: model.metrics[r.metric].signed ? "linear" : "squared" });
+  }
+  const regression: RegressionSpec = {
+    cols,
+    metrics: regMetrics,
+    useLinear: regMetrics.some((x) => x.design === "linear"),
+    useSquared: regMetrics.some((x) => x.design === "squared"),
+  };
+
+  let adaptive: AdaptiveConfig | null = null;
+  let trials = s.trials;
+  if (s.adaptive) {
+    const pMax = Math.max(...tracked.map((t) => t.p));
+    adaptive = adaptiveConfig(pMax, s.adaptive.significantDigits ?? 2, s.trials);
+    trials = adaptive.maxRuns * adaptive.runTrials;
+  }
+  const plan: Plan = {
+    mode: s.sampling ?? "random",
+    seed: s.seed,
+    trials,
+    blocks: Math.ceil(trials / BLOCK_SIZE),
+    requirements,
+    tracked,
+    regression,
+    worstK: s.worstTrials ?? 5,
+  };
+  return { stack, study: s, model, plan, adaptive };
+}
+
+export interface Progress {
+  trialsDone: number;
+  trialsTotal: number;
+}
+
+export interface RunOptions extends StudyOverrides {
+  onProgress?: (p: Progress) => void;
+  /** polled between blocks; true stops the study after the blocks done so far */
+  shouldStop?: () => boolean;
+}
+
+export function newCoordinator(prep: PreparedStudy): Coordinator {
+  return new Coordinator(prep.model, prep.plan, prep.adaptive);
+}
+
+export function newWorkerState(prep: PreparedStudy): WorkerState {
+  return createWorkerState(prep.model, prep.plan);
+}
+
+/** Run the given blocks into a worker state, handing each block's partial to onBlock. */
+export function runBlocks(prep: PreparedStudy, state: WorkerState, blocks: Iterable<number>, onBlock: (p: BlockPartial) => void): void {
+  for (const b of blocks) onBlock(runBlock(prep.model, prep.plan, state, b));
+}
+
+export { mergeWorkerStates } from "./accumulate";
+
+/** Run a whole study in this thread (tests, the browser's Web Worker, small studies). */
+export function runStudy(stack: StackFile, study: StudyFile, opts: RunOptions = {}): ResultFile {
+  const prep = prepareStudy(stack, study, opts);
+  const st = newWorkerState(prep);
+  const coord = newCoordinator(prep);
+  let stopped = false;
+  for (let b = 0; b < prep.plan.blocks; b++) {
+    if (opts.shouldStop?.()) {
+      stopped = true;
+      break;
+    }
+    coord.add(runBlock(prep.model, prep.plan, st, b));
+    opts.onProgress?.({ trialsDone: coord.trials, trialsTotal: prep.plan.trials });
+    if (prep.adaptive && coord.merged % prep.adaptive.runBlocks === 0 && coord.adaptiveStatus().stable) break;
+  }
+  return finalizeStudy(prep, coord, st, { stopped });
+}
+
+/** Whether an adaptive study may stop after the blocks folded so far. */
+export function adaptiveDone(prep: PreparedStudy, coord: Coordinator): boolean {
+  if (!prep.adaptive) return coord.merged >= prep.plan.blocks;
+  if (coord.merged >= prep.plan.blocks) return true;
+  return coord.merged % prep.adaptive.runBlocks === 0 && coord.adaptiveStatus().stable;
+}
+
+const PERCENTILES = [0.5, 0.95, 0.99, 0.9973];
+
+/** Build the result file from the folded partials and the merged worker state. */
+export function finalizeStudy(prep: PreparedStudy, coord: Coordinator, state: WorkerState, flags: { stopped?: boolean } = {}): ResultFile {
+  const { model, plan, study } = prep;
+  if (coord.pendingCount > 0) throw new Error("finalize: blocks are missing before some delivered ones");
+  if (state.n !== coord.trials) throw new Error(`finalize: worker states hold ${state.n} trials, the coordinator ${coord.trials}`);
+  coord.checkpoint();
+  const n = coord.trials;
+  const metrics: ResultFile["metrics"] = {};
+  const histograms: ResultFile["histograms"] = {};
+  const worstTrials: ResultFile["worstTrials"] = {};
+  const pctCache = new Map<number, number[]>();
+  model.metrics.forEach((mi, k) => {
+    const h = metricHistogram(state, k);
+    const [p50, p95, p99, p9973] = n > 0 ? h.quantilesAbs(PERCENTILES, state.minAbs[k], state.maxAbs[k]) : [NaN, NaN, NaN, NaN];
+    pctCache.set(k, [p50, p95, p99, p9973]);
+    metrics[mi.id] = {
+      mean: coord.mean[k],
+      std: coord.count[k] > 1 ? Math.sqrt(coord.m2[k] / (coord.count[k] - 1)) : 0,
+      p50, p95, p99, p9973,
+      max: state.maxAbs[k],
+      unit: mi.unit,
+      signed: mi.signed,
+      minValue: state.min[k],
+      maxValue: state.max[k],
+    };
+    const lo = mi.signed ? state.min[k] : 0;
+    const hi = mi.signed ? state.max[k] : state.maxAbs[k];
+    histograms[mi.id] = n > 0 ? { abs: !mi.signed, ...h.plotBins(lo, hi > lo ? hi : lo + 1e-12, 60, !mi.signed) } : { abs: !mi.signed, edges: [], counts: [] };
+    const K = state.worstK;
+    const list: { trial: number; value: number }[] = [];
+    for (let j = 0; j < K; j++) {
+      const t = state.worstTrial[k * K + j];
+      if (t >= 0) list.push({ trial: t, value: state.worstVal[k * K + j] });
+    }
+    worstTrials[mi.id] = list;
+  });
+
+  const requirements: ResultFile["requirements"] = plan.requirements.map((r, i) => {
+    const pass = state.pass[i];
+    const py = n > 0 ? pass / n : NaN;
+    const ci = wilson(pass, n);
+    const h = metricHistogram(state, r.metric);
+    return {
+      metric: r.id,
+      max: r.max,
+      yield: r.yield,
+      predictedYield: py,
+      ci,
+      ppmOut: (1 - py) * 1e6,
+      passes: py >= r.yield,
+      demonstrated: ci[0] >= r.yield,
+      limitAtTarget: n > 0 ? h.quantileAbs(r.yield, state.minAbs[r.metric], state.maxAbs[r.metric]) : NaN,
+    };
+  });
+
+  let envelope: ResultFile["envelope"] = null;
+  if (model.heading && n > 0) {
+    const att = model.heading.attitudes;
+    const points: NonNullable<ResultFile["envelope"]>["points"] = [];
+    for (let k = 0; k < att.count; k++) {
+      const h = envelopeHistogram(state, k);
+      const tilt = att.tilts[Math.floor(k / att.headingsPerTilt)];
+      points.push({
+        pitchDeg: tilt.pitchDeg,
+        rollDeg: tilt.rollDeg,
+        headingDeg: att.psiDeg[k],
+        p5: h.quantileSigned(0.05, state.envMin[k], state.envMax[k]),
+        p50: h.quantileSigned(0.5, state.envMin[k], state.envMax[k]),
+        p95: h.quantileSigned(0.95, state.envMin[k], state.envMax[k]),
+        min: state.envMin[k],
+        max: state.envMax[k],
+      });
+    }
+    envelope = {
+      inclinationDeg: study.inclinationDeg,
+      accel: model.sensors[model.heading.accel].id,
+      mag: model.sensors[model.heading.mag].id,
+      points,
+    };
+  }
+
+  // contributors of the requirement metrics; stack-up of every signed metric
+  const reqMetrics = plan.regression.metrics.map((r) => r.metric);
+  const signedMetrics = model.metrics.map((m, k) => (m.signed ? k : -1)).filter((k) => k >= 0);
+  const linAll = linearisedContributions(model, [...reqMetrics, ...signedMetrics.filter((k) => !reqMetrics.includes(k))]);
+  const linOf = new Map(linAll.map((l) => [l.metric, l] as const));
+  const L = plan.regression.cols.length + 1;
+  const contributors: ResultFile["contributors"] = plan.regression.metrics.map((spec, r) => {
+    const id = model.metrics[spec.metric].id;
+    const lin = linOf.get(id)!;
+    let reg = null;
+    if (coord.xty && n > 0) {
+      const tri = spec.design === "linear" ? coord.xtxLin : coord.xtxSq;
+      const o = r * (L + 1);
+      if (tri) reg = regressionFromSums(model, plan.regression.cols, tri, coord.xty.subarray(o, o + L), coord.xty[o + L], id, spec.design);
+    }
+    return {
+      metric: id,
+      basis: lin.basis,
+      nominal: lin.nominal,
+      linearTotal: lin.total,
+      mcDesign: reg ? reg.design : null,
+      mcR2: reg ? reg.r2 : null,
+      sources: lin.sources
+        .map((s, j) => ({
+          source: s.source,
+          linearShare: s.share,
+          linearContribution: s.contribution,
+          mcShare: reg ? reg.sources[j].share : null,
+          src2: reg ? reg.sources[j].src2 : null,
+        }))
+        .sort((a, b) => b.linearShare - a.linearShare || a.source.localeCompare(b.source)),
+    };
+  });
+  const stack = stackUp(model, signedMetrics.map((k) => linOf.get(model.metrics[k].id)!)).map((row) => {
+    const k = model.metricIndex.get(row.metric)!;
+    const mst = metrics[row.metric];
+    return {
+      metric: row.metric,
+      nominal: row.nominal,
+      worstCase: row.worstCase,
+      rss: row.rss,
+      linear3Sigma: Math.abs(row.nominal) + 3 * row.linearStd,
+      mc3Sigma: Math.abs(mst.mean) + 3 * mst.std,
+      mcP9973: pctCache.get(k)![3],
+    };
+  });
+
+  const convergence = plan.tracked.map((t, i) => ({ metric: model.metrics[t.metric].id, p: t.p, points: coord.convergence[i] }));
+
+  let adaptive: ResultFile["adaptive"] = null;
+  if (prep.adaptive) {
+    const status = coord.adaptiveStatus();
+    adaptive = {
+      method: "JCGM 101:2008 7.9",
+      significantDigits: prep.adaptive.significantDigits,
+      M: prep.adaptive.M,
+      runTrials: prep.adaptive.runTrials,
+      runs: coord.runs.length,
+      trialsUsed: n,
+      maxTrials: plan.trials,
+      converged: status.stable,
+      coverage: plan.tracked.map((t) => ({ metric: model.metrics[t.metric].id, p: t.p })),
+      last: status.details,
+    };
+  }
+
+  return {
+    format: "orthostack.result/1",
+    engine: ENGINE_VERSION,
+    trials: n,
+    seed: plan.seed,
+    sampling: plan.mode,
+    stopped: flags.stopped ?? false,
+    calibration: study.calibration?.after ?? "none",
+    metrics,
+    requirements,
+    ciMethod: "wilson",
+    percentileStore: { method: "signed log-bucket histogram, linear interpolation inside buckets", maxRelativeBucketWidth: 2 ** -10 },
+    histograms,
+    envelope,
+    contributors,
+    stackUp: stack,
+    worstTrials,
+    convergence,
+    adaptive,
+    sources: model.sources.map((s) => ({
+      id: s.id,
+      unit: s.unit,
+      stage: s.stage,
+      draws: s.count,
+      sigma: s.dist.sigma,
+      halfWidth: s.dist.halfWidth,
+      mean: s.dist.mean,
+      ...(s.owner ? { owner: s.owner } : {}),
+    })),
+  };
+}
+
+export interface TrialPose {
+  trial: number;
+  metrics: Record<string, number>;
+  /** every element, file order: R and nominal R (row-major 3x3), positions (mm) */
+  elements: ElementPose[];
+  /** the sampled deviations of every source, in its unit */
+  draws: Record<string, number[]>;
+}
+
+/** Regenerate trial `trialIndex` of a study from its seed: the full pose of every element. */
+export function poseOfTrial(stack: StackFile, study: StudyFile, trialIndex: number, overrides: StudyOverrides = {}): TrialPose {
+  const prep = prepareStudy(stack, study, overrides);
+  const { model, plan } = prep;
+  const draws = drawsOfTrial(model, plan.mode, plan.seed, plan.trials, trialIndex);
+  const s = createScratch(model);
+  evaluateTrial(model, draws, s);
+  const metrics: Record<string, number> = {};
+  model.metrics.forEach((m, k) => (metrics[m.id] = s.metrics[k]));
+  const bySource: Record<string, number[]> = {};
+  for (const src of model.sources) bySource[src.id] = Array.from(draws.subarray(src.offset, src.offset + src.count));
+  return { trial: trialIndex, metrics, elements: poses(model, draws), draws: bySource };
+}

@@ -1,0 +1,396 @@
+/**
+ * The stack file (MODEL.md section 9, `"format": "orthostack.stack/1"`).
+ *
+ * Defaults are not filled in by the schema: a parsed file round-trips unchanged, and the
+ * engine applies the defaults of MODEL.md when it compiles the stack.
+ * Every problem is reported with a JSON path (`elements[2].size.x`) and a sentence a
+ * packaging engineer understands, so the API can pass them on as field errors.
+ */
+import { z } from "zod";
+
+// ---------------------------------------------------------------- field issues
+
+export interface FieldIssue {
+  path: string;
+  message: string;
+}
+
+/** ["elements", 2, "size", "x"] -> "elements[2].size.x"; the file itself is "". */
+export function formatPath(path: ReadonlyArray<PropertyKey>): string {
+  let out = "";
+  for (const k of path) {
+    if (typeof k === "number") out += `[${k}]`;
+    else out += out === "" ? String(k) : `.${String(k)}`;
+  }
+  return out;
+}
+
+function describe(v: unknown): string {
+  if (v === null) return "null";
+  if (Array.isArray(v)) return "a list";
+  if (typeof v === "string") return `the text ${JSON.stringify(v.length > 40 ? v.slice(0, 40) + "…" : v)}`;
+  if (typeof v === "object") return "an object";
+  return `${typeof v} ${String(v)}`;
+}
+
+const EXPECTED: Record<string, string> = {
+  number: "a number",
+  string: "a text",
+  object: "an object",
+  array: "a list",
+  boolean: "true or false",
+  null: "null",
+};
+
+/** One zod issue as field issues (unknown keys are reported one by one). */
+export function fromZodIssue(issue: z.core.$ZodIssue): FieldIssue[] {
+  const path = formatPath(issue.path);
+  if (issue.code === "unrecognized_keys") {
+    return issue.keys.map((k) => ({
+      path: formatPath([...issue.path, k]),
+      message: `unknown field "${k}": check the spelling (free-form data belongs in "meta")`,
+    }));
+  }
+  // zod's built-in texts start with "Invalid input"; our own messages are kept as written
+  if (issue.message.startsWith("Invalid input") || issue.message.startsWith("Invalid option")) {
+    const input = (issue as { input?: unknown }).input;
+    if (input === undefined) return [{ path, message: "this field is required" }];
+    if (issue.code === "invalid_type") {
+      return [{ path, message: `expected ${EXPECTED[issue.expected] ?? issue.expected}, got ${describe(input)}` }];
+    }
+    return [{ path, message: `${describe(input)} is not accepted here` }];
+  }
+  return [{ path, message: issue.message }];
+}
+
+export function fromZodError(err: z.ZodError): FieldIssue[] {
+  return err.issues.flatMap(fromZodIssue);
+}
+
+/** The error body of the API: `{"error":{"code","message","fields":[{path,message}]}}`. */
+export function toErrorBody(code: string, message: string, issues: FieldIssue[]) {
+  return { error: { code, message, fields: issues } };
+}
+
+// ---------------------------------------------------------------- building blocks
+
+export const STAGES = ["die", "package", "board", "product"] as const;
+export const ELEMENT_STAGES = ["package", "board", "product"] as const;
+export const DISTRIBUTIONS = ["normal", "uniform", "triangular", "data"] as const;
+export const ELEMENT_KINDS = ["board", "substrate", "asic", "spacer", "gyro", "accel", "mag"] as const;
+export const SENSOR_KINDS = ["gyro", "accel", "mag"] as const;
+
+/** Longest list accepted for a measured data set, and for any list of support points. */
+export const MAX_DATA_VALUES = 100_000;
+export const MAX_SUPPORTS = 64;
+export const MAX_ELEMENTS = 200;
+
+const finite = (what: string) =>
+  z.number({
+    error: (iss) => (iss.input === undefined ? `${what} is required` : `${what} must be a number, got ${describe(iss.input)}`),
+  });
+
+const positive = (what: string) => finite(what).gt(0, { error: `${what} must be greater than 0` });
+
+const stageEnum = (values: readonly string[]) =>
+  z.enum(values as [string, ...string[]], {
+    error: (iss) => `unknown stage ${JSON.stringify(iss.input)}: use ${values.map((v) => `"${v}"`).join(", ")}`,
+  });
+
+export const StageSchema = stageEnum(STAGES) as unknown as z.ZodEnum<{ die: "die"; package: "package"; board: "board"; product: "product" }>;
+export const ElementStageSchema = stageEnum(ELEMENT_STAGES) as unknown as z.ZodEnum<{ package: "package"; board: "board"; product: "product" }>;
+
+export const MetaSchema = z.record(z.string(), z.unknown());
+
+/**
+ * A tolerance (MODEL.md section 8). ±tol is the half-width; for "normal", tol = sigmas·σ.
+ * "data" replaces the tolerance by a measured data set that is resampled.
+ */
+export const ToleranceSchema = z
+  .strictObject({
+    dist: z.enum(DISTRIBUTIONS, {
+      error: (iss) =>
+        iss.input === undefined
+          ? `a tolerance needs "dist": "normal", "uniform", "triangular" or "data"`
+          : `unknown distribution ${JSON.stringify(iss.input)}: use "normal", "uniform", "triangular" or "data"`,
+    }),
+    tol: finite("the half-width tol").min(0, { error: "the half-width tol cannot be negative" }).optional(),
+    sigmas: positive("sigmas").optional(),
+    mean: finite("the mean").optional(),
+    values: z
+      .array(finite("a measured value"), { error: "values must be a list of numbers" })
+      .min(2, { error: "a measured data set needs at least two values" })
+      .max(MAX_DATA_VALUES, { error: `a measured data set may hold at most ${MAX_DATA_VALUES} values` })
+      .optional(),
+    stage: StageSchema.optional(),
+    owner: z.string().max(200, { error: "owner is limited to 200 characters" }).optional(),
+  })
+  .superRefine((t, ctx) => {
+    if (t.dist === "data") {
+      if (!t.values) ctx.addIssue({ code: "custom", path: ["values"], message: `a "data" tolerance needs its measured values` });
+      if (t.tol !== undefined || t.sigmas !== undefined)
+        ctx.addIssue({ code: "custom", path: ["tol"], message: `a "data" tolerance takes its spread from the values: leave out tol and sigmas` });
+    } else {
+      if (t.tol === undefined) ctx.addIssue({ code: "custom", path: ["tol"], message: `a tolerance needs its half-width "tol"` });
+      if (t.values !== undefined) ctx.addIssue({ code: "custom", path: ["values"], message: `measured values need "dist": "data"` });
+      if (t.sigmas !== undefined && t.dist !== "normal")
+        ctx.addIssue({ code: "custom", path: ["sigmas"], message: `sigmas applies to "normal" tolerances only: a ${t.dist} tolerance spans mean ± tol` });
+    }
+  });
+
+const XYSchema = z.strictObject({ x: finite("x (mm)"), y: finite("y (mm)") });
+
+export const SizeSchema = z.strictObject({
+  x: positive("the length size.x (mm)"),
+  y: positive("the width size.y (mm)"),
+  z: positive("the thickness size.z (mm)"),
+});
+
+export const BondLineSchema = z.strictObject({
+  thicknessUm: positive("the bond-line thickness (um)").optional(),
+  heightTol: ToleranceSchema.optional(),
+  supports: z
+    .union([
+      z.literal("corners"),
+      z.array(XYSchema, { error: `supports must be "corners" or a list of points {"x", "y"}` }).max(MAX_SUPPORTS, {
+        error: `at most ${MAX_SUPPORTS} support points`,
+      }),
+    ], { error: `supports must be "corners" or a list of points {"x", "y"}` })
+    .optional(),
+});
+
+export const ElementSchema = z.strictObject({
+  id: z
+    .string({ error: "every element needs an id" })
+    .min(1, { error: "the id cannot be empty" })
+    .max(64, { error: "an id is limited to 64 characters" })
+    .regex(/^[A-Za-z0-9_-]+$/, {
+      error: "an id may hold letters, digits, - and _ only (it becomes part of metric names such as mag.tiltDeg)",
+    }),
+  kind: z.enum(ELEMENT_KINDS, {
+    error: (iss) =>
+      `unknown element kind ${JSON.stringify(iss.input)}: use ${ELEMENT_KINDS.map((k) => `"${k}"`).join(", ")}`,
+  }),
+  parent: z.union([z.string(), z.null()], { error: "parent must be the id of another element, or null for the board" }),
+  name: z.string().max(200).optional(),
+  notes: z.string().max(5000).optional(),
+  meta: MetaSchema.optional(),
+  stage: ElementStageSchema.optional(),
+  position: XYSchema.optional(),
+  yawDeg: finite("yawDeg").optional(),
+  size: SizeSchema,
+  bondLine: BondLineSchema.optional(),
+  tiltTol: z.strictObject({ x: ToleranceSchema.optional(), y: ToleranceSchema.optional() }).optional(),
+  placementTol: z
+    .strictObject({ xUm: ToleranceSchema.optional(), yUm: ToleranceSchema.optional(), yawDeg: ToleranceSchema.optional() })
+    .optional(),
+  bowUm: ToleranceSchema.optional(),
+  axisTol: z
+    .union([ToleranceSchema, z.array(ToleranceSchema).length(6, { error: "axisTol as a list needs six tolerances, g1 to g6" })], {
+      error: "axisTol must be one tolerance or a list of six (g1..g6)",
+    })
+    .optional(),
+});
+
+/** The file's shape alone, without the checks across elements (extendable with `.extend`). */
+export const StackFileObjectSchema = z.strictObject({
+  format: z.literal("orthostack.stack/1", { error: `format must be "orthostack.stack/1"` }),
+  name: z.string().max(200).optional(),
+  notes: z.string().max(5000).optional(),
+  meta: MetaSchema.optional(),
+  elements: z
+    .array(ElementSchema, { error: "elements must be a list" })
+    .min(1, { error: "a stack needs at least the board" })
+    .max(MAX_ELEMENTS, { error: `a stack may hold at most ${MAX_ELEMENTS} elements` }),
+});
+
+export type Tolerance = z.infer<typeof ToleranceSchema>;
+export type StackElement = z.infer<typeof ElementSchema>;
+export type StackFile = z.infer<typeof StackFileObjectSchema>;
+export type ElementKind = (typeof ELEMENT_KINDS)[number];
+
+export function isSensorKind(kind: string): kind is (typeof SENSOR_KINDS)[number] {
+  return kind === "gyro" || kind === "accel" || kind === "mag";
+}
+
+/** Support points of an element in its own frame: the listed ones or the four corners. */
+export function supportPoints(e: StackElement): { x: number; y: number }[] {
+  const s = e.bondLine?.supports;
+  if (Array.isArray(s)) return s;
+  const hx = e.size.x / 2, hy = e.size.y / 2;
+  return [
+    { x: -hx, y: -hy },
+    { x: hx, y: -hy },
+    { x: hx, y: hy },
+    { x: -hx, y: hy },
+  ];
+}
+
+const fmt = (v: number) => String(Math.round(v * 1e6) / 1e6);
+
+type Loose = Record<string, unknown>;
+const isObj = (v: unknown): v is Loose => typeof v === "object" && v !== null && !Array.isArray(v);
+const isNum = (v: unknown): v is number => typeof v === "number" && Number.isFinite(v);
+
+/**
+ * Checks across elements: the tree, footprints, supports. Written against the raw JSON
+ * with guards, so it also runs when some fields are malformed and every problem of a
+ * file is reported at once.
+ */
+export function checkStack(file: unknown, add: (issue: { path: (string | number)[]; message: string }) => void): void {
+  if (!isObj(file) || !Array.isArray(file.elements)) return;
+  const els = file.elements.map((e) => (isObj(e) ? e : ({} as Loose)));
+  const idOf = (e: Loose) => (typeof e.id === "string" ? e.id : undefined);
+  const firstIndex = new Map<string, number>();
+  els.forEach((e, i) => {
+    const id = idOf(e);
+    if (id === undefined) return;
+    const prev = firstIndex.get(id);
+    if (prev !== undefined) add({ path: ["elements", i, "id"], message: `duplicate id "${id}": elements[${prev}] already uses it` });
+    else firstIndex.set(id, i);
+  });
+  const byId = new Map<string, Loose>();
+  for (const e of els) {
+    const id = idOf(e);
+    if (id !== undefined && !byId.has(id)) byId.set(id, e);
+  }
+
+  const roots = els.map((e, i) => ({ e, i })).filter(({ e }) => e.parent === null);
+  if (roots.length === 0) {
+    if (els.length > 0) add({ path: ["elements"], message: "no board: exactly one element, the board, must have parent null" });
+  } else if (roots.length > 1) {
+    for (const { e, i } of roots.slice(1)) {
+      add({
+        path: ["elements", i, "parent"],
+        message: `two roots: "${idOf(e) ?? "?"}" has no parent, but "${idOf(roots[0].e) ?? "?"}" is already the board; every other element must sit on a parent`,
+      });
+    }
+  }
+  for (const { e, i } of roots) {
+    if (typeof e.kind === "string" && e.kind !== "board")
+      add({ path: ["elements", i, "kind"], message: `"${idOf(e) ?? "?"}" has no parent, so it must be the board (kind "board"), not a ${e.kind}` });
+  }
+
+  els.forEach((e, i) => {
+    const id = idOf(e) ?? "?";
+    if (e.kind === "board" && typeof e.parent === "string") {
+      add({ path: ["elements", i, "kind"], message: `"${id}" is a board but sits on "${e.parent}": only the root element can be the board` });
+    }
+    if (typeof e.parent === "string") {
+      if (e.parent === id) add({ path: ["elements", i, "parent"], message: `"${id}" cannot sit on itself` });
+      else if (!byId.has(e.parent)) add({ path: ["elements", i, "parent"], message: `unknown parent "${e.parent}": no element has that id` });
+    }
+    if (e.parent === null) {
+      for (const key of ["bondLine", "placementTol", "tiltTol", "position", "yawDeg"]) {
+        if (e[key] !== undefined) add({ path: ["elements", i, key], message: `the board is the reference frame: it has no ${key}` });
+      }
+    }
+    if (e.axisTol !== undefined && typeof e.kind === "string" && !isSensorKind(e.kind)) {
+      add({ path: ["elements", i, "axisTol"], message: `axisTol (sensing-axis alignment) applies to sensor dies only (gyro, accel, mag), not to a ${e.kind}` });
+    }
+  });
+
+  // Cycles: follow the parents from each element; a walk that comes back is a cycle.
+  const reported = new Set<string>();
+  els.forEach((e, i) => {
+    const start = idOf(e);
+    if (start === undefined) return;
+    const seen: string[] = [];
+    let cur: Loose | undefined = e;
+    while (cur && typeof cur.parent === "string") {
+      const cid: string = idOf(cur) ?? "";
+      if (seen.includes(cid)) {
+        const loop = seen.slice(seen.indexOf(cid));
+        const key = [...loop].sort().join(",");
+        if (!reported.has(key) && cid === start) {
+          reported.add(key);
+          add({
+            path: ["elements", i, "parent"],
+            message: `cycle: ${[...loop, cid].map((s) => `"${s}"`).join(" sits on ")}; none of them rests on the board`,
+          });
+        }
+        break;
+      }
+      seen.push(cid);
+      cur = cur.parent === cid ? undefined : byId.get(cur.parent);
+    }
+  });
+
+  // Geometry: support points and positions inside footprints.
+  const tolMm = 1e-9;
+  const sizeOf = (e: Loose) => (isObj(e.size) && isNum(e.size.x) && isNum(e.size.y) && e.size.x > 0 && e.size.y > 0 ? { x: e.size.x, y: e.size.y } : undefined);
+  els.forEach((e, i) => {
+    const id = idOf(e) ?? "?";
+    const size = sizeOf(e);
+    const s = isObj(e.bondLine) ? e.bondLine.supports : undefined;
+    if (Array.isArray(s)) {
+      const pts = s.filter((p): p is { x: number; y: number } => isObj(p) && isNum(p.x) && isNum(p.y));
+      if (s.length < 3) {
+        add({ path: ["elements", i, "bondLine", "supports"], message: `"${id}" rests on ${s.length} support point${s.length === 1 ? "" : "s"}: a bond-line plane needs at least three` });
+      }
+      if (size) {
+        const hx = size.x / 2, hy = size.y / 2;
+        s.forEach((p, j) => {
+          if (isObj(p) && isNum(p.x) && isNum(p.y) && (Math.abs(p.x) > hx + tolMm || Math.abs(p.y) > hy + tolMm)) {
+            add({
+              path: ["elements", i, "bondLine", "supports", j],
+              message: `support point (${fmt(p.x)}, ${fmt(p.y)}) mm lies outside the ${fmt(size.x)} x ${fmt(size.y)} mm footprint of "${id}" (it needs |x| <= ${fmt(hx)} and |y| <= ${fmt(hy)}, in the element's own frame)`,
+            });
+          }
+        });
+        if (pts.length === s.length && pts.length >= 3 && collinear(pts, Math.max(size.x, size.y))) {
+          add({ path: ["elements", i, "bondLine", "supports"], message: `the support points of "${id}" all lie on one line: the die would rock and the bond-line plane is undefined` });
+        }
+      }
+    }
+    if (typeof e.parent === "string" && isObj(e.position) && isNum(e.position.x) && isNum(e.position.y)) {
+      const p = byId.get(e.parent);
+      const ps = p ? sizeOf(p) : undefined;
+      if (p && ps && (Math.abs(e.position.x) > ps.x / 2 + tolMm || Math.abs(e.position.y) > ps.y / 2 + tolMm)) {
+        add({
+          path: ["elements", i, "position"],
+          message: `the centre of "${id}" at (${fmt(e.position.x)}, ${fmt(e.position.y)}) mm is off the ${fmt(ps.x)} x ${fmt(ps.y)} mm top face of its parent "${idOf(p)}"`,
+        });
+      }
+    }
+  });
+}
+
+/** Points on one line (within a relative tolerance of the footprint). */
+function collinear(pts: { x: number; y: number }[], scale: number): boolean {
+  // Largest triangle area over all triples; small lists only (<= MAX_SUPPORTS, usually 3-8).
+  let best = 0;
+  for (let a = 0; a < pts.length; a++)
+    for (let b = a + 1; b < pts.length; b++)
+      for (let c = b + 1; c < pts.length; c++) {
+        const area = Math.abs((pts[b].x - pts[a].x) * (pts[c].y - pts[a].y) - (pts[c].x - pts[a].x) * (pts[b].y - pts[a].y));
+        if (area > best) best = area;
+      }
+  return best <= 1e-9 * scale * scale;
+}
+
+/** The stack file with every check: use this to parse. */
+export const StackFileSchema = StackFileObjectSchema.superRefine((file, ctx) => {
+  checkStack(file, (i) => ctx.addIssue({ code: "custom", path: i.path, message: i.message }));
+});
+
+export type StackValidation = { ok: true; stack: StackFile } | { ok: false; issues: FieldIssue[] };
+
+/** Validate a parsed JSON value as a stack file. Reports every problem, not just the first. */
+export function validateStackFile(json: unknown): StackValidation {
+  const r = StackFileObjectSchema.safeParse(json);
+  const issues: FieldIssue[] = r.success ? [] : fromZodError(r.error);
+  checkStack(json, (i) => issues.push({ path: formatPath(i.path), message: i.message }));
+  if (r.success && issues.length === 0) return { ok: true, stack: r.data };
+  return { ok: false, issues: dedupe(issues) };
+}
+
+export function dedupe(issues: FieldIssue[]): FieldIssue[] {
+  const seen = new Set<string>();
+  return issues.filter((i) => {
+    const k = `${i.path}\u0000${i.message}`;
+    if (seen.has(k)) return false;
+    seen.add(k);
+    return true;
+  });
+}
