@@ -146,7 +146,6 @@ function Upcoming({ title, accent, arrives, children }: { title: string; accent:
     <Panel
       title={title}
       accent={accent}
-      meta={<span className="tabular-nums">0</span>}
       bodyClassName="flex h-full flex-col gap-3"
       className="flex flex-col"
     >
