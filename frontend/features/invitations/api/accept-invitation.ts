@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { z } from "zod";
 import type { AcceptInvitationSchema } from "@shared/schemas/api";
 import { api } from "@frontend/lib/api-client";
+import { invitationKeys } from "./keys";
 
 export type AcceptInvitation = z.infer<typeof AcceptInvitationSchema>;
 
@@ -15,7 +16,9 @@ export function useAcceptInvitation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: acceptInvitation,
-    // The answer set a session cookie for the new member; start from a clean cache.
-    onSuccess: () => queryClient.clear(),
+    // The answer set a session cookie for the new member: forget whatever an earlier
+    // session left in the cache. The invitation on screen stays; asking for it again
+    // now would only say it has been used.
+    onSuccess: () => queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== invitationKeys.all[0] }),
   });
 }
