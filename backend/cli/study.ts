@@ -1,0 +1,117 @@
+/**
+ * npm run study -- STACK.json STUDY.json --out RESULT.json [--threads N] [--trials N] [--seed S]
+ *
+ * Writes the result file (MODEL.md section 11) and prints a short summary. A file that
+ * does not validate gives the same field messages as the API, on stderr, exit code 2.
+ */
+import { readFileSync, writeFileSync } from "node:fs";
+import { runStudyOnThreads, defaultThreads } from "../engine/runner";
+import { validateStackFile, type FieldIssue } from "../../shared/schemas/stack-file";
+import { validateStudy, MAX_TRIALS } from "../../shared/schemas/study-file";
+import type { ResultFile } from "../../shared/schemas/result-file";
+
+const USAGE = "usage: npm run study -- STACK.json STUDY.json --out RESULT.json [--threads N] [--trials N] [--seed S]";
+
+function fail(lines: string[], code = 2): never {
+  for (const l of lines) process.stderr.write(l + "\n");
+  process.exit(code);
+}
+
+function parseArgs(argv: string[]) {
+  const pos: string[] = [];
+  const opt: Record<string, string> = {};
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i];
+    if (a.startsWith("--")) {
+      const [k, inline] = a.slice(2).split("=", 2);
+      if (!["out", "threads", "trials", "seed"].includes(k)) fail([`unknown option --${k}`, USAGE]);
+      const v = inline ?? argv[++i];
+      if (v === undefined) fail([`--${k} needs a value`, USAGE]);
+      opt[k] = v;
+    } else pos.push(a);
+  }
+  if (pos.length !== 2 || !opt.out) fail([USAGE]);
+  const int = (k: string, lo: number, hi: number) => {
+    if (opt[k] === undefined) return undefined;
+    const n = Number(opt[k]);
+    if (!Number.isInteger(n) || n < lo || n > hi) fail([`--${k} must be a whole number from ${lo} to ${hi}, got ${opt[k]}`]);
+    return n;
+  };
+  return {
+    stackPath: pos[0],
+    studyPath: pos[1],
+    out: opt.out,
+    threads: int("threads", 1, 256),
+    trials: int("trials", 1, MAX_TRIALS),
+    seed: int("seed", 0, Number.MAX_SAFE_INTEGER),
+  };
+}
+
+function readJson(path: string, what: string): unknown {
+  let text: string;
+  try {
+    text = readFileSync(path, "utf8");
+  } catch (e) {
+    fail([`${what} ${path}: cannot be read (${(e as NodeJS.ErrnoException).code ?? String(e)})`]);
+  }
+  try {
+    return JSON.parse(text);
+  } catch (e) {
+    fail([`${what} ${path}: not valid JSON (${(e as Error).message})`]);
+  }
+}
+
+function report(what: string, path: string, issues: FieldIssue[]): never {
+  fail([`${what} ${path} is not valid:`, ...issues.map((i) => `  ${i.path || "(file)"}: ${i.message}`)]);
+}
+
+const f = (v: number, d = 4) => (Number.isFinite(v) ? v.toFixed(d) : String(v));
+
+export function summary(r: ResultFile, seconds: number, threads: number): string {
+  const out: string[] = [];
+  out.push(`${r.engine} · ${r.trials.toLocaleString("en-US")} trials · seed ${r.seed} · ${r.sampling} · calibration ${r.calibration} · ${threads} thread${threads > 1 ? "s" : ""} · ${seconds.toFixed(2)} s (${Math.round(r.trials / seconds).toLocaleString("en-US")} trials/s)`);
+  if (r.adaptive) out.push(`adaptive (JCGM 101 7.9): ${r.adaptive.runs} runs of ${r.adaptive.runTrials} trials, ${r.adaptive.converged ? "stable" : "NOT stable within the trial limit"}`);
+  if (r.requirements.length) {
+    out.push("", "requirement                         limit   target  predicted  95% CI (Wilson)        ppm out   ");
+    for (const q of r.requirements) {
+      out.push(
+        `${q.metric.padEnd(34)} ${f(q.max, 3).padStart(7)} ${f(q.yield, 4).padStart(8)} ${f(q.predictedYield, 5).padStart(10)}  [${f(q.ci[0], 5)}, ${f(q.ci[1], 5)}] ${Math.round(q.ppmOut).toString().padStart(9)}  ${q.passes ? "PASS" : "FAIL"}`,
+      );
+    }
+  }
+  out.push("", "metric                                   mean      std      p50      p95   p99.73      max");
+  for (const [id, m] of Object.entries(r.metrics)) {
+    out.push(`${(id + " (" + m.unit + ")").padEnd(38)} ${[m.mean, m.std, m.p50, m.p95, m.p9973, m.max].map((v) => f(v).padStart(8)).join(" ")}`);
+  }
+  return out.join("\n");
+}
+
+async function main() {
+  const args = parseArgs(process.argv.slice(2));
+  const stackV = validateStackFile(readJson(args.stackPath, "stack file"));
+  if (!stackV.ok) report("stack file", args.stackPath, stackV.issues);
+  const studyV = validateStudy(readJson(args.studyPath, "study file"), stackV.stack);
+  if (!studyV.ok) report("study file", args.studyPath, studyV.issues);
+  const threads = args.threads ?? defaultThreads();
+  const t0 = performance.now();
+  let lastPct = -1;
+  const result = await runStudyOnThreads(stackV.stack, studyV.study, {
+    threads,
+    trials: args.trials,
+    seed: args.seed,
+    onProgress: ({ trialsDone, trialsTotal }) => {
+      const pct = Math.floor((100 * trialsDone) / trialsTotal / 10) * 10;
+      if (pct > lastPct && process.stderr.isTTY) {
+        lastPct = pct;
+        process.stderr.write(`\r${pct}% `);
+      }
+    },
+  });
+  const seconds = (performance.now() - t0) / 1000;
+  if (process.stderr.isTTY) process.stderr.write("\r");
+  writeFileSync(args.out, JSON.stringify(result, null, 1) + "\n");
+  process.stdout.write(summary(result, seconds, threads) + "\n");
+  process.stdout.write(`\nwrote ${args.out}\n`);
+}
+
+main().catch((e) => fail([`study failed: ${e instanceof Error ? e.message : String(e)}`], 1));
