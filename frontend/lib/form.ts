@@ -3,6 +3,11 @@ import { isApiError } from "./api-client";
 
 export type FieldErrors = Record<string, string>;
 
+/** Messages from the shared schemas may start in lower case ("must be a valid e-mail address"). */
+export function sentence(message: string): string {
+  return message.charAt(0).toUpperCase() + message.slice(1);
+}
+
 /** First message per top-level field of a failed zod parse. */
 export function zodFieldErrors(error: z.ZodError): FieldErrors {
   const out: FieldErrors = {};

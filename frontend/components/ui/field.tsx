@@ -1,5 +1,6 @@
 import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
 import { cn } from "@frontend/lib/cn";
+import { sentence } from "@frontend/lib/form";
 
 const CONTROL =
   "block w-full rounded-md border bg-white px-2.5 text-ink placeholder:text-ink/40 " +
@@ -36,7 +37,7 @@ export function Field({ label, error, hint, aside, className, children }: FieldP
       {children({ id, describedBy, invalid: !!error })}
       {error ? (
         <p id={errorId} role="alert" className="text-xs font-medium text-fail">
-          {error}
+          {sentence(error)}
         </p>
       ) : hint ? (
         <p id={hintId} className="text-xs text-ink/55">

@@ -6,7 +6,7 @@ import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
 import { Input } from "@frontend/components/ui/field";
 import { CloseIcon, MailIcon, PencilIcon, PlusIcon, TrashIcon } from "@frontend/components/ui/icons";
 import { initials } from "@frontend/lib/format";
-import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { parseForm, sentence, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
 import { useCreateContact } from "../api/create-contact";
 import { useDeleteContact } from "../api/delete-contact";
 import { useDeleteSupplier } from "../api/delete-supplier";
@@ -155,7 +155,8 @@ function AddContactForm({ supplierId, onDone }: { supplierId: string; onDone: ()
     );
   }
 
-  const message = errors.name ?? errors.email ?? errors._form;
+  const first = errors.name ?? errors.email ?? errors._form;
+  const message = first ? sentence(first) : undefined;
   return (
     <form onSubmit={submit} noValidate aria-label="Add contact" className="space-y-2">
       <div className="grid grid-cols-2 gap-2">
