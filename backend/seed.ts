@@ -2,6 +2,7 @@ import { eq, sql } from "drizzle-orm";
 import type { Auth } from "./auth";
 import type { Database } from "./db/client";
 import { members, projects, supplierContacts, suppliers, users, workspaces } from "./db/schema";
+import { seedDemoStack } from "./demo/seed-stack";
 import { recordActivity } from "./services/activity";
 
 /** Invented demo scenario: a small wearables maker and its module assembler. */
@@ -79,6 +80,7 @@ export async function seedDemo(db: Database, auth: Auth): Promise<"seeded" | "sk
     return { workspaceId: ws.id, projectId: project.id, userIds, supplierId: larkfield.id };
   });
 
+  await seedDemoStack(db, ctx);
   for (const hook of seedHooks) await hook(db, ctx);
   return "seeded";
 }

@@ -5,16 +5,7 @@ import { projects, users } from "../db/schema";
 import { found } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
-
-/**
- * Later features (studies) fill `lastStudy`; this hook keeps the projects service from
- * depending on them.
- */
-export type LastStudyLookup = (projectIds: string[]) => Promise<Map<string, NonNullable<Project["lastStudy"]>>>;
-let lastStudyLookup: LastStudyLookup = async () => new Map();
-export function setLastStudyLookup(fn: LastStudyLookup) {
-  lastStudyLookup = fn;
-}
+import { lastStudies } from "./studies";
 
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
@@ -30,8 +21,8 @@ const projectColumns = {
 
 type Row = { id: string; name: string; description: string; ownerId: string | null; ownerName: string | null; createdAt: Date; updatedAt: Date };
 
-async function toProjects(rows: Row[]): Promise<Project[]> {
-  const last = await lastStudyLookup(rows.map((r) => r.id));
+async function toProjects(db: Database, rows: Row[]): Promise<Project[]> {
+  const last = await lastStudies(db, rows.map((r) => r.id));
   return rows.map((r) => ({
     ...r,
     createdAt: r.createdAt.toISOString(),
@@ -53,7 +44,7 @@ export async function listProjects(db: Database, workspaceId: string, q?: string
       ),
     )
     .orderBy(asc(projects.name));
-  return toProjects(rows);
+  return toProjects(db, rows);
 }
 
 export async function getProject(db: Database, workspaceId: string, id: string): Promise<Project> {
@@ -63,7 +54,7 @@ export async function getProject(db: Database, workspaceId: string, id: string):
     .leftJoin(users, eq(users.id, projects.ownerId))
     .where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, id)))
     .limit(1);
-  const [project] = await toProjects(rows);
+  const [project] = await toProjects(db, rows);
   return found(project, "The project");
 }
 

@@ -2,7 +2,9 @@ import type { AddressInfo } from "node:net";
 import type { Server } from "node:http";
 import { createApp } from "@backend/app";
 import { createAuth } from "@backend/auth";
+import { eq } from "drizzle-orm";
 import { openDatabase, type DatabaseHandle } from "@backend/db/client";
+import { studies } from "@backend/db/schema";
 import type { AppDeps } from "@backend/deps";
 import { DEMO_PASSWORD, seedDemo } from "@backend/seed";
 import { startHooks } from "@backend/start-hooks";
@@ -23,7 +25,7 @@ export type TestApp = {
 };
 
 /** A fresh app on an in-memory PGlite, migrated from drizzle/ and seeded with the demo workspace. */
-export async function startTestApp(opts: { seed?: boolean; signInPerMinute?: number; runner?: StudyRunner; handle?: DatabaseHandle } = {}): Promise<TestApp> {
+export async function startTestApp(opts: { seed?: boolean; signInPerMinute?: number; runner?: StudyRunner; handle?: DatabaseHandle; keepDemoStudy?: boolean } = {}): Promise<TestApp> {
   const handle = opts.handle ?? (await openDatabase("memory://"));
   const baseURL = "http://localhost:3999";
   const auth = createAuth({ db: handle.db, baseURL, secret: "test-secret-test-secret-test-secret-123", signInPerMinute: opts.signInPerMinute ?? 1000 });
@@ -32,6 +34,8 @@ export async function startTestApp(opts: { seed?: boolean; signInPerMinute?: num
   const studyQueue = new StudyQueue(handle.db, opts.runner ?? engineRunner({ threads: 2 }), log);
   const deps: AppDeps = { db: handle.db, auth, baseURL, log, studyQueue };
   if (opts.seed !== false) await seedDemo(handle.db, auth);
+  // The seed queues the demo study; most tests want the queue to themselves.
+  if (!opts.keepDemoStudy) await handle.db.update(studies).set({ status: "cancelled" }).where(eq(studies.status, "queued"));
   await startHooks.run(deps);
   await studyQueue.start();
   const app = createApp(deps);
