@@ -1,8 +1,16 @@
 import { describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
 import { navLabels, screenshot, signInAs } from "./support/browser";
 import { setupE2E, unexpectedProblems } from "./support/setup";
 
 const e2e = setupE2E();
+
+/** The role the server has for a member, asked with the page's own session. */
+async function memberRole(page: Page, email: string): Promise<string | undefined> {
+  const res = await page.request.get("/api/members");
+  const { members } = (await res.json()) as { members: Array<{ email: string; role: string }> };
+  return members.find((m) => m.email === email)?.role;
+}
 
 describe("inviting a person", () => {
   it("admin invites an engineer; the invitee opens the link, sets a password and is in", async () => {
@@ -85,6 +93,35 @@ describe("inviting a person", () => {
     await invitee.page.goto(link);
     await invitee.page.getByRole("heading", { name: "This invitation cannot be used" }).waitFor();
     await screenshot(invitee.page, "invite-revoked");
+  });
+});
+
+describe("members (admin)", () => {
+  it("changes a role, and asks for the company when the new role is supplier", async () => {
+    const { page, problems } = await e2e.session();
+    await signInAs(page, "admin@example.com");
+    await page.goto("/members");
+    const table = page.getByRole("table", { name: "Members" });
+    const role = table.getByLabel("Role of Rana Haddad");
+    await role.selectOption("engineer");
+    await expect.poll(async () => (await memberRole(page, "reviewer@example.com"))).toBe("engineer");
+
+    await role.selectOption("supplier");
+    const dialog = page.getByRole("dialog", { name: "Make Rana Haddad a supplier user" });
+    await dialog.getByRole("button", { name: "Change role" }).click();
+    await dialog.getByText("Choose the supplier company this person works for.").waitFor();
+    await screenshot(page, "members-supplier-role");
+    await dialog.getByLabel("Supplier company").selectOption({ label: "Fenmoor Substrates" });
+    await dialog.getByRole("button", { name: "Change role" }).click();
+    await table.getByRole("row").filter({ hasText: "Rana Haddad" }).getByText("Fenmoor Substrates").waitFor();
+    expect(await memberRole(page, "reviewer@example.com")).toBe("supplier");
+
+    await role.selectOption("reviewer");
+    await expect.poll(async () => (await memberRole(page, "reviewer@example.com"))).toBe("reviewer");
+    // The admin cannot demote or remove themself from this table.
+    await expect(table.getByLabel("Role of Ada Okafor").count()).resolves.toBe(0);
+    await expect(table.getByRole("button", { name: "Remove Ada Okafor" }).count()).resolves.toBe(0);
+    expect(unexpectedProblems(problems)).toEqual([]);
   });
 });
 

@@ -1,7 +1,17 @@
 import type { Project } from "@shared/schemas/api";
 import { Badge } from "@frontend/components/ui/badge";
 
-/** The last study's verdict as one chip; a study that has not finished says where it is. */
+const STATUS_LABELS: Record<string, string> = {
+  queued: "Queued",
+  running: "Running",
+  // A run that stopped with an error says nothing about the package: keep it apart from a red "Fail".
+  failed: "Run failed",
+  cancelled: "Cancelled",
+  interrupted: "Interrupted",
+  finished: "Finished",
+};
+
+/** The last study's verdict as one chip; a study without a verdict says where it is. */
 export function StudyResultChip({ study }: { study: Project["lastStudy"] }) {
   if (!study) return <span className="text-xs text-ink/45">No study yet</span>;
   if (study.passes === true)
@@ -16,12 +26,9 @@ export function StudyResultChip({ study }: { study: Project["lastStudy"] }) {
         Fail
       </Badge>
     );
-  const label: Record<string, string> = {
-    queued: "Queued",
-    running: "Running",
-    failed: "Study failed",
-    cancelled: "Cancelled",
-    finished: "Finished",
-  };
-  return <Badge tone={study.status === "failed" ? "fail" : "neutral"}>{label[study.status] ?? study.status}</Badge>;
+  return (
+    <Badge tone={study.status === "running" ? "gyro" : "neutral"} dot={study.status === "running"}>
+      {STATUS_LABELS[study.status] ?? study.status}
+    </Badge>
+  );
 }
