@@ -1,3 +1,4 @@
+import { useState } from "react";
 import type { QueryClient } from "@tanstack/react-query";
 import { redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router";
 import { meQueryOptions } from "@frontend/features/auth/api/get-me";
@@ -21,6 +22,7 @@ export const signInLoader =
     }
   };
 
+const DEMO_PASSWORD = "orthostack-demo";
 const DEMO_ACCOUNTS = [
   { email: "admin@example.com", role: "Admin" },
   { email: "engineer@example.com", role: "Engineer" },
@@ -32,12 +34,18 @@ export function SignInRoute() {
   const navigate = useNavigate();
   const [searchParams] = useSearchParams();
   const next = safeNext(searchParams.get("next"));
+  const [prefill, setPrefill] = useState<string | null>(null);
 
   return (
     <AuthFrame>
       <h1 className="text-[22px] leading-7 font-extrabold tracking-[-0.015em] text-ink">Sign in</h1>
       <p className="mt-1 mb-6 text-[13px] text-ink/60">Use the e-mail address your workspace admin invited.</p>
-      <SignInForm onSignedIn={() => navigate(next ?? "/", { replace: true })} />
+      <SignInForm
+        key={prefill ?? ""}
+        defaultEmail={prefill ?? ""}
+        defaultPassword={prefill ? DEMO_PASSWORD : ""}
+        onSignedIn={() => navigate(next ?? "/", { replace: true })}
+      />
 
       <section aria-labelledby="demo-heading" className="mt-8 rounded-lg border border-line bg-panel">
         <header className="flex items-baseline justify-between border-b border-line px-3.5 py-2">
@@ -45,14 +53,24 @@ export function SignInRoute() {
             Demo workspace
           </h2>
           <span className="text-2xs text-ink/50">
-            password <code className="font-mono text-[11px] font-semibold text-ink/75">orthostack-demo</code>
+            password <code className="font-mono text-[11px] font-semibold text-ink/75">{DEMO_PASSWORD}</code>
           </span>
         </header>
         <ul className="divide-y divide-line/70 text-xs">
           {DEMO_ACCOUNTS.map((a) => (
-            <li key={a.email} className="flex items-center justify-between px-3.5 py-1.5">
-              <code className="font-mono text-[11px] text-ink/80">{a.email}</code>
-              <span className="text-ink/50">{a.role}</span>
+            <li key={a.email}>
+              <button
+                type="button"
+                onClick={() => setPrefill(a.email)}
+                title={`Fill in ${a.email}`}
+                className="group flex w-full items-center justify-between px-3.5 py-1.5 text-left hover:bg-paper"
+              >
+                <code className="font-mono text-[11px] text-ink/80">{a.email}</code>
+                <span className="text-ink/50 group-hover:text-ink">
+                  {a.role}
+                  <span className="ml-2 text-2xs font-semibold text-gyro opacity-0 group-hover:opacity-100">Fill in</span>
+                </span>
+              </button>
             </li>
           ))}
         </ul>

@@ -47,7 +47,7 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await page.goto("/sign-in");
   await page.getByLabel("E-mail address").fill(email);
   await page.getByLabel("Password").fill(password);
-  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.getByRole("button", { name: "Sign in", exact: true }).click();
 }
 
 /** Signs in and waits for the role's start page. */

@@ -12,9 +12,17 @@ const SignInFormSchema = z.object({
   password: z.string().min(1, { message: "Enter your password" }),
 });
 
-export function SignInForm({ onSignedIn, defaultEmail = "" }: { onSignedIn: () => void; defaultEmail?: string }) {
+export function SignInForm({
+  onSignedIn,
+  defaultEmail = "",
+  defaultPassword = "",
+}: {
+  onSignedIn: () => void;
+  defaultEmail?: string;
+  defaultPassword?: string;
+}) {
   const [email, setEmail] = useState(defaultEmail);
-  const [password, setPassword] = useState("");
+  const [password, setPassword] = useState(defaultPassword);
   const [errors, setErrors] = useState<FieldErrors>({});
   const signIn = useSignIn();
 
