@@ -15,7 +15,7 @@ export function wilson(k: number, n: number, z = Z95): [number, number] {
   const den = 1 + z2 / n;
   const centre = (p + z2 / (2 * n)) / den;
   const half = (z / den) * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n));
-  return [Math.max(0, centre - half), Math.min(1, centre + half)];
+  return [k <= 0 ? 0 : Math.max(0, centre - half), k >= n ? 1 : Math.min(1, centre + half)];
 }
 
 /** Sample standard deviation (n − 1) from Welford sums. */
