@@ -66,10 +66,7 @@ export function SignInRoute() {
                 className="group flex w-full items-center justify-between px-3.5 py-1.5 text-left hover:bg-paper"
               >
                 <code className="font-mono text-[11px] text-ink/80">{a.email}</code>
-                <span className="text-ink/50 group-hover:text-ink">
-                  {a.role}
-                  <span className="ml-2 text-2xs font-semibold text-gyro opacity-0 group-hover:opacity-100">Fill in</span>
-                </span>
+                <span className="text-ink/50 group-hover:text-gyro">{a.role}</span>
               </button>
             </li>
           ))}

@@ -25,9 +25,10 @@ export function navItemsFor(role: Role): NavItem[] {
 export function SideNav({ role }: { role: Role }) {
   const items = navItemsFor(role);
   return (
-    <aside className="flex w-56 shrink-0 flex-col bg-ink text-paper">
-      <div className="flex h-14 items-center border-b border-white/[0.08] px-4">
-        <Logo />
+    // Below the md breakpoint the rail keeps only the icons, so tables keep their width.
+    <aside className="flex w-14 shrink-0 flex-col bg-ink text-paper md:w-56">
+      <div className="flex h-14 items-center border-b border-white/[0.08] px-3 md:px-4">
+        <Logo className="[&>span:last-child]:max-md:sr-only" />
       </div>
       <nav aria-label="Main" className="flex-1 px-2 pt-4">
         <ul className="space-y-0.5">
@@ -46,8 +47,8 @@ export function SideNav({ role }: { role: Role }) {
                   <>
                     {isActive ? <span className="absolute top-1.5 bottom-1.5 -left-2 w-[3px] rounded-r bg-mag" aria-hidden="true" /> : null}
                     <span className={cn(isActive ? "text-mag" : "text-paper/50 group-hover:text-paper/75")}>{item.icon}</span>
-                    <span className="flex-1">{item.label}</span>
-                    {item.note ? <span className="text-[10px] font-medium text-paper/35">{item.note}</span> : null}
+                    <span className="flex-1 max-md:sr-only">{item.label}</span>
+                    {item.note ? <span className="text-[10px] font-medium text-paper/35 max-md:hidden">{item.note}</span> : null}
                   </>
                 )}
               </NavLink>
@@ -55,7 +56,7 @@ export function SideNav({ role }: { role: Role }) {
           ))}
         </ul>
       </nav>
-      <div className="border-t border-white/[0.08] px-4 py-3 text-[11px] leading-4 text-paper/40">
+      <div className="border-t border-white/[0.08] px-4 py-3 text-[11px] leading-4 text-paper/40 max-md:hidden">
         Predictions from the tolerances entered. They do not replace qualification of built parts.
       </div>
     </aside>

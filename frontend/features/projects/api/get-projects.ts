@@ -14,7 +14,18 @@ export const projectsQueryOptions = (q = "") =>
     queryFn: ({ signal }) => getProjects(q, signal),
   });
 
-/** Keeps the previous rows on screen while a new search runs, so the table does not flash. */
+const IN_PROGRESS = new Set(["queued", "running"]);
+const POLL_WHILE_RUNNING_MS = 5_000;
+
+/**
+ * Keeps the previous rows on screen while a new search runs, so the table does not
+ * flash; asks again every few seconds while any project's last study is still going.
+ */
 export function useProjects(q: string) {
-  return useQuery({ ...projectsQueryOptions(q), placeholderData: keepPreviousData });
+  return useQuery({
+    ...projectsQueryOptions(q),
+    placeholderData: keepPreviousData,
+    refetchInterval: (query) =>
+      query.state.data?.some((p) => p.lastStudy && IN_PROGRESS.has(p.lastStudy.status)) ? POLL_WHILE_RUNNING_MS : false,
+  });
 }
