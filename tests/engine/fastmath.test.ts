@@ -1,0 +1,38 @@
+// The series in shared/engine/fastmath.ts replace Math.* only where they agree with it to
+// rounding; these checks hold them to Math.* (the exact path) over and beyond their ranges.
+import { describe, expect, it } from "vitest";
+import { atan2Fast, cosFast, sinFast, tanFast } from "@shared/engine/fastmath";
+import { Xoshiro128ss } from "@shared/engine/random";
+
+const g = new Xoshiro128ss(5, 6, 7, 8);
+const rnd = () => 2 * g.nextOpen01() - 1;
+const ulps = (a: number, b: number) => Math.abs(a - b) / (Number.EPSILON * Math.max(Math.abs(b), Number.MIN_VALUE));
+
+describe("small-argument series against Math.*", () => {
+  it("atan2Fast within 2 ulp of Math.atan2 on every branch, and exact in sign and quadrant", () => {
+    let worst = 0;
+    for (let i = 0; i < 200_000; i++) {
+      const x = rnd() * 10 ** (3 * rnd());
+      const y = x * (0.2 * rnd()) + (i % 7 === 0 ? rnd() : 0);
+      const a = atan2Fast(y, x), b = Math.atan2(y, x);
+      if (b !== 0) worst = Math.max(worst, ulps(a, b));
+      else expect(a).toBe(0);
+    }
+    expect(worst).toBeLessThan(2);
+    expect(atan2Fast(0, -1)).toBe(Math.PI);
+    expect(atan2Fast(-1e-300, 1)).toBe(Math.atan2(-1e-300, 1));
+  });
+
+  it("tanFast, sinFast, cosFast within 2 ulp of Math.tan, Math.sin, Math.cos", () => {
+    let wt = 0, ws = 0, wc = 0;
+    for (let i = 0; i < 200_000; i++) {
+      const a = 0.3 * rnd() * 10 ** (-4 * Math.abs(rnd()));
+      wt = Math.max(wt, ulps(tanFast(a), Math.tan(a)));
+      ws = Math.max(ws, ulps(sinFast(a), Math.sin(a)));
+      wc = Math.max(wc, ulps(cosFast(a), Math.cos(a)));
+    }
+    expect(wt).toBeLessThan(2);
+    expect(ws).toBeLessThan(2);
+    expect(wc).toBeLessThan(2);
+  });
+});
