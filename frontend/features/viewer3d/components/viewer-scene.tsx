@@ -8,7 +8,7 @@
  */
 import { Hud, OrbitControls, OrthographicCamera } from "@react-three/drei";
 import { useFrame, useThree, type ThreeEvent } from "@react-three/fiber";
-import { memo, useEffect, useLayoutEffect, useMemo, useRef } from "react";
+import { memo, useEffect, useLayoutEffect, useMemo, useRef, type RefObject } from "react";
 import {
   BackSide,
   BoxGeometry,
@@ -29,15 +29,13 @@ import {
   MeshStandardMaterial,
   type PerspectiveCamera,
   Plane,
-  PMREMGenerator,
   Quaternion,
   type Sprite,
   SpriteMaterial,
   SRGBColorSpace,
   Vector3,
-  type Line,
+  type LineLoop,
 } from "three";
-import { RoomEnvironment } from "three/examples/jsm/environments/RoomEnvironment.js";
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
 import type { StackFile } from "@shared/schemas/stack-file";
 import { isSensorKind } from "@shared/schemas/stack-file";
@@ -148,37 +146,29 @@ function gradientTexture(): CanvasTexture {
   return t;
 }
 
+/**
+ * Lights only, no environment map: a prefiltered environment doubles the start-up and the
+ * frame time on machines without a GPU, and hemisphere plus three directional lights
+ * give the boxes readable, distinct faces.
+ */
 function SceneEnvironment() {
-  const gl = useThree((s) => s.gl);
   const scene = useThree((s) => s.scene);
   const invalidate = useThree((s) => s.invalidate);
   useEffect(() => {
     const background = gradientTexture();
     scene.background = background;
-    const pmrem = new PMREMGenerator(gl);
-    const room = new RoomEnvironment();
-    const env = pmrem.fromScene(room, 0.04).texture;
-    scene.environment = env;
-    scene.environmentIntensity = 0.35;
     invalidate();
     return () => {
       scene.background = null;
-      scene.environment = null;
       background.dispose();
-      env.dispose();
-      pmrem.dispose();
-      room.traverse((o) => {
-        const mesh = o as unknown as { geometry?: { dispose(): void }; material?: { dispose(): void } };
-        mesh.geometry?.dispose();
-        mesh.material?.dispose();
-      });
     };
-  }, [gl, scene, invalidate]);
+  }, [scene, invalidate]);
   return (
     <>
-      <hemisphereLight args={["#f4f1ea", "#16202a", 0.85]} />
-      <directionalLight position={[5, -8, 11]} intensity={1.7} />
-      <directionalLight position={[-9, 7, 4]} intensity={0.5} />
+      <hemisphereLight args={["#fbf8f2", "#3a4753", 1.55]} />
+      <directionalLight position={[5, -8, 11]} intensity={1.9} />
+      <directionalLight position={[-9, 7, 4]} intensity={0.7} />
+      <directionalLight position={[-3, 9, -2]} intensity={0.35} />
     </>
   );
 }
@@ -284,7 +274,7 @@ interface StackModelProps {
   materials: Materials;
   geometry: ReturnType<typeof useSharedGeometry>;
   showCaps: boolean;
-  groupRefs: React.RefObject<(Group | null)[]>;
+  groupRefs: RefObject<(Group | null)[]>;
   onHover: ViewerSceneProps["onHover"];
   onSelect: ViewerSceneProps["onSelect"];
   plane: Plane;
@@ -479,7 +469,7 @@ export function ViewerScene(props: ViewerSceneProps) {
   }, [size.height, camera, labelMaterials, arrowCount, invalidate]);
 
   // ---- the section outline: a rectangle where the plane cuts the package's box
-  const outlineRef = useRef<Line>(null);
+  const outlineRef = useRef<LineLoop>(null);
   const outlineGeometry = useMemo(() => {
     const g = new BufferGeometry();
     g.setAttribute("position", new BufferAttribute(new Float32Array(15), 3));
@@ -645,7 +635,7 @@ export function ViewerScene(props: ViewerSceneProps) {
           />
         ))}
       </group>
-      <line ref={outlineRef} geometry={outlineGeometry} material={materials.outline} raycast={noRaycast} renderOrder={9} visible={false} />
+      <lineLoop ref={outlineRef} geometry={outlineGeometry} material={materials.outline} raycast={noRaycast} renderOrder={9} visible={false} />
       <OrbitControls makeDefault enableDamping={false} minDistance={0.3} maxDistance={600} zoomSpeed={0.9} />
       <FrameIndicator mainCamera={camera} />
     </>
