@@ -36,6 +36,14 @@ const ENVELOPE_LEN = 2 * envelopeStore(new Uint32Array(0)).perSign;
  */
 export const REG_TRIALS_PER_BLOCK = 512;
 
+/**
+ * The heading envelope (p5, p50, p95 per attitude, a plot) is filled from the first
+ * ENV_TRIALS_PER_BLOCK trials of every block (1/4 of the sample): 180 stores per trial
+ * were a third of the trial loop, and a quarter of the trials pins those percentiles to
+ * a small fraction of the plot's line width (1,024 trials per block, 250,000 at 10^6).
+ */
+export const ENV_TRIALS_PER_BLOCK = 1024;
+
 export interface TrackedSpec {
   metric: number; // index into model.metrics
   /** |v| limit of a requirement, or NaN */
@@ -219,7 +227,7 @@ export function runBlock(m: Model, plan: Plan, st: WorkerState, block: number): 
       if ((v < 0 ? -v : v) <= reqs[r].max) pass[r]++;
     }
     for (let t = 0; t < nT; t++) tracked[i * nT + t] = vals[trackedIdx[t]];
-    if (nAtt > 0) {
+    if (nAtt > 0 && i < ENV_TRIALS_PER_BLOCK) {
       const he = s.headingErr;
       for (let k = 0; k < nAtt; k++) {
         const e = he[k];

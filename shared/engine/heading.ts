@@ -41,6 +41,17 @@ export interface Attitudes {
   sinPsi: Float64Array;
   f: Float64Array; // 3 per attitude
   m: Float64Array; // 3 per attitude
+  /** per tilt: L = Rx(φ)ᵀ·Ry(θ)ᵀ (row-major) and the true specific force −L·ez */
+  tiltL: Float64Array;
+  tiltF: Float64Array;
+  /** per heading: cos ψ, sin ψ, cos²ψ, cos ψ·sin ψ, sin²ψ */
+  hc: Float64Array;
+  hs: Float64Array;
+  hcc: Float64Array;
+  hcs: Float64Array;
+  hss: Float64Array;
+  cosI: number;
+  sinI: number;
 }
 
 export function buildAttitudes(opts: {
@@ -61,7 +72,25 @@ export function buildAttitudes(opts: {
     sinPsi: new Float64Array(count),
     f: new Float64Array(3 * count),
     m: new Float64Array(3 * count),
+    tiltL: new Float64Array(9 * tilts.length),
+    tiltF: new Float64Array(3 * tilts.length),
+    hc: new Float64Array(nPsi),
+    hs: new Float64Array(nPsi),
+    hcc: new Float64Array(nPsi),
+    hcs: new Float64Array(nPsi),
+    hss: new Float64Array(nPsi),
+    cosI: Math.cos(opts.inclinationDeg * DEG),
+    sinI: Math.sin(opts.inclinationDeg * DEG),
   };
+  for (let j = 0; j < nPsi; j++) {
+    const c = Math.cos(j * step * DEG), sn = Math.sin(j * step * DEG);
+    a.hc[j] = c; a.hs[j] = sn; a.hcc[j] = c * c; a.hcs[j] = c * sn; a.hss[j] = sn * sn;
+  }
+  tilts.forEach((t, ti) => {
+    const L = mul(transposeOf(rotX(t.rollDeg * DEG, mat3())), transposeOf(rotY(t.pitchDeg * DEG, mat3())), mat3());
+    a.tiltL.set(L, 9 * ti);
+    a.tiltF[3 * ti] = -L[2]; a.tiltF[3 * ti + 1] = -L[5]; a.tiltF[3 * ti + 2] = -L[8];
+  });
   const I = opts.inclinationDeg * DEG;
   const gN = new Float64Array([0, 0, 1]);
   const mN = new Float64Array([Math.cos(I), 0, Math.sin(I)]);
@@ -91,12 +120,22 @@ export function buildAttitudes(opts: {
 
 const identity3 = new Float64Array([1, 0, 0, 0, 1, 0, 0, 0, 1]);
 
+function transposeOf(m: Float64Array): Float64Array {
+  return mulTA(m, identity3, mat3());
+}
+
 const sweepResult = { maxAbs: 0, rms: 0 };
 
 /**
  * Heading error (deg) at every attitude for the cross-axis matrices Ca (at ca..ca+8)
  * and Cm (at cm..cm+8). Writes out[k]; returns max |e| and RMS (deg). The returned
  * object is reused between calls.
+ *
+ * Per tilt, f (so f^, φ^, θ^) does not depend on the heading, and m^ = Mm·L·w(ψ) with
+ * w(ψ) = (cos I cos ψ, −cos I sin ψ, sin I). The scaled levelled components
+ *   h_x = (r², −f^x f^y, −f^x f^z)·m^,  −h_y = (0, N f^z, −N f^y)·m^
+ * are therefore A cos ψ + B sin ψ + C and D cos ψ + E sin ψ + F with six numbers per
+ * tilt, and after the turn by −ψ each heading needs a handful of products and one atan2.
  */
 export function headingSweep(
   Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes, out: Float64Array,
@@ -108,36 +147,46 @@ export function headingSweep(
   const m0 = Cm[cm], m1 = -Cm[cm + 1], m2 = -Cm[cm + 2];
   const m3 = -Cm[cm + 3], m4 = Cm[cm + 4], m5 = Cm[cm + 5];
   const m6 = -Cm[cm + 6], m7 = Cm[cm + 7], m8 = Cm[cm + 8];
-  const F = att.f, M = att.m, cp = att.cosPsi, sp = att.sinPsi;
+  const nPsi = att.headingsPerTilt, nT = att.tilts.length;
+  const TL = att.tiltL, TF = att.tiltF;
+  const hc = att.hc, hs = att.hs, hcc = att.hcc, hcs = att.hcs, hss = att.hss;
+  const cosI = att.cosI, sinI = att.sinI;
   let maxAbs = 0, sum2 = 0;
-  const n = att.count;
-  for (let k = 0; k < n; k++) {
-    const o = 3 * k;
-    const tfx = F[o], tfy = F[o + 1], tfz = F[o + 2];
-    const tmx = M[o], tmy = M[o + 1], tmz = M[o + 2];
+  for (let t = 0; t < nT; t++) {
+    const o = 3 * t, l = 9 * t;
+    const tfx = TF[o], tfy = TF[o + 1], tfz = TF[o + 2];
     const fx = a0 * tfx + a1 * tfy + a2 * tfz;
     const fy = a3 * tfx + a4 * tfy + a5 * tfz;
     const fz = a6 * tfx + a7 * tfy + a8 * tfz;
-    const mx = m0 * tmx + m1 * tmy + m2 * tmz;
-    const my = m3 * tmx + m4 * tmy + m5 * tmz;
-    const mz = m6 * tmx + m7 * tmy + m8 * tmz;
     const r2 = fy * fy + fz * fz;
     const N = Math.sqrt(r2 + fx * fx);
-    // (h_x, −h_y) scaled by |f|·√(fy²+fz²) > 0
-    const hx = r2 * mx - fx * (fy * my + fz * mz);
-    const hyNeg = N * (fz * my - fy * mz);
-    // rotate by −ψ: the angle of the result is e = ψ^ − ψ in (−π, π]
-    const c = cp[k], s = sp[k];
-    const ex = c * hx + s * hyNeg;
-    const ey = c * hyNeg - s * hx;
-    const e = atan2Fast(ey, ex) * TO_DEG;
-    out[k] = e;
-    const ae = e < 0 ? -e : e;
-    if (ae > maxAbs) maxAbs = ae;
-    sum2 += e * e;
+    // u = (r², −fx·fy, −fx·fz), v = (0, N·fz, −N·fy); U = uᵀ·Mm·L, V = vᵀ·Mm·L
+    const u0 = r2, u1 = -fx * fy, u2 = -fx * fz;
+    const v1 = N * fz, v2 = -N * fy;
+    const p0 = u0 * m0 + u1 * m3 + u2 * m6, p1 = u0 * m1 + u1 * m4 + u2 * m7, p2 = u0 * m2 + u1 * m5 + u2 * m8;
+    const q0 = v1 * m3 + v2 * m6, q1 = v1 * m4 + v2 * m7, q2 = v1 * m5 + v2 * m8;
+    const L0 = TL[l], L1 = TL[l + 1], L2 = TL[l + 2], L3 = TL[l + 3], L4 = TL[l + 4], L5 = TL[l + 5];
+    const L6 = TL[l + 6], L7 = TL[l + 7], L8 = TL[l + 8];
+    const U0 = p0 * L0 + p1 * L3 + p2 * L6, U1 = p0 * L1 + p1 * L4 + p2 * L7, U2 = p0 * L2 + p1 * L5 + p2 * L8;
+    const V0 = q0 * L0 + q1 * L3 + q2 * L6, V1 = q0 * L1 + q1 * L4 + q2 * L7, V2 = q0 * L2 + q1 * L5 + q2 * L8;
+    const A = U0 * cosI, B = -U1 * cosI, C = U2 * sinI;
+    const D = V0 * cosI, E = -V1 * cosI, F = V2 * sinI;
+    const BD = B + D, EA = E - A;
+    const base = t * nPsi;
+    for (let j = 0; j < nPsi; j++) {
+      // (ex, ey) = (h_x, −h_y) turned by −ψ; its angle is e = ψ^ − ψ in (−π, π]
+      const c = hc[j], s = hs[j];
+      const ex = A * hcc[j] + BD * hcs[j] + E * hss[j] + C * c + F * s;
+      const ey = D * hcc[j] + EA * hcs[j] - B * hss[j] + F * c - C * s;
+      const e = atan2Fast(ey, ex) * TO_DEG;
+      out[base + j] = e;
+      const ae = e < 0 ? -e : e;
+      if (ae > maxAbs) maxAbs = ae;
+      sum2 += e * e;
+    }
   }
   sweepResult.maxAbs = maxAbs;
-  sweepResult.rms = Math.sqrt(sum2 / n);
+  sweepResult.rms = Math.sqrt(sum2 / (nPsi * nT));
   return sweepResult;
 }
 
