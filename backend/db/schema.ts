@@ -275,6 +275,8 @@ export const studies = pgTable(
     trialsTotal: integer("trials_total").notNull().default(0),
     trialsPerSecond: doublePrecision("trials_per_second"),
     error: text("error"),
+    /** The tolerance sources replaced by measured data sets (issue 7), null for a design study. */
+    asBuilt: jsonb("as_built").$type<Array<Record<string, unknown>> | null>(),
     createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
     startedAt: timestamp("started_at", { withTimezone: true }),
     finishedAt: timestamp("finished_at", { withTimezone: true }),
@@ -411,4 +413,64 @@ export const outboxMessages = pgTable(
     receivedAt: timestamp("received_at", { withTimezone: true }).defaultNow().notNull(),
   },
   (t) => [index("outbox_messages_workspace_idx").on(t.workspaceId, t.receivedAt)],
+);
+
+// ---- measured data sets (issue 7) -------------------------------------------------------
+/**
+ * An uploaded measurement file: the original bytes, its columns (header, unit, summary), the
+ * values column by column and the first rows for the preview. Written once; only its
+ * mappings change later.
+ */
+export const datasets = pgTable(
+  "datasets",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    workspaceId: uuid("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    fileType: text("file_type", { enum: ["csv", "xlsx"] }).notNull(),
+    sheet: text("sheet"),
+    sizeBytes: integer("size_bytes").notNull(),
+    sha256: text("sha256").notNull(),
+    rowCount: integer("row_count").notNull(),
+    /** [{key, name, letter, unit, kind, summary}] in file order */
+    columns: jsonb("columns").$type<Array<Record<string, unknown>>>().notNull(),
+    /** column key -> its values (numbers, or texts for a label column), in row order */
+    data: jsonb("data").$type<Record<string, Array<number | string>>>().notNull(),
+    preview: jsonb("preview").$type<{ rowNumbers: number[]; cells: string[][] }>().notNull(),
+    /** row number in the file of each data row (blank rows are skipped), for outlier messages */
+    rowNumbers: jsonb("row_numbers").$type<number[]>().notNull(),
+    file: bytea("file").notNull(),
+    uploadedBy: text("uploaded_by").references(() => users.id, { onDelete: "set null" }),
+    uploaderRole: text("uploader_role").notNull(),
+    /** Set when a supplier sent the file through a released report. */
+    supplierId: uuid("supplier_id").references(() => suppliers.id, { onDelete: "set null" }),
+    reportId: uuid("report_id").references(() => reports.id, { onDelete: "set null" }),
+    createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
+  },
+  (t) => [index("datasets_project_idx").on(t.projectId, t.createdAt), index("datasets_report_idx").on(t.reportId)],
+);
+
+/** Which tolerance source of which revision a column measures, in which unit. */
+export const datasetMappings = pgTable(
+  "dataset_mappings",
+  {
+    datasetId: uuid("dataset_id")
+      .notNull()
+      .references(() => datasets.id, { onDelete: "cascade" }),
+    column: text("column").notNull(),
+    revisionId: uuid("revision_id")
+      .notNull()
+      .references(() => stackRevisions.id, { onDelete: "cascade" }),
+    source: text("source").notNull(),
+    unit: text("unit").notNull(),
+    nominal: doublePrecision("nominal").notNull().default(0),
+    updatedBy: text("updated_by").references(() => users.id, { onDelete: "set null" }),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).defaultNow().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.datasetId, t.column] })],
 );
