@@ -183,9 +183,13 @@ export default function StackViewer({
   const handleApi = useCallback((a: SceneApi) => {
     api.current = a;
   }, []);
-  const handleFrame = useCallback(() => {
+  // data-frames / data-moving let a browser test wait for the picture without guessing
+  const handleFrame = useCallback((moving: boolean) => {
     frames.current++;
-    if (rootRef.current) rootRef.current.dataset.frames = String(frames.current);
+    const el = rootRef.current;
+    if (!el) return;
+    el.dataset.frames = String(frames.current);
+    el.dataset.moving = moving ? "true" : "false";
   }, []);
 
   // ---- pose description
@@ -233,15 +237,15 @@ export default function StackViewer({
   };
 
   // ---- trial index field (text while typing, committed on Enter or blur)
-  const [trialText, setTrialText] = useState(trial != null ? String(trial) : "0");
+  const [trialText, setTrialText] = useState(trial != null ? String(trial) : "");
   useEffect(() => {
-    if (trial != null) setTrialText(String(trial));
+    setTrialText(trial != null ? String(trial) : "");
   }, [trial]);
   const trials = vm?.hasStudy ? vm.study.trials : 0;
   const commitTrial = (text: string) => {
     const n = Number(text);
-    if (!Number.isInteger(n) || n < 0) {
-      setTrialText(trial != null ? String(trial) : "0");
+    if (text.trim() === "" || !Number.isInteger(n) || n < 0) {
+      setTrialText(trial != null ? String(trial) : "");
       return;
     }
     setMeanPose(false);
@@ -262,7 +266,8 @@ export default function StackViewer({
     requestAnimationFrame(() => {
       try {
         const lines = [
-          `Angles exaggerated ×${exaggeration} (lengths true to scale); exploded ${fmtMm(explode)} per level` +
+          `Angles exaggerated ×${exaggeration} (lengths true to scale)` +
+            (explode > 0 ? `; exploded ${fmtMm(explode)} per level` : "") +
             (section.axis === "off" ? "" : `; section ${section.axis} ${section.flip !== (section.axis === "y") ? "≥" : "≤"} ${fmtMm(section.value)}`),
           `Board frame B, z up; sizes in mm. Orthostack 3D view, ${new Date().toISOString().slice(0, 10)}`,
         ];
@@ -301,8 +306,12 @@ export default function StackViewer({
             </>
           ) : (
             <>
-              <dt className="text-paper/55">id</dt>
-              <dd className="font-mono">{e.id}</dd>
+              {e.name ? (
+                <>
+                  <dt className="text-paper/55">id</dt>
+                  <dd className="font-mono">{e.id}</dd>
+                </>
+              ) : null}
               <dt className="text-paper/55">size</dt>
               <dd className="num text-left">
                 {fmt(e.size.x)} × {fmt(e.size.y)} × {fmt(e.size.z)} mm
@@ -383,6 +392,7 @@ export default function StackViewer({
               inputMode="numeric"
               className="num h-7 w-20 rounded-md border border-line bg-white px-1.5 text-xs hover:border-ink/30 focus:border-gyro focus:outline-none"
               value={trialText}
+              placeholder="—"
               onChange={(e) => setTrialText(e.target.value.replace(/[^0-9]/g, ""))}
               onBlur={(e) => commitTrial(e.target.value)}
               onKeyDown={(e) => {
@@ -413,7 +423,7 @@ export default function StackViewer({
             onChange={(e) => setExaggeration(fromSlider(Number(e.target.value)))}
             className="w-28 accent-gyro"
           />
-          <output className="num w-10 font-semibold text-ink" aria-live="polite" data-testid="exaggeration-value">
+          <output className="w-10 font-semibold text-ink tabular-nums" aria-live="polite" data-testid="exaggeration-value">
             ×{exaggeration}
           </output>
         </label>

@@ -99,7 +99,8 @@ export interface ViewerSceneProps {
   onHover: (info: HoverInfo | null) => void;
   onSelect: (index: number) => void;
   onApi: (api: SceneApi) => void;
-  onFrame: () => void;
+  /** after every drawn frame; `moving` while the camera still glides to a preset */
+  onFrame: (moving: boolean) => void;
 }
 
 export const FOV = 30;
@@ -232,9 +233,12 @@ function disposeMaterials(m: Materials) {
   m.outline.dispose();
 }
 
-/** Materials that the section plane cuts (everything but arrows, labels and the outline). */
-function clippedMaterials(m: Materials) {
-  return [...m.elements.flatMap((e) => [e.body, e.edge, e.cap]), m.bond, m.gridMinor, m.gridMajor];
+/**
+ * Materials that the section plane cuts: the package's elements and bond lines. The board
+ * stays whole (a cut board is only a missing half), and so do arrows, labels and outline.
+ */
+function clippedMaterials(m: Materials, stack: StackFile) {
+  return [...m.elements.filter((_, i) => stack.elements[i]?.parent !== null).flatMap((e) => [e.body, e.edge, e.cap]), m.bond];
 }
 
 /** 1 mm grid over the board's top face, with every fifth line brighter. */
@@ -279,15 +283,16 @@ interface StackModelProps {
   onSelect: ViewerSceneProps["onSelect"];
   plane: Plane;
   sectionOn: boolean;
+  boardIndex: number;
 }
 
 /** Boxes, edges, bond lines and section caps of every element. Rendered once per stack. */
-const StackModel = memo(function StackModel({ stack, materials, geometry, showCaps, groupRefs, onHover, onSelect, plane, sectionOn }: StackModelProps) {
+const StackModel = memo(function StackModel({ stack, materials, geometry, showCaps, groupRefs, onHover, onSelect, plane, sectionOn, boardIndex }: StackModelProps) {
   const pick = (e: ThreeEvent<PointerEvent | MouseEvent>) => {
     for (const hit of e.intersections) {
       const ud = hit.object.userData as { elementIndex?: number; part?: "body" | "bond" };
       if (ud.elementIndex === undefined) continue;
-      if (sectionOn && plane.distanceToPoint(hit.point) < 0) continue; // cut away: look further
+      if (sectionOn && ud.elementIndex !== boardIndex && plane.distanceToPoint(hit.point) < 0) continue; // cut away: look further
       return { index: ud.elementIndex, part: ud.part ?? "body" };
     }
     return null;
@@ -320,7 +325,7 @@ const StackModel = memo(function StackModel({ stack, materials, geometry, showCa
           >
             <mesh geometry={geometry.box} material={m.body} scale={[e.size.x, e.size.y, e.size.z]} userData={{ elementIndex: i, part: "body" }} />
             <lineSegments geometry={geometry.edges} material={m.edge} scale={[e.size.x, e.size.y, e.size.z]} raycast={noRaycast} />
-            {showCaps ? (
+            {showCaps && i !== boardIndex ? (
               <mesh geometry={geometry.box} material={m.cap} scale={[e.size.x, e.size.y, e.size.z]} raycast={noRaycast} />
             ) : null}
             {t > 0 ? (
@@ -384,6 +389,7 @@ export function ViewerScene(props: ViewerSceneProps) {
   useEffect(() => () => disposeMaterials(materials), [materials]);
 
   const shown = useMemo(() => new ShownPose(poseSet), [poseSet]);
+  const boardIndex = useMemo(() => stack.elements.findIndex((e) => e.parent === null), [stack]);
   const version = useRef(0);
   const groupRefs = useRef<(Group | null)[]>([]);
 
@@ -406,12 +412,12 @@ export function ViewerScene(props: ViewerSceneProps) {
   useLayoutEffect(() => {
     gl.localClippingEnabled = true;
     const planes = sectionOn ? [plane] : [];
-    for (const m of clippedMaterials(materials)) {
+    for (const m of clippedMaterials(materials, stack)) {
       m.clippingPlanes = planes;
       m.needsUpdate = true;
     }
     invalidate();
-  }, [gl, materials, plane, sectionOn, invalidate]);
+  }, [gl, materials, stack, plane, sectionOn, invalidate]);
 
   // ---- hover and selection highlight
   useLayoutEffect(() => {
@@ -421,7 +427,7 @@ export function ViewerScene(props: ViewerSceneProps) {
       const base = KIND_COLOUR[kind];
       const selected = i === selectedIndex, hovered = i === hoveredIndex;
       m.body.emissive.set(base);
-      m.body.emissiveIntensity = selected ? 0.4 : hovered ? 0.25 : 0;
+      m.body.emissiveIntensity = selected ? 0.42 : hovered ? 0.3 : 0;
       m.edge.color.copy(selected ? new Color("#ffffff") : lighten(base, kind === "board" ? 0.25 : 0.45));
       m.edge.opacity = selected ? 1 : kind === "board" ? 0.55 : 0.9;
     });
@@ -436,13 +442,16 @@ export function ViewerScene(props: ViewerSceneProps) {
   const ghostShaftRef = useRef<InstancedMesh>(null);
   const ghostHeadRef = useRef<InstancedMesh>(null);
   const labelRefs = useRef<(Sprite | null)[]>([]);
+  // one label per arrow: the axis letter in the axis colour, ringed in the die's colour
   const labelMaterials = useMemo(
     () =>
-      AXIS_NAMES.map((name, a) => {
-        const t = labelTexture(name, AXIS_COLOUR[a]);
-        return { material: new SpriteMaterial({ map: t.texture, depthTest: false, depthWrite: false, sizeAttenuation: false }), aspect: t.aspect };
-      }),
-    [],
+      triads.sensors.flatMap((ei) =>
+        AXIS_NAMES.map((name, a) => {
+          const t = labelTexture(name, AXIS_COLOUR[a], { ring: KIND_COLOUR[stack.elements[ei].kind] });
+          return { material: new SpriteMaterial({ map: t.texture, depthTest: false, depthWrite: false, sizeAttenuation: false }), aspect: t.aspect };
+        }),
+      ),
+    [triads, stack],
   );
   useEffect(() => () => labelMaterials.forEach((l) => l.material.dispose()), [labelMaterials]);
   useLayoutEffect(() => {
@@ -463,10 +472,21 @@ export function ViewerScene(props: ViewerSceneProps) {
     const s = (2 * px * Math.tan(((camera.fov ?? FOV) * Math.PI) / 360)) / Math.max(1, size.height);
     labelRefs.current.forEach((sp, k) => {
       if (!sp) return;
-      sp.scale.set(s * labelMaterials[k % 3].aspect, s, 1);
+      sp.scale.set(s * (labelMaterials[k]?.aspect ?? 1), s, 1);
     });
     invalidate();
   }, [size.height, camera, labelMaterials, arrowCount, invalidate]);
+
+  // Axis labels only while the package is large enough on screen to carry them.
+  const labelGroup = useRef<Group>(null);
+  const shortestArrow = triads.length.length ? Math.min(...triads.length) : 1;
+  useFrame(() => {
+    const g = labelGroup.current;
+    if (!g || !controls) return;
+    const dist = camera.position.distanceTo(controls.target);
+    const pxPerMm = size.height / (2 * dist * Math.tan(((camera.fov ?? FOV) * Math.PI) / 360));
+    g.visible = pxPerMm * shortestArrow > 45;
+  });
 
   // ---- the section outline: a rectangle where the plane cuts the package's box
   const outlineRef = useRef<LineLoop>(null);
@@ -588,7 +608,7 @@ export function ViewerScene(props: ViewerSceneProps) {
   useEffect(() => {
     onApi({ canvas: gl.domElement, renderNow: () => invalidate() });
   }, [gl, onApi, invalidate]);
-  useFrame(() => onFrame(), 3);
+  useFrame(() => onFrame(rig.current.active), 3);
 
   // keep the near plane useful from a die's corner to the whole board
   useFrame(() => {
@@ -616,24 +636,27 @@ export function ViewerScene(props: ViewerSceneProps) {
         onSelect={onSelect}
         plane={plane}
         sectionOn={sectionOn}
+        boardIndex={boardIndex}
       />
       <group visible={showAxes}>
         <instancedMesh key={`s${arrowCount}`} ref={shaftRef} args={[geometry.shaft, materials.arrow, Math.max(1, arrowCount)]} count={arrowCount} raycast={noRaycast} frustumCulled={false} />
         <instancedMesh key={`h${arrowCount}`} ref={headRef} args={[geometry.head, materials.arrow, Math.max(1, arrowCount)]} count={arrowCount} raycast={noRaycast} frustumCulled={false} />
         <instancedMesh key={`gs${arrowCount}`} ref={ghostShaftRef} args={[geometry.shaft, materials.ghost, Math.max(1, arrowCount)]} count={arrowCount} raycast={noRaycast} renderOrder={8} frustumCulled={false} />
         <instancedMesh key={`gh${arrowCount}`} ref={ghostHeadRef} args={[geometry.head, materials.ghost, Math.max(1, arrowCount)]} count={arrowCount} raycast={noRaycast} renderOrder={8} frustumCulled={false} />
+        <group ref={labelGroup}>
         {Array.from({ length: arrowCount }, (_, k) => (
           <sprite
             key={k}
             ref={(sp) => {
               labelRefs.current[k] = sp;
             }}
-            material={labelMaterials[k % 3].material}
+            material={labelMaterials[k]?.material}
             raycast={noRaycast}
             renderOrder={10}
             center={[0.5, 0.5]}
           />
         ))}
+        </group>
       </group>
       <lineLoop ref={outlineRef} geometry={outlineGeometry} material={materials.outline} raycast={noRaycast} renderOrder={9} visible={false} />
       <OrbitControls makeDefault enableDamping={false} minDistance={0.3} maxDistance={600} zoomSpeed={0.9} />
@@ -693,7 +716,7 @@ function FrameIndicatorContent({ mainCamera }: { mainCamera: PerspectiveCamera }
     <>
       <OrthographicCamera makeDefault position={[0, 0, 200]} />
       <group position={[size.width / 2 - 58, -size.height / 2 + 58, 0]}>
-        <sprite material={items.caption.material} position={[-34, -34, 0]} scale={[16 * items.caption.aspect, 16, 1]} />
+        <sprite material={items.caption.material} position={[-14, -14, 0]} scale={[16 * items.caption.aspect, 16, 1]} />
         <group ref={group}>
           {dirs.map((d, a) => (
             <group key={a} rotation={rot[a]}>

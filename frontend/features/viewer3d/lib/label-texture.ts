@@ -14,11 +14,12 @@ export interface LabelTexture {
 const cache = new Map<string, LabelTexture>();
 export const LABEL_FONT = `"Manrope", ui-sans-serif, system-ui, sans-serif`;
 
-/** A pill with `text` in `colour` on a dark translucent ground; cached by content. */
-export function labelTexture(text: string, colour: string, opts: { weight?: number; pill?: boolean } = {}): LabelTexture {
+/** A pill with `text` in `colour` on a dark translucent ground, optionally ringed; cached by content. */
+export function labelTexture(text: string, colour: string, opts: { weight?: number; pill?: boolean; ring?: string } = {}): LabelTexture {
   const weight = opts.weight ?? 700;
   const pill = opts.pill ?? true;
-  const key = `${text}\u0000${colour}\u0000${weight}\u0000${pill}`;
+  const ring = opts.ring ?? "";
+  const key = `${text}\u0000${colour}\u0000${weight}\u0000${pill}\u0000${ring}`;
   const hit = cache.get(key);
   if (hit) return hit;
   const px = 48; // drawn large, shown small: crisp at any device pixel ratio
@@ -42,6 +43,12 @@ export function labelTexture(text: string, colour: string, opts: { weight?: numb
     g.arc(r, r, r, Math.PI / 2, (3 * Math.PI) / 2);
     g.closePath();
     g.fill();
+    if (ring) {
+      // a ring in the owner's colour (the sensor die the axis belongs to)
+      g.strokeStyle = ring;
+      g.lineWidth = px * 0.16;
+      g.stroke();
+    }
   }
   g.font = `${weight} ${px}px ${LABEL_FONT}`;
   g.fillStyle = colour;
