@@ -17,7 +17,7 @@ const log = (message: string, err?: unknown) => {
 };
 
 const { db, close } = await openDatabase(env.DATA_DIR);
-const baseURL = env.BASE_URL ?? `http://localhost:${env.PORT}`;
+const baseURL = env.APP_URL ?? `http://localhost:${env.PORT}`;
 const auth = createAuth({
   db,
   baseURL,

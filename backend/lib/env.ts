@@ -9,7 +9,7 @@ const EnvSchema = z.object({
   /** Reserved for a team's PostgreSQL server (DESIGN.md, Scale). Not wired yet: PGlite is used. */
   DATABASE_URL: z.string().url().optional(),
   /** Public address of the app, used in links sent by e-mail. */
-  BASE_URL: z.string().url().optional(),
+  APP_URL: z.string().url({ message: "APP_URL must be a full address such as https://orthostack.example.com" }).optional(),
   BETTER_AUTH_SECRET: z.string().min(32, "BETTER_AUTH_SECRET must be at least 32 characters").optional(),
   /** Sign-in attempts allowed per client address per minute. */
   SIGN_IN_PER_MINUTE: z.coerce.number().int().min(1).max(10000).default(10),
@@ -20,9 +20,60 @@ const EnvSchema = z.object({
     .enum(["true", "false"])
     .default("true")
     .transform((v) => v === "true"),
+  /** Outgoing mail. With neither SMTP_URL nor SMTP_HOST, a local mail catcher takes it (the outbox page). */
+  SMTP_URL: z
+    .string()
+    .url()
+    .refine((u) => /^smtps?:\/\//.test(u), { message: "SMTP_URL must start with smtp:// or smtps://" })
+    .optional(),
+  SMTP_HOST: z.string().min(1).optional(),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).optional(),
+  SMTP_USER: z.string().min(1).optional(),
+  SMTP_PASS: z.string().optional(),
+  /** Sender of every message, e.g. "Orthostack <orthostack@example.com>". */
+  MAIL_FROM: z.string().min(3).default("Orthostack <orthostack@localhost>"),
+  /** Loopback port of the mail catcher; 0 picks a free one. */
+  MAIL_CATCHER_PORT: z.coerce.number().int().min(0).max(65535).default(0),
 });
 
 export type Env = z.infer<typeof EnvSchema>;
+
+export type MailSettings =
+  | { mode: "smtp"; from: string; transport: string | { host: string; port: number; secure: boolean; auth?: { user: string; pass: string } } }
+  | { mode: "catcher"; from: string; port: number };
+
+const MailEnvSchema = EnvSchema.pick({ SMTP_URL: true, SMTP_HOST: true, SMTP_PORT: true, SMTP_USER: true, SMTP_PASS: true, MAIL_FROM: true, MAIL_CATCHER_PORT: true });
+type MailEnv = z.infer<typeof MailEnvSchema>;
+
+/** Where outgoing mail goes: an SMTP server from the environment, or the local catcher. */
+export function mailSettings(source: NodeJS.ProcessEnv = process.env): MailSettings {
+  const result = MailEnvSchema.safeParse(source);
+  if (!result.success) {
+    const lines = result.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
+    throw new Error(`Invalid mail settings in the environment:\n${lines.join("\n")}`);
+  }
+  return mailSettingsOf(result.data);
+}
+
+function mailSettingsOf(env: MailEnv): MailSettings {
+  const from = env.MAIL_FROM;
+  if (env.SMTP_URL) return { mode: "smtp", from, transport: env.SMTP_URL };
+  if (env.SMTP_HOST) {
+    const port = env.SMTP_PORT ?? 587;
+    return {
+      mode: "smtp",
+      from,
+      transport: {
+        host: env.SMTP_HOST,
+        port,
+        // 465 speaks TLS from the first byte; other ports upgrade with STARTTLS when offered
+        secure: port === 465,
+        ...(env.SMTP_USER ? { auth: { user: env.SMTP_USER, pass: env.SMTP_PASS ?? "" } } : {}),
+      },
+    };
+  }
+  return { mode: "catcher", from, port: env.MAIL_CATCHER_PORT };
+}
 
 export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const result = EnvSchema.safeParse(source);
