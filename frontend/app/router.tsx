@@ -6,6 +6,7 @@ import { AppLayout, appLayoutLoader } from "./routes/app/layout";
 import { MembersRoute, membersLoader } from "./routes/app/members";
 import { ProjectRoute, projectLoader } from "./routes/app/project";
 import { ProjectsRoute, projectsLoader } from "./routes/app/projects";
+import { StackEditorRoute, stackEditorLoader } from "./routes/app/stack-editor";
 import { ReportsRoute, reportsLoader } from "./routes/app/reports";
 import { SuppliersRoute, suppliersLoader } from "./routes/app/suppliers";
 import { NotFoundRoute } from "./routes/not-found";
@@ -50,6 +51,10 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
                 { index: true, loader: homeLoader(queryClient) },
                 { path: "projects", loader: projectsLoader(queryClient), element: <ProjectsRoute /> },
                 { path: "projects/:id", loader: projectLoader(queryClient), element: <ProjectRoute /> },
+                { path: "projects/:id/studies/new", lazy: () => import("./routes/app/study-new").then((m) => m.studyNewRoute(queryClient)) },
+                { path: "projects/:id/studies/:studyId", lazy: () => import("./routes/app/study").then((m) => m.studyRoute(queryClient)) },
+                { path: "projects/:id/compare", lazy: () => import("./routes/app/compare").then((m) => m.compareRoute(queryClient)) },
+                { path: "projects/:id/revisions/:revisionId", loader: stackEditorLoader(queryClient), element: <StackEditorRoute /> },
                 { path: "suppliers", loader: suppliersLoader(queryClient), element: <SuppliersRoute /> },
                 { path: "members", loader: membersLoader(queryClient), element: <MembersRoute /> },
                 { path: "reports", loader: reportsLoader(queryClient), element: <ReportsRoute /> },

@@ -5,10 +5,13 @@ import type { Role } from "@shared/schemas/common";
 const RULES = {
   "projects.read": ["admin", "engineer", "reviewer"],
   "projects.write": ["admin", "engineer"],
+  "revisions.write": ["admin", "engineer"],
+  "revisions.review": ["admin", "reviewer"],
   "suppliers.read": ["admin", "engineer", "reviewer"],
   "suppliers.write": ["admin"],
   "members.manage": ["admin"],
   "reports.inbox": ["supplier"],
+  "studies.run": ["admin", "engineer"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof RULES;

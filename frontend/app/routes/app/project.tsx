@@ -12,6 +12,8 @@ import { ActivityList } from "@frontend/features/projects/components/activity-li
 import { DeleteProjectDialog } from "@frontend/features/projects/components/delete-project-dialog";
 import { EditProjectDialog } from "@frontend/features/projects/components/project-form-dialog";
 import { StudyResultChip } from "@frontend/features/projects/components/study-result-chip";
+import { StudiesPanel } from "@frontend/features/studies/components/studies-panel";
+import { RevisionsPanel } from "@frontend/features/revisions/components/revisions-panel";
 import { isApiError } from "@frontend/lib/api-client";
 import { formatDateTime, formatRelative } from "@frontend/lib/format";
 import { can } from "@frontend/lib/permissions";
@@ -93,18 +95,8 @@ export function ProjectRoute() {
 
       <div className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_320px]">
         <div className="grid content-start gap-4 md:grid-cols-2">
-          <Upcoming
-            title="Stack revisions"
-            accent="var(--color-asic)"
-            arrives="Arrives with the stack editor"
-          >
-            The element tree from board to dies, every tolerance source with its owner and stage, and the 3D view. Revisions go
-            from draft to review to approved; an approved revision is frozen.
-          </Upcoming>
-          <Upcoming title="Studies" accent="var(--color-gyro)" arrives="Arrives with the study runner">
-            Monte Carlo runs of a revision against the system budget: predicted yield with its confidence interval, ppm out, and
-            the contributors ranked by share of variance.
-          </Upcoming>
+          <RevisionsPanel projectId={project.id} projectName={project.name} canWrite={can(me.role, "revisions.write")} />
+          <StudiesPanel projectId={project.id} canRun={can(me.role, "studies.run")} />
           <Upcoming title="Data sets" accent="var(--color-accel)" arrives="Arrives with measurement import">
             First-build measurements from CSV or spreadsheet, linked to a tolerance source, with fitted statistics and capability
             against the tolerance assumed.

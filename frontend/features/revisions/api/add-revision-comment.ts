@@ -1,0 +1,24 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { z } from "zod";
+import { CommentSchema, type Revision } from "@shared/schemas/revisions";
+import { projectKeys } from "@frontend/features/projects/api/keys";
+import { api } from "@frontend/lib/api-client";
+import { revisionKeys } from "./keys";
+
+const CommentsAnswerSchema = z.object({ comments: z.array(CommentSchema) });
+
+export async function addRevisionComment({ id, body }: { id: string; body: string }) {
+  const { comments } = await api.post(`/api/revisions/${encodeURIComponent(id)}/comments`, { body }, CommentsAnswerSchema);
+  return comments;
+}
+
+export function useAddRevisionComment(revision: Pick<Revision, "id" | "projectId">) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: addRevisionComment,
+    onSuccess: (comments) => {
+      queryClient.setQueryData<Revision>(revisionKeys.detail(revision.id), (old) => (old ? { ...old, comments } : old));
+      return queryClient.invalidateQueries({ queryKey: projectKeys.activity(revision.projectId) });
+    },
+  });
+}

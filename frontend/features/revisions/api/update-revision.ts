@@ -1,0 +1,23 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import type { z } from "zod";
+import { RevisionSchema, type Revision, type UpdateRevisionSchema } from "@shared/schemas/revisions";
+import { api } from "@frontend/lib/api-client";
+import { revisionKeys } from "./keys";
+
+export type UpdateRevisionInput = { id: string; changes: z.input<typeof UpdateRevisionSchema> };
+
+export function updateRevision({ id, changes }: UpdateRevisionInput): Promise<Revision> {
+  return api.patch(`/api/revisions/${encodeURIComponent(id)}`, changes, RevisionSchema);
+}
+
+/** The editor's autosave. The answer goes into the cache; the editor keeps its own document. */
+export function useUpdateRevision() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: updateRevision,
+    onSuccess: (revision) => {
+      queryClient.setQueryData(revisionKeys.detail(revision.id), revision);
+      return queryClient.invalidateQueries({ queryKey: revisionKeys.list(revision.projectId) });
+    },
+  });
+}

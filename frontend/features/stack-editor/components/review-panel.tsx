@@ -1,0 +1,216 @@
+/**
+ * The review workflow in the editor: engineers submit a draft and start new drafts from
+ * frozen revisions; reviewers approve an in-review revision or send it back with a
+ * reason; everyone who can read leaves notes.
+ */
+import { useState, type FormEvent } from "react";
+import type { Me } from "@shared/schemas/api";
+import { CommentBodySchema, ReturnRevisionSchema, type Revision } from "@shared/schemas/revisions";
+import { Alert } from "@frontend/components/ui/alert";
+import { Button } from "@frontend/components/ui/button";
+import { Dialog } from "@frontend/components/ui/dialog";
+import { Field, Textarea } from "@frontend/components/ui/field";
+import { CheckIcon } from "@frontend/components/ui/icons";
+import { useAddRevisionComment } from "@frontend/features/revisions/api/add-revision-comment";
+import { useApproveRevision } from "@frontend/features/revisions/api/approve-revision";
+import { useCreateDraftFrom } from "@frontend/features/revisions/api/create-draft";
+import { useReturnRevision } from "@frontend/features/revisions/api/return-revision";
+import { useSubmitRevision } from "@frontend/features/revisions/api/submit-revision";
+import { cn } from "@frontend/lib/cn";
+import { sentence } from "@frontend/lib/form";
+import { formatDateTime, initials } from "@frontend/lib/format";
+import { can } from "@frontend/lib/permissions";
+
+export function ReviewActions({
+  revision,
+  me,
+  flush,
+  problems,
+  onDraft,
+}: {
+  revision: Revision;
+  me: Me;
+  flush: () => Promise<boolean>;
+  problems: number;
+  onDraft: (id: string) => void;
+}) {
+  const canWrite = can(me.role, "revisions.write");
+  const canReview = can(me.role, "revisions.review");
+  const submit = useSubmitRevision();
+  const approve = useApproveRevision();
+  const sendBack = useReturnRevision();
+  const draft = useCreateDraftFrom();
+  const [dialog, setDialog] = useState<"approve" | "return" | "submit-error" | null>(null);
+  const [comment, setComment] = useState("");
+  const [commentError, setCommentError] = useState<string | null>(null);
+  const [submitError, setSubmitError] = useState<string | null>(null);
+
+  async function onSubmit() {
+    setSubmitError(null);
+    if (problems > 0) {
+      setSubmitError(`Fix the ${problems === 1 ? "problem" : `${problems} problems`} first: a reviewer can only approve a valid stack.`);
+      setDialog("submit-error");
+      return;
+    }
+    const saved = await flush();
+    if (!saved) {
+      setSubmitError("The last edits could not be saved, so the draft was not submitted.");
+      setDialog("submit-error");
+      return;
+    }
+    submit.mutate(revision.id, {
+      onError: (e) => {
+        setSubmitError(e.message);
+        setDialog("submit-error");
+      },
+    });
+  }
+
+  function onReview(event: FormEvent) {
+    event.preventDefault();
+    if (dialog === "return") {
+      const parsed = ReturnRevisionSchema.safeParse({ comment });
+      if (!parsed.success) {
+        setCommentError(parsed.error.issues[0]?.message ?? "say why the revision goes back");
+        return;
+      }
+      sendBack.mutate({ id: revision.id, comment: parsed.data.comment }, { onSuccess: () => setDialog(null) });
+    } else {
+      approve.mutate({ id: revision.id, comment: comment.trim() || undefined }, { onSuccess: () => setDialog(null) });
+    }
+  }
+
+  const open = (d: "approve" | "return") => {
+    setComment("");
+    setCommentError(null);
+    approve.reset();
+    sendBack.reset();
+    setDialog(d);
+  };
+  const reviewMutation = dialog === "return" ? sendBack : approve;
+
+  return (
+    <>
+      {revision.status === "draft" && canWrite ? (
+        <Button size="sm" variant="primary" onClick={() => void onSubmit()} pending={submit.isPending}>
+          Submit for review
+        </Button>
+      ) : null}
+      {revision.status === "in_review" && canReview ? (
+        <>
+          <Button size="sm" onClick={() => open("return")}>
+            Send back…
+          </Button>
+          <Button size="sm" variant="primary" icon={<CheckIcon />} onClick={() => open("approve")}>
+            Approve…
+          </Button>
+        </>
+      ) : null}
+      {revision.status !== "draft" && canWrite ? (
+        <Button size="sm" variant="primary" pending={draft.isPending} onClick={() => draft.mutate(revision.id, { onSuccess: (r) => onDraft(r.id) })}>
+          Start a new draft from this revision
+        </Button>
+      ) : null}
+      {draft.isError ? <span className="text-xs text-fail">{draft.error.message}</span> : null}
+
+      <Dialog
+        open={dialog === "approve" || dialog === "return"}
+        onClose={() => setDialog(null)}
+        busy={reviewMutation.isPending}
+        title={dialog === "return" ? `Send revision ${revision.number} back` : `Approve revision ${revision.number}`}
+        description={
+          dialog === "return"
+            ? "It returns to draft so the engineer can change it. Say what needs to change."
+            : "Approved revisions are frozen: studies and supplier reports can rely on them."
+        }
+        onSubmit={onReview}
+        formLabel={dialog === "return" ? "Send back" : "Approve"}
+        footer={
+          <>
+            <Button onClick={() => setDialog(null)} disabled={reviewMutation.isPending}>
+              Cancel
+            </Button>
+            <Button type="submit" variant="primary" pending={reviewMutation.isPending}>
+              {dialog === "return" ? "Send back to draft" : "Approve revision"}
+            </Button>
+          </>
+        }
+      >
+        <Field label={dialog === "return" ? "Reason" : "Comment"} aside={dialog === "return" ? undefined : "optional"} error={commentError ?? undefined}>
+          {({ id, describedBy, invalid }) => (
+            <Textarea id={id} aria-describedby={describedBy} invalid={invalid} rows={4} value={comment} onChange={(e) => setComment(e.target.value)} maxLength={4000} />
+          )}
+        </Field>
+        {reviewMutation.isError ? <Alert className="mt-3">{reviewMutation.error.message}</Alert> : null}
+      </Dialog>
+
+      <Dialog
+        open={dialog === "submit-error"}
+        onClose={() => setDialog(null)}
+        title="Not submitted"
+        size="sm"
+        footer={
+          <Button onClick={() => setDialog(null)} data-autofocus>
+            Close
+          </Button>
+        }
+      >
+        <p className="text-[13px] text-ink/75">{submitError}</p>
+      </Dialog>
+    </>
+  );
+}
+
+const KIND_LABEL: Record<string, string> = { approved: "approved", returned: "sent back", comment: "" };
+
+export function ReviewNotes({ revision }: { revision: Revision }) {
+  const add = useAddRevisionComment(revision);
+  const [body, setBody] = useState("");
+  const [error, setError] = useState<string | null>(null);
+  return (
+    <div className="flex flex-col">
+      {revision.comments.length === 0 ? (
+        <p className="px-3.5 py-3 text-[13px] text-ink/55">No notes yet.</p>
+      ) : (
+        <ol className="max-h-64 divide-y divide-line/70 overflow-y-auto" aria-label="Review notes">
+          {revision.comments.map((c) => (
+            <li key={c.id} className="flex gap-2.5 px-3.5 py-2.5">
+              <span className="flex size-6 shrink-0 items-center justify-center rounded-full bg-ink text-[9px] font-extrabold text-paper">{initials(c.authorName ?? "?")}</span>
+              <div className="min-w-0 text-xs">
+                <p>
+                  <span className="font-bold text-ink">{c.authorName ?? "Someone"}</span>{" "}
+                  {KIND_LABEL[c.kind] ? (
+                    <span className={cn("font-semibold", c.kind === "approved" ? "text-pass" : "text-fail")}>{KIND_LABEL[c.kind]}</span>
+                  ) : null}
+                  <span className="ml-1.5 text-ink/45">{formatDateTime(c.createdAt)}</span>
+                </p>
+                {c.body ? <p className="mt-0.5 whitespace-pre-line text-ink/75">{c.body}</p> : null}
+              </div>
+            </li>
+          ))}
+        </ol>
+      )}
+      <form
+        className="flex items-start gap-2 border-t border-line px-3.5 py-2.5"
+        onSubmit={(e) => {
+          e.preventDefault();
+          const parsed = CommentBodySchema.safeParse({ body });
+          if (!parsed.success) {
+            setError(parsed.error.issues[0]?.message ?? "comment must not be empty");
+            return;
+          }
+          setError(null);
+          add.mutate({ id: revision.id, body: parsed.data.body }, { onSuccess: () => setBody("") });
+        }}
+      >
+        <div className="min-w-0 flex-1">
+          <Textarea aria-label="New note" rows={2} placeholder="Add a note for the engineer or the reviewer" value={body} onChange={(e) => setBody(e.target.value)} invalid={!!error} className="text-xs" />
+          {error || add.isError ? <p className="mt-1 text-[11px] text-fail">{sentence(error ?? add.error?.message ?? "")}</p> : null}
+        </div>
+        <Button size="sm" type="submit" pending={add.isPending}>
+          Add note
+        </Button>
+      </form>
+    </div>
+  );
+}

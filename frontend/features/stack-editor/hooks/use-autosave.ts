@@ -1,0 +1,125 @@
+/**
+ * Saves a draft by itself: a PATCH ~800 ms after the last change, one request at a time,
+ * and again at once if the document changed while a save was on its way. A document the
+ * validator refuses is not sent (the server would refuse it too); the editor shows its
+ * problems instead. A copy of unsaved work is kept in this browser until the server has it.
+ */
+import { useCallback, useEffect, useRef, useState } from "react";
+import { isApiError } from "@frontend/lib/api-client";
+import { useUpdateRevision } from "@frontend/features/revisions/api/update-revision";
+import type { EditorDoc } from "../lib/stack-ops";
+import { clearBackup, writeBackup } from "../lib/backup";
+
+export const AUTOSAVE_DEBOUNCE_MS = 800;
+
+export type SaveState =
+  | { kind: "saved"; at: Date | null }
+  | { kind: "pending" }
+  | { kind: "saving" }
+  | { kind: "invalid"; count: number }
+  | { kind: "error"; message: string; fields: { path: string; message: string }[]; retryable: boolean };
+
+export function useAutosave({
+  revisionId,
+  doc,
+  savedDoc,
+  enabled,
+  problems,
+  updatedAt,
+}: {
+  revisionId: string;
+  doc: EditorDoc;
+  /** the document as loaded from the server */
+  savedDoc: EditorDoc;
+  enabled: boolean;
+  /** problems the validator found in `doc` */
+  problems: number;
+  updatedAt: string;
+}) {
+  const mutation = useUpdateRevision();
+  const mutate = mutation.mutateAsync;
+  const saved = useRef<EditorDoc>(savedDoc);
+  const current = useRef(doc);
+  current.current = doc;
+  const inFlight = useRef<Promise<boolean> | null>(null);
+  const timer = useRef<number | null>(null);
+  const frozen = useRef(false);
+  // Only a copy written in this visit is ours to drop when the document is back to saved.
+  const wroteBackup = useRef(false);
+  const [state, setState] = useState<SaveState>({ kind: "saved", at: null });
+  const [dirty, setDirty] = useState(false);
+
+  const save = useCallback(async (): Promise<boolean> => {
+    if (inFlight.current) {
+      await inFlight.current;
+      if (current.current === saved.current) return true;
+    }
+    const sending = current.current;
+    if (sending === saved.current) return true;
+    if (frozen.current) return false;
+    setState({ kind: "saving" });
+    const run = (async () => {
+      try {
+        await mutate({ id: revisionId, changes: { stack: sending.stack, requirements: sending.requirements } });
+        saved.current = sending;
+        if (current.current === sending) {
+          clearBackup(revisionId);
+          setDirty(false);
+          setState({ kind: "saved", at: new Date() });
+        }
+        return true;
+      } catch (error) {
+        const e = isApiError(error) ? error : null;
+        if (e?.code === "revision_frozen" || e?.status === 409) frozen.current = true;
+        setState({
+          kind: "error",
+          message: e?.message ?? "The draft could not be saved.",
+          fields: e?.fields ?? [],
+          retryable: !frozen.current && (!e || e.status === 0 || e.status >= 500),
+        });
+        return false;
+      } finally {
+        inFlight.current = null;
+      }
+    })();
+    inFlight.current = run;
+    const ok = await run;
+    // Edits made while this save travelled go out next.
+    if (ok && current.current !== saved.current && enabled) return save();
+    return ok;
+  }, [enabled, mutate, revisionId]);
+
+  useEffect(() => {
+    if (timer.current) window.clearTimeout(timer.current);
+    if (!enabled) return;
+    const isDirty = doc !== saved.current;
+    setDirty(isDirty);
+    if (!isDirty) {
+      if (wroteBackup.current) clearBackup(revisionId);
+      setState((s) => (s.kind === "saved" ? s : { kind: "saved", at: s.kind === "error" ? null : new Date() }));
+      return;
+    }
+    writeBackup(revisionId, { doc, basedOn: updatedAt, at: new Date().toISOString() });
+    wroteBackup.current = true;
+    if (problems > 0) {
+      setState({ kind: "invalid", count: problems });
+      return;
+    }
+    if (frozen.current) return;
+    setState((s) => (s.kind === "saving" ? s : { kind: "pending" }));
+    timer.current = window.setTimeout(() => void save(), AUTOSAVE_DEBOUNCE_MS);
+    return () => {
+      if (timer.current) window.clearTimeout(timer.current);
+    };
+  }, [doc, enabled, problems, revisionId, save, updatedAt]);
+
+  /** Save now (before submitting, before leaving); resolves true when the server has it all. */
+  const flush = useCallback(async () => {
+    if (timer.current) window.clearTimeout(timer.current);
+    if (current.current === saved.current) return true;
+    if (problems > 0) return false;
+    return save();
+  }, [problems, save]);
+
+  return { state, dirty, flush, retry: save };
+}

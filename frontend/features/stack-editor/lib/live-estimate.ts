@@ -1,0 +1,136 @@
+/**
+ * The live estimate: a small study of the stack being edited, run in a Web Worker with
+ * the same engine as real studies, and the few figures the editor shows from it.
+ *
+ * Fixed seed, so an unchanged stack gives the same figures and a change in the figures
+ * comes from the edit, not from sampling. Field inclination 60° (a mid-latitude dip):
+ * the real study resolves the site's inclination; the estimate says that it assumed one.
+ */
+import { metricIds } from "@shared/engine/model";
+import type { ResultFile } from "@shared/schemas/result-file";
+import type { StackFile } from "@shared/schemas/stack-file";
+import { RequirementSchema, type Requirement, type StudyFile } from "@shared/schemas/study-file";
+import { metricUnit, type MetricUnit } from "./metrics";
+
+export const LIVE_TRIALS = 3000;
+export const LIVE_SEED = 7;
+export const LIVE_INCLINATION_DEG = 60;
+
+export interface LiveStudy {
+  study: StudyFile;
+  /** index in the document's requirement list of each requirement the study carries */
+  requirementIndexes: number[];
+}
+
+/** The estimate's study; requirements that are incomplete or name no metric of the stack are left out. */
+export function liveStudy(stack: StackFile, requirements: Requirement[]): LiveStudy {
+  const ids = new Set(metricIds(stack, {}));
+  const kept: Requirement[] = [];
+  const requirementIndexes: number[] = [];
+  requirements.forEach((r, i) => {
+    const parsed = RequirementSchema.safeParse(r);
+    if (parsed.success && ids.has(parsed.data.metric)) {
+      kept.push({ metric: parsed.data.metric, max: parsed.data.max, yield: parsed.data.yield });
+      requirementIndexes.push(i);
+    }
+  });
+  return {
+    study: {
+      format: "orthostack.study/1",
+      trials: LIVE_TRIALS,
+      seed: LIVE_SEED,
+      inclinationDeg: LIVE_INCLINATION_DEG,
+      requirements: kept,
+      worstTrials: 1,
+    },
+    requirementIndexes,
+  };
+}
+
+export interface EstimateRequirement {
+  /** index in the document's requirement list */
+  index: number;
+  metric: string;
+  unit: MetricUnit;
+  max: number;
+  yield: number;
+  predictedYield: number;
+  ci: [number, number];
+  passes: boolean;
+  /** the largest contributor by linearised share, if any */
+  topSource: { source: string; share: number } | null;
+}
+
+export interface WorstPick {
+  metric: string;
+  trialIndex: number;
+  value: number;
+  unit: MetricUnit;
+}
+
+export interface EstimateSummary {
+  trials: number;
+  seed: number;
+  inclinationDeg: number;
+  /** heading.maxAbsDeg percentiles (deg); null without an accelerometer and a magnetometer */
+  heading: { p95: number; p99: number; max: number } | null;
+  /** the sensor axis with the largest p99 cross-axis total */
+  worstCrossAxis: { metric: string; p99: number } | null;
+  /** the sensor die pair with the largest p99 relative rotation */
+  worstRelRot: { metric: string; p99: number } | null;
+  requirements: EstimateRequirement[];
+  /** worst trials the 3D view can show */
+  worst: WorstPick[];
+}
+
+function largestP99(result: ResultFile, test: (id: string) => boolean): { metric: string; p99: number } | null {
+  let best: { metric: string; p99: number } | null = null;
+  for (const [id, m] of Object.entries(result.metrics)) {
+    if (!test(id) || !Number.isFinite(m.p99)) continue;
+    if (!best || m.p99 > best.p99) best = { metric: id, p99: m.p99 };
+  }
+  return best;
+}
+
+export function summarize(result: ResultFile, live: LiveStudy): EstimateSummary {
+  const heading = result.metrics["heading.maxAbsDeg"];
+  const worstCrossAxis = largestP99(result, (id) => id.includes(".crossAxisTotalPct."));
+  const worstRelRot = largestP99(result, (id) => id.endsWith(".relRotDeg"));
+  const requirements: EstimateRequirement[] = result.requirements.map((r, k) => {
+    const c = result.contributors.find((x) => x.metric === r.metric);
+    const top = c?.sources[0];
+    return {
+      index: live.requirementIndexes[k],
+      metric: r.metric,
+      unit: metricUnit(r.metric),
+      max: r.max,
+      yield: r.yield,
+      predictedYield: r.predictedYield,
+      ci: r.ci,
+      passes: r.passes,
+      topSource: top && top.linearShare > 0 ? { source: top.source, share: top.linearShare } : null,
+    };
+  });
+  const worstMetrics = [
+    ...(heading ? ["heading.maxAbsDeg"] : []),
+    ...(worstCrossAxis ? [worstCrossAxis.metric] : []),
+    ...(worstRelRot ? [worstRelRot.metric] : []),
+    ...requirements.map((r) => r.metric),
+  ];
+  const worst: WorstPick[] = [];
+  for (const metric of worstMetrics) {
+    if (worst.some((w) => w.metric === metric)) continue;
+    const t = result.worstTrials[metric]?.[0];
+    if (t) worst.push({ metric, trialIndex: t.trial, value: t.value, unit: metricUnit(metric) });
+  }
+  return {
+    trials: result.trials,
+    seed: result.seed,
+    inclinationDeg: LIVE_INCLINATION_DEG,
+    heading: heading ? { p95: heading.p95, p99: heading.p99, max: heading.max } : null,
+    worstCrossAxis,
+    worstRelRot,
+    requirements,
+    worst,
+  };
+}

@@ -1,0 +1,42 @@
+/**
+ * Stack files in and out of the editor: reading an imported file (JSON, then the stack
+ * file's own validator) and the name and text of an exported one.
+ */
+import { validateStackFile, type FieldIssue, type StackFile } from "@shared/schemas/stack-file";
+
+export type ImportResult = { ok: true; stack: StackFile } | { ok: false; message: string; issues: FieldIssue[] };
+
+export const MAX_IMPORT_BYTES = 20 * 1024 * 1024;
+
+export function readStackFileText(text: string): ImportResult {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (error) {
+    return { ok: false, message: `The file is not JSON: ${error instanceof Error ? error.message : String(error)}`, issues: [] };
+  }
+  const v = validateStackFile(json);
+  if (!v.ok) return { ok: false, message: `The file has ${v.issues.length === 1 ? "a problem" : `${v.issues.length} problems`}; nothing was imported.`, issues: v.issues };
+  return { ok: true, stack: v.stack };
+}
+
+/** Pretty JSON with a final newline, the same as the server's download. */
+export function stackFileText(stack: StackFile): string {
+  return JSON.stringify(stack, null, 2) + "\n";
+}
+
+export function stackFileName(name: string | undefined, revisionNumber: number): string {
+  const slug = (name ?? "").replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 80) || "stack";
+  return `${slug}-rev${revisionNumber}.stack.json`;
+}
+
+export function downloadText(text: string, fileName: string, type = "application/json") {
+  const url = URL.createObjectURL(new Blob([text], { type }));
+  const a = document.createElement("a");
+  a.href = url;
+  a.download = fileName;
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  window.setTimeout(() => URL.revokeObjectURL(url), 1000);
+}
