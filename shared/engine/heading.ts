@@ -52,6 +52,9 @@ export interface Attitudes {
   hss: Float64Array;
   cosI: number;
   sinI: number;
+  /** scratch of the sweep: the turned levelled field per attitude */
+  ex: Float64Array;
+  ey: Float64Array;
 }
 
 export function buildAttitudes(opts: {
@@ -81,6 +84,8 @@ export function buildAttitudes(opts: {
     hss: new Float64Array(nPsi),
     cosI: Math.cos(opts.inclinationDeg * DEG),
     sinI: Math.sin(opts.inclinationDeg * DEG),
+    ex: new Float64Array(count),
+    ey: new Float64Array(count),
   };
   for (let j = 0; j < nPsi; j++) {
     const c = Math.cos(j * step * DEG), sn = Math.sin(j * step * DEG);
@@ -151,6 +156,7 @@ export function headingSweep(
   const TL = att.tiltL, TF = att.tiltF;
   const hc = att.hc, hs = att.hs, hcc = att.hcc, hcs = att.hcs, hss = att.hss;
   const cosI = att.cosI, sinI = att.sinI;
+  const EX = att.ex, EY = att.ey;
   let maxAbs = 0, sum2 = 0;
   for (let t = 0; t < nT; t++) {
     const o = 3 * t, l = 9 * t;
@@ -176,17 +182,28 @@ export function headingSweep(
     for (let j = 0; j < nPsi; j++) {
       // (ex, ey) = (h_x, −h_y) turned by −ψ; its angle is e = ψ^ − ψ in (−π, π]
       const c = hc[j], s = hs[j];
-      const ex = A * hcc[j] + BD * hcs[j] + E * hss[j] + C * c + F * s;
-      const ey = D * hcc[j] + EA * hcs[j] - B * hss[j] + F * c - C * s;
-      const e = atan2Fast(ey, ex) * TO_DEG;
-      out[base + j] = e;
-      const ae = e < 0 ? -e : e;
-      if (ae > maxAbs) maxAbs = ae;
-      sum2 += e * e;
+      EX[base + j] = A * hcc[j] + BD * hcs[j] + E * hss[j] + C * c + F * s;
+      EY[base + j] = D * hcc[j] + EA * hcs[j] - B * hss[j] + F * c - C * s;
     }
   }
+  // second pass: the angles, in a loop small enough to keep its values in registers
+  const n = nPsi * nT;
+  for (let k = 0; k < n; k++) {
+    const x = EX[k], y = EY[k];
+    const ay = y < 0 ? -y : y;
+    let e: number;
+    if (x > 0 && ay <= 0.03125 * x) {
+      // the series of fastmath.atan2Fast's first range, inlined by hand
+      const t = y / x, t2 = t * t;
+      e = t * (1 + t2 * (-1 / 3 + t2 * (1 / 5 + t2 * (-1 / 7 + t2 * (1 / 9 + t2 * (-1 / 11 + t2 * (1 / 13))))))) * TO_DEG;
+    } else e = atan2Fast(y, x) * TO_DEG;
+    out[k] = e;
+    const ae = e < 0 ? -e : e;
+    if (ae > maxAbs) maxAbs = ae;
+    sum2 += e * e;
+  }
   sweepResult.maxAbs = maxAbs;
-  sweepResult.rms = Math.sqrt(sum2 / (nPsi * nT));
+  sweepResult.rms = Math.sqrt(sum2 / n);
   return sweepResult;
 }
 

@@ -8,13 +8,13 @@ const baseStudy = studyOf(fixture("study-reference.json"), stack);
 
 describe("same seed, same numbers, whatever the number of threads", () => {
   it("1 thread, 2 threads and the in-process runner give identical result files", async () => {
-    const opts = { trials: 20_000 };
+    const opts = { trials: 10_000 };
     const one = await runStudyOnThreads(stack, baseStudy, { ...opts, threads: 1 });
     const two = await runStudyOnThreads(stack, baseStudy, { ...opts, threads: 2 });
     const inProc = runStudy(stack, baseStudy, opts);
     expect(JSON.stringify(two)).toBe(JSON.stringify(one));
     expect(JSON.stringify(inProc)).toBe(JSON.stringify(one));
-    expect(one.trials).toBe(20_000);
+    expect(one.trials).toBe(10_000);
   });
 
   it("Latin hypercube and calibration studies are thread-independent too", async () => {
