@@ -193,6 +193,8 @@ describe("3D view in the browser", () => {
   const problems: string[] = [];
 
   beforeAll(async () => {
+    const t0 = Date.now();
+    const mark = (what: string) => process.env.VIEWER3D_TIMING && process.stderr.write(`[viewer3d] ${what} ${Date.now() - t0} ms\n`);
     server = await createServer({
       configFile: join(ROOT, "vite.config.ts"),
       root: HARNESS,
@@ -232,9 +234,14 @@ describe("3D view in the browser", () => {
     page.on("console", (m) => {
       if (m.type() === "error") problems.push(`console error: ${m.text()}`);
     });
+    mark("browser up");
     await page.goto(baseURL + "/");
+    await page.waitForSelector("[data-testid=viewer-loading], [data-testid=stack-viewer]", { timeout: 60_000 });
+    mark("harness up");
     await page.waitForSelector("[data-testid=stack-viewer][data-frames]", { timeout: 60_000 });
+    mark("first frame");
     await settle(page);
+    mark("settled");
     await page.evaluate(() => document.fonts.ready);
   });
 
@@ -314,26 +321,9 @@ describe("3D view in the browser", () => {
     expect(await page.getByTestId("harness-trial").textContent()).toBe("1234");
     await act(page, () => page.getByRole("button", { name: "Next trial" }).click());
     expect(await page.getByTestId("harness-trial").textContent()).toBe("1235");
-    await act(page, () => page.getByRole("button", { name: "×50" }).click());
     await canvasStats(page, "trial1235");
+    // still at ×14 from the slider: another trial, another picture
     expect(await pixelDifference(page, "worst50", "trial1235")).toBeGreaterThan(0.001);
-  });
-
-  it("explodes the stack and cuts it with a section plane", async () => {
-    await act(page, () => page.getByLabel("Pose", { exact: true }).selectOption("nominal"));
-    expect(await page.getByTestId("harness-trial").textContent()).toBe("nominal");
-    await act(page, () => page.getByLabel("Explode gap (mm)").fill("0.4"));
-    await canvasStats(page, "exploded");
-    expect(await pixelDifference(page, "nominal", "exploded")).toBeGreaterThan(0.01);
-    await act(page, () => page.getByRole("button", { name: "Package" }).click());
-    await shot(page, "viewer3d-exploded");
-    await canvasStats(page, "exploded-framed");
-    await act(page, () => page.getByRole("button", { name: "x cut" }).click());
-    await shot(page, "viewer3d-exploded-section-x");
-    await canvasStats(page, "section");
-    expect(await pixelDifference(page, "exploded-framed", "section")).toBeGreaterThan(0.005);
-    await act(page, () => page.getByRole("button", { name: "Off", exact: true }).click());
-    await act(page, () => page.getByLabel("Explode gap (mm)").fill("0"));
   });
 
   it("has view presets, including the whole board", async () => {
@@ -351,10 +341,24 @@ describe("3D view in the browser", () => {
     await act(page, () => page.getByRole("button", { name: "Package" }).click());
   });
 
+  it("explodes the stack and cuts it with a section plane", async () => {
+    await act(page, () => page.getByLabel("Pose", { exact: true }).selectOption("nominal"));
+    expect(await page.getByTestId("harness-trial").textContent()).toBe("nominal");
+    await act(page, () => page.getByLabel("Explode gap (mm)").fill("0.4"));
+    await canvasStats(page, "exploded");
+    expect(await pixelDifference(page, "nominal", "exploded")).toBeGreaterThan(0.01);
+    await act(page, () => page.getByRole("button", { name: "Package" }).click());
+    await shot(page, "viewer3d-exploded");
+    await canvasStats(page, "exploded-framed");
+    await act(page, () => page.getByRole("button", { name: "x cut" }).click());
+    await shot(page, "viewer3d-exploded-section-x");
+    await canvasStats(page, "section");
+    expect(await pixelDifference(page, "exploded-framed", "section")).toBeGreaterThan(0.005);
+  });
+
   it("saves a PNG of the view", async () => {
-    await act(page, () => page.getByRole("button", { name: "×1", exact: true }).click());
     const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Save PNG" }).click()]);
-    expect(download.suggestedFilename()).toMatch(/^reference-9-axis-stack-nominal-x1\.png$/);
+    expect(download.suggestedFilename()).toMatch(/^reference-9-axis-stack-nominal-x\d+\.png$/);
     const path = join(ARTIFACTS, "viewer3d-export.png");
     await download.saveAs(path);
     const bytes = readFileSync(path);

@@ -50,6 +50,7 @@ import {
   GRID_MINOR,
   KIND_COLOUR,
   SECTION_OUTLINE,
+  SELECTION,
   VIEWPORT_BOTTOM,
   VIEWPORT_TOP,
 } from "../lib/palette";
@@ -209,13 +210,18 @@ function makeMaterials(stack: StackFile) {
     opacity: BOND_LINE_OPACITY,
     depthWrite: false,
     side: DoubleSide,
+    // its top face lies in the die's bottom face: seen through a cut, the die's face wins
+    polygonOffset: true,
+    polygonOffsetFactor: 2,
+    polygonOffsetUnits: 8,
   });
   const gridMinor = new LineBasicMaterial({ color: GRID_MINOR, transparent: true, opacity: 0.13, depthWrite: false });
   const gridMajor = new LineBasicMaterial({ color: GRID_MAJOR, transparent: true, opacity: 0.28, depthWrite: false });
   const arrow = new MeshStandardMaterial({ color: "#ffffff", roughness: 0.45 });
   const ghost = new MeshBasicMaterial({ color: "#ffffff", transparent: true, opacity: 0.3, depthTest: false, depthWrite: false });
   const outline = new LineBasicMaterial({ color: SECTION_OUTLINE, transparent: true, opacity: 0.65, depthTest: false });
-  return { elements, bond, gridMinor, gridMajor, arrow, ghost, outline };
+  const selection = new LineBasicMaterial({ color: SELECTION, transparent: true, opacity: 0.95, depthTest: false });
+  return { elements, bond, gridMinor, gridMajor, arrow, ghost, outline, selection };
 }
 type Materials = ReturnType<typeof makeMaterials>;
 
@@ -231,6 +237,7 @@ function disposeMaterials(m: Materials) {
   m.arrow.dispose();
   m.ghost.dispose();
   m.outline.dispose();
+  m.selection.dispose();
 }
 
 /**
@@ -392,6 +399,7 @@ export function ViewerScene(props: ViewerSceneProps) {
   const boardIndex = useMemo(() => stack.elements.findIndex((e) => e.parent === null), [stack]);
   const version = useRef(0);
   const groupRefs = useRef<(Group | null)[]>([]);
+  const selectionRef = useRef<LineSegments>(null);
 
   // ---- pose: recompute the shown pose when its inputs change; objects follow in useFrame
   useLayoutEffect(() => {
@@ -431,6 +439,7 @@ export function ViewerScene(props: ViewerSceneProps) {
       m.edge.color.copy(selected ? new Color("#ffffff") : lighten(base, kind === "board" ? 0.25 : 0.45));
       m.edge.opacity = selected ? 1 : kind === "board" ? 0.55 : 0.9;
     });
+    version.current++;
     invalidate();
   }, [materials, stack, hoveredIndex, selectedIndex, invalidate]);
 
@@ -514,6 +523,21 @@ export function ViewerScene(props: ViewerSceneProps) {
       g.matrix.set(R[r], R[r + 1], R[r + 2], P[3 * i], R[r + 3], R[r + 4], R[r + 5], P[3 * i + 1], R[r + 6], R[r + 7], R[r + 8], P[3 * i + 2], 0, 0, 0, 1);
       g.matrixWorldNeedsUpdate = true;
     });
+    // the selection box: the selected element's edges, a little larger, drawn on top
+    const sel = selectionRef.current;
+    if (sel) {
+      const i = selectedIndex ?? -1;
+      const e = i >= 0 ? stack.elements[i] : undefined;
+      sel.visible = !!e && stack.elements[i]?.parent !== null;
+      if (e) {
+        const pad = 0.025 + 0.01 * Math.max(e.size.x, e.size.y);
+        const ax = e.size.x + 2 * pad, ay = e.size.y + 2 * pad, az = e.size.z + 2 * pad;
+        const r = 9 * i;
+        const px = P[3 * i] - R[r + 2] * pad, py = P[3 * i + 1] - R[r + 5] * pad, pz = P[3 * i + 2] - R[r + 8] * pad;
+        sel.matrix.set(R[r] * ax, R[r + 1] * ay, R[r + 2] * az, px, R[r + 3] * ax, R[r + 4] * ay, R[r + 5] * az, py, R[r + 6] * ax, R[r + 7] * ay, R[r + 8] * az, pz, 0, 0, 0, 1);
+        sel.matrixWorldNeedsUpdate = true;
+      }
+    }
     const meshes = [shaftRef.current, headRef.current, ghostShaftRef.current, ghostHeadRef.current];
     triads.sensors.forEach((ei, si) => {
       const e = stack.elements[ei];
@@ -658,6 +682,7 @@ export function ViewerScene(props: ViewerSceneProps) {
         ))}
         </group>
       </group>
+      <lineSegments ref={selectionRef} geometry={geometry.edges} material={materials.selection} matrixAutoUpdate={false} visible={false} raycast={noRaycast} renderOrder={11} />
       <lineLoop ref={outlineRef} geometry={outlineGeometry} material={materials.outline} raycast={noRaycast} renderOrder={9} visible={false} />
       <OrbitControls makeDefault enableDamping={false} minDistance={0.3} maxDistance={600} zoomSpeed={0.9} />
       <FrameIndicator mainCamera={camera} />

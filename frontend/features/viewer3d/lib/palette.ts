@@ -48,3 +48,5 @@ export const AXIS_NAMES = ["x", "y", "z"] as const;
 export const GRID_MINOR = "#c9d4cc";
 export const GRID_MAJOR = "#e8efe9";
 export const SECTION_OUTLINE = "#f7f5f0";
+/** The selected element's outline: paper white, drawn over everything. */
+export const SELECTION = "#ffffff";
