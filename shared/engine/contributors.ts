@@ -9,14 +9,20 @@
  *   heading error): at nominal the derivative of a magnitude is zero or undefined, so
  *   the linear share is taken on the mean square: for g affine in x,
  *   E[m²] − m0² = Σ_k σ_k²·‖∂g/∂x_k‖², and ‖∂g/∂x_k‖² = (m⁺² + m⁻² − 2m0²)/2h² exactly.
- *   (For the max-over-attitudes heading metric this uses the largest per-attitude slope,
- *   an approximation that ranks the sources but does not add up to E[m²] exactly.)
+ * - the heading metrics are built from the per-attitude errors e_k, which are signed and
+ *   smooth: with J_k = ∂e_k/∂x by central differences, heading.rmsDeg splits its mean
+ *   square exactly to first order, Σ_k σ²J_k²/K; heading.maxAbsDeg takes the split at the
+ *   attitude whose linearised variance Σ σ²J_k² is largest (the worst attitude).
  *
- * From the Monte Carlo sample, squared standardised regression coefficients (SRC²):
- * ordinary least squares of the metric on the draws (signed metrics), or of the metric
- * squared on the squared deviations (x_k − μ_k)² (magnitudes, whose linear regression on
- * symmetric inputs is empty by symmetry). The cross-products are summed block by block
- * (bounded memory); R² says how much of the variance the fit explains.
+ * From the Monte Carlo sample, by ordinary least squares on streamed cross-products
+ * (bounded memory):
+ * - signed metrics: the metric on the draws; a source's share is its part of Σ SRC²,
+ *   the squared standardised regression coefficients (β_k·s_k/s_y)².
+ * - magnitudes, whose linear regression on symmetric inputs is empty by symmetry: the
+ *   metric squared on the squared deviations z_k = (x_k − μ_k)²; E[m²] = b0 + Σ b_k·E[z_k],
+ *   so a source's share is its part of Σ b_k·mean(z_k), the same quantity the linearised
+ *   split estimates. SRC² of that fit is reported beside it.
+ * R² says how much of the variance the fit explains.
  */
 import { Matrix, solve } from "ml-matrix";
 import { createScratch, evaluateTrial, meanDraws, type Model } from "./model";
@@ -47,8 +53,12 @@ export function linearisedContributions(m: Model, metricIdx: number[]): Linearis
   const m0 = Float64Array.from(metricIdx, (k) => s.metrics[k]);
   const D = m.drawCount;
   const nM = metricIdx.length;
+  const nAtt = s.headingErr.length;
   const slopes = metricIdx.map(() => new Float64Array(D));
   const contrib = metricIdx.map(() => new Float64Array(m.sources.length));
+  // per draw and attitude: σ²·J², for the heading metrics
+  const hJ2 = new Float64Array(D * nAtt);
+  const hPlus = new Float64Array(nAtt);
   const x = x0.slice();
   for (let d = 0; d < D; d++) {
     const sigma = m.drawDist[d].sigma;
@@ -57,20 +67,51 @@ export function linearisedContributions(m: Model, metricIdx: number[]): Linearis
     x[d] = x0[d] + h;
     evaluateTrial(m, x, s);
     const plus = Float64Array.from(metricIdx, (k) => s.metrics[k]);
+    hPlus.set(s.headingErr);
     x[d] = x0[d] - h;
     evaluateTrial(m, x, s);
     const minus = Float64Array.from(metricIdx, (k) => s.metrics[k]);
+    for (let k = 0; k < nAtt; k++) {
+      const j = (hPlus[k] - s.headingErr[k]) / (2 * h);
+      hJ2[d * nAtt + k] = j * j * sigma * sigma;
+    }
     x[d] = x0[d];
     const src = m.drawSource[d];
     for (let i = 0; i < nM; i++) {
       const a = (plus[i] - minus[i]) / (2 * h);
       slopes[i][d] = a;
+      const kind = m.metrics[metricIdx[i]].kind;
+      if (kind === "headingMax" || kind === "headingRms") continue;
       if (m.metrics[metricIdx[i]].signed) contrib[i][src] += a * a * sigma * sigma;
       else {
         const g2 = (plus[i] * plus[i] + minus[i] * minus[i] - 2 * m0[i] * m0[i]) / (2 * h * h);
         contrib[i][src] += Math.max(0, g2) * sigma * sigma;
       }
     }
+  }
+  if (nAtt > 0) {
+    let worst = 0, worstVar = -1;
+    for (let k = 0; k < nAtt; k++) {
+      let v = 0;
+      for (let d = 0; d < D; d++) v += hJ2[d * nAtt + k];
+      if (v > worstVar) {
+        worstVar = v;
+        worst = k;
+      }
+    }
+    metricIdx.forEach((mk, i) => {
+      const kind = m.metrics[mk].kind;
+      if (kind !== "headingMax" && kind !== "headingRms") return;
+      for (let d = 0; d < D; d++) {
+        let c = 0;
+        if (kind === "headingMax") c = hJ2[d * nAtt + worst];
+        else {
+          for (let k = 0; k < nAtt; k++) c += hJ2[d * nAtt + k];
+          c /= nAtt;
+        }
+        contrib[i][m.drawSource[d]] += c;
+      }
+    });
   }
   return metricIdx.map((k, i) => {
     const tot = contrib[i].reduce((a, b) => a + b, 0);
@@ -118,6 +159,7 @@ export interface RegressionResult {
   metric: string;
   design: "linear" | "squared";
   r2: number;
+  /** share: of Σ SRC² (linear design) or of the regression's mean-square split (squared design) */
   sources: { source: string; src2: number; share: number }[];
 }
 
@@ -161,18 +203,21 @@ export function regressionFromSums(
   }
   let explained = 0;
   const sdY = Math.sqrt(varY);
-  const perSource = new Float64Array(m.sources.length);
+  const src2 = new Float64Array(m.sources.length);
+  const meanSq = new Float64Array(m.sources.length);
   for (let a = 0; a < p; a++) {
     const b = beta.get(a, 0);
     explained += b * cxy.get(a, 0);
     const src = (b * sd[a]) / sdY;
-    perSource[m.drawSource[cols[a]]] += src * src;
+    src2[m.drawSource[cols[a]]] += src * src;
+    meanSq[m.drawSource[cols[a]]] += b * mu[a + 1];
   }
-  const tot = perSource.reduce((x, y) => x + y, 0);
+  const basis = design === "linear" ? src2 : meanSq.map((v) => Math.max(0, v));
+  const tot = basis.reduce((x, y) => x + y, 0);
   return {
     metric,
     design,
     r2: explained / varY,
-    sources: m.sources.map((s, j) => ({ source: s.id, src2: perSource[j], share: tot > 0 ? perSource[j] / tot : 0 })),
+    sources: m.sources.map((s, j) => ({ source: s.id, src2: src2[j], share: tot > 0 ? basis[j] / tot : 0 })),
   };
 }
