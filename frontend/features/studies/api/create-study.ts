@@ -1,0 +1,22 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { StudySummarySchema, type CreateStudy, type StudySummary } from "@shared/schemas/studies";
+import { api } from "@frontend/lib/api-client";
+import { projectKeys } from "@frontend/features/projects/api/keys";
+import { studyKeys } from "./keys";
+
+export function createStudy({ revisionId, body }: { revisionId: string; body: CreateStudy }): Promise<StudySummary> {
+  return api.post(`/api/revisions/${encodeURIComponent(revisionId)}/studies`, body, StudySummarySchema);
+}
+
+export function useCreateStudy() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: createStudy,
+    onSuccess: (study) =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: studyKeys.list(study.projectId) }),
+        queryClient.invalidateQueries({ queryKey: projectKeys.detail(study.projectId) }),
+        queryClient.invalidateQueries({ queryKey: projectKeys.lists() }),
+      ]),
+  });
+}

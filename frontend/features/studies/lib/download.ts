@@ -1,0 +1,26 @@
+import { z } from "zod";
+import { api } from "@frontend/lib/api-client";
+
+const slug = (s: string) => s.normalize("NFKD").replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 60).toLowerCase() || "study";
+
+/** The result file name: `<project>-study-<n>.result.json`. */
+export function resultFileName(projectName: string, studyNumber: number): string {
+  return `${slug(projectName)}-study-${studyNumber}.result.json`;
+}
+
+// Every key of the stored file, not only those the client's schema reads.
+const RawResultSchema = z.object({ result: z.record(z.string(), z.unknown()) });
+
+/** Saves the result file (MODEL.md §11) as the server stored it. */
+export async function downloadResultFile(studyId: string, projectName: string, studyNumber: number) {
+  const { result } = await api.get(`/api/studies/${encodeURIComponent(studyId)}`, RawResultSchema);
+  const blob = new Blob([JSON.stringify(result, null, 2) + "\n"], { type: "application/json" });
+  const url = URL.createObjectURL(blob);
+  const a = document.createElement("a");
+  a.href = url;
+  a.download = resultFileName(projectName, studyNumber);
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 1000);
+}
