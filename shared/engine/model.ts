@@ -78,9 +78,15 @@ export interface SensorInfo {
 
 export type MetricKind = "crossAxis" | "crossAxisTotal" | "axisMisalign" | "tilt" | "relRot" | "headingMax" | "headingRms";
 
+const KIND_CODE: Record<MetricKind, number> = {
+  crossAxis: 0, crossAxisTotal: 1, axisMisalign: 2, tilt: 3, relRot: 4, headingMax: 5, headingRms: 6,
+};
+
 export interface MetricInfo {
   id: string;
   kind: MetricKind;
+  /** kind as a small integer, for the switch of the trial loop */
+  code: number;
   /** signed metrics can be negative; the others are magnitudes (>= 0) */
   signed: boolean;
   unit: "%" | "deg";
@@ -149,7 +155,7 @@ export function metricIds(stack: StackFile, study: Pick<StudyFile, "headingSenso
 }
 
 function metricCatalogue(stack: StackFile, study: Pick<StudyFile, "headingSensors" | "heading">, sensorsIdx?: Map<string, number>, elIdx?: Map<string, number>): MetricInfo[] {
-  const out: MetricInfo[] = [];
+  const out: Omit<MetricInfo, "code">[] = [];
   const sensors = stack.elements.filter((e) => isSensorKind(e.kind));
   sensors.forEach((s, si) => {
     const sIdx = sensorsIdx?.get(s.id) ?? si;
@@ -177,7 +183,7 @@ function metricCatalogue(stack: StackFile, study: Pick<StudyFile, "headingSensor
     out.push({ id: "heading.maxAbsDeg", kind: "headingMax", signed: false, unit: "deg", a: 0, b: 0, row: 0 });
     out.push({ id: "heading.rmsDeg", kind: "headingRms", signed: false, unit: "deg", a: 0, b: 0, row: 0 });
   }
-  return out;
+  return out.map((m) => ({ ...m, code: KIND_CODE[m.kind] }));
 }
 
 /** Compile a validated stack and study. */
@@ -480,21 +486,21 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
   const ms = m.metrics;
   for (let k = 0; k < ms.length; k++) {
     const mi = ms[k];
-    switch (mi.kind) {
-      case "crossAxis": {
+    switch (mi.code) {
+      case 0: {
         const o = 9 * mi.a + 3 * mi.row;
         out[k] = (100 * C[o + mi.b]) / C[o + mi.row];
         break;
       }
-      case "crossAxisTotal":
-      case "axisMisalign": {
+      case 1:
+      case 2: {
         const o = 9 * mi.a + 3 * mi.row;
-        const i = mi.row, j = (i + 1) % 3, l = (i + 2) % 3;
+        const i = mi.row, j = i === 2 ? 0 : i + 1, l = i === 0 ? 2 : i - 1;
         const off = Math.sqrt(C[o + j] * C[o + j] + C[o + l] * C[o + l]);
-        out[k] = mi.kind === "crossAxisTotal" ? (100 * off) / Math.abs(C[o + i]) : atan2Fast(off, C[o + i]) / DEG;
+        out[k] = mi.code === 1 ? (100 * off) / Math.abs(C[o + i]) : atan2Fast(off, C[o + i]) / DEG;
         break;
       }
-      case "tilt": {
+      case 3: {
         const o = 9 * mi.a;
         const Rn = m.elements[mi.a].Rnom;
         // angle between R·ez and Rnom·ez
@@ -503,13 +509,13 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
         out[k] = atan2Fast(Math.sqrt(cx * cx + cy * cy + cz * cz), ax * bx + ay * by + az * bz) / DEG;
         break;
       }
-      case "relRot":
+      case 4:
         out[k] = relativeAngleAt(s.delta, 9 * mi.a, 9 * mi.b) / DEG;
         break;
-      case "headingMax":
+      case 5:
         out[k] = hMax;
         break;
-      case "headingRms":
+      case 6:
         out[k] = hRms;
         break;
     }
