@@ -5,6 +5,7 @@ import { CLIENT_IP_HEADER } from "./auth";
 import type { AppDeps } from "./deps";
 import { errorHandler, forbidden, notFoundApi } from "./lib/errors";
 import { requireSession } from "./middleware/session";
+import { datasetsRouter } from "./routes/datasets";
 import { meRouter } from "./routes/me";
 import { membersRouter } from "./routes/members";
 import { projectsRouter } from "./routes/projects";
@@ -67,6 +68,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   app.use("/api", membersRouter(deps));
   app.use("/api", revisionsRouter(deps));
   app.use("/api", studiesRouter(deps));
+  app.use("/api", datasetsRouter(deps));
   app.use("/api", notFoundApi);
 
   options.mountClient?.(app);

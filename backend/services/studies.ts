@@ -1,5 +1,6 @@
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import type { Project } from "@shared/schemas/api";
+import type { AsBuiltRecord } from "@shared/schemas/datasets";
 import type { CreateStudy, Study, StudySummary } from "@shared/schemas/studies";
 import { validateStudy } from "@shared/schemas/study-file";
 import type { Database } from "../db/client";
@@ -7,6 +8,7 @@ import { projects, stackRevisions, studies, studyResults, users } from "../db/sc
 import { badRequest, conflict, found } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
+import { applyAsBuilt, asBuiltLabel } from "./as-built";
 import { fieldAtSite } from "./geomagnetic";
 import { getRevisionRow } from "./revisions";
 import type { StudyQueue } from "./study-queue";
@@ -29,6 +31,7 @@ const summaryColumns = {
   startedAt: studies.startedAt,
   finishedAt: studies.finishedAt,
   passes: studyResults.passes,
+  asBuilt: studies.asBuilt,
 };
 
 type Row = {
@@ -40,13 +43,15 @@ type Row = {
   startedAt: Date | null;
   finishedAt: Date | null;
   passes: boolean | null;
+  asBuilt: Array<Record<string, unknown>> | null;
 } & Pick<StudySummary, "id" | "projectId" | "revisionId" | "revisionNumber" | "number" | "label" | "status" | "error" | "createdByName">;
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
 
-function toSummary({ study, trialsDone, trialsTotal, trialsPerSecond, ...r }: Row): StudySummary {
+function toSummary({ study, trialsDone, trialsTotal, trialsPerSecond, asBuilt, ...r }: Row): StudySummary {
   return {
     ...r,
+    asBuilt: ((asBuilt ?? []) as AsBuiltRecord[]).map(({ replaced: _replaced, ...a }) => a),
     trials: Number(study.trials),
     seed: Number(study.seed),
     progress: { done: trialsDone, total: trialsTotal || Number(study.trials), trialsPerSecond },
@@ -102,7 +107,10 @@ export async function createStudy(db: Database, queue: StudyQueue, actor: Actor,
     file.inclinationDeg = Math.round(site.inclinationDeg * 1e4) / 1e4;
   }
   if (file.requirements === undefined && revision.requirements.length) file.requirements = revision.requirements;
-  const v = validateStudy(file, revision.stack);
+  // As built: measured data sets in place of chosen tolerances, in the frozen copy only.
+  const asBuilt = input.asBuilt?.length ? await applyAsBuilt(db, actor.workspaceId, revision, input.asBuilt) : null;
+  const stack = asBuilt?.stack ?? revision.stack;
+  const v = validateStudy(file, stack);
   if (!v.ok) {
     throw badRequest(
       `The study file has ${v.issues.length === 1 ? "a problem" : `${v.issues.length} problems`}; nothing was queued.`,
@@ -122,9 +130,10 @@ export async function createStudy(db: Database, queue: StudyQueue, actor: Actor,
         projectId: revision.projectId,
         revisionId,
         number: next,
-        label: input.label ?? "",
+        label: input.label || (asBuilt ? asBuiltLabel(asBuilt.records) : ""),
         study: v.study as Record<string, unknown>,
-        stack: revision.stack,
+        stack,
+        asBuilt: asBuilt ? (asBuilt.records as unknown as Array<Record<string, unknown>>) : null,
         site,
         trialsTotal: v.study.trials,
         createdBy: actor.userId,
@@ -135,7 +144,9 @@ export async function createStudy(db: Database, queue: StudyQueue, actor: Actor,
       projectId: revision.projectId,
       actorId: actor.userId,
       action: "study.queued",
-      summary: `queued study ${next} on stack revision ${revision.number} (${v.study.trials.toLocaleString("en-US")} trials, seed ${v.study.seed})`,
+      summary: `queued ${asBuilt ? "as-built " : ""}study ${next} on stack revision ${revision.number} (${v.study.trials.toLocaleString("en-US")} trials, seed ${v.study.seed})${
+        asBuilt ? `, measured data for ${asBuilt.records.map((r) => r.source).join(", ")}` : ""
+      }`,
       data: { studyId: row.id },
     });
     return row.id;

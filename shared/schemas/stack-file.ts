@@ -84,6 +84,8 @@ export const SENSOR_KINDS = ["gyro", "accel", "mag"] as const;
 export const MAX_DATA_VALUES = 100_000;
 export const MAX_SUPPORTS = 64;
 export const MAX_ELEMENTS = 200;
+/** Sensor dies per stack: every pair has a relative-rotation metric, so metrics grow as n². */
+export const MAX_SENSORS = 24;
 
 const finite = (what: string) =>
   z.number({
@@ -289,6 +291,11 @@ export function checkStack(file: unknown, add: (issue: { path: (string | number)
       add({ path: ["elements", i, "axisTol"], message: `axisTol (sensing-axis alignment) applies to sensor dies only (gyro, accel, mag), not to a ${e.kind}` });
     }
   });
+
+  const sensorIdx = els.map((e, i) => (typeof e.kind === "string" && isSensorKind(e.kind) ? i : -1)).filter((i) => i >= 0);
+  if (sensorIdx.length > MAX_SENSORS) {
+    add({ path: ["elements", sensorIdx[MAX_SENSORS]], message: `a stack may hold at most ${MAX_SENSORS} sensor dies (this one has ${sensorIdx.length}): split it into several stacks` });
+  }
 
   // Cycles: follow the parents from each element; a walk that comes back is a cycle.
   const reported = new Set<string>();

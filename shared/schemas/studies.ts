@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { IdSchema } from "./common";
+import { AsBuiltEntrySchema, AsBuiltRecordSchema } from "./datasets";
 import { FieldAtSiteSchema, SiteSchema } from "./site";
 
 export const StudyStatusSchema = z.enum(["queued", "running", "finished", "failed", "cancelled", "interrupted"]);
@@ -13,6 +14,8 @@ export const CreateStudySchema = z.object({
   study: z.record(z.string(), z.unknown(), { message: "study must be a study file (an object)" }),
   site: SiteSchema.optional(),
   label: z.string().trim().max(120, { message: "label must be at most 120 characters" }).optional(),
+  /** As built: tolerance sources replaced by measured data sets in the frozen stack (issue 7). */
+  asBuilt: z.array(AsBuiltEntrySchema, { message: "asBuilt must be a list" }).max(100, { message: "at most 100 as-built sources" }).optional(),
 });
 export type CreateStudy = z.infer<typeof CreateStudySchema>;
 
@@ -33,6 +36,8 @@ export const StudySummarySchema = z.object({
   createdAt: z.string(),
   startedAt: z.string().nullable(),
   finishedAt: z.string().nullable(),
+  /** The sources replaced by measured data (an "as built" study); empty for a design study. */
+  asBuilt: z.array(AsBuiltRecordSchema.omit({ replaced: true })),
 });
 export type StudySummary = z.infer<typeof StudySummarySchema>;
 

@@ -11,6 +11,16 @@ declare module "jstat" {
   interface JStatStatic {
     normal: JStatNormal;
     beta: JStatBeta;
+    mean(arr: number[]): number;
+    /** flag true: sample standard deviation (n − 1) */
+    stdev(arr: number[], flag?: boolean): number;
+    median(arr: number[]): number;
+    /** median absolute deviation */
+    meddev(arr: number[]): number;
+    min(arr: number[]): number;
+    max(arr: number[]): number;
+    /** without `exclusive`: linear interpolation at rank k·(n − 1) */
+    percentile(arr: number[], k: number, exclusive?: boolean): number;
   }
   const jStat: JStatStatic;
   export default jStat;

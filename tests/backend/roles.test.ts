@@ -7,7 +7,7 @@ import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { createApp } from "@backend/app";
 import { readFileSync } from "node:fs";
-import { invitations, members, projects, stackRevisions, studies, supplierContacts, suppliers, users } from "@backend/db/schema";
+import { datasets, invitations, members, projects, reports, stackRevisions, studies, supplierContacts, suppliers, users } from "@backend/db/schema";
 import type { Role } from "@shared/schemas/common";
 import { startTestApp, type TestApp } from "./harness";
 import { registeredApiRoutes } from "./route-table";
@@ -32,6 +32,8 @@ type Row = {
   /** Builds the concrete path (and a fresh resource for destructive calls). */
   path?: (c: Ctx) => Promise<string> | string;
   body?: (c: Ctx) => unknown;
+  /** A multipart upload of one file in the field "file", instead of a JSON body. */
+  upload?: { name: string; content: string };
 };
 
 let counter = 0;
@@ -76,6 +78,52 @@ async function freshInvitation(c: Ctx) {
     .returning();
   return i;
 }
+
+async function freshDataset(c: Ctx) {
+  const revisionId = await freshRevision(c);
+  const [rev] = await c.t.handle.db.select().from(stackRevisions).where(eq(stackRevisions.id, revisionId));
+  const [d] = await c.t.handle.db
+    .insert(datasets)
+    .values({
+      workspaceId: c.workspaceId,
+      projectId: rev.projectId,
+      name: "m.csv",
+      fileType: "csv",
+      sizeBytes: 20,
+      sha256: "0".repeat(64),
+      rowCount: 3,
+      columns: [{ key: "yaw [deg]", name: "yaw", letter: "A", unit: "deg", kind: "number", summary: { n: 3, mean: 0.2, std: 0.1, min: 0.1, max: 0.3 } }],
+      data: { "yaw [deg]": [0.1, 0.2, 0.3] },
+      preview: { rowNumbers: [2, 3, 4], cells: [["0.1"], ["0.2"], ["0.3"]] },
+      rowNumbers: [2, 3, 4],
+      file: Buffer.from("yaw [deg]\n0.1\n0.2\n0.3\n"),
+      uploaderRole: "engineer",
+    })
+    .returning();
+  lastDatasetRevision = revisionId;
+  return d.id;
+}
+let lastDatasetRevision = "";
+/** A report released to the supplier role's own company (Larkfield Assembly). */
+async function freshReleasedReport(c: Ctx) {
+  const projectId = await freshProject(c);
+  const [r] = await c.t.handle.db
+    .insert(reports)
+    .values({
+      workspaceId: c.workspaceId,
+      projectId,
+      supplierId: c.supplierId,
+      number: 900_000 + ++counter,
+      revision: 1,
+      status: "released",
+      capability: { cpk: 1.33, overrides: {} },
+      content: {},
+      releasedAt: new Date(),
+    })
+    .returning();
+  return r.id;
+}
+const MEASUREMENTS = { name: "first-build.csv", content: "unit,yaw [deg]\nU1,0.01\nU2,-0.02\n" };
 
 export const ROUTES: Row[] = [
   { route: "GET /api/health", allowed: "public" },
@@ -122,6 +170,21 @@ export const ROUTES: Row[] = [
   { route: "POST /api/studies/:id/cancel", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c)}/cancel` },
   { route: "POST /api/studies/:id/rerun", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c, "failed")}/rerun` },
   { route: "GET /api/geomagnetic-field", allowed: STAFF, path: () => "/api/geomagnetic-field?latitudeDeg=52&longitudeDeg=-1&altitudeKm=0&date=2026-06-01" },
+  { route: "GET /api/projects/:id/datasets", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/datasets` },
+  { route: "POST /api/projects/:id/datasets", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}/datasets`, upload: MEASUREMENTS },
+  { route: "GET /api/datasets/:id", allowed: STAFF, path: async (c) => `/api/datasets/${await freshDataset(c)}` },
+  { route: "DELETE /api/datasets/:id", allowed: WRITERS, path: async (c) => `/api/datasets/${await freshDataset(c)}` },
+  {
+    route: "PATCH /api/datasets/:id/mappings",
+    allowed: WRITERS,
+    path: async (c) => `/api/datasets/${await freshDataset(c)}/mappings`,
+    body: () => ({ mappings: [{ column: "yaw [deg]", revisionId: lastDatasetRevision, source: "mag.yaw" }] }),
+  },
+  { route: "GET /api/datasets/:id/statistics", allowed: STAFF, path: async (c) => `/api/datasets/${await freshDataset(c)}/statistics?column=${encodeURIComponent("yaw [deg]")}` },
+  { route: "GET /api/datasets/:id/file", allowed: STAFF, path: async (c) => `/api/datasets/${await freshDataset(c)}/file` },
+  // a supplier only through a released report of its own company (other companies' reports: tests/backend/datasets.test.ts)
+  { route: "GET /api/reports/:id/datasets", allowed: EVERYONE, path: async (c) => `/api/reports/${await freshReleasedReport(c)}/datasets` },
+  { route: "POST /api/reports/:id/datasets", allowed: ["admin", "engineer", "supplier"], path: async (c) => `/api/reports/${await freshReleasedReport(c)}/datasets`, upload: MEASUREMENTS },
 ];
 
 let t: TestApp;
@@ -153,7 +216,8 @@ describe("role table", () => {
         const [method, template] = row.route.split(" ");
         const path = row.path ? await row.path(ctx) : template;
         const body = row.body?.(ctx) ?? (method === "GET" || method === "DELETE" ? undefined : {});
-        const res = await t.call(method, path, { cookie: who === "nobody" ? undefined : cookies[who], body });
+        const cookie = who === "nobody" ? undefined : cookies[who];
+        const res = row.upload ? await t.call(method, path, { cookie, ...multipart(row.upload) }) : await t.call(method, path, { cookie, body });
         if (expected === "allowed") {
           expect(res.status, JSON.stringify(res.body)).toBeLessThan(400);
         } else {
@@ -164,3 +228,9 @@ describe("role table", () => {
     }
   }
 });
+
+function multipart(file: { name: string; content: string }) {
+  const boundary = `----orthostack-${uniq()}`;
+  const raw = `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${file.name}"\r\nContent-Type: text/csv\r\n\r\n${file.content}\r\n--${boundary}--\r\n`;
+  return { raw, headers: { "content-type": `multipart/form-data; boundary=${boundary}` } };
+}

@@ -1,0 +1,107 @@
+import { Router, type RequestHandler } from "express";
+import multer from "multer";
+import { IdParamsSchema } from "@shared/schemas/common";
+import { DATASET_MAX_BYTES, StatisticsQuerySchema, UpdateMappingsSchema } from "@shared/schemas/datasets";
+// Registers the demo project's first-build data set with the seed.
+import "../demo/seed-datasets";
+import type { AppDeps } from "../deps";
+import { badRequest, HttpError } from "../lib/errors";
+import { parse } from "../lib/validate";
+import { actorOf, allow, can } from "../middleware/session";
+import {
+  datasetFile,
+  datasetStatistics,
+  deleteDataset,
+  getDataset,
+  listDatasets,
+  listReportDatasets,
+  updateMappings,
+  uploadDataset,
+  uploadForReport,
+} from "../services/datasets";
+
+/** Staff who write, and suppliers (only through a released report of their own company). */
+const SENDERS = [...can.write, "supplier"] as const;
+const REPORT_READERS = [...can.readWorkspace, "supplier"] as const;
+
+const upload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: DATASET_MAX_BYTES, files: 1, fields: 5, parts: 6 },
+  defParamCharset: "utf8",
+}).single("file");
+
+/** Multer's refusals in our one error shape: an oversized file is a 413, the rest 400. */
+const receiveFile: RequestHandler = (req, res, next) => {
+  upload(req, res, (err: unknown) => {
+    if (!err) return next();
+    if (err instanceof multer.MulterError) {
+      if (err.code === "LIMIT_FILE_SIZE") {
+        return next(new HttpError(413, "too_large", `The file is larger than ${DATASET_MAX_BYTES / 1048576} MB, the most one upload may be. Nothing was stored.`));
+      }
+      if (err.code === "LIMIT_UNEXPECTED_FILE" || err.code === "LIMIT_FILE_COUNT") {
+        return next(badRequest("Send one file, in the form field “file”.", [{ path: "file", message: "one CSV or XLSX file in the field “file”" }], "missing_file"));
+      }
+      return next(badRequest("The upload could not be read as a form with one file.", undefined, "bad_upload"));
+    }
+    next(err);
+  });
+};
+
+export function datasetsRouter({ db }: AppDeps) {
+  const r = Router();
+
+  r.get("/projects/:id/datasets", allow(...can.readWorkspace), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.json({ datasets: await listDatasets(db, actorOf(req).workspaceId, id) });
+  });
+
+  // The role is checked before the body is read, so a refused caller never uploads anything.
+  r.post("/projects/:id/datasets", allow(...can.write), receiveFile, async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.status(201).json(await uploadDataset(db, actorOf(req), id, req.file));
+  });
+
+  r.get("/datasets/:id", allow(...can.readWorkspace), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.json(await getDataset(db, actorOf(req).workspaceId, id));
+  });
+
+  r.delete("/datasets/:id", allow(...can.write), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    await deleteDataset(db, actorOf(req), id);
+    res.status(204).end();
+  });
+
+  r.patch("/datasets/:id/mappings", allow(...can.write), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const input = parse(UpdateMappingsSchema, req);
+    res.json(await updateMappings(db, actorOf(req), id, input));
+  });
+
+  r.get("/datasets/:id/statistics", allow(...can.readWorkspace), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const { column } = parse(StatisticsQuerySchema, req, "query");
+    res.json(await datasetStatistics(db, actorOf(req).workspaceId, id, column));
+  });
+
+  r.get("/datasets/:id/file", allow(...can.readWorkspace), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const f = await datasetFile(db, actorOf(req).workspaceId, id);
+    res.setHeader("Content-Type", f.contentType);
+    res.setHeader("Content-Disposition", `attachment; filename*=UTF-8''${encodeURIComponent(f.name)}`);
+    res.setHeader("X-Content-Type-Options", "nosniff");
+    res.send(f.data);
+  });
+
+  r.get("/reports/:id/datasets", allow(...REPORT_READERS), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.json({ datasets: await listReportDatasets(db, actorOf(req), id) });
+  });
+
+  r.post("/reports/:id/datasets", allow(...SENDERS), receiveFile, async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.status(201).json(await uploadForReport(db, actorOf(req), id, req.file));
+  });
+
+  return r;
+}

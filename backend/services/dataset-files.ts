@@ -1,0 +1,410 @@
+/**
+ * Reading an uploaded measurement file (CSV or XLSX) into checked columns. Everything that
+ * cannot be read is refused here, before anything is stored, with the row and the column
+ * it was found in (the header is the file's first non-blank row; rows count as a
+ * spreadsheet shows them, from 1).
+ */
+import ExcelJS from "exceljs";
+import { DATASET_MAX_COLUMNS, DATASET_MAX_ROWS, DATASET_PREVIEW_ROWS } from "@shared/schemas/datasets";
+import { parseHeader, type MeasureUnit } from "@shared/datasets/units";
+import { summarize } from "@shared/datasets/statistics";
+import { badRequest, HttpError, type FieldError } from "../lib/errors";
+
+/** Refuse a workbook whose parts unpack to more than this (a small zip can hold a huge sheet). */
+const MAX_XLSX_UNPACKED = 120 * 1024 * 1024;
+/** How many problems one refusal lists; the message names the first. */
+const MAX_LISTED = 20;
+
+type CellKind = "empty" | "number" | "text" | "date" | "bool" | "error";
+type Cell = { kind: CellKind; text: string; value: number | null };
+type RawRow = { row: number; cells: Cell[] };
+type RawTable = { fileType: "csv" | "xlsx"; sheet: string | null; rows: RawRow[] };
+
+export type ParsedColumn = {
+  key: string;
+  name: string;
+  letter: string;
+  unit: MeasureUnit | null;
+  kind: "number" | "label";
+  summary: { n: number; mean: number; std: number; min: number; max: number } | null;
+};
+
+export type ParsedDataset = {
+  fileType: "csv" | "xlsx";
+  sheet: string | null;
+  columns: ParsedColumn[];
+  data: Record<string, Array<number | string>>;
+  rowNumbers: number[];
+  preview: { rowNumbers: number[]; cells: string[][] };
+};
+
+const EMPTY: Cell = { kind: "empty", text: "", value: null };
+
+export function columnLetter(index: number): string {
+  let s = "";
+  let n = index + 1;
+  while (n > 0) {
+    const r = (n - 1) % 26;
+    s = String.fromCharCode(65 + r) + s;
+    n = Math.floor((n - 1) / 26);
+  }
+  return s;
+}
+
+const where = (row: number, col: number, header?: string) => `Row ${row}, column ${columnLetter(col)}${header ? ` (${header})` : ""}`;
+
+const invalid = (message: string, fields?: FieldError[], code = "invalid_file") => badRequest(message, fields, code);
+
+/** One message naming the first problem, every problem (up to a limit) in `fields`. */
+function refuse(problems: { at: string; message: string }[]): HttpError {
+  const first = problems[0];
+  const more = problems.length > 1 ? ` (${problems.length > MAX_LISTED ? `${MAX_LISTED}+` : problems.length} problems; nothing was stored)` : " Nothing was stored.";
+  return invalid(`${first.at}: ${first.message}.${more}`, problems.slice(0, MAX_LISTED).map((p) => ({ path: p.at, message: p.message })));
+}
+
+// ---------------------------------------------------------------- numbers
+
+const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
+
+/** A decimal number as people write it; `decimalComma` also takes "0,12" (semicolon or tab files). */
+export function parseNumber(text: string, decimalComma = false): number | null {
+  let t = text.trim().replace(/^\u2212/, "-");
+  if (decimalComma && /^[+-]?\d*,\d+([eE][+-]?\d+)?$/.test(t)) t = t.replace(",", ".");
+  if (!NUMBER.test(t)) return null;
+  const v = Number(t);
+  return Number.isFinite(v) ? v : null;
+}
+
+// ---------------------------------------------------------------- CSV
+
+function decodeText(buf: Buffer): string {
+  try {
+    return new TextDecoder("utf-8", { fatal: true }).decode(buf).replace(/^\uFEFF/, "");
+  } catch {
+    // Spreadsheet programs on Windows save "CSV" in the ANSI code page (µ is 0xB5 there).
+    return new TextDecoder("windows-1252").decode(buf);
+  }
+}
+
+/** The delimiter that splits the first line most often, outside quotes: comma, semicolon or tab. */
+function sniffDelimiter(text: string): string {
+  const counts: Record<string, number> = { ",": 0, ";": 0, "\t": 0 };
+  let quoted = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i];
+    if (c === '"') quoted = !quoted;
+    else if (!quoted && (c === "\n" || c === "\r")) {
+      if (counts[","] + counts[";"] + counts["\t"] > 0) break;
+    } else if (!quoted && c in counts) counts[c]++;
+  }
+  if (counts[";"] > counts[","] && counts[";"] >= counts["\t"]) return ";";
+  if (counts["\t"] > counts[","] && counts["\t"] > counts[";"]) return "\t";
+  return ",";
+}
+
+/**
+ * RFC 4180 records: fields split by the delimiter, double quotes around a field that holds
+ * delimiters, quotes ("" inside) or line breaks; CRLF, LF or CR line ends.
+ */
+export function parseCsvRecords(text: string, delimiter: string, maxRecords: number): { records: string[][]; more: boolean } {
+  const records: string[][] = [];
+  let field = "";
+  let record: string[] = [];
+  let i = 0;
+  let row = 1;
+  const n = text.length;
+  const endRecord = () => {
+    record.push(field);
+    field = "";
+    records.push(record);
+    record = [];
+    row++;
+  };
+  while (i < n) {
+    if (records.length >= maxRecords) return { records, more: true };
+    const c = text[i];
+    if (c === '"' && field.trim() === "") {
+      // quoted field
+      field = "";
+      i++;
+      const startRow = row;
+      let closed = false;
+      while (i < n) {
+        const q = text[i];
+        if (q === '"') {
+          if (text[i + 1] === '"') {
+            field += '"';
+            i += 2;
+            continue;
+          }
+          closed = true;
+          i++;
+          break;
+        }
+        field += q;
+        i++;
+      }
+      if (!closed) throw invalid(`Row ${startRow}, column ${columnLetter(record.length)}: a quoted field is not closed (a " is missing). Nothing was stored.`);
+      // only spaces may sit between the closing quote and the delimiter
+      while (i < n && (text[i] === " " || (text[i] === "\t" && delimiter !== "\t"))) i++;
+      if (i < n && text[i] !== delimiter && text[i] !== "\n" && text[i] !== "\r") {
+        throw invalid(`Row ${startRow}, column ${columnLetter(record.length)}: text after the closing quote of a quoted field. Nothing was stored.`);
+      }
+      continue;
+    }
+    if (c === delimiter) {
+      record.push(field);
+      field = "";
+      i++;
+      continue;
+    }
+    if (c === "\n" || c === "\r") {
+      endRecord();
+      i += c === "\r" && text[i + 1] === "\n" ? 2 : 1;
+      continue;
+    }
+    field += c;
+    i++;
+  }
+  if (field !== "" || record.length > 0) endRecord();
+  return { records, more: false };
+}
+
+function readCsv(buf: Buffer): RawTable {
+  const text = decodeText(buf);
+  const delimiter = sniffDelimiter(text);
+  const decimalComma = delimiter !== ",";
+  // header + the row limit + one more to notice that the limit is passed (blank rows aside)
+  const { records, more } = parseCsvRecords(text, delimiter, 4 * (DATASET_MAX_ROWS + 1));
+  if (more) throw tooManyRows();
+  const rows: RawRow[] = records.map((r, k) => ({
+    row: k + 1,
+    cells: r.map((raw): Cell => {
+      const t = raw.trim();
+      if (t === "") return EMPTY;
+      const v = parseNumber(t, decimalComma);
+      return v === null ? { kind: "text", text: t, value: null } : { kind: "number", text: t, value: v };
+    }),
+  }));
+  return { fileType: "csv", sheet: null, rows };
+}
+
+// ---------------------------------------------------------------- XLSX
+
+/** Sum of the unpacked sizes in a zip's central directory; null if it cannot be read. */
+function zipUnpackedSize(buf: Buffer): number | null {
+  const min = Math.max(0, buf.length - 22 - 0xffff);
+  for (let p = buf.length - 22; p >= min; p--) {
+    if (buf.readUInt32LE(p) !== 0x06054b50) continue;
+    const count = buf.readUInt16LE(p + 10);
+    let q = buf.readUInt32LE(p + 16);
+    let total = 0;
+    for (let k = 0; k < count; k++) {
+      if (q + 46 > buf.length || buf.readUInt32LE(q) !== 0x02014b50) return null;
+      const size = buf.readUInt32LE(q + 24);
+      if (size === 0xffffffff) return null;
+      total += size;
+      q += 46 + buf.readUInt16LE(q + 28) + buf.readUInt16LE(q + 30) + buf.readUInt16LE(q + 32);
+    }
+    return total;
+  }
+  return null;
+}
+
+function cellOf(v: ExcelJS.CellValue): Cell {
+  if (v === null || v === undefined) return EMPTY;
+  if (typeof v === "number") return Number.isFinite(v) ? { kind: "number", text: String(v), value: v } : { kind: "error", text: String(v), value: null };
+  if (typeof v === "string") {
+    const t = v.trim();
+    if (t === "") return EMPTY;
+    const n = parseNumber(t);
+    return n === null ? { kind: "text", text: t, value: null } : { kind: "number", text: t, value: n };
+  }
+  if (typeof v === "boolean") return { kind: "bool", text: v ? "TRUE" : "FALSE", value: null };
+  if (v instanceof Date) return { kind: "date", text: Number.isNaN(v.getTime()) ? "" : v.toISOString().slice(0, 10), value: null };
+  if (typeof v === "object") {
+    if ("error" in v && v.error) return { kind: "error", text: String(v.error), value: null };
+    if ("formula" in v || "sharedFormula" in v) {
+      const r = (v as { result?: ExcelJS.CellValue }).result;
+      return r === undefined ? EMPTY : cellOf(r as ExcelJS.CellValue);
+    }
+    if ("richText" in v && Array.isArray(v.richText)) return cellOf(v.richText.map((p) => p.text).join(""));
+    if ("text" in v) return cellOf(String((v as { text: unknown }).text));
+  }
+  return { kind: "text", text: String(v), value: null };
+}
+
+async function readXlsx(buf: Buffer): Promise<RawTable> {
+  const unpacked = zipUnpackedSize(buf);
+  if (unpacked === null) throw invalid("The file could not be read as an Excel workbook (.xlsx). Nothing was stored.");
+  if (unpacked > MAX_XLSX_UNPACKED) {
+    throw invalid(`The workbook unpacks to ${Math.round(unpacked / 1048576)} MB, more than the ${MAX_XLSX_UNPACKED / 1048576} MB accepted. Nothing was stored.`);
+  }
+  const wb = new ExcelJS.Workbook();
+  try {
+    await wb.xlsx.load(buf as unknown as ArrayBuffer);
+  } catch {
+    throw invalid("The file could not be read as an Excel workbook (.xlsx). Nothing was stored.");
+  }
+  const sheet = wb.worksheets.find((ws) => ws.actualRowCount > 0) ?? wb.worksheets[0];
+  if (!sheet) throw invalid("The workbook has no worksheet. Nothing was stored.", undefined, "empty_file");
+  if (sheet.actualRowCount > DATASET_MAX_ROWS + 1) throw tooManyRows();
+  const rows: RawRow[] = [];
+  sheet.eachRow({ includeEmpty: false }, (r, rowNumber) => {
+    const cells: Cell[] = [];
+    r.eachCell({ includeEmpty: true }, (c, col) => {
+      cells[col - 1] = cellOf(c.value);
+    });
+    for (let k = 0; k < cells.length; k++) cells[k] ??= EMPTY;
+    rows.push({ row: rowNumber, cells });
+  });
+  return { fileType: "xlsx", sheet: sheet.name, rows };
+}
+
+const tooManyRows = () =>
+  invalid(`The file has more than ${DATASET_MAX_ROWS.toLocaleString("en-US")} data rows, the most one data set may hold. Nothing was stored.`, undefined, "too_many_rows");
+
+// ---------------------------------------------------------------- the file as a whole
+
+const XLSX_MAGIC = Buffer.from([0x50, 0x4b, 0x03, 0x04]);
+const OLE_MAGIC = Buffer.from([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1]);
+
+/** Which reader a file needs, from its content first and its name second. */
+export function fileTypeOf(name: string, buf: Buffer): "csv" | "xlsx" {
+  const lower = name.toLowerCase();
+  if (buf.subarray(0, 4).equals(XLSX_MAGIC)) {
+    if (lower.endsWith(".xlsx") || lower.endsWith(".xlsm") || !/\.[a-z0-9]+$/.test(lower)) return "xlsx";
+    throw invalid(`“${name}” is a zip archive, not a measurement file. Upload a CSV file (.csv) or an Excel workbook (.xlsx). Nothing was stored.`, undefined, "wrong_file_type");
+  }
+  if (buf.subarray(0, 8).equals(OLE_MAGIC)) {
+    throw invalid(`“${name}” is an old-style Excel file (.xls). Save it as an Excel workbook (.xlsx) or as CSV and upload that. Nothing was stored.`, undefined, "wrong_file_type");
+  }
+  if (lower.endsWith(".xlsx")) throw invalid(`“${name}” is named .xlsx but is not an Excel workbook. Nothing was stored.`, undefined, "wrong_file_type");
+  const ext = /\.([a-z0-9]+)$/.exec(lower)?.[1];
+  const textExt = ext === undefined || ["csv", "txt", "tsv", "tab", "dat"].includes(ext);
+  // A text file has no NUL bytes; PDFs, images and the like do, or carry another name.
+  const binary = buf.subarray(0, 8192).includes(0);
+  if (binary || !textExt) {
+    throw invalid(`“${name}” is not a CSV file or an Excel workbook. Upload a .csv or .xlsx file. Nothing was stored.`, undefined, "wrong_file_type");
+  }
+  return "csv";
+}
+
+// Names of columns that identify a unit rather than measure it.
+const LABEL_HEADER = /^(id|unit|units|unit ?id|unit ?no\.?|serial|serial ?no\.?|serial ?number|s\/?n|sample|sample ?id|part|part ?no\.?|lot|lot ?id|batch|label|name|die|die ?id|site|position|date|time|operator|comment|comments|note|notes)$/i;
+
+/** Reads and checks the whole file; throws a 400 naming the row and column of the first problem. */
+export async function readMeasurementFile(name: string, buf: Buffer): Promise<ParsedDataset> {
+  if (buf.length === 0) throw invalid(`“${name}” is empty. Nothing was stored.`, undefined, "empty_file");
+  const fileType = fileTypeOf(name, buf);
+  const table = fileType === "xlsx" ? await readXlsx(buf) : readCsv(buf);
+  const nonBlank = table.rows.filter((r) => r.cells.some((c) => c.kind !== "empty"));
+  if (nonBlank.length === 0) throw invalid(`“${name}” holds no data: the ${fileType === "xlsx" ? "sheet" : "file"} is empty. Nothing was stored.`, undefined, "empty_file");
+  const [headerRow, ...dataRows] = nonBlank;
+  if (dataRows.length > DATASET_MAX_ROWS) throw tooManyRows();
+  const hr = headerRow.row;
+  if (dataRows.length === 0) throw invalid(`Row ${hr + 1}: the file has a header but no data rows. Nothing was stored.`, undefined, "empty_file");
+
+  // Columns: the header's cells, plus any column that has data further down.
+  let width = headerRow.cells.length;
+  for (const r of dataRows) {
+    for (let k = r.cells.length - 1; k >= width; k--) {
+      if (r.cells[k].kind !== "empty") {
+        width = k + 1;
+        break;
+      }
+    }
+  }
+  while (width > 0 && (headerRow.cells[width - 1] ?? EMPTY).kind === "empty" && dataRows.every((r) => (r.cells[width - 1] ?? EMPTY).kind === "empty")) width--;
+  if (width > DATASET_MAX_COLUMNS) throw invalid(`The file has ${width} columns; at most ${DATASET_MAX_COLUMNS} are accepted. Nothing was stored.`);
+
+  const problems: { at: string; message: string }[] = [];
+  const seen = new Map<string, number>();
+  type Col = { index: number; key: string; name: string; unit: MeasureUnit | null; kind: "number" | "label" };
+  const cols: Col[] = [];
+  for (let k = 0; k < width; k++) {
+    const h = headerRow.cells[k] ?? EMPTY;
+    const hasData = dataRows.some((r) => (r.cells[k] ?? EMPTY).kind !== "empty");
+    if (h.kind === "empty") {
+      if (hasData) problems.push({ at: where(hr, k), message: "the column has values but no header" });
+      continue;
+    }
+    const key = h.text.trim();
+    const prev = seen.get(key.toLowerCase());
+    if (prev !== undefined) {
+      problems.push({ at: where(hr, k, key), message: `the header “${key}” is already used by column ${columnLetter(prev)}` });
+      continue;
+    }
+    seen.set(key.toLowerCase(), k);
+    const ph = parseHeader(key);
+    if (ph.strict && !ph.unit) {
+      problems.push({
+        at: where(hr, k, key),
+        message: ph.unitText ? `unknown unit “${ph.unitText}” in the header: use um, mm, deg, mrad or arcmin` : "the brackets in the header hold no unit: use um, mm, deg, mrad or arcmin",
+      });
+      continue;
+    }
+    if (!hasData) {
+      problems.push({ at: where(hr + 1, k, key), message: "missing value: the column is empty" });
+      continue;
+    }
+    let kind: "number" | "label";
+    if (ph.unit) kind = "number";
+    else if (LABEL_HEADER.test(ph.name)) kind = "label";
+    else {
+      const first = dataRows.map((r) => r.cells[k] ?? EMPTY).find((c) => c.kind !== "empty")!;
+      kind = first.kind === "number" ? "number" : "label";
+    }
+    cols.push({ index: k, key, name: ph.name, unit: ph.unit, kind });
+  }
+  if (problems.length === 0 && !cols.some((c) => c.kind === "number")) {
+    problems.push({
+      at: `Row ${hr}`,
+      message: "no column holds numbers: give each measured quantity its own column, with its unit in the header, e.g. “tilt_x [deg]”",
+    });
+  }
+  if (problems.length) throw refuse(problems);
+
+  const data: Record<string, Array<number | string>> = {};
+  for (const c of cols) {
+    const values: Array<number | string> = new Array(dataRows.length);
+    for (let r = 0; r < dataRows.length; r++) {
+      const cell = dataRows[r].cells[c.index] ?? EMPTY;
+      if (c.kind === "label") {
+        values[r] = cell.text;
+        continue;
+      }
+      const at = where(dataRows[r].row, c.index, c.key);
+      if (cell.kind === "number") values[r] = cell.value!;
+      else if (cell.kind === "empty") problems.push({ at, message: "missing value" });
+      else if (cell.kind === "date") problems.push({ at, message: `holds a date (${cell.text}), not a number` });
+      else if (cell.kind === "error") problems.push({ at, message: `holds the spreadsheet error ${cell.text}, not a number` });
+      else if (cell.kind === "bool") problems.push({ at, message: `holds ${cell.text}, not a number` });
+      else problems.push({ at, message: `“${cell.text.length > 40 ? `${cell.text.slice(0, 40)}…` : cell.text}” is not a number` });
+      if (problems.length > MAX_LISTED) break;
+    }
+    if (problems.length > MAX_LISTED) break;
+    data[c.key] = values;
+  }
+  if (problems.length) throw refuse(problems);
+
+  const previewRows = dataRows.slice(0, DATASET_PREVIEW_ROWS);
+  return {
+    fileType,
+    sheet: table.sheet,
+    columns: cols.map((c) => {
+      let summary: ParsedColumn["summary"] = null;
+      if (c.kind === "number") {
+        const s = summarize(data[c.key] as number[]);
+        summary = { n: s.n, mean: s.mean, std: s.std, min: s.min, max: s.max };
+      }
+      return { key: c.key, name: c.name, letter: columnLetter(c.index), unit: c.unit, kind: c.kind, summary };
+    }),
+    data,
+    rowNumbers: dataRows.map((r) => r.row),
+    preview: {
+      rowNumbers: previewRows.map((r) => r.row),
+      cells: previewRows.map((r) => cols.map((c) => (r.cells[c.index] ?? EMPTY).text)),
+    },
+  };
+}
