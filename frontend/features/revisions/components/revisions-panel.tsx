@@ -113,7 +113,7 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
               <th scope="col" className="h-8 w-14 px-4 text-right">
                 Rev
               </th>
-              <th scope="col" className="px-3">
+              <th scope="col" className="w-full px-3">
                 Stack
               </th>
               <th scope="col" className="px-3">

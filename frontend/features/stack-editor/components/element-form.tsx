@@ -124,7 +124,7 @@ function IdentitySection({ index, el, list }: { index: number; el: StackElement;
   };
   return (
     <Section title="Element">
-      <div className="grid grid-cols-[1.2fr_1.3fr_1fr] gap-2">
+      <div className="grid grid-cols-2 gap-2">
         <FieldShell label="Id" error={idLocal ?? fieldError(list, "id")} hint="names metrics, e.g. mag.tiltDeg">
           {({ id, describedBy, invalid }) => (
             <TextInput
@@ -171,7 +171,9 @@ function IdentitySection({ index, el, list }: { index: number; el: StackElement;
             </SelectInput>
           )}
         </FieldShell>
-        <FieldShell label="Stage" error={fieldError(list, "stage")} hint="when its deviations arise">
+      </div>
+      <div className="mt-2 grid grid-cols-[1fr_1.6fr] gap-2">
+        <FieldShell label="Stage" error={fieldError(list, "stage")}>
           {({ id, describedBy, invalid }) => (
             <SelectInput
               id={id}
@@ -190,8 +192,7 @@ function IdentitySection({ index, el, list }: { index: number; el: StackElement;
             </SelectInput>
           )}
         </FieldShell>
-      </div>
-      <FieldShell label="Name" className="mt-2" error={fieldError(list, "name")}>
+      <FieldShell label="Name" error={fieldError(list, "name")}>
         {({ id, invalid }) => (
           <TextInput
             id={id}
@@ -204,6 +205,7 @@ function IdentitySection({ index, el, list }: { index: number; el: StackElement;
           />
         )}
       </FieldShell>
+      </div>
     </Section>
   );
 }

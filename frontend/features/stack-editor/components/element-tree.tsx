@@ -84,18 +84,18 @@ export function ElementTree() {
                 "group relative mx-1.5 flex h-8 cursor-pointer items-center gap-2 rounded-md pr-2 text-[13px] outline-none select-none",
                 isSel ? "bg-ink text-paper" : "text-ink hover:bg-ink/[0.05] focus-visible:ring-2 focus-visible:ring-gyro/40",
               )}
-              style={{ paddingLeft: 8 + r.depth * 14 }}
+              style={{ paddingLeft: 8 + r.depth * 12 }}
             >
               {r.depth > 0 ? (
                 <span
                   aria-hidden="true"
                   className={cn("absolute top-0 bottom-1/2 w-2 rounded-bl border-b border-l", isSel ? "border-paper/30" : "border-ink/20")}
-                  style={{ left: 8 + (r.depth - 1) * 14 + 4 }}
+                  style={{ left: 8 + (r.depth - 1) * 12 + 4 }}
                 />
               ) : null}
               <span className="size-2.5 shrink-0 rounded-[2px] ring-1 ring-black/10" style={{ background: KIND_COLOR[r.kind] }} aria-hidden="true" />
-              <span className="min-w-0 truncate font-semibold">{r.id || "(no id)"}</span>
-              <span className={cn("truncate text-[11px]", isSel ? "text-paper/60" : "text-ink/45")}>{KIND_SHORT[r.kind]}</span>
+              <span className="max-w-[70%] shrink-0 truncate font-semibold">{r.id || "(no id)"}</span>
+              <span className={cn("min-w-0 truncate text-[11px]", isSel ? "text-paper/60" : "text-ink/45")}>{KIND_SHORT[r.kind]}</span>
               {problems ? (
                 <span
                   className={cn(

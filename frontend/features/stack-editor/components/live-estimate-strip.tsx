@@ -16,7 +16,7 @@ function Figure({ label, value, unit, sub, title, testId }: { label: string; val
   return (
     <div className="min-w-0 px-4 py-2.5" title={title}>
       <p className="truncate text-[10.5px] font-bold tracking-[0.08em] text-ink/50 uppercase">{label}</p>
-      <p className="mt-0.5 flex items-baseline gap-1 whitespace-nowrap">
+      <p className={cn("mt-0.5 flex items-baseline whitespace-nowrap", unit === "°" ? "gap-0" : "gap-1")}>
         <span className="num text-[20px] leading-6 font-extrabold tracking-[-0.01em] text-ink" data-testid={testId}>
           {value}
         </span>
@@ -68,7 +68,7 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
         </span>
       </header>
       {summary ? (
-        <div className={cn("grid grid-cols-[repeat(3,minmax(0,1fr))_minmax(0,1.6fr)] divide-x divide-line transition-opacity", stale && "opacity-55")}>
+        <div className={cn("grid grid-cols-[repeat(3,minmax(0,1fr))_minmax(0,1.5fr)] divide-x divide-line transition-opacity", stale && "opacity-55")}>
           {summary.heading ? (
             <Figure
               label="Heading error · p99"
@@ -119,7 +119,7 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
               ) : null}
             </p>
             {total ? (
-              <ul className="mt-1 grid grid-cols-2 gap-x-4 gap-y-0.5" aria-label="Predicted yield per requirement">
+              <ul className={cn("mt-1 grid gap-x-4 gap-y-0.5", summary.requirements.length > 4 ? "grid-cols-2" : "grid-cols-1")} aria-label="Predicted yield per requirement">
                 {summary.requirements.map((r) => (
                   <li key={r.index} className="flex min-w-0 items-center gap-1.5 text-[11px]">
                     <span className={cn("size-1.5 shrink-0 rounded-full", r.passes ? "bg-pass" : "bg-fail")} aria-hidden="true" />

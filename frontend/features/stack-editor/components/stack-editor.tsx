@@ -269,7 +269,7 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
 
       <LiveEstimateStrip estimate={estimate} problems={validateStackFile(doc.stack).ok ? 0 : localIssues.filter((i) => !i.path.startsWith("requirements")).length} />
 
-      <div className="mt-3 grid gap-3 xl:h-[660px] xl:grid-cols-[210px_minmax(360px,0.95fr)_minmax(0,1.2fr)]">
+      <div className="mt-3 grid gap-3 xl:h-[660px] xl:grid-cols-[228px_minmax(360px,0.95fr)_minmax(0,1.15fr)]">
         <Card title="Elements" meta={`${doc.stack.elements.length}`} className="max-xl:h-[360px]">
           <ElementTree />
         </Card>

@@ -282,7 +282,7 @@ export function ToleranceFields({
           )}
         </FieldShell>
       </div>
-      <div className="mt-1.5 grid grid-cols-[1fr_2fr] gap-1.5">
+      <div className="mt-1.5 grid grid-cols-[1fr_1.6fr] gap-1.5">
         <FieldShell label="Stage" error={err("stage")}>
           {({ id, invalid }) => (
             <StageSelect id={id} invalid={invalid} value={tol.stage} inherited={inheritedStage} disabled={readOnly} onChange={(s) => setAt([...path, "stage"], s)} />

@@ -25,15 +25,15 @@ import { NumberInput, SelectInput, TextInput } from "./fields";
 import { DistSelect, OwnerPicker, StageSelect, withDist } from "./tolerance-controls";
 
 const COLUMNS: { key: SortKey; label: string; align?: "right"; className?: string }[] = [
-  { key: "element", label: "Element", className: "w-[9%]" },
-  { key: "source", label: "Source", className: "w-[21%]" },
-  { key: "dist", label: "Distribution", className: "w-[10%]" },
-  { key: "tol", label: "± Tolerance", align: "right", className: "w-[10%]" },
-  { key: "sigmas", label: "Sigmas", align: "right", className: "w-[7%]" },
-  { key: "mean", label: "Mean shift", align: "right", className: "w-[10%]" },
-  { key: "sigma", label: "σ", align: "right", className: "w-[7%]" },
-  { key: "stage", label: "Stage", className: "w-[10%]" },
-  { key: "owner", label: "Owner", className: "w-[16%]" },
+  { key: "element", label: "Element", className: "w-[8%]" },
+  { key: "source", label: "Source", className: "w-[17%]" },
+  { key: "dist", label: "Distribution", className: "w-[9.5%]" },
+  { key: "tol", label: "± Tolerance", align: "right", className: "w-[9%]" },
+  { key: "sigmas", label: "Sigmas", align: "right", className: "w-[6.5%]" },
+  { key: "mean", label: "Mean shift", align: "right", className: "w-[8.5%]" },
+  { key: "sigma", label: "1 σ", align: "right", className: "w-[7.5%]" },
+  { key: "stage", label: "Stage", className: "w-[14%]" },
+  { key: "owner", label: "Owner", className: "w-[20%]" },
 ];
 
 export function ToleranceTable() {
@@ -50,15 +50,11 @@ export function ToleranceTable() {
   return (
     <div>
       <div className="flex flex-wrap items-center gap-2 border-b border-line px-3 py-2">
-        <TextInput
-          type="search"
-          aria-label="Filter tolerance sources"
-          placeholder="Filter: source, element, owner…"
-          value={text}
-          onChange={(e) => setText(e.target.value)}
-          className="w-64"
-        />
-        <SelectInput aria-label="Stage" value={stage} onChange={(e) => setStage(e.target.value)} className="w-36">
+        <div className="w-64">
+          <TextInput type="search" aria-label="Filter tolerance sources" placeholder="Filter: source, element, owner…" value={text} onChange={(e) => setText(e.target.value)} />
+        </div>
+        <div className="w-36">
+        <SelectInput aria-label="Stage filter" value={stage} onChange={(e) => setStage(e.target.value)}>
           <option value="">Every stage</option>
           {["die", "package", "board", "product"].map((s) => (
             <option key={s} value={s}>
@@ -66,7 +62,9 @@ export function ToleranceTable() {
             </option>
           ))}
         </SelectInput>
-        <SelectInput aria-label="Owner filter" value={owner} onChange={(e) => setOwner(e.target.value)} className="w-52">
+        </div>
+        <div className="w-56">
+        <SelectInput aria-label="Owner filter" value={owner} onChange={(e) => setOwner(e.target.value)}>
           <option value="*">Every owner</option>
           {owners.map((o) => (
             <option key={o || "(none)"} value={o}>
@@ -74,6 +72,7 @@ export function ToleranceTable() {
             </option>
           ))}
         </SelectInput>
+        </div>
         <span className="ml-auto text-[11px] text-ink/50 tabular-nums">
           {rows.length === all.length ? `${all.length} sources` : `${rows.length} of ${all.length} sources`}
           {noOwner ? <span className="ml-2 font-semibold text-[#a1461f]">{noOwner} without an owner</span> : null}
