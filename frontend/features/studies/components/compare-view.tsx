@@ -19,7 +19,7 @@ import {
   sourceChanges,
   type ChangeTone,
 } from "../lib/compare";
-import { formatNumber, formatPct, formatPpm, formatYield } from "../lib/format";
+import { formatNumber, formatPct, formatPpm, formatYield, formatYieldRange } from "../lib/format";
 import { groupMetrics, metricLabel } from "../lib/metrics";
 import { PERCENTILES, type PercentileKey } from "../lib/percentiles";
 import { SERIES_A, SERIES_B } from "./chart-theme";
@@ -383,7 +383,7 @@ function YieldCell({ r }: { r: ResultFile["requirements"][number] | null }) {
     <>
       <span className={cn("font-semibold", r.passes ? "text-pass" : "text-fail")}>{formatYield(r.predictedYield)}</span>
       <div className="text-2xs text-ink/50">
-        {formatYield(r.ci[0])} – {formatYield(r.ci[1])}
+        {formatYieldRange(r.ci[0], r.ci[1])}
       </div>
     </>
   );

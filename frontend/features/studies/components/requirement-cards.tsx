@@ -1,7 +1,7 @@
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Badge } from "@frontend/components/ui/badge";
 import { cn } from "@frontend/lib/cn";
-import { formatCount, formatDeg, formatMrad, formatPct, formatPpm, formatYield } from "../lib/format";
+import { formatCount, formatDeg, formatMrad, formatPct, formatPpm, formatYield, formatYieldRange } from "../lib/format";
 import { metricLabel } from "../lib/metrics";
 
 type Requirement = ResultFile["requirements"][number];
@@ -103,7 +103,7 @@ function RequirementCard({
       <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 px-4 pb-3 pl-5 text-xs">
         <dt className="text-ink/55">95 % interval</dt>
         <dd className="num text-ink">
-          {formatYield(r.ci[0])} – {formatYield(r.ci[1])}
+          {formatYieldRange(r.ci[0], r.ci[1])}
         </dd>
         <dt className="text-ink/55">Out of limit</dt>
         <dd className={cn("num font-semibold", r.passes ? "text-ink" : "text-fail")}>{formatPpm(r.ppmOut)}</dd>

@@ -45,15 +45,26 @@ export function formatValue(v: number, unit: MetricUnit, significant = 3): strin
 /** The unit as a short axis label. */
 export const unitLabel = (unit: MetricUnit) => (unit === "%" ? "%" : "deg");
 
+/** Decimals of a yield in % so the fraction out shows two significant figures (at least two). */
+function yieldDecimals(y: number): number {
+  const out = 1 - y;
+  return out <= 0 ? 2 : Math.min(6, Math.max(2, Math.ceil(-Math.log10(out * 100)) + 1));
+}
+
 /**
  * A yield fraction as a percentage: 0.99275 → "99.28 %"; 0.999912 → "99.9912 %". Enough
  * decimals that the fraction out shows with two significant figures, at least two.
  */
-export function formatYield(y: number): string {
+export function formatYield(y: number, decimals = yieldDecimals(y)): string {
   if (!Number.isFinite(y)) return "—";
-  const out = 1 - y;
-  const decimals = out <= 0 ? 2 : Math.min(6, Math.max(2, Math.ceil(-Math.log10(out * 100)) + 1));
   return `${(y * 100).toFixed(decimals)} %`;
+}
+
+/** An interval of yields, both ends with the same decimals: "99.876 – 99.905 %". */
+export function formatYieldRange(lo: number, hi: number): string {
+  if (!Number.isFinite(lo) || !Number.isFinite(hi)) return "—";
+  const d = Math.max(yieldDecimals(lo), yieldDecimals(hi));
+  return `${(lo * 100).toFixed(d)} – ${(hi * 100).toFixed(d)} %`;
 }
 
 /** Parts per million out: "7,250 ppm"; under 10 with one decimal. */
