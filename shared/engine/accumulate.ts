@@ -27,6 +27,12 @@ export const ENVELOPE_BITS = 4;
 export const metricStore = (counts?: Uint32Array) => new LogHistogram(METRIC_BITS, -24, 40, counts);
 export const envelopeStore = (counts?: Uint32Array) => new LogHistogram(ENVELOPE_BITS, -14, 22, counts);
 const METRIC_LEN = 2 * metricStore(new Uint32Array(0)).perSign;
+// bit layout of metricStore's buckets, for the inlined index in runBlock
+const METRIC_SHIFT = 20 - METRIC_BITS;
+const METRIC_BASE = (1023 - 24) << METRIC_BITS;
+const F64 = new Float64Array(1);
+const U32 = new Uint32Array(F64.buffer);
+const HI_WORD = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1 ? 1 : 0;
 const ENVELOPE_LEN = 2 * envelopeStore(new Uint32Array(0)).perSign;
 
 /**
@@ -198,28 +204,43 @@ export function runBlock(m: Model, plan: Plan, st: WorkerState, block: number): 
   const nAtt = st.nAtt;
   const firstTrial = block * BLOCK_SIZE;
 
+  // |v| a value must reach to enter the worst list of metric k (−1 while the list has room)
+  const K = st.worstK;
+  const thr = new Float64Array(nM).fill(K > 0 ? -1 : Infinity);
+  const refreshThr = (k: number) => {
+    thr[k] = st.worstTrial[k * K + K - 1] >= 0 ? Math.abs(st.worstVal[k * K + K - 1]) : -1;
+  };
+  if (K > 0) for (let k = 0; k < nM; k++) refreshThr(k);
+  const perSign = hist.perSign;
+
   for (let i = 0; i < n; i++) {
     sampler.next(draws);
     evaluateTrial(m, draws, s);
     const vals = s.metrics;
-    const cnt = i + 1;
+    const invCnt = 1 / (i + 1);
     for (let k = 0; k < nM; k++) {
       const v = vals[k];
       // Welford
       const mean = moments[2 * k];
       const d = v - mean;
-      const nm = mean + d / cnt;
+      const nm = mean + d * invCnt;
       moments[2 * k] = nm;
       moments[2 * k + 1] += d * (v - nm);
-      stHist[k * hLen + hist.index(v)]++;
+      // metricStore().index(v), inlined: the exponent and top mantissa bits of |v|
+      F64[0] = v;
+      const hi = U32[HI_WORD];
+      let b = ((hi & 0x7fffffff) >>> METRIC_SHIFT) - METRIC_BASE + 1;
+      if (b < 1) b = 0;
+      else if (b > perSign - 2) b = perSign - 1;
+      stHist[k * hLen + (hi >>> 31 ? perSign + b : b)]++;
       const a = v < 0 ? -v : v;
       if (a < minAbs[k]) minAbs[k] = a;
       if (a > maxAbs[k]) maxAbs[k] = a;
       if (v < vMin[k]) vMin[k] = v;
       if (v > vMax[k]) vMax[k] = v;
-      if (st.worstK > 0) {
-        const lt = st.worstTrial[k * st.worstK + st.worstK - 1];
-        if (lt < 0 || a >= Math.abs(st.worstVal[k * st.worstK + st.worstK - 1])) insertWorst(st, k, v, firstTrial + i);
+      if (a >= thr[k]) {
+        insertWorst(st, k, v, firstTrial + i);
+        refreshThr(k);
       }
     }
     for (let r = 0; r < reqs.length; r++) {
