@@ -120,7 +120,6 @@ export default function StackViewer({
       return { set: poseSet(vm, drawn, drawsFor(vm, { kind: "nominal" })), poseError: `${message}: showing the nominal pose.` };
     }
     // choiceKey stands for choice
-    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [vm, drawn, choiceKey]);
 
   // decided once per mount: the context cannot change its multisampling later

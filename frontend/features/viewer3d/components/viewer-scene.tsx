@@ -39,7 +39,7 @@ import {
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
 import type { StackFile } from "@shared/schemas/stack-file";
 import { isSensorKind } from "@shared/schemas/stack-file";
-import { boardBounds, emptyBounds, fitDistance, packageBounds, presetDirection, type ViewPreset } from "../lib/framing";
+import { boardBounds, emptyBounds, fitDistance, packageBounds, packageFilter, presetDirection, shownBounds, type ViewPreset } from "../lib/framing";
 import { labelTexture } from "../lib/label-texture";
 import {
   AXIS_COLOUR,
@@ -250,13 +250,16 @@ function clippedMaterials(m: Materials, stack: StackFile) {
 
 /** 1 mm grid over the board's top face, with every fifth line brighter. */
 function BoardGrid({ stack, poseSet, materials }: { stack: StackFile; poseSet: PoseSet; materials: Materials }) {
+  const bi = stack.elements.findIndex((e) => e.parent === null);
+  const footprint =
+    bi < 0
+      ? ""
+      : [stack.elements[bi].size.x, stack.elements[bi].size.y, poseSet.Pnom[3 * bi], poseSet.Pnom[3 * bi + 1], poseSet.Pnom[3 * bi + 2] + stack.elements[bi].size.z].join(",");
   const geometries = useMemo(() => {
-    const bi = stack.elements.findIndex((e) => e.parent === null);
-    if (bi < 0) return null;
-    const b = stack.elements[bi];
-    const cx = poseSet.Pnom[3 * bi], cy = poseSet.Pnom[3 * bi + 1];
-    const z = poseSet.Pnom[3 * bi + 2] + b.size.z + 0.002;
-    const hx = b.size.x / 2, hy = b.size.y / 2;
+    if (!footprint) return null;
+    const [sx, sy, cx, cy, top] = footprint.split(",").map(Number);
+    const z = top + 0.002;
+    const hx = sx / 2, hy = sy / 2;
     const minor: number[] = [], major: number[] = [];
     for (let x = Math.ceil(cx - hx); x <= cx + hx + 1e-9; x++) (x % 5 === 0 ? major : minor).push(x, cy - hy, z, x, cy + hy, z);
     for (let y = Math.ceil(cy - hy); y <= cy + hy + 1e-9; y++) (y % 5 === 0 ? major : minor).push(cx - hx, y, z, cx + hx, y, z);
@@ -266,7 +269,7 @@ function BoardGrid({ stack, poseSet, materials }: { stack: StackFile; poseSet: P
       return g;
     };
     return { minor: make(minor), major: make(major) };
-  }, [stack, poseSet]);
+  }, [footprint]);
   useEffect(() => () => {
     geometries?.minor.dispose();
     geometries?.major.dispose();
@@ -380,7 +383,6 @@ const HEAD_L = 0.13;
 export function ViewerScene(props: ViewerSceneProps) {
   const { stack, poseSet, exaggeration, explode, section, showAxes, hoveredIndex, selectedIndex, view, onHover, onSelect, onApi, onFrame } = props;
   const gl = useThree((s) => s.gl);
-  const scene = useThree((s) => s.scene);
   const camera = useThree((s) => s.camera) as PerspectiveCamera;
   const size = useThree((s) => s.size);
   const invalidate = useThree((s) => s.invalidate);
@@ -391,7 +393,6 @@ export function ViewerScene(props: ViewerSceneProps) {
 
   // Materials depend on the element list only: a tolerance edit keeps them.
   const structureKey = stack.elements.map((e) => `${e.id}:${e.kind}`).join("|");
-  // eslint-disable-next-line react-hooks/exhaustive-deps
   const materials = useMemo(() => makeMaterials(stack), [structureKey]);
   useEffect(() => () => disposeMaterials(materials), [materials]);
 
@@ -425,7 +426,8 @@ export function ViewerScene(props: ViewerSceneProps) {
       m.needsUpdate = true;
     }
     invalidate();
-  }, [gl, materials, stack, plane, sectionOn, invalidate]);
+    // the materials follow the element list (structureKey), not every edit of the stack
+  }, [gl, materials, plane, sectionOn, invalidate]);
 
   // ---- hover and selection highlight
   useLayoutEffect(() => {
@@ -452,15 +454,19 @@ export function ViewerScene(props: ViewerSceneProps) {
   const ghostHeadRef = useRef<InstancedMesh>(null);
   const labelRefs = useRef<(Sprite | null)[]>([]);
   // one label per arrow: the axis letter in the axis colour, ringed in the die's colour
+  const sensorKinds = triads.sensors.map((ei) => stack.elements[ei].kind).join("|");
   const labelMaterials = useMemo(
     () =>
-      triads.sensors.flatMap((ei) =>
-        AXIS_NAMES.map((name, a) => {
-          const t = labelTexture(name, AXIS_COLOUR[a], { ring: KIND_COLOUR[stack.elements[ei].kind] });
-          return { material: new SpriteMaterial({ map: t.texture, depthTest: false, depthWrite: false, sizeAttenuation: false }), aspect: t.aspect };
-        }),
-      ),
-    [triads, stack],
+      sensorKinds
+        .split("|")
+        .filter(Boolean)
+        .flatMap((kind) =>
+          AXIS_NAMES.map((name, a) => {
+            const t = labelTexture(name, AXIS_COLOUR[a], { ring: KIND_COLOUR[kind as keyof typeof KIND_COLOUR] });
+            return { material: new SpriteMaterial({ map: t.texture, depthTest: false, depthWrite: false, sizeAttenuation: false }), aspect: t.aspect };
+          }),
+        ),
+    [sensorKinds],
   );
   useEffect(() => () => labelMaterials.forEach((l) => l.material.dispose()), [labelMaterials]);
   useLayoutEffect(() => {
@@ -511,6 +517,8 @@ export function ViewerScene(props: ViewerSceneProps) {
     () => ({ m: new Matrix4(), q: new Quaternion(), o: new Vector3(), d: new Vector3(), s: new Vector3(), h: new Vector3(), z: new Vector3(0, 0, 1), bounds: emptyBounds() }),
     [],
   );
+  const inPackage = useMemo(() => packageFilter(stack), [stack]);
+  const arrowMeshes = useMemo(() => [shaftRef, headRef, ghostShaftRef, ghostHeadRef], []);
   const applied = useRef(-1);
   useFrame(() => {
     if (applied.current === version.current) return;
@@ -538,8 +546,9 @@ export function ViewerScene(props: ViewerSceneProps) {
         sel.matrixWorldNeedsUpdate = true;
       }
     }
-    const meshes = [shaftRef.current, headRef.current, ghostShaftRef.current, ghostHeadRef.current];
-    triads.sensors.forEach((ei, si) => {
+    const shaft = shaftRef.current, head = headRef.current, ghostShaft = ghostShaftRef.current, ghostHead = ghostHeadRef.current;
+    for (let si = 0; si < triads.sensors.length; si++) {
+      const ei = triads.sensors[si];
       const e = stack.elements[ei];
       const len = triads.length[si];
       const r = 9 * ei;
@@ -552,17 +561,18 @@ export function ViewerScene(props: ViewerSceneProps) {
         q.setFromUnitVectors(z, d);
         const shaftLen = len - HEAD_L;
         m.compose(o, q, s.set(SHAFT_R, SHAFT_R, shaftLen));
-        meshes[0]?.setMatrixAt(k, m);
-        meshes[2]?.setMatrixAt(k, m);
+        shaft?.setMatrixAt(k, m);
+        ghostShaft?.setMatrixAt(k, m);
         const hx = o.x + d.x * shaftLen, hy = o.y + d.y * shaftLen, hz = o.z + d.z * shaftLen;
         m.compose(h.set(hx, hy, hz), q, s.set(HEAD_R, HEAD_R, HEAD_L));
-        meshes[1]?.setMatrixAt(k, m);
-        meshes[3]?.setMatrixAt(k, m);
+        head?.setMatrixAt(k, m);
+        ghostHead?.setMatrixAt(k, m);
         const label = labelRefs.current[k];
         if (label) label.position.set(o.x + d.x * (len + 0.09), o.y + d.y * (len + 0.09), o.z + d.z * (len + 0.09));
       }
-    });
-    for (const mesh of meshes) {
+    }
+    for (let j = 0; j < arrowMeshes.length; j++) {
+      const mesh = arrowMeshes[j].current;
       if (!mesh) continue;
       mesh.instanceMatrix.needsUpdate = true;
       mesh.computeBoundingSphere();
@@ -572,18 +582,18 @@ export function ViewerScene(props: ViewerSceneProps) {
     if (line) {
       line.visible = sectionOn;
       if (sectionOn) {
-        const b = scratch.bounds;
-        const pb = packageBounds(stack, shown);
-        for (let c = 0; c < 3; c++) {
-          b.min[c] = pb.min[c] - 0.25;
-          b.max[c] = pb.max[c] + 0.25;
-        }
+        const b = shownBounds(stack, shown, inPackage, scratch.bounds);
         const pos = outlineGeometry.getAttribute("position") as BufferAttribute;
-        const v = section.value;
-        const corners = section.axis === "x"
-          ? [[v, b.min[1], b.min[2]], [v, b.max[1], b.min[2]], [v, b.max[1], b.max[2]], [v, b.min[1], b.max[2]], [v, b.min[1], b.min[2]]]
-          : [[b.min[0], v, b.min[2]], [b.max[0], v, b.min[2]], [b.max[0], v, b.max[2]], [b.min[0], v, b.max[2]], [b.min[0], v, b.min[2]]];
-        corners.forEach((p, k) => pos.setXYZ(k, p[0], p[1], p[2]));
+        const v = section.value, pad = 0.25;
+        const z0 = b.min[2] - pad, z1 = b.max[2] + pad;
+        // a rectangle in the plane, around the package (the fifth point closes it)
+        const along = section.axis === "x" ? 1 : 0;
+        const u0 = b.min[along] - pad, u1 = b.max[along] + pad;
+        for (let k = 0; k < 5; k++) {
+          const u = k === 1 || k === 2 ? u1 : u0, z = k === 2 || k === 3 ? z1 : z0;
+          if (along === 1) pos.setXYZ(k, v, u, z);
+          else pos.setXYZ(k, u, v, z);
+        }
         pos.needsUpdate = true;
         outlineGeometry.computeBoundingSphere();
       }
@@ -614,8 +624,7 @@ export function ViewerScene(props: ViewerSceneProps) {
     }
     invalidate();
     // the request alone triggers a move; later pose changes do not
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [view.nonce, controls]);
+    }, [view.nonce, controls]);
   useFrame((_, delta) => {
     const r = rig.current;
     if (!r.active || !controls) return;
@@ -743,8 +752,8 @@ function FrameIndicatorContent({ mainCamera }: { mainCamera: PerspectiveCamera }
       <group position={[size.width / 2 - 58, -size.height / 2 + 58, 0]}>
         <sprite material={items.caption.material} position={[-14, -14, 0]} scale={[16 * items.caption.aspect, 16, 1]} />
         <group ref={group}>
-          {dirs.map((d, a) => (
-            <group key={a} rotation={rot[a]}>
+          {rot.map((r, a) => (
+            <group key={a} rotation={r}>
               <mesh geometry={items.shaft} material={items.mats[a]} scale={[1, 1, L - 8]} />
               <mesh geometry={items.head} material={items.mats[a]} position={[0, 0, L - 9]} />
             </group>

@@ -16,13 +16,15 @@ export function emptyBounds(): Bounds {
   return { min: [Infinity, Infinity, Infinity], max: [-Infinity, -Infinity, -Infinity] };
 }
 
-/** Box corners of the chosen elements (with their bond lines) in the shown pose. */
+/** Box corners of the chosen elements (with their bond lines) in the shown pose. Allocates nothing when given `out`. */
 export function shownBounds(stack: StackFile, shown: ShownPose, include: (index: number) => boolean, out: Bounds = emptyBounds()): Bounds {
   out.min[0] = out.min[1] = out.min[2] = Infinity;
   out.max[0] = out.max[1] = out.max[2] = -Infinity;
   const R = shown.R, P = shown.P;
-  stack.elements.forEach((e, i) => {
-    if (!include(i)) return;
+  const els = stack.elements;
+  for (let i = 0; i < els.length; i++) {
+    const e = els[i];
+    if (!include(i)) continue;
     const hx = e.size.x / 2, hy = e.size.y / 2;
     const z0 = -(e.bondLine?.thicknessUm ?? 0) * 1e-3, z1 = e.size.z;
     for (let c = 0; c < 8; c++) {
@@ -33,14 +35,18 @@ export function shownBounds(stack: StackFile, shown: ShownPose, include: (index:
         if (v > out.max[r]) out.max[r] = v;
       }
     }
-  });
+  }
   return out;
 }
 
-/** The package: every element but the board; the board alone when there is nothing else. */
-export function packageBounds(stack: StackFile, shown: ShownPose): Bounds {
+/** Which elements make the package: every one but the board, or the board when it is alone. */
+export function packageFilter(stack: StackFile): (index: number) => boolean {
   const hasPackage = stack.elements.some((e) => e.parent !== null);
-  return shownBounds(stack, shown, (i) => (hasPackage ? stack.elements[i].parent !== null : true));
+  return hasPackage ? (i) => stack.elements[i].parent !== null : () => true;
+}
+
+export function packageBounds(stack: StackFile, shown: ShownPose, out?: Bounds): Bounds {
+  return shownBounds(stack, shown, packageFilter(stack), out);
 }
 
 export function boardBounds(stack: StackFile, shown: ShownPose): Bounds {
