@@ -39,6 +39,13 @@ describe("same seed, same numbers, whatever the number of threads", () => {
     await expect(run).rejects.toBeInstanceOf(StudyAbortedError);
   });
 
+  it("the in-process runner stops between blocks when asked, with the blocks done so far", () => {
+    let calls = 0;
+    const r = runStudy(stack, baseStudy, { trials: 40_000, shouldStop: () => ++calls > 2 });
+    expect(r.stopped).toBe(true);
+    expect(r.trials).toBe(2 * 4096);
+  });
+
   it("worst trials are regenerated from the seed with the full pose of every element", () => {
     const r = runStudy(stack, baseStudy, { trials: 5000 });
     const worst = r.worstTrials["heading.maxAbsDeg"];
