@@ -187,6 +187,19 @@ function lighten(hex: string, t: number): Color {
   return new Color(hex).lerp(new Color("#ffffff"), t);
 }
 
+/**
+ * Seen through a cut, a box shows its inner faces; drawn flat with a diagonal hatch in
+ * screen space, they read as cut material, as on a drawing's section view.
+ */
+function hatchCut(shader: { fragmentShader: string }) {
+  shader.fragmentShader = shader.fragmentShader.replace(
+    "#include <dithering_fragment>",
+    `#include <dithering_fragment>
+    float hatch = step(mod(gl_FragCoord.x + gl_FragCoord.y, 7.0), 1.6);
+    gl_FragColor.rgb = mix(gl_FragColor.rgb, vec3(1.0), hatch * 0.3);`,
+  );
+}
+
 function makeMaterials(stack: StackFile) {
   const elements: ElementMaterials[] = stack.elements.map((e) => {
     const colour = KIND_COLOUR[e.kind];
@@ -200,7 +213,9 @@ function makeMaterials(stack: StackFile) {
       polygonOffsetUnits: board ? 4 : 1,
     });
     const edge = new LineBasicMaterial({ color: lighten(colour, board ? 0.25 : 0.45), transparent: true, opacity: board ? 0.55 : 0.9 });
-    const cap = new MeshBasicMaterial({ color: new Color(colour).multiplyScalar(0.55), side: BackSide });
+    const cap = new MeshBasicMaterial({ color: new Color(colour).multiplyScalar(0.7), side: BackSide });
+    cap.onBeforeCompile = hatchCut;
+    cap.customProgramCacheKey = () => "orthostack-section-hatch";
     return { body, edge, cap };
   });
   const bond = new MeshStandardMaterial({
