@@ -92,4 +92,169 @@ describe("the stack editor", () => {
     console.info(`live estimate after an edit: ${took} ms (heading p99 ${before}° -> ${after}°)`);
     expect(unexpectedProblems(problems)).toEqual([]);
   });
+
+  it("builds a small stack from an empty project in the editor alone, with inline errors and a warning before leaving", async () => {
+    const { page, problems } = await e2e.session();
+    await signInAs(page, "engineer@example.com");
+    await page.getByRole("button", { name: "New project" }).click();
+    const dialog = page.getByRole("dialog", { name: "New project" });
+    await dialog.getByLabel("Project name").fill("Harbour compass module, rev A");
+    await dialog.getByRole("button", { name: "Create project" }).click();
+    await page.getByRole("heading", { name: "Harbour compass module, rev A", level: 1 }).waitFor();
+    await page.getByText("No stack yet").waitFor();
+    await page.getByRole("button", { name: "New stack" }).click();
+
+    // A board only; its size first.
+    const tree = page.getByRole("tree", { name: "Elements" });
+    await tree.waitFor();
+    await expect(tree.getByRole("treeitem").count()).resolves.toBe(1);
+    await page.getByLabel("Length x").fill("30");
+    await page.getByLabel("Width y").fill("20");
+
+    // The package substrate on the board, renamed "pkg".
+    await page.getByRole("button", { name: "Add on board" }).click();
+    await page.getByRole("menuitem", { name: "Substrate" }).click();
+    await tree.getByRole("treeitem", { name: /^substrate,/ }).waitFor();
+    const id = page.getByLabel("Id", { exact: true });
+    await id.fill("pkg");
+    await id.press("Enter");
+    await tree.getByRole("treeitem", { name: /^pkg,/, selected: true }).waitFor();
+    await page.getByLabel("Position x").fill("4");
+    await page.getByLabel("Position y").fill("-2");
+    await page.getByRole("button", { name: "Add height of each support tolerance" }).click();
+    await page.getByRole("group", { name: "Height of each support tolerance" }).getByLabel("± Tolerance").fill("12");
+
+    // An accelerometer and a magnetometer on it.
+    await page.getByRole("button", { name: "Add on pkg" }).click();
+    await page.getByRole("menuitem", { name: "Accelerometer die" }).click();
+    await tree.getByRole("treeitem", { name: /^accel,/, selected: true }).waitFor();
+    await page.getByRole("button", { name: "Add axis alignment, each angle tolerance" }).click();
+    await page.getByRole("group", { name: "Axis alignment, each angle tolerance" }).getByLabel("± Tolerance").fill("0.5");
+    await tree.getByRole("treeitem", { name: /^pkg,/ }).click();
+    await page.getByRole("button", { name: "Add on pkg" }).click();
+    await page.getByRole("menuitem", { name: "Magnetometer die" }).click();
+    await tree.getByRole("treeitem", { name: /^mag,/, selected: true }).waitFor();
+    await page.getByRole("button", { name: "Add height of each support tolerance" }).click();
+    await page.getByRole("group", { name: "Height of each support tolerance" }).getByLabel("± Tolerance").fill("3");
+
+    // Off its parent's footprint: the validator's message under the field, the tree marks it, nothing is saved.
+    await page.getByLabel("Position x").fill("5");
+    await page.getByRole("group", { name: "Element mag" }).getByText(/The centre of "mag" at \(5, 0\) mm is off the .* top face of its parent "pkg"/).waitFor();
+    await page.getByRole("region", { name: "Problems" }).getByText("mag", { exact: true }).waitFor();
+    await tree.getByRole("treeitem", { name: /^mag, magnetometer, 1 problem/ }).waitFor();
+    await page.getByText("Not saved: 1 problem to fix").waitFor();
+    await screenshot(page, "editor-new-stack-error");
+
+    // Leaving now warns, because the server does not have the last edits.
+    await page.getByRole("link", { name: "Harbour compass module, rev A" }).click();
+    const leave = page.getByRole("dialog", { name: "Leave without saving?" });
+    await leave.waitFor();
+    await leave.getByRole("button", { name: "Cancel" }).click();
+    await leave.waitFor({ state: "detached" });
+    await tree.waitFor();
+
+    await page.getByLabel("Position x").fill("0.5");
+    await expect(page.getByText(/is off the/).count()).resolves.toBe(0);
+    await waitSaved(page);
+
+    // The compass pair is there: the estimate shows a heading error; a requirement gets its predicted yield.
+    await page.getByRole("button", { name: "Add requirement" }).click();
+    await expect(page.getByLabel("Requirement 1 metric").inputValue()).resolves.toBe("heading.maxAbsDeg");
+    await page.getByLabel("Requirement 1 limit").fill("1.5");
+    await page.getByLabel("Requirement 1 yield target").fill("0.99");
+    await page.getByRole("list", { name: "Predicted yield per requirement" }).getByText("heading.maxAbsDeg").waitFor({ timeout: 30_000 });
+    const heading = await settledHeading(page);
+    expect(Number(heading)).toBeGreaterThan(0);
+    await waitSaved(page);
+    await screenshot(page, "editor-new-stack");
+
+    // Reload: the tree and values come back from the server.
+    await page.reload();
+    await tree.waitFor();
+    const ids = await tree.getByRole("treeitem").evaluateAll((els) => els.map((e) => e.getAttribute("data-id")));
+    expect(ids).toEqual(["board", "pkg", "accel", "mag"]);
+    await expect(page.getByLabel("pkg.bondLine tolerance").inputValue()).resolves.toBe("12");
+    await expect(page.getByLabel("accel.axis tolerance").inputValue()).resolves.toBe("0.5");
+    expect(unexpectedProblems(problems)).toEqual([]);
+  });
+
+  it("opens an approved revision read-only, starts a draft from it, exports and imports stack files", async () => {
+    const { page, problems } = await e2e.session();
+    await signInAs(page, "engineer@example.com");
+    await openDemoRevision(page, 1);
+    await page.getByText(/^Approved by .*: frozen\.$/).waitFor();
+    await expect(page.getByLabel("mag.bondLine tolerance").isDisabled()).resolves.toBe(true);
+    await expect(page.getByRole("button", { name: "Submit for review" }).count()).resolves.toBe(0);
+    await screenshot(page, "editor-approved-read-only");
+
+    // Export: the file is the stack as stored.
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Export" }).click()]);
+    expect(download.suggestedFilename()).toMatch(/-rev1\.stack\.json$/);
+    const exported = JSON.parse(await streamText(await download.createReadStream()));
+    const stored = await page.evaluate(async () => {
+      const path = location.pathname.split("/");
+      return (await (await fetch(`/api/revisions/${path[path.length - 1]}`)).json()).stack;
+    });
+    expect(exported).toEqual(stored);
+
+    // A new draft from the approved revision opens editable, with the same content.
+    await page.getByRole("button", { name: "Start a new draft from this revision" }).click();
+    await page.getByRole("heading", { name: "Revision 3", level: 1 }).waitFor();
+    await expect(page.getByLabel("mag.bondLine tolerance").isDisabled()).resolves.toBe(false);
+
+    // Import a broken file: refused with the paths of its problems, the draft unchanged.
+    const broken = { ...exported, elements: exported.elements.map((e: { id: string; size: object }) => (e.id === "mag" ? { ...e, size: { x: 0, y: 1, z: 0.2 } } : e)) };
+    await page.getByTestId("import-stack-file").setInputFiles({ name: "broken.stack.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(broken)) });
+    const refused = page.getByRole("dialog", { name: "This stack file cannot be imported" });
+    await refused.getByText("elements[5].size.x").waitFor();
+    await refused.getByText("The length size.x (mm) must be greater than 0").waitFor();
+    await screenshot(page, "editor-import-refused");
+    await refused.getByRole("button", { name: "Close" }).first().click();
+
+    // Import a good one: it replaces the stack in one undoable step.
+    const renamed = { ...exported, name: "Imported variant", elements: exported.elements.filter((e: { id: string }) => e.id !== "gyro" && e.id !== "accel" && e.id !== "mag") };
+    await page.getByTestId("import-stack-file").setInputFiles({ name: "variant.stack.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(renamed)) });
+    await expect(page.getByRole("tree", { name: "Elements" }).getByRole("treeitem").count()).resolves.toBe(3);
+    // The requirements on the removed dies are now flagged, and the draft is not saved until they are fixed or undone.
+    await page.getByText(/problems in this draft/).waitFor();
+    await page.getByRole("button", { name: "Undo" }).click();
+    await expect(page.getByRole("tree", { name: "Elements" }).getByRole("treeitem").count()).resolves.toBe(6);
+    expect(unexpectedProblems(problems)).toEqual([]);
+  });
+
+  it("goes through review: the engineer submits, the reviewer sends it back with a comment", async () => {
+    const engineer = await e2e.session();
+    await signInAs(engineer.page, "engineer@example.com");
+    await openDemoRevision(engineer.page, 2);
+    await engineer.page.getByRole("button", { name: "Submit for review" }).click();
+    await engineer.page.getByText(/^In review since/).waitFor();
+    await expect(engineer.page.getByLabel("mag.bondLine tolerance").isDisabled()).resolves.toBe(true);
+
+    const reviewer = await e2e.session();
+    await signInAs(reviewer.page, "reviewer@example.com");
+    await openDemoRevision(reviewer.page, 2);
+    await reviewer.page.getByRole("button", { name: "Approve…" }).waitFor();
+    await reviewer.page.getByRole("button", { name: "Send back…" }).click();
+    const back = reviewer.page.getByRole("dialog", { name: "Send revision 2 back" });
+    await back.getByRole("button", { name: "Send back to draft" }).click();
+    await back.getByText("Say why the revision goes back").waitFor();
+    await back.getByLabel("Reason").fill("The film attach on the magnetometer needs the supplier's bond-line data first.");
+    await back.getByRole("button", { name: "Send back to draft" }).click();
+    await back.waitFor({ state: "detached" });
+    await reviewer.page.getByText("Draft, read only for your role").waitFor();
+    await reviewer.page.getByRole("list", { name: "Review notes" }).getByText(/needs the supplier's bond-line data/).waitFor();
+    await screenshot(reviewer.page, "editor-reviewer-sent-back");
+
+    await engineer.page.reload();
+    await engineer.page.getByRole("button", { name: "Submit for review" }).waitFor();
+    await engineer.page.getByRole("list", { name: "Review notes" }).getByText(/sent back/).waitFor();
+    expect(unexpectedProblems(engineer.problems)).toEqual([]);
+    expect(unexpectedProblems(reviewer.problems)).toEqual([]);
+  });
 });
+
+async function streamText(stream: NodeJS.ReadableStream): Promise<string> {
+  const chunks: Buffer[] = [];
+  for await (const c of stream) chunks.push(Buffer.from(c as Buffer));
+  return Buffer.concat(chunks).toString("utf8");
+}

@@ -408,7 +408,7 @@ function AxisSection({ index, el, list, tolProps }: { index: number; el: StackEl
           ))}
         </div>
       ) : (
-        <ToleranceFields {...tolProps("axisTol", ["axisTol"], "Each of the six angles", "deg", "axis", "die")} />
+        <ToleranceFields {...tolProps("axisTol", ["axisTol"], "Axis alignment, each angle", "deg", "axis", "die")} />
       )}
     </Section>
   );

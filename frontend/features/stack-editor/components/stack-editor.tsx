@@ -93,8 +93,9 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
   const [selectedId, setSelectedId] = useState<string | null>(() => initial.stack.elements?.[0]?.id ?? null);
   const select = useCallback((id: string | null) => setSelectedId(id), []);
 
-  const localIssues = useMemo(() => validateDoc(doc), [doc]);
-  const stackValid = useMemo(() => validateStackFile(doc.stack).ok, [doc.stack]);
+  const stackValidation = useMemo(() => validateStackFile(doc.stack), [doc.stack]);
+  const stackValid = stackValidation.ok;
+  const localIssues = useMemo(() => validateDoc(doc, stackValidation), [doc, stackValidation]);
   const autosave = useAutosave({
     revisionId: revision.id,
     doc,
@@ -267,7 +268,7 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
 
       {problemCount > 0 ? <ProblemList issues={issues} doc={doc} onSelect={select} saving={editable} /> : null}
 
-      <LiveEstimateStrip estimate={estimate} problems={validateStackFile(doc.stack).ok ? 0 : localIssues.filter((i) => !i.path.startsWith("requirements")).length} />
+      <LiveEstimateStrip estimate={estimate} problems={stackValidation.ok ? 0 : stackValidation.issues.length} />
 
       <div className="mt-3 grid gap-3 xl:h-[660px] xl:grid-cols-[228px_minmax(360px,0.95fr)_minmax(0,1.15fr)]">
         <Card title="Elements" meta={`${doc.stack.elements.length}`} className="max-xl:h-[360px]">

@@ -5,7 +5,7 @@
  * and the field inside it, which is the key the form and the tables look up.
  */
 import { metricIds } from "@shared/engine/model";
-import { formatPath, fromZodError, validateStackFile, type FieldIssue } from "@shared/schemas/stack-file";
+import { formatPath, fromZodError, validateStackFile, type FieldIssue, type StackValidation } from "@shared/schemas/stack-file";
 import { RequirementSchema } from "@shared/schemas/study-file";
 import type { EditorDoc } from "./stack-ops";
 
@@ -70,8 +70,7 @@ export function fromServerFields(fields: ReadonlyArray<{ path: string; message: 
  * file's schema and cross-element checks, each requirement's schema, and whether the
  * stack offers the metric a requirement names.
  */
-export function validateDoc(doc: EditorDoc): FieldIssue[] {
-  const v = validateStackFile(doc.stack);
+export function validateDoc(doc: EditorDoc, v: StackValidation = validateStackFile(doc.stack)): FieldIssue[] {
   const issues: FieldIssue[] = v.ok ? [] : [...v.issues];
   let ids: Set<string> | null = null;
   try {
