@@ -13,6 +13,10 @@ import { chromium, type Browser, type Page } from "playwright-core";
 import { createServer, type Plugin, type ViteDevServer } from "vite";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { rotVec } from "@shared/engine/rotation";
+import { poseOfTrial } from "@shared/engine/study";
+import { StackFileSchema } from "@shared/schemas/stack-file";
+import { StudyFileSchema } from "@shared/schemas/study-file";
+import { compileForViewer, poseSet, trialDraws } from "@frontend/features/viewer3d/lib/poses";
 import { exaggerateDirection, exaggerateRotation, logRotation } from "@frontend/features/viewer3d/lib/rotation-math";
 
 const ROOT = fileURLToPath(new URL("../..", import.meta.url));
@@ -60,6 +64,42 @@ describe("exaggeration of rotations", () => {
     exaggerateDirection(u, 0, 1, 100, out, 0);
     expect(out[0]).toBeCloseTo(0, 14);
     expect(Math.atan2(out[2], out[1])).toBeCloseTo(100 * a, 12);
+  });
+});
+
+describe("poses for the view", () => {
+  const stack = StackFileSchema.parse(JSON.parse(readFileSync(join(ROOT, "tests/fixtures/stack-reference.json"), "utf8")));
+  const study = StudyFileSchema.parse(JSON.parse(readFileSync(join(ROOT, "tests/fixtures/study-reference.json"), "utf8")));
+
+  it("a regenerated trial is the engine's poseOfTrial, for random and Latin-hypercube sampling", () => {
+    for (const s of [study, { ...study, sampling: "lhs" as const, trials: 5000 }]) {
+      const vm = compileForViewer(stack, s);
+      for (const trial of [0, 1348, 4999]) {
+        const set = poseSet(vm, stack, trialDraws(vm, trial));
+        const ref = poseOfTrial(stack, s, trial);
+        ref.elements.forEach((e, i) => {
+          expect(set.ids[i]).toBe(e.id);
+          for (let k = 0; k < 9; k++) expect(set.R[9 * i + k]).toBe(e.R[k]);
+          for (let k = 0; k < 3; k++) expect(set.P[3 * i + k]).toBe(e.position[k]);
+        });
+        expect(set.metrics[set.metricIds.indexOf("heading.maxAbsDeg")]).toBe(ref.metrics["heading.maxAbsDeg"]);
+      }
+    }
+  });
+
+  it("the local offsets rebuild the engine's positions, and the nominal pose has no tilt", () => {
+    const vm = compileForViewer(stack, study);
+    const set = poseSet(vm, stack, trialDraws(vm, 7));
+    for (let i = 0; i < set.count; i++) {
+      const q = set.parent[i];
+      if (q < 0) continue;
+      for (let r = 0; r < 3; r++) {
+        const p = set.P[3 * q + r] + set.R[9 * q + 3 * r] * set.L[3 * i] + set.R[9 * q + 3 * r + 1] * set.L[3 * i + 1] + set.R[9 * q + 3 * r + 2] * set.L[3 * i + 2];
+        expect(p).toBeCloseTo(set.P[3 * i + r], 12);
+      }
+    }
+    const nominal = poseSet(compileForViewer(stack, undefined), stack, new Float64Array(vm.model.drawCount));
+    expect(Math.max(...nominal.tiltDeg)).toBe(0);
   });
 });
 

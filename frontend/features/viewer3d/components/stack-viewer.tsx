@@ -240,7 +240,7 @@ export default function StackViewer({
   useEffect(() => {
     setTrialText(trial != null ? String(trial) : "");
   }, [trial]);
-  const trials = vm?.hasStudy ? vm.study.trials : 0;
+  const trials = vm?.hasStudy ? vm.plan.trials : 0;
   const commitTrial = (text: string) => {
     const n = Number(text);
     if (text.trim() === "" || !Number.isInteger(n) || n < 0) {
@@ -570,6 +570,9 @@ export default function StackViewer({
             </div>
           ) : null}
           {poseError ? <div className="mt-0.5 font-semibold text-[#f5a08a]">{poseError}</div> : null}
+          {vm && !vm.exact && choice.kind === "trial" && !poseError ? (
+            <div className="mt-0.5 font-semibold text-[#f5a08a]">The study does not fit the edited stack: this trial is drawn from it only approximately.</div>
+          ) : null}
           {stackIssue && drawn ? <div className="mt-0.5 font-semibold text-[#f5a08a]">Showing the last valid stack. {stackIssue}</div> : null}
         </div>
 

@@ -3,11 +3,15 @@
  * (design intent, the tolerances' means, or one study trial regenerated from its seed),
  * and the element poses that follow from it, in flat arrays the scene reads.
  *
- * Everything here comes from shared/engine: compileModel, poses, meanDraws and
- * drawsOfTrial (sampling.ts), so the view shows exactly what the study computed.
+ * Everything here comes from shared/engine: prepareStudy (the study's plan: sampling
+ * mode, seed and the trial count its blocks were cut from, which for an adaptive study
+ * is not `trials`), drawsOfTrial, poses and evaluateTrial: the same steps as the
+ * engine's poseOfTrial, kept as a draw vector because the view also needs the sensing
+ * axes and re-exaggerates the pose on every slider move.
  */
 import { compileModel, createScratch, evaluateTrial, meanDraws, poses, type Model } from "@shared/engine/model";
-import { drawsOfTrial } from "@shared/engine/sampling";
+import { drawsOfTrial, type SamplingMode } from "@shared/engine/sampling";
+import { prepareStudy } from "@shared/engine/study";
 import { isSensorKind, type ElementKind, type StackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
 import { zAxisAngle } from "./rotation-math";
@@ -22,26 +26,35 @@ export interface ViewerModel {
   study: StudyFile;
   /** true when a real study was given, so trials can be regenerated */
   hasStudy: boolean;
+  /** how the study's trials were drawn: what regenerating one needs */
+  plan: { mode: SamplingMode; seed: number; trials: number };
+  /** false when the study does not fit the stack (mid-edit): trials are then only approximate */
+  exact: boolean;
 }
 
 /**
- * Compile the stack for the view. A study whose compass sensors do not fit the stack
- * (mid-edit) still gives poses: the compass sweep is switched off for the view.
+ * Compile the stack for the view. A study that does not fit the stack (a requirement on
+ * a metric the edited stack no longer has, compass sensors that are gone) still gives
+ * poses: the view compiles without those parts and says that trials are approximate.
  */
 export function compileForViewer(stack: StackFile, study: StudyFile | undefined): ViewerModel {
-  const s = study ?? MINIMAL_STUDY;
+  if (!study) {
+    const model = compileModel(stack, MINIMAL_STUDY);
+    return { model, study: MINIMAL_STUDY, hasStudy: false, plan: { mode: "random", seed: 0, trials: 1 }, exact: true };
+  }
   try {
-    return { model: compileModel(stack, s), study: s, hasStudy: !!study };
-  } catch (error) {
-    if (!study) throw error;
-    const loose: StudyFile = { ...study, heading: false, headingSensors: undefined };
-    return { model: compileModel(stack, loose), study: loose, hasStudy: true };
+    const prep = prepareStudy(stack, study);
+    return { model: prep.model, study: prep.study, hasStudy: true, plan: { mode: prep.plan.mode, seed: prep.plan.seed, trials: prep.plan.trials }, exact: true };
+  } catch {
+    const loose: StudyFile = { ...study, heading: false, headingSensors: undefined, requirements: undefined, adaptive: undefined };
+    const model = compileModel(stack, loose);
+    return { model, study: loose, hasStudy: true, plan: { mode: study.sampling ?? "random", seed: study.seed, trials: study.trials }, exact: false };
   }
 }
 
-/** The draws of a trial, regenerated from the study's seed (engine: drawsOfTrial). */
+/** The draws of a trial, regenerated from the study's seed (engine: drawsOfTrial on the study's plan). */
 export function trialDraws(vm: ViewerModel, index: number): Float64Array {
-  return drawsOfTrial(vm.model, vm.study.sampling ?? "random", vm.study.seed, vm.study.trials, index);
+  return drawsOfTrial(vm.model, vm.plan.mode, vm.plan.seed, vm.plan.trials, index);
 }
 
 export function drawsFor(vm: ViewerModel, choice: PoseChoice): Float64Array {
