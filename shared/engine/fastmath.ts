@@ -49,3 +49,47 @@ export function cosFast(a: number): number {
   const a2 = a * a;
   return 1 - (a2 / 2) * (1 - (a2 / 12) * (1 - (a2 / 30) * (1 - (a2 / 56) * (1 - (a2 / 90) * (1 - (a2 / 132) * (1 - (a2 / 182) * (1 - (a2 / 240) * (1 - a2 / 306))))))));
 }
+
+/*
+ * Out-parameter forms for the trial loop: a double returned from a call the compiler does
+ * not inline is boxed on the heap; written into a Float64Array it is not.
+ */
+
+/** out[i] = atan2Fast(y, x) */
+export function atan2To(y: number, x: number, out: Float64Array, i: number): void {
+  if (x > 0) {
+    const ay = y < 0 ? -y : y;
+    if (ay <= ATAN_LIMIT * x) {
+      const t = y / x;
+      const t2 = t * t;
+      out[i] = t * (1 + t2 * (-1 / 3 + t2 * (1 / 5 + t2 * (-1 / 7 + t2 * (1 / 9 + t2 * (-1 / 11 + t2 * (1 / 13 + t2 * (-1 / 15 + t2 * (1 / 17)))))))));
+      return;
+    }
+  }
+  out[i] = Math.atan2(y, x);
+}
+
+/** out[i + k] = tanFast(a[aOff + k]·scale) for k = 0..n−1 */
+export function tanTo(a: Float64Array, aOff: number, scale: number, n: number, out: Float64Array, i: number): void {
+  for (let k = 0; k < n; k++) {
+    const x = a[aOff + k] * scale;
+    if (x > 0.1 || x < -0.1) {
+      out[i + k] = Math.tan(x);
+      continue;
+    }
+    const x2 = x * x;
+    out[i + k] = x * (1 + x2 * (1 / 3 + x2 * (2 / 15 + x2 * (17 / 315 + x2 * (62 / 2835 + x2 * (1382 / 155925 + x2 * (21844 / 6081075 + x2 * (929569 / 638512875 + x2 * (6404582 / 10854718875)))))))));
+  }
+}
+
+/** out[i] = sinFast(a), out[i + 1] = cosFast(a) */
+export function sinCosTo(a: number, out: Float64Array, i: number): void {
+  if (a > 0.125 || a < -0.125) {
+    out[i] = Math.sin(a);
+    out[i + 1] = Math.cos(a);
+    return;
+  }
+  const a2 = a * a;
+  out[i] = a * (1 - (a2 / 6) * (1 - (a2 / 20) * (1 - (a2 / 42) * (1 - (a2 / 72) * (1 - (a2 / 110) * (1 - (a2 / 156) * (1 - (a2 / 210) * (1 - a2 / 272))))))));
+  out[i + 1] = 1 - (a2 / 2) * (1 - (a2 / 12) * (1 - (a2 / 30) * (1 - (a2 / 56) * (1 - (a2 / 90) * (1 - (a2 / 132) * (1 - (a2 / 182) * (1 - (a2 / 240) * (1 - a2 / 306))))))));
+}

@@ -15,7 +15,7 @@ import { compileDist, type CompiledDist } from "./distributions";
 import { identity, invert, mat3, mul, mulTB, type Mat3 } from "./mat3";
 import { rotVec, rotZ, tiltToSlope } from "./rotation";
 import { buildAttitudes, type Attitudes, headingSweep } from "./heading";
-import { atan2Fast, cosFast, sinFast, tanFast } from "./fastmath";
+import { atan2To, sinCosTo, tanTo } from "./fastmath";
 
 // module-local: an imported binding costs a property load per use in the hot loop
 const DEG = Math.PI / 180;
@@ -341,6 +341,8 @@ export interface Scratch {
   Ck: Float64Array;
   delta: Float64Array; // 9 per sensor, R·Rnomᵀ
   t1: Mat3; t2: Mat3; t3: Mat3; t4: Mat3;
+  /** small results of the fast-math helpers (six axis tangents, a sine and cosine) */
+  fm: Float64Array;
   metrics: Float64Array;
   headingErr: Float64Array; // deg, per attitude
 }
@@ -355,6 +357,7 @@ export function createScratch(m: Model): Scratch {
     Ck: new Float64Array(9 * nS),
     delta: new Float64Array(9 * nS),
     t1: mat3(), t2: mat3(), t3: mat3(), t4: mat3(),
+    fm: new Float64Array(8),
     metrics: new Float64Array(m.metrics.length),
     headingErr: new Float64Array(m.heading ? m.heading.attitudes.count : 0),
   };
@@ -376,8 +379,8 @@ export function orientations(m: Model, draws: Float64Array, R: Float64Array, s: 
     tiltToSlope(w * e.kx, w * e.ky, W);
     // Rz(yaw + dYaw) by angle addition: the deviation is small, the nominal yaw exact
     if (e.yawOff >= 0) {
-      const d = draws[e.yawOff] * DEG;
-      const cd = cosFast(d), sd = sinFast(d);
+      sinCosTo(draws[e.yawOff] * DEG, s.fm, 6);
+      const sd = s.fm[6], cd = s.fm[7];
       const c = e.cosYaw * cd - e.sinYaw * sd, sn = e.sinYaw * cd + e.cosYaw * sd;
       Z[0] = c; Z[1] = -sn; Z[2] = 0; Z[3] = sn; Z[4] = c; Z[5] = 0; Z[6] = 0; Z[7] = 0; Z[8] = 1;
     } else rotZ(e.yaw, Z);
@@ -415,8 +418,9 @@ function crossAxisMatrix(m: Model, si: number, draws: Float64Array, R: Float64Ar
   const U = s.t1;
   if (e.axisOff >= 0) {
     const o = e.axisOff;
-    const g1 = tanFast(draws[o] * DEG), g2 = tanFast(draws[o + 1] * DEG), g3 = tanFast(draws[o + 2] * DEG);
-    const g4 = tanFast(draws[o + 3] * DEG), g5 = tanFast(draws[o + 4] * DEG), g6 = tanFast(draws[o + 5] * DEG);
+    const G = s.fm;
+    tanTo(draws, o, DEG, 6, G, 0);
+    const g1 = G[0], g2 = G[1], g3 = G[2], g4 = G[3], g5 = G[4], g6 = G[5];
     const nx = 1 / Math.sqrt(1 + g1 * g1 + g2 * g2);
     const ny = 1 / Math.sqrt(g3 * g3 + 1 + g4 * g4);
     const nz = 1 / Math.sqrt(g5 * g5 + g6 * g6 + 1);
@@ -497,7 +501,11 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
         const o = 9 * mi.a + 3 * mi.row;
         const i = mi.row, j = i === 2 ? 0 : i + 1, l = i === 0 ? 2 : i - 1;
         const off = Math.sqrt(C[o + j] * C[o + j] + C[o + l] * C[o + l]);
-        out[k] = mi.code === 1 ? (100 * off) / Math.abs(C[o + i]) : atan2Fast(off, C[o + i]) / DEG;
+        if (mi.code === 1) out[k] = (100 * off) / Math.abs(C[o + i]);
+        else {
+          atan2To(off, C[o + i], out, k);
+          out[k] /= DEG;
+        }
         break;
       }
       case 3: {
@@ -506,11 +514,13 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
         // angle between R·ez and Rnom·ez
         const ax = R[o + 2], ay = R[o + 5], az = R[o + 8], bx = Rn[2], by = Rn[5], bz = Rn[8];
         const cx = ay * bz - az * by, cy = az * bx - ax * bz, cz = ax * by - ay * bx;
-        out[k] = atan2Fast(Math.sqrt(cx * cx + cy * cy + cz * cz), ax * bx + ay * by + az * bz) / DEG;
+        atan2To(Math.sqrt(cx * cx + cy * cy + cz * cz), ax * bx + ay * by + az * bz, out, k);
+        out[k] /= DEG;
         break;
       }
       case 4:
-        out[k] = relativeAngleAt(s.delta, 9 * mi.a, 9 * mi.b) / DEG;
+        relativeAngleTo(s.delta, 9 * mi.a, 9 * mi.b, out, k);
+        out[k] /= DEG;
         break;
       case 5:
         out[k] = hMax;
@@ -522,8 +532,8 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
   }
 }
 
-/** Rotation angle of aᵀ·b for a, b at offsets of d (see rotation.relativeAngle). */
-function relativeAngleAt(d: Float64Array, oa: number, ob: number): number {
+/** out[i] = rotation angle of aᵀ·b for a, b at offsets of d (see rotation.relativeAngle). */
+function relativeAngleTo(d: Float64Array, oa: number, ob: number, out: Float64Array, i: number): void {
   let tr = 0;
   for (let k = 0; k < 9; k++) tr += d[oa + k] * d[ob + k];
   // M_ij = Σ_r a_ri b_rj
@@ -534,7 +544,7 @@ function relativeAngleAt(d: Float64Array, oa: number, ob: number): number {
   const m10 = d[oa + 1] * d[ob] + d[oa + 4] * d[ob + 3] + d[oa + 7] * d[ob + 6];
   const m01 = d[oa] * d[ob + 1] + d[oa + 3] * d[ob + 4] + d[oa + 6] * d[ob + 7];
   const sx = m21 - m12, sy = m02 - m20, sz = m10 - m01;
-  return atan2Fast(Math.sqrt(sx * sx + sy * sy + sz * sz), tr - 1);
+  atan2To(Math.sqrt(sx * sx + sy * sy + sz * sz), tr - 1, out, i);
 }
 
 /** Draw vector at the means of every source (the point the linearised model uses). */

@@ -111,6 +111,26 @@ export class Xoshiro128ss {
     return (a * 67108864 + b + 0.5) / 9007199254740992;
   }
 
+  /**
+   * n open uniforms (as nextOpen01) into out, with the state in locals: the trial loop
+   * calls this once per trial, so no double crosses a call boundary (which would box it).
+   */
+  fillOpen01(out: Float64Array, n: number): void {
+    let s0 = this.s0, s1 = this.s1, s2 = this.s2, s3 = this.s3;
+    for (let i = 0; i < n; i++) {
+      let m = Math.imul(s1, 5);
+      const ra = Math.imul((m << 7) | (m >>> 25), 9) >>> 5;
+      let t = s1 << 9;
+      s2 ^= s0; s3 ^= s1; s1 ^= s2; s0 ^= s3; s2 ^= t; s3 = (s3 << 11) | (s3 >>> 21);
+      m = Math.imul(s1, 5);
+      const rb = Math.imul((m << 7) | (m >>> 25), 9) >>> 6;
+      t = s1 << 9;
+      s2 ^= s0; s3 ^= s1; s1 ^= s2; s0 ^= s3; s2 ^= t; s3 = (s3 << 11) | (s3 >>> 21);
+      out[i] = (ra * 67108864 + rb + 0.5) / 9007199254740992;
+    }
+    this.s0 = s0; this.s1 = s1; this.s2 = s2; this.s3 = s3;
+  }
+
   /** Skip n outputs of nextU32. */
   skip(n: number): void {
     for (let i = 0; i < n; i++) this.nextU32();

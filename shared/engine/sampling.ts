@@ -9,7 +9,7 @@
  *   thread count; the variance reduction is that of an n-point hypercube per block.
  */
 import { blockStream, BLOCK_SIZE, type Xoshiro128ss } from "./random";
-import { sampleDist } from "./distributions";
+import { sampleDist, sampleInto } from "./distributions";
 import type { Model } from "./model";
 
 export type SamplingMode = "random" | "lhs";
@@ -25,10 +25,13 @@ export interface BlockSampler {
 }
 
 class RandomSampler implements BlockSampler {
-  constructor(private readonly m: Model, private readonly rng: Xoshiro128ss) {}
+  private readonly u: Float64Array;
+  constructor(private readonly m: Model, private readonly rng: Xoshiro128ss) {
+    this.u = new Float64Array(m.drawCount);
+  }
   next(draws: Float64Array): void {
-    const dd = this.m.drawDist;
-    for (let k = 0; k < dd.length; k++) draws[k] = sampleDist(dd[k], this.rng.nextOpen01());
+    this.rng.fillOpen01(this.u, this.u.length);
+    sampleInto(this.m.drawDist, this.u, 0, draws);
   }
 }
 
@@ -36,10 +39,7 @@ class LhsSampler implements BlockSampler {
   private i = 0;
   constructor(private readonly m: Model, private readonly u: Float64Array, private readonly n: number) {}
   next(draws: Float64Array): void {
-    const dd = this.m.drawDist;
-    const D = dd.length;
-    const o = this.i * D;
-    for (let k = 0; k < D; k++) draws[k] = sampleDist(dd[k], this.u[o + k]);
+    sampleInto(this.m.drawDist, this.u, this.i * this.m.drawCount, draws);
     this.i++;
   }
 }

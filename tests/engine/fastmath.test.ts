@@ -1,7 +1,8 @@
 // The series in shared/engine/fastmath.ts replace Math.* only where they agree with it to
 // rounding; these checks hold them to Math.* (the exact path) over and beyond their ranges.
 import { describe, expect, it } from "vitest";
-import { atan2Fast, cosFast, sinFast, tanFast } from "@shared/engine/fastmath";
+import { atan2Fast, atan2To, cosFast, sinCosTo, sinFast, tanFast, tanTo } from "@shared/engine/fastmath";
+import { compileDist, sampleDist, sampleInto } from "@shared/engine/distributions";
 import { Xoshiro128ss } from "@shared/engine/random";
 
 const g = new Xoshiro128ss(5, 6, 7, 8);
@@ -34,5 +35,40 @@ describe("small-argument series against Math.*", () => {
     expect(wt).toBeLessThan(2);
     expect(ws).toBeLessThan(2);
     expect(wc).toBeLessThan(2);
+  });
+});
+
+describe("out-parameter forms used by the trial loop", () => {
+  it("atan2To, tanTo, sinCosTo give the same numbers as atan2Fast, tanFast, sinFast/cosFast", () => {
+    const out = new Float64Array(8);
+    const a = new Float64Array(6);
+    for (let i = 0; i < 20_000; i++) {
+      const x = rnd() * 3, y = rnd() * 0.5;
+      atan2To(y, x, out, 0);
+      expect(out[0]).toBe(atan2Fast(y, x));
+      for (let k = 0; k < 6; k++) a[k] = rnd() * 8;
+      tanTo(a, 0, Math.PI / 180, 6, out, 1);
+      for (let k = 0; k < 6; k++) expect(out[1 + k]).toBe(tanFast(a[k] * (Math.PI / 180)));
+      const t = rnd() * 0.3;
+      sinCosTo(t, out, 6);
+      expect(out[6]).toBe(sinFast(t));
+      expect(out[7]).toBe(cosFast(t));
+    }
+  });
+
+  it("sampleInto (AS 241 inlined) gives exactly the draws of sampleDist", () => {
+    const dists = [
+      compileDist({ dist: "normal", tol: 3, mean: 0.5 }),
+      compileDist({ dist: "uniform", tol: 2 }),
+      compileDist({ dist: "triangular", tol: 1, mean: -1 }),
+      compileDist({ dist: "data", values: [3, 1, 2] }),
+    ];
+    const u = new Float64Array(dists.length);
+    const out = new Float64Array(dists.length);
+    for (let i = 0; i < 50_000; i++) {
+      for (let k = 0; k < u.length; k++) u[k] = i % 97 === 0 ? 10 ** (-13 * g.nextOpen01()) : g.nextOpen01();
+      sampleInto(dists, u, 0, out);
+      for (let k = 0; k < u.length; k++) expect(out[k]).toBe(sampleDist(dists[k], u[k]));
+    }
   });
 });
