@@ -10,6 +10,7 @@ import { meRouter } from "./routes/me";
 import { membersRouter } from "./routes/members";
 import { projectsRouter } from "./routes/projects";
 import { publicRouter } from "./routes/public";
+import { reportsRouter } from "./routes/reports";
 import { revisionsRouter } from "./routes/revisions";
 import { studiesRouter } from "./routes/studies";
 import { suppliersRouter } from "./routes/suppliers";
@@ -68,7 +69,9 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   app.use("/api", membersRouter(deps));
   app.use("/api", revisionsRouter(deps));
   app.use("/api", studiesRouter(deps));
+  // Data sets and reports both own paths under /reports/:id/.
   app.use("/api", datasetsRouter(deps));
+  app.use("/api", reportsRouter(deps));
   app.use("/api", notFoundApi);
 
   options.mountClient?.(app);

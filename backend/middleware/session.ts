@@ -75,4 +75,7 @@ export const can = {
   write: ["admin", "engineer"] as Role[],
   review: ["admin", "reviewer"] as Role[],
   administer: ["admin"] as Role[],
+  /** reports: staff see the workspace's, a supplier only its company's released ones (checked in the service) */
+  readReports: ["admin", "engineer", "reviewer", "supplier"] as Role[],
+  supplier: ["supplier"] as Role[],
 };

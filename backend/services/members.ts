@@ -7,6 +7,7 @@ import type { Database } from "../db/client";
 import { invitations, members, suppliers, users, workspaces } from "../db/schema";
 import { badRequest, conflict, found, HttpError } from "../lib/errors";
 import type { Actor } from "../middleware/session";
+import { mailInvitation } from "./invitation-mail";
 
 const INVITATION_DAYS = 7;
 
@@ -122,7 +123,8 @@ export async function createInvitation(db: Database, actor: Actor, input: z.infe
       })
       .returning();
   });
-  return toInvitation(row, baseURL);
+  const mailed = await mailInvitation(db, actor, row, invitationLink(baseURL, token));
+  return { ...toInvitation(row, baseURL), mailed };
 }
 
 export async function revokeInvitation(db: Database, workspaceId: string, id: string) {

@@ -101,6 +101,8 @@ export const InvitationSchema = z.object({
   link: z.string().nullable(),
   createdAt: z.string(),
   expiresAt: z.string(),
+  /** only when just created: whether the link went out by e-mail (the link above stays valid either way) */
+  mailed: z.boolean().optional(),
 });
 export type Invitation = z.infer<typeof InvitationSchema>;
 export const InvitationListSchema = z.object({ invitations: z.array(InvitationSchema) });

@@ -7,10 +7,11 @@ import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { createApp } from "@backend/app";
 import { readFileSync } from "node:fs";
-import { datasets, invitations, members, projects, reports, stackRevisions, studies, supplierContacts, suppliers, users } from "@backend/db/schema";
+import { datasets, invitations, members, outboxMessages, projects, reports, stackRevisions, studies, supplierContacts, suppliers, users } from "@backend/db/schema";
 import type { Role } from "@shared/schemas/common";
 import { startTestApp, type TestApp } from "./harness";
 import { registeredApiRoutes } from "./route-table";
+import { insertFinishedStudy } from "./report-fixtures";
 
 const REFERENCE = JSON.parse(readFileSync(new URL("../fixtures/stack-reference.json", import.meta.url), "utf8"));
 
@@ -125,6 +126,48 @@ async function freshReleasedReport(c: Ctx) {
 }
 const MEASUREMENTS = { name: "first-build.csv", content: "unit,yaw [deg]\nU1,0.01\nU2,-0.02\n" };
 
+/** A report for Larkfield on a project of its own (one draft per project and supplier). */
+async function freshReport(c: Ctx, status: "draft" | "released" = "draft") {
+  const f = await insertFinishedStudy(c.t.handle.db, { workspaceId: c.workspaceId });
+  const r = await c.t.call("POST", `/api/studies/${f.studyId}/reports`, { cookie: cookies.engineer, body: { supplierId: c.supplierId } });
+  if (r.status !== 201) throw new Error(`report fixture: ${JSON.stringify(r.body)}`);
+  if (status === "released") {
+    const rel = await c.t.call("POST", `/api/reports/${r.body.id}/release`, { cookie: cookies.reviewer, body: {} });
+    if (rel.status !== 200) throw new Error(`report fixture release: ${JSON.stringify(rel.body)}`);
+  }
+  return r.body.id as string;
+}
+let sharedReleased: Promise<string> | undefined;
+const releasedReport = (c: Ctx) => (sharedReleased ??= freshReport(c, "released"));
+async function freshOutboxMessage(c: Ctx) {
+  const raw = Buffer.from(
+    [
+      "From: orthostack@localhost",
+      "To: someone@example.com",
+      "Subject: fixture",
+      'Content-Type: multipart/mixed; boundary="b1"',
+      "",
+      "--b1",
+      "Content-Type: text/plain",
+      "",
+      "hello",
+      "--b1",
+      'Content-Type: text/csv; name="a.csv"',
+      'Content-Disposition: attachment; filename="a.csv"',
+      "Content-Transfer-Encoding: base64",
+      "",
+      Buffer.from("a,b\n").toString("base64"),
+      "--b1--",
+      "",
+    ].join("\r\n"),
+  );
+  const [m] = await c.t.handle.db
+    .insert(outboxMessages)
+    .values({ workspaceId: c.workspaceId, mailFrom: "orthostack@localhost", recipients: ["someone@example.com"], subject: "fixture", size: raw.length, raw, attachments: [{ fileName: "a.csv", contentType: "text/csv", size: 4 }] })
+    .returning();
+  return m.id;
+}
+
 export const ROUTES: Row[] = [
   { route: "GET /api/health", allowed: "public" },
   { route: "GET /api/invitations/by-token/:token", allowed: "public", path: async (c) => `/api/invitations/by-token/${(await freshInvitation(c)).token}` },
@@ -170,6 +213,26 @@ export const ROUTES: Row[] = [
   { route: "POST /api/studies/:id/cancel", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c)}/cancel` },
   { route: "POST /api/studies/:id/rerun", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c, "failed")}/rerun` },
   { route: "GET /api/geomagnetic-field", allowed: STAFF, path: () => "/api/geomagnetic-field?latitudeDeg=52&longitudeDeg=-1&altitudeKm=0&date=2026-06-01" },
+  { route: "GET /api/projects/:id/report-options", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/report-options` },
+  {
+    route: "POST /api/studies/:id/reports",
+    allowed: WRITERS,
+    path: async (c) => `/api/studies/${(await insertFinishedStudy(c.t.handle.db, { workspaceId: c.workspaceId })).studyId}/reports`,
+    body: (c) => ({ supplierId: c.supplierId }),
+  },
+  { route: "GET /api/reports", allowed: EVERYONE },
+  { route: "GET /api/reports/:id", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}` },
+  { route: "PATCH /api/reports/:id", allowed: WRITERS, path: async (c) => `/api/reports/${await freshReport(c)}`, body: () => ({ note: "changed" }) },
+  { route: "DELETE /api/reports/:id", allowed: WRITERS, path: async (c) => `/api/reports/${await freshReport(c)}` },
+  { route: "POST /api/reports/:id/release", allowed: REVIEWERS, path: async (c) => `/api/reports/${await freshReport(c)}/release` },
+  { route: "POST /api/reports/:id/send", allowed: STAFF, path: async (c) => `/api/reports/${await releasedReport(c)}/send` },
+  { route: "POST /api/reports/:id/acknowledge", allowed: ["supplier"], path: async (c) => `/api/reports/${await freshReport(c, "released")}/acknowledge` },
+  { route: "POST /api/reports/:id/comments", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}/comments`, body: () => ({ body: "Which side is the datum?" }) },
+  { route: "GET /api/reports/:id/pdf", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}/pdf` },
+  { route: "GET /api/reports/:id/xlsx", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}/xlsx` },
+  { route: "GET /api/reports/:id/csv", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}/csv` },
+  { route: "GET /api/outbox", allowed: ADMIN },
+  { route: "GET /api/outbox/:id/attachments/:index", allowed: ADMIN, path: async (c) => `/api/outbox/${await freshOutboxMessage(c)}/attachments/0` },
   { route: "GET /api/projects/:id/datasets", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/datasets` },
   { route: "POST /api/projects/:id/datasets", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}/datasets`, upload: MEASUREMENTS },
   { route: "GET /api/datasets/:id", allowed: STAFF, path: async (c) => `/api/datasets/${await freshDataset(c)}` },

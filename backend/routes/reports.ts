@@ -1,0 +1,123 @@
+import { Router } from "express";
+import { IdParamsSchema } from "@shared/schemas/common";
+import {
+  AcknowledgeReportSchema,
+  CreateReportSchema,
+  OutboxAttachmentParamsSchema,
+  ReleaseReportSchema,
+  REPORT_FILE_KINDS,
+  ReportListQuerySchema,
+  SendReportSchema,
+  UpdateReportSchema,
+} from "@shared/schemas/reports";
+import { CommentBodySchema } from "@shared/schemas/revisions";
+import type { AppDeps } from "../deps";
+import { parse } from "../lib/validate";
+import { actorOf, allow, can } from "../middleware/session";
+import { listOutbox, outboxAttachment } from "../services/outbox";
+import {
+  acknowledgeReport,
+  addReportComment,
+  createReport,
+  deleteReport,
+  getReport,
+  listReports,
+  releaseReport,
+  reportFile,
+  reportOptions,
+  sendReport,
+  updateReport,
+} from "../services/reports";
+
+/** `attachment; filename=…` with an ASCII fallback and the exact UTF-8 name (RFC 6266). */
+function disposition(name: string) {
+  const ascii = name.replace(/[^\x20-\x7e]/g, "_").replace(/"/g, "");
+  return `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(name)}`;
+}
+
+export function reportsRouter({ db, baseURL }: AppDeps) {
+  const r = Router();
+
+  r.get("/projects/:id/report-options", allow(...can.readWorkspace), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.json(await reportOptions(db, actorOf(req), id));
+  });
+
+  r.post("/studies/:id/reports", allow(...can.write), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const input = parse(CreateReportSchema, req);
+    res.status(201).json(await createReport(db, actorOf(req), id, input, baseURL));
+  });
+
+  r.get("/reports", allow(...can.readReports), async (req, res) => {
+    const query = parse(ReportListQuerySchema, req, "query");
+    res.json({ reports: await listReports(db, actorOf(req), query) });
+  });
+
+  r.get("/reports/:id", allow(...can.readReports), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.json(await getReport(db, actorOf(req), id, baseURL));
+  });
+
+  r.patch("/reports/:id", allow(...can.write), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const input = parse(UpdateReportSchema, req);
+    res.json(await updateReport(db, actorOf(req), id, input, baseURL));
+  });
+
+  r.delete("/reports/:id", allow(...can.write), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    await deleteReport(db, actorOf(req), id);
+    res.status(204).end();
+  });
+
+  r.post("/reports/:id/release", allow(...can.review), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const { comment } = parse(ReleaseReportSchema, req);
+    res.json(await releaseReport(db, actorOf(req), id, comment, baseURL));
+  });
+
+  r.post("/reports/:id/send", allow(...can.readWorkspace), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const { message } = parse(SendReportSchema, req);
+    res.json(await sendReport(db, actorOf(req), id, message, baseURL));
+  });
+
+  r.post("/reports/:id/acknowledge", allow(...can.supplier), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const { comment } = parse(AcknowledgeReportSchema, req);
+    res.json(await acknowledgeReport(db, actorOf(req), id, comment, baseURL));
+  });
+
+  r.post("/reports/:id/comments", allow(...can.readReports), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const { body } = parse(CommentBodySchema, req);
+    res.status(201).json({ comments: await addReportComment(db, actorOf(req), id, body) });
+  });
+
+  for (const kind of REPORT_FILE_KINDS) {
+    r.get(`/reports/:id/${kind}`, allow(...can.readReports), async (req, res) => {
+      const { id } = parse(IdParamsSchema, req, "params");
+      const file = await reportFile(db, actorOf(req), id, kind, baseURL);
+      res.setHeader("content-type", file.contentType);
+      res.setHeader("content-disposition", disposition(file.fileName));
+      res.setHeader("cache-control", "private, no-store");
+      if (file.sha256) res.setHeader("x-content-sha256", file.sha256);
+      res.send(file.data);
+    });
+  }
+
+  r.get("/outbox", allow(...can.administer), async (req, res) => {
+    res.json(await listOutbox(db, actorOf(req).workspaceId));
+  });
+
+  r.get("/outbox/:id/attachments/:index", allow(...can.administer), async (req, res) => {
+    const { id, index } = parse(OutboxAttachmentParamsSchema, req, "params");
+    const a = await outboxAttachment(db, actorOf(req).workspaceId, id, index);
+    res.setHeader("content-type", a.contentType);
+    res.setHeader("content-disposition", disposition(a.fileName));
+    res.send(a.content);
+  });
+
+  return r;
+}

@@ -1,0 +1,290 @@
+/**
+ * Supplier tolerance reports: API bodies, responses, and the frozen content a report is
+ * printed from. Limits are named so the client's forms and the server agree.
+ */
+import { z } from "zod";
+import { DEFAULT_CPK, MAX_CPK, MIN_CPK } from "../reports/capability";
+import { IdSchema } from "./common";
+import { EnvelopeSchema } from "./result-file";
+import { CommentSchema } from "./revisions";
+
+export const REPORT_STATUSES = ["draft", "released"] as const;
+export const ReportStatusSchema = z.enum(REPORT_STATUSES);
+export type ReportStatus = z.infer<typeof ReportStatusSchema>;
+export const REPORT_FILE_KINDS = ["pdf", "xlsx", "csv"] as const;
+export const ReportFileKindSchema = z.enum(REPORT_FILE_KINDS, { message: "the file must be pdf, xlsx or csv" });
+export type ReportFileKind = z.infer<typeof ReportFileKindSchema>;
+
+/** Largest 3D snapshot accepted, as data-URL text (about 1.4 MB of PNG). */
+export const SNAPSHOT_MAX_CHARS = 1_900_000;
+export const NOTE_MAX = 2000;
+
+const cpk = (what: string) =>
+  z
+    .number({ message: `${what} must be a number` })
+    .min(MIN_CPK, { message: `${what} must be at least ${MIN_CPK}` })
+    .max(MAX_CPK, { message: `${what} must be at most ${MAX_CPK}` });
+
+export const PngDataUrlSchema = z
+  .string({ message: "snapshotPng must be a PNG data URL" })
+  .max(SNAPSHOT_MAX_CHARS, { message: "the snapshot is too large: export it at most about 1.4 MB" })
+  .regex(/^data:image\/png;base64,[A-Za-z0-9+/]+={0,2}$/, { message: "snapshotPng must be a data URL of a PNG image (data:image/png;base64,…)" });
+
+const overrides = z
+  .record(z.string().min(1).max(140), cpk("a capability override"), { message: "cpkOverrides must map source ids to a Cpk" })
+  .refine((o) => Object.keys(o).length <= 500, { message: "at most 500 overrides" });
+
+const note = z.string({ message: "note must be text" }).trim().max(NOTE_MAX, { message: `note must be at most ${NOTE_MAX} characters` });
+
+export const CreateReportSchema = z.object({
+  supplierId: IdSchema,
+  cpk: cpk("cpk").default(DEFAULT_CPK),
+  cpkOverrides: overrides.default({}),
+  note: note.default(""),
+  snapshotPng: PngDataUrlSchema.optional(),
+});
+export type CreateReport = z.infer<typeof CreateReportSchema>;
+
+export const UpdateReportSchema = z
+  .object({
+    cpk: cpk("cpk").optional(),
+    cpkOverrides: overrides.optional(),
+    note: note.optional(),
+    /** null removes the snapshot (the PDF then draws the schematic side view) */
+    snapshotPng: PngDataUrlSchema.nullable().optional(),
+  })
+  .refine((v) => Object.values(v).some((x) => x !== undefined), { message: "give cpk, cpkOverrides, note or snapshotPng to change" });
+export type UpdateReport = z.infer<typeof UpdateReportSchema>;
+
+export const ReportListQuerySchema = z.object({
+  projectId: IdSchema.optional(),
+  supplierId: IdSchema.optional(),
+  status: ReportStatusSchema.optional(),
+});
+
+const shortText = (what: string) => z.string({ message: `${what} must be text` }).trim().max(NOTE_MAX, { message: `${what} must be at most ${NOTE_MAX} characters` });
+export const ReleaseReportSchema = z.object({ comment: shortText("comment").optional() });
+export const SendReportSchema = z.object({ message: shortText("message").optional() });
+export const AcknowledgeReportSchema = z.object({ comment: shortText("comment").optional() });
+
+// ---- the frozen content -----------------------------------------------------------
+export const ReportToleranceSchema = z.object({
+  source: z.string(),
+  elementId: z.string(),
+  elementName: z.string(),
+  elementKind: z.string(),
+  quantity: z.string(),
+  unit: z.enum(["um", "deg"]),
+  stage: z.string(),
+  dist: z.enum(["normal", "uniform", "triangular", "data"]),
+  /** ± half-width; null for a measured data set */
+  tol: z.number().nullable(),
+  sigmas: z.number().nullable(),
+  mean: z.number(),
+  draws: z.number().int(),
+  owner: z.string(),
+  cpk: z.number(),
+  cpkChosen: z.number(),
+  raised: z.boolean(),
+  sigmaMax: z.number().nullable(),
+  sigmaModelled: z.number().nullable(),
+  /** the requirements this source contributes to, with its share there */
+  feeds: z.array(z.object({ metric: z.string(), share: z.number() })),
+});
+export type ReportTolerance = z.infer<typeof ReportToleranceSchema>;
+
+export const ReportRequirementSchema = z.object({
+  metric: z.string(),
+  description: z.string(),
+  unit: z.string(),
+  max: z.number(),
+  yield: z.number(),
+  predictedYield: z.number(),
+  ci: z.tuple([z.number(), z.number()]),
+  ppmOut: z.number(),
+  passes: z.boolean(),
+  /** share of the metric's spread from this supplier's tolerances; null without contributor data */
+  supplierShare: z.number().nullable(),
+  /** true when the supplier's tolerances carry a noticeable share of it */
+  fed: z.boolean(),
+});
+export type ReportRequirement = z.infer<typeof ReportRequirementSchema>;
+
+export const ReportContributorChartSchema = z.object({
+  metric: z.string(),
+  description: z.string(),
+  basis: z.enum(["variance", "meanSquare"]),
+  bars: z.array(z.object({ source: z.string(), share: z.number(), ours: z.boolean() })),
+  /** what the sources not drawn add up to */
+  restShare: z.number(),
+});
+
+export const ReportStackElementSchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  kind: z.string(),
+  parent: z.string().nullable(),
+  size: z.object({ x: z.number(), y: z.number(), z: z.number() }),
+  position: z.object({ x: z.number(), y: z.number() }),
+  yawDeg: z.number(),
+  bondThicknessUm: z.number(),
+  /** this supplier's sources on the element */
+  sources: z.array(z.string()),
+});
+
+export const ReportContentSchema = z.object({
+  format: z.literal("orthostack.report/1"),
+  builtAt: z.string(),
+  project: z.object({ id: IdSchema, name: z.string() }),
+  revision: z.object({ id: IdSchema, number: z.number().int(), name: z.string(), approvedAt: z.string().nullable(), approvedByName: z.string().nullable() }),
+  study: z.object({
+    id: IdSchema,
+    number: z.number().int(),
+    label: z.string(),
+    finishedAt: z.string().nullable(),
+    trials: z.number().int(),
+    seed: z.number(),
+    engine: z.string(),
+    sampling: z.string(),
+    inclinationDeg: z.number(),
+    site: z.object({ latitudeDeg: z.number(), longitudeDeg: z.number(), altitudeKm: z.number(), date: z.string(), model: z.string() }).nullable(),
+    calibration: z.object({ after: z.string(), residual: z.string().nullable() }),
+    headingStepDeg: z.number(),
+    tilts: z.array(z.object({ pitchDeg: z.number(), rollDeg: z.number() })),
+    passes: z.boolean().nullable(),
+  }),
+  supplier: z.object({ id: IdSchema, name: z.string(), kind: z.string() }),
+  capability: z.object({ cpk: z.number(), overrides: z.record(z.string(), z.number()) }),
+  tolerances: z.array(ReportToleranceSchema),
+  requirements: z.array(ReportRequirementSchema),
+  contributors: z.array(ReportContributorChartSchema),
+  envelope: EnvelopeSchema.nullable(),
+  headingLimit: z.number().nullable(),
+  stack: z.array(ReportStackElementSchema),
+  cautions: z.array(z.string()),
+});
+export type ReportContent = z.infer<typeof ReportContentSchema>;
+
+// ---- responses ------------------------------------------------------------------------
+export const ReportSummarySchema = z.object({
+  id: IdSchema,
+  /** "TR-0007" */
+  code: z.string(),
+  number: z.number().int(),
+  revision: z.number().int(),
+  status: ReportStatusSchema,
+  projectId: IdSchema,
+  projectName: z.string(),
+  supplierId: IdSchema.nullable(),
+  supplierName: z.string(),
+  studyId: IdSchema.nullable(),
+  studyNumber: z.number().int(),
+  stackRevisionNumber: z.number().int(),
+  toleranceCount: z.number().int(),
+  cpk: z.number(),
+  /** false when a later revision of the same report exists */
+  isLatest: z.boolean(),
+  createdAt: z.string(),
+  createdByName: z.string().nullable(),
+  releasedAt: z.string().nullable(),
+  releasedByName: z.string().nullable(),
+  acknowledgedAt: z.string().nullable(),
+  acknowledgedByName: z.string().nullable(),
+  lastSentAt: z.string().nullable(),
+});
+export type ReportSummary = z.infer<typeof ReportSummarySchema>;
+export const ReportListSchema = z.object({ reports: z.array(ReportSummarySchema) });
+
+export const ReportFileInfoSchema = z.object({
+  kind: ReportFileKindSchema,
+  fileName: z.string(),
+  size: z.number().int(),
+  sha256: z.string(),
+  createdAt: z.string(),
+});
+export const ReportSendSchema = z.object({
+  id: IdSchema,
+  sentAt: z.string(),
+  sentByName: z.string().nullable(),
+  recipients: z.array(z.object({ name: z.string(), email: z.string() })),
+  message: z.string(),
+});
+export const ReportDownloadSchema = z.object({ at: z.string(), userName: z.string().nullable(), role: z.string(), kind: z.string() });
+
+export const ReportSchema = ReportSummarySchema.extend({
+  capability: z.object({ cpk: z.number(), overrides: z.record(z.string(), z.number()) }),
+  note: z.string(),
+  hasSnapshot: z.boolean(),
+  content: ReportContentSchema,
+  /** stored files of a released report (empty for a draft) */
+  files: z.array(ReportFileInfoSchema),
+  sends: z.array(ReportSendSchema),
+  downloads: z.array(ReportDownloadSchema),
+  comments: z.array(CommentSchema),
+  /** every revision of this report number the reader may see, newest first */
+  history: z.array(z.object({ id: IdSchema, revision: z.number().int(), status: ReportStatusSchema, createdAt: z.string(), releasedAt: z.string().nullable() })),
+  /** where the supplier's people open it */
+  link: z.string(),
+});
+export type Report = z.infer<typeof ReportSchema>;
+
+export const SendResultSchema = z.object({
+  report: ReportSchema,
+  sent: z.array(z.object({ name: z.string(), email: z.string() })),
+  /** contacts the mail server refused, with its reason */
+  failed: z.array(z.object({ name: z.string(), email: z.string(), error: z.string() })),
+});
+export type SendResult = z.infer<typeof SendResultSchema>;
+
+// ---- building: what a project offers ---------------------------------------------------
+export const ReportOptionSupplierSchema = z.object({
+  supplierId: IdSchema,
+  name: z.string(),
+  kind: z.string(),
+  sources: z.array(z.string()),
+  contacts: z.number().int(),
+  /** the newest revision of this supplier's report on the project, if any */
+  latest: z.object({ id: IdSchema, code: z.string(), revision: z.number().int(), status: ReportStatusSchema }).nullable(),
+});
+export const ReportOptionStudySchema = z.object({
+  id: IdSchema,
+  number: z.number().int(),
+  label: z.string(),
+  status: z.string(),
+  revisionId: IdSchema,
+  revisionNumber: z.number().int(),
+  revisionStatus: z.string(),
+  finishedAt: z.string().nullable(),
+  passes: z.boolean().nullable(),
+  /** null when a report can be built from this study; otherwise why not */
+  blockedBy: z.string().nullable(),
+  suppliers: z.array(ReportOptionSupplierSchema),
+  /** owner texts that name no supplier company (in-house steps, typos) */
+  unmatchedOwners: z.array(z.object({ owner: z.string(), sources: z.array(z.string()) })),
+  unowned: z.array(z.string()),
+});
+export const ReportOptionsSchema = z.object({ studies: z.array(ReportOptionStudySchema) });
+export type ReportOptions = z.infer<typeof ReportOptionsSchema>;
+
+// ---- outbox -------------------------------------------------------------------------
+export const OutboxMessageSchema = z.object({
+  id: IdSchema,
+  from: z.string(),
+  to: z.array(z.string()),
+  subject: z.string(),
+  receivedAt: z.string(),
+  size: z.number().int(),
+  text: z.string(),
+  attachments: z.array(z.object({ index: z.number().int(), fileName: z.string(), contentType: z.string(), size: z.number().int() })),
+});
+export type OutboxMessage = z.infer<typeof OutboxMessageSchema>;
+export const OutboxSchema = z.object({
+  /** "catcher": mail stays on this machine and shows here; "smtp": it leaves through a server */
+  mode: z.enum(["catcher", "smtp", "off"]),
+  address: z.string().nullable(),
+  messages: z.array(OutboxMessageSchema),
+});
+export const OutboxAttachmentParamsSchema = z.object({
+  id: IdSchema,
+  index: z.coerce.number({ message: "index must be a number" }).int({ message: "index must be a whole number" }).min(0, { message: "index cannot be negative" }).max(100, { message: "index is at most 100" }),
+});
