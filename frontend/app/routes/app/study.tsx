@@ -13,6 +13,7 @@ import { useChangeStudyState } from "@frontend/features/studies/api/change-study
 import { studyQueryOptions } from "@frontend/features/studies/api/get-study";
 import { StudyStatusBadge, VerdictBadge } from "@frontend/features/studies/components/study-status-badge";
 import { StudyProgress } from "@frontend/features/studies/components/study-progress";
+import { RunRecord } from "@frontend/features/studies/components/run-record";
 import { StudyResults } from "@frontend/features/studies/components/study-results";
 import { downloadResultFile } from "@frontend/features/studies/lib/download";
 import { formatCount, formatDeg } from "@frontend/features/studies/lib/format";
@@ -151,7 +152,13 @@ export function StudyRoute() {
         </Alert>
       ) : null}
 
-      {result ? <StudyResults study={study} result={result} /> : null}
+      {result ? (
+        <StudyResults study={study} result={result} />
+      ) : (
+        <Panel title="Settings" meta="frozen when the study was queued" className="max-w-3xl">
+          <RunRecord study={study} />
+        </Panel>
+      )}
     </>
   );
 }

@@ -31,6 +31,13 @@ export function ConvergencePanel({ result, metric, onMetric }: { result: ResultF
     : [];
   const data = useMemo(() => (tracked ? statRows(tracked, stat) : []), [tracked, stat]);
   const yields = useMemo(() => (tracked && req ? yieldRows(tracked) : []), [tracked, req]);
+  const yieldDomain = useMemo((): [number, number] => {
+    if (!yields.length || !req) return [0, 100];
+    const lo = Math.min(req.yield * 100, ...yields.map((y) => y.band[0]));
+    const hi = Math.max(req.yield * 100, ...yields.map((y) => y.band[1]));
+    const pad = Math.max((hi - lo) * 0.12, 0.005);
+    return [Math.max(0, lo - pad), Math.min(100, hi + pad)];
+  }, [yields, req]);
   if (!tracked) return <p className="py-6 text-center text-[13px] text-ink/55">No convergence record in this result.</p>;
   const last = data[data.length - 1]?.value;
   const drift = lateDrift(data);
@@ -95,7 +102,7 @@ export function ConvergencePanel({ result, metric, onMetric }: { result: ResultF
           <ComposedChart responsive style={{ width: "100%", height: 150 }} data={yields} margin={{ top: 8, right: 14, bottom: 0, left: 4 }}>
             <CartesianGrid {...gridProps} />
             {xAxis}
-            <YAxis domain={["auto", "auto"]} tick={axisTick} axisLine={axisLine} tickLine={false} width={52} tickFormatter={(v: number) => `${formatNumber(v, 4)}%`} />
+            <YAxis domain={yieldDomain} tick={axisTick} axisLine={axisLine} tickLine={false} width={52} tickFormatter={(v: number) => `${formatNumber(v, 4)}%`} />
             <Tooltip
               {...tooltipStyle}
               labelFormatter={(v) => `${formatCount(Number(v))} trials`}

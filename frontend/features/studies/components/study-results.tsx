@@ -183,7 +183,7 @@ function Section({
     );
   }
   return (
-    <div id={id} className="min-w-0">
+    <div id={id} role="region" aria-label={title} className="min-w-0">
       <Panel title={title} meta={meta} accent={accent} className="h-full">
         {children}
       </Panel>

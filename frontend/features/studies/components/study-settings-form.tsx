@@ -533,7 +533,7 @@ function FieldFound({
         <dl className={cn("grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 text-xs", stale && "opacity-60")}>
           <dt className="text-ink/60">Inclination</dt>
           <dd className="num font-bold text-ink">
-            {formatDeg(data.inclinationDeg, 5)} <span className="font-normal text-ink/50">({formatMrad(data.inclinationDeg, 4)})</span>
+            <span>{formatDeg(data.inclinationDeg, 5)}</span> <span className="font-normal text-ink/50">({formatMrad(data.inclinationDeg, 4)})</span>
           </dd>
           <dt className="text-ink/60">Declination</dt>
           <dd className="num">{formatDeg(data.declinationDeg, 4)}</dd>
