@@ -267,7 +267,7 @@ describe("3D view in the browser", () => {
         "--enable-unsafe-swiftshader",
       ],
     });
-    const context = await browser.newContext({ viewport: { width: 1280, height: 820 }, deviceScaleFactor: 1, acceptDownloads: true });
+    const context = await browser.newContext({ viewport: { width: 1120, height: 720 }, deviceScaleFactor: 1, acceptDownloads: true });
     page = await context.newPage();
     page.setDefaultTimeout(30_000);
     page.on("pageerror", (e) => problems.push(`page error: ${e.message}`));

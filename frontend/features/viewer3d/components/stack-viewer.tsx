@@ -130,6 +130,7 @@ export default function StackViewer({
   const [explode, setExplode] = useState(0);
   const [section, setSection] = useState<SectionState>({ axis: "off", value: 0, flip: false });
   const [showAxes, setShowAxes] = useState(true);
+  const [legendOpen, setLegendOpen] = useState(true);
   const [view, setView] = useState<ViewRequest>({ preset: "package", nonce: 0, instant: true });
   const requestView = (preset: ViewPreset) => setView((v) => ({ preset, nonce: v.nonce + 1 }));
 
@@ -410,37 +411,39 @@ export default function StackViewer({
             <span className="text-ink/50">of {fmtCount(trials)}</span>
           </div>
         ) : null}
-        <label className="flex items-center gap-1.5" title="Tilts and rotations are multiplied by this factor; lengths stay true to scale">
-          <span className="font-semibold text-ink/70">Angles</span>
-          <input
-            type="range"
-            aria-label="Angle exaggeration"
-            min={0}
-            max={100}
-            step={0.5}
-            value={toSlider(exaggeration)}
-            onChange={(e) => setExaggeration(fromSlider(Number(e.target.value)))}
-            className="w-28 accent-gyro"
-          />
-          <output className="w-10 font-semibold text-ink tabular-nums" aria-live="polite" data-testid="exaggeration-value">
-            ×{exaggeration}
-          </output>
-        </label>
-        <div className="flex items-center gap-0.5" role="group" aria-label="Exaggeration presets">
-          {EXAGGERATION_STOPS.map((k) => (
-            <button
-              key={k}
-              type="button"
-              aria-pressed={exaggeration === k}
-              className={cn(
-                "h-6 rounded px-1.5 text-2xs font-semibold",
-                exaggeration === k ? "bg-ink text-paper" : "text-ink/60 hover:bg-ink/[0.06] hover:text-ink",
-              )}
-              onClick={() => setExaggeration(k)}
-            >
-              ×{k}
-            </button>
-          ))}
+        <div className="flex items-center gap-2">
+          <label className="flex items-center gap-1.5" title="Tilts and rotations are multiplied by this factor; lengths stay true to scale">
+            <span className="font-semibold text-ink/70">Angles</span>
+            <input
+              type="range"
+              aria-label="Angle exaggeration"
+              min={0}
+              max={100}
+              step={0.5}
+              value={toSlider(exaggeration)}
+              onChange={(e) => setExaggeration(fromSlider(Number(e.target.value)))}
+              className="w-28 accent-gyro"
+            />
+            <output className="w-10 font-semibold text-ink tabular-nums" aria-live="polite" data-testid="exaggeration-value">
+              ×{exaggeration}
+            </output>
+          </label>
+          <div className="flex items-center gap-0.5" role="group" aria-label="Exaggeration presets">
+            {EXAGGERATION_STOPS.map((k) => (
+              <button
+                key={k}
+                type="button"
+                aria-pressed={exaggeration === k}
+                className={cn(
+                  "h-6 rounded px-1.5 text-2xs font-semibold",
+                  exaggeration === k ? "bg-ink text-paper" : "text-ink/60 hover:bg-ink/[0.06] hover:text-ink",
+                )}
+                onClick={() => setExaggeration(k)}
+              >
+                ×{k}
+              </button>
+            ))}
+          </div>
         </div>
         <label className="flex items-center gap-1.5" title="Lifts every level of the stack above its parent">
           <span className="font-semibold text-ink/70">Explode</span>
@@ -553,81 +556,97 @@ export default function StackViewer({
         )}
 
         {/* pose caption */}
-        <div className="pointer-events-none absolute top-2.5 left-2.5 max-w-[min(34rem,70%)] rounded-md bg-[#0f161d]/75 px-2.5 py-1.5 text-xs text-paper shadow-sm">
-          <div className="font-bold" data-testid="pose-label">
-            {poseLabel}
-          </div>
-          <div className="text-paper/65">
-            Angles ×{exaggeration}
-            {exaggeration > 1 ? " exaggerated" : " (true)"} · lengths to scale · mm
-            {explode > 0 ? ` · exploded ${fmtMm(explode)}` : ""}
-          </div>
-          {pick && recomputed !== null ? (
-            <div className={cn("mt-0.5", mismatch ? "font-semibold text-[#f5a08a]" : "text-paper/65")} data-testid="recomputed">
-              {mismatch
-                ? `Regenerated trial gives ${pick.metric} = ${fmtValue(recomputed, pick.unit)}, not ${fmtValue(pick.value, pick.unit)}: the stack or study changed since the study ran.`
-                : `Regenerated from the seed: ${pick.metric} = ${fmtValue(recomputed, pick.unit)}`}
+        <div className="pointer-events-none absolute inset-x-2.5 top-2.5 flex flex-wrap items-start justify-between gap-2">
+          <div className="max-w-[34rem] rounded-md bg-[#0f161d]/75 px-2.5 py-1.5 text-xs text-paper shadow-sm">
+            <div className="font-bold" data-testid="pose-label">
+              {poseLabel}
             </div>
-          ) : null}
-          {poseError ? <div className="mt-0.5 font-semibold text-[#f5a08a]">{poseError}</div> : null}
-          {vm && !vm.exact && choice.kind === "trial" && !poseError ? (
-            <div className="mt-0.5 font-semibold text-[#f5a08a]">The study does not fit the edited stack: this trial is drawn from it only approximately.</div>
-          ) : null}
-          {stackIssue && drawn ? <div className="mt-0.5 font-semibold text-[#f5a08a]">Showing the last valid stack. {stackIssue}</div> : null}
-        </div>
+            <div className="text-paper/65">
+              Angles ×{exaggeration}
+              {exaggeration > 1 ? " exaggerated" : " (true)"} · lengths to scale · mm
+              {explode > 0 ? ` · exploded ${fmtMm(explode)}` : ""}
+            </div>
+            {pick && recomputed !== null ? (
+              <div className={cn("mt-0.5", mismatch ? "font-semibold text-[#f5a08a]" : "text-paper/65")} data-testid="recomputed">
+                {mismatch
+                  ? `Regenerated trial gives ${pick.metric} = ${fmtValue(recomputed, pick.unit)}, not ${fmtValue(pick.value, pick.unit)}: the stack or study changed since the study ran.`
+                  : `Regenerated from the seed: ${pick.metric} = ${fmtValue(recomputed, pick.unit)}`}
+              </div>
+            ) : null}
+            {poseError ? <div className="mt-0.5 font-semibold text-[#f5a08a]">{poseError}</div> : null}
+            {vm && !vm.exact && choice.kind === "trial" && !poseError ? (
+              <div className="mt-0.5 font-semibold text-[#f5a08a]">The study does not fit the edited stack: this trial is drawn from it only approximately.</div>
+            ) : null}
+            {stackIssue && drawn ? <div className="mt-0.5 font-semibold text-[#f5a08a]">Showing the last valid stack. {stackIssue}</div> : null}
+          </div>
 
-        {/* view presets */}
-        <div className="absolute top-2.5 right-2.5 flex gap-0.5 rounded-md bg-[#0f161d]/75 p-0.5 text-2xs font-semibold" role="group" aria-label="View presets">
-          {(
-            [
-              ["package", "Package"],
-              ["iso", "Iso"],
-              ["top", "Top"],
-              ["side", "Side"],
-              ["end", "End"],
-              ["board", "Whole board"],
-            ] as const
-          ).map(([p, label]) => (
-            <button
-              key={p}
-              type="button"
-              className="h-6 rounded px-2 text-paper/80 hover:bg-paper/10 hover:text-paper"
-              onClick={() => requestView(p)}
-              title={
-                p === "side" ? "Looking along +y" : p === "end" ? "Looking along −x" : p === "package" ? "Frame the package" : p === "board" ? "Frame the whole board" : undefined
-              }
-            >
-              {label}
-            </button>
-          ))}
+          {/* view presets */}
+          <div className="pointer-events-auto ml-auto flex gap-0.5 rounded-md bg-[#0f161d]/75 p-0.5 text-2xs font-semibold" role="group" aria-label="View presets">
+            {(
+              [
+                ["package", "Package"],
+                ["iso", "Iso"],
+                ["top", "Top"],
+                ["side", "Side"],
+                ["end", "End"],
+                ["board", "Whole board"],
+              ] as const
+            ).map(([p, label]) => (
+              <button
+                key={p}
+                type="button"
+                className="h-6 rounded px-2 text-paper/80 hover:bg-paper/10 hover:text-paper"
+                onClick={() => requestView(p)}
+                title={
+                  p === "side" ? "Looking along +y" : p === "end" ? "Looking along −x" : p === "package" ? "Frame the package" : p === "board" ? "Frame the whole board" : undefined
+                }
+              >
+                {label}
+              </button>
+            ))}
+          </div>
         </div>
 
         {/* legend */}
-        <div className="pointer-events-none absolute bottom-2.5 left-2.5 rounded-md bg-[#0f161d]/75 px-2.5 py-2 text-2xs text-paper/85" data-testid="viewer-legend">
-          <ul className="grid grid-cols-[repeat(2,auto)] gap-x-3 gap-y-0.5">
-            {kindsPresent.map((k) => (
-              <li key={k} className="flex items-center gap-1.5">
-                <span className="size-2.5 rounded-sm" style={{ background: KIND_COLOUR[k] }} aria-hidden="true" />
-                {KIND_LABEL[k]}
-              </li>
-            ))}
-            <li className="flex items-center gap-1.5">
-              <span className="h-1 w-2.5 rounded-sm opacity-60" style={{ background: BOND_LINE }} aria-hidden="true" />
-              Bond line
-            </li>
-          </ul>
-          {hasSensors && showAxes ? (
-            <div className="mt-1.5 flex items-center gap-2 border-t border-paper/15 pt-1.5">
-              <span className="text-paper/60">Sensing axes</span>
-              {(["x", "y", "z"] as const).map((n, a) => (
-                <span key={n} className="flex items-center gap-1">
-                  <span className="h-0.5 w-3 rounded" style={{ background: AXIS_COLOUR[a] }} aria-hidden="true" />
-                  <span style={{ color: AXIS_COLOUR[a] }}>{n}</span>
-                </span>
-              ))}
-            </div>
+        <div className="absolute bottom-2.5 left-2.5 rounded-md bg-[#0f161d]/75 px-2.5 py-2 text-2xs text-paper/85" data-testid="viewer-legend">
+          <button
+            type="button"
+            className="flex w-full items-center justify-between gap-3 font-semibold text-paper/70 hover:text-paper"
+            aria-expanded={legendOpen}
+            onClick={() => setLegendOpen((o) => !o)}
+          >
+            Legend
+            <span aria-hidden="true">{legendOpen ? "–" : "+"}</span>
+          </button>
+          {legendOpen ? (
+            <>
+              <ul className="mt-1 grid grid-cols-[repeat(2,auto)] gap-x-3 gap-y-0.5">
+                {kindsPresent.map((k) => (
+                  <li key={k} className="flex items-center gap-1.5">
+                    <span className="size-2.5 rounded-sm" style={{ background: KIND_COLOUR[k] }} aria-hidden="true" />
+                    {KIND_LABEL[k]}
+                  </li>
+                ))}
+                <li className="flex items-center gap-1.5">
+                  <span className="h-1 w-2.5 rounded-sm opacity-60" style={{ background: BOND_LINE }} aria-hidden="true" />
+                  Bond line
+                </li>
+              </ul>
+              {hasSensors && showAxes ? (
+                <div className="mt-1.5 flex items-center gap-2 border-t border-paper/15 pt-1.5">
+                  <span className="text-paper/60">Sensing axes</span>
+                  {(["x", "y", "z"] as const).map((n, a) => (
+                    <span key={n} className="flex items-center gap-1">
+                      <span className="h-0.5 w-3 rounded" style={{ background: AXIS_COLOUR[a] }} aria-hidden="true" />
+                      <span style={{ color: AXIS_COLOUR[a] }}>{n}</span>
+                    </span>
+                  ))}
+                </div>
+              ) : null}
+              {hasSensors && showAxes ? <div className="text-paper/50">Label ring: the die&apos;s colour</div> : null}
+              <div className="mt-1 text-paper/50">Grid 1 mm, bold every 5 mm</div>
+            </>
           ) : null}
-          <div className="mt-1 text-paper/50">Grid 1 mm, bold every 5 mm</div>
         </div>
 
         {/* hover tooltip */}
