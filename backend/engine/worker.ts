@@ -5,8 +5,8 @@
  * `node --import tsx` without the bundler's alias.
  */
 import { parentPort, workerData } from "node:worker_threads";
-import { runBlock, transferablesOf } from "../../shared/engine/accumulate";
-import { newWorkerState, prepareStudy, type StudyOverrides } from "../../shared/engine/study";
+import { createWorkerState, runBlock, transferablesOf } from "../../shared/engine/accumulate";
+import { prepareStudy, type StudyOverrides } from "../../shared/engine/plan";
 import type { StackFile } from "../../shared/schemas/stack-file";
 import type { StudyFile } from "../../shared/schemas/study-file";
 
@@ -19,14 +19,14 @@ export interface WorkerInit {
 export type ToWorker = { type: "run"; block: number } | { type: "finish" };
 export type FromWorker =
   | { type: "block"; partial: ReturnType<typeof runBlock> }
-  | { type: "state"; state: ReturnType<typeof newWorkerState> }
+  | { type: "state"; state: ReturnType<typeof createWorkerState> }
   | { type: "error"; message: string };
 
 const port = parentPort;
 if (!port) throw new Error("backend/engine/worker.ts must run as a worker thread");
 const init = workerData as WorkerInit;
 const prep = prepareStudy(init.stack, init.study, init.overrides);
-const state = newWorkerState(prep);
+const state = createWorkerState(prep.model, prep.plan);
 
 port.on("message", (msg: ToWorker) => {
   try {

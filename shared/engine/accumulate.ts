@@ -36,11 +36,11 @@ const HI_WORD = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1 ? 1 : 0;
 const ENVELOPE_LEN = 2 * envelopeStore(new Uint32Array(0)).perSign;
 
 /**
- * The regression sums use the first REG_TRIALS_PER_BLOCK trials of every block (1/8 of
- * the sample): the cross-products cost p² per trial, and 1/8 of 10^6 trials already
- * gives standardised coefficients to about ±0.003.
+ * The regression sums use the first REG_TRIALS_PER_BLOCK trials of every block (1/16 of
+ * the sample): the cross-products cost p² per trial, and 1/16 of 10^6 trials (62,000)
+ * already gives each share to about ±0.005.
  */
-export const REG_TRIALS_PER_BLOCK = 512;
+export const REG_TRIALS_PER_BLOCK = 256;
 
 /**
  * The heading envelope (p5, p50, p95 per attitude, a plot) is filled from the first

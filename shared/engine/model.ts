@@ -9,7 +9,7 @@
  * what the contributor analysis perturbs.
  */
 import type { StackElement, StackFile, Tolerance } from "../schemas/stack-file";
-import { isSensorKind, supportPoints } from "../schemas/stack-file";
+import { isSensorKind, supportPoints } from "./elements";
 import type { StudyFile } from "../schemas/study-file";
 import { compileDist, type CompiledDist } from "./distributions";
 import { identity, invert, mat3, mul, mulTB, type Mat3 } from "./mat3";

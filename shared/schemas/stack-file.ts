@@ -7,6 +7,9 @@
  * packaging engineer understands, so the API can pass them on as field errors.
  */
 import { z } from "zod";
+import { isSensorKind, SENSOR_KINDS, supportPoints } from "../engine/elements";
+
+export { isSensorKind, SENSOR_KINDS, supportPoints };
 
 // ---------------------------------------------------------------- field issues
 
@@ -78,7 +81,6 @@ export const STAGES = ["die", "package", "board", "product"] as const;
 export const ELEMENT_STAGES = ["package", "board", "product"] as const;
 export const DISTRIBUTIONS = ["normal", "uniform", "triangular", "data"] as const;
 export const ELEMENT_KINDS = ["board", "substrate", "asic", "spacer", "gyro", "accel", "mag"] as const;
-export const SENSOR_KINDS = ["gyro", "accel", "mag"] as const;
 
 /** Longest list accepted for a measured data set, and for any list of support points. */
 export const MAX_DATA_VALUES = 100_000;
@@ -210,23 +212,6 @@ export type Tolerance = z.infer<typeof ToleranceSchema>;
 export type StackElement = z.infer<typeof ElementSchema>;
 export type StackFile = z.infer<typeof StackFileObjectSchema>;
 export type ElementKind = (typeof ELEMENT_KINDS)[number];
-
-export function isSensorKind(kind: string): kind is (typeof SENSOR_KINDS)[number] {
-  return kind === "gyro" || kind === "accel" || kind === "mag";
-}
-
-/** Support points of an element in its own frame: the listed ones or the four corners. */
-export function supportPoints(e: StackElement): { x: number; y: number }[] {
-  const s = e.bondLine?.supports;
-  if (Array.isArray(s)) return s;
-  const hx = e.size.x / 2, hy = e.size.y / 2;
-  return [
-    { x: -hx, y: -hy },
-    { x: hx, y: -hy },
-    { x: hx, y: hy },
-    { x: -hx, y: hy },
-  ];
-}
 
 const fmt = (v: number) => String(Math.round(v * 1e6) / 1e6);
 
