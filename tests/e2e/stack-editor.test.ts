@@ -214,11 +214,14 @@ describe("the stack editor", () => {
     // Import a good one: it replaces the stack in one undoable step.
     const renamed = { ...exported, name: "Imported variant", elements: exported.elements.filter((e: { id: string }) => e.id !== "gyro" && e.id !== "accel" && e.id !== "mag") };
     await page.getByTestId("import-stack-file").setInputFiles({ name: "variant.stack.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(renamed)) });
-    await expect(page.getByRole("tree", { name: "Elements" }).getByRole("treeitem").count()).resolves.toBe(3);
+    const tree = page.getByRole("tree", { name: "Elements" });
+    await tree.getByRole("treeitem", { name: /^gyro,/ }).waitFor({ state: "detached" });
+    await expect(tree.getByRole("treeitem").count()).resolves.toBe(3);
     // The requirements on the removed dies are now flagged, and the draft is not saved until they are fixed or undone.
-    await page.getByText(/problems in this draft/).waitFor();
+    await page.getByText(/problems: the draft is saved once they are fixed/).waitFor();
     await page.getByRole("button", { name: "Undo" }).click();
-    await expect(page.getByRole("tree", { name: "Elements" }).getByRole("treeitem").count()).resolves.toBe(6);
+    await tree.getByRole("treeitem", { name: /^gyro,/ }).waitFor();
+    await expect(tree.getByRole("treeitem").count()).resolves.toBe(6);
     expect(unexpectedProblems(problems)).toEqual([]);
   });
 
@@ -248,6 +251,20 @@ describe("the stack editor", () => {
     await engineer.page.reload();
     await engineer.page.getByRole("button", { name: "Submit for review" }).waitFor();
     await engineer.page.getByRole("list", { name: "Review notes" }).getByText(/sent back/).waitFor();
+
+    // Submitted again, the reviewer approves it: frozen, and listed as approved on the project page.
+    await engineer.page.getByRole("button", { name: "Submit for review" }).click();
+    await engineer.page.getByText(/^In review since/).waitFor();
+    await reviewer.page.reload();
+    await reviewer.page.getByRole("button", { name: "Approve…" }).click();
+    const approve = reviewer.page.getByRole("dialog", { name: "Approve revision 2" });
+    await approve.getByLabel("Comment").fill("Fine for the second build.");
+    await approve.getByRole("button", { name: "Approve revision" }).click();
+    await reviewer.page.getByText(/^Approved by .*: frozen\.$/).waitFor();
+    await reviewer.page.getByRole("link", { name: "Ridgeline trail watch: 9-axis sensor module" }).click();
+    const list = reviewer.page.getByRole("table", { name: "Stack revisions" });
+    await list.getByRole("row", { name: /^2 .*Approved/ }).waitFor();
+    await screenshot(reviewer.page, "editor-revisions-after-approval");
     expect(unexpectedProblems(engineer.problems)).toEqual([]);
     expect(unexpectedProblems(reviewer.problems)).toEqual([]);
   });

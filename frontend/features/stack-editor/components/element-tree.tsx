@@ -116,8 +116,8 @@ export function ElementTree() {
       </ul>
       {readOnly || !selected ? null : (
         <div className="border-t border-line p-2">
-          <p className="mb-1.5 truncate text-[10.5px] font-bold tracking-[0.08em] text-ink/45 uppercase">
-            On <span className="font-mono tracking-normal normal-case">{selected.id}</span>
+          <p className="mb-1.5 truncate text-[11px] font-semibold text-ink/50">
+            Selected: <span className="font-mono font-bold text-ink/80">{selected.id}</span>
           </p>
           <div className="flex flex-wrap items-center gap-1">
             <div className="relative" ref={menuRef}>

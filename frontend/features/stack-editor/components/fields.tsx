@@ -8,8 +8,10 @@ import { sentence } from "@frontend/lib/form";
 import { numberText, parseNumberText } from "../lib/number-text";
 
 const BOX =
-  "block w-full rounded-[5px] border bg-white text-ink placeholder:text-ink/35 transition-colors " +
+  "block rounded-[5px] border bg-white text-ink placeholder:text-ink/35 transition-colors " +
   "focus:outline-none focus:ring-2 focus:ring-gyro/25 disabled:bg-paper/80 disabled:text-ink/60 disabled:cursor-default";
+/** Full width unless the caller gives a width (two width utilities would fight). */
+const width = (className?: string) => (/(^|\s)(w-|flex-1)/.test(className ?? "") ? "" : "w-full");
 const boxState = (invalid: boolean) => (invalid ? "border-fail focus:border-fail" : "border-line hover:border-ink/30 focus:border-gyro");
 
 export type NumberInputProps = {
@@ -84,6 +86,7 @@ export function NumberInput({
         }}
         className={cn(
           BOX,
+          "w-full",
           boxState(invalid || bad),
           "num h-7 pl-2 text-xs",
           unit ? (size === "sm" ? "pr-6" : "pr-8") : "pr-2",
@@ -164,7 +167,7 @@ export function TextInput({
       autoComplete="off"
       spellCheck={false}
       aria-invalid={invalid || undefined}
-      className={cn(BOX, boxState(invalid), "h-7 px-2 text-xs", className)}
+      className={cn(BOX, width(className), boxState(invalid), "h-7 px-2 text-xs", className)}
       {...rest}
     />
   );
@@ -179,7 +182,7 @@ export function SelectInput({
   return (
     <select
       aria-invalid={invalid || undefined}
-      className={cn(BOX, boxState(invalid), "select-chevron h-7 appearance-none pr-6 pl-2 text-xs", className)}
+      className={cn(BOX, width(className), boxState(invalid), "select-chevron h-7 appearance-none pr-6 pl-2 text-xs", className)}
       {...rest}
     >
       {children}

@@ -22,7 +22,11 @@ export function ProblemList({ issues, doc, onSelect, saving }: { issues: IssueIn
       <button type="button" onClick={() => setOpen((o) => !o)} aria-expanded={open} className="flex w-full items-center gap-2 px-4 py-2 text-left">
         <span className="flex h-5 min-w-5 items-center justify-center rounded-full bg-fail px-1.5 text-[11px] font-bold text-white">{issues.count}</span>
         <span className="text-[13px] font-bold text-fail">
-          {issues.count === 1 ? "One problem" : `${issues.count} problems`} in this {saving ? "draft: it is saved once they are fixed" : "revision"}
+          {saving
+            ? issues.count === 1
+              ? "One problem: the draft is saved once it is fixed"
+              : `${issues.count} problems: the draft is saved once they are fixed`
+            : `${issues.count === 1 ? "One problem" : `${issues.count} problems`} in this revision`}
         </span>
         <span className="ml-auto text-[11px] font-semibold text-fail/80">{open ? "Hide" : "Show"}</span>
       </button>

@@ -36,10 +36,10 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
       <table className="w-full table-fixed border-collapse text-xs" aria-label="Requirements">
         <thead className="border-b border-line bg-paper/70">
           <tr className="text-[10.5px] font-bold tracking-[0.06em] text-ink/55 uppercase">
-            <th className="h-8 w-[36%] px-3 text-left">Metric</th>
+            <th className="h-8 w-[34%] px-3 text-left">Metric</th>
             <th className="w-[15%] px-2 text-right">Limit |value| ≤</th>
-            <th className="w-[19%] px-2 text-right">Yield target</th>
-            <th className="w-[24%] px-2 text-right">Estimate</th>
+            <th className="w-[22%] px-2 text-right">Yield target</th>
+            <th className="w-[23%] px-2 text-right">Estimate</th>
             <th className="w-[6%]" />
           </tr>
         </thead>

@@ -99,7 +99,7 @@ export function toleranceRows(stack: StackFile): ToleranceRow[] {
         ...base,
         sourceId: `${e.id}.${slot.suffix}`,
         path: slot.path,
-        label: slot.suffix === "axis" ? `${slot.label} (six angles)` : slot.label,
+        label: slot.label,
         tol: v,
         stage: v.stage ?? inherited,
         stageInherited: v.stage === undefined,
