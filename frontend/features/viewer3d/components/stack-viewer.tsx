@@ -231,10 +231,16 @@ export default function StackViewer({
       setMeanPose(false);
       setPickedMetric(w.metric);
       setTrial(w.trialIndex);
-      // a worst trial is only visible exaggerated: start at a useful factor
-      setExaggeration((k) => (k < 20 ? 50 : k));
     }
   };
+
+  // A trial's deviations are tenths of a degree: coming from the nominal or mean pose
+  // (by any route, the parent's trialIndex included), start at a factor that shows them.
+  const lastKind = useRef<PoseChoice["kind"]>("nominal");
+  useEffect(() => {
+    if (choice.kind === "trial" && lastKind.current !== "trial") setExaggeration((k) => (k < 20 ? 50 : k));
+    lastKind.current = choice.kind;
+  }, [choice.kind]);
 
   // ---- trial index field (text while typing, committed on Enter or blur)
   const [trialText, setTrialText] = useState(trial != null ? String(trial) : "");
