@@ -79,10 +79,15 @@ export function summary(r: ResultFile, seconds: number, threads: number): string
       );
     }
   }
+  // the requirement metrics and the compass; every metric is in the result file
+  const shown = new Set([...r.requirements.map((q) => q.metric), "heading.maxAbsDeg", "heading.rmsDeg"]);
   out.push("", "metric                                   mean      std      p50      p95   p99.73      max");
   for (const [id, m] of Object.entries(r.metrics)) {
+    if (!shown.has(id)) continue;
     out.push(`${(id + " (" + m.unit + ")").padEnd(38)} ${[m.mean, m.std, m.p50, m.p95, m.p9973, m.max].map((v) => f(v).padStart(8)).join(" ")}`);
   }
+  const rest = Object.keys(r.metrics).length - [...shown].filter((id) => id in r.metrics).length;
+  if (rest > 0) out.push(`(${rest} more metrics in the result file; percentiles are of |value|)`);
   return out.join("\n");
 }
 
