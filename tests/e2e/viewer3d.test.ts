@@ -316,7 +316,7 @@ describe("3D view in the browser", () => {
     await act(page, () => page.mouse.click(box.x + mx, box.y + my));
     expect(await page.getByTestId("harness-selected").textContent()).toBe("mag");
     // around the package lies the board, which names itself too
-    await act(page, () => page.mouse.move(box.x + 40, box.y + box.height - 40));
+    await act(page, () => page.mouse.move(box.x + box.width * 0.72, box.y + box.height - 30));
     expect(await tip.textContent()).toContain("Board");
     await act(page, () => page.mouse.move(box.x + box.width / 2, box.y - 30));
     expect(await tip.isVisible()).toBe(false);
