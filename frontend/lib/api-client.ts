@@ -72,6 +72,8 @@ export async function apiRequest<S extends z.ZodType>(path: string, schema: S, o
 export async function apiRequest(path: string, schema: null, options?: RequestOptions): Promise<void>;
 export async function apiRequest(path: string, schema: z.ZodType | null, options: RequestOptions = {}): Promise<unknown> {
   const { method = "GET", body, signal } = options;
+  // A FormData body (a file upload) goes as multipart; the browser writes its boundary.
+  const form = typeof FormData !== "undefined" && body instanceof FormData;
   let response: Response;
   try {
     response = await fetch(path, {
@@ -80,9 +82,9 @@ export async function apiRequest(path: string, schema: z.ZodType | null, options
       credentials: "same-origin",
       headers: {
         Accept: "application/json",
-        ...(body !== undefined ? { "Content-Type": "application/json" } : {}),
+        ...(body !== undefined && !form ? { "Content-Type": "application/json" } : {}),
       },
-      body: body !== undefined ? JSON.stringify(body) : undefined,
+      body: form ? (body as FormData) : body !== undefined ? JSON.stringify(body) : undefined,
     });
   } catch (cause) {
     if (cause instanceof DOMException && cause.name === "AbortError") throw cause;

@@ -6,6 +6,7 @@ import { Button } from "@frontend/components/ui/button";
 import { ChevronLeftIcon, PencilIcon, TrashIcon } from "@frontend/components/ui/icons";
 import { Panel } from "@frontend/components/ui/panel";
 import { useMe } from "@frontend/features/auth/api/get-me";
+import { DatasetsPanel } from "@frontend/features/datasets/components/datasets-panel";
 import { projectQueryOptions, useProject } from "@frontend/features/projects/api/get-project";
 import { projectActivityQueryOptions } from "@frontend/features/projects/api/get-project-activity";
 import { ActivityList } from "@frontend/features/projects/components/activity-list";
@@ -97,10 +98,7 @@ export function ProjectRoute() {
         <div className="grid content-start gap-4 md:grid-cols-2">
           <RevisionsPanel projectId={project.id} projectName={project.name} canWrite={can(me.role, "revisions.write")} />
           <StudiesPanel projectId={project.id} canRun={can(me.role, "studies.run")} />
-          <Upcoming title="Data sets" accent="var(--color-accel)" arrives="Arrives with measurement import">
-            First-build measurements from CSV or spreadsheet, linked to a tolerance source, with fitted statistics and capability
-            against the tolerance assumed.
-          </Upcoming>
+          <DatasetsPanel projectId={project.id} canWrite={canWrite} />
           <Upcoming title="Reports" accent="var(--color-mag)" arrives="Arrives with supplier reports">
             One tolerance report per supplier company, built from an approved revision and a finished study, released after review
             and acknowledged by the supplier.
