@@ -37,7 +37,7 @@ class RandomSampler implements BlockSampler {
 
 class LhsSampler implements BlockSampler {
   private i = 0;
-  constructor(private readonly m: Model, private readonly u: Float64Array, private readonly n: number) {}
+  constructor(private readonly m: Model, private readonly u: Float64Array) {}
   next(draws: Float64Array): void {
     sampleInto(this.m.drawDist, this.u, this.i * this.m.drawCount, draws);
     this.i++;
@@ -63,7 +63,7 @@ export function lhsUniforms(rng: Xoshiro128ss, n: number, D: number): Float64Arr
 
 export function blockSampler(m: Model, mode: SamplingMode, seed: number, block: number, n: number): BlockSampler {
   const rng = blockStream(seed, block);
-  if (mode === "lhs") return new LhsSampler(m, lhsUniforms(rng, n, m.drawCount), n);
+  if (mode === "lhs") return new LhsSampler(m, lhsUniforms(rng, n, m.drawCount));
   return new RandomSampler(m, rng);
 }
 
