@@ -181,7 +181,7 @@ describe("studies", () => {
     const viewer = page.getByRole("dialog", { name: new RegExp(`trial ${Number(firstTrial).toLocaleString("en-US")}`) });
     await viewer.locator("canvas").waitFor({ timeout: 60_000 });
     await page.waitForTimeout(1500);
-    await screenshot(page, "studies-worst-trial-3d");
+    await viewportShot(page, "studies-worst-trial-3d");
     await page.keyboard.press("Escape");
     await viewer.waitFor({ state: "detached" });
 

@@ -8,7 +8,7 @@ import { formatDuration, formatPpm, formatValue, formatYield, formatYieldRange }
 import { histogramRows } from "@frontend/features/studies/lib/histogram";
 import { groupMetrics, metricLabel, parseMetric } from "@frontend/features/studies/lib/metrics";
 import { paretoRows, sourcesToReach } from "@frontend/features/studies/lib/pareto";
-import { estimateSeconds, progressView } from "@frontend/features/studies/lib/progress";
+import { estimateSeconds, progressView, recentPace } from "@frontend/features/studies/lib/progress";
 
 const stats = (p: Partial<MetricStats> & { v?: number }): MetricStats => {
   const v = p.v ?? 1;
@@ -265,5 +265,27 @@ describe("comparing two results", () => {
     const s = { format: "orthostack.study/1" as const, trials: 1000, seed: 7, inclinationDeg: 60 };
     const rows = settingRows({ study: s, site: null, revisionNumber: 1 }, { study: { ...s, calibration: { after: "board" } }, site: null, revisionNumber: 2 });
     expect(rows.filter((r) => r.differs).map((r) => r.label)).toEqual(["Stack revision", "Calibration"]);
+  });
+});
+
+describe("recent pace", () => {
+  it("reads the pace of the last seconds, not the run's average with its start-up", () => {
+    // 8 s of start-up with nothing done, then 12,000 trials a second.
+    const samples = [
+      { at: 0, done: 0 },
+      { at: 8_000, done: 0 },
+      { at: 9_000, done: 12_000 },
+      { at: 10_000, done: 24_000 },
+      { at: 11_000, done: 36_000 },
+    ];
+    expect(recentPace(samples, 11_000, 3_000)).toBe(12_000);
+    const average = 36_000 / 11; // what the queue reports
+    const withRecent = progressView({ status: "running", startedAt: null, progress: { done: 36_000, total: 1_000_000, trialsPerSecond: average } }, 11_000, recentPace(samples, 11_000, 3_000));
+    expect(withRecent.secondsLeft).toBeCloseTo(964_000 / 12_000, 9);
+  });
+  it("says nothing until the samples span two seconds and show progress", () => {
+    expect(recentPace([{ at: 0, done: 0 }, { at: 1_000, done: 5_000 }], 1_000)).toBeNull();
+    expect(recentPace([{ at: 0, done: 5_000 }, { at: 3_000, done: 5_000 }], 3_000)).toBeNull();
+    expect(recentPace([{ at: 0, done: 0 }, { at: 30_000, done: 5_000 }], 30_000)).toBeNull(); // the first sample is too old
   });
 });

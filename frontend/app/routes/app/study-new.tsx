@@ -1,3 +1,4 @@
+import { useState } from "react";
 import type { QueryClient } from "@tanstack/react-query";
 import { useQuery, useSuspenseQuery } from "@tanstack/react-query";
 import { data, Link, useNavigate, useParams, useSearchParams, type LoaderFunctionArgs } from "react-router";
@@ -22,13 +23,17 @@ export const studyNewRoute = (queryClient: QueryClient) => ({
     if (!id.success) throw notFound();
     const from = IdSchema.safeParse(new URL(request.url).searchParams.get("from"));
     try {
-      await Promise.all([
+      const [, , , studies] = await Promise.all([
         requirePermission(queryClient, request, "studies.run"),
         queryClient.ensureQueryData(projectQueryOptions(id.data)),
         queryClient.ensureQueryData(projectRevisionsQueryOptions(id.data)),
         queryClient.ensureQueryData(studiesQueryOptions(id.data)),
         from.success ? queryClient.ensureQueryData(studyQueryOptions(from.data)).catch(() => null) : null,
       ]);
+      const newest = studies[0];
+      if (!from.success && newest && new URL(request.url).searchParams.get("from") !== "none") {
+        await queryClient.ensureQueryData(studyQueryOptions(newest.id)).catch(() => null);
+      }
     } catch (error) {
       if (isApiError(error) && error.status === 404) throw notFound();
       throw error;
@@ -45,7 +50,12 @@ export function StudyNewRoute() {
   const { data: project } = useProject(id);
   const { data: revisions } = useSuspenseQuery(projectRevisionsQueryOptions(id));
   const { data: studies } = useSuspenseQuery(studiesQueryOptions(id));
-  const fromId = params.get("from");
+  // Without a choice in the address the form starts from the project's newest study;
+  // "from=none" starts from the defaults.
+  const fromParam = params.get("from");
+  // Taken once: the list refreshes when the new study is queued, and the form must not start over then.
+  const [newestId] = useState(() => studies[0]?.id ?? null);
+  const fromId = fromParam === "none" ? null : (fromParam ?? newestId);
   const from = useQuery({ ...studyQueryOptions(fromId ?? ""), enabled: !!fromId });
   const source = from.data && from.data.projectId === id ? from.data : null;
 
@@ -72,6 +82,7 @@ export function StudyNewRoute() {
           initialRevisionId={initialRevision.id}
           initialValues={source ? formValuesFromStudy(source.study, source.site, "") : defaultFormValues()}
           startedFrom={source ? `study ${source.number}${source.label ? ` (${source.label})` : ""}` : undefined}
+          defaultsHref={source ? `/projects/${project.id}/studies/new?revision=${initialRevision.id}&from=none` : undefined}
           history={studies}
           onStarted={(s) => navigate(`/projects/${project.id}/studies/${s.id}`)}
         />

@@ -12,11 +12,11 @@ export function useCreateStudy() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: createStudy,
-    onSuccess: (study) =>
-      Promise.all([
-        queryClient.invalidateQueries({ queryKey: studyKeys.list(study.projectId) }),
-        queryClient.invalidateQueries({ queryKey: projectKeys.detail(study.projectId) }),
-        queryClient.invalidateQueries({ queryKey: projectKeys.lists() }),
-      ]),
+    // Not awaited: the caller moves on to the new study's page at once.
+    onSuccess: (study) => {
+      void queryClient.invalidateQueries({ queryKey: studyKeys.list(study.projectId) });
+      void queryClient.invalidateQueries({ queryKey: projectKeys.detail(study.projectId) });
+      void queryClient.invalidateQueries({ queryKey: projectKeys.lists() });
+    },
   });
 }

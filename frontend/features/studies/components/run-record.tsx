@@ -66,12 +66,14 @@ export function RunRecord({ study }: { study: StudyDetail }) {
           <span className="font-mono">{s.headingSensors.accel}</span> + <span className="font-mono">{s.headingSensors.mag}</span>
         </Row>
       ) : null}
-      <Row label="Run">
-        <span className="tabular-nums">
-          {seconds !== null ? formatDuration(seconds) : "—"}
-          {study.progress.trialsPerSecond ? `, ${formatCount(study.progress.trialsPerSecond)} trials/s` : ""}
-        </span>
-      </Row>
+      {seconds !== null ? (
+        <Row label="Run">
+          <span className="tabular-nums">
+            {formatDuration(seconds)}
+            {study.progress.trialsPerSecond ? `, ${formatCount(study.progress.trialsPerSecond)} trials/s` : ""}
+          </span>
+        </Row>
+      ) : null}
       {r ? (
         <>
           <Row label="Engine">

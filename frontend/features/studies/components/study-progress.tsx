@@ -1,10 +1,10 @@
-import { useEffect, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import type { StudySummary } from "@shared/schemas/studies";
 import { Button } from "@frontend/components/ui/button";
 import { CloseIcon } from "@frontend/components/ui/icons";
 import { cn } from "@frontend/lib/cn";
 import { formatCount, formatDuration, formatRate } from "../lib/format";
-import { progressView } from "../lib/progress";
+import { PACE_WINDOW_MS, progressView, recentPace, type ProgressSample } from "../lib/progress";
 
 /**
  * The running study: a bar with trials done, the pace and the time left, and Cancel.
@@ -28,7 +28,14 @@ export function StudyProgress({
     const t = window.setInterval(() => setNow(Date.now()), 1000);
     return () => window.clearInterval(t);
   }, [study.status]);
-  const v = progressView(study, now);
+  // What this screen has seen of the run, for the recent pace.
+  const samples = useRef<ProgressSample[]>([]);
+  const last = samples.current[samples.current.length - 1];
+  if (study.status === "running" && (!last || last.done !== study.progress.done)) {
+    samples.current = [...samples.current.filter((p) => p.at >= Date.now() - 2 * PACE_WINDOW_MS && p.done <= study.progress.done), { at: Date.now(), done: study.progress.done }];
+  }
+  const v = progressView(study, now, recentPace(samples.current, Date.now()));
+  const finishing = study.status === "running" && v.total > 0 && v.done >= v.total;
   const queued = study.status === "queued";
   const pct = Math.round(v.fraction * 1000) / 10;
 
@@ -58,7 +65,10 @@ export function StudyProgress({
       <div className="flex flex-wrap items-center justify-between gap-x-6 gap-y-2">
         <dl className="flex flex-wrap gap-x-6 gap-y-1 text-xs">
           <ProgressFact label="Pace" value={queued ? "—" : formatRate(v.rate)} />
-          <ProgressFact label="Time left" value={queued ? "—" : v.secondsLeft === null ? "estimating…" : `about ${formatDuration(v.secondsLeft)}`} />
+          <ProgressFact
+            label="Time left"
+            value={queued ? "—" : finishing ? "writing the result…" : v.secondsLeft === null ? "estimating…" : v.secondsLeft < 1 ? "under a second" : `about ${formatDuration(v.secondsLeft)}`}
+          />
           <ProgressFact label="Elapsed" value={formatDuration(v.elapsed)} />
         </dl>
         {onCancel ? (

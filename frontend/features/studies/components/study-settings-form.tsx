@@ -1,4 +1,5 @@
-import { useEffect, useMemo, useState, type FormEvent, type ReactNode } from "react";
+import { useEffect, useMemo, useState, type FormEvent } from "react";
+import { Link } from "react-router";
 import type { RevisionSummary } from "@shared/schemas/revisions";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { StudySummary } from "@shared/schemas/studies";
@@ -52,6 +53,7 @@ export function StudySettingsForm({
   initialRevisionId,
   initialValues,
   startedFrom,
+  defaultsHref,
   history,
   onStarted,
 }: {
@@ -60,6 +62,8 @@ export function StudySettingsForm({
   initialValues: StudyFormValues;
   /** "Study 3", when the settings were copied */
   startedFrom?: string;
+  /** where "Start from the defaults" leads, when the settings were copied */
+  defaultsHref?: string;
   /** the project's studies, for the time estimate */
   history: StudySummary[];
   onStarted: (study: StudySummary) => void;
@@ -123,9 +127,16 @@ export function StudySettingsForm({
     <form onSubmit={submit} noValidate aria-label="Study settings" className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_300px]">
       <div className="flex min-w-0 flex-col gap-4">
         {startedFrom ? (
-          <p className="rounded-md border border-gyro/25 bg-gyro/[0.05] px-3 py-2 text-xs text-ink/75">
-            Settings copied from <span className="font-semibold text-ink">{startedFrom}</span>, seed included: with the same seed, differences
-            between the two come from the changes, not from sampling.
+          <p className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1 rounded-md border border-gyro/25 bg-gyro/[0.05] px-3 py-2 text-xs text-ink/75">
+            <span>
+              Settings copied from <span className="font-semibold text-ink">{startedFrom}</span>, seed included: with the same seed, differences
+              between the two come from the changes, not from sampling.
+            </span>
+            {defaultsHref ? (
+              <Link to={defaultsHref} className="font-semibold whitespace-nowrap text-gyro hover:underline">
+                Start from the defaults
+              </Link>
+            ) : null}
           </p>
         ) : null}
         <Panel title="Stack revision" accent="var(--color-asic)">
