@@ -75,8 +75,14 @@ async function compare(studyName: string) {
   const n1 = r.trials, n2 = exp.trials;
   const fails: string[] = [];
   let checks = 0;
+  let worstZ = 0, worstWhat = "";
   const check = (what: string, got: number, want: number, se: number) => {
     checks++;
+    const z = Math.abs(got - want) / se;
+    if (z > worstZ) {
+      worstZ = z;
+      worstWhat = what;
+    }
     if (!(Math.abs(got - want) <= Z * se)) fails.push(`${what}: ${got} vs ${want} (|Δ| = ${Math.abs(got - want).toExponential(2)}, allowed ${(Z * se).toExponential(2)})`);
   };
   expect(Object.keys(r.metrics).sort()).toEqual(Object.keys(exp.metrics).sort());
@@ -97,6 +103,7 @@ async function compare(studyName: string) {
     const p = req.predictedYield;
     check(`${req.metric} yield`, g.predictedYield, p, Math.sqrt(p * (1 - p) * (1 / n1 + 1 / n2)));
   }
+  if (process.env.ORTHOSTACK_REPORT) process.stdout.write(`${studyName}: ${checks} checks, largest |Δ|/SE = ${worstZ.toFixed(2)} (${worstWhat})\n`);
   return { fails, checks };
 }
 
