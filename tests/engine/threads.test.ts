@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { runStudyOnThreads, StudyAbortedError } from "@backend/engine/runner";
 import { poseOfTrial, runStudy } from "@shared/engine/study";
-import { fixture, referenceStack, studyOf } from "./helpers";
+import { compassStack, fixture, referenceStack, study, studyOf } from "./helpers";
 
 const stack = referenceStack();
 const baseStudy = studyOf(fixture("study-reference.json"), stack);
@@ -24,6 +24,15 @@ describe("same seed, same numbers, whatever the number of threads", () => {
     expect(JSON.stringify(b)).toBe(JSON.stringify(a));
     const c = await runStudyOnThreads(stack, cal, { trials: 9000, threads: 2, seed: 4 });
     expect(c.metrics["heading.maxAbsDeg"].mean).not.toBe(a.metrics["heading.maxAbsDeg"].mean);
+  });
+
+  it("adaptive stopping takes the same decision on threads as in-process", async () => {
+    const st = compassStack({ axisTol: { dist: "normal", tol: 0.6 } }, { bondLine: { heightTol: { dist: "normal", tol: 4 } } });
+    const sd = studyOf(study({ trials: 200_000, adaptive: { significantDigits: 1 }, requirements: [{ metric: "heading.maxAbsDeg", max: 2, yield: 0.95 }] }), st);
+    const threads = await runStudyOnThreads(st, sd, { threads: 2 });
+    const inProc = runStudy(st, sd);
+    expect(threads.adaptive!.runs).toBeGreaterThanOrEqual(2);
+    expect(JSON.stringify(threads)).toBe(JSON.stringify(inProc));
   });
 
   it("reports progress up to the total and can be cancelled", async () => {
