@@ -22,10 +22,21 @@ async function settledHeading(page: Page, timeout = 30_000): Promise<string> {
   return (await headingP99(page).textContent())?.trim() ?? "";
 }
 
-async function waitSaved(page: Page) {
-  await page.waitForFunction(() => /^Saved · \d\d:\d\d$/.test(document.querySelector('[data-testid="save-status"]')?.textContent?.trim() ?? ""), undefined, {
-    timeout: 20_000,
-  });
+/** The number of saves the editor has made in this visit. */
+async function saves(page: Page): Promise<number> {
+  return Number((await saveStatus(page).getAttribute("data-saves")) ?? -1);
+}
+
+/** Waits until the editor has saved more often than `after` times and nothing is pending. */
+async function waitSaved(page: Page, after: number) {
+  await page.waitForFunction(
+    (n) => {
+      const el = document.querySelector('[data-testid="save-status"]');
+      return el?.getAttribute("data-state") === "saved" && Number(el.getAttribute("data-saves")) > n && /^Saved · \d\d:\d\d$/.test(el.textContent?.trim() ?? "");
+    },
+    after,
+    { timeout: 20_000 },
+  );
 }
 
 async function openDemoRevision(page: Page, number: number) {
@@ -53,6 +64,8 @@ describe("the stack editor", () => {
     // The magnetometer's bond line, in the table of every source: 2 um -> 12 um.
     const magBond = page.getByLabel("mag.bondLine tolerance");
     await expect(magBond.inputValue()).resolves.toBe("2");
+    await expect(saveStatus(page).textContent()).resolves.toMatch(/^Saved/);
+    expect(await saves(page)).toBe(0);
     await magBond.fill("12");
     const t0 = Date.now();
     await page.waitForFunction((b) => {
@@ -66,7 +79,7 @@ describe("the stack editor", () => {
     // The form of the selected element shows the same value.
     await page.getByRole("treeitem", { name: /^mag,/ }).click();
     await expect(page.getByRole("group", { name: "Height of each support tolerance" }).getByLabel("± Tolerance").inputValue()).resolves.toBe("12");
-    await waitSaved(page);
+    await waitSaved(page, 0);
     await screenshot(page, "editor-demo-changed");
 
     // Undo (Ctrl+Z) restores the value and the figures.
@@ -77,7 +90,8 @@ describe("the stack editor", () => {
     await page.getByRole("button", { name: "Redo" }).click();
     await expect(magBond.inputValue()).resolves.toBe("12");
     await page.waitForFunction((a) => document.querySelector('[data-testid="estimate-heading-p99"]')?.textContent?.trim() === a, after, { timeout: 30_000 });
-    await waitSaved(page);
+    // undo and redo are saved as well: at least two more saves
+    await waitSaved(page, 2);
 
     // The server has it: a reload shows the change.
     await page.reload();
@@ -153,9 +167,10 @@ describe("the stack editor", () => {
     await leave.waitFor({ state: "detached" });
     await tree.waitFor();
 
+    const savedBefore = await saves(page);
     await page.getByLabel("Position x").fill("0.5");
     await expect(page.getByText(/is off the/).count()).resolves.toBe(0);
-    await waitSaved(page);
+    await waitSaved(page, savedBefore);
 
     // The compass pair is there: the estimate shows a heading error; a requirement gets its predicted yield.
     await page.getByRole("button", { name: "Add requirement" }).click();
@@ -165,7 +180,7 @@ describe("the stack editor", () => {
     await page.getByRole("list", { name: "Predicted yield per requirement" }).getByText("heading.maxAbsDeg").waitFor({ timeout: 30_000 });
     const heading = await settledHeading(page);
     expect(Number(heading)).toBeGreaterThan(0);
-    await waitSaved(page);
+    await waitSaved(page, savedBefore + 1);
     await screenshot(page, "editor-new-stack");
 
     // Reload: the tree and values come back from the server.

@@ -100,7 +100,7 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
           )}
           {summary.worstRelRot ? (
             <Figure
-              label="Worst relative rotation · p99"
+              label="Relative rotation · p99"
               value={formatFigure(summary.worstRelRot.p99)}
               unit="°"
               sub={<span className="font-mono text-[10.5px]">{summary.worstRelRot.metric}</span>}

@@ -198,7 +198,7 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
           />
         </label>
         <div className="flex items-center gap-1.5">
-          {editable ? <SaveStatus state={autosave.state} onRetry={() => void autosave.retry()} /> : null}
+          {editable ? <SaveStatus state={autosave.state} saves={autosave.saves} onRetry={() => void autosave.retry()} /> : null}
           {editable ? (
             <div className="flex items-center rounded-md border border-line bg-panel">
               <button type="button" onClick={undo} disabled={!canUndo(history)} aria-label="Undo" title="Undo (Ctrl+Z)" className="flex size-8 items-center justify-center rounded-l-md text-ink/70 hover:bg-ink/[0.05] hover:text-ink disabled:opacity-35">
@@ -270,7 +270,7 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
 
       <LiveEstimateStrip estimate={estimate} problems={stackValidation.ok ? 0 : stackValidation.issues.length} />
 
-      <div className="mt-3 grid gap-3 xl:h-[660px] xl:grid-cols-[228px_minmax(360px,0.95fr)_minmax(0,1.15fr)]">
+      <div className="mt-3 grid gap-3 xl:h-[700px] xl:grid-cols-[224px_minmax(350px,0.9fr)_minmax(0,1.25fr)]">
         <Card title="Elements" meta={`${doc.stack.elements.length}`} className="max-xl:h-[360px]">
           <ElementTree />
         </Card>

@@ -13,7 +13,7 @@ import { clearBackup, writeBackup } from "../lib/backup";
 export const AUTOSAVE_DEBOUNCE_MS = 800;
 
 export type SaveState =
-  | { kind: "saved"; at: Date | null }
+  | { kind: "saved"; at: Date | null; /** saves made in this visit */ saves: number }
   | { kind: "pending" }
   | { kind: "saving" }
   | { kind: "invalid"; count: number }
@@ -46,7 +46,8 @@ export function useAutosave({
   const frozen = useRef(false);
   // Only a copy written in this visit is ours to drop when the document is back to saved.
   const wroteBackup = useRef(false);
-  const [state, setState] = useState<SaveState>({ kind: "saved", at: null });
+  const saves = useRef(0);
+  const [state, setState] = useState<SaveState>(() => ({ kind: "saved", at: new Date(updatedAt), saves: 0 }));
   const [dirty, setDirty] = useState(false);
 
   const save = useCallback(async (): Promise<boolean> => {
@@ -62,10 +63,11 @@ export function useAutosave({
       try {
         await mutate({ id: revisionId, changes: { stack: sending.stack, requirements: sending.requirements } });
         saved.current = sending;
+        saves.current++;
         if (current.current === sending) {
           clearBackup(revisionId);
           setDirty(false);
-          setState({ kind: "saved", at: new Date() });
+          setState({ kind: "saved", at: new Date(), saves: saves.current });
         }
         return true;
       } catch (error) {
@@ -96,7 +98,7 @@ export function useAutosave({
     setDirty(isDirty);
     if (!isDirty) {
       if (wroteBackup.current) clearBackup(revisionId);
-      setState((s) => (s.kind === "saved" ? s : { kind: "saved", at: s.kind === "error" ? null : new Date() }));
+      setState((s) => (s.kind === "saved" ? s : { kind: "saved", at: s.kind === "error" ? null : new Date(), saves: saves.current }));
       return;
     }
     writeBackup(revisionId, { doc, basedOn: updatedAt, at: new Date().toISOString() });
@@ -121,5 +123,5 @@ export function useAutosave({
     return save();
   }, [problems, save]);
 
-  return { state, dirty, flush, retry: save };
+  return { state, dirty, flush, retry: save, saves: state.kind === "saved" ? state.saves : saves.current };
 }
