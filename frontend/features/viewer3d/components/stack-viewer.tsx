@@ -56,7 +56,8 @@ const fmtCount = (n: number) => n.toLocaleString("en-GB").replace(/,/g, "\u202f"
 function fmtValue(v: number, unit?: string): string {
   const a = Math.abs(v);
   const s = a >= 100 ? v.toFixed(0) : a >= 10 ? v.toFixed(1) : a >= 1 ? v.toFixed(2) : v.toPrecision(2);
-  return unit ? `${s} ${unit}` : s;
+  if (!unit) return s;
+  return unit === "°" ? `${s}°` : `${s} ${unit}`;
 }
 const fmtAngle = (deg: number) => `${deg.toFixed(3)}° (${((deg * Math.PI) / 180 * 1000).toFixed(2)} mrad)`;
 
@@ -163,6 +164,11 @@ export default function StackViewer({
   );
   const [hover, setHover] = useState<{ index: number; part: "body" | "bond" } | null>(null);
   const viewportRef = useRef<HTMLDivElement>(null);
+  // in a small viewport (a side panel) the legend starts folded, so the stack stays visible
+  useEffect(() => {
+    const vp = viewportRef.current;
+    if (vp && (vp.clientWidth < 700 || vp.clientHeight < 460)) setLegendOpen(false);
+  }, []);
   const tooltipRef = useRef<HTMLDivElement>(null);
   const handleHover = useCallback((info: HoverInfo | null) => {
     setHover((h) => (info === null ? null : h && h.index === info.index && h.part === info.part ? h : { index: info.index, part: info.part }));
@@ -361,7 +367,7 @@ export default function StackViewer({
           <span className="font-semibold text-ink/70">Pose</span>
           <select
             aria-label="Pose"
-            className="h-7 max-w-[19rem] rounded-md border border-line bg-white px-1.5 text-xs hover:border-ink/30 focus:border-gyro focus:outline-none"
+            className="h-7 max-w-[15rem] rounded-md border border-line bg-white px-1.5 text-xs hover:border-ink/30 focus:border-gyro focus:outline-none"
             value={selectValue}
             onChange={(e) => onPoseSelect(e.target.value)}
           >
