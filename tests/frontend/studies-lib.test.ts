@@ -5,7 +5,7 @@ import { changeTone, relativeChange, requirementComparison, settingRows, sourceC
 import { yieldRows, lateDrift } from "@frontend/features/studies/lib/convergence";
 import { envelopeByTilt, niceCeil, tiltLabel } from "@frontend/features/studies/lib/envelope";
 import { formatDuration, formatPpm, formatValue, formatYield, formatYieldRange } from "@frontend/features/studies/lib/format";
-import { histogramRows } from "@frontend/features/studies/lib/histogram";
+import { histogramRows, niceTicks } from "@frontend/features/studies/lib/histogram";
 import { groupMetrics, metricLabel, parseMetric } from "@frontend/features/studies/lib/metrics";
 import { paretoRows, sourcesToReach } from "@frontend/features/studies/lib/pareto";
 import { estimateSeconds, progressView, recentPace } from "@frontend/features/studies/lib/progress";
@@ -287,5 +287,13 @@ describe("recent pace", () => {
     expect(recentPace([{ at: 0, done: 0 }, { at: 1_000, done: 5_000 }], 1_000)).toBeNull();
     expect(recentPace([{ at: 0, done: 5_000 }, { at: 3_000, done: 5_000 }], 3_000)).toBeNull();
     expect(recentPace([{ at: 0, done: 0 }, { at: 30_000, done: 5_000 }], 30_000)).toBeNull(); // the first sample is too old
+  });
+});
+
+describe("histogram axis ticks", () => {
+  it("round steps inside the range", () => {
+    expect(niceTicks(0, 4.24)).toEqual([0, 1, 2, 3, 4]);
+    expect(niceTicks(-3.3, 3.4)).toEqual([-2, 0, 2]);
+    expect(niceTicks(0, 0.733)).toEqual([0, 0.2, 0.4, 0.6]);
   });
 });

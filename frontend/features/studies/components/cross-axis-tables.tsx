@@ -38,7 +38,7 @@ export function CrossAxisTables({
           options={PERCENTILES.map((p) => ({ value: p.key, label: p.label }))}
         />
       </div>
-      <div className="grid gap-3 sm:grid-cols-2 2xl:grid-cols-3">
+      <div className="grid gap-x-3 gap-y-4 sm:grid-cols-3">
         {matrices.map((m) => {
           const colour = SENSOR_COLOUR[kindOf(m.sensor) ?? ""] ?? "#64748b";
           return (
@@ -50,8 +50,8 @@ export function CrossAxisTables({
               </caption>
               <thead>
                 <tr>
-                  <th scope="col" className="w-10 text-left text-2xs font-semibold text-ink/45">
-                    out \ in
+                  <th scope="col" className="w-5 text-left text-[10px] font-semibold text-ink/40" title="Row: the sensor's axis; column: the board axis it picks up">
+                    <span className="sr-only">sensor axis, board axis</span>
                   </th>
                   {AXES.map((j) => (
                     <th key={j} scope="col" className="h-6 text-right text-2xs font-bold tracking-[0.04em] text-ink/55 uppercase">
@@ -73,7 +73,7 @@ export function CrossAxisTables({
                         return (
                           <td
                             key={j}
-                            className="h-10 border border-line/70 bg-paper px-1.5 text-right align-middle text-ink/45"
+                            className="h-11 border border-line/70 bg-paper px-1 text-right align-middle text-ink/45"
                             title={mis === null ? "100 % by definition" : `Axis misalignment of ${i}: ${formatDeg(mis)} (${formatMrad(mis)})`}
                           >
                             <div className="leading-tight tabular-nums">—</div>
@@ -85,7 +85,7 @@ export function CrossAxisTables({
                       return (
                         <td
                           key={j}
-                          className="h-10 border border-line/70 px-1.5 text-right align-middle font-semibold tabular-nums"
+                          className="h-11 border border-line/70 px-1 text-right align-middle font-semibold tabular-nums"
                           style={{
                             background: `color-mix(in srgb, ${colour} ${Math.round(8 + 72 * t)}%, white)`,
                             color: t > 0.55 ? "white" : "#17212b",

@@ -2,7 +2,7 @@ import { useMemo, useState } from "react";
 import { Bar, BarChart, CartesianGrid, Cell, ReferenceLine, Tooltip, XAxis, YAxis } from "recharts";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { formatCount, formatDeg, formatMrad, formatNumber, formatPct, formatValue } from "../lib/format";
-import { histogramRows } from "../lib/histogram";
+import { histogramRows, niceTicks } from "../lib/histogram";
 import { axisLine, axisTick, FAIL, gridProps, INK, tooltipStyle } from "./chart-theme";
 import { MetricSelect } from "./metric-select";
 import { SegmentedControl } from "./segmented-control";
@@ -64,6 +64,7 @@ export function HistogramPanel({
                 dataKey="x"
                 type="number"
                 domain={[h.edges[0], h.edges[h.edges.length - 1]]}
+                ticks={niceTicks(h.edges[0], h.edges[h.edges.length - 1])}
                 tick={axisTick}
                 axisLine={axisLine}
                 tickLine={false}

@@ -28,3 +28,14 @@ export function histogramRows(h: Histogram, limit?: number): HistogramRow[] {
     return { x: (lo + hi) / 2, lo, hi, count, pct: total > 0 ? (100 * count) / total : 0, beyond, straddles };
   });
 }
+
+/** Round axis ticks inside [lo, hi]: about `count` of them, at 1, 2 or 5 × 10^k. */
+export function niceTicks(lo: number, hi: number, count = 5): number[] {
+  if (!(hi > lo)) return [lo];
+  const raw = (hi - lo) / count;
+  const e = Math.pow(10, Math.floor(Math.log10(raw)));
+  const step = [1, 2, 2.5, 5, 10].map((f) => f * e).find((s) => s >= raw) ?? 10 * e;
+  const out: number[] = [];
+  for (let v = Math.ceil(lo / step - 1e-9) * step; v <= hi + 1e-9 * step; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : Number(v.toPrecision(12)));
+  return out;
+}
