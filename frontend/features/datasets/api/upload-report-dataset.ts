@@ -1,0 +1,23 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { DatasetSchema, type Dataset } from "@shared/schemas/datasets";
+import { apiRequest } from "@frontend/lib/api-client";
+import { datasetKeys } from "./keys";
+
+/** A supplier sends the measurements a released report asks for. */
+export function uploadReportDataset({ reportId, file }: { reportId: string; file: File }): Promise<Dataset> {
+  const form = new FormData();
+  form.append("file", file, file.name);
+  return apiRequest(`/api/reports/${encodeURIComponent(reportId)}/datasets`, DatasetSchema, { method: "POST", body: form });
+}
+
+export function useUploadReportDataset() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: uploadReportDataset,
+    onSuccess: (dataset, { reportId }) =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: datasetKeys.report(reportId) }),
+        queryClient.invalidateQueries({ queryKey: datasetKeys.list(dataset.projectId) }),
+      ]),
+  });
+}
