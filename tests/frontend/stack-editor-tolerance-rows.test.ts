@@ -4,7 +4,7 @@ import { runStudy } from "@shared/engine/study";
 import type { StackFile } from "@shared/schemas/stack-file";
 import reference from "../fixtures/stack-reference.json" with { type: "json" };
 import demoDraft from "../../backend/demo/ridgeline-stack-draft.json" with { type: "json" };
-import { liveStudy, LIVE_INCLINATION_DEG, LIVE_TRIALS, summarize } from "@frontend/features/stack-editor/lib/live-estimate";
+import { estimate, liveStudy, LIVE_INCLINATION_DEG, LIVE_TRIALS, summarize } from "@frontend/features/stack-editor/lib/live-estimate";
 import { metricOptions, metricUnit } from "@frontend/features/stack-editor/lib/metrics";
 import { setAt } from "@frontend/features/stack-editor/lib/stack-ops";
 import { filterRows, sigmaOf, sortRows, toleranceRows } from "@frontend/features/stack-editor/lib/tolerance-rows";
@@ -75,9 +75,21 @@ describe("the live estimate", () => {
     const crossAxis = Object.entries(result.metrics).filter(([id]) => id.includes(".crossAxisTotalPct."));
     expect(s.worstCrossAxis!.p99).toBe(Math.max(...crossAxis.map(([, m]) => m.p99)));
     expect(s.worst[0]).toMatchObject({ metric: "heading.maxAbsDeg", trialIndex: result.worstTrials["heading.maxAbsDeg"][0].trial });
-    // the same stack and study give the same figures
-    expect(summarize(runStudy(stack, small.study), small)).toEqual(s);
+    // the worker's lean path gives exactly runStudy's figures, and the same again on a second run
+    expect(estimate(stack, small)).toEqual(s);
+    expect(estimate(stack, small)).toEqual(s);
   });
+
+  it("gives runStudy's figures for the demo draft at the estimate's own size", () => {
+    const reqs = [
+      { metric: "heading.maxAbsDeg", max: 2, yield: 0.99 },
+      { metric: "mag.crossAxisTotalPct.x", max: 2, yield: 0.9973 },
+      { metric: "accel~mag.relRotDeg", max: 0.5, yield: 0.9973 },
+    ];
+    const s = demoDraft as unknown as StackFile;
+    const live = liveStudy(s, reqs);
+    expect(estimate(s, live)).toEqual(summarize(runStudy(s, live.study), live));
+  }, 60_000);
 
   it("offers every metric id of the stack to the requirement picker, with its unit", () => {
     const opts = metricOptions(stack);

@@ -1,13 +1,13 @@
 /// <reference lib="webworker" />
 /**
- * Runs the editor's live estimate off the main thread with the engine of real studies.
+ * Runs the editor's live estimate off the main thread with the engine of real studies
+ * (its trial loop and percentile store; see lib/live-estimate.ts).
  * One message in ({ runId, stack, requirements }), one answer out per run. A stale run
  * is not interrupted here: the page terminates this worker and starts a fresh one.
  */
-import { runStudy } from "@shared/engine/study";
 import { validateStackFile } from "@shared/schemas/stack-file";
 import type { Requirement } from "@shared/schemas/study-file";
-import { liveStudy, summarize, type EstimateSummary } from "../lib/live-estimate";
+import { estimate, liveStudy, type EstimateSummary } from "../lib/live-estimate";
 
 export type EstimateRequest = { runId: number; stack: unknown; requirements: Requirement[] };
 export type EstimateAnswer =
@@ -23,8 +23,7 @@ scope.onmessage = (event: MessageEvent<EstimateRequest>) => {
     const v = validateStackFile(stack);
     if (!v.ok) throw new Error(`the stack has ${v.issues.length} problem${v.issues.length === 1 ? "" : "s"}`);
     const live = liveStudy(v.stack, requirements);
-    const result = runStudy(v.stack, live.study);
-    const answer: EstimateAnswer = { runId, type: "result", summary: summarize(result, live), ms: performance.now() - started };
+    const answer: EstimateAnswer = { runId, type: "result", summary: estimate(v.stack, live), ms: performance.now() - started };
     scope.postMessage(answer);
   } catch (error) {
     const answer: EstimateAnswer = { runId, type: "error", message: error instanceof Error ? error.message : String(error) };
