@@ -12,7 +12,7 @@ import { estimateSeconds, progressView, recentPace } from "@frontend/features/st
 
 const stats = (p: Partial<MetricStats> & { v?: number }): MetricStats => {
   const v = p.v ?? 1;
-  return { mean: 0, std: v / 3, p50: v / 2, p95: v, p99: v * 1.2, p9973: v * 1.4, max: v * 2, unit: "%", signed: true, minValue: -2 * v, maxValue: 2 * v, ...p };
+  return { mean: 0, std: v / 3, p50: v / 2, p95: v, p99: v * 1.2, p9973: v * 1.4, max: v * 2, unit: "%", signed: true, minValue: -2 * v, maxValue: 2 * v, interval95: [-v, v], shortest95: [-v, v], ...p } as MetricStats;
 };
 
 describe("cross-axis matrix from the per-term metrics", () => {

@@ -49,7 +49,8 @@ const req = (metric: string, predictedYield: number, ci: [number, number], yield
   demonstrated: ci[0] >= yieldTarget,
   limitAtTarget: 2.54,
 });
-const stats = (unit: "deg" | "%", v = 1): MetricStats => ({ mean: 0, std: 1, p50: v / 2, p95: v, p99: v, p9973: v, max: v, unit, signed: unit === "%", minValue: -v, maxValue: v });
+const stats = (unit: "deg" | "%", v = 1): MetricStats =>
+  ({ mean: 0, std: 1, p50: v / 2, p95: v, p99: v, p9973: v, max: v, unit, signed: unit === "%", minValue: -v, maxValue: v, interval95: [-v, v], shortest95: [-v, v] }) as MetricStats;
 
 describe("RequirementCards", () => {
   const result = {

@@ -7,8 +7,9 @@ import { formatNumber, MRAD_PER_DEG } from "../lib/format";
 import { groupMetrics, metricLabel } from "../lib/metrics";
 
 /**
- * Every metric of the study with its mean and σ (signed) and the percentiles and maximum of
- * |value|; angles in degrees with milliradians beside. Requirement metrics first and marked.
+ * Every metric of the study with its mean, σ and shortest 95 % coverage interval (signed),
+ * and the percentiles and maximum of |value|; angles in degrees with milliradians beside.
+ * Requirement metrics first and marked.
  */
 export function MetricsTable({ result, elementOrder }: { result: ResultFile; elementOrder: string[] }) {
   const [all, setAll] = useState(false);
@@ -27,6 +28,7 @@ export function MetricsTable({ result, elementOrder }: { result: ResultFile; ele
               <Th align="right">Unit</Th>
               <Th align="right">Mean</Th>
               <Th align="right">σ</Th>
+              <Th align="right" title="Shortest interval holding 95 % of the signed values (JCGM 101 5.3)">95 % interval</Th>
               <Th align="right">p50</Th>
               <Th align="right">p95</Th>
               <Th align="right">p99</Th>
@@ -40,7 +42,7 @@ export function MetricsTable({ result, elementOrder }: { result: ResultFile; ele
             <tbody key={g.label}>
               {all ? (
                 <tr className="border-b border-line/70 bg-paper/70">
-                  <th colSpan={11} scope="colgroup" className="px-3 py-1 text-left text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
+                  <th colSpan={12} scope="colgroup" className="px-3 py-1 text-left text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
                     {g.label}
                   </th>
                 </tr>
@@ -61,6 +63,12 @@ export function MetricsTable({ result, elementOrder }: { result: ResultFile; ele
                     </Td>
                     <Td numeric className="h-8 text-xs">{formatNumber(m.mean)}</Td>
                     <Td numeric className="h-8 text-xs">{formatNumber(m.std)}</Td>
+                    <Td numeric className="h-8 text-xs text-ink/60">
+                      {(() => {
+                        const iv = m.shortest95 ?? m.interval95;
+                        return iv ? `${formatNumber(iv[0])} … ${formatNumber(iv[1])}` : "—";
+                      })()}
+                    </Td>
                     <Td numeric className="h-8 text-xs">{formatNumber(m.p50)}</Td>
                     <Td numeric className={cn("h-8 text-xs", over(m.p95) && "text-fail")}>{formatNumber(m.p95)}</Td>
                     <Td numeric className={cn("h-8 text-xs", over(m.p99) && "text-fail")}>{formatNumber(m.p99)}</Td>
