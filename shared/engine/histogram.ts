@@ -164,6 +164,56 @@ export class LogHistogram {
     return Math.min(max, Math.max(min, v));
   }
 
+  /**
+   * Shortest interval [lo, hi] of signed values holding a fraction p of the sample (the
+   * shortest coverage interval of JCGM 101 5.3.4, for skewed outputs such as tilt
+   * magnitudes), searched over 200 lower ends between the 0 and (1 − p) quantiles.
+   */
+  shortestInterval(p: number, min: number, max: number): [number, number] {
+    const P = this.perSign;
+    const c = this.counts;
+    // non-empty buckets in value order, with their bounds and cumulative counts
+    const lo: number[] = [], hi: number[] = [], cum: number[] = [];
+    let n = 0;
+    const maxAbs = Math.max(Math.abs(min), Math.abs(max));
+    for (let b = P - 1; b >= 0; b--) {
+      const k = c[P + b];
+      if (!k) continue;
+      const [l, u] = this.magnitudeBounds(b, maxAbs);
+      lo.push(-u); hi.push(-l); n += k; cum.push(n);
+    }
+    for (let b = 0; b < P; b++) {
+      const k = c[b];
+      if (!k) continue;
+      const [l, u] = this.magnitudeBounds(b, maxAbs);
+      lo.push(l); hi.push(u); n += k; cum.push(n);
+    }
+    if (n === 0) return [NaN, NaN];
+    const at = (q: number): number => {
+      const idx = q * (n - 1);
+      if (idx <= 0) return min;
+      if (idx >= n - 1) return max;
+      let a = 0, z = cum.length - 1;
+      while (a < z) {
+        const mid = (a + z) >> 1;
+        if (cum[mid] > idx) z = mid;
+        else a = mid + 1;
+      }
+      const before = a > 0 ? cum[a - 1] : 0;
+      const k = cum[a] - before;
+      const v = lo[a] + ((idx - before + 0.5) / k) * (hi[a] - lo[a]);
+      return Math.min(max, Math.max(min, v));
+    };
+    let best: [number, number] = [at(0), at(p)];
+    const steps = 200;
+    for (let i = 1; i <= steps; i++) {
+      const q = ((1 - p) * i) / steps;
+      const l = at(q), u = at(q + p);
+      if (u - l < best[1] - best[0]) best = [l, u];
+    }
+    return best;
+  }
+
   /** Count of values with |v| <= limit (buckets straddling the limit are split evenly). */
   countAbsAtMost(limit: number, maxAbs: number): number {
     const P = this.perSign;

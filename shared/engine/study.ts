@@ -106,6 +106,8 @@ export function finalizeStudy(prep: PreparedStudy, coord: Coordinator, state: Wo
       signed: mi.signed,
       minValue: state.min[k],
       maxValue: state.max[k],
+      interval95: n > 0 ? [h.quantileSigned(0.025, state.min[k], state.max[k]), h.quantileSigned(0.975, state.min[k], state.max[k])] : [NaN, NaN],
+      shortest95: n > 0 ? h.shortestInterval(0.95, state.min[k], state.max[k]) : [NaN, NaN],
     };
     const lo = mi.signed ? state.min[k] : 0;
     const hi = mi.signed ? state.max[k] : state.maxAbs[k];

@@ -24,6 +24,12 @@ export const MetricStatsSchema = z.object({
   /** smallest and largest signed value */
   minValue: num,
   maxValue: num,
+  /**
+   * 95 % coverage intervals of the signed value: probabilistically symmetric, and shortest
+   * (JCGM 101 5.3). Optional: results written before engine 1.0.0 lack them.
+   */
+  interval95: z.tuple([num, num]).optional(),
+  shortest95: z.tuple([num, num]).optional(),
 });
 
 export const RequirementResultSchema = z.object({

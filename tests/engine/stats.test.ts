@@ -191,3 +191,39 @@ describe("Latin hypercube and adaptive stopping", () => {
     }
   });
 });
+
+describe("coverage intervals", () => {
+  it("shortest 95 % interval: symmetric ±1.96σ for a normal, [≈0, q] shifted left for a Rayleigh, against exact order statistics", () => {
+    // JCGM 101:2008 5.3.4 (REFERENCES.md: use the shortest coverage interval for skewed outputs)
+    const n = 100_000;
+    const g = blockStream(123, 0);
+    const normal = compileDist({ dist: "normal", tol: 3 });
+    for (const kind of ["normal", "rayleigh"] as const) {
+      const h = metricStore();
+      const v = new Float64Array(n);
+      for (let i = 0; i < n; i++) {
+        const x = sampleDist(normal, g.nextOpen01());
+        v[i] = kind === "normal" ? x : Math.hypot(x, sampleDist(normal, g.nextOpen01()));
+        h.add(v[i]);
+      }
+      v.sort();
+      // exact: the narrowest window of 0.95·n consecutive order statistics
+      const w = Math.round(0.95 * (n - 1));
+      let bl = 0;
+      for (let i = 1; i + w < n; i++) if (v[i + w] - v[i] < v[bl + w] - v[bl]) bl = i;
+      const [lo, hi] = h.shortestInterval(0.95, v[0], v[n - 1]);
+      // the interval ends are quantiles: allow 4.5 standard errors of a quantile at the ends' densities
+      const f = (x: number) => (kind === "normal" ? jStat.normal.pdf(x, 0, 1) : x * Math.exp((-x * x) / 2));
+      const se = (x: number) => quantileSE(0.5, n, Math.max(f(x), 0.02));
+      expect(Math.abs(lo - v[bl])).toBeLessThan(4.5 * se(v[bl]));
+      expect(Math.abs(hi - v[bl + w])).toBeLessThan(4.5 * se(v[bl + w]));
+      if (kind === "normal") {
+        expect(Math.abs(lo + 1.96)).toBeLessThan(4.5 * se(1.96) + 0.02);
+        expect(Math.abs(hi - 1.96)).toBeLessThan(4.5 * se(1.96) + 0.02);
+      } else {
+        // narrower than the probabilistically symmetric interval of a right-skewed output
+        expect(hi - lo).toBeLessThan(h.quantileSigned(0.975, v[0], v[n - 1]) - h.quantileSigned(0.025, v[0], v[n - 1]));
+      }
+    }
+  });
+});
