@@ -7,6 +7,8 @@ import { MembersRoute, membersLoader } from "./routes/app/members";
 import { ProjectRoute, projectLoader } from "./routes/app/project";
 import { ProjectsRoute, projectsLoader } from "./routes/app/projects";
 import { StackEditorRoute, stackEditorLoader } from "./routes/app/stack-editor";
+import { OutboxRoute, outboxLoader } from "./routes/app/outbox";
+import { ReportRoute, reportLoader } from "./routes/app/report";
 import { ReportsRoute, reportsLoader } from "./routes/app/reports";
 import { SuppliersRoute, suppliersLoader } from "./routes/app/suppliers";
 import { NotFoundRoute } from "./routes/not-found";
@@ -59,6 +61,8 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
                 { path: "suppliers", loader: suppliersLoader(queryClient), element: <SuppliersRoute /> },
                 { path: "members", loader: membersLoader(queryClient), element: <MembersRoute /> },
                 { path: "reports", loader: reportsLoader(queryClient), element: <ReportsRoute /> },
+                { path: "reports/:id", loader: reportLoader(queryClient), element: <ReportRoute /> },
+                { path: "outbox", loader: outboxLoader(queryClient), element: <OutboxRoute /> },
                 { path: "*", element: <NotFoundRoute /> },
               ],
             },

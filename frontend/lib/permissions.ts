@@ -11,6 +11,12 @@ const RULES = {
   "suppliers.write": ["admin"],
   "members.manage": ["admin"],
   "reports.inbox": ["supplier"],
+  "reports.read": ["admin", "engineer", "reviewer", "supplier"],
+  "reports.write": ["admin", "engineer"],
+  "reports.release": ["admin", "reviewer"],
+  "reports.send": ["admin", "engineer", "reviewer"],
+  "reports.acknowledge": ["supplier"],
+  "outbox.read": ["admin"],
   "studies.run": ["admin", "engineer"],
 } as const satisfies Record<string, readonly Role[]>;
 

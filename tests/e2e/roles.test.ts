@@ -5,9 +5,9 @@ import { setupE2E, unexpectedProblems } from "./support/setup";
 const e2e = setupE2E();
 
 const DEMO = [
-  { email: "admin@example.com", role: "Admin", start: "/projects", nav: ["Projects", "Suppliers", "Members"] },
-  { email: "engineer@example.com", role: "Engineer", start: "/projects", nav: ["Projects", "Suppliers"] },
-  { email: "reviewer@example.com", role: "Reviewer", start: "/projects", nav: ["Projects", "Suppliers"] },
+  { email: "admin@example.com", role: "Admin", start: "/projects", nav: ["Projects", "Reports", "Suppliers", "Members", "Outbox"] },
+  { email: "engineer@example.com", role: "Engineer", start: "/projects", nav: ["Projects", "Reports", "Suppliers"] },
+  { email: "reviewer@example.com", role: "Reviewer", start: "/projects", nav: ["Projects", "Reports", "Suppliers"] },
   { email: "supplier@example.com", role: "Supplier", start: "/reports", nav: ["Reports"] },
 ] as const;
 

@@ -17,9 +17,9 @@ function labels(role: Role): string[] {
 
 describe("SideNav", () => {
   it.each<[Role, string[]]>([
-    ["admin", ["/projects", "/suppliers", "/members"]],
-    ["engineer", ["/projects", "/suppliers"]],
-    ["reviewer", ["/projects", "/suppliers"]],
+    ["admin", ["/projects", "/reports", "/suppliers", "/members", "/outbox"]],
+    ["engineer", ["/projects", "/reports", "/suppliers"]],
+    ["reviewer", ["/projects", "/reports", "/suppliers"]],
     ["supplier", ["/reports"]],
   ])("shows %s the screens of that role", (role, expected) => {
     expect(labels(role)).toEqual(expected);

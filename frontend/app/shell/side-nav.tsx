@@ -2,7 +2,7 @@ import type { ReactNode } from "react";
 import { NavLink } from "react-router";
 import type { Role } from "@shared/schemas/common";
 import { Logo } from "@frontend/components/ui/logo";
-import { MembersIcon, ProjectsIcon, ReportsIcon, SuppliersIcon } from "@frontend/components/ui/icons";
+import { MembersIcon, OutboxIcon, ProjectsIcon, ReportsIcon, SuppliersIcon } from "@frontend/components/ui/icons";
 import { cn } from "@frontend/lib/cn";
 
 type NavItem = { to: string; label: string; icon: ReactNode; note?: string };
@@ -11,14 +11,15 @@ type NavItem = { to: string; label: string; icon: ReactNode; note?: string };
 export function navItemsFor(role: Role): NavItem[] {
   const projects = { to: "/projects", label: "Projects", icon: <ProjectsIcon /> };
   const suppliers = { to: "/suppliers", label: "Suppliers", icon: <SuppliersIcon /> };
+  const reports = { to: "/reports", label: "Reports", icon: <ReportsIcon /> };
   switch (role) {
     case "admin":
-      return [projects, suppliers, { to: "/members", label: "Members", icon: <MembersIcon /> }];
+      return [projects, reports, suppliers, { to: "/members", label: "Members", icon: <MembersIcon /> }, { to: "/outbox", label: "Outbox", icon: <OutboxIcon /> }];
     case "engineer":
     case "reviewer":
-      return [projects, { ...suppliers, note: "read only" }];
+      return [projects, reports, { ...suppliers, note: "read only" }];
     case "supplier":
-      return [{ to: "/reports", label: "Reports", icon: <ReportsIcon /> }];
+      return [reports];
   }
 }
 

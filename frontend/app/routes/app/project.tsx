@@ -13,6 +13,7 @@ import { ActivityList } from "@frontend/features/projects/components/activity-li
 import { DeleteProjectDialog } from "@frontend/features/projects/components/delete-project-dialog";
 import { EditProjectDialog } from "@frontend/features/projects/components/project-form-dialog";
 import { StudyResultChip } from "@frontend/features/projects/components/study-result-chip";
+import { ReportsPanel } from "@frontend/features/reports/components/reports-panel";
 import { StudiesPanel } from "@frontend/features/studies/components/studies-panel";
 import { RevisionsPanel } from "@frontend/features/revisions/components/revisions-panel";
 import { isApiError } from "@frontend/lib/api-client";
@@ -99,10 +100,7 @@ export function ProjectRoute() {
           <RevisionsPanel projectId={project.id} projectName={project.name} canWrite={can(me.role, "revisions.write")} />
           <StudiesPanel projectId={project.id} canRun={can(me.role, "studies.run")} />
           <DatasetsPanel projectId={project.id} canWrite={canWrite} />
-          <Upcoming title="Reports" accent="var(--color-mag)" arrives="Arrives with supplier reports">
-            One tolerance report per supplier company, built from an approved revision and a finished study, released after review
-            and acknowledged by the supplier.
-          </Upcoming>
+          <ReportsPanel projectId={project.id} canWrite={can(me.role, "reports.write")} />
         </div>
         <Panel title="Activity" className="self-start" bodyClassName="max-h-[520px] overflow-y-auto">
           <ActivityList projectId={project.id} />
@@ -128,22 +126,5 @@ function Fact({ label, children }: { label: string; children: ReactNode }) {
       <dt className="text-[10px] font-bold tracking-[0.08em] text-ink/45 uppercase">{label}</dt>
       <dd className="mt-1 truncate text-[13px] font-semibold text-ink">{children}</dd>
     </div>
-  );
-}
-
-function Upcoming({ title, accent, arrives, children }: { title: string; accent: string; arrives: string; children: ReactNode }) {
-  return (
-    <Panel
-      title={title}
-      accent={accent}
-      bodyClassName="flex h-full flex-col gap-3"
-      className="flex flex-col"
-    >
-      <p className="text-[13px] leading-5 text-ink/65">{children}</p>
-      <p className="mt-auto inline-flex items-center gap-1.5 text-xs font-semibold text-ink/45">
-        <span className="size-1.5 rounded-full" style={{ background: accent }} aria-hidden="true" />
-        {arrives}
-      </p>
-    </Panel>
   );
 }

@@ -1,0 +1,20 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { SendResultSchema, type SendResult } from "@shared/schemas/reports";
+import { api } from "@frontend/lib/api-client";
+import { refreshAfter } from "./invalidate";
+import { reportKeys } from "./keys";
+
+export function sendReport({ id, message }: { id: string; message?: string }): Promise<SendResult> {
+  return api.post(`/api/reports/${encodeURIComponent(id)}/send`, message ? { message } : {}, SendResultSchema);
+}
+
+export function useSendReport() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: sendReport,
+    onSuccess: (result) => {
+      queryClient.setQueryData(reportKeys.detail(result.report.id), result.report);
+      return Promise.all([refreshAfter(queryClient, result.report), queryClient.invalidateQueries({ queryKey: reportKeys.outbox() })]);
+    },
+  });
+}

@@ -1,0 +1,237 @@
+import { useState, type FormEvent, type ReactNode } from "react";
+import { UpdateReportSchema, type Report, type SendResult } from "@shared/schemas/reports";
+import { Alert } from "@frontend/components/ui/alert";
+import { Button } from "@frontend/components/ui/button";
+import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
+import { Dialog } from "@frontend/components/ui/dialog";
+import { Field, Input, Textarea } from "@frontend/components/ui/field";
+import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { useAcknowledgeReport } from "../api/acknowledge-report";
+import { useDeleteReport } from "../api/delete-report";
+import { useReleaseReport } from "../api/release-report";
+import { useSendReport } from "../api/send-report";
+import { useUpdateReport } from "../api/update-report";
+import { readPng } from "../lib/files";
+import { reportTitle } from "./report-status";
+
+type Base = { report: Report; onClose: () => void };
+
+/** A dialog with an optional note and one action button; shared by release, send and acknowledge. */
+function NoteDialog({
+  title,
+  description,
+  children,
+  label,
+  noteLabel,
+  placeholder,
+  pending,
+  error,
+  onClose,
+  onConfirm,
+}: {
+  title: string;
+  description: ReactNode;
+  children?: ReactNode;
+  label: string;
+  noteLabel: string;
+  placeholder: string;
+  pending: boolean;
+  error?: string;
+  onClose: () => void;
+  onConfirm: (note: string) => void;
+}) {
+  const [note, setNote] = useState("");
+  return (
+    <Dialog
+      open
+      onClose={onClose}
+      title={title}
+      description={description}
+      busy={pending}
+      onSubmit={(e: FormEvent<HTMLFormElement>) => {
+        e.preventDefault();
+        onConfirm(note.trim());
+      }}
+      formLabel={title}
+      footer={
+        <>
+          <Button variant="secondary" onClick={onClose} disabled={pending}>
+            Cancel
+          </Button>
+          <Button type="submit" variant="primary" pending={pending}>
+            {label}
+          </Button>
+        </>
+      }
+    >
+      <div className="space-y-3">
+        {children}
+        <Field label={noteLabel} aside="optional">
+          {({ id, describedBy }) => <Textarea id={id} aria-describedby={describedBy} rows={3} value={note} onChange={(e) => setNote(e.target.value)} placeholder={placeholder} />}
+        </Field>
+        {error ? <Alert>{error}</Alert> : null}
+      </div>
+    </Dialog>
+  );
+}
+
+export function ReleaseDialog({ report, onClose }: Base) {
+  const release = useReleaseReport();
+  return (
+    <NoteDialog
+      title={`Release ${reportTitle(report)}?`}
+      description={
+        <>
+          Its PDF, spreadsheet and CSV are made once now and kept exactly as they will be sent, each with a SHA-256 checksum. The
+          report is then frozen: a change makes revision {report.revision + 1}.
+        </>
+      }
+      label="Release report"
+      noteLabel="Review note"
+      placeholder="What you checked, for the record."
+      pending={release.isPending}
+      error={release.error?.message}
+      onClose={onClose}
+      onConfirm={(comment) => release.mutate({ id: report.id, comment: comment || undefined }, { onSuccess: onClose })}
+    />
+  );
+}
+
+export function SendDialog({ report, contacts, onClose, onSent }: Base & { contacts: Array<{ name: string; email: string }> | null; onSent: (r: SendResult) => void }) {
+  const send = useSendReport();
+  return (
+    <NoteDialog
+      title={`Send ${reportTitle(report)} to ${report.supplierName}`}
+      description="Each contact receives a message with the link to this page and the released PDF attached."
+      label="Send report"
+      noteLabel="Message"
+      placeholder="A line for the supplier, e.g. when you need the acknowledgement."
+      pending={send.isPending}
+      error={send.error?.message}
+      onClose={onClose}
+      onConfirm={(message) => send.mutate({ id: report.id, message: message || undefined }, { onSuccess: (r) => (onSent(r), onClose()) })}
+    >
+      {contacts === null ? null : contacts.length === 0 ? (
+        <Alert>{report.supplierName} has no contacts. An admin adds them on the Suppliers page.</Alert>
+      ) : (
+        <ul className="rounded-md border border-line bg-paper/50 px-3 py-2 text-[13px]" aria-label="Recipients">
+          {contacts.map((c) => (
+            <li key={c.email} className="flex justify-between gap-3 py-0.5">
+              <span className="font-semibold text-ink">{c.name}</span>
+              <span className="text-ink/60">{c.email}</span>
+            </li>
+          ))}
+        </ul>
+      )}
+    </NoteDialog>
+  );
+}
+
+export function AcknowledgeDialog({ report, onClose }: Base) {
+  const ack = useAcknowledgeReport();
+  return (
+    <NoteDialog
+      title={`Acknowledge ${reportTitle(report)}`}
+      description={
+        <>
+          You confirm that {report.supplierName} has received this report and will hold its {report.toleranceCount} tolerances with the
+          capability asked. Your name and the time are recorded. If something is unclear, ask a question first.
+        </>
+      }
+      label="Acknowledge"
+      noteLabel="Comment"
+      placeholder="e.g. which line or process this applies to."
+      pending={ack.isPending}
+      error={ack.error?.message}
+      onClose={onClose}
+      onConfirm={(comment) => ack.mutate({ id: report.id, comment: comment || undefined }, { onSuccess: onClose })}
+    />
+  );
+}
+
+export function EditDraftDialog({ report, onClose }: Base) {
+  const update = useUpdateReport();
+  const [cpk, setCpk] = useState(report.capability.cpk.toFixed(2));
+  const [note, setNote] = useState(report.note);
+  const [snapshot, setSnapshot] = useState<string | null | undefined>(undefined);
+  const [errors, setErrors] = useState<FieldErrors>({});
+
+  async function pick(file: File | undefined) {
+    if (!file) return;
+    try {
+      setSnapshot(await readPng(file));
+      setErrors((e) => ({ ...e, snapshotPng: "" }));
+    } catch (e) {
+      setErrors((x) => ({ ...x, snapshotPng: e instanceof Error ? e.message : "The image could not be read." }));
+    }
+  }
+
+  function submit(e: FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    const parsed = parseForm(UpdateReportSchema, { cpk: Number(cpk), note, ...(snapshot !== undefined ? { snapshotPng: snapshot } : {}) });
+    if (!parsed.ok) return setErrors(parsed.errors);
+    update.mutate({ id: report.id, changes: parsed.data }, { onSuccess: onClose, onError: (err) => setErrors(serverFieldErrors(err)) });
+  }
+
+  const hasSnapshot = snapshot === undefined ? report.hasSnapshot : snapshot !== null;
+  return (
+    <Dialog
+      open
+      onClose={onClose}
+      title={`Change the draft of ${reportTitle(report)}`}
+      description="The tables are worked out again from the same study with these settings."
+      busy={update.isPending}
+      onSubmit={submit}
+      formLabel="Change the draft"
+      footer={
+        <>
+          <Button variant="secondary" onClick={onClose} disabled={update.isPending}>
+            Cancel
+          </Button>
+          <Button type="submit" variant="primary" pending={update.isPending}>
+            Save draft
+          </Button>
+        </>
+      }
+    >
+      <div className="space-y-4">
+        <Field label="Capability asked" aside="Cpk ≥" error={errors.cpk}>
+          {({ id, describedBy, invalid }) => <Input id={id} aria-describedby={describedBy} invalid={invalid} inputMode="decimal" value={cpk} onChange={(e) => setCpk(e.target.value)} className="num w-32" />}
+        </Field>
+        <Field label="Note to the supplier" aside="optional" error={errors.note}>
+          {({ id, describedBy, invalid }) => <Textarea id={id} aria-describedby={describedBy} invalid={invalid} rows={2} value={note} onChange={(e) => setNote(e.target.value)} />}
+        </Field>
+        <Field label="3D snapshot" aside="PNG" error={errors.snapshotPng || undefined} hint={hasSnapshot ? "The cover shows this picture." : "The cover shows a schematic side view."}>
+          {({ id, describedBy }) => (
+            <div className="flex items-center gap-2">
+              <input id={id} type="file" accept="image/png" aria-describedby={describedBy} onChange={(e) => void pick(e.target.files?.[0])} className="block min-w-0 flex-1 text-xs text-ink/70 file:mr-3 file:h-7.5 file:rounded-md file:border file:border-line file:bg-panel file:px-3 file:text-xs file:font-semibold file:text-ink" />
+              {hasSnapshot ? (
+                <Button size="sm" variant="ghost" onClick={() => setSnapshot(null)}>
+                  Remove
+                </Button>
+              ) : null}
+            </div>
+          )}
+        </Field>
+        {errors._form ? <Alert>{errors._form}</Alert> : null}
+      </div>
+    </Dialog>
+  );
+}
+
+export function DiscardDialog({ report, onClose, onDiscarded }: Base & { onDiscarded: () => void }) {
+  const del = useDeleteReport();
+  return (
+    <ConfirmDialog
+      open
+      onClose={onClose}
+      title={`Discard the draft of ${reportTitle(report)}?`}
+      confirmLabel="Discard draft"
+      pending={del.isPending}
+      error={del.error?.message}
+      onConfirm={() => del.mutate(report, { onSuccess: onDiscarded })}
+    >
+      <p>The draft and its comments are removed. Released revisions of this report stay as they are.</p>
+    </ConfirmDialog>
+  );
+}
