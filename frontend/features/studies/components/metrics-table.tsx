@@ -65,7 +65,9 @@ export function MetricsTable({ result, elementOrder }: { result: ResultFile; ele
                     <Td numeric className="h-8 text-xs">{formatNumber(m.std)}</Td>
                     <Td numeric className="h-8 text-xs text-ink/60">
                       {(() => {
-                        const iv = m.shortest95 ?? m.interval95;
+                        // Written by engines from 1.0.0 on; older result files lack them.
+                        const c = m as { shortest95?: [number, number]; interval95?: [number, number] };
+                        const iv = c.shortest95 ?? c.interval95;
                         return iv ? `${formatNumber(iv[0])} … ${formatNumber(iv[1])}` : "—";
                       })()}
                     </Td>
