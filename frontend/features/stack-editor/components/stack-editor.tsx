@@ -127,6 +127,8 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
     if (readOnly) return;
     const onKey = (e: KeyboardEvent) => {
       if (!(e.ctrlKey || e.metaKey) || e.altKey) return;
+      // A note being written keeps the browser's own text undo.
+      if (e.target instanceof HTMLTextAreaElement) return;
       const k = e.key.toLowerCase();
       if (k === "z" && !e.shiftKey) {
         e.preventDefault();

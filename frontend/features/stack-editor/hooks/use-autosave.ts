@@ -11,6 +11,7 @@ import type { EditorDoc } from "../lib/stack-ops";
 import { clearBackup, writeBackup } from "../lib/backup";
 
 export const AUTOSAVE_DEBOUNCE_MS = 800;
+export const RETRY_MS = 5000;
 
 export type SaveState =
   | { kind: "saved"; at: Date | null; /** saves made in this visit */ saves: number }
@@ -73,12 +74,13 @@ export function useAutosave({
       } catch (error) {
         const e = isApiError(error) ? error : null;
         if (e?.code === "revision_frozen" || e?.status === 409) frozen.current = true;
-        setState({
-          kind: "error",
-          message: e?.message ?? "The draft could not be saved.",
-          fields: e?.fields ?? [],
-          retryable: !frozen.current && (!e || e.status === 0 || e.status >= 500),
-        });
+        const retryable = !frozen.current && (!e || e.status === 0 || e.status >= 500);
+        setState({ kind: "error", message: e?.message ?? "The draft could not be saved.", fields: e?.fields ?? [], retryable });
+        // A lost connection or a server hiccup: try again by itself (the browser copy holds the edits meanwhile).
+        if (retryable) {
+          if (timer.current) window.clearTimeout(timer.current);
+          timer.current = window.setTimeout(() => void saveRef.current(), RETRY_MS);
+        }
         return false;
       } finally {
         inFlight.current = null;
@@ -90,6 +92,8 @@ export function useAutosave({
     if (ok && current.current !== saved.current && enabled) return save();
     return ok;
   }, [enabled, mutate, revisionId]);
+  const saveRef = useRef(save);
+  saveRef.current = save;
 
   useEffect(() => {
     if (timer.current) window.clearTimeout(timer.current);

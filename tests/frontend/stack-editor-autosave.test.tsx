@@ -1,0 +1,126 @@
+import { QueryClientProvider } from "@tanstack/react-query";
+import { cleanup, render, screen, waitFor } from "@testing-library/react";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import type { StackFile } from "@shared/schemas/stack-file";
+import reference from "../fixtures/stack-reference.json" with { type: "json" };
+import { useAutosave } from "@frontend/features/stack-editor/hooks/use-autosave";
+import { readBackup } from "@frontend/features/stack-editor/lib/backup";
+import type { EditorDoc } from "@frontend/features/stack-editor/lib/stack-ops";
+import { createQueryClient } from "@frontend/lib/query-client";
+import { failOnConsoleError, jsonResponse, mockFetch } from "./helpers";
+
+vi.setConfig({ testTimeout: 20_000 });
+afterEach(() => {
+  cleanup();
+  vi.restoreAllMocks();
+  localStorage.clear();
+});
+beforeEach(() => localStorage.clear());
+failOnConsoleError();
+
+const REV_ID = "6a0b3c1e-8a55-4d7e-9a51-3f0c6f1d2e70";
+const PROJECT_ID = "0b6f2c1e-8a55-4d7e-9a51-3f0c6f1d2e77";
+const saved: EditorDoc = { stack: reference as unknown as StackFile, requirements: [] };
+
+function revisionBody(doc: EditorDoc) {
+  return {
+    id: REV_ID,
+    projectId: PROJECT_ID,
+    number: 2,
+    status: "draft",
+    name: doc.stack.name ?? "",
+    note: "",
+    basedOnId: null,
+    createdByName: "Ezra Lindqvist",
+    approvedByName: null,
+    createdAt: "2026-01-05T10:00:00.000Z",
+    updatedAt: "2026-01-05T10:05:00.000Z",
+    submittedAt: null,
+    approvedAt: null,
+    stack: doc.stack,
+    requirements: doc.requirements,
+    comments: [],
+  };
+}
+
+function Probe({ doc, problems }: { doc: EditorDoc; problems: number }) {
+  const a = useAutosave({ revisionId: REV_ID, doc, savedDoc: saved, enabled: true, problems, updatedAt: "2026-01-05T10:00:00.000Z" });
+  return (
+    <p data-testid="probe" data-kind={a.state.kind} data-dirty={String(a.dirty)} data-saves={a.saves}>
+      {a.state.kind === "error" ? a.state.message : a.state.kind}
+    </p>
+  );
+}
+
+function mount(doc: EditorDoc, problems = 0) {
+  const client = createQueryClient();
+  const ui = (d: EditorDoc, p: number) => (
+    <QueryClientProvider client={client}>
+      <Probe doc={d} problems={p} />
+    </QueryClientProvider>
+  );
+  const r = render(ui(doc, problems));
+  return { rerender: (d: EditorDoc, p = 0) => r.rerender(ui(d, p)) };
+}
+
+const probe = () => screen.getByTestId("probe");
+const edited = (tol: number): EditorDoc => ({
+  ...saved,
+  stack: { ...saved.stack, elements: saved.stack.elements.map((e) => (e.id === "mag" ? { ...e, bondLine: { ...e.bondLine, heightTol: { dist: "normal", tol } } } : e)) },
+});
+
+describe("autosave of a draft", () => {
+  it("sends nothing while the document is the saved one", async () => {
+    const spy = mockFetch(() => jsonResponse(200, revisionBody(saved)));
+    mount(saved);
+    await new Promise((r) => setTimeout(r, 1100));
+    expect(spy).not.toHaveBeenCalled();
+    expect(probe().dataset.kind).toBe("saved");
+  });
+
+  it("saves the stack and requirements after a pause, once", async () => {
+    const calls: { method: string; url: string; body: unknown }[] = [];
+    mockFetch((c) => {
+      calls.push(c);
+      return jsonResponse(200, revisionBody(c.body as EditorDoc));
+    });
+    const m = mount(saved);
+    const doc = edited(7);
+    m.rerender(doc);
+    expect(probe().dataset.kind).toBe("pending");
+    expect(probe().dataset.dirty).toBe("true");
+    await waitFor(() => expect(probe().dataset.kind).toBe("saved"), { timeout: 5000 });
+    expect(calls).toHaveLength(1);
+    expect(calls[0]).toMatchObject({ method: "PATCH", url: `/api/revisions/${REV_ID}` });
+    expect(calls[0].body).toEqual({ stack: doc.stack, requirements: doc.requirements });
+    expect(probe().dataset.saves).toBe("1");
+    expect(probe().dataset.dirty).toBe("false");
+    expect(readBackup(REV_ID)).toBeNull();
+  });
+
+  it("keeps a document with problems in this browser and does not send it", async () => {
+    const spy = mockFetch(() => jsonResponse(200, {}));
+    const m = mount(saved);
+    const doc = edited(-1);
+    m.rerender(doc, 1);
+    expect(probe().dataset.kind).toBe("invalid");
+    await new Promise((r) => setTimeout(r, 1100));
+    expect(spy).not.toHaveBeenCalled();
+    expect(readBackup(REV_ID)?.doc).toEqual(doc);
+  });
+
+  it("shows the server's refusal and keeps the edits in the browser copy", async () => {
+    mockFetch(() =>
+      jsonResponse(400, {
+        error: { code: "invalid_stack", message: "The stack file has a problem; nothing was stored.", fields: [{ path: "stack.elements[5].size.x", message: "too small" }] },
+      }),
+    );
+    const m = mount(saved);
+    const doc = edited(9);
+    m.rerender(doc);
+    await waitFor(() => expect(probe().dataset.kind).toBe("error"), { timeout: 5000 });
+    expect(probe().textContent).toBe("The stack file has a problem; nothing was stored.");
+    expect(probe().dataset.dirty).toBe("true");
+    expect(readBackup(REV_ID)?.doc).toEqual(doc);
+  });
+});
