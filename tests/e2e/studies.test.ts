@@ -218,6 +218,24 @@ describe("studies", () => {
     expect(unexpectedProblems(problems)).toEqual([]);
   }, 120_000);
 
+  it("a reviewer reads the results but cannot start, cancel or re-run studies", async () => {
+    const { page, problems } = await e2e.session();
+    await signInAs(page, "reviewer@example.com");
+    await openDemoProject(page);
+    await page.getByRole("table", { name: "Studies" }).getByRole("link", { name: "Study 2" }).waitFor();
+    await expect(page.getByRole("link", { name: "New study" }).count()).resolves.toBe(0);
+    await page.goto(studyUrl);
+    await page.getByRole("list", { name: "Requirements" }).waitFor();
+    await page.getByRole("button", { name: "Download result (JSON)" }).waitFor();
+    await expect(page.getByRole("link", { name: "New study from these settings" }).count()).resolves.toBe(0);
+    // Study 3 was cancelled: the reviewer sees why it has no result, without a Run again button.
+    await page.getByRole("link", { name: "Ridgeline trail watch: 9-axis sensor module" }).click();
+    await page.getByRole("table", { name: "Studies" }).getByRole("link", { name: "Study 3" }).click();
+    await page.getByText("This study was cancelled before it finished").waitFor();
+    await expect(page.getByRole("button", { name: "Run again" }).count()).resolves.toBe(0);
+    expect(unexpectedProblems(problems)).toEqual([]);
+  }, 60_000);
+
   it("compares two studies, and runs one study's settings on the draft revision", async () => {
     const { page, problems } = await e2e.session();
     await signInAs(page, "engineer@example.com");

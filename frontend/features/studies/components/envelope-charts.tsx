@@ -150,7 +150,7 @@ function TiltChart({
           axisLine={axisLine}
           tickLine={false}
           width={showYLabel ? 40 : 34}
-          tickFormatter={(v: number) => `${v > 0 ? "+" : v < 0 ? "−" : ""}${formatNumber(Math.abs(v), 2)}°`}
+          tickFormatter={(v: number) => `${v > 0 ? "+" : v < 0 ? "−" : ""}${formatNumber(Math.abs(v), 3)}°`}
           allowDataOverflow
         />
         <ReferenceLine y={0} stroke={INK} strokeOpacity={0.35} />
