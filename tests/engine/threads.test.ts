@@ -22,7 +22,7 @@ describe("same seed, same numbers, whatever the number of threads", () => {
     const a = await runStudyOnThreads(stack, cal, { trials: 9000, threads: 1, seed: 3 });
     const b = await runStudyOnThreads(stack, cal, { trials: 9000, threads: 2, seed: 3 });
     expect(JSON.stringify(b)).toBe(JSON.stringify(a));
-    const c = await runStudyOnThreads(stack, cal, { trials: 9000, threads: 2, seed: 4 });
+    const c = runStudy(stack, cal, { trials: 9000, seed: 4 });
     expect(c.metrics["heading.maxAbsDeg"].mean).not.toBe(a.metrics["heading.maxAbsDeg"].mean);
   });
 
