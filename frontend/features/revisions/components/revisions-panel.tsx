@@ -83,6 +83,7 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
       </Button>
       <Button
         size="sm"
+        variant="primary"
         icon={<PlusIcon />}
         pending={create.isPending}
         onClick={() => create.mutate({ projectId, stack: starterStack(projectName), note: "New stack." }, { onSuccess: (rev) => open(rev.id) })}

@@ -167,6 +167,11 @@ export function ElementTree() {
               </>
             ) : null}
           </div>
+          {rows.length === 1 ? (
+            <p className="mt-2 text-[11px] leading-4 text-ink/55">
+              Start with the package: <span className="font-semibold text-ink/75">Add on board → Substrate</span>, then put the ASIC and the sensor dies on it.
+            </p>
+          ) : null}
           {selected.parent !== null ? (
             <label className="mt-1.5 flex items-center gap-1.5 text-[11px] font-semibold text-ink/60">
               <span className="shrink-0">Sits on</span>

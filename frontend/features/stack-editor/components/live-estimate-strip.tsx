@@ -43,7 +43,7 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
           : updating
             ? "Updating…"
             : estimate.ms !== null
-              ? `Updated in ${(estimate.ms / 1000).toFixed(1)} s`
+              ? `Updated in ${estimate.ms < 1000 ? `${Math.max(1, Math.round(estimate.ms))} ms` : `${(estimate.ms / 1000).toFixed(1)} s`}`
               : "";
 
   return (
