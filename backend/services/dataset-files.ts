@@ -4,6 +4,7 @@
  * it was found in (the header is the file's first non-blank row; rows count as a
  * spreadsheet shows them, from 1).
  */
+import { Readable } from "node:stream";
 import ExcelJS from "exceljs";
 import { DATASET_MAX_COLUMNS, DATASET_MAX_ROWS, DATASET_PREVIEW_ROWS } from "@shared/schemas/datasets";
 import { parseHeader, type MeasureUnit } from "@shared/datasets/units";
@@ -15,7 +16,7 @@ const MAX_XLSX_UNPACKED = 120 * 1024 * 1024;
 /** How many problems one refusal lists; the message names the first. */
 const MAX_LISTED = 20;
 
-type CellKind = "empty" | "number" | "text" | "date" | "bool" | "error";
+type CellKind = "empty" | "number" | "text" | "date" | "bool" | "error" | "formula";
 type Cell = { kind: CellKind; text: string; value: number | null };
 type RawRow = { row: number; cells: Cell[] };
 type RawTable = { fileType: "csv" | "xlsx"; sheet: string | null; rows: RawRow[] };
@@ -226,7 +227,10 @@ function cellOf(v: ExcelJS.CellValue): Cell {
     if ("error" in v && v.error) return { kind: "error", text: String(v.error), value: null };
     if ("formula" in v || "sharedFormula" in v) {
       const r = (v as { result?: ExcelJS.CellValue }).result;
-      return r === undefined ? EMPTY : cellOf(r as ExcelJS.CellValue);
+      if (r !== undefined && r !== null) return cellOf(r as ExcelJS.CellValue);
+      // a formula whose result was not saved with it, or an error result the reader drops
+      const f = (v as { formula?: string }).formula;
+      return { kind: "formula", text: f ? `=${f}` : "a formula", value: null };
     }
     if ("richText" in v && Array.isArray(v.richText)) return cellOf(v.richText.map((p) => p.text).join(""));
     if ("text" in v) return cellOf(String((v as { text: unknown }).text));
@@ -234,31 +238,54 @@ function cellOf(v: ExcelJS.CellValue): Cell {
   return { kind: "text", text: String(v), value: null };
 }
 
+type StreamCell = { value: ExcelJS.CellValue };
+type StreamRow = { number: number; eachCell: (opts: { includeEmpty: boolean }, fn: (cell: StreamCell, col: number) => void) => void };
+type StreamSheet = AsyncIterable<StreamRow> & { name: string };
+
+/**
+ * Streams the workbook (exceljs' reader keeps one row at a time, about a tenth of the memory
+ * of loading it whole) and stops at the first sheet that holds rows.
+ */
 async function readXlsx(buf: Buffer): Promise<RawTable> {
   const unpacked = zipUnpackedSize(buf);
   if (unpacked === null) throw invalid("The file could not be read as an Excel workbook (.xlsx). Nothing was stored.");
   if (unpacked > MAX_XLSX_UNPACKED) {
     throw invalid(`The workbook unpacks to ${Math.round(unpacked / 1048576)} MB, more than the ${MAX_XLSX_UNPACKED / 1048576} MB accepted. Nothing was stored.`);
   }
-  const wb = new ExcelJS.Workbook();
+  const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(buf), {
+    sharedStrings: "cache",
+    hyperlinks: "ignore",
+    styles: "cache",
+    worksheets: "emit",
+    entries: "emit",
+  });
+  const rows: RawRow[] = [];
+  let sheet: string | null = null;
+  let sheets = 0;
   try {
-    await wb.xlsx.load(buf as unknown as ArrayBuffer);
-  } catch {
+    for await (const ws of reader as unknown as AsyncIterable<StreamSheet>) {
+      sheets++;
+      for await (const r of ws) {
+        const cells: Cell[] = [];
+        r.eachCell({ includeEmpty: true }, (c, col) => {
+          cells[col - 1] = cellOf(c.value);
+        });
+        for (let k = 0; k < cells.length; k++) cells[k] ??= EMPTY;
+        if (!cells.some((c) => c.kind !== "empty")) continue;
+        rows.push({ row: r.number, cells });
+        if (rows.length > DATASET_MAX_ROWS + 1) throw tooManyRows();
+      }
+      if (rows.length) {
+        sheet = ws.name;
+        break;
+      }
+    }
+  } catch (err) {
+    if (err instanceof HttpError) throw err;
     throw invalid("The file could not be read as an Excel workbook (.xlsx). Nothing was stored.");
   }
-  const sheet = wb.worksheets.find((ws) => ws.actualRowCount > 0) ?? wb.worksheets[0];
-  if (!sheet) throw invalid("The workbook has no worksheet. Nothing was stored.", undefined, "empty_file");
-  if (sheet.actualRowCount > DATASET_MAX_ROWS + 1) throw tooManyRows();
-  const rows: RawRow[] = [];
-  sheet.eachRow({ includeEmpty: false }, (r, rowNumber) => {
-    const cells: Cell[] = [];
-    r.eachCell({ includeEmpty: true }, (c, col) => {
-      cells[col - 1] = cellOf(c.value);
-    });
-    for (let k = 0; k < cells.length; k++) cells[k] ??= EMPTY;
-    rows.push({ row: rowNumber, cells });
-  });
-  return { fileType: "xlsx", sheet: sheet.name, rows };
+  if (sheets === 0) throw invalid("The workbook has no worksheet. Nothing was stored.", undefined, "empty_file");
+  return { fileType: "xlsx", sheet, rows };
 }
 
 const tooManyRows = () =>
@@ -380,6 +407,7 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
       else if (cell.kind === "date") problems.push({ at, message: `holds a date (${cell.text}), not a number` });
       else if (cell.kind === "error") problems.push({ at, message: `holds the spreadsheet error ${cell.text}, not a number` });
       else if (cell.kind === "bool") problems.push({ at, message: `holds ${cell.text}, not a number` });
+      else if (cell.kind === "formula") problems.push({ at, message: `holds the formula ${cell.text} with no number saved as its result` });
       else problems.push({ at, message: `“${cell.text.length > 40 ? `${cell.text.slice(0, 40)}…` : cell.text}” is not a number` });
       if (problems.length > MAX_LISTED) break;
     }

@@ -174,9 +174,23 @@ describe("refused files: 400 naming the row and column, nothing stored", () => {
     {
       what: "a spreadsheet error (XLSX)",
       name: "k.xlsx",
+      content: () => xlsx([["unit", "yaw [deg]"], ["U1", 0.1], ["U2", { error: "#DIV/0!" }]]),
+      code: "invalid_file",
+      message: /^Row 3, column B \(yaw \[deg\]\): holds the spreadsheet error #DIV\/0!, not a number/,
+    },
+    {
+      what: "a formula without a numeric result (XLSX)",
+      name: "k2.xlsx",
       content: () => xlsx([["unit", "yaw [deg]"], ["U1", { formula: "1/0", result: { error: "#DIV/0!" } }]]),
       code: "invalid_file",
-      message: /^Row 2, column B \(yaw \[deg\]\): holds the spreadsheet error #DIV\/0!, not a number/,
+      message: /^Row 2, column B \(yaw \[deg\]\): holds the formula =1\/0 with no number saved as its result/,
+    },
+    {
+      what: "more rows than allowed (XLSX)",
+      name: "big.xlsx",
+      content: () => xlsx([["v [um]"], ...Array.from({ length: DATASET_MAX_ROWS + 1 }, (_, i) => [i])]),
+      code: "too_many_rows",
+      message: /more than 100,000 data rows/,
     },
     {
       what: "a missing cell (XLSX)",
