@@ -9,7 +9,8 @@
 import { readFileSync } from "node:fs";
 import type { Page } from "playwright-core";
 import { describe, expect, it } from "vitest";
-import { screenshot as viewportShot, signInAs } from "./support/browser";
+import { join } from "node:path";
+import { ARTIFACTS, screenshot as viewportShot, signInAs } from "./support/browser";
 import { setupE2E, unexpectedProblems } from "./support/setup";
 
 const e2e = setupE2E();
@@ -181,7 +182,7 @@ describe("studies", () => {
     const viewer = page.getByRole("dialog", { name: new RegExp(`trial ${Number(firstTrial).toLocaleString("en-US")}`) });
     await viewer.locator("canvas").waitFor({ timeout: 60_000 });
     await page.waitForTimeout(1500);
-    await viewportShot(page, "studies-worst-trial-3d");
+    await page.screenshot({ path: join(ARTIFACTS, "studies-worst-trial-3d.png") });
     await page.keyboard.press("Escape");
     await viewer.waitFor({ state: "detached" });
 
