@@ -48,7 +48,7 @@ export async function seedDemoDatasets(db: Database, ctx: { workspaceId: string;
     .select({ id: stackRevisions.id })
     .from(stackRevisions)
     .where(and(eq(stackRevisions.projectId, ctx.projectId), eq(stackRevisions.number, 1)));
-  await db.transaction(async (tx) => {
+  const id = await db.transaction(async (tx) => {
     const [ds] = await tx
       .insert(datasets)
       .values({
@@ -77,18 +77,22 @@ export async function seedDemoDatasets(db: Database, ctx: { workspaceId: string;
       summary: `uploaded the data set “${DEMO_DATASET_NAME}” (48 rows, 2 measured columns)`,
       data: { datasetId: ds.id },
     });
-    if (rev1) {
-      await tx.insert(datasetMappings).values({ datasetId: ds.id, column: "yaw [mrad]", revisionId: rev1.id, source: "mag.yaw", unit: "mrad", nominal: 0, updatedBy: ctx.userIds.engineer });
+    return ds.id;
+  });
+  // its own transaction, so the activity list shows the upload before the mapping
+  if (rev1) {
+    await db.transaction(async (tx) => {
+      await tx.insert(datasetMappings).values({ datasetId: id, column: "yaw [mrad]", revisionId: rev1.id, source: "mag.yaw", unit: "mrad", nominal: 0, updatedBy: ctx.userIds.engineer });
       await recordActivity(tx, {
         workspaceId: ctx.workspaceId,
         projectId: ctx.projectId,
         actorId: ctx.userIds.engineer,
         action: "dataset.mapped",
         summary: `mapped the data set “${DEMO_DATASET_NAME}”: “yaw [mrad]” → mag.yaw (rev 1, mrad)`,
-        data: { datasetId: ds.id },
+        data: { datasetId: id },
       });
-    }
-  });
+    });
+  }
 }
 
 addSeedHook(seedDemoDatasets);
