@@ -101,15 +101,17 @@ function SidePicker({
         <span className="flex size-6 shrink-0 items-center justify-center rounded text-xs font-extrabold text-white" style={{ background: colour }} aria-hidden="true">
           {label}
         </span>
-        <Select compact aria-label={`Study ${label}`} value={study?.id ?? ""} onChange={(e) => onPick(e.target.value || null)} className="min-w-0 flex-1">
-          <option value="">Choose a study…</option>
-          {studies.map((s) => (
-            <option key={s.id} value={s.id} disabled={s.id === other}>
-              Study {s.number} · rev {s.revisionNumber} · {s.status === "finished" ? (s.passes === null ? "finished" : s.passes ? "pass" : "fail") : s.status}
-              {s.label ? ` · ${s.label}` : ""}
-            </option>
-          ))}
-        </Select>
+        <div className="min-w-0 flex-1">
+          <Select compact aria-label={`Study ${label}`} value={study?.id ?? ""} onChange={(e) => onPick(e.target.value || null)}>
+            <option value="">Choose a study…</option>
+            {studies.map((s) => (
+              <option key={s.id} value={s.id} disabled={s.id === other}>
+                Study {s.number} · rev {s.revisionNumber} · {s.status === "finished" ? (s.passes === null ? "finished" : s.passes ? "pass" : "fail") : s.status}
+                {s.label ? ` · ${s.label}` : ""}
+              </option>
+            ))}
+          </Select>
+        </div>
         {study ? (study.status === "finished" ? <VerdictBadge passes={study.passes} /> : <StudyStatusBadge status={study.status} />) : null}
       </div>
       {study && (study.status === "queued" || study.status === "running") ? (
@@ -141,13 +143,15 @@ function RunElsewhere({
   return (
     <div className="flex flex-wrap items-center gap-x-3 gap-y-2 rounded-lg border border-line bg-paper/60 px-4 py-2.5">
       <p className="text-xs font-semibold text-ink/80">Same settings on another revision</p>
-      <Select compact aria-label="Revision to run on" value={target} onChange={(e) => setTarget(e.target.value)} className="w-80">
-        {others.map((r) => (
-          <option key={r.id} value={r.id}>
-            Revision {r.number} ({r.status.replace("_", " ")}): {r.name}
-          </option>
-        ))}
-      </Select>
+      <div className="w-auto max-w-[28rem] min-w-0 flex-1">
+        <Select compact aria-label="Revision to run on" value={target} onChange={(e) => setTarget(e.target.value)}>
+          {others.map((r) => (
+            <option key={r.id} value={r.id}>
+              Revision {r.number} ({r.status.replace("_", " ")}): {r.name}
+            </option>
+          ))}
+        </Select>
+      </div>
       <Button
         size="sm"
         variant="primary"
@@ -489,13 +493,15 @@ function TopContributors({ ra, rb }: { ra: ResultFile; rb: ResultFile }) {
   const rows = sources.map((s) => ({ s, a: share(ca, s), b: share(cb, s) })).sort((x, y) => y.b - x.b);
   return (
     <div className="flex flex-col gap-2">
-      <Select compact aria-label="Contributors compared for" value={metric} onChange={(e) => setMetric(e.target.value)} className="w-72">
-        {metrics.map((m) => (
-          <option key={m} value={m}>
-            {metricLabel(m)}
-          </option>
-        ))}
-      </Select>
+      <div className="w-72">
+        <Select compact aria-label="Contributors compared for" value={metric} onChange={(e) => setMetric(e.target.value)}>
+          {metrics.map((m) => (
+            <option key={m} value={m}>
+              {metricLabel(m)}
+            </option>
+          ))}
+        </Select>
+      </div>
       <div className="overflow-x-auto rounded-md border border-line/80">
         <Table aria-label="Contributors compared">
           <THead>

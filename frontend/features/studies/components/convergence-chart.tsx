@@ -4,6 +4,7 @@ import type { ResultFile } from "@shared/schemas/result-file";
 import { Select } from "@frontend/components/ui/field";
 import { lateDrift, statRows, yieldRows, type ConvergenceStat } from "../lib/convergence";
 import { formatCount, formatNumber, formatPct, formatValue, formatYield } from "../lib/format";
+import { niceTicks } from "../lib/histogram";
 import { metricLabel } from "../lib/metrics";
 import { axisLine, axisTick, FAIL, gridProps, INK, SERIES_A, tooltipStyle } from "./chart-theme";
 
@@ -60,20 +61,24 @@ export function ConvergencePanel({ result, metric, onMetric }: { result: ResultF
   return (
     <div className="flex flex-col gap-2">
       <div className="flex flex-wrap items-center gap-2">
-        <Select compact aria-label="Convergence metric" value={tracked.metric} onChange={(e) => onMetric(e.target.value)} className="w-64">
-          {result.convergence.map((c) => (
-            <option key={c.metric} value={c.metric}>
-              {metricLabel(c.metric)}
-            </option>
-          ))}
-        </Select>
-        <Select compact aria-label="Convergence percentile" value={stat} onChange={(e) => setStat(e.target.value as ConvergenceStat)} className="w-56">
-          {stats.map((s) => (
-            <option key={s.value} value={s.value}>
-              {s.label}
-            </option>
-          ))}
-        </Select>
+        <div className="w-64">
+          <Select compact aria-label="Convergence metric" value={tracked.metric} onChange={(e) => onMetric(e.target.value)}>
+            {result.convergence.map((c) => (
+              <option key={c.metric} value={c.metric}>
+                {metricLabel(c.metric)}
+              </option>
+            ))}
+          </Select>
+        </div>
+        <div className="w-56">
+          <Select compact aria-label="Convergence percentile" value={stat} onChange={(e) => setStat(e.target.value as ConvergenceStat)}>
+            {stats.map((s) => (
+              <option key={s.value} value={s.value}>
+                {s.label}
+              </option>
+            ))}
+          </Select>
+        </div>
       </div>
       <figure data-chart="convergence" aria-label={`Convergence of ${tracked.metric}`} className="min-w-0">
         <figcaption className="text-[11.5px] font-bold text-ink">{statLabel} of |value|</figcaption>
@@ -102,7 +107,7 @@ export function ConvergencePanel({ result, metric, onMetric }: { result: ResultF
           <ComposedChart responsive style={{ width: "100%", height: 150 }} data={yields} margin={{ top: 8, right: 14, bottom: 0, left: 4 }}>
             <CartesianGrid {...gridProps} />
             {xAxis}
-            <YAxis domain={yieldDomain} tick={axisTick} axisLine={axisLine} tickLine={false} width={52} tickFormatter={(v: number) => `${formatNumber(v, 4)}%`} />
+            <YAxis domain={yieldDomain} ticks={niceTicks(yieldDomain[0], yieldDomain[1], 4)} tick={axisTick} axisLine={axisLine} tickLine={false} width={52} tickFormatter={(v: number) => `${formatNumber(v, 4)}%`} />
             <Tooltip
               {...tooltipStyle}
               labelFormatter={(v) => `${formatCount(Number(v))} trials`}

@@ -21,17 +21,19 @@ export function MetricSelect({
   className?: string;
 }) {
   return (
-    <Select compact aria-label={label} value={value} onChange={(e) => onChange(e.target.value)} className={className ?? "w-72"}>
-      {groupMetrics(ids, elementOrder).map((g) => (
-        <optgroup key={g.label} label={g.label}>
-          {g.ids.map((id) => (
-            <option key={id} value={id}>
-              {required.includes(id) ? "● " : ""}
-              {metricLabel(id)} ({id})
-            </option>
-          ))}
-        </optgroup>
-      ))}
-    </Select>
+    <div className={className ?? "w-96 max-w-full"}>
+      <Select compact aria-label={label} value={value} onChange={(e) => onChange(e.target.value)}>
+        {groupMetrics(ids, elementOrder).map((g) => (
+          <optgroup key={g.label} label={g.label}>
+            {g.ids.map((id) => (
+              <option key={id} value={id}>
+                {required.includes(id) ? "● " : ""}
+                {metricLabel(id)} ({id})
+              </option>
+            ))}
+          </optgroup>
+        ))}
+      </Select>
+    </div>
   );
 }

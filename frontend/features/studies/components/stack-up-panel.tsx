@@ -3,6 +3,8 @@ import { Bar, BarChart, CartesianGrid, Legend, Tooltip, XAxis, YAxis } from "rec
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { formatNumber, formatValue } from "../lib/format";
+import { niceCeil } from "../lib/envelope";
+import { niceTicks } from "../lib/histogram";
 import { parseMetric } from "../lib/metrics";
 import { axisLine, axisTick, gridProps, INK, tooltipStyle } from "./chart-theme";
 import { SegmentedControl } from "./segmented-control";
@@ -30,6 +32,7 @@ export function StackUpPanel({ result, elementOrder }: { result: ResultFile; ele
   if (!result.stackUp.length) return <p className="py-6 text-center text-[13px] text-ink/55">This stack has no signed metrics to stack up.</p>;
   const unit = result.metrics[rows[0]?.metric]?.unit ?? "%";
   const data = rows.map((r) => ({ ...r, term: parseMetric(r.metric).axis ?? r.metric }));
+  const top = niceCeil(Math.max(0, ...rows.flatMap((r) => [r.worstCase, r.rss, r.mc3Sigma, r.mcP9973])) * 1.05);
 
   return (
     <div className="flex flex-col gap-2">
@@ -43,7 +46,7 @@ export function StackUpPanel({ result, elementOrder }: { result: ResultFile; ele
         <BarChart responsive style={{ width: "100%", height: 200 }} data={data} margin={{ top: 8, right: 8, bottom: 0, left: 0 }} barGap={1} barCategoryGap="18%">
           <CartesianGrid {...gridProps} vertical={false} />
           <XAxis dataKey="term" tick={axisTick} axisLine={axisLine} tickLine={false} height={20} />
-          <YAxis tick={axisTick} axisLine={axisLine} tickLine={false} width={46} tickFormatter={(v: number) => `${formatNumber(v, 2)}${unit === "%" ? "%" : "°"}`} />
+          <YAxis domain={[0, top]} ticks={niceTicks(0, top, 4)} tick={axisTick} axisLine={axisLine} tickLine={false} width={46} tickFormatter={(v: number) => `${formatNumber(v, 2)}${unit === "%" ? "%" : "°"}`} />
           <Tooltip {...tooltipStyle} cursor={{ fill: INK, fillOpacity: 0.05 }} formatter={(v, name) => [formatValue(Number(v), unit), name]} labelFormatter={(t) => `${group}.crossAxisPct.${t}`} />
           <Legend iconType="square" iconSize={9} wrapperStyle={{ fontSize: 11, paddingTop: 2 }} />
           {SERIES.map((s) => (

@@ -260,10 +260,12 @@ export function StudySettingsForm({
             {v.adaptive ? (
               <label className="flex items-center gap-2 text-xs text-ink/70">
                 significant digits
-                <Select compact aria-label="Significant digits" value={v.significantDigits} onChange={(e) => set("significantDigits", e.target.value as "1" | "2")} className="w-16">
-                  <option value="1">1</option>
-                  <option value="2">2</option>
-                </Select>
+                <div className="w-16">
+                  <Select compact aria-label="Significant digits" value={v.significantDigits} onChange={(e) => set("significantDigits", e.target.value as "1" | "2")}>
+                    <option value="1">1</option>
+                    <option value="2">2</option>
+                  </Select>
+                </div>
               </label>
             ) : null}
             <span className="text-xs text-ink/55">
