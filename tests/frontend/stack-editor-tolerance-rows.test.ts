@@ -88,7 +88,14 @@ describe("the live estimate", () => {
     ];
     const s = demoDraft as unknown as StackFile;
     const live = liveStudy(s, reqs);
-    expect(estimate(s, live)).toEqual(summarize(runStudy(s, live.study), live));
+    const mine = estimate(s, live);
+    expect(mine).toEqual(summarize(runStudy(s, live.study), live));
+    // what drives each requirement: shares of one whole, largest first
+    for (const r of mine.requirements) {
+      expect(r.drivers.length).toBeGreaterThan(0);
+      expect(r.drivers.every((d, i) => i === 0 || d.share <= r.drivers[i - 1].share)).toBe(true);
+      expect(r.drivers.reduce((a, d) => a + d.share, 0)).toBeLessThanOrEqual(1 + 1e-9);
+    }
   }, 60_000);
 
   it("offers every metric id of the stack to the requirement picker, with its unit", () => {

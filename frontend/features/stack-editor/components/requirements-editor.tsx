@@ -36,10 +36,10 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
       <table className="w-full table-fixed border-collapse text-xs" aria-label="Requirements">
         <thead className="border-b border-line bg-paper/70">
           <tr className="text-[10.5px] font-bold tracking-[0.06em] text-ink/55 uppercase">
-            <th className="h-8 w-[34%] px-3 text-left">Metric</th>
-            <th className="w-[15%] px-2 text-right">Limit |value| ≤</th>
-            <th className="w-[22%] px-2 text-right">Yield target</th>
-            <th className="w-[23%] px-2 text-right">Estimate</th>
+            <th className="h-8 w-[31%] px-3 text-left">Metric</th>
+            <th className="w-[14%] px-2 text-right">|Value| ≤</th>
+            <th className="w-[20%] px-2 text-right">Yield target</th>
+            <th className="w-[29%] px-2 text-right">Estimate</th>
             <th className="w-[6%]" />
           </tr>
         </thead>
@@ -110,7 +110,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                 </td>
                 <td className="px-2 py-1.5 text-right">
                   {est ? (
-                    <div className={cn("inline-flex flex-col items-end", estimateStale && "opacity-50")} aria-label={`Estimate for ${label}`}>
+                    <div className={cn("inline-flex max-w-full flex-col items-end", estimateStale && "opacity-50")} aria-label={`Estimate for ${label}`}>
                       <span className="inline-flex items-center gap-1.5">
                         <span className={cn("num text-[13px] font-bold", est.passes ? "text-pass" : "text-fail")}>{formatYield(est.predictedYield)}</span>
                         <Badge tone={est.passes ? "pass" : "fail"}>{est.passes ? "Meets" : "Misses"}</Badge>
@@ -118,6 +118,17 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                       <span className="num text-[10.5px] text-ink/45">
                         95 % CI {formatYield(est.ci[0])}–{formatYield(est.ci[1])}
                       </span>
+                      {est.drivers.length ? (
+                        <span className="mt-0.5 max-w-full truncate text-[10.5px] text-ink/55" title="Largest linearised contributors: share of the metric's variance (or mean square)">
+                          driven by{" "}
+                          {est.drivers.slice(0, 2).map((d, k) => (
+                            <span key={d.source}>
+                              {k > 0 ? " · " : ""}
+                              <span className="font-mono text-ink/75">{d.source}</span> <span className="num">{Math.round(d.share * 100)} %</span>
+                            </span>
+                          ))}
+                        </span>
+                      ) : null}
                     </div>
                   ) : (
                     <span className="text-[11px] text-ink/40">{messages.length ? "fix to estimate" : "—"}</span>

@@ -309,7 +309,7 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
         <ToleranceTable />
       </Card>
 
-      <div className="mt-3 grid gap-3 lg:grid-cols-[minmax(0,1.7fr)_minmax(0,1fr)]">
+      <div className="mt-3 grid gap-3 lg:grid-cols-[minmax(0,2.3fr)_minmax(0,1fr)]">
         <Card title="Requirements" meta="from the system budget; predicted yield from the live estimate">
           <RequirementsEditor estimate={estimate.summary} estimateStale={estimate.stale} />
         </Card>

@@ -132,7 +132,7 @@ export function OwnerPicker({
         aria-label={label}
         value={selectValue}
         disabled={disabled}
-        className={other ? "w-[44%] shrink-0" : "w-full"}
+        className={other ? "w-[40%] shrink-0" : "w-full"}
         onChange={(e) => {
           const v = e.target.value;
           if (v === OTHER) {
@@ -154,7 +154,7 @@ export function OwnerPicker({
             ))}
           </optgroup>
         ) : null}
-        <option value={OTHER}>In-house / other…</option>
+        <option value={OTHER}>{other ? "In-house:" : "In-house / other…"}</option>
       </SelectInput>
       {other ? (
         <TextInput

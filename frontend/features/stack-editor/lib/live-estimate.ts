@@ -8,10 +8,13 @@
  *
  * `estimate` runs the engine's own trial loop (prepareStudy, runBlock) and reads the
  * same percentile store and pass counts as runStudy, but skips runStudy's finishing
- * (contributors, stack-up, histograms, heading envelope), which took two thirds of the
- * time of a 3,000-trial run. A test checks that both give the same figures.
+ * (stack-up of every metric, plot histograms, heading envelope, regression), which took
+ * two thirds of the time of a 3,000-trial run; the linearised contributors of the
+ * requirement metrics (one sweep of the draws) it keeps. A test checks that both give the
+ * same figures.
  */
 import { metricHistogram, runBlock } from "@shared/engine/accumulate";
+import { linearisedContributions } from "@shared/engine/contributors";
 import { metricIds } from "@shared/engine/model";
 import { wilson } from "@shared/engine/stats";
 import { newWorkerState, prepareStudy } from "@shared/engine/study";
@@ -65,7 +68,17 @@ export interface EstimateRequirement {
   predictedYield: number;
   ci: [number, number];
   passes: boolean;
+  /** the largest linearised contributors (share of variance or mean square), largest first */
+  drivers: { source: string; share: number }[];
 }
+
+const DRIVERS = 3;
+const drivers = (sources: { source: string; share: number }[]) =>
+  [...sources]
+    .filter((x) => x.share > 0)
+    .sort((a, b) => b.share - a.share || a.source.localeCompare(b.source))
+    .slice(0, DRIVERS)
+    .map(({ source, share }) => ({ source, share }));
 
 export interface WorstPick {
   metric: string;
@@ -111,6 +124,7 @@ export function summarize(result: ResultFile, live: LiveStudy): EstimateSummary 
     predictedYield: r.predictedYield,
     ci: r.ci,
     passes: r.passes,
+    drivers: drivers((result.contributors.find((c) => c.metric === r.metric)?.sources ?? []).map((x) => ({ source: x.source, share: x.linearShare }))),
   }));
   return finish(result.trials, result.seed, heading ? { p95: heading.p95, p99: heading.p99, max: heading.max } : null, worstCrossAxis, worstRelRot, requirements, (metric) => {
     const t = result.worstTrials[metric]?.[0];
@@ -161,6 +175,7 @@ export function estimate(stack: StackFile, live: LiveStudy): EstimateSummary {
   };
   const h = model.metricIndex.get("heading.maxAbsDeg");
   const heading = h === undefined ? null : { p95: pct(h, 0.95), p99: pct(h, 0.99), max: st.maxAbs[h] };
+  const lin = new Map(linearisedContributions(model, [...new Set(plan.requirements.map((r) => r.metric))]).map((l) => [l.metric, l] as const));
   const requirements: EstimateRequirement[] = plan.requirements.map((r, i) => {
     const py = n > 0 ? st.pass[i] / n : NaN;
     return {
@@ -172,6 +187,7 @@ export function estimate(stack: StackFile, live: LiveStudy): EstimateSummary {
       predictedYield: py,
       ci: wilson(st.pass[i], n),
       passes: py >= r.yield,
+      drivers: drivers(lin.get(r.id)?.sources ?? []),
     };
   });
   return finish(n, plan.seed, heading, largest((id) => id.includes(".crossAxisTotalPct.")), largest((id) => id.endsWith(".relRotDeg")), requirements, (metric) => {
