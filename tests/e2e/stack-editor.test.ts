@@ -222,6 +222,7 @@ describe("the stack editor", () => {
     await page.getByTestId("import-stack-file").setInputFiles({ name: "broken.stack.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(broken)) });
     const refused = page.getByRole("dialog", { name: "This stack file cannot be imported" });
     await refused.getByText("elements[5].size.x").waitFor();
+    await refused.getByText("mag", { exact: true }).waitFor();
     await refused.getByText("The length size.x (mm) must be greater than 0").waitFor();
     await screenshot(page, "editor-import-refused");
     await refused.getByRole("button", { name: "Close" }).first().click();

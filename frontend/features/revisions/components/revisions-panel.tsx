@@ -4,14 +4,13 @@
  */
 import { useRef, useState } from "react";
 import { Link, useNavigate } from "react-router";
-import type { FieldIssue } from "@shared/schemas/stack-file";
 import { Button } from "@frontend/components/ui/button";
 import { EmptyState } from "@frontend/components/ui/empty-state";
 import { PlusIcon } from "@frontend/components/ui/icons";
 import { Panel } from "@frontend/components/ui/panel";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { ImportIssuesDialog } from "@frontend/features/stack-editor/components/import-issues-dialog";
-import { MAX_IMPORT_BYTES, readStackFileText } from "@frontend/features/stack-editor/lib/stack-file-io";
+import { MAX_IMPORT_BYTES, readStackFileText, withElementIds, type ImportIssue } from "@frontend/features/stack-editor/lib/stack-file-io";
 import { starterStack } from "@frontend/features/stack-editor/lib/stack-ops";
 import { isApiError } from "@frontend/lib/api-client";
 import { formatDateTime, formatRelative } from "@frontend/lib/format";
@@ -34,7 +33,7 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
   const draft = useCreateDraftFrom();
   const navigate = useNavigate();
   const input = useRef<HTMLInputElement>(null);
-  const [refused, setRefused] = useState<{ fileName: string; message: string; issues: FieldIssue[] } | null>(null);
+  const [refused, setRefused] = useState<{ fileName: string; message: string; issues: ImportIssue[] } | null>(null);
   const open = (id: string) => navigate(`/projects/${projectId}/revisions/${id}`);
 
   async function importFile(file: File) {
@@ -55,7 +54,7 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
           setRefused({
             fileName: file.name,
             message: e.message,
-            issues: isApiError(e) ? e.fields.map((f) => ({ path: f.path.replace(/^stack\.?/, ""), message: f.message })) : [],
+            issues: isApiError(e) ? withElementIds(r.stack, e.fields.map((f) => ({ path: f.path.replace(/^stack\.?/, ""), message: f.message }))) : [],
           }),
       },
     );

@@ -1,8 +1,7 @@
 import { useRef, useState } from "react";
 import type { Revision } from "@shared/schemas/revisions";
-import type { FieldIssue } from "@shared/schemas/stack-file";
 import { Button } from "@frontend/components/ui/button";
-import { downloadText, MAX_IMPORT_BYTES, readStackFileText, stackFileName, stackFileText } from "../lib/stack-file-io";
+import { downloadText, MAX_IMPORT_BYTES, readStackFileText, stackFileName, stackFileText, type ImportIssue } from "../lib/stack-file-io";
 import { useEditor } from "./editor-context";
 import { ImportIssuesDialog } from "./import-issues-dialog";
 
@@ -21,7 +20,7 @@ const ExportIcon = () => (
 export function StackFileActions({ revision, readOnly }: { revision: Revision; readOnly: boolean }) {
   const { doc, update } = useEditor();
   const input = useRef<HTMLInputElement>(null);
-  const [refused, setRefused] = useState<{ fileName: string; message: string; issues: FieldIssue[] } | null>(null);
+  const [refused, setRefused] = useState<{ fileName: string; message: string; issues: ImportIssue[] } | null>(null);
 
   async function onFile(file: File) {
     if (file.size > MAX_IMPORT_BYTES) {

@@ -4,7 +4,19 @@
  */
 import { validateStackFile, type FieldIssue, type StackFile } from "@shared/schemas/stack-file";
 
-export type ImportResult = { ok: true; stack: StackFile } | { ok: false; message: string; issues: FieldIssue[] };
+/** A problem of an imported file, with the id of the element it is in when the file names one. */
+export type ImportIssue = FieldIssue & { element?: string };
+export type ImportResult = { ok: true; stack: StackFile } | { ok: false; message: string; issues: ImportIssue[] };
+
+export function withElementIds(json: unknown, issues: FieldIssue[]): ImportIssue[] {
+  const els = json && typeof json === "object" && Array.isArray((json as { elements?: unknown }).elements) ? (json as { elements: unknown[] }).elements : [];
+  return issues.map((i) => {
+    const m = /^(?:stack\.)?elements\[(\d+)\]/.exec(i.path);
+    const el = m ? els[Number(m[1])] : undefined;
+    const id = el && typeof el === "object" ? (el as { id?: unknown }).id : undefined;
+    return typeof id === "string" && id ? { ...i, element: id } : i;
+  });
+}
 
 export const MAX_IMPORT_BYTES = 20 * 1024 * 1024;
 
@@ -16,7 +28,7 @@ export function readStackFileText(text: string): ImportResult {
     return { ok: false, message: `The file is not JSON: ${error instanceof Error ? error.message : String(error)}`, issues: [] };
   }
   const v = validateStackFile(json);
-  if (!v.ok) return { ok: false, message: `The file has ${v.issues.length === 1 ? "a problem" : `${v.issues.length} problems`}; nothing was imported.`, issues: v.issues };
+  if (!v.ok) return { ok: false, message: `The file has ${v.issues.length === 1 ? "a problem" : `${v.issues.length} problems`}; nothing was imported.`, issues: withElementIds(json, v.issues) };
   return { ok: true, stack: v.stack };
 }
 
