@@ -39,7 +39,7 @@ export function contributorChart(doc: Doc, c: Chart, x: number, y: number, w: nu
   }
 }
 
-const TILT_COLOURS = [INK, COLOURS.gyro, COLOURS.accel, COLOURS.mag, COLOURS.substrate, COLOURS.asic, COLOURS.board];
+const TILT_COLOURS = [COLOURS.gyro, INK, COLOURS.accel, COLOURS.mag, COLOURS.substrate, COLOURS.asic, COLOURS.board];
 
 function niceStep(range: number, target: number) {
   const raw = range / target;
@@ -86,12 +86,15 @@ export function envelopeChart(doc: Doc, env: NonNullable<ReportContent["envelope
     // close the sweep at 360° with the 0° point so the band spans the whole axis
     const ring = pts[0].headingDeg === 0 ? [...pts, { ...pts[0], headingDeg: 360 }] : pts;
     const colour = TILT_COLOURS[i % TILT_COLOURS.length];
-    doc.save();
-    doc.moveTo(px(ring[0].headingDeg), py(ring[0].p95));
-    for (const p of ring.slice(1)) doc.lineTo(px(p.headingDeg), py(p.p95));
-    for (const p of [...ring].reverse()) doc.lineTo(px(p.headingDeg), py(p.p5));
-    doc.closePath().fillOpacity(i === 0 ? 0.07 : 0.045).fill(colour);
-    doc.restore();
+    // only the level band is filled: the tilted bands lie almost on it and would grey it out
+    if (i === 0) {
+      doc.save();
+      doc.moveTo(px(ring[0].headingDeg), py(ring[0].p95));
+      for (const p of ring.slice(1)) doc.lineTo(px(p.headingDeg), py(p.p95));
+      for (const p of [...ring].reverse()) doc.lineTo(px(p.headingDeg), py(p.p5));
+      doc.closePath().fillOpacity(0.1).fill(COLOURS.gyro);
+      doc.restore();
+    }
     doc.save();
     doc.moveTo(px(ring[0].headingDeg), py(ring[0].p50));
     for (const p of ring.slice(1)) doc.lineTo(px(p.headingDeg), py(p.p50));
@@ -101,7 +104,9 @@ export function envelopeChart(doc: Doc, env: NonNullable<ReportContent["envelope
       doc.save();
       doc.moveTo(px(ring[0].headingDeg), py(ring[0][key]));
       for (const p of ring.slice(1)) doc.lineTo(px(p.headingDeg), py(p[key]));
-      doc.lineWidth(0.5).strokeColor(colour).strokeOpacity(0.55).stroke();
+      doc.lineWidth(i === 0 ? 0.7 : 0.5).strokeColor(colour).strokeOpacity(i === 0 ? 0.9 : 0.6);
+      if (i > 0) doc.dash(2, { space: 2 });
+      doc.stroke().undash();
       doc.restore();
     }
   });
@@ -119,7 +124,7 @@ export function envelopeChart(doc: Doc, env: NonNullable<ReportContent["envelope
   tilts.forEach((t, i) => {
     const label = t.pitch === 0 && t.roll === 0 ? "level" : [t.pitch ? `pitch ${t.pitch > 0 ? "+" : ""}${t.pitch}°` : "", t.roll ? `roll ${t.roll > 0 ? "+" : ""}${t.roll}°` : ""].filter(Boolean).join(", ");
     const colour = TILT_COLOURS[i % TILT_COLOURS.length];
-    box(doc, lx, ly + 1.5, 12, 6, { fill: colour, fillOpacity: 0.18 });
+    if (i === 0) box(doc, lx, ly + 1.5, 12, 6, { fill: colour, fillOpacity: 0.18 });
     rule(doc, lx, ly + 4.5, lx + 12, colour, 1.1);
     lx += 16 + text(doc, label, lx + 16, ly, { size: 7, color: MUTED }) + 14;
   });

@@ -154,7 +154,7 @@ function cover(l: Layout, c: ReportContent, meta: ReportMeta) {
   // the stack: the engineer's 3D snapshot, or our schematic side view
   const figH = 250;
   text(doc, meta.snapshot ? "The stack, from the 3D view" : "The stack in side view (schematic)", ML, y, { size: 8, weight: "bold" });
-  text(doc, "your elements outlined, your sources named", ML + CW - 220, y, { size: 7, color: FAINT, width: 220, align: "right" });
+  if (!meta.snapshot) text(doc, "your elements outlined, your sources named", ML + CW - 220, y, { size: 7, color: FAINT, width: 220, align: "right" });
   y += 13;
   if (meta.snapshot) {
     box(doc, ML, y, CW, figH, { fill: "#1d2731", radius: 3 });
@@ -384,7 +384,7 @@ function envelopeSection(l: Layout, c: ReportContent) {
     "4",
     "Heading error envelope",
     `Compass heading error of the whole stack (${c.envelope.accel} and ${c.envelope.mag}) against true heading, for each tilt of the sweep, at a field inclination of ${sig(c.envelope.inclinationDeg, 4)}°. ` +
-      "The band holds 90 % of units (5th to 95th percentile), the line is the median.",
+      "The shaded band (level) and the dashed lines (tilted) hold 90 % of units, 5th to 95th percentile; the solid lines are the medians.",
   );
   const h = 210;
   l.ensure(h + 24);

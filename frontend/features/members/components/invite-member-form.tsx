@@ -100,8 +100,8 @@ export function InviteMemberForm({ suppliers }: { suppliers: Supplier[] }) {
         <div className="rounded-md border border-pass/25 bg-pass/[0.05] p-3" role="status" aria-label="Invitation created">
           <p className="text-[13px] font-bold text-pass">Invitation ready for {sent.email}</p>
           <p className="mt-0.5 text-xs text-ink/65">
-            E-mail delivery is not set up yet. Send this link yourself; it works once and expires on{" "}
-            {new Date(sent.expiresAt).toLocaleDateString("en-GB", { day: "2-digit", month: "short", year: "numeric" })}.
+            {sent.mailed ? "The link below went out by e-mail; you can also pass it on yourself." : "The e-mail could not be sent. Send this link yourself."} It works once
+            and expires on {new Date(sent.expiresAt).toLocaleDateString("en-GB", { day: "2-digit", month: "short", year: "numeric" })}.
           </p>
           {sent.link ? (
             <div className="mt-2 flex items-center gap-2">
