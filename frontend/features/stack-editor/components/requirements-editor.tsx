@@ -37,7 +37,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
         <thead className="border-b border-line bg-paper/70">
           <tr className="text-[10.5px] font-bold tracking-[0.06em] text-ink/55 uppercase">
             <th className="h-8 w-[31%] px-3 text-left">Metric</th>
-            <th className="w-[14%] px-2 text-right">|Value| ≤</th>
+            <th className="w-[14%] px-2 text-right" title="Upper limit on the absolute value">Limit</th>
             <th className="w-[20%] px-2 text-right">Yield target</th>
             <th className="w-[29%] px-2 text-right">Estimate</th>
             <th className="w-[6%]" />
