@@ -68,6 +68,8 @@ async function startCatcher(db: Database, port: number, log: AppDeps["log"]) {
     authOptional: true,
     disabledCommands: ["STARTTLS", "AUTH"],
     banner: "Orthostack mail catcher",
+    // loopback only: a reverse DNS lookup per connection would just add latency
+    disableReverseLookup: true,
     size: MAX_MESSAGE_BYTES,
     logger: false,
     onData(stream, session, callback) {

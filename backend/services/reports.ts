@@ -160,6 +160,10 @@ export async function getReport(db: Database, actor: Actor, id: string, baseURL:
       .orderBy(desc(reports.revision)),
     listComments(db, "report", id),
   ]);
+  // Review notes on the draft and the release note are internal; the supplier sees the
+  // conversation from the release on (its questions, the answers, its acknowledgement).
+  const releasedAt = visible.releasedAt?.getTime() ?? Infinity;
+  const shownComments = supplierView ? commentList.filter((c) => c.kind !== "released" && Date.parse(c.createdAt) >= releasedAt) : commentList;
   return {
     ...toSummary(r),
     capability: visible.capability,
@@ -169,7 +173,7 @@ export async function getReport(db: Database, actor: Actor, id: string, baseURL:
     files: files.map((f) => ({ ...f, createdAt: f.createdAt.toISOString() })),
     sends: sends.map((s) => ({ id: s.id, sentAt: s.createdAt.toISOString(), sentByName: s.sentByName, recipients: s.recipients, message: s.message })),
     downloads: downloads.map((d) => ({ at: d.createdAt.toISOString(), userName: d.userName, role: d.role, kind: d.kind })),
-    comments: commentList,
+    comments: shownComments,
     history: history.map((h) => ({ id: h.id, revision: h.revision, status: h.status, createdAt: h.createdAt.toISOString(), releasedAt: iso(h.releasedAt) })),
     link: reportLink(baseURL, id),
   };
@@ -576,7 +580,9 @@ export async function addReportComment(db: Database, actor: Actor, id: string, b
       data: { reportId: id },
     });
   });
-  return listComments(db, "report", id);
+  const all = await listComments(db, "report", id);
+  const releasedAt = row.releasedAt?.getTime() ?? Infinity;
+  return question ? all.filter((c) => c.kind !== "released" && Date.parse(c.createdAt) >= releasedAt) : all;
 }
 
 // ---- what a project offers to build from ---------------------------------------------------

@@ -8,7 +8,10 @@ import ExcelJS from "exceljs";
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { members, suppliers, supplierContacts } from "@backend/db/schema";
-import { requireMail } from "@backend/services/mail";
+import { SMTPServer } from "smtp-server";
+import { mailSettings } from "@backend/lib/env";
+import { createMailService, requireMail } from "@backend/services/mail";
+import { outboxMessages } from "@backend/db/schema";
 import { REPORT_CAUTIONS } from "@shared/reports/cautions";
 import { startTestApp, type TestApp } from "./harness";
 import { insertFinishedStudy, LARKFIELD, ownedStack, resultFor } from "./report-fixtures";
@@ -222,6 +225,8 @@ describe("supplier reports", () => {
   });
 
   it("a reviewer releases it: frozen, with each file stored once and its SHA-256", async () => {
+    const internal = await t.call("POST", `/api/reports/${reportId}/comments`, { cookie: c.engineer, body: { body: "Internal: check the mag yaw against the jig." } });
+    expect(internal.status).toBe(201);
     expect((await t.call("POST", `/api/reports/${reportId}/release`, { cookie: c.engineer, body: {} })).status).toBe(403);
     const r = await t.call("POST", `/api/reports/${reportId}/release`, { cookie: c.reviewer, body: { comment: "Checked against the approved revision." } });
     expect(r.status, JSON.stringify(r.body)).toBe(200);
@@ -335,6 +340,8 @@ describe("supplier reports", () => {
     expect(view.status).toBe(200);
     expect(view.body.sends).toEqual([]);
     expect(view.body.downloads).toEqual([]);
+    // review notes on the draft and the release note stay internal
+    expect(view.body.comments).toEqual([]);
     const pdf = await download(t, `/api/reports/${reportId}/pdf`, c.supplier);
     expect(pdf.status).toBe(200);
     expect(sha(pdf.data)).toBe(view.body.files.find((f: { kind: string }) => f.kind === "pdf").sha256);
@@ -342,6 +349,10 @@ describe("supplier reports", () => {
     const q = await t.call("POST", `/api/reports/${reportId}/comments`, { cookie: c.supplier, body: { body: "Is the mag bond line measured at the corners or the centre?" } });
     expect(q.status).toBe(201);
     expect(q.body.comments.at(-1)).toMatchObject({ kind: "question", authorName: "Sam Whitcombe" });
+    const answer = await t.call("POST", `/api/reports/${reportId}/comments`, { cookie: c.engineer, body: { body: "At the three supports, as drawn." } });
+    expect(answer.body.comments.map((x: { body: string }) => x.body)).toContain("Internal: check the mag yaw against the jig.");
+    const thread = (await t.call("GET", `/api/reports/${reportId}`, { cookie: c.supplier })).body.comments.map((x: { body: string }) => x.body);
+    expect(thread).toEqual(["Is the mag bond line measured at the corners or the centre?", "At the three supports, as drawn."]);
     const empty = await t.call("POST", `/api/reports/${reportId}/comments`, { cookie: c.supplier, body: { body: "  " } });
     expect(empty.status).toBe(400);
     expect(empty.body.error.fields[0].path).toBe("body");
@@ -443,5 +454,62 @@ describe("supplier reports", () => {
     expect(msg.subject).toBe("Prüfbericht µ-Lage: ±0.3° — σ ≤ 0.075°");
     expect(msg.text.trim()).toBe("Grüße");
     expect(msg.attachments).toEqual([{ index: 0, fileName: "Prüfbericht µ.csv", contentType: "text/csv", size: 8 }]);
+  });
+});
+
+describe("mail settings", () => {
+  it("uses the local catcher without SMTP settings, and the server from SMTP_URL or SMTP_HOST otherwise", () => {
+    expect(mailSettings({})).toEqual({ mode: "catcher", from: "Orthostack <orthostack@localhost>", port: 0 });
+    expect(mailSettings({ SMTP_URL: "smtps://u:p@mail.example.com:465", MAIL_FROM: "Kestrel <reports@kestrel.example>" })).toEqual({
+      mode: "smtp",
+      from: "Kestrel <reports@kestrel.example>",
+      transport: "smtps://u:p@mail.example.com:465",
+    });
+    expect(mailSettings({ SMTP_HOST: "mail.example.com", SMTP_PORT: "465", SMTP_USER: "u", SMTP_PASS: "p" })).toMatchObject({
+      mode: "smtp",
+      transport: { host: "mail.example.com", port: 465, secure: true, auth: { user: "u", pass: "p" } },
+    });
+    expect(mailSettings({ SMTP_HOST: "mail.example.com" })).toMatchObject({ transport: { port: 587, secure: false } });
+    expect(() => mailSettings({ SMTP_URL: "http://mail.example.com" })).toThrow(/SMTP_URL must start with smtp/);
+    expect(() => mailSettings({ SMTP_PORT: "99999" })).toThrow(/SMTP_PORT/);
+  });
+
+  it("with an SMTP server configured, mail goes there and the catcher stores nothing", async () => {
+    const received: string[] = [];
+    const server = new SMTPServer({
+      authOptional: true,
+      disabledCommands: ["STARTTLS"],
+      disableReverseLookup: true,
+      logger: false,
+      onData(stream, _session, cb) {
+        let raw = "";
+        stream.on("data", (d: Buffer) => (raw += d.toString("latin1")));
+        stream.on("end", () => {
+          received.push(raw);
+          cb();
+        });
+      },
+    });
+    await new Promise<void>((r) => server.listen(0, "127.0.0.1", () => r()));
+    const port = (server.server.address() as { port: number }).port;
+    process.env.SMTP_URL = `smtp://127.0.0.1:${port}?ignoreTLS=true`;
+    const t = await startTestApp({ seed: false });
+    try {
+      // the start hook read SMTP_URL: no catcher, mail leaves through the server
+      const mail = requireMail(t.handle.db);
+      expect(mail.mode).toBe("smtp");
+      expect(mail.address).toBe(`127.0.0.1:${port}`);
+      await mail.send({ workspaceId: "00000000-0000-4000-8000-000000000000", to: "someone@example.com", subject: "Through the real server", text: "hello" });
+      expect(received).toHaveLength(1);
+      expect(received[0]).toContain("Subject: Through the real server");
+      expect(await t.handle.db.select().from(outboxMessages)).toEqual([]);
+      const direct = await createMailService(t.handle.db, { mode: "smtp", from: "Orthostack <o@example.com>", transport: { host: "127.0.0.1", port, secure: false } }, () => {});
+      expect(direct.address).toBe(`127.0.0.1:${port}`);
+      await direct.close();
+    } finally {
+      delete process.env.SMTP_URL;
+      await t.close();
+      await new Promise<void>((r) => server.close(() => r()));
+    }
   });
 });

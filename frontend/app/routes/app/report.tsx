@@ -219,7 +219,7 @@ export function ReportRoute() {
           </Panel>
 
           <Panel title={asSupplier ? "Questions and notes" : "Comments"} meta={report.comments.length ? `${report.comments.length}` : undefined}>
-            <ReportComments reportId={report.id} comments={report.comments} asSupplier={asSupplier} />
+            <ReportComments reportId={report.id} comments={report.comments} asSupplier={asSupplier} released={!draft} />
           </Panel>
 
           {report.history.length > 1 ? (

@@ -15,7 +15,7 @@ const KIND: Record<string, { label: string; tone: BadgeTone } | undefined> = {
 };
 
 /** The conversation on a report: the supplier's questions, staff answers, release and acknowledgement notes. */
-export function ReportComments({ reportId, comments, asSupplier }: { reportId: string; comments: Comment[]; asSupplier: boolean }) {
+export function ReportComments({ reportId, comments, asSupplier, released }: { reportId: string; comments: Comment[]; asSupplier: boolean; released: boolean }) {
   const add = useAddReportComment();
   const [body, setBody] = useState("");
   const [error, setError] = useState<string | undefined>();
@@ -70,7 +70,10 @@ export function ReportComments({ reportId, comments, asSupplier }: { reportId: s
             {error}
           </p>
         ) : null}
-        <div className="flex justify-end">
+        <div className="flex items-center justify-between gap-3">
+          <p className="text-2xs leading-4 text-ink/50">
+            {asSupplier ? "The engineers of this project see your question." : released ? "The supplier sees what you write here." : "Internal: the supplier does not see comments on a draft."}
+          </p>
           <Button type="submit" size="sm" pending={add.isPending}>
             {asSupplier ? "Ask a question" : "Comment"}
           </Button>
