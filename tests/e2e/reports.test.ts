@@ -93,6 +93,8 @@ describe("a supplier report from the demo project", () => {
     await sup.page.getByText("Acknowledged by Sam Whitcombe").waitFor();
     await expect(sup.page.getByRole("button", { name: "Acknowledge" }).count()).resolves.toBe(0);
     await screenshot(sup.page, "report-acknowledged");
+    // the released report asks for first-build measurements: the supplier can send them from here
+    await sup.page.getByRole("button", { name: "Send measurements" }).waitFor();
 
     // ---- the project shows what happened
     await eng.page.goto("/projects");

@@ -8,6 +8,7 @@ import { Button } from "@frontend/components/ui/button";
 import { CopyButton } from "@frontend/components/ui/copy-button";
 import { CheckIcon, ChevronLeftIcon, MailIcon, PencilIcon, PlusIcon, TrashIcon } from "@frontend/components/ui/icons";
 import { Panel } from "@frontend/components/ui/panel";
+import { ReportMeasurements } from "@frontend/features/datasets/components/report-measurements";
 import { useMe } from "@frontend/features/auth/api/get-me";
 import { reportQueryOptions, useReport } from "@frontend/features/reports/api/get-report";
 import { BuildReportDialog } from "@frontend/features/reports/components/build-report-dialog";
@@ -217,6 +218,8 @@ export function ReportRoute() {
               </div>
             ) : null}
           </Panel>
+
+          {!draft ? <ReportMeasurements reportId={report.id} canSend={asSupplier || can(me.role, "projects.write")} /> : null}
 
           <Panel title={asSupplier ? "Questions and notes" : "Comments"} meta={report.comments.length ? `${report.comments.length}` : undefined}>
             <ReportComments reportId={report.id} comments={report.comments} asSupplier={asSupplier} released={!draft} />
