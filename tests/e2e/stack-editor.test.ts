@@ -169,7 +169,7 @@ describe("the stack editor", () => {
 
     const savedBefore = await saves(page);
     await page.getByLabel("Position x").fill("0.5");
-    await expect(page.getByText(/is off the/).count()).resolves.toBe(0);
+    await expect.poll(() => page.getByText(/is off the/).count()).toBe(0);
     await waitSaved(page, savedBefore);
 
     // The compass pair is there: the estimate shows a heading error; a requirement gets its predicted yield.

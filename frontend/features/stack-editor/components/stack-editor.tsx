@@ -147,18 +147,23 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
   const blocker = useBlocker(({ currentLocation, nextLocation }) => mustWarn && currentLocation.pathname !== nextLocation.pathname);
   const [leaveDialog, setLeaveDialog] = useState(false);
   const flush = autosave.flush;
+  // The blocker object is new on every render; read its live state when the save returns, so a
+  // navigation that already went ahead is not told to proceed a second time.
+  const blockerRef = useRef(blocker);
+  blockerRef.current = blocker;
   useEffect(() => {
     if (blocker.state !== "blocked") return;
     let cancelled = false;
     void flush().then((ok) => {
-      if (cancelled) return;
-      if (ok) blocker.proceed();
+      const live = blockerRef.current;
+      if (cancelled || live.state !== "blocked") return;
+      if (ok) live.proceed();
       else setLeaveDialog(true);
     });
     return () => {
       cancelled = true;
     };
-  }, [blocker, flush]);
+  }, [blocker.state, flush]);
   useEffect(() => {
     if (!mustWarn) return;
     const onUnload = (e: BeforeUnloadEvent) => {
