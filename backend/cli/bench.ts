@@ -8,8 +8,8 @@ import { readFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
 import { fileURLToPath } from "node:url";
 import { defaultThreads, runStudyOnThreads } from "../engine/runner";
-import { validateStackFile } from "../../shared/schemas/stack-file";
-import { validateStudy } from "../../shared/schemas/study-file";
+import { validateStackFile } from "@shared/schemas/stack-file";
+import { validateStudy } from "@shared/schemas/study-file";
 
 const fixture = (name: string) => fileURLToPath(new URL(`../../tests/fixtures/${name}`, import.meta.url));
 

@@ -6,9 +6,9 @@
  */
 import { readFileSync, writeFileSync } from "node:fs";
 import { runStudyOnThreads, defaultThreads } from "../engine/runner";
-import { validateStackFile, type FieldIssue } from "../../shared/schemas/stack-file";
-import { validateStudy, MAX_TRIALS } from "../../shared/schemas/study-file";
-import type { ResultFile } from "../../shared/schemas/result-file";
+import { validateStackFile, type FieldIssue } from "@shared/schemas/stack-file";
+import { validateStudy, MAX_TRIALS } from "@shared/schemas/study-file";
+import type { ResultFile } from "@shared/schemas/result-file";
 
 const USAGE = "usage: npm run study -- STACK.json STUDY.json --out RESULT.json [--threads N] [--trials N] [--seed S]";
 

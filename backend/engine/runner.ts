@@ -6,7 +6,7 @@
  */
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
-import { mergeWorkerStates, type BlockPartial, type WorkerState } from "../../shared/engine/accumulate";
+import { mergeWorkerStates, type BlockPartial, type WorkerState } from "@shared/engine/accumulate";
 import {
   adaptiveDone,
   finalizeStudy,
@@ -14,10 +14,10 @@ import {
   prepareStudy,
   type Progress,
   type StudyOverrides,
-} from "../../shared/engine/study";
-import type { ResultFile } from "../../shared/schemas/result-file";
-import type { StackFile } from "../../shared/schemas/stack-file";
-import type { StudyFile } from "../../shared/schemas/study-file";
+} from "@shared/engine/study";
+import type { ResultFile } from "@shared/schemas/result-file";
+import type { StackFile } from "@shared/schemas/stack-file";
+import type { StudyFile } from "@shared/schemas/study-file";
 import type { FromWorker, ToWorker, WorkerInit } from "./worker";
 
 export interface RunnerOptions extends StudyOverrides {
