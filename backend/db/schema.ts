@@ -439,8 +439,8 @@ export const datasets = pgTable(
     rowCount: integer("row_count").notNull(),
     /** [{key, name, letter, unit, kind, summary}] in file order */
     columns: jsonb("columns").$type<Array<Record<string, unknown>>>().notNull(),
-    /** column key -> its values (numbers, or texts for a label column), in row order */
-    data: jsonb("data").$type<Record<string, Array<number | string>>>().notNull(),
+    /** column key -> its values (numbers, or texts for a label column), in row order; null marks a gap (empty or NA) */
+    data: jsonb("data").$type<Record<string, Array<number | string | null>>>().notNull(),
     preview: jsonb("preview").$type<{ rowNumbers: number[]; cells: string[][] }>().notNull(),
     /** row number in the file of each data row (blank rows are skipped), for outlier messages */
     rowNumbers: jsonb("row_numbers").$type<number[]>().notNull(),
@@ -450,6 +450,12 @@ export const datasets = pgTable(
     /** Set when a supplier sent the file through a released report. */
     supplierId: uuid("supplier_id").references(() => suppliers.id, { onDelete: "set null" }),
     reportId: uuid("report_id").references(() => reports.id, { onDelete: "set null" }),
+    /** The production lot the whole file belongs to, as the sender gave it (null: not given). */
+    lot: text("lot"),
+    /** The sender's note on the upload. */
+    note: text("note"),
+    /** A label column marked as each row's lot (or date); rows keep the file's order as production order. */
+    lotColumn: text("lot_column"),
     createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
   },
   (t) => [index("datasets_project_idx").on(t.projectId, t.createdAt), index("datasets_report_idx").on(t.reportId)],
@@ -467,6 +473,8 @@ export const datasetMappings = pgTable(
       .notNull()
       .references(() => stackRevisions.id, { onDelete: "cascade" }),
     source: text("source").notNull(),
+    /** For a pooled source (bond line, tilt, axis angles): which support point or component this column is. */
+    part: integer("part"),
     unit: text("unit").notNull(),
     nominal: doublePrecision("nominal").notNull().default(0),
     updatedBy: text("updated_by").references(() => users.id, { onDelete: "set null" }),
