@@ -13,7 +13,8 @@
  *   whatever thread ran which block.
  */
 import { LogHistogram } from "./histogram";
-import { createScratch, evaluateTrial, type Model } from "./model";
+import type { Model } from "./compile";
+import { createScratch, evaluateTrial } from "./trial";
 import { BLOCK_SIZE } from "./random";
 import { blockSampler, blockTrials, type SamplingMode } from "./sampling";
 

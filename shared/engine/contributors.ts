@@ -25,7 +25,8 @@
  * R² says how much of the variance the fit explains.
  */
 import { Matrix, solve } from "ml-matrix";
-import { createScratch, evaluateTrial, meanDraws, type Model } from "./model";
+import type { Model } from "./compile";
+import { createScratch, evaluateTrial, meanDraws } from "./trial";
 
 export interface SourceShare {
   source: string;

@@ -6,7 +6,7 @@
 import type { BlockPartial, Plan } from "./accumulate";
 import { metricStore } from "./accumulate";
 import type { LogHistogram } from "./histogram";
-import type { Model } from "./model";
+import type { Model } from "./compile";
 import { BLOCK_SIZE } from "./random";
 
 export interface ConvergencePoint {

@@ -6,7 +6,7 @@ import type { StackFile } from "../schemas/stack-file";
 import type { StudyFile } from "../schemas/study-file";
 import type { Plan, RegressionSpec, TrackedSpec } from "./accumulate";
 import { adaptiveConfig, type AdaptiveConfig } from "./coordinator";
-import { compileModel, type Model } from "./model";
+import { compileModel, type Model } from "./compile";
 import { BLOCK_SIZE } from "./random";
 
 export interface StudyOverrides {

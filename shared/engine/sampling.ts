@@ -10,7 +10,7 @@
  */
 import { blockStream, BLOCK_SIZE, type Xoshiro128ss } from "./random";
 import { sampleDist, sampleInto } from "./distributions";
-import type { Model } from "./model";
+import type { Model } from "./compile";
 
 export type SamplingMode = "random" | "lhs";
 

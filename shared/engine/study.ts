@@ -18,7 +18,9 @@ import {
 import { Coordinator } from "./coordinator";
 import { prepareStudy, type PreparedStudy, type StudyOverrides } from "./plan";
 import { linearisedContributions, regressionFromSums, stackUp } from "./contributors";
-import { evaluateTrial, createScratch, poses, type ElementPose, type Model } from "./model";
+import type { Model } from "./compile";
+import { evaluateTrial, createScratch } from "./trial";
+import { poses, type ElementPose } from "./poses";
 import { BLOCK_SIZE } from "./random";
 import { drawsOfTrial } from "./sampling";
 import { wilson } from "./stats";

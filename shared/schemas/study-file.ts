@@ -6,7 +6,7 @@
  * engine accepts it and ignores it.
  */
 import { z } from "zod";
-import { headingPair, metricIds } from "../engine/model";
+import { headingPair, metricIds } from "../engine/compile";
 import {
   type FieldIssue,
   type StackFile,
