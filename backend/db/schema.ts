@@ -482,3 +482,41 @@ export const datasetMappings = pgTable(
   },
   (t) => [primaryKey({ columns: [t.datasetId, t.column] })],
 );
+
+// ---- what-if runs (issue 12): sweeps and tolerance allocations ------------------------
+export const WHAT_IF_KINDS = ["sweep", "allocation"] as const;
+
+/** A sweep or an allocation: queued like a study, run point by point / round by round, result as JSON. */
+export const whatIfRuns = pgTable(
+  "what_if_runs",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    workspaceId: uuid("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "cascade" }),
+    revisionId: uuid("revision_id")
+      .notNull()
+      .references(() => stackRevisions.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: WHAT_IF_KINDS }).notNull(),
+    status: text("status", { enum: STUDY_STATUSES }).notNull().default("queued"),
+    /** The validated request (study file, parameter and values, or free sources, costs and bounds). */
+    input: jsonb("input").$type<Record<string, unknown>>().notNull(),
+    /** Frozen copy of the revision's stack. */
+    stack: jsonb("stack").$type<StackFile>().notNull(),
+    /** Points so far (a sweep stores each finished point) or the allocation's outcome. */
+    result: jsonb("result").$type<Record<string, unknown> | null>(),
+    progressDone: integer("progress_done").notNull().default(0),
+    progressTotal: integer("progress_total").notNull().default(0),
+    error: text("error"),
+    /** The draft revision made from an allocation's proposal. */
+    appliedRevisionId: uuid("applied_revision_id").references(() => stackRevisions.id, { onDelete: "set null" }),
+    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    startedAt: timestamp("started_at", { withTimezone: true }),
+    finishedAt: timestamp("finished_at", { withTimezone: true }),
+    ...timestamps,
+  },
+  (t) => [index("what_if_runs_status_idx").on(t.status, t.createdAt), index("what_if_runs_revision_idx").on(t.revisionId)],
+);
