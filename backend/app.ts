@@ -3,7 +3,7 @@ import helmet from "helmet";
 import { toNodeHandler } from "better-auth/node";
 import { CLIENT_IP_HEADER } from "./auth";
 import type { AppDeps } from "./deps";
-import { errorHandler, forbidden, notFoundApi } from "./lib/errors";
+import { errorHandler, notFoundApi } from "./lib/errors";
 import { requireSession } from "./middleware/session";
 import { datasetsRouter } from "./routes/datasets";
 import { meRouter } from "./routes/me";
@@ -54,10 +54,6 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
     next();
   });
 
-  // Accounts come from invitations only.
-  app.post("/api/auth/sign-up/email", () => {
-    throw forbidden("Accounts are created by invitation. Ask an admin of your workspace to invite you.");
-  });
   app.all("/api/auth/{*splat}", toNodeHandler(deps.auth));
 
   app.use("/api", express.json({ limit: JSON_LIMIT }));

@@ -16,7 +16,7 @@ export type AuthOptions = {
 
 /**
  * better-auth with e-mail and password. Accounts are created only by accepting an invitation
- * (or by the seed): the app blocks the public sign-up route, the server calls the API directly.
+ * (or by the seed): sign-up is disabled in better-auth, the server creates accounts directly.
  */
 export function createAuth({ db, baseURL, secret, trustedOrigins = [], signInPerMinute = 10 }: AuthOptions) {
   return betterAuth({
@@ -28,7 +28,9 @@ export function createAuth({ db, baseURL, secret, trustedOrigins = [], signInPer
       provider: "pg",
       schema: { user: users, session: sessions, account: accounts, verification: verifications },
     }),
-    emailAndPassword: { enabled: true, minPasswordLength: 10, maxPasswordLength: 128, autoSignIn: true },
+    // Sign-up is off in better-auth itself, whatever spelling of the path a request uses; accounts
+    // are made on the server by createAccount (backend/lib/accounts.ts) when an invitation is accepted.
+    emailAndPassword: { enabled: true, disableSignUp: true, minPasswordLength: 10, maxPasswordLength: 128 },
     session: { expiresIn: 60 * 60 * 24 * 7, updateAge: 60 * 60 * 24 },
     rateLimit: {
       enabled: true,

@@ -3,6 +3,7 @@ import type { Auth } from "./auth";
 import type { Database } from "./db/client";
 import { members, projects, supplierContacts, suppliers, users, workspaces } from "./db/schema";
 import { seedDemoStack } from "./demo/seed-stack";
+import { createAccount } from "./lib/accounts";
 import { recordActivity } from "./services/activity";
 
 /** Invented demo scenario: a small wearables maker and its module assembler. */
@@ -40,8 +41,7 @@ export async function seedDemo(db: Database, auth: Auth): Promise<"seeded" | "sk
       userIds[u.role] = existing.id;
       continue;
     }
-    const res = await auth.api.signUpEmail({ body: { email: u.email, password: DEMO_PASSWORD, name: u.name } });
-    userIds[u.role] = res.user.id;
+    userIds[u.role] = (await createAccount(auth, { email: u.email, password: DEMO_PASSWORD, name: u.name })).id;
   }
 
   const ctx = await db.transaction(async (tx) => {

@@ -7,6 +7,7 @@ import type { Database } from "../db/client";
 import { invitations, members, suppliers, users, workspaces } from "../db/schema";
 import { badRequest, conflict, found, HttpError } from "../lib/errors";
 import type { Actor } from "../middleware/session";
+import { createAccount } from "../lib/accounts";
 import { mailInvitation } from "./invitation-mail";
 
 const INVITATION_DAYS = 7;
@@ -154,36 +155,35 @@ export async function previewInvitation(db: Database, token: string) {
 }
 
 /**
- * Creates the invitee's account through better-auth and returns its sign-in response headers
- * (the session cookie). If joining the workspace fails, the new account is removed again so no
- * half-made member is left.
+ * Creates the invitee's account on the server (public sign-up is off in better-auth), makes it a
+ * member and marks the invitation used in one transaction, then signs in through better-auth and
+ * returns its response headers (the session cookie). A failure leaves no account behind.
  */
 export async function acceptInvitation(db: Database, auth: Auth, token: string, input: { name: string; password: string }) {
   const { invitation } = await pendingByToken(db, token);
   const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, invitation.email));
   if (existing) throw conflict(`${invitation.email} already has an account.`, "already_member");
-  const response = await auth.api.signUpEmail({
-    body: { email: invitation.email, password: input.password, name: input.name },
-    asResponse: true,
-  });
-  if (!response.ok) {
-    const body = (await response.json().catch(() => ({}))) as { message?: string };
-    throw badRequest(body.message ?? "The account could not be created.", [{ path: "password", message: body.message ?? "not accepted" }]);
-  }
-  const [user] = await db.select({ id: users.id }).from(users).where(eq(users.email, invitation.email));
+  const user = await createAccount(auth, { email: invitation.email, password: input.password, name: input.name });
   try {
     await db.transaction(async (tx) => {
+      // Only one accept may use the token: a second concurrent one finds it no longer pending.
+      const used = await tx
+        .update(invitations)
+        .set({ status: "accepted", acceptedAt: new Date() })
+        .where(and(eq(invitations.id, invitation.id), eq(invitations.status, "pending")))
+        .returning({ id: invitations.id });
+      if (!used.length) throw new HttpError(404, "invitation_invalid", "This invitation is not valid any more. Ask your admin for a new one.");
       await tx.insert(members).values({
         workspaceId: invitation.workspaceId,
         userId: user.id,
         role: invitation.role,
         supplierId: invitation.supplierId,
       });
-      await tx.update(invitations).set({ status: "accepted", acceptedAt: new Date() }).where(eq(invitations.id, invitation.id));
     });
   } catch (e) {
     await db.delete(users).where(eq(users.id, user.id));
     throw e;
   }
+  const response = await auth.api.signInEmail({ body: { email: invitation.email, password: input.password }, asResponse: true });
   return response.headers;
 }

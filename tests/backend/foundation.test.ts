@@ -49,8 +49,8 @@ describe("health, session and me", () => {
 
   it("blocks public sign-up: accounts come from invitations", async () => {
     const r = await t.call("POST", "/api/auth/sign-up/email", { body: { email: "x@example.com", password: "0123456789ab", name: "X" } });
-    expect(r.status).toBe(403);
-    expect(r.body.error.code).toBe("forbidden");
+    expect(r.status).toBe(400);
+    expect(r.body.code).toBe("EMAIL_PASSWORD_SIGN_UP_DISABLED");
   });
 });
 

@@ -13,6 +13,7 @@ import { mailSettings } from "@backend/lib/env";
 import { createMailService, requireMail } from "@backend/services/mail";
 import { outboxMessages } from "@backend/db/schema";
 import { REPORT_CAUTIONS } from "@shared/reports/cautions";
+import { createAccount } from "@backend/lib/accounts";
 import { startTestApp, type TestApp } from "./harness";
 import { insertFinishedStudy, LARKFIELD, ownedStack, resultFor } from "./report-fixtures";
 
@@ -371,8 +372,8 @@ describe("supplier reports", () => {
 
   it("refuses a supplier of another company everything about the report", async () => {
     const [other] = await t.handle.db.insert(suppliers).values({ workspaceId, name: "Fenmoor Substrates Two", kind: "substrate" }).returning();
-    const res = await t.deps.auth.api.signUpEmail({ body: { email: "fen@example.com", password: "orthostack-demo", name: "Fen Supplier" } });
-    await t.handle.db.insert(members).values({ workspaceId, userId: res.user.id, role: "supplier", supplierId: other.id });
+    const fenUser = await createAccount(t.deps.auth, { email: "fen@example.com", password: "orthostack-demo", name: "Fen Supplier" });
+    await t.handle.db.insert(members).values({ workspaceId, userId: fenUser.id, role: "supplier", supplierId: other.id });
     const fen = await t.signIn("fen@example.com");
     expect((await t.call("GET", "/api/reports", { cookie: fen })).body.reports).toEqual([]);
     for (const [method, path] of [
