@@ -15,19 +15,10 @@ import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow, can } from "../middleware/session";
 import { listOutbox, outboxAttachment } from "../services/outbox";
-import {
-  acknowledgeReport,
-  addReportComment,
-  createReport,
-  deleteReport,
-  getReport,
-  listReports,
-  releaseReport,
-  reportFile,
-  reportOptions,
-  sendReport,
-  updateReport,
-} from "../services/reports";
+import { acknowledgeReport, addReportComment, createReport, deleteReport, releaseReport, updateReport } from "../services/report-lifecycle";
+import { reportFile } from "../services/report-files";
+import { sendReport } from "../services/report-mail";
+import { getReport, listReports, reportOptions } from "../services/report-queries";
 
 /** `attachment; filename=…` with an ASCII fallback and the exact UTF-8 name (RFC 6266). */
 function disposition(name: string) {
