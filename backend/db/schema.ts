@@ -163,6 +163,8 @@ export const projects = pgTable(
     name: text("name").notNull(),
     description: text("description").notNull().default(""),
     ownerId: text("owner_id").references(() => users.id, { onDelete: "set null" }),
+    /** Set when an engineer archives the project: read-only and hidden from the default list. */
+    archivedAt: timestamp("archived_at", { withTimezone: true }),
     ...timestamps,
   },
   (t) => [index("projects_workspace_idx").on(t.workspaceId)],
@@ -519,4 +521,53 @@ export const whatIfRuns = pgTable(
     ...timestamps,
   },
   (t) => [index("what_if_runs_status_idx").on(t.status, t.createdAt), index("what_if_runs_revision_idx").on(t.revisionId)],
+);
+
+// ---- notifications ---------------------------------------------------------------------
+export const NOTIFICATION_KINDS = [
+  "revision.submitted",
+  "revision.returned",
+  "revision.approved",
+  "report.ready",
+  "report.returned",
+  "report.released",
+  "report.sent",
+  "report.question",
+  "report.acknowledged",
+  "report.measurements",
+] as const;
+
+/** Something waiting for one person: shown in the app, and mailed unless they turned that kind off. */
+export const notifications = pgTable(
+  "notifications",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    workspaceId: uuid("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    projectId: uuid("project_id").references(() => projects.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: NOTIFICATION_KINDS }).notNull(),
+    title: text("title").notNull(),
+    /** The app path the notification opens, e.g. /projects/…/revisions/…. */
+    link: text("link").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
+    readAt: timestamp("read_at", { withTimezone: true }),
+  },
+  (t) => [index("notifications_user_idx").on(t.userId, t.createdAt)],
+);
+
+/** The kinds a person does not want by e-mail (in-app notifications stay). */
+export const notificationMailOptOuts = pgTable(
+  "notification_mail_opt_outs",
+  {
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: NOTIFICATION_KINDS }).notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.userId, t.kind] })],
 );
