@@ -48,6 +48,20 @@ export default defineConfig({
         },
       },
       {
+        // The same backend suite against a real PostgreSQL server (DATABASE_URL mode): a
+        // throwaway cluster started for the run, a database per test app.
+        resolve: { alias },
+        test: {
+          name: "backend-pg",
+          root: here("."),
+          environment: "node",
+          include: ["tests/backend/**/*.test.ts"],
+          globalSetup: ["tests/setup/postgres-global.ts"],
+          testTimeout: 60_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
         plugins: [react()],
         resolve: { alias },
         test: {

@@ -16,7 +16,7 @@ const log = (message: string, err?: unknown) => {
   else console.info(`[orthostack] ${message}`);
 };
 
-const { db, close } = await openDatabase(env.DATA_DIR);
+const { db, close, kind } = await openDatabase(env.DATABASE_URL ?? env.DATA_DIR);
 const baseURL = env.APP_URL ?? `http://localhost:${env.PORT}`;
 const auth = createAuth({
   db,
@@ -45,7 +45,7 @@ const app = createApp(deps, {
 if (devApp) await mountDevClient(devApp);
 
 const server = app.listen(env.PORT, env.HOST, () => {
-  log(`serving on ${baseURL} (data in ${env.DATA_DIR})`);
+  log(`serving on ${baseURL} (data ${kind === "postgres" ? "in the PostgreSQL server of DATABASE_URL" : `in ${env.DATA_DIR}`})`);
 });
 
 let stopping = false;

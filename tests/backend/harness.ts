@@ -3,7 +3,8 @@ import type { Server } from "node:http";
 import { createApp } from "@backend/app";
 import { createAuth } from "@backend/auth";
 import { eq } from "drizzle-orm";
-import { openDatabase, type DatabaseHandle } from "@backend/db/client";
+import type { DatabaseHandle } from "@backend/db/client";
+import { openTestDatabase } from "./test-database";
 import { studies } from "@backend/db/schema";
 import type { AppDeps } from "@backend/deps";
 import { DEMO_PASSWORD, seedDemo } from "@backend/seed";
@@ -26,7 +27,7 @@ export type TestApp = {
 
 /** A fresh app on an in-memory PGlite, migrated from drizzle/ and seeded with the demo workspace. */
 export async function startTestApp(opts: { seed?: boolean; signInPerMinute?: number; runner?: StudyRunner; handle?: DatabaseHandle; keepDemoStudy?: boolean } = {}): Promise<TestApp> {
-  const handle = opts.handle ?? (await openDatabase("memory://"));
+  const handle = opts.handle ?? (await openTestDatabase());
   const baseURL = "http://localhost:3999";
   const auth = createAuth({ db: handle.db, baseURL, secret: "test-secret-test-secret-test-secret-123", signInPerMinute: opts.signInPerMinute ?? 1000 });
   const errors: unknown[] = [];

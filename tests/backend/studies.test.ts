@@ -1,7 +1,8 @@
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq, sql } from "drizzle-orm";
-import { openDatabase, type DatabaseHandle } from "@backend/db/client";
+import type { DatabaseHandle } from "@backend/db/client";
+import { openTestDatabase } from "./test-database";
 import { studies, studyResults } from "@backend/db/schema";
 import type { StudyRunner } from "@backend/services/study-queue";
 import { startTestApp, type TestApp } from "./harness";
@@ -43,7 +44,7 @@ describe("studies with a controllable runner", () => {
   let revisionId: string;
 
   beforeAll(async () => {
-    handle = await openDatabase("memory://");
+    handle = await openTestDatabase();
     ctl = controllableRunner();
     t = await startTestApp({ handle, runner: ctl.runner });
     for (const role of ["admin", "engineer", "reviewer", "supplier"]) c[role] = await t.signIn(`${role}@example.com`);
@@ -136,7 +137,7 @@ describe("faults", () => {
   });
 
   it("after a stop mid-study the study is interrupted, and it can be run again", async () => {
-    const handle = await openDatabase("memory://");
+    const handle = await openTestDatabase();
     const first = controllableRunner();
     const t1 = await startTestApp({ handle, runner: first.runner });
     const eng = await t1.signIn("engineer@example.com");

@@ -1,16 +1,26 @@
 // Run by `npm test` before vitest: the browser tests drive Debian's chromium through
 // playwright-core, which downloads no browser of its own; the report tests read PDFs with
-// poppler's pdftotext.
+// poppler's pdftotext; the server-mode backend suite starts a throwaway cluster of Debian's
+// postgresql (tests/setup/postgres-cluster.ts).
 import { execSync } from "node:child_process";
-import { existsSync } from "node:fs";
+import { existsSync, readdirSync } from "node:fs";
 
 const CHROMIUM = "/usr/bin/chromium";
 const PDFTOTEXT = "/usr/bin/pdftotext";
+/** Debian installs the server under /usr/lib/postgresql/<major>/bin. */
+function postgresInitdb() {
+  const root = "/usr/lib/postgresql";
+  if (!existsSync(root)) return undefined;
+  const found = readdirSync(root).map((v) => `${root}/${v}/bin/initdb`).find((p) => existsSync(p));
+  return found;
+}
+const present = (w) => (w.find ? w.find() !== undefined : existsSync(w.path));
 const wanted = [
   { path: CHROMIUM, pkg: "chromium" },
   { path: PDFTOTEXT, pkg: "poppler-utils" },
+  { path: "/usr/lib/postgresql/<major>/bin/initdb", pkg: "postgresql", find: postgresInitdb },
 ];
-const missing = wanted.filter((w) => !existsSync(w.path));
+const missing = wanted.filter((w) => !present(w));
 
 for (const w of wanted) if (!missing.includes(w)) console.log(`[ensure-chromium] found ${w.path}`);
 if (missing.length === 0) process.exit(0);
@@ -29,7 +39,7 @@ try {
   process.exit(1);
 }
 
-const still = missing.filter((m) => !existsSync(m.path));
+const still = missing.filter((m) => !present(m));
 if (still.length) {
   console.error(`[ensure-chromium] apt-get finished but ${still.map((m) => m.path).join(", ")} is still missing`);
   process.exit(1);
