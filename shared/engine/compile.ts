@@ -11,7 +11,7 @@
 import type { StackElement, StackFile, Tolerance } from "../schemas/stack-file";
 import { isSensorKind, supportPoints } from "./elements";
 import type { StudyFile } from "../schemas/study-file";
-import { compileDist, type CompiledDist } from "./distributions";
+import { compileDist, compileRows, type CompiledDist } from "./distributions";
 import { identity, invert, mat3, mul, type Mat3 } from "./mat3";
 import { rotZ } from "./rotation";
 import { buildAttitudes, type Attitudes } from "./heading";
@@ -210,11 +210,13 @@ export function compileModel(stack: StackFile, study: StudyFile): Model {
   const drawSource: number[] = [];
   const addSource = (id: string, tol: Tolerance | undefined, count: number, defaultStage: string, unit: "um" | "deg"): number => {
     if (!tol) return -1;
-    const dist = compileDist(tol);
+    // measured rows: draw k of the source is column k of one unit's row
+    const perDraw = tol.rows ? compileRows(tol.rows, count) : null;
+    const dist = perDraw ? perDraw[0] : compileDist(tol);
     const stage = tol.stage ?? defaultStage;
     const offset = drawDist.length;
     for (let k = 0; k < count; k++) {
-      drawDist.push(dist);
+      drawDist.push(perDraw ? perDraw[k] : dist);
       drawRank.push(STAGE_RANK[stage]);
       drawSource.push(sources.length);
     }
@@ -235,8 +237,14 @@ export function compileModel(stack: StackFile, study: StudyFile): Model {
     const sup = supportPoints(e);
     d.nSup = e.bondLine?.heightTol ? sup.length : 0;
     d.supOff = addSource(`${e.id}.bondLine`, e.bondLine?.heightTol, sup.length, st, "um");
-    d.tiltXOff = addSource(`${e.id}.tiltX`, e.tiltTol?.x, 1, st, "deg");
-    d.tiltYOff = addSource(`${e.id}.tiltY`, e.tiltTol?.y, 1, st, "deg");
+    if (e.tiltTol?.xy) {
+      // both components measured together on each unit: one source, two draws (x, y)
+      d.tiltXOff = addSource(`${e.id}.tilt`, e.tiltTol.xy, 2, st, "deg");
+      d.tiltYOff = d.tiltXOff + 1;
+    } else {
+      d.tiltXOff = addSource(`${e.id}.tiltX`, e.tiltTol?.x, 1, st, "deg");
+      d.tiltYOff = addSource(`${e.id}.tiltY`, e.tiltTol?.y, 1, st, "deg");
+    }
     d.yawOff = addSource(`${e.id}.yaw`, e.placementTol?.yawDeg, 1, st, "deg");
     d.dxOff = addSource(`${e.id}.x`, e.placementTol?.xUm, 1, st, "um");
     d.dyOff = addSource(`${e.id}.y`, e.placementTol?.yUm, 1, st, "um");

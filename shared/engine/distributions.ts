@@ -57,6 +57,12 @@ export const DIST_NORMAL = 0;
 export const DIST_UNIFORM = 1;
 export const DIST_TRIANGULAR = 2;
 export const DIST_DATA = 3;
+/**
+ * One column of measured rows drawn together: the draws of a source (a bond line's support
+ * heights, a tilt's two components, six axis angles) take one row per trial, picked by the
+ * uniform of the source's first draw, so a unit's measurements stay together.
+ */
+export const DIST_ROWS = 4;
 
 /** A tolerance reduced to what sampling needs. */
 export interface CompiledDist {
@@ -68,8 +74,11 @@ export interface CompiledDist {
   sigma: number;
   /** half-width used by worst-case / RSS (T; for data the largest distance from the mean) */
   halfWidth: number;
-  /** sorted values for DIST_DATA */
+  /** sorted values for DIST_DATA; for DIST_ROWS the rows, row-major, `width` values each */
   values: Float64Array | null;
+  /** DIST_ROWS: values per row, and which of them this draw takes (its place in the source) */
+  width?: number;
+  column?: number;
 }
 
 export const ZERO_DIST: CompiledDist = { kind: DIST_UNIFORM, mean: 0, scale: 0, sigma: 0, halfWidth: 0, values: null };
@@ -83,6 +92,12 @@ export function sampleDist(d: CompiledDist, u: number): number {
       return d.mean + d.scale * (2 * u - 1);
     case DIST_TRIANGULAR:
       return u < 0.5 ? d.mean - d.scale + d.scale * Math.sqrt(2 * u) : d.mean + d.scale - d.scale * Math.sqrt(2 * (1 - u));
+    case DIST_ROWS: {
+      // u is the uniform of the source's first draw (see sampleInto)
+      const w = d.width!;
+      const n = d.values!.length / w;
+      return d.values![Math.min(n - 1, Math.floor(u * n)) * w + d.column!];
+    }
     default: {
       const v = d.values!;
       const i = Math.min(v.length - 1, Math.floor(u * v.length));
@@ -142,6 +157,12 @@ export function sampleInto(dists: CompiledDist[], u: Float64Array, uOffset: numb
     } else if (kind === DIST_UNIFORM) out[k] = d.mean + d.scale * (2 * p - 1);
     else if (kind === DIST_TRIANGULAR) {
       out[k] = p < 0.5 ? d.mean - d.scale + d.scale * Math.sqrt(2 * p) : d.mean + d.scale - d.scale * Math.sqrt(2 * (1 - p));
+    } else if (kind === DIST_ROWS) {
+      const w = d.width!;
+      const c = d.column!;
+      const n = d.values!.length / w;
+      // every draw of the source reads the row its first draw's uniform picks
+      out[k] = d.values![Math.min(n - 1, Math.floor(u[uOffset + k - c] * n)) * w + c];
     } else {
       const v = d.values!;
       out[k] = v[Math.min(v.length - 1, Math.floor(p * v.length))];
@@ -156,6 +177,31 @@ export interface ToleranceLike {
   sigmas?: number;
   mean?: number;
   values?: number[];
+  rows?: number[][];
+}
+
+/**
+ * The draws of a measured-rows tolerance, one per column: each keeps its column's own
+ * mean and (population) spread for the linearised contributions.
+ */
+export function compileRows(rows: number[][], width: number): CompiledDist[] {
+  const n = rows.length;
+  const flat = new Float64Array(n * width);
+  rows.forEach((r, i) => flat.set(r.slice(0, width), i * width));
+  const out: CompiledDist[] = [];
+  for (let c = 0; c < width; c++) {
+    let m = 0;
+    for (let i = 0; i < n; i++) m += flat[i * width + c];
+    m /= n;
+    let s2 = 0, far = 0;
+    for (let i = 0; i < n; i++) {
+      const d = flat[i * width + c] - m;
+      s2 += d * d;
+      far = Math.max(far, Math.abs(d));
+    }
+    out.push({ kind: DIST_ROWS, mean: m, scale: 0, sigma: Math.sqrt(s2 / n), halfWidth: far, values: flat, width, column: c });
+  }
+  return out;
 }
 
 export function compileDist(t: ToleranceLike | undefined | null): CompiledDist {
@@ -186,5 +232,5 @@ export function compileDist(t: ToleranceLike | undefined | null): CompiledDist {
 
 /** A draw of this distribution is always its mean (no spread). */
 export function isDegenerate(d: CompiledDist): boolean {
-  return d.kind !== DIST_DATA && d.scale === 0;
+  return d.kind !== DIST_DATA && d.kind !== DIST_ROWS && d.scale === 0;
 }

@@ -9,7 +9,7 @@
  *   thread count; the variance reduction is that of an n-point hypercube per block.
  */
 import { blockStream, BLOCK_SIZE, type Xoshiro128ss } from "./random";
-import { sampleDist, sampleInto } from "./distributions";
+import { sampleInto } from "./distributions";
 import type { Model } from "./compile";
 
 export type SamplingMode = "random" | "lhs";
@@ -76,11 +76,12 @@ export function drawsOfTrial(m: Model, mode: SamplingMode, seed: number, totalTr
   const draws = new Float64Array(m.drawCount);
   const rng = blockStream(seed, block);
   if (mode === "lhs") {
-    const u = lhsUniforms(rng, n, m.drawCount);
-    for (let k = 0; k < m.drawCount; k++) draws[k] = sampleDist(m.drawDist[k], u[i * m.drawCount + k]);
+    sampleInto(m.drawDist, lhsUniforms(rng, n, m.drawCount), i * m.drawCount, draws);
     return draws;
   }
   rng.skip(2 * m.drawCount * i);
-  for (let k = 0; k < m.drawCount; k++) draws[k] = sampleDist(m.drawDist[k], rng.nextOpen01());
+  const u = new Float64Array(m.drawCount);
+  for (let k = 0; k < m.drawCount; k++) u[k] = rng.nextOpen01();
+  sampleInto(m.drawDist, u, 0, draws);
   return draws;
 }

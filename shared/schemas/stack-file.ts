@@ -126,17 +126,33 @@ export const ToleranceSchema = z
       .min(2, { error: "a measured data set needs at least two values" })
       .max(MAX_DATA_VALUES, { error: `a measured data set may hold at most ${MAX_DATA_VALUES} values` })
       .optional(),
+    /**
+     * Measured units drawn whole: one row per unit, one value per draw of the source (a bond
+     * line's support heights in support order, a tilt's x and y, the six axis angles g1..g6).
+     */
+    rows: z
+      .array(z.array(finite("a measured value"), { error: "each row must be a list of numbers" }).min(2, { error: "a row holds at least two values" }).max(64), {
+        error: "rows must be a list of rows",
+      })
+      .min(2, { error: "measured rows need at least two units" })
+      .max(MAX_DATA_VALUES, { error: `measured rows may hold at most ${MAX_DATA_VALUES} units` })
+      .optional(),
     stage: StageSchema.optional(),
     owner: z.string().max(200, { error: "owner is limited to 200 characters" }).optional(),
   })
   .superRefine((t, ctx) => {
     if (t.dist === "data") {
-      if (!t.values) ctx.addIssue({ code: "custom", path: ["values"], message: `a "data" tolerance needs its measured values` });
+      if (!t.values && !t.rows) ctx.addIssue({ code: "custom", path: ["values"], message: `a "data" tolerance needs its measured values` });
+      if (t.values && t.rows) ctx.addIssue({ code: "custom", path: ["rows"], message: `give either values or rows, not both` });
+      if (t.rows && t.rows.some((r) => r.length !== t.rows![0].length)) {
+        ctx.addIssue({ code: "custom", path: ["rows"], message: "every measured row needs the same number of values" });
+      }
       if (t.tol !== undefined || t.sigmas !== undefined)
         ctx.addIssue({ code: "custom", path: ["tol"], message: `a "data" tolerance takes its spread from the values: leave out tol and sigmas` });
     } else {
       if (t.tol === undefined) ctx.addIssue({ code: "custom", path: ["tol"], message: `a tolerance needs its half-width "tol"` });
       if (t.values !== undefined) ctx.addIssue({ code: "custom", path: ["values"], message: `measured values need "dist": "data"` });
+      if (t.rows !== undefined) ctx.addIssue({ code: "custom", path: ["rows"], message: `measured rows need "dist": "data"` });
       if (t.sigmas !== undefined && t.dist !== "normal")
         ctx.addIssue({ code: "custom", path: ["sigmas"], message: `sigmas applies to "normal" tolerances only: a ${t.dist} tolerance spans mean ± tol` });
     }
@@ -184,7 +200,8 @@ export const ElementSchema = z.strictObject({
   yawDeg: finite("yawDeg").optional(),
   size: SizeSchema,
   bondLine: BondLineSchema.optional(),
-  tiltTol: z.strictObject({ x: ToleranceSchema.optional(), y: ToleranceSchema.optional() }).optional(),
+  /** `xy`: both components measured together (rows of two, x then y), in place of x and y */
+  tiltTol: z.strictObject({ x: ToleranceSchema.optional(), y: ToleranceSchema.optional(), xy: ToleranceSchema.optional() }).optional(),
   placementTol: z
     .strictObject({ xUm: ToleranceSchema.optional(), yUm: ToleranceSchema.optional(), yawDeg: ToleranceSchema.optional() })
     .optional(),
@@ -272,6 +289,7 @@ export function checkStack(file: unknown, add: (issue: { path: (string | number)
         if (e[key] !== undefined) add({ path: ["elements", i, key], message: `the board is the reference frame: it has no ${key}` });
       }
     }
+    checkRows(e, i, add);
     if (e.axisTol !== undefined && typeof e.kind === "string" && !isSensorKind(e.kind)) {
       add({ path: ["elements", i, "axisTol"], message: `axisTol (sensing-axis alignment) applies to sensor dies only (gyro, accel, mag), not to a ${e.kind}` });
     }
@@ -346,6 +364,37 @@ export function checkStack(file: unknown, add: (issue: { path: (string | number)
       }
     }
   });
+}
+
+/**
+ * Measured rows belong to a source with several draws, one value per draw: the bond line
+ * (one per support point), the tilt's `xy` (two) and a single axisTol (six). Anywhere else
+ * a tolerance has one draw and takes `values`.
+ */
+function checkRows(e: Loose, i: number, add: (i: { path: (string | number)[]; message: string }) => void) {
+  const width = (t: unknown) => (isObj(t) && Array.isArray(t.rows) && Array.isArray(t.rows[0]) ? (t.rows[0] as unknown[]).length : null);
+  const bl = isObj(e.bondLine) ? e.bondLine : undefined;
+  const blw = width(bl?.heightTol);
+  if (blw !== null) {
+    const s = bl!.supports;
+    const need = Array.isArray(s) ? s.length : 4;
+    if (blw !== need) add({ path: ["elements", i, "bondLine", "heightTol", "rows"], message: `each row needs one height per support point (${need}), not ${blw}` });
+  }
+  const tt = isObj(e.tiltTol) ? e.tiltTol : undefined;
+  if (tt) {
+    const w = width(tt.xy);
+    if (tt.xy !== undefined && (tt.x !== undefined || tt.y !== undefined)) add({ path: ["elements", i, "tiltTol", "xy"], message: "tiltTol.xy takes the place of x and y: give one or the other" });
+    if (tt.xy !== undefined && w !== 2) add({ path: ["elements", i, "tiltTol", "xy"], message: "tiltTol.xy is measured rows of two values (x, y)" });
+    for (const k of ["x", "y"]) if (width(tt[k]) !== null) add({ path: ["elements", i, "tiltTol", k, "rows"], message: "a single tilt component takes values, not rows: measured x and y together go in tiltTol.xy" });
+  }
+  const ax = e.axisTol;
+  if (ax !== undefined && !Array.isArray(ax) && width(ax) !== null && width(ax) !== 6) {
+    add({ path: ["elements", i, "axisTol", "rows"], message: "each row of axis angles holds six values, g1 to g6" });
+  }
+  if (Array.isArray(ax)) ax.forEach((t, k) => width(t) !== null && add({ path: ["elements", i, "axisTol", k, "rows"], message: "one axis angle takes values, not rows" }));
+  if (width(e.bowUm) !== null) add({ path: ["elements", i, "bowUm", "rows"], message: "the bow takes values, not rows" });
+  const pl = isObj(e.placementTol) ? e.placementTol : undefined;
+  for (const k of ["xUm", "yUm", "yawDeg"]) if (pl && width(pl[k]) !== null) add({ path: ["elements", i, "placementTol", k, "rows"], message: "a placement tolerance takes values, not rows" });
 }
 
 /** Points on one line (within a relative tolerance of the footprint). */
