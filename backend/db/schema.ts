@@ -571,3 +571,37 @@ export const notificationMailOptOuts = pgTable(
   },
   (t) => [primaryKey({ columns: [t.userId, t.kind] })],
 );
+
+/**
+ * Server mode (DATABASE_URL): a study cut into parts, each a range of blocks run by one job of
+ * the queue. A finished part holds its block partials and worker state (node:v8 serialised);
+ * the job that finishes the last part merges them in block order and writes the result. A part
+ * run again after its worker died overwrites its own row, so nothing is counted twice.
+ */
+export const studyParts = pgTable(
+  "study_parts",
+  {
+    studyId: uuid("study_id")
+      .notNull()
+      .references(() => studies.id, { onDelete: "cascade" }),
+    part: integer("part").notNull(),
+    blockFrom: integer("block_from").notNull(),
+    blockTo: integer("block_to").notNull(),
+    trialsDone: integer("trials_done").notNull().default(0),
+    data: bytea("data"),
+    finishedAt: timestamp("finished_at", { withTimezone: true }),
+    createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.studyId, t.part] })],
+);
+
+/** Worker processes of the job queue, as last seen (the health route and the admin's status page). */
+export const queueWorkers = pgTable("queue_workers", {
+  id: text("id").primaryKey(),
+  host: text("host").notNull(),
+  pid: integer("pid").notNull(),
+  threads: integer("threads").notNull(),
+  jobsDone: integer("jobs_done").notNull().default(0),
+  startedAt: timestamp("started_at", { withTimezone: true }).notNull(),
+  seenAt: timestamp("seen_at", { withTimezone: true }).notNull(),
+});
