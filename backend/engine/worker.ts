@@ -1,42 +1,70 @@
 /**
- * One engine worker thread: compiles the study once, runs the blocks it is sent into its
- * own WorkerState, posts each block's partial back, and hands over its state at the end.
- * Relative imports (not the @shared alias) so the file also loads under plain
- * `node --import tsx` without the bundler's alias.
+ * One engine worker thread of the warm pool (./pool.ts). It stays alive between studies and
+ * holds one WorkerState per open study: "open" compiles the study, "run" adds a block's
+ * integer counts to that study's state and posts the block's float partial back, "finish"
+ * hands the state over and forgets the study, "close" forgets it (cancelled). The thread is
+ * loaded from its plain-JS bundle (./bundle.mjs), so it starts without a TypeScript loader.
  */
+import { readlinkSync } from "node:fs";
+import { setPriority } from "node:os";
 import { parentPort, workerData } from "node:worker_threads";
-import { createWorkerState, runBlock, transferablesOf } from "../../shared/engine/accumulate";
-import { prepareStudy, type StudyOverrides } from "../../shared/engine/plan";
+import { createWorkerState, runBlock, transferablesOf, type WorkerState } from "../../shared/engine/accumulate";
+import { prepareStudy, type PreparedStudy, type StudyOverrides } from "../../shared/engine/plan";
 import type { StackFile } from "../../shared/schemas/stack-file";
 import type { StudyFile } from "../../shared/schemas/study-file";
 
 export interface WorkerInit {
-  stack: StackFile;
-  study: StudyFile;
-  overrides: StudyOverrides;
+  /** niceness of this thread (Linux), so the server's own thread keeps answering requests */
+  nice?: number;
 }
 
-export type ToWorker = { type: "run"; block: number } | { type: "finish" };
+export type ToWorker =
+  | { type: "open"; job: number; stack: StackFile; study: StudyFile; overrides: StudyOverrides }
+  | { type: "run"; job: number; block: number }
+  | { type: "finish"; job: number }
+  | { type: "close"; job: number };
 export type FromWorker =
-  | { type: "block"; partial: ReturnType<typeof runBlock> }
-  | { type: "state"; state: ReturnType<typeof createWorkerState> }
-  | { type: "error"; message: string };
+  | { type: "block"; job: number; partial: ReturnType<typeof runBlock> }
+  | { type: "dropped"; job: number; block: number }
+  | { type: "state"; job: number; state: WorkerState }
+  | { type: "error"; job: number; block?: number; message: string };
 
 const port = parentPort;
 if (!port) throw new Error("backend/engine/worker.ts must run as a worker thread");
-const init = workerData as WorkerInit;
-const prep = prepareStudy(init.stack, init.study, init.overrides);
-const state = createWorkerState(prep.model, prep.plan);
+const init = (workerData ?? {}) as WorkerInit;
+if (init.nice) {
+  try {
+    // On Linux a thread has its own id and its own nice value; /proc/thread-self names it.
+    const tid = Number(readlinkSync("/proc/thread-self").split("/").pop());
+    if (Number.isInteger(tid) && tid > 0) setPriority(tid, init.nice);
+  } catch {
+    // elsewhere the worker runs at the process's priority
+  }
+}
+
+const jobs = new Map<number, { prep: PreparedStudy; state: WorkerState }>();
 
 port.on("message", (msg: ToWorker) => {
   try {
-    if (msg.type === "run") {
-      const partial = runBlock(prep.model, prep.plan, state, msg.block);
-      port.postMessage({ type: "block", partial } satisfies FromWorker, transferablesOf(partial));
+    if (msg.type === "open") {
+      const prep = prepareStudy(msg.stack, msg.study, msg.overrides);
+      jobs.set(msg.job, { prep, state: createWorkerState(prep.model, prep.plan) });
+    } else if (msg.type === "run") {
+      const j = jobs.get(msg.job);
+      // closed (cancelled) while the block waited: still answer, the pool counts replies
+      if (!j) return port.postMessage({ type: "dropped", job: msg.job, block: msg.block } satisfies FromWorker);
+      const partial = runBlock(j.prep.model, j.prep.plan, j.state, msg.block);
+      port.postMessage({ type: "block", job: msg.job, partial } satisfies FromWorker, transferablesOf(partial));
     } else if (msg.type === "finish") {
-      port.postMessage({ type: "state", state } satisfies FromWorker, transferablesOf(state));
+      const j = jobs.get(msg.job);
+      if (!j) throw new Error(`no open study ${msg.job}`);
+      jobs.delete(msg.job);
+      port.postMessage({ type: "state", job: msg.job, state: j.state } satisfies FromWorker, transferablesOf(j.state));
+    } else if (msg.type === "close") {
+      jobs.delete(msg.job);
     }
   } catch (e) {
-    port.postMessage({ type: "error", message: e instanceof Error ? e.stack ?? e.message : String(e) } satisfies FromWorker);
+    jobs.delete(msg.job);
+    port.postMessage({ type: "error", job: msg.job, block: msg.type === "run" ? msg.block : undefined, message: e instanceof Error ? (e.stack ?? e.message) : String(e) } satisfies FromWorker);
   }
 });

@@ -8,11 +8,11 @@ import { ResultFileSchema } from "@shared/schemas/result-file";
 import { fixture } from "./helpers";
 
 const root = fileURLToPath(new URL("../..", import.meta.url));
-const tsx = join(root, "node_modules/.bin/tsx");
 
 function run(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
   return new Promise((resolve) => {
-    execFile(tsx, ["backend/cli/study.ts", ...args], { cwd: root, timeout: 120_000 }, (err, stdout, stderr) => {
+    // what `npm run study` runs: the launcher, which runs the CLI from its plain-JS bundle
+    execFile(process.execPath, ["backend/cli/launch.mjs", "study", ...args], { cwd: root, timeout: 120_000 }, (err, stdout, stderr) => {
       resolve({ code: err ? ((err as { code?: number }).code ?? 1) : 0, stdout, stderr });
     });
   });

@@ -1,0 +1,325 @@
+/**
+ * The warm engine pool: worker threads that stay alive between studies and run the blocks
+ * of every study handed to it, shared fairly between the people who asked (block by block).
+ *
+ * Design, kept explicit because a job queue across processes will reuse it: a study is cut
+ * into fixed blocks (shared/engine/random BLOCK_SIZE). A worker adds a block's integer
+ * counts to its own WorkerState for that study and posts the block's float partial back;
+ * the pool folds partials in block order (Coordinator) and, at the end, merges the workers'
+ * states (exact integer sums). So the result depends on stack, study and seed only, never on
+ * the thread count, on which worker ran which block, or on a worker dying half-way: its
+ * blocks are run again on its replacement (their partials, already folded, are not folded
+ * twice).
+ *
+ * Fairness: when a worker has room (two blocks in flight each), the next block goes to the
+ * owner after the last one served, round robin, and within an owner to its studies in turn.
+ * A person with one long study and a person with a short one each get every other block.
+ */
+import { availableParallelism } from "node:os";
+import { pathToFileURL } from "node:url";
+import { Worker } from "node:worker_threads";
+import { mergeWorkerStates, type BlockPartial, type WorkerState } from "@shared/engine/accumulate";
+import { adaptiveDone, finalizeStudy, newCoordinator, prepareStudy, type PreparedStudy, type Progress, type StudyOverrides } from "@shared/engine/study";
+import type { Coordinator } from "@shared/engine/coordinator";
+import type { ResultFile } from "@shared/schemas/result-file";
+import type { StackFile } from "@shared/schemas/stack-file";
+import type { StudyFile } from "@shared/schemas/study-file";
+import { ensureBundle } from "./bundle.mjs";
+import type { FromWorker, ToWorker, WorkerInit } from "./worker";
+
+export class StudyAbortedError extends Error {
+  constructor(message = "the study was cancelled") {
+    super(message);
+    this.name = "AbortError";
+  }
+}
+
+export interface PoolOptions {
+  /** worker threads; default one per core */
+  threads?: number;
+  /** niceness of the worker threads on Linux (0 = as the process; the server uses 10) */
+  nice?: number;
+  /** told when a worker thread died and was replaced */
+  log?: (message: string, err?: unknown) => void;
+}
+
+export interface PoolRunOptions extends StudyOverrides {
+  /** whose study this is: blocks are shared fairly between owners; default one shared owner */
+  owner?: string;
+  onProgress?: (p: Progress) => void;
+  signal?: AbortSignal;
+}
+
+/** In flight per worker: one running, one waiting, so a worker never idles between blocks. */
+const SLOTS = 2;
+/** A study whose blocks were on this many dying workers fails rather than loop. */
+const MAX_WORKER_DEATHS = 3;
+
+export function defaultThreads(): number {
+  return Math.max(1, availableParallelism());
+}
+
+interface PoolWorker {
+  w: Worker;
+  inFlight: number;
+  open: Set<number>;
+  alive: boolean;
+}
+
+interface Job {
+  id: number;
+  owner: string;
+  prep: PreparedStudy;
+  coord: Coordinator;
+  queue: number[];
+  delivered: Set<number>;
+  /** blocks whose counts live in a worker's state (run or in flight there) */
+  ranOn: Map<PoolWorker, Set<number>>;
+  states: Map<PoolWorker, (s: WorkerState | null) => void>;
+  deaths: number;
+  failed: Error | null;
+  wake: (() => void) | null;
+  onProgress?: (p: Progress) => void;
+}
+
+export class EnginePool {
+  private workers: PoolWorker[] = [];
+  private jobs = new Map<number, Job>();
+  private nextJob = 1;
+  private owners: string[] = [];
+  private ownerTurn = 0;
+  private jobTurn = new Map<string, number>();
+  private stopped = false;
+  private readonly url: URL;
+  readonly size: number;
+
+  constructor(private readonly opts: PoolOptions = {}) {
+    this.size = Math.max(1, opts.threads ?? defaultThreads());
+    this.url = pathToFileURL(ensureBundle("worker"));
+    for (let i = 0; i < this.size; i++) this.workers.push(this.spawn());
+  }
+
+  /** Studies open in the pool (running or finishing). */
+  get activeStudies(): number {
+    return this.jobs.size;
+  }
+
+  /** The worker threads, for tests that stop one to see it replaced. */
+  threadsForTest(): Worker[] {
+    return this.workers.map((p) => p.w);
+  }
+
+  /** Run a validated study; resolves to its result file. Rejects with StudyAbortedError on abort. */
+  async run(stack: StackFile, study: StudyFile, opts: PoolRunOptions = {}): Promise<ResultFile> {
+    if (this.stopped) throw new StudyAbortedError("the engine pool is stopped");
+    if (opts.signal?.aborted) throw new StudyAbortedError();
+    const prep = prepareStudy(stack, study, { trials: opts.trials, seed: opts.seed });
+    const job: Job = {
+      id: this.nextJob++,
+      owner: opts.owner ?? "",
+      prep,
+      coord: newCoordinator(prep),
+      queue: [],
+      delivered: new Set(),
+      ranOn: new Map(),
+      states: new Map(),
+      deaths: 0,
+      failed: null,
+      wake: null,
+      onProgress: opts.onProgress,
+    };
+    this.jobs.set(job.id, job);
+    if (!this.owners.includes(job.owner)) this.owners.push(job.owner);
+    const onAbort = () => this.fail(job, new StudyAbortedError());
+    opts.signal?.addEventListener("abort", onAbort, { once: true });
+    try {
+      const blocks = prep.plan.blocks;
+      // fixed studies: every block at once; adaptive: one run of blocks at a time (JCGM 101 7.9)
+      const step = prep.adaptive ? prep.adaptive.runBlocks : blocks;
+      let next = 0;
+      while (next < blocks) {
+        const end = Math.min(blocks, next + step);
+        for (let b = next; b < end; b++) job.queue.push(b);
+        next = end;
+        this.pump();
+        await this.until(job, () => job.coord.merged >= end);
+        if (prep.adaptive && adaptiveDone(prep, job.coord)) break;
+      }
+      const states = await this.collectStates(job);
+      return finalizeStudy(prep, job.coord, mergeWorkerStates(states));
+    } finally {
+      opts.signal?.removeEventListener("abort", onAbort);
+      this.close(job);
+    }
+  }
+
+  /** Stops every worker; running studies reject with StudyAbortedError. */
+  async stop(): Promise<void> {
+    if (this.stopped) return;
+    this.stopped = true;
+    for (const job of this.jobs.values()) this.fail(job, new StudyAbortedError("the engine pool stopped"));
+    const ws = this.workers;
+    this.workers = [];
+    for (const p of ws) p.alive = false;
+    await Promise.all(ws.map((p) => p.w.terminate()));
+  }
+
+  private spawn(): PoolWorker {
+    const w = new Worker(this.url, { workerData: { nice: this.opts.nice ?? 0 } satisfies WorkerInit, execArgv: [] });
+    const p: PoolWorker = { w, inFlight: 0, open: new Set(), alive: true };
+    w.on("message", (msg: FromWorker) => this.onMessage(p, msg));
+    w.on("error", (e) => this.opts.log?.("engine worker error", e));
+    w.on("exit", () => this.onExit(p));
+    return p;
+  }
+
+  private onMessage(p: PoolWorker, msg: FromWorker) {
+    const job = this.jobs.get(msg.job);
+    if (msg.type === "block" || msg.type === "dropped" || (msg.type === "error" && msg.block !== undefined)) p.inFlight--;
+    if (msg.type === "block" && job && !job.failed) {
+      const partial = msg.partial as BlockPartial;
+      // a block run again after a worker died: its partial was folded the first time
+      if (!job.delivered.has(partial.block)) {
+        job.delivered.add(partial.block);
+        job.coord.add(partial);
+        job.onProgress?.({ trialsDone: job.coord.trials, trialsTotal: job.prep.plan.trials });
+      }
+      this.notify(job);
+    } else if (msg.type === "state" && job) {
+      p.open.delete(job.id);
+      job.states.get(p)?.(msg.state);
+    } else if (msg.type === "error" && job) {
+      p.open.delete(job.id);
+      this.fail(job, new Error(`engine worker failed: ${msg.message}`));
+    }
+    this.pump();
+  }
+
+  private onExit(p: PoolWorker) {
+    if (!p.alive) return;
+    p.alive = false;
+    const i = this.workers.indexOf(p);
+    if (i < 0) return;
+    this.opts.log?.("an engine worker thread stopped; starting a replacement");
+    this.workers[i] = this.spawn();
+    for (const job of this.jobs.values()) {
+      const lost = job.ranOn.get(p);
+      job.ranOn.delete(p);
+      job.states.get(p)?.(null);
+      if (!lost || lost.size === 0) continue;
+      if (++job.deaths > MAX_WORKER_DEATHS) {
+        this.fail(job, new Error("engine worker threads stopped repeatedly while running this study"));
+        continue;
+      }
+      // its counts died with it: run those blocks again, first
+      job.queue.unshift(...[...lost].sort((a, b) => a - b));
+    }
+    this.pump();
+  }
+
+  /** Hand out blocks while workers have room: owners round robin, then their studies in turn. */
+  private pump() {
+    if (this.stopped) return;
+    for (;;) {
+      const p = this.freeWorker();
+      if (!p) return;
+      const job = this.pickJob();
+      if (!job) return;
+      const block = job.queue.shift()!;
+      if (!p.open.has(job.id)) {
+        const { stack, study } = job.prep;
+        p.w.postMessage({ type: "open", job: job.id, stack, study, overrides: {} } satisfies ToWorker);
+        p.open.add(job.id);
+      }
+      let set = job.ranOn.get(p);
+      if (!set) job.ranOn.set(p, (set = new Set()));
+      set.add(block);
+      p.inFlight++;
+      p.w.postMessage({ type: "run", job: job.id, block } satisfies ToWorker);
+    }
+  }
+
+  private freeWorker(): PoolWorker | null {
+    let best: PoolWorker | null = null;
+    for (const p of this.workers) if (p.alive && p.inFlight < SLOTS && (!best || p.inFlight < best.inFlight)) best = p;
+    return best;
+  }
+
+  private pickJob(): Job | null {
+    const n = this.owners.length;
+    for (let k = 0; k < n; k++) {
+      const oi = (this.ownerTurn + k) % n;
+      const owner = this.owners[oi];
+      const mine = [...this.jobs.values()].filter((j) => j.owner === owner && !j.failed && j.queue.length > 0);
+      if (!mine.length) continue;
+      const t = this.jobTurn.get(owner) ?? 0;
+      const job = mine[t % mine.length];
+      this.jobTurn.set(owner, t + 1);
+      this.ownerTurn = oi + 1;
+      return job;
+    }
+    return null;
+  }
+
+  /**
+   * Asks every worker holding counts of the study for its state. A worker that dies before
+   * answering had its blocks queued again (onExit); they run elsewhere and that worker is asked.
+   */
+  private async collectStates(job: Job): Promise<WorkerState[]> {
+    const collected: WorkerState[] = [];
+    for (;;) {
+      // finish is sent after the runs on the same port, so a worker answers with every block
+      await this.until(job, () => job.queue.length === 0);
+      const holders = [...job.ranOn.keys()];
+      if (holders.length === 0) return collected;
+      const got = await Promise.all(
+        holders.map(
+          (p) =>
+            new Promise<WorkerState | null>((resolve) => {
+              job.states.set(p, resolve);
+              p.w.postMessage({ type: "finish", job: job.id } satisfies ToWorker);
+            }),
+        ),
+      );
+      job.states.clear();
+      if (job.failed) throw job.failed;
+      holders.forEach((p, i) => {
+        const st = got[i];
+        if (st) {
+          collected.push(st);
+          job.ranOn.delete(p);
+        }
+      });
+    }
+  }
+
+  private async until(job: Job, cond: () => boolean) {
+    while (!job.failed && !cond()) await new Promise<void>((r) => (job.wake = r));
+    if (job.failed) throw job.failed;
+  }
+
+  private notify(job: Job) {
+    const w = job.wake;
+    job.wake = null;
+    w?.();
+  }
+
+  private fail(job: Job, e: Error) {
+    job.failed ??= e;
+    job.queue.length = 0;
+    for (const r of job.states.values()) r(null);
+    this.notify(job);
+  }
+
+  private close(job: Job) {
+    this.jobs.delete(job.id);
+    for (const p of this.workers) {
+      if (p.open.has(job.id) && p.alive) p.w.postMessage({ type: "close", job: job.id } satisfies ToWorker);
+      p.open.delete(job.id);
+    }
+    if (![...this.jobs.values()].some((j) => j.owner === job.owner)) {
+      this.owners = this.owners.filter((o) => o !== job.owner);
+      this.jobTurn.delete(job.owner);
+    }
+  }
+}
