@@ -6,86 +6,41 @@
  * useFrame when the pose version changes; React renders the scene's structure only when
  * the stack itself changes. Frames are drawn on demand.
  */
-import { Hud, OrbitControls, OrthographicCamera } from "@react-three/drei";
-import { useFrame, useThree, type ThreeEvent } from "@react-three/fiber";
-import { memo, useEffect, useLayoutEffect, useMemo, useRef, type RefObject } from "react";
+import { OrbitControls } from "@react-three/drei";
+import { useFrame, useThree } from "@react-three/fiber";
+import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import {
-  BackSide,
-  BoxGeometry,
   BufferAttribute,
   BufferGeometry,
-  CanvasTexture,
   Color,
-  ConeGeometry,
-  CylinderGeometry,
-  DoubleSide,
-  EdgesGeometry,
   type Group,
   type InstancedMesh,
-  LineBasicMaterial,
+  type LineLoop,
   type LineSegments,
   Matrix4,
-  MeshBasicMaterial,
-  MeshStandardMaterial,
   type PerspectiveCamera,
   Plane,
   Quaternion,
   type Sprite,
   SpriteMaterial,
-  SRGBColorSpace,
   Vector3,
-  type LineLoop,
 } from "three";
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
 import type { StackFile } from "@shared/schemas/stack-file";
-import { isSensorKind } from "@shared/schemas/stack-file";
-import { boardBounds, emptyBounds, fitDistance, packageBounds, packageFilter, presetDirection, shownBounds, type ViewPreset } from "../lib/framing";
+import { boardBounds, emptyBounds, fitDistance, packageBounds, packageFilter, presetDirection, shownBounds } from "../lib/framing";
 import { labelTexture } from "../lib/label-texture";
-import {
-  AXIS_COLOUR,
-  AXIS_NAMES,
-  BOND_LINE,
-  BOND_LINE_OPACITY,
-  GRID_MAJOR,
-  GRID_MINOR,
-  KIND_COLOUR,
-  SECTION_OUTLINE,
-  SELECTION,
-  VIEWPORT_BOTTOM,
-  VIEWPORT_TOP,
-} from "../lib/palette";
+import { AXIS_COLOUR, AXIS_NAMES, KIND_COLOUR } from "../lib/palette";
 import type { PoseSet } from "../lib/poses";
+import { clippedMaterials, disposeMaterials, lighten, makeMaterials, useSharedGeometry } from "../lib/scene-materials";
+import { FOV, type HoverInfo, noRaycast, type SceneApi, type SectionState, type ViewRequest } from "../lib/scene-types";
 import { ShownPose } from "../lib/shown-pose";
+import { HEAD_L, HEAD_R, SHAFT_R, triadLayout } from "../lib/triad-layout";
+import { BoardGrid } from "./board-grid";
+import { FrameIndicator } from "./frame-indicator";
+import { SceneEnvironment } from "./scene-environment";
+import { StackModel } from "./stack-model";
 
-export type SectionAxis = "off" | "x" | "y";
-export interface SectionState {
-  axis: SectionAxis;
-  /** position of the cut in B (mm) */
-  value: number;
-  /** false: keep x <= value (or y >= value), the side the default view looks at; true: the other side */
-  flip: boolean;
-}
-
-export interface ViewRequest {
-  preset: ViewPreset;
-  /** changes on every request, so the same preset can be asked for twice */
-  nonce: number;
-  /** jump instead of gliding (first frame) */
-  instant?: boolean;
-}
-
-export interface SceneApi {
-  canvas: HTMLCanvasElement;
-  /** draws a frame now (for the export) */
-  renderNow: () => void;
-}
-
-export interface HoverInfo {
-  index: number;
-  part: "body" | "bond";
-  clientX: number;
-  clientY: number;
-}
+export { FOV, type HoverInfo, type SceneApi, type SectionAxis, type SectionState, type ViewRequest } from "../lib/scene-types";
 
 export interface ViewerSceneProps {
   stack: StackFile;
@@ -103,295 +58,6 @@ export interface ViewerSceneProps {
   /** after every drawn frame; `moving` while the camera still glides to a preset */
   onFrame: (moving: boolean) => void;
 }
-
-export const FOV = 30;
-const noRaycast = () => null;
-
-// ---------------------------------------------------------------- shared geometry
-
-/** A unit box with its origin at the centre of the bottom face, like the element frames. */
-function unitBox(): BoxGeometry {
-  const g = new BoxGeometry(1, 1, 1);
-  g.translate(0, 0, 0.5);
-  return g;
-}
-
-function useSharedGeometry() {
-  return useMemo(() => {
-    const box = unitBox();
-    const edges = new EdgesGeometry(box);
-    // arrows along +z from the origin: shaft of unit length, head of unit length
-    const shaft = new CylinderGeometry(1, 1, 1, 12, 1);
-    shaft.rotateX(Math.PI / 2);
-    shaft.translate(0, 0, 0.5);
-    const head = new ConeGeometry(1, 1, 18, 1);
-    head.rotateX(Math.PI / 2);
-    head.translate(0, 0, 0.5);
-    return { box, edges, shaft, head };
-  }, []);
-}
-
-// ---------------------------------------------------------------- environment
-
-function gradientTexture(): CanvasTexture {
-  const c = document.createElement("canvas");
-  c.width = 4;
-  c.height = 256;
-  const g = c.getContext("2d")!;
-  const grad = g.createLinearGradient(0, 0, 0, 256);
-  grad.addColorStop(0, VIEWPORT_TOP);
-  grad.addColorStop(1, VIEWPORT_BOTTOM);
-  g.fillStyle = grad;
-  g.fillRect(0, 0, 4, 256);
-  const t = new CanvasTexture(c);
-  t.colorSpace = SRGBColorSpace;
-  return t;
-}
-
-/**
- * Lights only, no environment map: a prefiltered environment doubles the start-up and the
- * frame time on machines without a GPU, and hemisphere plus three directional lights
- * give the boxes readable, distinct faces.
- */
-function SceneEnvironment() {
-  const scene = useThree((s) => s.scene);
-  const invalidate = useThree((s) => s.invalidate);
-  useEffect(() => {
-    const background = gradientTexture();
-    scene.background = background;
-    invalidate();
-    return () => {
-      scene.background = null;
-      background.dispose();
-    };
-  }, [scene, invalidate]);
-  return (
-    <>
-      <hemisphereLight args={["#fbf8f2", "#3a4753", 1.55]} />
-      <directionalLight position={[5, -8, 11]} intensity={1.9} />
-      <directionalLight position={[-9, 7, 4]} intensity={0.7} />
-      <directionalLight position={[-3, 9, -2]} intensity={0.35} />
-    </>
-  );
-}
-
-// ---------------------------------------------------------------- the stack
-
-interface ElementMaterials {
-  body: MeshStandardMaterial;
-  edge: LineBasicMaterial;
-  cap: MeshBasicMaterial;
-}
-
-function lighten(hex: string, t: number): Color {
-  return new Color(hex).lerp(new Color("#ffffff"), t);
-}
-
-/**
- * Seen through a cut, a box shows its inner faces; drawn flat with a diagonal hatch in
- * screen space, they read as cut material, as on a drawing's section view.
- */
-function hatchCut(shader: { fragmentShader: string }) {
-  shader.fragmentShader = shader.fragmentShader.replace(
-    "#include <dithering_fragment>",
-    `#include <dithering_fragment>
-    float hatch = step(mod(gl_FragCoord.x + gl_FragCoord.y, 7.0), 1.6);
-    gl_FragColor.rgb = mix(gl_FragColor.rgb, vec3(1.0), hatch * 0.3);`,
-  );
-}
-
-function makeMaterials(stack: StackFile) {
-  const elements: ElementMaterials[] = stack.elements.map((e) => {
-    const colour = KIND_COLOUR[e.kind];
-    const board = e.kind === "board";
-    const body = new MeshStandardMaterial({
-      color: colour,
-      roughness: board ? 0.82 : isSensorKind(e.kind) ? 0.42 : 0.6,
-      metalness: 0.0,
-      polygonOffset: true,
-      polygonOffsetFactor: 1,
-      polygonOffsetUnits: board ? 4 : 1,
-    });
-    const edge = new LineBasicMaterial({ color: lighten(colour, board ? 0.25 : 0.45), transparent: true, opacity: board ? 0.55 : 0.9 });
-    const cap = new MeshBasicMaterial({ color: new Color(colour).multiplyScalar(0.7), side: BackSide });
-    cap.onBeforeCompile = hatchCut;
-    cap.customProgramCacheKey = () => "orthostack-section-hatch";
-    return { body, edge, cap };
-  });
-  const bond = new MeshStandardMaterial({
-    color: BOND_LINE,
-    roughness: 0.35,
-    transparent: true,
-    opacity: BOND_LINE_OPACITY,
-    depthWrite: false,
-    side: DoubleSide,
-    // its top face lies in the die's bottom face: seen through a cut, the die's face wins
-    polygonOffset: true,
-    polygonOffsetFactor: 2,
-    polygonOffsetUnits: 8,
-  });
-  const gridMinor = new LineBasicMaterial({ color: GRID_MINOR, transparent: true, opacity: 0.13, depthWrite: false });
-  const gridMajor = new LineBasicMaterial({ color: GRID_MAJOR, transparent: true, opacity: 0.28, depthWrite: false });
-  const arrow = new MeshStandardMaterial({ color: "#ffffff", roughness: 0.45 });
-  const ghost = new MeshBasicMaterial({ color: "#ffffff", transparent: true, opacity: 0.3, depthTest: false, depthWrite: false });
-  const outline = new LineBasicMaterial({ color: SECTION_OUTLINE, transparent: true, opacity: 0.65, depthTest: false });
-  const selection = new LineBasicMaterial({ color: SELECTION, transparent: true, opacity: 0.95, depthTest: false });
-  return { elements, bond, gridMinor, gridMajor, arrow, ghost, outline, selection };
-}
-type Materials = ReturnType<typeof makeMaterials>;
-
-function disposeMaterials(m: Materials) {
-  for (const e of m.elements) {
-    e.body.dispose();
-    e.edge.dispose();
-    e.cap.dispose();
-  }
-  m.bond.dispose();
-  m.gridMinor.dispose();
-  m.gridMajor.dispose();
-  m.arrow.dispose();
-  m.ghost.dispose();
-  m.outline.dispose();
-  m.selection.dispose();
-}
-
-/**
- * Materials that the section plane cuts: the package's elements and bond lines. The board
- * stays whole (a cut board is only a missing half), and so do arrows, labels and outline.
- */
-function clippedMaterials(m: Materials, stack: StackFile) {
-  return [...m.elements.filter((_, i) => stack.elements[i]?.parent !== null).flatMap((e) => [e.body, e.edge, e.cap]), m.bond];
-}
-
-/** 1 mm grid over the board's top face, with every fifth line brighter. */
-function BoardGrid({ stack, poseSet, materials }: { stack: StackFile; poseSet: PoseSet; materials: Materials }) {
-  const bi = stack.elements.findIndex((e) => e.parent === null);
-  const footprint =
-    bi < 0
-      ? ""
-      : [stack.elements[bi].size.x, stack.elements[bi].size.y, poseSet.Pnom[3 * bi], poseSet.Pnom[3 * bi + 1], poseSet.Pnom[3 * bi + 2] + stack.elements[bi].size.z].join(",");
-  const geometries = useMemo(() => {
-    if (!footprint) return null;
-    const [sx, sy, cx, cy, top] = footprint.split(",").map(Number);
-    const z = top + 0.002;
-    const hx = sx / 2, hy = sy / 2;
-    const minor: number[] = [], major: number[] = [];
-    for (let x = Math.ceil(cx - hx); x <= cx + hx + 1e-9; x++) (x % 5 === 0 ? major : minor).push(x, cy - hy, z, x, cy + hy, z);
-    for (let y = Math.ceil(cy - hy); y <= cy + hy + 1e-9; y++) (y % 5 === 0 ? major : minor).push(cx - hx, y, z, cx + hx, y, z);
-    const make = (a: number[]) => {
-      const g = new BufferGeometry();
-      g.setAttribute("position", new BufferAttribute(new Float32Array(a), 3));
-      return g;
-    };
-    return { minor: make(minor), major: make(major) };
-  }, [footprint]);
-  useEffect(() => () => {
-    geometries?.minor.dispose();
-    geometries?.major.dispose();
-  }, [geometries]);
-  if (!geometries) return null;
-  return (
-    <group>
-      <lineSegments geometry={geometries.minor} material={materials.gridMinor} raycast={noRaycast} renderOrder={1} />
-      <lineSegments geometry={geometries.major} material={materials.gridMajor} raycast={noRaycast} renderOrder={1} />
-    </group>
-  );
-}
-
-interface StackModelProps {
-  stack: StackFile;
-  materials: Materials;
-  geometry: ReturnType<typeof useSharedGeometry>;
-  showCaps: boolean;
-  groupRefs: RefObject<(Group | null)[]>;
-  onHover: ViewerSceneProps["onHover"];
-  onSelect: ViewerSceneProps["onSelect"];
-  plane: Plane;
-  sectionOn: boolean;
-  boardIndex: number;
-}
-
-/** Boxes, edges, bond lines and section caps of every element. Rendered once per stack. */
-const StackModel = memo(function StackModel({ stack, materials, geometry, showCaps, groupRefs, onHover, onSelect, plane, sectionOn, boardIndex }: StackModelProps) {
-  const pick = (e: ThreeEvent<PointerEvent | MouseEvent>) => {
-    for (const hit of e.intersections) {
-      const ud = hit.object.userData as { elementIndex?: number; part?: "body" | "bond" };
-      if (ud.elementIndex === undefined) continue;
-      if (sectionOn && ud.elementIndex !== boardIndex && plane.distanceToPoint(hit.point) < 0) continue; // cut away: look further
-      return { index: ud.elementIndex, part: ud.part ?? "body" };
-    }
-    return null;
-  };
-  return (
-    <group
-      onPointerMove={(e) => {
-        e.stopPropagation();
-        const hit = pick(e);
-        onHover(hit ? { ...hit, clientX: e.nativeEvent.clientX, clientY: e.nativeEvent.clientY } : null);
-      }}
-      onPointerLeave={() => onHover(null)}
-      onClick={(e) => {
-        e.stopPropagation();
-        if (e.delta > 4) return; // the end of an orbit drag, not a click
-        const hit = pick(e);
-        if (hit) onSelect(hit.index);
-      }}
-    >
-      {stack.elements.map((e, i) => {
-        const m = materials.elements[i];
-        const t = (e.bondLine?.thicknessUm ?? 0) * 1e-3;
-        return (
-          <group
-            key={e.id}
-            matrixAutoUpdate={false}
-            ref={(g) => {
-              groupRefs.current[i] = g;
-            }}
-          >
-            <mesh geometry={geometry.box} material={m.body} scale={[e.size.x, e.size.y, e.size.z]} userData={{ elementIndex: i, part: "body" }} />
-            <lineSegments geometry={geometry.edges} material={m.edge} scale={[e.size.x, e.size.y, e.size.z]} raycast={noRaycast} />
-            {showCaps && i !== boardIndex ? (
-              <mesh geometry={geometry.box} material={m.cap} scale={[e.size.x, e.size.y, e.size.z]} raycast={noRaycast} />
-            ) : null}
-            {t > 0 ? (
-              <mesh
-                geometry={geometry.box}
-                material={materials.bond}
-                position={[0, 0, -t]}
-                scale={[e.size.x * 0.985, e.size.y * 0.985, t]}
-                renderOrder={2}
-                userData={{ elementIndex: i, part: "bond" }}
-              />
-            ) : null}
-          </group>
-        );
-      })}
-    </group>
-  );
-});
-
-// ---------------------------------------------------------------- sensing axes
-
-interface TriadLayout {
-  /** element index of each sensor */
-  sensors: number[];
-  /** arrow length per sensor (mm) */
-  length: number[];
-}
-
-function triadLayout(stack: StackFile): TriadLayout {
-  const sensors: number[] = [], length: number[] = [];
-  stack.elements.forEach((e, i) => {
-    if (!isSensorKind(e.kind)) return;
-    sensors.push(i);
-    length.push(0.5 * Math.max(e.size.x, e.size.y) + 0.4);
-  });
-  return { sensors, length };
-}
-
-const SHAFT_R = 0.014;
-const HEAD_R = 0.045;
-const HEAD_L = 0.13;
 
 // ---------------------------------------------------------------- scene
 
@@ -710,74 +376,6 @@ export function ViewerScene(props: ViewerSceneProps) {
       <lineLoop ref={outlineRef} geometry={outlineGeometry} material={materials.outline} raycast={noRaycast} renderOrder={9} visible={false} />
       <OrbitControls makeDefault enableDamping={false} minDistance={0.3} maxDistance={600} zoomSpeed={0.9} />
       <FrameIndicator mainCamera={camera} />
-    </>
-  );
-}
-
-// ---------------------------------------------------------------- board-frame indicator
-
-/** A small B-frame triad in the corner, turning with the camera. */
-function FrameIndicator({ mainCamera }: { mainCamera: PerspectiveCamera }) {
-  return (
-    <Hud renderPriority={1}>
-      <FrameIndicatorContent mainCamera={mainCamera} />
-    </Hud>
-  );
-}
-
-function FrameIndicatorContent({ mainCamera }: { mainCamera: PerspectiveCamera }) {
-  const size = useThree((s) => s.size);
-  const group = useRef<Group>(null);
-  const items = useMemo(() => {
-    const shaft = new CylinderGeometry(1.3, 1.3, 1, 10);
-    shaft.rotateX(Math.PI / 2);
-    shaft.translate(0, 0, 0.5);
-    const head = new ConeGeometry(4, 9, 14);
-    head.rotateX(Math.PI / 2);
-    head.translate(0, 0, 4.5);
-    const mats = AXIS_COLOUR.map((c) => new MeshBasicMaterial({ color: c }));
-    const labels = (["x", "y", "z"] as const).map((n, a) => {
-      const t = labelTexture(n, AXIS_COLOUR[a], { pill: false, weight: 800 });
-      return { material: new SpriteMaterial({ map: t.texture, depthTest: false }), aspect: t.aspect };
-    });
-    const caption = labelTexture("B", "#f7f5f0", { pill: false, weight: 700 });
-    return { shaft, head, mats, labels, caption: { material: new SpriteMaterial({ map: caption.texture, depthTest: false, opacity: 0.7, transparent: true }), aspect: caption.aspect } };
-  }, []);
-  useEffect(
-    () => () => {
-      items.shaft.dispose();
-      items.head.dispose();
-      items.mats.forEach((m) => m.dispose());
-      items.labels.forEach((l) => l.material.dispose());
-      items.caption.material.dispose();
-    },
-    [items],
-  );
-  const q = useMemo(() => new Quaternion(), []);
-  useFrame(() => {
-    if (!group.current) return;
-    group.current.quaternion.copy(q.copy(mainCamera.quaternion).invert());
-  });
-  const L = 30;
-  const dirs: [number, number, number][] = [[1, 0, 0], [0, 1, 0], [0, 0, 1]];
-  const rot: [number, number, number][] = [[0, Math.PI / 2, 0], [-Math.PI / 2, 0, 0], [0, 0, 0]];
-  return (
-    <>
-      <OrthographicCamera makeDefault position={[0, 0, 200]} />
-      <group position={[size.width / 2 - 58, -size.height / 2 + 58, 0]}>
-        <sprite material={items.caption.material} position={[-14, -14, 0]} scale={[16 * items.caption.aspect, 16, 1]} />
-        <group ref={group}>
-          {rot.map((r, a) => (
-            <group key={a} rotation={r}>
-              <mesh geometry={items.shaft} material={items.mats[a]} scale={[1, 1, L - 8]} />
-              <mesh geometry={items.head} material={items.mats[a]} position={[0, 0, L - 9]} />
-            </group>
-          ))}
-          {dirs.map((d, a) => (
-            <sprite key={`l${a}`} material={items.labels[a].material} position={[d[0] * (L + 9), d[1] * (L + 9), d[2] * (L + 9)]} scale={[15 * items.labels[a].aspect, 15, 1]} />
-          ))}
-        </group>
-      </group>
     </>
   );
 }
