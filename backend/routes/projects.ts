@@ -1,17 +1,18 @@
 import { Router } from "express";
-import { CreateProjectSchema, IdParamsSchema, ProjectListQuerySchema, UpdateProjectSchema } from "@shared/schemas/api";
+import { CreateProjectSchema, DeleteProjectQuerySchema, IdParamsSchema, ProjectListQuerySchema, UpdateProjectSchema } from "@shared/schemas/api";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow, can } from "../middleware/session";
 import { listProjectActivity } from "../services/activity";
-import { createProject, deleteProject, getProject, listProjects, updateProject } from "../services/projects";
+import { deleteProjectGuarded, setArchived } from "../services/project-records";
+import { createProject, getProject, listProjects, updateProject } from "../services/projects";
 
 export function projectsRouter({ db }: AppDeps) {
   const r = Router();
 
   r.get("/projects", allow(...can.readWorkspace), async (req, res) => {
-    const { q } = parse(ProjectListQuerySchema, req, "query");
-    res.json({ projects: await listProjects(db, actorOf(req).workspaceId, q) });
+    const { q, archived } = parse(ProjectListQuerySchema, req, "query");
+    res.json({ projects: await listProjects(db, actorOf(req).workspaceId, q, archived) });
   });
 
   r.post("/projects", allow(...can.write), async (req, res) => {
@@ -32,8 +33,21 @@ export function projectsRouter({ db }: AppDeps) {
 
   r.delete("/projects/:id", allow(...can.write), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    await deleteProject(db, actorOf(req), id);
+    const { confirm } = parse(DeleteProjectQuerySchema, req, "query");
+    await deleteProjectGuarded(db, actorOf(req), id, confirm);
     res.status(204).end();
+  });
+
+  r.post("/projects/:id/archive", allow(...can.write), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    await setArchived(db, actorOf(req), id, true);
+    res.json(await getProject(db, actorOf(req).workspaceId, id));
+  });
+
+  r.post("/projects/:id/restore", allow(...can.write), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    await setArchived(db, actorOf(req), id, false);
+    res.json(await getProject(db, actorOf(req).workspaceId, id));
   });
 
   r.get("/projects/:id/activity", allow(...can.readWorkspace), async (req, res) => {

@@ -10,6 +10,7 @@ import { datasetMappings, datasets, projects, reports, stackRevisions, suppliers
 import { badRequest, conflict, found } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
+import { assertProjectOpen } from "./project-records";
 import { readMeasurementFile, type ParsedColumn } from "./dataset-files";
 
 export type UploadedFile = { originalname: string; buffer: Buffer };
@@ -171,6 +172,7 @@ async function storeUpload(db: Database, actor: Actor, projectId: string, file: 
 
 export async function uploadDataset(db: Database, actor: Actor, projectId: string, file: UploadedFile | undefined) {
   await assertProject(db, actor.workspaceId, projectId);
+  await assertProjectOpen(db, actor.workspaceId, projectId);
   return storeUpload(db, actor, projectId, file, { supplierId: actor.supplierId, reportId: null });
 }
 

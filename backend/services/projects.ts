@@ -1,10 +1,11 @@
-import { and, asc, eq, ilike, or } from "drizzle-orm";
+import { and, asc, eq, ilike, isNotNull, isNull, or } from "drizzle-orm";
 import type { CreateProject, Project, UpdateProject } from "@shared/schemas/api";
 import type { Database } from "../db/client";
 import { projects, users } from "../db/schema";
 import { found } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
+import { assertProjectOpen } from "./project-records";
 import { lastStudies } from "./studies";
 
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
@@ -17,9 +18,10 @@ const projectColumns = {
   ownerName: users.name,
   createdAt: projects.createdAt,
   updatedAt: projects.updatedAt,
+  archivedAt: projects.archivedAt,
 };
 
-type Row = { id: string; name: string; description: string; ownerId: string | null; ownerName: string | null; createdAt: Date; updatedAt: Date };
+type Row = { id: string; name: string; description: string; ownerId: string | null; ownerName: string | null; createdAt: Date; updatedAt: Date; archivedAt: Date | null };
 
 async function toProjects(db: Database, rows: Row[]): Promise<Project[]> {
   const last = await lastStudies(db, rows.map((r) => r.id));
@@ -27,11 +29,12 @@ async function toProjects(db: Database, rows: Row[]): Promise<Project[]> {
     ...r,
     createdAt: r.createdAt.toISOString(),
     updatedAt: r.updatedAt.toISOString(),
+    archivedAt: r.archivedAt ? r.archivedAt.toISOString() : null,
     lastStudy: last.get(r.id) ?? null,
   }));
 }
 
-export async function listProjects(db: Database, workspaceId: string, q?: string): Promise<Project[]> {
+export async function listProjects(db: Database, workspaceId: string, q?: string, archived?: "only" | "all"): Promise<Project[]> {
   const term = q ? `%${escapeLike(q)}%` : undefined;
   const rows = await db
     .select(projectColumns)
@@ -41,6 +44,7 @@ export async function listProjects(db: Database, workspaceId: string, q?: string
       and(
         eq(projects.workspaceId, workspaceId),
         term ? or(ilike(projects.name, term), ilike(projects.description, term)) : undefined,
+        archived === "all" ? undefined : archived === "only" ? isNotNull(projects.archivedAt) : isNull(projects.archivedAt),
       ),
     )
     .orderBy(asc(projects.name));
@@ -78,6 +82,7 @@ export async function createProject(db: Database, actor: Actor, input: CreatePro
 
 export async function updateProject(db: Database, actor: Actor, id: string, input: UpdateProject): Promise<Project> {
   const before = await getProject(db, actor.workspaceId, id);
+  await assertProjectOpen(db, actor.workspaceId, id);
   await db.transaction(async (tx) => {
     await tx
       .update(projects)
@@ -94,17 +99,4 @@ export async function updateProject(db: Database, actor: Actor, id: string, inpu
     }
   });
   return getProject(db, actor.workspaceId, id);
-}
-
-export async function deleteProject(db: Database, actor: Actor, id: string): Promise<void> {
-  const project = await getProject(db, actor.workspaceId, id);
-  await db.transaction(async (tx) => {
-    await tx.delete(projects).where(and(eq(projects.workspaceId, actor.workspaceId), eq(projects.id, id)));
-    await recordActivity(tx, {
-      workspaceId: actor.workspaceId,
-      actorId: actor.userId,
-      action: "project.deleted",
-      summary: `deleted the project “${project.name}”`,
-    });
-  });
 }

@@ -11,6 +11,7 @@ import { comments, projects, reportFiles, reports, stackRevisions, users } from 
 import { badRequest, conflict, found, HttpError } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
+import { assertProjectOpen } from "./project-records";
 import { buildReportContent } from "./report-content";
 import { FILE_TYPES, fileName, metaFor, render, sha256 } from "./report-files";
 import { reportCode } from "./report-format";
@@ -73,6 +74,7 @@ async function inputsFor(db: Database, actor: Actor, studyId: string, supplierId
 export async function createReport(db: Database, actor: Actor, studyId: string, input: CreateReport, baseURL: string): Promise<Report> {
   const capability = { cpk: input.cpk, overrides: input.cpkOverrides };
   const inputs = await inputsFor(db, actor, studyId, input.supplierId, capability);
+  await assertProjectOpen(db, actor.workspaceId, inputs.project.id);
   const content = buildReportContent(inputs);
   const snapshot = input.snapshotPng ? decodeSnapshot(input.snapshotPng) : null;
   let id: string;

@@ -7,6 +7,7 @@ import { comments, projects, stackRevisions, users } from "../db/schema";
 import { conflict, found } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
+import { assertProjectOpen } from "./project-records";
 import { checkRequirements, checkStack } from "./stack-check";
 
 const creator = alias(users, "creator");
@@ -91,6 +92,7 @@ export async function getRevision(db: Database, workspaceId: string, id: string)
 
 export async function createRevision(db: Database, actor: Actor, projectId: string, input: z.infer<typeof CreateRevisionSchema>, basedOnId?: string) {
   await assertProject(db, actor.workspaceId, projectId);
+  await assertProjectOpen(db, actor.workspaceId, projectId);
   const stack = checkStack(input.stack);
   const requirements: Requirement[] = input.requirements ?? [];
   checkRequirements(stack, requirements);
@@ -127,6 +129,7 @@ export async function createRevision(db: Database, actor: Actor, projectId: stri
 
 export async function updateRevision(db: Database, actor: Actor, id: string, input: z.infer<typeof UpdateRevisionSchema>) {
   const row = await getRevisionRow(db, actor.workspaceId, id);
+  await assertProjectOpen(db, actor.workspaceId, row.projectId);
   if (row.status !== "draft") {
     throw conflict(
       row.status === "approved"
@@ -157,6 +160,7 @@ const STATUS_WORDS: Record<Revision["status"], string> = { draft: "a draft", in_
 export async function transitionRevision(db: Database, actor: Actor, id: string, kind: keyof typeof TRANSITIONS, comment?: string) {
   const t = TRANSITIONS[kind];
   const row = await getRevisionRow(db, actor.workspaceId, id);
+  await assertProjectOpen(db, actor.workspaceId, row.projectId);
   if (row.status !== t.from) {
     throw conflict(`Revision ${row.number} is ${STATUS_WORDS[row.status]}; only a revision that is ${STATUS_WORDS[t.from]} can be ${t.verb}.`, "invalid_state");
   }

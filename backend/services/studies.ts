@@ -10,6 +10,7 @@ import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { applyAsBuilt, asBuiltLabel } from "./as-built";
 import { fieldAtSite } from "./geomagnetic";
+import { assertProjectOpen } from "./project-records";
 import { getRevisionRow } from "./revisions";
 import type { StudyQueue } from "./study-queue";
 
@@ -99,6 +100,7 @@ export async function getStudy(db: Database, workspaceId: string, id: string, wi
  */
 export async function createStudy(db: Database, queue: StudyQueue, actor: Actor, revisionId: string, input: CreateStudy) {
   const revision = await getRevisionRow(db, actor.workspaceId, revisionId);
+  await assertProjectOpen(db, actor.workspaceId, revision.projectId);
   const file: Record<string, unknown> = { ...input.study };
   delete file.site;
   let site: Study["site"] = null;

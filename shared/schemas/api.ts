@@ -30,6 +30,8 @@ export const ProjectSchema = z.object({
   ownerName: z.string().nullable(),
   createdAt: z.string(),
   updatedAt: z.string(),
+  /** Set when archived: read-only, hidden from the default list. */
+  archivedAt: z.string().nullable(),
   lastStudy: z
     .object({ id: IdSchema, status: z.string(), passes: z.boolean().nullable(), finishedAt: z.string().nullable() })
     .nullable(),
@@ -39,6 +41,12 @@ export const ProjectListSchema = z.object({ projects: z.array(ProjectSchema) });
 
 export const ProjectListQuerySchema = z.object({
   q: z.string().trim().max(NAME_MAX).optional(),
+  /** Archived projects are left out unless asked for: "only" them, or "all". */
+  archived: z.enum(["only", "all"], { message: "archived must be only or all" }).optional(),
+});
+export const DeleteProjectQuerySchema = z.object({
+  /** The project's name, typed by an admin to delete a project that holds kept records. */
+  confirm: z.string().max(NAME_MAX + 10, { message: "confirm is too long" }).optional(),
 });
 export const CreateProjectSchema = z.object({
   name: trimmedName("Project name"),

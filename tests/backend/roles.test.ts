@@ -40,8 +40,11 @@ type Row = {
 let counter = 0;
 const uniq = () => `${Date.now().toString(36)}-${++counter}`;
 
-async function freshProject(c: Ctx) {
-  const [p] = await c.t.handle.db.insert(projects).values({ workspaceId: c.workspaceId, name: `p-${uniq()}` }).returning();
+async function freshProject(c: Ctx, archived = false) {
+  const [p] = await c.t.handle.db
+    .insert(projects)
+    .values({ workspaceId: c.workspaceId, name: `p-${uniq()}`, archivedAt: archived ? new Date() : null })
+    .returning();
   return p.id;
 }
 async function freshSupplier(c: Ctx) {
@@ -183,6 +186,8 @@ export const ROUTES: Row[] = [
   { route: "GET /api/projects/:id", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}` },
   { route: "PATCH /api/projects/:id", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}`, body: () => ({ name: `renamed ${uniq()}` }) },
   { route: "DELETE /api/projects/:id", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}` },
+  { route: "POST /api/projects/:id/archive", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}/archive` },
+  { route: "POST /api/projects/:id/restore", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c, true)}/restore` },
   { route: "GET /api/projects/:id/activity", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/activity` },
   { route: "GET /api/suppliers", allowed: STAFF },
   { route: "GET /api/suppliers/:id", allowed: STAFF, path: (c) => `/api/suppliers/${c.supplierId}` },
