@@ -4,8 +4,9 @@ import { toNodeHandler } from "better-auth/node";
 import { CLIENT_IP_HEADER } from "./auth";
 import type { AppDeps } from "./deps";
 import { errorHandler, notFoundApi } from "./lib/errors";
+import { acceptBodies, sameOrigin } from "./middleware/request-guard";
 import { requireSession } from "./middleware/session";
-import { datasetsRouter } from "./routes/datasets";
+import { datasetsRouter, UPLOAD_PATHS } from "./routes/datasets";
 import { meRouter } from "./routes/me";
 import { membersRouter } from "./routes/members";
 import { projectsRouter } from "./routes/projects";
@@ -22,6 +23,10 @@ export type AppOptions = {
   mountClient?: (app: Express) => void;
   /** Content-Security-Policy on (production); Vite's dev client needs inline scripts. */
   strictCsp?: boolean;
+  /** Origins besides the request's own and APP_URL that may send changes (TRUSTED_ORIGINS). */
+  trustedOrigins?: string[];
+  /** Express's `trust proxy` (TRUST_PROXY): then the scheme, host and client address come from the proxy's headers. */
+  trustProxy?: string;
 };
 
 /** Builds the Express app from its dependencies; `server.ts` listens, tests do not need to. */
@@ -29,6 +34,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   const app = express();
   app.disable("x-powered-by");
   app.set("query parser", "simple");
+  if (options.trustProxy) app.set("trust proxy", options.trustProxy);
 
   app.use(
     helmet({
@@ -48,11 +54,20 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
     }),
   );
 
-  // The rate limiter of better-auth keys on this header; only the socket's peer may set it.
+  // The rate limiter of better-auth keys on this header; only the socket's peer (or, with
+  // `trust proxy`, the proxy's forwarded address) may set it.
   app.use((req, _res, next) => {
-    req.headers[CLIENT_IP_HEADER] = req.socket.remoteAddress ?? "unknown";
+    req.headers[CLIENT_IP_HEADER] = req.ip ?? req.socket.remoteAddress ?? "unknown";
     next();
   });
+
+  // Changes come only from our own pages, with bodies a foreign form cannot send (issue 10).
+  app.use(sameOrigin({ appUrl: deps.baseURL, trustedOrigins: options.trustedOrigins }));
+  app.post(
+    UPLOAD_PATHS.map((p) => `/api${p}`),
+    acceptBodies("multipart/form-data"),
+  );
+  app.use("/api", acceptBodies("application/json"));
 
   app.all("/api/auth/{*splat}", toNodeHandler(deps.auth));
 

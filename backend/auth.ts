@@ -23,7 +23,10 @@ export function createAuth({ db, baseURL, secret, trustedOrigins = [], signInPer
     baseURL,
     basePath: "/api/auth",
     secret,
-    trustedOrigins: [baseURL, ...trustedOrigins],
+    // The app's own address, the configured ones, and the address this request was sent to:
+    // Express's sameOrigin guard has already checked Origin against exactly these, so a person
+    // who opens the app as 127.0.0.1 or by its host name signs in alike.
+    trustedOrigins: (request?: Request) => [baseURL, ...trustedOrigins, ...(request ? [new URL(request.url).origin] : [])],
     database: drizzleAdapter(db, {
       provider: "pg",
       schema: { user: users, session: sessions, account: accounts, verification: verifications },

@@ -22,7 +22,7 @@ const auth = createAuth({
   db,
   baseURL,
   secret: loadSecret(env.DATA_DIR, env.BETTER_AUTH_SECRET),
-  trustedOrigins: [`http://127.0.0.1:${env.PORT}`],
+  trustedOrigins: env.TRUSTED_ORIGINS,
   signInPerMinute: env.SIGN_IN_PER_MINUTE,
 });
 const studyQueue = new StudyQueue(db, engineRunner({ threads: env.STUDY_THREADS }), log);
@@ -40,6 +40,8 @@ let devApp: Express | undefined;
 if (!dev) await buildClientIfNeeded(log);
 const app = createApp(deps, {
   strictCsp: !dev,
+  trustedOrigins: env.TRUSTED_ORIGINS,
+  trustProxy: env.TRUST_PROXY,
   mountClient: dev ? (a) => void (devApp = a) : mountStaticClient,
 });
 if (devApp) await mountDevClient(devApp);

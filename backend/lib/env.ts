@@ -14,6 +14,14 @@ const EnvSchema = z.object({
     .optional(),
   /** Public address of the app, used in links sent by e-mail. */
   APP_URL: z.string().url({ message: "APP_URL must be a full address such as https://orthostack.example.com" }).optional(),
+  /** Further origins (comma-separated, e.g. "https://stack.example.com,http://10.0.0.5:3000") that may send changes besides APP_URL and the address a request was sent to. */
+  TRUSTED_ORIGINS: z
+    .string()
+    .optional()
+    .transform((v) => (v ?? "").split(",").map((s) => s.trim()).filter(Boolean))
+    .pipe(z.array(z.string().url({ message: "TRUSTED_ORIGINS must list full origins such as https://stack.example.com, separated by commas" }))),
+  /** Express's `trust proxy` behind a reverse proxy (e.g. "loopback" or "1"): scheme, host and client address then come from X-Forwarded-*. */
+  TRUST_PROXY: z.string().min(1).optional(),
   BETTER_AUTH_SECRET: z.string().min(32, "BETTER_AUTH_SECRET must be at least 32 characters").optional(),
   /** Sign-in attempts allowed per client address per minute. */
   SIGN_IN_PER_MINUTE: z.coerce.number().int().min(1).max(10000).default(10),

@@ -47,6 +47,9 @@ const receiveFile: RequestHandler = (req, res, next) => {
   });
 };
 
+/** The routes that take a multipart file upload (every other route reads JSON only). */
+export const UPLOAD_PATHS = ["/projects/:id/datasets", "/reports/:id/datasets"] as const;
+
 export function datasetsRouter({ db }: AppDeps) {
   const r = Router();
 
@@ -56,7 +59,7 @@ export function datasetsRouter({ db }: AppDeps) {
   });
 
   // The role is checked before the body is read, so a refused caller never uploads anything.
-  r.post("/projects/:id/datasets", allow(...can.write), receiveFile, async (req, res) => {
+  r.post(UPLOAD_PATHS[0], allow(...can.write), receiveFile, async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.status(201).json(await uploadDataset(db, actorOf(req), id, req.file));
   });
@@ -98,7 +101,7 @@ export function datasetsRouter({ db }: AppDeps) {
     res.json({ datasets: await listReportDatasets(db, actorOf(req), id) });
   });
 
-  r.post("/reports/:id/datasets", allow(...SENDERS), receiveFile, async (req, res) => {
+  r.post(UPLOAD_PATHS[1], allow(...SENDERS), receiveFile, async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.status(201).json(await uploadForReport(db, actorOf(req), id, req.file));
   });
