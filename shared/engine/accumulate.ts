@@ -216,6 +216,8 @@ export function runBlock(m: Model, plan: Plan, st: WorkerState, block: number): 
 
   for (let i = 0; i < n; i++) {
     sampler.next(draws);
+    // the envelope needs every attitude's error; the other trials may take the screened sweep
+    s.perAttitude = i < ENV_TRIALS_PER_BLOCK;
     evaluateTrial(m, draws, s);
     const vals = s.metrics;
     const invCnt = 1 / (i + 1);

@@ -105,7 +105,8 @@ export interface Model {
   metrics: MetricInfo[];
   metricIndex: Map<string, number>;
   calibrationRank: number; // -1: none
-  heading: { accel: number; mag: number; attitudes: Attitudes } | null;
+  /** screened: max and RMS of the sweep by headingSweepScreened where no per-attitude error is needed */
+  heading: { accel: number; mag: number; attitudes: Attitudes; screened: boolean } | null;
 }
 
 export interface HeadingOptions {
@@ -321,6 +322,7 @@ export function compileModel(stack: StackFile, study: StudyFile): Model {
       accel: sensorIdx.get(pair.accel)!,
       mag: sensorIdx.get(pair.mag)!,
       attitudes: buildAttitudes(study),
+      screened: study.headingEvaluation !== "exact",
     };
   }
   return {

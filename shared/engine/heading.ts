@@ -132,19 +132,10 @@ function transposeOf(m: Float64Array): Float64Array {
 const sweepResult = { maxAbs: 0, rms: 0 };
 
 /**
- * Heading error (deg) at every attitude for the cross-axis matrices Ca (at ca..ca+8)
- * and Cm (at cm..cm+8). Writes out[k]; returns max |e| and RMS (deg). The returned
- * object is reused between calls.
- *
- * Per tilt, f (so f^, φ^, θ^) does not depend on the heading, and m^ = Mm·L·w(ψ) with
- * w(ψ) = (cos I cos ψ, −cos I sin ψ, sin I). The scaled levelled components
- *   h_x = (r², −f^x f^y, −f^x f^z)·m^,  −h_y = (0, N f^z, −N f^y)·m^
- * are therefore A cos ψ + B sin ψ + C and D cos ψ + E sin ψ + F with six numbers per
- * tilt, and after the turn by −ψ each heading needs a handful of products and one atan2.
+ * First pass of the sweep: the levelled field turned by −ψ, (ex, ey) per attitude, into
+ * att.ex and att.ey; the heading error is its angle.
  */
-export function headingSweep(
-  Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes, out: Float64Array,
-): { maxAbs: number; rms: number } {
+function levelledField(Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes): void {
   // Q·C·Q flips the sign of the entries that mix body x with body y or z
   const a0 = Ca[ca], a1 = -Ca[ca + 1], a2 = -Ca[ca + 2];
   const a3 = -Ca[ca + 3], a4 = Ca[ca + 4], a5 = Ca[ca + 5];
@@ -157,7 +148,6 @@ export function headingSweep(
   const hc = att.hc, hs = att.hs, hcc = att.hcc, hcs = att.hcs, hss = att.hss;
   const cosI = att.cosI, sinI = att.sinI;
   const EX = att.ex, EY = att.ey;
-  let maxAbs = 0, sum2 = 0;
   for (let t = 0; t < nT; t++) {
     const o = 3 * t, l = 9 * t;
     const tfx = TF[o], tfy = TF[o + 1], tfz = TF[o + 2];
@@ -186,8 +176,27 @@ export function headingSweep(
       EY[base + j] = D * hcc[j] + EA * hcs[j] - B * hss[j] + F * c - C * s;
     }
   }
+}
+
+/**
+ * Heading error (deg) at every attitude for the cross-axis matrices Ca (at ca..ca+8)
+ * and Cm (at cm..cm+8). Writes out[k]; returns max |e| and RMS (deg). The returned
+ * object is reused between calls.
+ *
+ * Per tilt, f (so f^, φ^, θ^) does not depend on the heading, and m^ = Mm·L·w(ψ) with
+ * w(ψ) = (cos I cos ψ, −cos I sin ψ, sin I). The scaled levelled components
+ *   h_x = (r², −f^x f^y, −f^x f^z)·m^,  −h_y = (0, N f^z, −N f^y)·m^
+ * are therefore A cos ψ + B sin ψ + C and D cos ψ + E sin ψ + F with six numbers per
+ * tilt, and after the turn by −ψ each heading needs a handful of products and one atan2.
+ */
+export function headingSweep(
+  Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes, out: Float64Array,
+): { maxAbs: number; rms: number } {
+  levelledField(Ca, ca, Cm, cm, att);
+  const EX = att.ex, EY = att.ey;
+  let maxAbs = 0, sum2 = 0;
   // second pass: the angles, in a loop small enough to keep its values in registers
-  const n = nPsi * nT;
+  const n = att.count;
   for (let k = 0; k < n; k++) {
     const x = EX[k], y = EY[k];
     const ay = y < 0 ? -y : y;
@@ -231,4 +240,48 @@ export function headingErrorReference(Ca: Float64Array, Cm: Float64Array, inclin
   while (e > 180) e -= 360;
   while (e <= -180) e += 360;
   return e;
+}
+
+/** Ratios |ey/ex| up to this are summed by the series below (atan(t)² to 4·10^-10 of itself). */
+const SCREEN_T = 0.03125;
+const screenResult = { maxAbs: 0, rms: 0 };
+
+/**
+ * The screened sweep: max |e| and RMS of the same errors as headingSweep, without the angle
+ * of every attitude (no per-attitude output; the study uses it where the heading envelope
+ * does not need the per-attitude errors).
+ *
+ * - max |e|: atan is increasing, so the attitude with the largest |ey/ex| holds the maximum;
+ *   one exact atan of that ratio gives it.
+ * - RMS: for |t| = |ey/ex| ≤ 1/32, atan(t)² = t² − (2/3)t⁴ + (23/45)t⁶ − (44/105)t⁸ + …, so
+ *   the power sums Σt², Σt⁴, Σt⁶ give Σ atan(t)² to 4·10^-10 of itself (the first term left
+ *   out, relative to t², is at most (44/105)·2^-30).
+ * - Every attitude outside that range (error above 1.8°, or ex ≤ 0) is evaluated exactly,
+ *   one atan2 each, and enters both figures directly.
+ */
+export function headingSweepScreened(Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes): { maxAbs: number; rms: number } {
+  levelledField(Ca, ca, Cm, cm, att);
+  const EX = att.ex, EY = att.ey;
+  const n = att.count;
+  let tMax = 0, s2 = 0, s4 = 0, s6 = 0, wide2 = 0, wideMax = 0;
+  for (let k = 0; k < n; k++) {
+    const x = EX[k], y = EY[k];
+    const ay = y < 0 ? -y : y;
+    if (x > 0 && ay <= SCREEN_T * x) {
+      const t = ay / x;
+      const t2 = t * t;
+      s2 += t2;
+      s4 += t2 * t2;
+      s6 += t2 * t2 * t2;
+      if (t > tMax) tMax = t;
+    } else {
+      const e = atan2Fast(ay, x);
+      wide2 += e * e;
+      if (e > wideMax) wideMax = e;
+    }
+  }
+  const narrowMax = Math.atan(tMax);
+  screenResult.maxAbs = (narrowMax > wideMax ? narrowMax : wideMax) * TO_DEG;
+  screenResult.rms = Math.sqrt((s2 - (2 / 3) * s4 + (23 / 45) * s6 + wide2) / n) * TO_DEG;
+  return screenResult;
 }

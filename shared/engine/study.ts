@@ -239,6 +239,7 @@ export function finalizeStudy(prep: PreparedStudy, coord: Coordinator, state: Wo
     trials: n,
     seed: plan.seed,
     sampling: plan.mode,
+    headingEvaluation: model.heading ? (model.heading.screened ? "screened" : "exact") : undefined,
     stopped: flags.stopped ?? false,
     calibration: study.calibration?.after ?? "none",
     metrics,

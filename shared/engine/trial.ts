@@ -6,7 +6,7 @@
 import type { Model } from "./compile";
 import { identity, invert, mat3, mul, mulTB, type Mat3 } from "./mat3";
 import { rotVec, rotZ, tiltToSlope } from "./rotation";
-import { headingSweep } from "./heading";
+import { headingSweep, headingSweepScreened } from "./heading";
 import { atan2To, sinCosTo, tanTo } from "./fastmath";
 
 // module-local: an imported binding costs a property load per use in the hot loop
@@ -25,6 +25,8 @@ export interface Scratch {
   fm: Float64Array;
   metrics: Float64Array;
   headingErr: Float64Array; // deg, per attitude
+  /** whether the next trial must fill headingErr (else a screened model may skip it) */
+  perAttitude: boolean;
 }
 
 export function createScratch(m: Model): Scratch {
@@ -40,6 +42,7 @@ export function createScratch(m: Model): Scratch {
     fm: new Float64Array(8),
     metrics: new Float64Array(m.metrics.length),
     headingErr: new Float64Array(m.heading ? m.heading.attitudes.count : 0),
+    perAttitude: true,
   };
 }
 
@@ -118,7 +121,8 @@ function crossAxisMatrix(m: Model, si: number, draws: Float64Array, R: Float64Ar
 
 /**
  * One trial: fills s.metrics (MODEL.md section 7 order of model.metrics) and
- * s.headingErr (deg per attitude). Pure function of the draws.
+ * s.headingErr (deg per attitude; left stale when s.perAttitude is false and the model's
+ * sweep is screened). Pure function of the draws.
  */
 export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
   orientations(m, draws, s.R, s);
@@ -160,7 +164,11 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
 
   let hMax = 0, hRms = 0;
   if (m.heading) {
-    const r = headingSweep(s.C, 9 * m.heading.accel, s.C, 9 * m.heading.mag, m.heading.attitudes, s.headingErr);
+    const h = m.heading;
+    const r =
+      h.screened && !s.perAttitude
+        ? headingSweepScreened(s.C, 9 * h.accel, s.C, 9 * h.mag, h.attitudes)
+        : headingSweep(s.C, 9 * h.accel, s.C, 9 * h.mag, h.attitudes, s.headingErr);
     hMax = r.maxAbs;
     hRms = r.rms;
   }

@@ -147,6 +147,8 @@ export const ResultFileSchema = z.object({
   trials: z.number().int(),
   seed: z.number().int(),
   sampling: z.enum(["random", "lhs"]),
+  /** how the compass sweep was evaluated; absent in results written before engine 1.1.0 */
+  headingEvaluation: z.enum(["screened", "exact"]).optional(),
   stopped: z.boolean(),
   calibration: z.enum(["none", "package", "board"]),
   metrics: z.record(z.string(), MetricStatsSchema),

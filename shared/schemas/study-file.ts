@@ -85,6 +85,12 @@ export const StudyFileObjectSchema = z.strictObject({
   headingSensors: z.strictObject({ accel: z.string(), mag: z.string() }).optional(),
   /** false switches the compass sweep off; true insists on it */
   heading: z.boolean().optional(),
+  /**
+   * How the sweep's max and RMS are evaluated (docs/engine.md): "screened" (default) sums a
+   * series for the small errors and evaluates the large ones and the maximum exactly; "exact"
+   * takes the angle of every attitude. Both give the same figures to about 1e-9 of their value.
+   */
+  headingEvaluation: z.enum(["screened", "exact"], { error: `headingEvaluation must be "screened" or "exact"` }).optional(),
   worstTrials: z.number().int().min(0).max(MAX_WORST_TRIALS, { error: `worstTrials is at most ${MAX_WORST_TRIALS}` }).optional(),
   /** resolved to inclinationDeg by the API; not read by the engine */
   site: z.unknown().optional(),
