@@ -7,6 +7,12 @@ import { relations, sql } from "drizzle-orm";
 import type { StackFile } from "@shared/schemas/stack-file";
 import { boolean, customType, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 
+/**
+ * Edit counter of a record people share: every change adds one, and a change is accepted only
+ * from a client that saw the current value (If-Match / body version; backend/lib/versions.ts).
+ */
+const version = () => integer("version").notNull().default(1);
+
 const timestamps = {
   createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
   updatedAt: timestamp("updated_at", { withTimezone: true })
@@ -92,6 +98,7 @@ export const suppliers = pgTable(
       .references(() => workspaces.id, { onDelete: "cascade" }),
     name: text("name").notNull(),
     kind: text("kind").notNull().default("other"),
+    version: version(),
     ...timestamps,
   },
   (t) => [uniqueIndex("suppliers_workspace_name_idx").on(t.workspaceId, sql`lower(${t.name})`)],
@@ -165,6 +172,7 @@ export const projects = pgTable(
     ownerId: text("owner_id").references(() => users.id, { onDelete: "set null" }),
     /** Set when an engineer archives the project: read-only and hidden from the default list. */
     archivedAt: timestamp("archived_at", { withTimezone: true }),
+    version: version(),
     ...timestamps,
   },
   (t) => [index("projects_workspace_idx").on(t.workspaceId)],
@@ -223,6 +231,7 @@ export const stackRevisions = pgTable(
     submittedBy: text("submitted_by").references(() => users.id, { onDelete: "set null" }),
     approvedAt: timestamp("approved_at", { withTimezone: true }),
     approvedBy: text("approved_by").references(() => users.id, { onDelete: "set null" }),
+    version: version(),
     ...timestamps,
   },
   (t) => [uniqueIndex("stack_revisions_project_number_idx").on(t.projectId, t.number)],
@@ -341,6 +350,7 @@ export const reports = pgTable(
     releasedBy: text("released_by").references(() => users.id, { onDelete: "set null" }),
     acknowledgedAt: timestamp("acknowledged_at", { withTimezone: true }),
     acknowledgedBy: text("acknowledged_by").references(() => users.id, { onDelete: "set null" }),
+    version: version(),
     ...timestamps,
   },
   (t) => [
@@ -458,6 +468,8 @@ export const datasets = pgTable(
     note: text("note"),
     /** A label column marked as each row's lot (or date); rows keep the file's order as production order. */
     lotColumn: text("lot_column"),
+    /** Version of the column mappings (the part of a data set people edit). */
+    version: version(),
     createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
   },
   (t) => [index("datasets_project_idx").on(t.projectId, t.createdAt), index("datasets_report_idx").on(t.reportId)],
