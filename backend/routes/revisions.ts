@@ -1,5 +1,5 @@
 import { Router } from "express";
-import { CommentBodySchema, CreateRevisionSchema, ReturnRevisionSchema, UpdateRevisionSchema } from "@shared/schemas/revisions";
+import { CommentBodySchema, CreateRevisionSchema, ReturnRevisionSchema, RevisionDiffQuerySchema, SubmitRevisionSchema, UpdateRevisionSchema } from "@shared/schemas/revisions";
 import { IdParamsSchema } from "@shared/schemas/common";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
@@ -10,6 +10,7 @@ import {
   draftFrom,
   getRevision,
   listRevisions,
+  revisionDiff,
   transitionRevision,
   updateRevision,
 } from "../services/revisions";
@@ -48,7 +49,8 @@ export function revisionsRouter({ db }: AppDeps) {
 
   r.post("/revisions/:id/submit", allow(...can.write), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await transitionRevision(db, actorOf(req), id, "submit"));
+    const { note } = parse(SubmitRevisionSchema, req);
+    res.json(await transitionRevision(db, actorOf(req), id, "submit", undefined, note));
   });
 
   r.post("/revisions/:id/approve", allow(...can.review), async (req, res) => {
@@ -67,6 +69,12 @@ export function revisionsRouter({ db }: AppDeps) {
     const { id } = parse(IdParamsSchema, req, "params");
     const { body } = parse(CommentBodySchema, req);
     res.status(201).json({ comments: await addRevisionComment(db, actorOf(req), id, body) });
+  });
+
+  r.get("/revisions/:id/diff", allow(...can.readWorkspace), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const { against } = parse(RevisionDiffQuerySchema, req, "query");
+    res.json(await revisionDiff(db, actorOf(req).workspaceId, id, against));
   });
 
   r.get("/revisions/:id/stack-file", allow(...can.readWorkspace), async (req, res) => {

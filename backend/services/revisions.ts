@@ -1,10 +1,11 @@
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { z } from "zod";
-import type { Requirement, Revision, RevisionSummary, CreateRevisionSchema, UpdateRevisionSchema } from "@shared/schemas/revisions";
+import { diffRevisions } from "@shared/revisions/diff";
+import type { Requirement, Revision, RevisionDiff, RevisionSummary, CreateRevisionSchema, UpdateRevisionSchema } from "@shared/schemas/revisions";
 import type { Database } from "../db/client";
 import { comments, projects, stackRevisions, users } from "../db/schema";
-import { conflict, found } from "../lib/errors";
+import { badRequest, conflict, found } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
@@ -157,12 +158,17 @@ const TRANSITIONS = {
 
 const STATUS_WORDS: Record<Revision["status"], string> = { draft: "a draft", in_review: "in review", approved: "approved" };
 
-export async function transitionRevision(db: Database, actor: Actor, id: string, kind: keyof typeof TRANSITIONS, comment?: string) {
+export async function transitionRevision(db: Database, actor: Actor, id: string, kind: keyof typeof TRANSITIONS, comment?: string, note?: string) {
   const t = TRANSITIONS[kind];
   const row = await getRevisionRow(db, actor.workspaceId, id);
   await assertProjectOpen(db, actor.workspaceId, row.projectId);
   if (row.status !== t.from) {
     throw conflict(`Revision ${row.number} is ${STATUS_WORDS[row.status]}; only a revision that is ${STATUS_WORDS[t.from]} can be ${t.verb}.`, "invalid_state");
+  }
+  const finalNote = note ?? row.note;
+  // the reviewer of a later revision needs the engineer's own words on what changed and why
+  if (kind === "submit" && row.number > 1 && !finalNote.trim()) {
+    throw badRequest("Say what changed and why before submitting.", [{ path: "note", message: "a revision after the first needs a note: what changed and why" }]);
   }
   const now = new Date();
   await db.transaction(async (tx) => {
@@ -170,7 +176,7 @@ export async function transitionRevision(db: Database, actor: Actor, id: string,
       .update(stackRevisions)
       .set({
         status: t.to,
-        ...(kind === "submit" ? { submittedAt: now, submittedBy: actor.userId } : {}),
+        ...(kind === "submit" ? { submittedAt: now, submittedBy: actor.userId, note: finalNote } : {}),
         ...(kind === "approve" ? { approvedAt: now, approvedBy: actor.userId } : {}),
       })
       .where(and(eq(stackRevisions.id, id), eq(stackRevisions.status, t.from)))
@@ -219,4 +225,39 @@ export async function addRevisionComment(db: Database, actor: Actor, id: string,
 export async function draftFrom(db: Database, actor: Actor, id: string) {
   const row = await getRevisionRow(db, actor.workspaceId, id);
   return createRevision(db, actor, row.projectId, { stack: row.stack, requirements: row.requirements, note: `Based on revision ${row.number}.` }, row.id);
+}
+
+/** The revision before this one: the one it is based on, else the previous number in its project. */
+async function previousOf(db: Database, row: typeof stackRevisions.$inferSelect) {
+  if (row.basedOnId) {
+    const [b] = await db.select().from(stackRevisions).where(and(eq(stackRevisions.workspaceId, row.workspaceId), eq(stackRevisions.id, row.basedOnId)));
+    if (b) return b;
+  }
+  const [p] = await db
+    .select()
+    .from(stackRevisions)
+    .where(and(eq(stackRevisions.projectId, row.projectId), sql`${stackRevisions.number} < ${row.number}`))
+    .orderBy(desc(stackRevisions.number))
+    .limit(1);
+  return p ?? null;
+}
+
+/** What changed from `againstId` (default: the revision before) to this revision. */
+export async function revisionDiff(db: Database, workspaceId: string, id: string, againstId?: string): Promise<RevisionDiff> {
+  const row = await getRevisionRow(db, workspaceId, id);
+  let other: typeof stackRevisions.$inferSelect | null;
+  if (againstId) {
+    const [o] = await db.select().from(stackRevisions).where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, againstId)));
+    if (!o || o.projectId !== row.projectId) {
+      throw badRequest("The revision to compare with is not in this project.", [{ path: "against", message: "no such revision in this project" }]);
+    }
+    other = o;
+  } else {
+    other = await previousOf(db, row);
+  }
+  if (!other) return { against: null, changes: [] };
+  return {
+    against: { id: other.id, number: other.number },
+    changes: diffRevisions({ stack: other.stack, requirements: other.requirements }, { stack: row.stack, requirements: row.requirements }),
+  };
 }

@@ -66,3 +66,25 @@ export const RevisionSchema = RevisionSummarySchema.extend({
 });
 export type Revision = z.infer<typeof RevisionSchema>;
 export const RevisionListSchema = z.object({ revisions: z.array(RevisionSummarySchema) });
+
+/** `GET /api/revisions/:id/diff[?against=:otherId]`: what changed, in words and units. */
+export const RevisionDiffQuerySchema = z.object({ against: IdSchema.optional() });
+const DiffValueSchema = z.union([z.string(), z.number(), z.boolean(), z.null()]);
+export const StackChangeSchema = z.object({
+  path: z.string(),
+  label: z.string(),
+  kind: z.enum(["added", "removed", "changed"]),
+  before: DiffValueSchema,
+  after: DiffValueSchema,
+  unit: z.string().nullable(),
+});
+export const RevisionDiffSchema = z.object({
+  /** The revision compared with; null for a project's first revision (nothing to compare). */
+  against: z.object({ id: IdSchema, number: z.number().int() }).nullable(),
+  changes: z.array(StackChangeSchema),
+});
+export type RevisionDiff = z.infer<typeof RevisionDiffSchema>;
+/** Submitting: the note says what changed and why; asked for on every revision after the first. */
+export const SubmitRevisionSchema = z.object({
+  note: z.string().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
+});

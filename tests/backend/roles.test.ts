@@ -211,6 +211,7 @@ export const ROUTES: Row[] = [
   { route: "POST /api/revisions/:id/approve", allowed: REVIEWERS, path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/approve` },
   { route: "POST /api/revisions/:id/return", allowed: REVIEWERS, path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/return`, body: () => ({ comment: "please fix" }) },
   { route: "POST /api/revisions/:id/comments", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/comments`, body: () => ({ body: "looks fine" }) },
+  { route: "GET /api/revisions/:id/diff", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/diff` },
   { route: "GET /api/revisions/:id/stack-file", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/stack-file` },
   { route: "GET /api/projects/:id/studies", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/studies` },
   { route: "POST /api/revisions/:id/studies", allowed: WRITERS, path: async (c) => `/api/revisions/${await freshRevision(c)}/studies`, body: () => ({ study: STUDY }) },
