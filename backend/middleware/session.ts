@@ -1,6 +1,7 @@
 import type { NextFunction, Request, RequestHandler, Response } from "express";
 import { fromNodeHeaders } from "better-auth/node";
 import { eq } from "drizzle-orm";
+import { can, type Right } from "@shared/permissions";
 import type { Role } from "@shared/schemas/common";
 import type { Auth } from "../auth";
 import type { Database } from "../db/client";
@@ -54,12 +55,12 @@ export function requireSession(auth: Auth, db: Database): RequestHandler {
   };
 }
 
-/** Lets the request through only for the listed roles (checked after requireSession). */
-export function allow(...roles: Role[]): RequestHandler {
+/** Lets the request through only for roles that hold the right (checked after requireSession). */
+export function allow(right: Right): RequestHandler {
   return (req, _res, next) => {
     const actor = req.actor;
     if (!actor) throw unauthorized();
-    if (!roles.includes(actor.role)) throw forbidden();
+    if (!can(actor.role, right)) throw forbidden();
     next();
   };
 }
@@ -68,14 +69,3 @@ export function actorOf(req: Request): Actor {
   if (!req.actor) throw unauthorized();
   return req.actor;
 }
-
-/** Who may do what (DESIGN.md, "People and roles"): one place, used by every route. */
-export const can = {
-  readWorkspace: ["admin", "engineer", "reviewer"] as Role[],
-  write: ["admin", "engineer"] as Role[],
-  review: ["admin", "reviewer"] as Role[],
-  administer: ["admin"] as Role[],
-  /** reports: staff see the workspace's, a supplier only its company's released ones (checked in the service) */
-  readReports: ["admin", "engineer", "reviewer", "supplier"] as Role[],
-  supplier: ["supplier"] as Role[],
-};

@@ -7,7 +7,7 @@ import "../demo/seed-datasets";
 import type { AppDeps } from "../deps";
 import { badRequest, HttpError } from "../lib/errors";
 import { parse } from "../lib/validate";
-import { actorOf, allow, can } from "../middleware/session";
+import { actorOf, allow } from "../middleware/session";
 import {
   datasetFile,
   datasetStatistics,
@@ -20,9 +20,6 @@ import {
   uploadForReport,
 } from "../services/datasets";
 
-/** Staff who write, and suppliers (only through a released report of their own company). */
-const SENDERS = [...can.write, "supplier"] as const;
-const REPORT_READERS = [...can.readWorkspace, "supplier"] as const;
 
 const upload = multer({
   storage: multer.memoryStorage(),
@@ -53,41 +50,41 @@ export const UPLOAD_PATHS = ["/projects/:id/datasets", "/reports/:id/datasets"] 
 export function datasetsRouter({ db }: AppDeps) {
   const r = Router();
 
-  r.get("/projects/:id/datasets", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/projects/:id/datasets", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json({ datasets: await listDatasets(db, actorOf(req).workspaceId, id) });
   });
 
   // The role is checked before the body is read, so a refused caller never uploads anything.
-  r.post(UPLOAD_PATHS[0], allow(...can.write), receiveFile, async (req, res) => {
+  r.post(UPLOAD_PATHS[0], allow("datasets.write"), receiveFile, async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.status(201).json(await uploadDataset(db, actorOf(req), id, req.file));
   });
 
-  r.get("/datasets/:id", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/datasets/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json(await getDataset(db, actorOf(req).workspaceId, id));
   });
 
-  r.delete("/datasets/:id", allow(...can.write), async (req, res) => {
+  r.delete("/datasets/:id", allow("datasets.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     await deleteDataset(db, actorOf(req), id);
     res.status(204).end();
   });
 
-  r.patch("/datasets/:id/mappings", allow(...can.write), async (req, res) => {
+  r.patch("/datasets/:id/mappings", allow("datasets.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateMappingsSchema, req);
     res.json(await updateMappings(db, actorOf(req), id, input));
   });
 
-  r.get("/datasets/:id/statistics", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/datasets/:id/statistics", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { column } = parse(StatisticsQuerySchema, req, "query");
     res.json(await datasetStatistics(db, actorOf(req).workspaceId, id, column));
   });
 
-  r.get("/datasets/:id/file", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/datasets/:id/file", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const f = await datasetFile(db, actorOf(req).workspaceId, id);
     res.setHeader("Content-Type", f.contentType);
@@ -96,12 +93,12 @@ export function datasetsRouter({ db }: AppDeps) {
     res.send(f.data);
   });
 
-  r.get("/reports/:id/datasets", allow(...REPORT_READERS), async (req, res) => {
+  r.get("/reports/:id/datasets", allow("reports.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json({ datasets: await listReportDatasets(db, actorOf(req), id) });
   });
 
-  r.post(UPLOAD_PATHS[1], allow(...SENDERS), receiveFile, async (req, res) => {
+  r.post(UPLOAD_PATHS[1], allow("datasets.send"), receiveFile, async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.status(201).json(await uploadForReport(db, actorOf(req), id, req.file));
   });

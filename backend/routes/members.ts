@@ -2,12 +2,12 @@ import { Router } from "express";
 import { CreateInvitationSchema, IdParamsSchema, UpdateMemberSchema } from "@shared/schemas/api";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
-import { actorOf, allow, can } from "../middleware/session";
+import { actorOf, allow } from "../middleware/session";
 import { createInvitation, listInvitations, listMembers, removeMember, revokeInvitation, updateMember } from "../services/members";
 
 export function membersRouter({ db, baseURL }: AppDeps) {
   const r = Router();
-  const admin = allow(...can.administer);
+  const admin = allow("members.manage");
 
   r.get("/members", admin, async (req, res) => {
     res.json({ members: await listMembers(db, actorOf(req).workspaceId) });

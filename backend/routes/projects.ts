@@ -2,7 +2,7 @@ import { Router } from "express";
 import { CreateProjectSchema, DeleteProjectQuerySchema, IdParamsSchema, ProjectListQuerySchema, UpdateProjectSchema } from "@shared/schemas/api";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
-import { actorOf, allow, can } from "../middleware/session";
+import { actorOf, allow } from "../middleware/session";
 import { listProjectActivity } from "../services/activity";
 import { deleteProjectGuarded, setArchived } from "../services/project-records";
 import { createProject, getProject, listProjects, updateProject } from "../services/projects";
@@ -10,47 +10,47 @@ import { createProject, getProject, listProjects, updateProject } from "../servi
 export function projectsRouter({ db }: AppDeps) {
   const r = Router();
 
-  r.get("/projects", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/projects", allow("projects.read"), async (req, res) => {
     const { q, archived } = parse(ProjectListQuerySchema, req, "query");
     res.json({ projects: await listProjects(db, actorOf(req).workspaceId, q, archived) });
   });
 
-  r.post("/projects", allow(...can.write), async (req, res) => {
+  r.post("/projects", allow("projects.write"), async (req, res) => {
     const input = parse(CreateProjectSchema, req);
     res.status(201).json(await createProject(db, actorOf(req), input));
   });
 
-  r.get("/projects/:id", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/projects/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json(await getProject(db, actorOf(req).workspaceId, id));
   });
 
-  r.patch("/projects/:id", allow(...can.write), async (req, res) => {
+  r.patch("/projects/:id", allow("projects.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateProjectSchema, req);
     res.json(await updateProject(db, actorOf(req), id, input));
   });
 
-  r.delete("/projects/:id", allow(...can.write), async (req, res) => {
+  r.delete("/projects/:id", allow("projects.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { confirm } = parse(DeleteProjectQuerySchema, req, "query");
     await deleteProjectGuarded(db, actorOf(req), id, confirm);
     res.status(204).end();
   });
 
-  r.post("/projects/:id/archive", allow(...can.write), async (req, res) => {
+  r.post("/projects/:id/archive", allow("projects.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     await setArchived(db, actorOf(req), id, true);
     res.json(await getProject(db, actorOf(req).workspaceId, id));
   });
 
-  r.post("/projects/:id/restore", allow(...can.write), async (req, res) => {
+  r.post("/projects/:id/restore", allow("projects.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     await setArchived(db, actorOf(req), id, false);
     res.json(await getProject(db, actorOf(req).workspaceId, id));
   });
 
-  r.get("/projects/:id/activity", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/projects/:id/activity", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const actor = actorOf(req);
     await getProject(db, actor.workspaceId, id);

@@ -13,7 +13,7 @@ import {
 import { CommentBodySchema } from "@shared/schemas/revisions";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
-import { actorOf, allow, can } from "../middleware/session";
+import { actorOf, allow } from "../middleware/session";
 import { listOutbox, outboxAttachment } from "../services/outbox";
 import { acknowledgeReport, addReportComment, createReport, deleteReport, releaseReport, updateReport } from "../services/report-lifecycle";
 import { reportFile } from "../services/report-files";
@@ -29,65 +29,65 @@ function disposition(name: string) {
 export function reportsRouter({ db, baseURL }: AppDeps) {
   const r = Router();
 
-  r.get("/projects/:id/report-options", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/projects/:id/report-options", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json(await reportOptions(db, actorOf(req), id));
   });
 
-  r.post("/studies/:id/reports", allow(...can.write), async (req, res) => {
+  r.post("/studies/:id/reports", allow("reports.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateReportSchema, req);
     res.status(201).json(await createReport(db, actorOf(req), id, input, baseURL));
   });
 
-  r.get("/reports", allow(...can.readReports), async (req, res) => {
+  r.get("/reports", allow("reports.read"), async (req, res) => {
     const query = parse(ReportListQuerySchema, req, "query");
     res.json({ reports: await listReports(db, actorOf(req), query) });
   });
 
-  r.get("/reports/:id", allow(...can.readReports), async (req, res) => {
+  r.get("/reports/:id", allow("reports.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json(await getReport(db, actorOf(req), id, baseURL));
   });
 
-  r.patch("/reports/:id", allow(...can.write), async (req, res) => {
+  r.patch("/reports/:id", allow("reports.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateReportSchema, req);
     res.json(await updateReport(db, actorOf(req), id, input, baseURL));
   });
 
-  r.delete("/reports/:id", allow(...can.write), async (req, res) => {
+  r.delete("/reports/:id", allow("reports.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     await deleteReport(db, actorOf(req), id);
     res.status(204).end();
   });
 
-  r.post("/reports/:id/release", allow(...can.review), async (req, res) => {
+  r.post("/reports/:id/release", allow("reports.release"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(ReleaseReportSchema, req);
     res.json(await releaseReport(db, actorOf(req), id, comment, baseURL));
   });
 
-  r.post("/reports/:id/send", allow(...can.readWorkspace), async (req, res) => {
+  r.post("/reports/:id/send", allow("reports.send"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { message } = parse(SendReportSchema, req);
     res.json(await sendReport(db, actorOf(req), id, message, baseURL));
   });
 
-  r.post("/reports/:id/acknowledge", allow(...can.supplier), async (req, res) => {
+  r.post("/reports/:id/acknowledge", allow("reports.acknowledge"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(AcknowledgeReportSchema, req);
     res.json(await acknowledgeReport(db, actorOf(req), id, comment, baseURL));
   });
 
-  r.post("/reports/:id/comments", allow(...can.readReports), async (req, res) => {
+  r.post("/reports/:id/comments", allow("reports.comment"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { body } = parse(CommentBodySchema, req);
     res.status(201).json({ comments: await addReportComment(db, actorOf(req), id, body) });
   });
 
   for (const kind of REPORT_FILE_KINDS) {
-    r.get(`/reports/:id/${kind}`, allow(...can.readReports), async (req, res) => {
+    r.get(`/reports/:id/${kind}`, allow("reports.read"), async (req, res) => {
       const { id } = parse(IdParamsSchema, req, "params");
       const file = await reportFile(db, actorOf(req), id, kind, baseURL);
       res.setHeader("content-type", file.contentType);
@@ -98,11 +98,11 @@ export function reportsRouter({ db, baseURL }: AppDeps) {
     });
   }
 
-  r.get("/outbox", allow(...can.administer), async (req, res) => {
+  r.get("/outbox", allow("outbox.read"), async (req, res) => {
     res.json(await listOutbox(db, actorOf(req).workspaceId));
   });
 
-  r.get("/outbox/:id/attachments/:index", allow(...can.administer), async (req, res) => {
+  r.get("/outbox/:id/attachments/:index", allow("outbox.read"), async (req, res) => {
     const { id, index } = parse(OutboxAttachmentParamsSchema, req, "params");
     const a = await outboxAttachment(db, actorOf(req).workspaceId, id, index);
     res.setHeader("content-type", a.contentType);

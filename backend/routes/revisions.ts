@@ -3,7 +3,7 @@ import { CommentBodySchema, CreateRevisionSchema, ReturnRevisionSchema, Revision
 import { IdParamsSchema } from "@shared/schemas/common";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
-import { actorOf, allow, can } from "../middleware/session";
+import { actorOf, allow } from "../middleware/session";
 import {
   addRevisionComment,
   createRevision,
@@ -20,64 +20,64 @@ const safeFileName = (s: string) => s.replace(/[^\w.-]+/g, "-").replace(/^-+|-+$
 export function revisionsRouter({ db }: AppDeps) {
   const r = Router();
 
-  r.get("/projects/:id/revisions", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/projects/:id/revisions", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json({ revisions: await listRevisions(db, actorOf(req).workspaceId, id) });
   });
 
-  r.post("/projects/:id/revisions", allow(...can.write), async (req, res) => {
+  r.post("/projects/:id/revisions", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateRevisionSchema, req);
     res.status(201).json(await createRevision(db, actorOf(req), id, input));
   });
 
-  r.get("/revisions/:id", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/revisions/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json(await getRevision(db, actorOf(req).workspaceId, id));
   });
 
-  r.patch("/revisions/:id", allow(...can.write), async (req, res) => {
+  r.patch("/revisions/:id", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateRevisionSchema, req);
     res.json(await updateRevision(db, actorOf(req), id, input));
   });
 
-  r.post("/revisions/:id/drafts", allow(...can.write), async (req, res) => {
+  r.post("/revisions/:id/drafts", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.status(201).json(await draftFrom(db, actorOf(req), id));
   });
 
-  r.post("/revisions/:id/submit", allow(...can.write), async (req, res) => {
+  r.post("/revisions/:id/submit", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { note } = parse(SubmitRevisionSchema, req);
     res.json(await transitionRevision(db, actorOf(req), id, "submit", undefined, note));
   });
 
-  r.post("/revisions/:id/approve", allow(...can.review), async (req, res) => {
+  r.post("/revisions/:id/approve", allow("revisions.review"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const body = req.body && typeof req.body === "object" && "comment" in req.body ? parse(ReturnRevisionSchema, req) : undefined;
     res.json(await transitionRevision(db, actorOf(req), id, "approve", body?.comment));
   });
 
-  r.post("/revisions/:id/return", allow(...can.review), async (req, res) => {
+  r.post("/revisions/:id/return", allow("revisions.review"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(ReturnRevisionSchema, req);
     res.json(await transitionRevision(db, actorOf(req), id, "return", comment));
   });
 
-  r.post("/revisions/:id/comments", allow(...can.readWorkspace), async (req, res) => {
+  r.post("/revisions/:id/comments", allow("revisions.comment"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { body } = parse(CommentBodySchema, req);
     res.status(201).json({ comments: await addRevisionComment(db, actorOf(req), id, body) });
   });
 
-  r.get("/revisions/:id/diff", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/revisions/:id/diff", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { against } = parse(RevisionDiffQuerySchema, req, "query");
     res.json(await revisionDiff(db, actorOf(req).workspaceId, id, against));
   });
 
-  r.get("/revisions/:id/stack-file", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/revisions/:id/stack-file", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const rev = await getRevision(db, actorOf(req).workspaceId, id);
     res.setHeader("content-disposition", `attachment; filename="${safeFileName(rev.name)}-rev${rev.number}.stack.json"`);

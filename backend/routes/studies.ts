@@ -4,40 +4,40 @@ import { SiteSchema } from "@shared/schemas/site";
 import { CreateStudySchema } from "@shared/schemas/studies";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
-import { actorOf, allow, can } from "../middleware/session";
+import { actorOf, allow } from "../middleware/session";
 import { fieldAtSite } from "../services/geomagnetic";
 import { cancelStudy, createStudy, getStudy, listStudies, rerunStudy } from "../services/studies";
 
 export function studiesRouter({ db, studyQueue }: AppDeps) {
   const r = Router();
 
-  r.get("/projects/:id/studies", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/projects/:id/studies", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json({ studies: await listStudies(db, actorOf(req).workspaceId, id) });
   });
 
-  r.post("/revisions/:id/studies", allow(...can.write), async (req, res) => {
+  r.post("/revisions/:id/studies", allow("studies.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateStudySchema, req);
     res.status(202).json(await createStudy(db, studyQueue, actorOf(req), id, input));
   });
 
-  r.get("/studies/:id", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/studies/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json(await getStudy(db, actorOf(req).workspaceId, id));
   });
 
-  r.post("/studies/:id/cancel", allow(...can.write), async (req, res) => {
+  r.post("/studies/:id/cancel", allow("studies.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json(await cancelStudy(db, studyQueue, actorOf(req), id));
   });
 
-  r.post("/studies/:id/rerun", allow(...can.write), async (req, res) => {
+  r.post("/studies/:id/rerun", allow("studies.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.status(202).json(await rerunStudy(db, studyQueue, actorOf(req), id));
   });
 
-  r.get("/geomagnetic-field", allow(...can.readWorkspace), (req, res) => {
+  r.get("/geomagnetic-field", allow("projects.read"), (req, res) => {
     const site = parse(SiteSchema, req, "query");
     res.json(fieldAtSite(site));
   });

@@ -3,7 +3,7 @@ import { z } from "zod";
 import { CreateContactSchema, CreateSupplierSchema, IdParamsSchema, IdSchema, UpdateSupplierSchema } from "@shared/schemas/api";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
-import { actorOf, allow, can } from "../middleware/session";
+import { actorOf, allow } from "../middleware/session";
 import { addContact, createSupplier, deleteSupplier, getSupplier, listSuppliers, removeContact, updateSupplier } from "../services/suppliers";
 
 const ContactParamsSchema = z.object({ id: IdSchema, contactId: IdSchema });
@@ -11,39 +11,39 @@ const ContactParamsSchema = z.object({ id: IdSchema, contactId: IdSchema });
 export function suppliersRouter({ db }: AppDeps) {
   const r = Router();
 
-  r.get("/suppliers", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/suppliers", allow("suppliers.read"), async (req, res) => {
     res.json({ suppliers: await listSuppliers(db, actorOf(req).workspaceId) });
   });
 
-  r.get("/suppliers/:id", allow(...can.readWorkspace), async (req, res) => {
+  r.get("/suppliers/:id", allow("suppliers.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json(await getSupplier(db, actorOf(req).workspaceId, id));
   });
 
-  r.post("/suppliers", allow(...can.administer), async (req, res) => {
+  r.post("/suppliers", allow("suppliers.write"), async (req, res) => {
     const input = parse(CreateSupplierSchema, req);
     res.status(201).json(await createSupplier(db, actorOf(req).workspaceId, input));
   });
 
-  r.patch("/suppliers/:id", allow(...can.administer), async (req, res) => {
+  r.patch("/suppliers/:id", allow("suppliers.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateSupplierSchema, req);
     res.json(await updateSupplier(db, actorOf(req).workspaceId, id, input));
   });
 
-  r.delete("/suppliers/:id", allow(...can.administer), async (req, res) => {
+  r.delete("/suppliers/:id", allow("suppliers.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     await deleteSupplier(db, actorOf(req).workspaceId, id);
     res.status(204).end();
   });
 
-  r.post("/suppliers/:id/contacts", allow(...can.administer), async (req, res) => {
+  r.post("/suppliers/:id/contacts", allow("suppliers.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateContactSchema, req);
     res.status(201).json(await addContact(db, actorOf(req).workspaceId, id, input));
   });
 
-  r.delete("/suppliers/:id/contacts/:contactId", allow(...can.administer), async (req, res) => {
+  r.delete("/suppliers/:id/contacts/:contactId", allow("suppliers.write"), async (req, res) => {
     const { id, contactId } = parse(ContactParamsSchema, req, "params");
     await removeContact(db, actorOf(req).workspaceId, id, contactId);
     res.status(204).end();

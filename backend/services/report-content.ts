@@ -6,7 +6,7 @@
 import { z } from "zod";
 import { capabilityAsk } from "@shared/reports/capability";
 import { REPORT_CAUTIONS } from "@shared/reports/cautions";
-import { describeMetric, metricUnit } from "@shared/reports/metrics";
+import { metricLabel, metricUnit, UNIT_SYMBOL } from "@shared/metrics";
 import { matchOwner, toleranceSources, type ToleranceSource } from "@shared/reports/sources";
 import { ContributorsSchema, EnvelopeSchema, RequirementResultSchema } from "@shared/schemas/result-file";
 import type { ReportContent, ReportRequirement, ReportTolerance } from "@shared/schemas/reports";
@@ -108,8 +108,8 @@ export function buildReportContent(input: ReportInputs, builtAt = new Date()): R
     const share = c ? ours.reduce((sum, s) => sum + shareOf(r.metric, s.id), 0) : null;
     return {
       metric: r.metric,
-      description: describeMetric(r.metric),
-      unit: metricUnit(r.metric),
+      description: metricLabel(r.metric),
+      unit: UNIT_SYMBOL[metricUnit(r.metric)],
       max: r.max,
       yield: r.yield,
       predictedYield: r.predictedYield,

@@ -3,7 +3,7 @@ import { data, redirect } from "react-router";
 import type { Me } from "@shared/schemas/api";
 import { meQueryOptions } from "@frontend/features/auth/api/get-me";
 import { isApiError } from "@frontend/lib/api-client";
-import { can, type Permission } from "@frontend/lib/permissions";
+import { can, type Right } from "@frontend/lib/permissions";
 
 export function signInPath(request: Request): string {
   const url = new URL(request.url);
@@ -25,7 +25,7 @@ export async function requireMe(queryClient: QueryClient, request: Request): Pro
 }
 
 /** As requireMe, and a 403 page when the role may not see this screen. */
-export async function requirePermission(queryClient: QueryClient, request: Request, permission: Permission): Promise<Me> {
+export async function requirePermission(queryClient: QueryClient, request: Request, permission: Right): Promise<Me> {
   const me = await requireMe(queryClient, request);
   if (!can(me.role, permission)) {
     throw data({ message: "Your role does not give access to this page." }, { status: 403 });

@@ -5,7 +5,8 @@ import type { StackFile } from "@shared/schemas/stack-file";
 import reference from "../fixtures/stack-reference.json" with { type: "json" };
 import demoDraft from "../../backend/demo/ridgeline-stack-draft.json" with { type: "json" };
 import { estimate, liveStudy, LIVE_INCLINATION_DEG, LIVE_TRIALS, summarize } from "@frontend/features/stack-editor/lib/live-estimate";
-import { metricOptions, metricUnit } from "@frontend/features/stack-editor/lib/metrics";
+import { metricUnit } from "@shared/metrics";
+import { metricOptions } from "@frontend/features/stack-editor/lib/metrics";
 import { setAt } from "@frontend/features/stack-editor/lib/stack-ops";
 import { filterRows, sigmaOf, sortRows, toleranceRows } from "@frontend/features/stack-editor/lib/tolerance-rows";
 
@@ -99,10 +100,12 @@ describe("the live estimate", () => {
   }, 60_000);
 
   it("offers every metric id of the stack to the requirement picker, with its unit", () => {
-    const opts = metricOptions(stack);
+    const groups = metricOptions(stack);
+    const opts = groups.flatMap((g) => g.options);
+    expect(groups[0].group).toBe("Heading");
     expect(opts.map((o) => o.id)).toContain("heading.maxAbsDeg");
     expect(opts.find((o) => o.id === "mag.crossAxisPct.xy")).toMatchObject({ unit: "%", group: "mag" });
-    expect(opts.find((o) => o.id === "gyro~mag.relRotDeg")).toMatchObject({ unit: "deg", group: "Relative rotation of sensor dies" });
+    expect(opts.find((o) => o.id === "gyro~mag.relRotDeg")).toMatchObject({ unit: "deg", group: "Relative rotation" });
     expect(metricUnit("mag.axisMisalignDeg.z")).toBe("deg");
   });
 });

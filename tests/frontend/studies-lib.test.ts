@@ -6,7 +6,7 @@ import { yieldRows, lateDrift } from "@frontend/features/studies/lib/convergence
 import { envelopeByTilt, niceCeil, tiltLabel } from "@frontend/features/studies/lib/envelope";
 import { formatDuration, formatPpm, formatValue, formatYield, formatYieldRange } from "@frontend/features/studies/lib/format";
 import { histogramRows, niceTicks } from "@frontend/features/studies/lib/histogram";
-import { groupMetrics, metricLabel, parseMetric } from "@frontend/features/studies/lib/metrics";
+import { groupMetrics, metricLabel, parseMetric } from "@shared/metrics";
 import { paretoRows, sourcesToReach } from "@frontend/features/studies/lib/pareto";
 import { estimateSeconds, progressView, recentPace } from "@frontend/features/studies/lib/progress";
 

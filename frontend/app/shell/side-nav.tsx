@@ -4,23 +4,21 @@ import type { Role } from "@shared/schemas/common";
 import { Logo } from "@frontend/components/ui/logo";
 import { MembersIcon, OutboxIcon, ProjectsIcon, ReportsIcon, SuppliersIcon } from "@frontend/components/ui/icons";
 import { cn } from "@frontend/lib/cn";
+import { can } from "@frontend/lib/permissions";
 
 type NavItem = { to: string; label: string; icon: ReactNode; note?: string };
 
-/** What each role sees in the navigation (DESIGN.md, "People and roles"). */
+/** What each role sees in the navigation: read off the rights table (shared/permissions.ts). */
 export function navItemsFor(role: Role): NavItem[] {
-  const projects = { to: "/projects", label: "Projects", icon: <ProjectsIcon /> };
-  const suppliers = { to: "/suppliers", label: "Suppliers", icon: <SuppliersIcon /> };
-  const reports = { to: "/reports", label: "Reports", icon: <ReportsIcon /> };
-  switch (role) {
-    case "admin":
-      return [projects, reports, suppliers, { to: "/members", label: "Members", icon: <MembersIcon /> }, { to: "/outbox", label: "Outbox", icon: <OutboxIcon /> }];
-    case "engineer":
-    case "reviewer":
-      return [projects, reports, { ...suppliers, note: "read only" }];
-    case "supplier":
-      return [reports];
+  const items: NavItem[] = [];
+  if (can(role, "projects.read")) items.push({ to: "/projects", label: "Projects", icon: <ProjectsIcon /> });
+  if (can(role, "reports.read")) items.push({ to: "/reports", label: "Reports", icon: <ReportsIcon /> });
+  if (can(role, "suppliers.read")) {
+    items.push({ to: "/suppliers", label: "Suppliers", icon: <SuppliersIcon />, note: can(role, "suppliers.write") ? undefined : "read only" });
   }
+  if (can(role, "members.manage")) items.push({ to: "/members", label: "Members", icon: <MembersIcon /> });
+  if (can(role, "outbox.read")) items.push({ to: "/outbox", label: "Outbox", icon: <OutboxIcon /> });
+  return items;
 }
 
 export function SideNav({ role }: { role: Role }) {

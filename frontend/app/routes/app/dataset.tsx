@@ -50,7 +50,7 @@ export function DatasetRoute() {
   const { data: project } = useProject(id);
   const { data: dataset } = useDataset(datasetId);
   const me = useMe();
-  const canWrite = can(me.role, "projects.write");
+  const canWrite = can(me.role, "datasets.write");
   const canRun = can(me.role, "studies.run");
   const [params, setParams] = useSearchParams();
   const numeric = dataset.columns.filter((c) => c.kind === "number");

@@ -40,7 +40,7 @@ export function ReportRoute() {
   const { id = "" } = useParams();
   const { data: report } = useReport(id);
   const me = useMe();
-  const asSupplier = me.role === "supplier";
+  const asSupplier = can(me.role, "reports.inbox");
   const { actions, dialog, close } = useReportActions(report, me.role);
   const [sent, setSent] = useState<SendResult | null>(null);
   const c = report.content;
@@ -68,7 +68,7 @@ export function ReportRoute() {
         <div className="space-y-5">
           <ReportFilesPanel report={report} />
           <ReportRecordPanel report={report} asSupplier={asSupplier} />
-          {!draft ? <ReportMeasurements reportId={report.id} canSend={asSupplier || can(me.role, "projects.write")} /> : null}
+          {!draft ? <ReportMeasurements reportId={report.id} canSend={can(me.role, "datasets.send")} /> : null}
           <Panel title={asSupplier ? "Questions and notes" : "Comments"} meta={report.comments.length ? `${report.comments.length}` : undefined}>
             <ReportComments reportId={report.id} comments={report.comments} asSupplier={asSupplier} released={!draft} />
           </Panel>

@@ -10,6 +10,7 @@ import { useMe } from "@frontend/features/auth/api/get-me";
 import { reportsQueryOptions, useReports, type ReportFilters } from "@frontend/features/reports/api/get-reports";
 import { ReportsTable } from "@frontend/features/reports/components/reports-table";
 import { cn } from "@frontend/lib/cn";
+import { can } from "@frontend/lib/permissions";
 import { requirePermission } from "../../route-guards";
 
 export const reportsLoader =
@@ -29,7 +30,7 @@ const FILTERS: Array<{ label: string; value: ReportFilters["status"] }> = [
 /** A supplier's whole view of the workspace (the reports released to its company); for staff, every report. */
 export function ReportsRoute() {
   const me = useMe();
-  const supplierView = me.role === "supplier";
+  const supplierView = can(me.role, "reports.inbox");
   const [status, setStatus] = useState<ReportFilters["status"]>(undefined);
   const reports = useReports(status ? { status } : {});
   const list = reports.data ?? [];

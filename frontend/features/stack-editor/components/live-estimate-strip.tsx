@@ -9,7 +9,7 @@ import { Spinner } from "@frontend/components/ui/spinner";
 import { cn } from "@frontend/lib/cn";
 import type { EstimateState } from "../hooks/use-live-estimate";
 import { LIVE_INCLINATION_DEG, LIVE_TRIALS } from "../lib/live-estimate";
-import { describeMetric } from "../lib/metrics";
+import { metricLabel } from "@shared/metrics";
 import { formatCount, formatFigure, formatMrad, formatYield } from "../lib/number-text";
 
 function Figure({ label, value, unit, sub, title, testId }: { label: string; value: string; unit: string; sub?: ReactNode; title?: string; testId?: string }) {
@@ -93,7 +93,7 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
               unit="%"
               testId="estimate-cross-axis-p99"
               sub={<span className="font-mono text-[10.5px]">{summary.worstCrossAxis.metric}</span>}
-              title={describeMetric(summary.worstCrossAxis.metric).label}
+              title={metricLabel(summary.worstCrossAxis.metric)}
             />
           ) : (
             <Figure label="Worst cross-axis" value="—" unit="" sub="no sensor die yet" />
@@ -104,7 +104,7 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
               value={formatFigure(summary.worstRelRot.p99)}
               unit="°"
               sub={<span className="font-mono text-[10.5px]">{summary.worstRelRot.metric}</span>}
-              title={describeMetric(summary.worstRelRot.metric).label}
+              title={metricLabel(summary.worstRelRot.metric)}
             />
           ) : (
             <Figure label="Relative rotation" value="—" unit="" sub="needs two sensor dies" />
@@ -123,7 +123,7 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
                 {summary.requirements.map((r) => (
                   <li key={r.index} className="flex min-w-0 items-center gap-1.5 text-[11px]">
                     <span className={cn("size-1.5 shrink-0 rounded-full", r.passes ? "bg-pass" : "bg-fail")} aria-hidden="true" />
-                    <span className="min-w-0 flex-1 truncate font-mono text-[10.5px] text-ink/70" title={describeMetric(r.metric).label}>
+                    <span className="min-w-0 flex-1 truncate font-mono text-[10.5px] text-ink/70" title={metricLabel(r.metric)}>
                       {r.metric}
                     </span>
                     <span className={cn("num font-bold", r.passes ? "text-pass" : "text-fail")}>{formatYield(r.predictedYield)}</span>

@@ -12,15 +12,16 @@ import { cn } from "@frontend/lib/cn";
 import { sentence } from "@frontend/lib/form";
 import { fieldError } from "../lib/issues";
 import type { EstimateSummary } from "../lib/live-estimate";
-import { describeMetric, groupOptions, METRIC_UNIT_LABEL, metricOptions, metricUnit } from "../lib/metrics";
+import { metricLabel, metricUnit, UNIT_SYMBOL } from "@shared/metrics";
+import { metricOptions } from "../lib/metrics";
 import { formatYield } from "../lib/number-text";
 import { useEditor } from "./editor-context";
 import { NumberInput, SelectInput } from "./fields";
 
 export function RequirementsEditor({ estimate, estimateStale }: { estimate: EstimateSummary | null; estimateStale: boolean }) {
   const { doc, issues, readOnly, setAt, update } = useEditor();
-  const options = useMemo(() => metricOptions(doc.stack), [doc.stack]);
-  const groups = useMemo(() => groupOptions(options), [options]);
+  const groups = useMemo(() => metricOptions(doc.stack), [doc.stack]);
+  const options = useMemo(() => groups.flatMap((g) => g.options), [groups]);
   const known = new Set(options.map((o) => o.id));
   const reqs = doc.requirements;
 
@@ -56,7 +57,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
             const unit = metricUnit(r.metric);
             const est = estimate?.requirements.find((x) => x.index === i) ?? null;
             const messages = (list ?? []).map((x) => x.message);
-            const label = r.metric ? describeMetric(r.metric).label : `requirement ${i + 1}`;
+            const label = r.metric ? metricLabel(r.metric) : `requirement ${i + 1}`;
             return (
               <tr key={i} className="border-b border-line/60 align-top">
                 <td className="px-3 py-1.5">
@@ -84,7 +85,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                 <td className="px-2 py-1.5">
                   <NumberInput
                     aria-label={`Requirement ${i + 1} limit`}
-                    unit={METRIC_UNIT_LABEL[unit]}
+                    unit={UNIT_SYMBOL[unit]}
                     value={r.max}
                     disabled={readOnly}
                     invalid={!!fieldError(list, "max")}

@@ -21,7 +21,7 @@ import { newWorkerState, prepareStudy } from "@shared/engine/study";
 import type { ResultFile } from "@shared/schemas/result-file";
 import type { StackFile } from "@shared/schemas/stack-file";
 import { RequirementSchema, type Requirement, type StudyFile } from "@shared/schemas/study-file";
-import { metricUnit, type MetricUnit } from "./metrics";
+import { metricUnit, type MetricUnit } from "@shared/metrics";
 
 export const LIVE_TRIALS = 3000;
 export const LIVE_SEED = 7;

@@ -4,7 +4,7 @@ import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { cn } from "@frontend/lib/cn";
 import { changeTone, relativeChange } from "../lib/compare";
 import { formatNumber } from "../lib/format";
-import { groupMetrics, metricLabel } from "../lib/metrics";
+import { groupMetrics, metricLabel } from "@shared/metrics";
 import { PERCENTILES, type PercentileKey } from "../lib/percentiles";
 import { signed, TONE_CLASS } from "./compare-parts";
 import { SegmentedControl } from "./segmented-control";

@@ -4,7 +4,7 @@ import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { cn } from "@frontend/lib/cn";
 import { requirementComparison, type ChangeTone } from "../lib/compare";
 import { formatNumber, formatPpm, formatYield, formatYieldRange } from "../lib/format";
-import { metricLabel } from "../lib/metrics";
+import { metricLabel } from "@shared/metrics";
 import { ABLabel, signed, TONE_CLASS } from "./compare-parts";
 import { VerdictBadge } from "./study-status-badge";
 

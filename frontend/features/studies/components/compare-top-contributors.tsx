@@ -5,7 +5,7 @@ import { Select } from "@frontend/components/ui/field";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { cn } from "@frontend/lib/cn";
 import { formatPct } from "../lib/format";
-import { metricLabel } from "../lib/metrics";
+import { metricLabel } from "@shared/metrics";
 import { ABLabel, signed } from "./compare-parts";
 
 /** The largest linearised shares of one requirement metric in A and B. */

@@ -5,7 +5,7 @@ import { Select } from "@frontend/components/ui/field";
 import { lateDrift, statRows, yieldRows, type ConvergenceStat } from "../lib/convergence";
 import { formatCount, formatNumber, formatPct, formatValue, formatYield } from "../lib/format";
 import { niceTicks } from "../lib/histogram";
-import { metricLabel } from "../lib/metrics";
+import { metricLabel } from "@shared/metrics";
 import { axisLine, axisTick, FAIL, gridProps, INK, SERIES_A, tooltipStyle } from "./chart-theme";
 
 const pLabel = (p: number) => `p${formatNumber(p * 100, 4)}`;

@@ -1,5 +1,5 @@
 import { Select } from "@frontend/components/ui/field";
-import { groupMetrics, metricLabel } from "../lib/metrics";
+import { groupMetrics, metricLabel } from "@shared/metrics";
 
 /** A metric picker grouped by sensor: heading first, then each die, relative rotations, tilts. */
 export function MetricSelect({

@@ -4,7 +4,7 @@ import { Button } from "@frontend/components/ui/button";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { cn } from "@frontend/lib/cn";
 import { formatNumber, MRAD_PER_DEG } from "../lib/format";
-import { groupMetrics, metricLabel } from "../lib/metrics";
+import { groupMetrics, metricLabel } from "@shared/metrics";
 
 /**
  * Every metric of the study with its mean, σ and shortest 95 % coverage interval (signed),

@@ -2,7 +2,7 @@ import type { ResultFile } from "@shared/schemas/result-file";
 import { Badge } from "@frontend/components/ui/badge";
 import { cn } from "@frontend/lib/cn";
 import { formatCount, formatDeg, formatMrad, formatPct, formatPpm, formatYield, formatYieldRange } from "../lib/format";
-import { metricLabel } from "../lib/metrics";
+import { metricLabel } from "@shared/metrics";
 
 type Requirement = ResultFile["requirements"][number];
 

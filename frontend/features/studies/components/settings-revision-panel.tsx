@@ -4,7 +4,7 @@ import { Panel } from "@frontend/components/ui/panel";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { formatCount, formatDeg, formatMrad, formatPct, formatYield } from "../lib/format";
-import { metricLabel } from "../lib/metrics";
+import { metricLabel } from "@shared/metrics";
 import type { SettingsSectionProps } from "./settings-section-props";
 
 const REVISION_STATUS: Record<string, string> = { draft: "draft", in_review: "in review", approved: "approved" };

@@ -5,7 +5,7 @@ import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { formatNumber, formatValue } from "../lib/format";
 import { niceCeil } from "../lib/envelope";
 import { niceTicks } from "../lib/histogram";
-import { parseMetric } from "../lib/metrics";
+import { parseMetric } from "@shared/metrics";
 import { axisLine, axisTick, gridProps, INK, tooltipStyle } from "./chart-theme";
 import { SegmentedControl } from "./segmented-control";
 

@@ -17,7 +17,7 @@ import { TrialViewerSheet, type WorstTrialPick } from "./trial-viewer-sheet";
 import { WorstTrials } from "./worst-trials";
 import { SERIES_A } from "./chart-theme";
 import { formatValue } from "../lib/format";
-import { metricLabel } from "../lib/metrics";
+import { metricLabel } from "@shared/metrics";
 
 /**
  * The figures of a finished study. Choosing a requirement card points the histogram, the

@@ -1,10 +1,14 @@
 /**
- * Metric ids of MODEL.md section 7, read back into their parts so the screens can name,
- * group and order them: `<sensor>.crossAxisPct.<ij>`, `<sensor>.crossAxisTotalPct.<i>`,
+ * Metric ids of MODEL.md section 7 (made by the engine's metricIds) in words: the one place
+ * the editor, the study screens, the reports and the PDF read a metric's label, short label,
+ * unit and group from. Ids: `<sensor>.crossAxisPct.<ij>`, `<sensor>.crossAxisTotalPct.<i>`,
  * `<sensor>.axisMisalignDeg.<i>`, `<element>.tiltDeg`, `<a>~<b>.relRotDeg`, `heading.*`.
  */
 
 export type MetricKind = "heading" | "crossAxis" | "crossAxisTotal" | "misalign" | "tilt" | "relRot" | "other";
+
+/** The unit a metric is computed in (the engine's and the result file's word). */
+export type MetricUnit = "%" | "deg";
 
 export interface MetricParts {
   id: string;
@@ -13,8 +17,21 @@ export interface MetricParts {
   element: string;
   /** the second die of a relative rotation */
   other?: string;
-  /** "x", or "xy" for a cross-axis term */
+  /** "x", or "xy" for a cross-axis term; for heading "maxAbsDeg" or "rmsDeg" */
   axis?: string;
+}
+
+export interface MetricInfo {
+  id: string;
+  /** the full name, for pickers, tables, reports: "mag cross-axis total, x" */
+  label: string;
+  /** a few characters for a narrow column or a chart tick: "total x", "z←y" */
+  shortLabel: string;
+  unit: MetricUnit;
+  /** the unit as printed after a value: "%" or "°" */
+  unitSymbol: string;
+  /** the picker group: "Heading", a sensor's id, "Relative rotation", "Tilt" */
+  group: string;
 }
 
 export function parseMetric(id: string): MetricParts {
@@ -31,7 +48,14 @@ export function parseMetric(id: string): MetricParts {
   return { id, kind: "other", element: id };
 }
 
-/** A plain name for a metric id: "mag cross-axis total, x", "accel ↔ mag relative rotation". */
+export const UNIT_SYMBOL: Record<MetricUnit, string> = { "%": "%", deg: "°" };
+
+export function metricUnit(id: string): MetricUnit {
+  const kind = parseMetric(id).kind;
+  return kind === "crossAxis" || kind === "crossAxisTotal" ? "%" : "deg";
+}
+
+/** The full name of a metric: "mag cross-axis total, x", "accel ↔ mag relative rotation". */
 export function metricLabel(id: string): string {
   const p = parseMetric(id);
   switch (p.kind) {
@@ -52,6 +76,37 @@ export function metricLabel(id: string): string {
   }
 }
 
+/** The name within its group (the group says the sensor): "total x", "z←y", "misalign. x". */
+export function metricShortLabel(id: string): string {
+  const p = parseMetric(id);
+  switch (p.kind) {
+    case "heading":
+      return p.axis === "maxAbsDeg" ? "heading max" : p.axis === "rmsDeg" ? "heading RMS" : id;
+    case "crossAxis":
+      return `${p.axis![0]}←${p.axis![1]}`;
+    case "crossAxisTotal":
+      return `total ${p.axis}`;
+    case "misalign":
+      return `misalign. ${p.axis}`;
+    case "tilt":
+      return p.element;
+    case "relRot":
+      return `${p.element} ↔ ${p.other}`;
+    default:
+      return id;
+  }
+}
+
+export function metricGroup(id: string): string {
+  const p = parseMetric(id);
+  return p.kind === "heading" ? "Heading" : p.kind === "relRot" ? "Relative rotation" : p.kind === "tilt" ? "Tilt" : p.element;
+}
+
+export function metricInfo(id: string): MetricInfo {
+  const unit = metricUnit(id);
+  return { id, label: metricLabel(id), shortLabel: metricShortLabel(id), unit, unitSymbol: UNIT_SYMBOL[unit], group: metricGroup(id) };
+}
+
 const KIND_ORDER: MetricKind[] = ["heading", "crossAxisTotal", "crossAxis", "misalign", "relRot", "tilt", "other"];
 
 /** Groups for a metric picker: heading first, then each sensor, then relative rotations and tilts. */
@@ -60,14 +115,12 @@ export function groupMetrics(ids: string[], elementOrder: string[] = []): { labe
     const i = elementOrder.indexOf(e);
     return i < 0 ? elementOrder.length : i;
   };
-  const parts = ids.map(parseMetric);
   const groups = new Map<string, MetricParts[]>();
-  const groupOf = (p: MetricParts) =>
-    p.kind === "heading" ? "Heading" : p.kind === "relRot" ? "Relative rotation" : p.kind === "tilt" ? "Tilt" : p.element;
-  for (const p of parts) {
-    const g = groupOf(p);
-    if (!groups.has(g)) groups.set(g, []);
-    groups.get(g)!.push(p);
+  for (const p of ids.map(parseMetric)) {
+    const g = metricGroup(p.id);
+    const list = groups.get(g) ?? [];
+    list.push(p);
+    groups.set(g, list);
   }
   const order = (g: string, list: MetricParts[]) =>
     g === "Heading" ? -2 : g === "Relative rotation" ? 1e6 : g === "Tilt" ? 1e6 + 1 : rank(list[0].element);

@@ -1,0 +1,94 @@
+import { RoleSchema, type Role } from "./schemas/common";
+
+/**
+ * Who may do what (DESIGN.md, "People and roles"): the one table of rights. The server's
+ * `allow(right)` (backend/middleware/session.ts) checks every route against it; the client's
+ * guards and buttons (frontend/lib/permissions.ts) read the same table, so a screen never
+ * offers what the server would refuse. Finer rules that depend on the record (a supplier sees
+ * only its own company's released reports) stay in the services.
+ */
+export const RIGHTS = [
+  /** projects and everything under them: revisions, studies, data sets, report options */
+  "projects.read",
+  "projects.write",
+  "revisions.write",
+  "revisions.comment",
+  "revisions.review",
+  "studies.run",
+  "datasets.write",
+  /** measurements sent against a released report (staff who write, and its supplier) */
+  "datasets.send",
+  "suppliers.read",
+  "suppliers.write",
+  "members.manage",
+  "outbox.read",
+  /** staff: the workspace's reports; a supplier: its company's released ones (service check) */
+  "reports.read",
+  "reports.comment",
+  /** the supplier's own list of reports released to it */
+  "reports.inbox",
+  "reports.write",
+  "reports.release",
+  "reports.send",
+  "reports.acknowledge",
+] as const;
+export type Right = (typeof RIGHTS)[number];
+
+const STAFF_READ = ["projects.read", "revisions.comment", "suppliers.read", "reports.read", "reports.comment", "reports.send"] as const;
+
+/** The table: each role and the rights it holds. */
+export const ROLE_RIGHTS: Record<Role, readonly Right[]> = {
+  admin: [
+    ...STAFF_READ,
+    "projects.write",
+    "revisions.write",
+    "revisions.review",
+    "studies.run",
+    "datasets.write",
+    "datasets.send",
+    "suppliers.write",
+    "members.manage",
+    "outbox.read",
+    "reports.write",
+    "reports.release",
+  ],
+  engineer: [...STAFF_READ, "projects.write", "revisions.write", "studies.run", "datasets.write", "datasets.send", "reports.write"],
+  reviewer: [...STAFF_READ, "revisions.review", "reports.release"],
+  supplier: ["reports.read", "reports.comment", "reports.inbox", "reports.acknowledge", "datasets.send"],
+};
+
+export function can(role: Role, right: Right): boolean {
+  return ROLE_RIGHTS[role].includes(right);
+}
+
+/** The roles that hold a right (the server's route check and the role test read this). */
+export function rolesWith(right: Right): Role[] {
+  return RoleSchema.options.filter((role) => can(role, right));
+}
+
+export const ROLE_LABELS: Record<Role, string> = {
+  admin: "Admin",
+  engineer: "Engineer",
+  reviewer: "Reviewer",
+  supplier: "Supplier",
+};
+
+/** The role inside a sentence ("… invites you to join … as an engineer"). */
+export const ROLE_IN_SENTENCE: Record<Role, string> = {
+  admin: "an admin",
+  engineer: "an engineer",
+  reviewer: "a reviewer",
+  supplier: "a supplier contact",
+};
+
+export const ROLE_DESCRIPTIONS: Record<Role, string> = {
+  admin: "Everything, plus members, invitations and suppliers",
+  engineer: "Creates and edits projects, stacks, studies and reports",
+  reviewer: "Reads everything, comments, approves or sends back",
+  supplier: "Only reports released to their own company",
+};
+
+/** Where each role lands after signing in. */
+export function homePath(role: Role): string {
+  return can(role, "projects.read") ? "/projects" : "/reports";
+}
