@@ -4,7 +4,8 @@
  * by metric; every other field is compared leaf by leaf. Pure: the server answers the diff
  * route with it and the client could show a live one with the same labels.
  */
-import { describeMetric, metricUnit } from "../reports/metrics";
+import { unitText } from "../format";
+import { metricLabel, metricUnit } from "../metrics";
 import type { StackElement, StackFile } from "../schemas/stack-file";
 
 export type ChangeKind = "added" | "removed" | "changed";
@@ -127,9 +128,9 @@ export function diffRevisions(before: { stack: StackFile; requirements: Requirem
 
   const reqLeaves = (rs: RequirementLike[]): Leaf[] =>
     rs.flatMap((r) => {
-      const what = r.name ? `${r.name} (${describeMetric(r.metric)})` : describeMetric(r.metric);
+      const what = r.name ? `${r.name} (${metricLabel(r.metric)})` : metricLabel(r.metric);
       return [
-        { path: `requirements[${r.metric}].max`, label: `requirement: ${what}, limit`, unit: metricUnit(r.metric), value: r.max },
+        { path: `requirements[${r.metric}].max`, label: `requirement: ${what}, limit`, unit: unitText(metricUnit(r.metric)), value: r.max },
         { path: `requirements[${r.metric}].yield`, label: `requirement: ${what}, yield target`, unit: "%", value: Math.round(r.yield * 1e6) / 1e4 },
       ];
     });
