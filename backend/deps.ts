@@ -1,13 +1,28 @@
 import type { Auth } from "./auth";
 import type { Database } from "./db/client";
+import type { MailService } from "./services/mail";
 import type { StudyQueue } from "./services/study-queue";
 
-/** What the app is built from; tests build it with an in-memory database. */
+/** Writes a line of the server's log; an error goes with the message it explains. */
+export type Log = (message: string, err?: unknown) => void;
+/** The current time; tests may pass a fixed or moving one. */
+export type Clock = () => Date;
+
+/**
+ * What the app is built from. `server.ts` makes it from the parsed environment
+ * (`backend/runtime.ts`); tests build their own with an in-memory database. Nothing the
+ * routes or services use comes from a module-global registry.
+ */
 export type AppDeps = {
   db: Database;
   auth: Auth;
   /** Public address used in links (invitations, report e-mails). */
   baseURL: string;
-  log: (message: string, err?: unknown) => void;
+  log: Log;
+  clock: Clock;
+  /** Outgoing mail (SMTP or the local catcher); null when the server runs without mail. */
+  mail: MailService | null;
   studyQueue: StudyQueue;
 };
+
+export const systemClock: Clock = () => new Date();

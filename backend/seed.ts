@@ -2,7 +2,6 @@ import { eq, sql } from "drizzle-orm";
 import type { Auth } from "./auth";
 import type { Database } from "./db/client";
 import { members, projects, supplierContacts, suppliers, users, workspaces } from "./db/schema";
-import { seedDemoStack } from "./demo/seed-stack";
 import { createAccount } from "./lib/accounts";
 import { recordActivity } from "./services/activity";
 
@@ -19,18 +18,17 @@ export const DEMO_USERS = [
   { email: "supplier@example.com", name: "Sam Whitcombe", role: "supplier" },
 ] as const;
 
-export type SeedHook = (db: Database, ctx: { workspaceId: string; projectId: string; userIds: Record<string, string>; supplierId: string }) => Promise<void>;
-const seedHooks: SeedHook[] = [];
-/** Later features add their demo data (stack revisions, studies, reports) through this. */
-export function addSeedHook(hook: SeedHook) {
-  seedHooks.push(hook);
-}
+/** The demo workspace as made by `seedDemo`, handed to each seed step. */
+export type SeedContext = { workspaceId: string; projectId: string; userIds: Record<string, string>; supplierId: string };
+/** Demo data of one feature (stack revisions, studies, data sets), run in order after the workspace exists. */
+export type SeedStep = (db: Database, ctx: SeedContext) => Promise<void>;
 
 /**
  * Creates the demo workspace when the database holds no workspace at all. Running it again
- * changes nothing; a database with a real workspace is never touched.
+ * changes nothing; a database with a real workspace is never touched. `steps` add each
+ * feature's demo data (`DEMO_SEED_STEPS` of `demo/steps.ts`).
  */
-export async function seedDemo(db: Database, auth: Auth): Promise<"seeded" | "skipped"> {
+export async function seedDemo(db: Database, auth: Auth, steps: readonly SeedStep[]): Promise<"seeded" | "skipped"> {
   const [{ n }] = await db.select({ n: sql<number>`count(*)::int` }).from(workspaces);
   if (n > 0) return "skipped";
 
@@ -80,7 +78,6 @@ export async function seedDemo(db: Database, auth: Auth): Promise<"seeded" | "sk
     return { workspaceId: ws.id, projectId: project.id, userIds, supplierId: larkfield.id };
   });
 
-  await seedDemoStack(db, ctx);
-  for (const hook of seedHooks) await hook(db, ctx);
+  for (const step of steps) await step(db, ctx);
   return "seeded";
 }

@@ -8,9 +8,8 @@
 import { createHash } from "node:crypto";
 import { and, eq } from "drizzle-orm";
 import { normInv } from "@shared/engine/distributions";
-import type { Database } from "../db/client";
 import { datasetMappings, datasets, stackRevisions } from "../db/schema";
-import { addSeedHook } from "../seed";
+import type { SeedStep } from "../seed";
 import { recordActivity } from "../services/activity";
 import { readMeasurementFile } from "../services/dataset-files";
 
@@ -41,7 +40,7 @@ export function demoDatasetCsv(): string {
   return lines.join("\r\n") + "\r\n";
 }
 
-export async function seedDemoDatasets(db: Database, ctx: { workspaceId: string; projectId: string; userIds: Record<string, string> }) {
+export const seedDemoDatasets: SeedStep = async (db, ctx) => {
   const buf = Buffer.from(demoDatasetCsv(), "utf8");
   const parsed = await readMeasurementFile(DEMO_DATASET_NAME, buf);
   const [rev1] = await db
@@ -93,6 +92,4 @@ export async function seedDemoDatasets(db: Database, ctx: { workspaceId: string;
       });
     });
   }
-}
-
-addSeedHook(seedDemoDatasets);
+};

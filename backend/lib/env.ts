@@ -67,7 +67,8 @@ export function mailSettings(source: NodeJS.ProcessEnv = process.env): MailSetti
   return mailSettingsOf(result.data);
 }
 
-function mailSettingsOf(env: MailEnv): MailSettings {
+/** The mail settings of an environment already parsed (`parseEnv`). */
+export function mailSettingsOf(env: MailEnv): MailSettings {
   const from = env.MAIL_FROM;
   if (env.SMTP_URL) return { mode: "smtp", from, transport: env.SMTP_URL };
   if (env.SMTP_HOST) {

@@ -2,8 +2,6 @@ import { Router, type RequestHandler } from "express";
 import multer from "multer";
 import { IdParamsSchema } from "@shared/schemas/common";
 import { DATASET_MAX_BYTES, StatisticsQuerySchema, UpdateMappingsSchema } from "@shared/schemas/datasets";
-// Registers the demo project's first-build data set with the seed.
-import "../demo/seed-datasets";
 import type { AppDeps } from "../deps";
 import { badRequest, HttpError } from "../lib/errors";
 import { parse } from "../lib/validate";

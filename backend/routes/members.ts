@@ -5,7 +5,8 @@ import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
 import { createInvitation, listInvitations, listMembers, removeMember, revokeInvitation, updateMember } from "../services/members";
 
-export function membersRouter({ db, baseURL }: AppDeps) {
+export function membersRouter(deps: AppDeps) {
+  const { db } = deps;
   const r = Router();
   const admin = allow("members.manage");
 
@@ -26,12 +27,12 @@ export function membersRouter({ db, baseURL }: AppDeps) {
   });
 
   r.get("/invitations", admin, async (req, res) => {
-    res.json({ invitations: await listInvitations(db, actorOf(req).workspaceId, baseURL) });
+    res.json({ invitations: await listInvitations(db, actorOf(req).workspaceId, deps) });
   });
 
   r.post("/invitations", admin, async (req, res) => {
     const input = parse(CreateInvitationSchema, req);
-    res.status(201).json(await createInvitation(db, actorOf(req), input, baseURL));
+    res.status(201).json(await createInvitation(db, actorOf(req), input, deps));
   });
 
   r.delete("/invitations/:id", admin, async (req, res) => {

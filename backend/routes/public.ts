@@ -5,7 +5,7 @@ import { parse } from "../lib/validate";
 import { acceptInvitation, previewInvitation } from "../services/members";
 
 /** Routes that need no session: health and the invitation hand-shake. */
-export function publicRouter({ db, auth }: AppDeps) {
+export function publicRouter({ db, auth, clock }: AppDeps) {
   const r = Router();
 
   r.get("/health", (_req, res) => {
@@ -14,13 +14,13 @@ export function publicRouter({ db, auth }: AppDeps) {
 
   r.get("/invitations/by-token/:token", async (req, res) => {
     const { token } = parse(InvitationTokenParamsSchema, req, "params");
-    res.json(await previewInvitation(db, token));
+    res.json(await previewInvitation(db, token, clock));
   });
 
   r.post("/invitations/by-token/:token/accept", async (req, res) => {
     const { token } = parse(InvitationTokenParamsSchema, req, "params");
     const input = parse(AcceptInvitationSchema, req);
-    const headers = await acceptInvitation(db, auth, token, input);
+    const headers = await acceptInvitation(db, auth, clock, token, input);
     const cookies = headers.getSetCookie();
     if (cookies.length) res.setHeader("set-cookie", cookies);
     res.json({ ok: true });

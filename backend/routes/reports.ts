@@ -26,7 +26,7 @@ function disposition(name: string) {
   return `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(name)}`;
 }
 
-export function reportsRouter({ db, baseURL }: AppDeps) {
+export function reportsRouter({ db, baseURL, mail }: AppDeps) {
   const r = Router();
 
   r.get("/projects/:id/report-options", allow("projects.read"), async (req, res) => {
@@ -71,7 +71,7 @@ export function reportsRouter({ db, baseURL }: AppDeps) {
   r.post("/reports/:id/send", allow("reports.send"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { message } = parse(SendReportSchema, req);
-    res.json(await sendReport(db, actorOf(req), id, message, baseURL));
+    res.json(await sendReport(db, mail, actorOf(req), id, message, baseURL));
   });
 
   r.post("/reports/:id/acknowledge", allow("reports.acknowledge"), async (req, res) => {
@@ -99,7 +99,7 @@ export function reportsRouter({ db, baseURL }: AppDeps) {
   }
 
   r.get("/outbox", allow("outbox.read"), async (req, res) => {
-    res.json(await listOutbox(db, actorOf(req).workspaceId));
+    res.json(await listOutbox(db, mail, actorOf(req).workspaceId));
   });
 
   r.get("/outbox/:id/attachments/:index", allow("outbox.read"), async (req, res) => {

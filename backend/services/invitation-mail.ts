@@ -1,16 +1,14 @@
 import { ROLE_IN_SENTENCE } from "@shared/permissions";
 import type { Role } from "@shared/schemas/common";
-import type { Database } from "../db/client";
 import type { Actor } from "../middleware/session";
-import { mailServiceFor } from "./mail";
+import type { MailService } from "./mail";
 
 
 /**
  * Mails the invitation link to the invitee. The admin page keeps showing the link, so a
  * failure here is reported (false) but never undoes the invitation.
  */
-export async function mailInvitation(db: Database, actor: Actor, invitation: { email: string; role: Role; expiresAt: Date }, link: string): Promise<boolean> {
-  const mail = mailServiceFor(db);
+export async function mailInvitation(mail: MailService | null, actor: Actor, invitation: { email: string; role: Role; expiresAt: Date }, link: string): Promise<boolean> {
   if (!mail) return false;
   const until = new Intl.DateTimeFormat("en-GB", { year: "numeric", month: "long", day: "numeric", timeZone: "UTC" }).format(invitation.expiresAt);
   const text = [

@@ -8,11 +8,10 @@ import nodemailer, { type Transporter } from "nodemailer";
 import { SMTPServer } from "smtp-server";
 import type { Database } from "../db/client";
 import { outboxMessages } from "../db/schema";
-import type { AppDeps } from "../deps";
-import { mailSettings, type MailSettings } from "../lib/env";
+import type { Log } from "../deps";
+import type { MailSettings } from "../lib/env";
 import { HttpError } from "../lib/errors";
 import { parseMail } from "../lib/mime";
-import { startHooks } from "../start-hooks";
 
 /** Set on every message we send, so the outbox shows each workspace only its own mail. */
 export const WORKSPACE_HEADER = "X-Orthostack-Workspace";
@@ -63,7 +62,7 @@ async function storeCaught(db: Database, raw: Buffer, envelope: { from: string; 
 }
 
 /** The catcher: accepts any message from this machine and stores it; nothing leaves. */
-async function startCatcher(db: Database, port: number, log: AppDeps["log"]) {
+async function startCatcher(db: Database, port: number, log: Log) {
   const server = new SMTPServer({
     authOptional: true,
     disabledCommands: ["STARTTLS", "AUTH"],
@@ -114,7 +113,7 @@ function makeSender(transport: Transporter, from: string): MailService["send"] {
   };
 }
 
-export async function createMailService(db: Database, settings: MailSettings, log: AppDeps["log"]): Promise<MailService> {
+export async function createMailService(db: Database, settings: MailSettings, log: Log): Promise<MailService> {
   if (settings.mode === "smtp") {
     const transport = nodemailer.createTransport(settings.transport);
     return {
@@ -137,30 +136,8 @@ export async function createMailService(db: Database, settings: MailSettings, lo
   };
 }
 
-// One service per database: tests run several apps in one process, each with its own.
-const services = new Map<Database, MailService>();
-
-startHooks.add({
-  start: async (deps) => {
-    const previous = services.get(deps.db);
-    if (previous) await previous.close();
-    const service = await createMailService(deps.db, mailSettings(), deps.log);
-    services.set(deps.db, service);
-    deps.log(service.mode === "catcher" ? `mail catcher on ${service.address}: mail shows in the outbox` : `mail goes out through ${service.address}`);
-  },
-  stop: async () => {
-    const all = [...services.values()];
-    services.clear();
-    await Promise.allSettled(all.map((s) => s.close()));
-  },
-});
-
-export function mailServiceFor(db: Database): MailService | null {
-  return services.get(db) ?? null;
-}
-
-export function requireMail(db: Database): MailService {
-  const s = services.get(db);
-  if (!s) throw new HttpError(503, "mail_unavailable", "Mail is not running on this server; nothing was sent.");
-  return s;
+/** The mail service of the request's app, or a 503 saying nothing was sent. */
+export function requireMail(mail: MailService | null): MailService {
+  if (!mail) throw new HttpError(503, "mail_unavailable", "Mail is not running on this server; nothing was sent.");
+  return mail;
 }

@@ -4,6 +4,7 @@ import type { z } from "zod";
 import type { CreateInvitationSchema, Invitation, Member, Role, UpdateMemberSchema } from "@shared/schemas/api";
 import type { Auth } from "../auth";
 import type { Database } from "../db/client";
+import type { AppDeps, Clock } from "../deps";
 import { invitations, members, suppliers, users, workspaces } from "../db/schema";
 import { badRequest, conflict, found, HttpError } from "../lib/errors";
 import type { Actor } from "../middleware/session";
@@ -81,8 +82,11 @@ export async function removeMember(db: Database, actor: Actor, id: string) {
 
 export const invitationLink = (baseURL: string, token: string) => `${baseURL.replace(/\/$/, "")}/invite/${token}`;
 
-function toInvitation(row: typeof invitations.$inferSelect, baseURL: string): Invitation {
-  const expired = row.status === "pending" && row.expiresAt.getTime() < Date.now();
+/** What the invitation functions need of the app: the link's address, the mail, the time. */
+export type InvitationDeps = Pick<AppDeps, "baseURL" | "mail" | "clock">;
+
+function toInvitation(row: typeof invitations.$inferSelect, baseURL: string, now: Date): Invitation {
+  const expired = row.status === "pending" && row.expiresAt.getTime() < now.getTime();
   return {
     id: row.id,
     email: row.email,
@@ -95,12 +99,13 @@ function toInvitation(row: typeof invitations.$inferSelect, baseURL: string): In
   };
 }
 
-export async function listInvitations(db: Database, workspaceId: string, baseURL: string) {
+export async function listInvitations(db: Database, workspaceId: string, { baseURL, clock }: InvitationDeps) {
   const rows = await db.select().from(invitations).where(eq(invitations.workspaceId, workspaceId)).orderBy(desc(invitations.createdAt));
-  return rows.map((r) => toInvitation(r, baseURL));
+  const now = clock();
+  return rows.map((r) => toInvitation(r, baseURL, now));
 }
 
-export async function createInvitation(db: Database, actor: Actor, input: z.infer<typeof CreateInvitationSchema>, baseURL: string) {
+export async function createInvitation(db: Database, actor: Actor, input: z.infer<typeof CreateInvitationSchema>, { baseURL, mail, clock }: InvitationDeps) {
   await assertSupplierInWorkspace(db, actor.workspaceId, input.supplierId);
   const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, input.email));
   if (existing) throw conflict(`${input.email} already has an account.`, "already_member");
@@ -120,12 +125,12 @@ export async function createInvitation(db: Database, actor: Actor, input: z.infe
         supplierId: input.role === "supplier" ? (input.supplierId ?? null) : null,
         token,
         invitedBy: actor.userId,
-        expiresAt: new Date(Date.now() + INVITATION_DAYS * 86_400_000),
+        expiresAt: new Date(clock().getTime() + INVITATION_DAYS * 86_400_000),
       })
       .returning();
   });
-  const mailed = await mailInvitation(db, actor, row, invitationLink(baseURL, token));
-  return { ...toInvitation(row, baseURL), mailed };
+  const mailed = await mailInvitation(mail, actor, row, invitationLink(baseURL, token));
+  return { ...toInvitation(row, baseURL, clock()), mailed };
 }
 
 export async function revokeInvitation(db: Database, workspaceId: string, id: string) {
@@ -137,20 +142,20 @@ export async function revokeInvitation(db: Database, workspaceId: string, id: st
   found(rows[0], "The pending invitation");
 }
 
-async function pendingByToken(db: Database, token: string) {
+async function pendingByToken(db: Database, token: string, now: Date) {
   const [row] = await db
     .select({ invitation: invitations, workspaceName: workspaces.name })
     .from(invitations)
     .innerJoin(workspaces, eq(workspaces.id, invitations.workspaceId))
     .where(eq(invitations.token, token));
-  if (!row || row.invitation.status !== "pending" || row.invitation.expiresAt.getTime() < Date.now()) {
+  if (!row || row.invitation.status !== "pending" || row.invitation.expiresAt.getTime() < now.getTime()) {
     throw new HttpError(404, "invitation_invalid", "This invitation is not valid any more. Ask your admin for a new one.");
   }
   return row;
 }
 
-export async function previewInvitation(db: Database, token: string) {
-  const { invitation, workspaceName } = await pendingByToken(db, token);
+export async function previewInvitation(db: Database, token: string, clock: Clock) {
+  const { invitation, workspaceName } = await pendingByToken(db, token, clock());
   return { email: invitation.email, role: invitation.role as Role, workspaceName };
 }
 
@@ -159,8 +164,8 @@ export async function previewInvitation(db: Database, token: string) {
  * member and marks the invitation used in one transaction, then signs in through better-auth and
  * returns its response headers (the session cookie). A failure leaves no account behind.
  */
-export async function acceptInvitation(db: Database, auth: Auth, token: string, input: { name: string; password: string }) {
-  const { invitation } = await pendingByToken(db, token);
+export async function acceptInvitation(db: Database, auth: Auth, clock: Clock, token: string, input: { name: string; password: string }) {
+  const { invitation } = await pendingByToken(db, token, clock());
   const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, invitation.email));
   if (existing) throw conflict(`${invitation.email} already has an account.`, "already_member");
   const user = await createAccount(auth, { email: invitation.email, password: input.password, name: input.name });
@@ -169,7 +174,7 @@ export async function acceptInvitation(db: Database, auth: Auth, token: string, 
       // Only one accept may use the token: a second concurrent one finds it no longer pending.
       const used = await tx
         .update(invitations)
-        .set({ status: "accepted", acceptedAt: new Date() })
+        .set({ status: "accepted", acceptedAt: clock() })
         .where(and(eq(invitations.id, invitation.id), eq(invitations.status, "pending")))
         .returning({ id: invitations.id });
       if (!used.length) throw new HttpError(404, "invitation_invalid", "This invitation is not valid any more. Ask your admin for a new one.");

@@ -4,12 +4,11 @@ import type { Database } from "../db/client";
 import { outboxMessages } from "../db/schema";
 import { found, notFound } from "../lib/errors";
 import { parseMail } from "../lib/mime";
-import { mailServiceFor } from "./mail";
+import type { MailService } from "./mail";
 
 const LIST_LIMIT = 200;
 
-export async function listOutbox(db: Database, workspaceId: string) {
-  const service = mailServiceFor(db);
+export async function listOutbox(db: Database, service: MailService | null, workspaceId: string) {
   const rows = await db
     .select({
       id: outboxMessages.id,

@@ -148,7 +148,6 @@ const KIND_COLOUR: Record<string, string> = {
  * and true thickness order, heights exaggerated to read; the supplier's elements outlined.
  */
 export function sideView(doc: Doc, stack: El[], x: number, y: number, w: number, h: number) {
-  const byId = new Map(stack.map((e) => [e.id, e]));
   type Placed = { e: El; x0: number; x1: number; z0: number; z1: number; bond0: number; depth: number };
   const placed = new Map<string, Placed>();
   const yawAbs = new Map<string, number>();

@@ -7,7 +7,7 @@ import { reportFiles, reportSends, supplierContacts } from "../db/schema";
 import { conflict, found, HttpError } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
-import { requireMail } from "./mail";
+import { requireMail, type MailService } from "./mail";
 import { reportCode } from "./report-format";
 import { getReport, reportLabel, reportLink, visibleRow } from "./report-queries";
 
@@ -43,7 +43,7 @@ ${opts.message ? `<p style="border-left:3px solid #d9d4c7;padding-left:10px">${e
 }
 
 /** Mails each contact of the supplier the link and the stored PDF; records who received it. */
-export async function sendReport(db: Database, actor: Actor, id: string, message: string | undefined, baseURL: string): Promise<SendResult> {
+export async function sendReport(db: Database, mailService: MailService | null, actor: Actor, id: string, message: string | undefined, baseURL: string): Promise<SendResult> {
   const row = await visibleRow(db, actor, id);
   if (row.status !== "released") throw conflict(`${reportCode(row.number)} revision ${row.revision} is a draft. A reviewer releases it before it is sent.`, "not_released");
   if (!row.supplierId) throw conflict("The supplier company of this report was deleted; there is no one to send it to.", "no_contacts");
@@ -52,7 +52,7 @@ export async function sendReport(db: Database, actor: Actor, id: string, message
   if (contacts.length === 0) throw conflict(`${c.supplier.name} has no contacts to send to. An admin adds them on the Suppliers page.`, "no_contacts");
   const [pdf] = await db.select().from(reportFiles).where(and(eq(reportFiles.reportId, id), eq(reportFiles.kind, "pdf")));
   const file = found(pdf, "The report's PDF");
-  const mail = requireMail(db);
+  const mail = requireMail(mailService);
   const link = reportLink(baseURL, id);
   const code = reportCode(row.number);
   const sent: Array<{ name: string; email: string }> = [];

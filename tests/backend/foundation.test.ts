@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { sql } from "drizzle-orm";
+import { DEMO_SEED_STEPS } from "@backend/demo/steps";
 import { seedDemo, DEMO_PROJECT } from "@backend/seed";
 import { projects, users, workspaces } from "@backend/db/schema";
 import { startTestApp, type TestApp } from "./harness";
@@ -136,7 +137,7 @@ describe("seed", () => {
   it("is idempotent and leaves a workspace with real data alone", async () => {
     const count = async () => (await t.handle.db.select({ n: sql<number>`count(*)::int` }).from(users))[0].n;
     const before = await count();
-    expect(await seedDemo(t.handle.db, t.deps.auth)).toBe("skipped");
+    expect(await seedDemo(t.handle.db, t.deps.auth, DEMO_SEED_STEPS)).toBe("skipped");
     expect(await count()).toBe(before);
   });
 });

@@ -6,10 +6,12 @@ import { eq } from "drizzle-orm";
 import type { DatabaseHandle } from "@backend/db/client";
 import { openTestDatabase } from "./test-database";
 import { studies } from "@backend/db/schema";
-import type { AppDeps } from "@backend/deps";
-import { DEMO_PASSWORD, seedDemo } from "@backend/seed";
-import { startHooks } from "@backend/start-hooks";
-import { StudyQueue, type StudyRunner } from "@backend/services/study-queue";
+import { DEMO_SEED_STEPS } from "@backend/demo/steps";
+import type { AppDeps, Clock } from "@backend/deps";
+import { mailSettings } from "@backend/lib/env";
+import { assembleRuntime, startRuntime, stopRuntime } from "@backend/runtime";
+import { DEMO_PASSWORD, type SeedStep } from "@backend/seed";
+import type { StudyRunner } from "@backend/services/study-queue";
 import { engineRunner } from "@backend/services/study-runner";
 
 export type TestApp = {
@@ -26,19 +28,43 @@ export type TestApp = {
 };
 
 /** A fresh app on an in-memory PGlite, migrated from drizzle/ and seeded with the demo workspace. */
-export async function startTestApp(opts: { seed?: boolean; signInPerMinute?: number; runner?: StudyRunner; handle?: DatabaseHandle; keepDemoStudy?: boolean } = {}): Promise<TestApp> {
+export type TestAppOptions = {
+  seed?: boolean;
+  signInPerMinute?: number;
+  runner?: StudyRunner;
+  /** An open database to use (and leave open); a fresh in-memory one otherwise. */
+  handle?: DatabaseHandle;
+  keepDemoStudy?: boolean;
+  /** Mail settings read from this environment instead of the test process's (SMTP_URL, ...). */
+  mailEnv?: NodeJS.ProcessEnv;
+  clock?: Clock;
+};
+
+// The seed queues the demo study; most tests want the queue to themselves.
+const cancelQueuedStudies: SeedStep = async (db) => {
+  await db.update(studies).set({ status: "cancelled" }).where(eq(studies.status, "queued"));
+};
+
+export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> {
   const handle = opts.handle ?? (await openTestDatabase());
   const baseURL = "http://localhost:3999";
   const auth = createAuth({ db: handle.db, baseURL, secret: "test-secret-test-secret-test-secret-123", signInPerMinute: opts.signInPerMinute ?? 1000 });
   const errors: unknown[] = [];
   const log = (_m: string, e?: unknown) => void errors.push(e);
-  const studyQueue = new StudyQueue(handle.db, opts.runner ?? engineRunner({ threads: 2 }), log);
-  const deps: AppDeps = { db: handle.db, auth, baseURL, log, studyQueue };
-  if (opts.seed !== false) await seedDemo(handle.db, auth);
-  // The seed queues the demo study; most tests want the queue to themselves.
-  if (!opts.keepDemoStudy) await handle.db.update(studies).set({ status: "cancelled" }).where(eq(studies.status, "queued"));
-  await startHooks.run(deps);
-  await studyQueue.start();
+  const runtime = await assembleRuntime({
+    handle,
+    auth,
+    baseURL,
+    log,
+    clock: opts.clock,
+    mail: mailSettings(opts.mailEnv ?? {}),
+    runner: opts.runner ?? engineRunner({ threads: 2 }),
+    seedSteps: opts.seed === false ? null : opts.keepDemoStudy ? DEMO_SEED_STEPS : [...DEMO_SEED_STEPS, cancelQueuedStudies],
+    ownsDatabase: !opts.handle,
+  });
+  const { deps } = runtime;
+  const { studyQueue } = deps;
+  await startRuntime(runtime);
   const app = createApp(deps);
   const server: Server = await new Promise((resolve) => {
     const s = app.listen(0, "127.0.0.1", () => resolve(s));
@@ -92,9 +118,7 @@ export async function startTestApp(opts: { seed?: boolean; signInPerMinute?: num
     },
     close: async () => {
       await new Promise((r) => server.close(r));
-      await studyQueue.stop();
-      await startHooks.stop();
-      if (!opts.handle) await handle.close();
+      await stopRuntime(runtime);
     },
   };
 }

@@ -440,7 +440,7 @@ describe("supplier reports", () => {
   });
 
   it("the catcher keeps non-ASCII subjects and attachment names as they were sent", async () => {
-    await requireMail(t.handle.db).send({
+    await requireMail(t.deps.mail).send({
       workspaceId,
       to: "prüfer@example.com",
       subject: "Prüfbericht µ-Lage: ±0.3° — σ ≤ 0.075°",
@@ -493,11 +493,10 @@ describe("mail settings", () => {
     });
     await new Promise<void>((r) => server.listen(0, "127.0.0.1", () => r()));
     const port = (server.server.address() as { port: number }).port;
-    process.env.SMTP_URL = `smtp://127.0.0.1:${port}?ignoreTLS=true`;
-    const t = await startTestApp({ seed: false });
+    const t = await startTestApp({ seed: false, mailEnv: { SMTP_URL: `smtp://127.0.0.1:${port}?ignoreTLS=true` } });
     try {
-      // the start hook read SMTP_URL: no catcher, mail leaves through the server
-      const mail = requireMail(t.handle.db);
+      // the runtime read SMTP_URL: no catcher, mail leaves through the server
+      const mail = requireMail(t.deps.mail);
       expect(mail.mode).toBe("smtp");
       expect(mail.address).toBe(`127.0.0.1:${port}`);
       await mail.send({ workspaceId: "00000000-0000-4000-8000-000000000000", to: "someone@example.com", subject: "Through the real server", text: "hello" });
@@ -508,7 +507,6 @@ describe("mail settings", () => {
       expect(direct.address).toBe(`127.0.0.1:${port}`);
       await direct.close();
     } finally {
-      delete process.env.SMTP_URL;
       await t.close();
       await new Promise<void>((r) => server.close(() => r()));
     }

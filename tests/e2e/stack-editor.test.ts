@@ -6,7 +6,6 @@ import { setupE2E, unexpectedProblems } from "./support/setup";
 const e2e = setupE2E();
 
 const headingP99 = (page: Page) => page.getByTestId("estimate-heading-p99");
-const estimateStatus = (page: Page) => page.getByTestId("estimate-status");
 const saveStatus = (page: Page) => page.getByTestId("save-status");
 
 /** Waits until the live estimate has settled (not waiting, not running) and returns its heading p99 text. */

@@ -137,6 +137,8 @@ describe("distributions", () => {
     expect(Math.abs(s2 / n - 1 / 6)).toBeLessThan(5 * Math.sqrt((1 / 15 - 1 / 36) / n));
     // resampling four values: mean 2.5, variance 1.25
     expect(Math.abs(sd / n - 2.5)).toBeLessThan(5 * Math.sqrt(1.25 / n));
+    // its variance: m4 of 1..4 about 2.5 is 2.5625, so the SE is sqrt((2.5625 − 1.25²)/n) = sqrt(1/n)
+    expect(Math.abs(sd2 / n - (sd / n) ** 2 - 1.25)).toBeLessThan(5 * Math.sqrt(1 / n));
     expect(data.sigma).toBeCloseTo(Math.sqrt(1.25), 12);
   });
 });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import reference from "../fixtures/stack-reference.json" with { type: "json" };
-import { readStackFileText, stackFileName, stackFileText } from "@frontend/features/stack-editor/lib/stack-file-io";
+import { readStackFileText, stackFileName, stackFileText } from "@frontend/features/stack-files";
 
 describe("stack files in and out of the editor", () => {
   it("imports the reference stack and exports it unchanged", () => {

@@ -11,9 +11,9 @@ import {
   renameInMetric,
   reorderElement,
   setAt,
-  starterStack,
   treeRows,
 } from "@frontend/features/stack-editor/lib/stack-ops";
+import { starterStack } from "@frontend/features/stack-files";
 
 const stack = reference as unknown as StackFile;
 const ids = (s: StackFile) => s.elements.map((e) => e.id);

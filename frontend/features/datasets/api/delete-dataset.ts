@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { projectKeys } from "@frontend/features/projects/api/keys";
+import { projectKeys } from "@frontend/features/projects";
 import { api } from "@frontend/lib/api-client";
 import { datasetKeys } from "./keys";
 

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { DatasetSchema, type Dataset, type UpdateMappings } from "@shared/schemas/datasets";
-import { projectKeys } from "@frontend/features/projects/api/keys";
+import { projectKeys } from "@frontend/features/projects";
 import { api } from "@frontend/lib/api-client";
 import { datasetKeys } from "./keys";
 

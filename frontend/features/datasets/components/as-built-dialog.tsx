@@ -6,9 +6,7 @@ import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Select } from "@frontend/components/ui/field";
-import { useCreateStudy } from "@frontend/features/studies/api/create-study";
-import { useStudies } from "@frontend/features/studies/api/get-studies";
-import { studyQueryOptions } from "@frontend/features/studies/api/get-study";
+import { studyQueryOptions, useCreateStudy, useStudies } from "@frontend/features/studies";
 import { isApiError } from "@frontend/lib/api-client";
 
 type Choice = { use: boolean; mode: AsBuiltEntry["mode"] };

@@ -5,7 +5,7 @@ import { Alert } from "@frontend/components/ui/alert";
 import { Badge } from "@frontend/components/ui/badge";
 import { Select } from "@frontend/components/ui/field";
 import { Spinner } from "@frontend/components/ui/spinner";
-import { axisLine, axisTick, FAIL, gridProps, INK, PASS } from "@frontend/features/studies/components/chart-theme";
+import { axisLine, axisTick, FAIL, gridProps, INK, PASS } from "@frontend/features/studies";
 import { isApiError } from "@frontend/lib/api-client";
 import { useDatasetStatistics } from "../api/get-dataset-statistics";
 import { formatIndex, formatMeasure, formatPpm, niceTicks, unitText, withUnit } from "../lib/format";

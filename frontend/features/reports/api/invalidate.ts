@@ -1,6 +1,6 @@
 import type { QueryClient } from "@tanstack/react-query";
 import type { Report } from "@shared/schemas/reports";
-import { projectKeys } from "@frontend/features/projects/api/keys";
+import { projectKeys } from "@frontend/features/projects";
 import { reportKeys } from "./keys";
 
 /** After any change to a report: its page, every list, the build options and the project's activity. */

@@ -44,7 +44,7 @@ export function BuildReportDialog({ projectId, open, onClose, onBuilt, studyId: 
     if (!studyId && eligible[0]) setStudyId(eligible[0].id);
   }, [studyId, eligible]);
   const study = studies.find((s) => s.id === studyId);
-  const suppliers = study?.suppliers ?? [];
+  const suppliers = useMemo(() => study?.suppliers ?? [], [study]);
   useEffect(() => {
     if (!study) return;
     if (!suppliers.some((s) => s.supplierId === supplierId)) {

@@ -1,6 +1,6 @@
 import { useNavigate } from "react-router";
 import type { Report, SendResult } from "@shared/schemas/reports";
-import { useSuppliers } from "@frontend/features/suppliers/api/get-suppliers";
+import { useSuppliers } from "@frontend/features/suppliers";
 import type { ReportDialogKind } from "../hooks/use-report-actions";
 import { BuildReportDialog } from "./build-report-dialog";
 import { AcknowledgeDialog, DiscardDialog, EditDraftDialog, ReleaseDialog, SendDialog } from "./report-dialogs";

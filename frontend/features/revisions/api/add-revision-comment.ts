@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { z } from "zod";
 import { CommentSchema, type Revision } from "@shared/schemas/revisions";
-import { projectKeys } from "@frontend/features/projects/api/keys";
+import { projectKeys } from "@frontend/features/projects";
 import { api } from "@frontend/lib/api-client";
 import { revisionKeys } from "./keys";
 

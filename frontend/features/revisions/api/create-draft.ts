@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { RevisionSchema, type Revision } from "@shared/schemas/revisions";
-import { projectKeys } from "@frontend/features/projects/api/keys";
+import { projectKeys } from "@frontend/features/projects";
 import { api } from "@frontend/lib/api-client";
 import { revisionKeys } from "./keys";
 

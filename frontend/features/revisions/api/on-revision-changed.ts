@@ -1,6 +1,6 @@
 import type { QueryClient } from "@tanstack/react-query";
 import type { Revision } from "@shared/schemas/revisions";
-import { projectKeys } from "@frontend/features/projects/api/keys";
+import { projectKeys } from "@frontend/features/projects";
 import { revisionKeys } from "./keys";
 
 /** After a state change (submit, approve, send back): the revision, its project's list and activity. */

@@ -15,10 +15,9 @@ import { Button } from "@frontend/components/ui/button";
 import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
 import { ChevronLeftIcon } from "@frontend/components/ui/icons";
 import { Spinner } from "@frontend/components/ui/spinner";
-import { useSuppliers } from "@frontend/features/suppliers/api/get-suppliers";
-import { RevisionStatusChip } from "@frontend/features/revisions/components/revision-status-chip";
+import { useSuppliers } from "@frontend/features/suppliers";
+import { RevisionStatusChip } from "@frontend/features/revisions";
 import { cn } from "@frontend/lib/cn";
-import { sentence } from "@frontend/lib/form";
 import { formatDateTime } from "@frontend/lib/format";
 import { can } from "@frontend/lib/permissions";
 import { useAutosave } from "../hooks/use-autosave";
@@ -41,7 +40,7 @@ import { SaveStatus } from "./save-status";
 import { StackFileActions } from "./stack-file-actions";
 import { ToleranceTable } from "./tolerance-table";
 
-const StackViewer = lazy(() => import("@frontend/features/viewer3d/components/stack-viewer"));
+const StackViewer = lazy(() => import("@frontend/features/viewer3d"));
 
 function docOf(revision: Revision): EditorDoc {
   return { stack: revision.stack as unknown as StackFile, requirements: revision.requirements as Requirement[] };
@@ -104,8 +103,11 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
     problems: localIssues.length,
     updatedAt: revision.updatedAt,
   });
-  const serverIssues = autosave.state.kind === "error" ? fromServerFields(autosave.state.fields) : [];
-  const issues = useMemo(() => indexIssues([...localIssues, ...serverIssues.filter((s) => !localIssues.some((l) => l.path === s.path))]), [localIssues, serverIssues]); // eslint-disable-line react-hooks/exhaustive-deps
+  const saveState = autosave.state;
+  const issues = useMemo(() => {
+    const serverIssues = saveState.kind === "error" ? fromServerFields(saveState.fields) : [];
+    return indexIssues([...localIssues, ...serverIssues.filter((s) => !localIssues.some((l) => l.path === s.path))]);
+  }, [localIssues, saveState]);
 
   const estimate = useLiveEstimate(doc.stack, doc.requirements, stackValid);
   const suppliersQuery = useSuppliers();

@@ -1,9 +1,8 @@
 import { useRef, useState } from "react";
 import type { Revision } from "@shared/schemas/revisions";
 import { Button } from "@frontend/components/ui/button";
-import { downloadText, MAX_IMPORT_BYTES, readStackFileText, stackFileName, stackFileText, type ImportIssue } from "../lib/stack-file-io";
+import { downloadText, ImportIssuesDialog, MAX_IMPORT_BYTES, readStackFileText, stackFileName, stackFileText, type ImportIssue } from "@frontend/features/stack-files";
 import { useEditor } from "./editor-context";
-import { ImportIssuesDialog } from "./import-issues-dialog";
 
 const ImportIcon = () => (
   <svg width="14" height="14" viewBox="0 0 16 16" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" aria-hidden="true">

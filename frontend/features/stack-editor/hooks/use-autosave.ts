@@ -6,7 +6,7 @@
  */
 import { useCallback, useEffect, useRef, useState } from "react";
 import { isApiError } from "@frontend/lib/api-client";
-import { useUpdateRevision } from "@frontend/features/revisions/api/update-revision";
+import { useUpdateRevision } from "@frontend/features/revisions";
 import type { EditorDoc } from "../lib/stack-ops";
 import { clearBackup, writeBackup } from "../lib/backup";
 

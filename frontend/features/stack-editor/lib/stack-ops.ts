@@ -239,12 +239,3 @@ export function renameElement(doc: EditorDoc, from: string, to: string): EditorD
   });
   return { stack: { ...doc.stack, elements }, requirements };
 }
-
-/** The stack a new, empty project starts from: a board only. */
-export function starterStack(name: string): StackFile {
-  return {
-    format: "orthostack.stack/1",
-    name,
-    elements: [{ id: "board", kind: "board", parent: null, size: { x: 40, y: 30, z: 1.0 } }],
-  };
-}

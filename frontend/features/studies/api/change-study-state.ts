@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { StudySummarySchema, type StudySummary } from "@shared/schemas/studies";
 import { api } from "@frontend/lib/api-client";
-import { projectKeys } from "@frontend/features/projects/api/keys";
+import { projectKeys } from "@frontend/features/projects";
 import { studyKeys } from "./keys";
 
 /** Cancel a queued or running study, or put an interrupted, failed or cancelled one back in the queue. */

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { StudySummarySchema, type CreateStudy, type StudySummary } from "@shared/schemas/studies";
 import { api } from "@frontend/lib/api-client";
-import { projectKeys } from "@frontend/features/projects/api/keys";
+import { projectKeys } from "@frontend/features/projects";
 import { studyKeys } from "./keys";
 
 export function createStudy({ revisionId, body }: { revisionId: string; body: CreateStudy }): Promise<StudySummary> {

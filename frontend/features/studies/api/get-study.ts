@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import { z } from "zod";
+import type { z } from "zod";
 import { ResultFileSchema } from "@shared/schemas/result-file";
 import { StudyFileObjectSchema } from "@shared/schemas/study-file";
 import { StudySchema, type StudyStatus } from "@shared/schemas/studies";

@@ -21,8 +21,8 @@ export function CrossAxisTables({
   elementOrder: string[];
 }) {
   const [pct, setPct] = useState<PercentileKey>("p9973");
-  const sensors = crossAxisSensors(result.metrics, elementOrder);
-  const matrices = useMemo(() => sensors.map((s) => crossAxisMatrix(result.metrics, s, pct)), [sensors.join(), result.metrics, pct]);
+  const sensors = useMemo(() => crossAxisSensors(result.metrics, elementOrder), [result.metrics, elementOrder]);
+  const matrices = useMemo(() => sensors.map((s) => crossAxisMatrix(result.metrics, s, pct)), [sensors, result.metrics, pct]);
   const scale = Math.max(...matrices.map((m) => m.max), 0);
   if (!sensors.length) return <p className="text-[13px] text-ink/55">This stack has no sensors.</p>;
   return (

@@ -26,7 +26,7 @@ import { metricLabel } from "@shared/metrics";
  */
 export function StudyResults({ study, result }: { study: StudyDetail; result: ResultFile }) {
   const stack = study.stack as unknown as StackFile;
-  const elements = (stack.elements ?? []) as { id: string; kind: string }[];
+  const elements = useMemo(() => (stack.elements ?? []) as { id: string; kind: string }[], [stack]);
   const elementOrder = useMemo(() => elements.map((e) => e.id), [elements]);
   const kinds = useMemo(() => new Map(elements.map((e) => [e.id, e.kind] as const)), [elements]);
   const kindOf = (id: string) => kinds.get(id);

@@ -7,7 +7,7 @@ import { Spinner } from "@frontend/components/ui/spinner";
 import { formatCount } from "../lib/format";
 
 // three.js stays in its own chunk until someone opens a trial.
-const StackViewer = lazy(() => import("@frontend/features/viewer3d/components/stack-viewer"));
+const StackViewer = lazy(() => import("@frontend/features/viewer3d"));
 
 export type WorstTrialPick = { metric: string; trialIndex: number; value: number; unit?: string };
 

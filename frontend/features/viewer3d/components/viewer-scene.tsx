@@ -74,6 +74,7 @@ export function ViewerScene(props: ViewerSceneProps) {
 
   // Materials depend on the element list only: a tolerance edit keeps them.
   const structureKey = stack.elements.map((e) => `${e.id}:${e.kind}`).join("|");
+  // eslint-disable-next-line react-hooks/exhaustive-deps -- structureKey stands for the element list
   const materials = useMemo(() => makeMaterials(stack), [structureKey]);
   useEffect(() => () => disposeMaterials(materials), [materials]);
 
@@ -108,6 +109,7 @@ export function ViewerScene(props: ViewerSceneProps) {
     }
     invalidate();
     // the materials follow the element list (structureKey), not every edit of the stack
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- see the line above
   }, [gl, materials, plane, sectionOn, invalidate]);
 
   // ---- hover and selection highlight
@@ -305,7 +307,8 @@ export function ViewerScene(props: ViewerSceneProps) {
     }
     invalidate();
     // the request alone triggers a move; later pose changes do not
-    }, [view.nonce, controls]);
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- see the line above
+  }, [view.nonce, controls]);
   useFrame((_, delta) => {
     const r = rig.current;
     if (!r.active || !controls) return;

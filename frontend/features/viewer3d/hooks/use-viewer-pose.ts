@@ -69,7 +69,7 @@ export function useViewerPose({ stack, study, worstTrials, trialIndex, onTrialCh
       const message = error instanceof Error ? error.message : String(error);
       return { set: poseSet(vm, drawn, drawsFor(vm, { kind: "nominal" })), poseError: `${message}: showing the nominal pose.` };
     }
-    // choiceKey stands for choice
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- choiceKey stands for choice (a new object on every render)
   }, [vm, drawn, choiceKey]);
 
   // ---- pose description

@@ -1,0 +1,108 @@
+/**
+ * Puts the server together from the parsed environment: the database, auth, mail, clock, the
+ * study queue, the demo seed steps, and what starts and stops with the process. `server.ts`
+ * uses `createRuntime(env)`; tests call `assembleRuntime` with their own parts.
+ */
+import { createAuth } from "./auth";
+import { openDatabase, type DatabaseHandle } from "./db/client";
+import { DEMO_SEED_STEPS } from "./demo/steps";
+import { systemClock, type AppDeps, type Clock, type Log } from "./deps";
+import { mailSettingsOf, type Env, type MailSettings } from "./lib/env";
+import { loadSecret } from "./lib/secret";
+import { seedDemo, type SeedStep } from "./seed";
+import { createMailService, type MailService } from "./services/mail";
+import { StudyQueue, type StudyRunner } from "./services/study-queue";
+import { engineRunner } from "./services/study-runner";
+
+/** Something that starts with the server and stops with it; stopped in reverse order. */
+export type Lifecycle = { name: string; start?: () => Promise<void> | void; stop?: () => Promise<void> | void };
+
+export type Runtime = {
+  deps: AppDeps;
+  handle: DatabaseHandle;
+  /** The demo seed's steps; null when the demo is not seeded (SEED_DEMO=false). */
+  seedSteps: readonly SeedStep[] | null;
+  lifecycle: Lifecycle[];
+};
+
+export type RuntimeParts = {
+  handle: DatabaseHandle;
+  auth: AppDeps["auth"];
+  baseURL: string;
+  log: Log;
+  clock?: Clock;
+  /** Settings to start a mail service from, or a service made already, or null for none. */
+  mail: MailSettings | MailService | null;
+  runner: StudyRunner;
+  seedSteps: readonly SeedStep[] | null;
+  /** Whether closing the runtime closes the database too (tests may reopen it). */
+  ownsDatabase?: boolean;
+};
+
+const isService = (m: MailSettings | MailService): m is MailService => "send" in m;
+
+/** Builds the deps from parts; starts the mail service (the catcher listens at once), nothing else. */
+export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
+  const { handle, log } = parts;
+  const mail = parts.mail === null ? null : isService(parts.mail) ? parts.mail : await createMailService(handle.db, parts.mail, log);
+  if (mail)
+    log(mail.mode === "catcher" ? `mail catcher on ${mail.address}: mail shows in the outbox` : `mail goes out through ${mail.address}`);
+  const studyQueue = new StudyQueue(handle.db, parts.runner, log);
+  const deps: AppDeps = {
+    db: handle.db,
+    auth: parts.auth,
+    baseURL: parts.baseURL,
+    log,
+    clock: parts.clock ?? systemClock,
+    mail,
+    studyQueue,
+  };
+  const lifecycle: Lifecycle[] = [
+    { name: "database", stop: parts.ownsDatabase === false ? undefined : () => handle.close() },
+    { name: "mail", stop: mail ? () => mail.close() : undefined },
+    { name: "study queue", start: () => studyQueue.start(), stop: () => studyQueue.stop() },
+  ];
+  return { deps, handle, seedSteps: parts.seedSteps, lifecycle };
+}
+
+/** The runtime of `npm start`: everything from the environment. */
+export async function createRuntime(env: Env, log: Log): Promise<Runtime> {
+  const handle = await openDatabase(env.DATABASE_URL ?? env.DATA_DIR);
+  const baseURL = env.APP_URL ?? `http://localhost:${env.PORT}`;
+  const auth = createAuth({
+    db: handle.db,
+    baseURL,
+    secret: loadSecret(env.DATA_DIR, env.BETTER_AUTH_SECRET),
+    trustedOrigins: env.TRUSTED_ORIGINS,
+    signInPerMinute: env.SIGN_IN_PER_MINUTE,
+  });
+  return assembleRuntime({
+    handle,
+    auth,
+    baseURL,
+    log,
+    mail: mailSettingsOf(env),
+    runner: engineRunner({ threads: env.STUDY_THREADS }),
+    seedSteps: env.SEED_DEMO ? DEMO_SEED_STEPS : null,
+  });
+}
+
+/** Seeds the demo (when asked), then starts each part in order. */
+export async function startRuntime(rt: Runtime): Promise<void> {
+  if (rt.seedSteps) {
+    const outcome = await seedDemo(rt.deps.db, rt.deps.auth, rt.seedSteps);
+    rt.deps.log(outcome === "seeded" ? "seeded the demo workspace" : "database has a workspace; demo seed skipped");
+  }
+  for (const part of rt.lifecycle) await part.start?.();
+}
+
+/** Stops each part in reverse order; one failing does not keep the others running. */
+export async function stopRuntime(rt: Runtime): Promise<void> {
+  for (const part of [...rt.lifecycle].reverse()) {
+    try {
+      await part.stop?.();
+    } catch (err) {
+      rt.deps.log(`stopping the ${part.name} failed`, err);
+    }
+  }
+}

@@ -1,0 +1,8 @@
+/** What other features use of revisions: the review and edit mutations and the status chip. */
+export { useAddRevisionComment } from "./api/add-revision-comment";
+export { useApproveRevision } from "./api/approve-revision";
+export { useCreateDraftFrom } from "./api/create-draft";
+export { useReturnRevision } from "./api/return-revision";
+export { useSubmitRevision } from "./api/submit-revision";
+export { useUpdateRevision, type UpdateRevisionInput } from "./api/update-revision";
+export { RevisionStatusChip, STATUS_LABEL } from "./components/revision-status-chip";

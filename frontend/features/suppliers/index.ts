@@ -1,0 +1,2 @@
+/** What other features use of suppliers: the workspace's supplier list. */
+export { suppliersQueryOptions, useSuppliers } from "./api/get-suppliers";
