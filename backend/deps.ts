@@ -1,6 +1,7 @@
 import type { Auth } from "./auth";
 import type { Database } from "./db/client";
 import type { MailService } from "./services/mail";
+import type { EnginePool } from "./engine/pool";
 import type { StudyQueue } from "./services/study-queue";
 
 /** Writes a line of the server's log; an error goes with the message it explains. */
@@ -23,6 +24,8 @@ export type AppDeps = {
   /** Outgoing mail (SMTP or the local catcher); null when the server runs without mail. */
   mail: MailService | null;
   studyQueue: StudyQueue;
+  /** The warm engine worker threads, created at start and stopped at shutdown; the queue runs on it. */
+  enginePool: EnginePool;
 };
 
 export const systemClock: Clock = () => new Date();

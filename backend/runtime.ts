@@ -13,6 +13,7 @@ import { seedDemo, type SeedStep } from "./seed";
 import { createMailService, type MailService } from "./services/mail";
 import { StudyQueue, type StudyRunner } from "./services/study-queue";
 import { engineRunner } from "./services/study-runner";
+import { ENGINE_NICE, EnginePool } from "./engine/pool";
 
 /** Something that starts with the server and stops with it; stopped in reverse order. */
 export type Lifecycle = { name: string; start?: () => Promise<void> | void; stop?: () => Promise<void> | void };
@@ -33,7 +34,10 @@ export type RuntimeParts = {
   clock?: Clock;
   /** Settings to start a mail service from, or a service made already, or null for none. */
   mail: MailSettings | MailService | null;
-  runner: StudyRunner;
+  /** Runs the queue's studies; default the engine pool below (tests may pass their own). */
+  runner?: StudyRunner;
+  /** Worker threads of the engine pool; default one per core. */
+  engineThreads?: number;
   seedSteps: readonly SeedStep[] | null;
   /** Whether closing the runtime closes the database too (tests may reopen it). */
   ownsDatabase?: boolean;
@@ -47,7 +51,9 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
   const mail = parts.mail === null ? null : isService(parts.mail) ? parts.mail : await createMailService(handle.db, parts.mail, log);
   if (mail)
     log(mail.mode === "catcher" ? `mail catcher on ${mail.address}: mail shows in the outbox` : `mail goes out through ${mail.address}`);
-  const studyQueue = new StudyQueue(handle.db, parts.runner, log);
+  // Warm worker threads for every study; niced, so the request thread keeps answering while they work.
+  const enginePool = new EnginePool({ threads: parts.engineThreads, nice: ENGINE_NICE, log });
+  const studyQueue = new StudyQueue(handle.db, parts.runner ?? engineRunner(enginePool), log);
   const deps: AppDeps = {
     db: handle.db,
     auth: parts.auth,
@@ -56,10 +62,12 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
     clock: parts.clock ?? systemClock,
     mail,
     studyQueue,
+    enginePool,
   };
   const lifecycle: Lifecycle[] = [
     { name: "database", stop: parts.ownsDatabase === false ? undefined : () => handle.close() },
     { name: "mail", stop: mail ? () => mail.close() : undefined },
+    { name: "engine pool", stop: () => enginePool.stop() },
     { name: "study queue", start: () => studyQueue.start(), stop: () => studyQueue.stop() },
   ];
   return { deps, handle, seedSteps: parts.seedSteps, lifecycle };
@@ -82,7 +90,7 @@ export async function createRuntime(env: Env, log: Log): Promise<Runtime> {
     baseURL,
     log,
     mail: mailSettingsOf(env),
-    runner: engineRunner({ threads: env.STUDY_THREADS }),
+    engineThreads: env.STUDY_THREADS,
     seedSteps: env.SEED_DEMO ? DEMO_SEED_STEPS : null,
   });
 }

@@ -50,6 +50,12 @@ export interface PoolRunOptions extends StudyOverrides {
   signal?: AbortSignal;
 }
 
+/**
+ * Niceness of the server's worker threads: at 10 a busy worker gets about a tenth of the CPU
+ * share of the request thread when both want the same core (Linux CFS weights 110 vs 1024).
+ */
+export const ENGINE_NICE = 10;
+
 /** In flight per worker: one running, one waiting, so a worker never idles between blocks. */
 const SLOTS = 2;
 /** A study whose blocks were on this many dying workers fails rather than loop. */

@@ -25,7 +25,7 @@ const EnvSchema = z.object({
   BETTER_AUTH_SECRET: z.string().min(32, "BETTER_AUTH_SECRET must be at least 32 characters").optional(),
   /** Sign-in attempts allowed per client address per minute. */
   SIGN_IN_PER_MINUTE: z.coerce.number().int().min(1).max(10000).default(10),
-  /** Worker threads per study; default: one per core. */
+  /** Worker threads of the engine pool (shared by every running study); default: one per core. */
   STUDY_THREADS: z.coerce.number().int().min(1).max(64).optional(),
   /** Seed the demo workspace when the database has no workspace yet. */
   SEED_DEMO: z

@@ -4,7 +4,12 @@ import { studies, studyResults } from "../db/schema";
 import { recordActivity } from "./activity";
 
 export type RunInput = { stack: Record<string, unknown>; study: Record<string, unknown> };
-export type RunOptions = { signal: AbortSignal; onProgress: (done: number, total: number) => void };
+export type RunOptions = {
+  signal: AbortSignal;
+  onProgress: (done: number, total: number) => void;
+  /** who asked (the study's creator): the engine pool shares its threads fairly between owners */
+  owner: string;
+};
 /** Runs one study to its result file (MODEL.md §11 plus plot data); rejects on failure. */
 export type StudyRunner = (input: RunInput, options: RunOptions) => Promise<{ result: Record<string, unknown>; passes: boolean | null }>;
 
@@ -16,20 +21,27 @@ export class CancelledError extends Error {
   }
 }
 
+/** Studies running at once; the engine pool shares its worker threads between them block by block. */
+export const MAX_RUNNING_STUDIES = 4;
+
 /**
- * Runs queued studies one at a time, oldest first, in worker threads (through the runner), so
- * the API never waits on a study. State lives in the database: a study marked running when the
- * server starts was cut off by a stop and becomes "interrupted".
+ * Runs queued studies, oldest first, in worker threads (through the runner), so the API never
+ * waits on a study. Several run at once (up to MAX_RUNNING_STUDIES), at most one per person,
+ * so one person's queue of long studies does not hold back another's short one; the runner's
+ * pool shares the threads between them. State lives in the database: a study marked running
+ * when the server starts was cut off by a stop and becomes "interrupted".
  */
 export class StudyQueue {
-  private current: { id: string; controller: AbortController; done: Promise<void> } | null = null;
+  private running = new Map<string, { owner: string; controller: AbortController; done: Promise<void> }>();
   private stopped = true;
   private kicking = false;
+  private kickAgain = false;
 
   constructor(
     private readonly db: Database,
     private readonly runner: StudyRunner,
     private readonly log: (m: string, e?: unknown) => void,
+    private readonly maxRunning = MAX_RUNNING_STUDIES,
   ) {}
 
   async start() {
@@ -43,24 +55,33 @@ export class StudyQueue {
 
   /** Looks for queued work; safe to call any number of times. */
   kick() {
-    if (this.stopped || this.current || this.kicking) return;
+    if (this.stopped) return;
+    if (this.kicking) {
+      this.kickAgain = true;
+      return;
+    }
     this.kicking = true;
     void this.next()
       .catch((e) => this.log("study queue error", e))
       .finally(() => {
         this.kicking = false;
+        if (this.kickAgain) {
+          this.kickAgain = false;
+          this.kick();
+        }
       });
   }
 
   isRunning(id: string) {
-    return this.current?.id === id;
+    return this.running.has(id);
   }
 
   /** Cancels a queued or running study; true when it was found in one of those states. */
   async cancel(id: string): Promise<boolean> {
-    if (this.current?.id === id) {
-      this.current.controller.abort();
-      await this.current.done;
+    const run = this.running.get(id);
+    if (run) {
+      run.controller.abort();
+      await run.done;
       return true;
     }
     const rows = await this.db
@@ -74,28 +95,30 @@ export class StudyQueue {
   /** Stops taking work and cancels the running study (server shutdown, tests). */
   async stop() {
     this.stopped = true;
-    if (this.current) {
-      this.current.controller.abort();
-      await this.current.done;
-    }
+    const runs = [...this.running.values()];
+    for (const r of runs) r.controller.abort();
+    await Promise.all(runs.map((r) => r.done));
   }
 
   /** Stops without writing anything, as a crash would (used to test the restart path). */
   abandon() {
     this.stopped = true;
-    const c = this.current;
-    this.current = null;
-    c?.controller.abort(new Error("abandoned"));
+    const runs = [...this.running.values()];
+    this.running.clear();
+    for (const r of runs) r.controller.abort(new Error("abandoned"));
   }
 
   private async next() {
-    while (!this.stopped && !this.current) {
-      const [job] = await this.db
-        .select({ id: studies.id, study: studies.study, stack: studies.stack, workspaceId: studies.workspaceId, projectId: studies.projectId, number: studies.number })
+    while (!this.stopped && this.running.size < this.maxRunning) {
+      const busy = new Set([...this.running.values()].map((r) => r.owner));
+      const queued = await this.db
+        .select({ id: studies.id, study: studies.study, stack: studies.stack, workspaceId: studies.workspaceId, projectId: studies.projectId, number: studies.number, createdBy: studies.createdBy })
         .from(studies)
         .where(eq(studies.status, "queued"))
         .orderBy(asc(studies.createdAt))
-        .limit(1);
+        .limit(this.maxRunning * 4);
+      // oldest first, skipping people who already have a study running
+      const job = queued.find((q) => !busy.has(q.createdBy ?? "") && !this.running.has(q.id));
       if (!job) return;
       const claimed = await this.db
         .update(studies)
@@ -103,16 +126,17 @@ export class StudyQueue {
         .where(and(eq(studies.id, job.id), eq(studies.status, "queued")))
         .returning({ id: studies.id });
       if (!claimed.length) continue;
+      const owner = job.createdBy ?? "";
       const controller = new AbortController();
-      const done = this.run(job, controller).finally(() => {
-        if (this.current?.id === job.id) this.current = null;
+      const entry = { owner, controller, done: Promise.resolve() };
+      this.running.set(job.id, entry);
+      entry.done = this.run(job, owner, controller).finally(() => {
+        if (this.running.get(job.id) === entry) this.running.delete(job.id);
       });
-      this.current = { id: job.id, controller, done };
-      await done;
     }
   }
 
-  private async run(job: { id: string; study: Record<string, unknown>; stack: Record<string, unknown>; workspaceId: string; projectId: string; number: number }, controller: AbortController) {
+  private async run(job: { id: string; study: Record<string, unknown>; stack: Record<string, unknown>; workspaceId: string; projectId: string; number: number }, owner: string, controller: AbortController) {
     const started = Date.now();
     let lastWrite = 0;
     let pending: Promise<unknown> = Promise.resolve();
@@ -129,7 +153,7 @@ export class StudyQueue {
       );
     };
     try {
-      const { result, passes } = await this.runner({ stack: job.stack, study: job.study }, { signal: controller.signal, onProgress });
+      const { result, passes } = await this.runner({ stack: job.stack, study: job.study }, { signal: controller.signal, onProgress, owner });
       await pending;
       if (controller.signal.aborted) throw new CancelledError();
       const seconds = (Date.now() - started) / 1000;
@@ -155,7 +179,7 @@ export class StudyQueue {
       });
     } catch (e) {
       await pending.catch(() => undefined);
-      if (this.stopped && !this.current) return; // abandoned: leave the row as a crash would
+      if (this.stopped && !this.running.has(job.id)) return; // abandoned: leave the row as a crash would
       const cancelled = controller.signal.aborted;
       await this.db
         .update(studies)

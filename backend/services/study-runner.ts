@@ -1,19 +1,19 @@
 import { validateStackFile } from "@shared/schemas/stack-file";
 import { validateStudy } from "@shared/schemas/study-file";
-import { runStudyOnThreads } from "../engine/runner";
+import type { EnginePool } from "../engine/pool";
 import type { StudyRunner } from "./study-queue";
 
-/** The engine's worker-thread runner behind the queue's interface. */
-export function engineRunner(opts: { threads?: number } = {}): StudyRunner {
-  return async (input, { signal, onProgress }) => {
+/** The warm engine pool behind the queue's interface. */
+export function engineRunner(pool: EnginePool): StudyRunner {
+  return async (input, { signal, onProgress, owner }) => {
     // Stored files were validated when they were written; parsing again gives the typed values
     // and catches a row that was edited by hand.
     const stack = validateStackFile(input.stack);
     if (!stack.ok) throw new Error(`The stored stack is not valid: ${stack.issues[0]?.path} ${stack.issues[0]?.message}`);
     const study = validateStudy(input.study, stack.stack);
     if (!study.ok) throw new Error(`The stored study is not valid: ${study.issues[0]?.path} ${study.issues[0]?.message}`);
-    const result = await runStudyOnThreads(stack.stack, study.study, {
-      threads: opts.threads,
+    const result = await pool.run(stack.stack, study.study, {
+      owner,
       signal,
       onProgress: (p) => onProgress(p.trialsDone, p.trialsTotal),
     });

@@ -12,7 +12,6 @@ import { mailSettings } from "@backend/lib/env";
 import { assembleRuntime, startRuntime, stopRuntime } from "@backend/runtime";
 import { DEMO_PASSWORD, type SeedStep } from "@backend/seed";
 import type { StudyRunner } from "@backend/services/study-queue";
-import { engineRunner } from "@backend/services/study-runner";
 
 export type TestApp = {
   url: string;
@@ -58,7 +57,8 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
     log,
     clock: opts.clock,
     mail: mailSettings(opts.mailEnv ?? {}),
-    runner: opts.runner ?? engineRunner({ threads: 2 }),
+    runner: opts.runner,
+    engineThreads: 2,
     seedSteps: opts.seed === false ? null : opts.keepDemoStudy ? DEMO_SEED_STEPS : [...DEMO_SEED_STEPS, cancelQueuedStudies],
     ownsDatabase: !opts.handle,
   });
@@ -114,6 +114,7 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
     call,
     crash: async () => {
       studyQueue.abandon();
+      await deps.enginePool.stop();
       await new Promise((r) => server.close(r));
     },
     close: async () => {
