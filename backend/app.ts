@@ -8,6 +8,7 @@ import { acceptBodies, sameOrigin } from "./middleware/request-guard";
 import { requireSession } from "./middleware/session";
 import { datasetsRouter, UPLOAD_PATHS } from "./routes/datasets";
 import { meRouter } from "./routes/me";
+import { notificationsRouter } from "./routes/notifications";
 import { membersRouter } from "./routes/members";
 import { projectsRouter } from "./routes/projects";
 import { publicRouter } from "./routes/public";
@@ -83,6 +84,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   // Data sets and reports both own paths under /reports/:id/.
   app.use("/api", datasetsRouter(deps));
   app.use("/api", reportsRouter(deps));
+  app.use("/api", notificationsRouter(deps));
   app.use("/api", notFoundApi);
 
   options.mountClient?.(app);

@@ -31,10 +31,12 @@ export const RIGHTS = [
   "reports.release",
   "reports.send",
   "reports.acknowledge",
+  /** one's own notifications and their e-mail settings */
+  "notifications.read",
 ] as const;
 export type Right = (typeof RIGHTS)[number];
 
-const STAFF_READ = ["projects.read", "revisions.comment", "suppliers.read", "reports.read", "reports.comment", "reports.send"] as const;
+const STAFF_READ = ["notifications.read", "projects.read", "revisions.comment", "suppliers.read", "reports.read", "reports.comment", "reports.send"] as const;
 
 /** The table: each role and the rights it holds. */
 export const ROLE_RIGHTS: Record<Role, readonly Right[]> = {
@@ -54,7 +56,7 @@ export const ROLE_RIGHTS: Record<Role, readonly Right[]> = {
   ],
   engineer: [...STAFF_READ, "projects.write", "revisions.write", "studies.run", "datasets.write", "datasets.send", "reports.write"],
   reviewer: [...STAFF_READ, "revisions.review", "reports.release"],
-  supplier: ["reports.read", "reports.comment", "reports.inbox", "reports.acknowledge", "datasets.send"],
+  supplier: ["notifications.read", "reports.read", "reports.comment", "reports.inbox", "reports.acknowledge", "datasets.send"],
 };
 
 export function can(role: Role, right: Right): boolean {

@@ -4,6 +4,7 @@
  * its CLI generates for the drizzle adapter; the rest are Orthostack's own.
  */
 import { relations, sql } from "drizzle-orm";
+import { NOTIFICATION_KINDS } from "@shared/schemas/notifications";
 import type { StackFile } from "@shared/schemas/stack-file";
 import { boolean, customType, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 
@@ -536,19 +537,6 @@ export const whatIfRuns = pgTable(
 );
 
 // ---- notifications ---------------------------------------------------------------------
-export const NOTIFICATION_KINDS = [
-  "revision.submitted",
-  "revision.returned",
-  "revision.approved",
-  "report.ready",
-  "report.returned",
-  "report.released",
-  "report.sent",
-  "report.question",
-  "report.acknowledged",
-  "report.measurements",
-] as const;
-
 /** Something waiting for one person: shown in the app, and mailed unless they turned that kind off. */
 export const notifications = pgTable(
   "notifications",

@@ -6,6 +6,7 @@ import type { AppDeps } from "../deps";
 import { badRequest, HttpError } from "../lib/errors";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
+import { notifyReport } from "../services/review-notifications";
 import {
   datasetFile,
   datasetStatistics,
@@ -45,7 +46,8 @@ const receiveFile: RequestHandler = (req, res, next) => {
 /** The routes that take a multipart file upload (every other route reads JSON only). */
 export const UPLOAD_PATHS = ["/projects/:id/datasets", "/reports/:id/datasets"] as const;
 
-export function datasetsRouter({ db }: AppDeps) {
+export function datasetsRouter(deps: AppDeps) {
+  const { db } = deps;
   const r = Router();
 
   r.get("/projects/:id/datasets", allow("projects.read"), async (req, res) => {
@@ -98,7 +100,9 @@ export function datasetsRouter({ db }: AppDeps) {
 
   r.post(UPLOAD_PATHS[1], allow("datasets.send"), receiveFile, async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.status(201).json(await uploadForReport(db, actorOf(req), id, req.file));
+    const dataset = await uploadForReport(db, actorOf(req), id, req.file);
+    if (actorOf(req).role === "supplier") await notifyReport(deps, actorOf(req), id, "measurements");
+    res.status(201).json(dataset);
   });
 
   return r;

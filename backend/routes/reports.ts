@@ -10,12 +10,13 @@ import {
   SendReportSchema,
   UpdateReportSchema,
 } from "@shared/schemas/reports";
-import { CommentBodySchema } from "@shared/schemas/revisions";
+import { CommentBodySchema, ReturnRevisionSchema } from "@shared/schemas/revisions";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
+import { notifyReport } from "../services/review-notifications";
 import { listOutbox, outboxAttachment } from "../services/outbox";
-import { acknowledgeReport, addReportComment, createReport, deleteReport, releaseReport, updateReport } from "../services/report-lifecycle";
+import { acknowledgeReport, addReportComment, createReport, deleteReport, releaseReport, returnReport, updateReport } from "../services/report-lifecycle";
 import { reportFile } from "../services/report-files";
 import { sendReport } from "../services/report-mail";
 import { getReport, listReports, reportOptions } from "../services/report-queries";
@@ -26,7 +27,8 @@ function disposition(name: string) {
   return `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(name)}`;
 }
 
-export function reportsRouter({ db, baseURL, mail }: AppDeps) {
+export function reportsRouter(deps: AppDeps) {
+  const { db, baseURL, mail } = deps;
   const r = Router();
 
   r.get("/projects/:id/report-options", allow("projects.read"), async (req, res) => {
@@ -37,7 +39,9 @@ export function reportsRouter({ db, baseURL, mail }: AppDeps) {
   r.post("/studies/:id/reports", allow("reports.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateReportSchema, req);
-    res.status(201).json(await createReport(db, actorOf(req), id, input, baseURL));
+    const report = await createReport(db, actorOf(req), id, input, baseURL);
+    await notifyReport(deps, actorOf(req), report.id, "ready");
+    res.status(201).json(report);
   });
 
   r.get("/reports", allow("reports.read"), async (req, res) => {
@@ -65,25 +69,41 @@ export function reportsRouter({ db, baseURL, mail }: AppDeps) {
   r.post("/reports/:id/release", allow("reports.release"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(ReleaseReportSchema, req);
-    res.json(await releaseReport(db, actorOf(req), id, comment, baseURL));
+    const report = await releaseReport(db, actorOf(req), id, comment, baseURL);
+    await notifyReport(deps, actorOf(req), id, "released", comment);
+    res.json(report);
+  });
+
+  r.post("/reports/:id/return", allow("reports.release"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const { comment } = parse(ReturnRevisionSchema, req);
+    const report = await returnReport(db, actorOf(req), id, comment, baseURL);
+    await notifyReport(deps, actorOf(req), id, "returned", comment);
+    res.json(report);
   });
 
   r.post("/reports/:id/send", allow("reports.send"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { message } = parse(SendReportSchema, req);
-    res.json(await sendReport(db, mail, actorOf(req), id, message, baseURL));
+    const result = await sendReport(db, mail, actorOf(req), id, message, baseURL);
+    await notifyReport(deps, actorOf(req), id, "sent");
+    res.json(result);
   });
 
   r.post("/reports/:id/acknowledge", allow("reports.acknowledge"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(AcknowledgeReportSchema, req);
-    res.json(await acknowledgeReport(db, actorOf(req), id, comment, baseURL));
+    const report = await acknowledgeReport(db, actorOf(req), id, comment, baseURL);
+    await notifyReport(deps, actorOf(req), id, "acknowledged", comment);
+    res.json(report);
   });
 
   r.post("/reports/:id/comments", allow("reports.comment"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { body } = parse(CommentBodySchema, req);
-    res.status(201).json({ comments: await addReportComment(db, actorOf(req), id, body) });
+    const comments = await addReportComment(db, actorOf(req), id, body);
+    if (actorOf(req).role === "supplier") await notifyReport(deps, actorOf(req), id, "question", body);
+    res.status(201).json({ comments });
   });
 
   for (const kind of REPORT_FILE_KINDS) {

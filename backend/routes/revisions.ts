@@ -4,6 +4,7 @@ import { IdParamsSchema } from "@shared/schemas/common";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
+import { notifyRevision } from "../services/review-notifications";
 import {
   addRevisionComment,
   createRevision,
@@ -17,7 +18,8 @@ import {
 
 const safeFileName = (s: string) => s.replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 80) || "stack";
 
-export function revisionsRouter({ db }: AppDeps) {
+export function revisionsRouter(deps: AppDeps) {
+  const { db } = deps;
   const r = Router();
 
   r.get("/projects/:id/revisions", allow("projects.read"), async (req, res) => {
@@ -50,19 +52,25 @@ export function revisionsRouter({ db }: AppDeps) {
   r.post("/revisions/:id/submit", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { note } = parse(SubmitRevisionSchema, req);
-    res.json(await transitionRevision(db, actorOf(req), id, "submit", undefined, note));
+    const revision = await transitionRevision(db, actorOf(req), id, "submit", undefined, note);
+    await notifyRevision(deps, actorOf(req), id, "submit");
+    res.json(revision);
   });
 
   r.post("/revisions/:id/approve", allow("revisions.review"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const body = req.body && typeof req.body === "object" && "comment" in req.body ? parse(ReturnRevisionSchema, req) : undefined;
-    res.json(await transitionRevision(db, actorOf(req), id, "approve", body?.comment));
+    const revision = await transitionRevision(db, actorOf(req), id, "approve", body?.comment);
+    await notifyRevision(deps, actorOf(req), id, "approve", body?.comment);
+    res.json(revision);
   });
 
   r.post("/revisions/:id/return", allow("revisions.review"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(ReturnRevisionSchema, req);
-    res.json(await transitionRevision(db, actorOf(req), id, "return", comment));
+    const revision = await transitionRevision(db, actorOf(req), id, "return", comment);
+    await notifyRevision(deps, actorOf(req), id, "return", comment);
+    res.json(revision);
   });
 
   r.post("/revisions/:id/comments", allow("revisions.comment"), async (req, res) => {

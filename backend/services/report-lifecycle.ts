@@ -284,3 +284,21 @@ export async function addReportComment(db: Database, actor: Actor, id: string, b
   const releasedAt = row.releasedAt?.getTime() ?? Infinity;
   return question ? all.filter((c) => c.kind !== "released" && Date.parse(c.createdAt) >= releasedAt) : all;
 }
+
+/** A reviewer sends a draft back with what must change; it stays a draft, the comment is kept. */
+export async function returnReport(db: Database, actor: Actor, id: string, comment: string, baseURL: string) {
+  const row = await visibleRow(db, actor, id);
+  assertDraft(row);
+  await db.transaction(async (tx) => {
+    await tx.insert(comments).values({ workspaceId: actor.workspaceId, projectId: row.projectId, targetType: "report", targetId: id, authorId: actor.userId, kind: "returned", body: comment });
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId: row.projectId,
+      actorId: actor.userId,
+      action: "report.returned",
+      summary: `sent the draft of ${reportLabel(row)} back: “${comment.slice(0, 140)}”`,
+      data: { reportId: id },
+    });
+  });
+  return getReport(db, actor, id, baseURL);
+}

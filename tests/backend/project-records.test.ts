@@ -25,7 +25,8 @@ beforeAll(async () => {
   const [s] = await t.handle.db.select().from(suppliers).where(eq(suppliers.name, "Larkfield Assembly"));
   workspaceId = s.workspaceId;
   supplierId = s.id;
-});
+  // the harness migrates and seeds a fresh database: slow on a busy machine
+}, 180_000);
 afterAll(() => t?.close());
 
 async function project(kept: "none" | "approved" | "released" | "acknowledged") {

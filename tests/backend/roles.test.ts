@@ -231,6 +231,7 @@ export const ROUTES: Row[] = [
   { route: "PATCH /api/reports/:id", allowed: WRITERS, path: async (c) => `/api/reports/${await freshReport(c)}`, body: () => ({ note: "changed" }) },
   { route: "DELETE /api/reports/:id", allowed: WRITERS, path: async (c) => `/api/reports/${await freshReport(c)}` },
   { route: "POST /api/reports/:id/release", allowed: REVIEWERS, path: async (c) => `/api/reports/${await freshReport(c)}/release` },
+  { route: "POST /api/reports/:id/return", allowed: REVIEWERS, path: async (c) => `/api/reports/${await freshReport(c)}/return`, body: () => ({ comment: "Ask Cpk 1.67 on the mag yaw." }) },
   { route: "POST /api/reports/:id/send", allowed: STAFF, path: async (c) => `/api/reports/${await releasedReport(c)}/send` },
   { route: "POST /api/reports/:id/acknowledge", allowed: ["supplier"], path: async (c) => `/api/reports/${await freshReport(c, "released")}/acknowledge` },
   { route: "POST /api/reports/:id/comments", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}/comments`, body: () => ({ body: "Which side is the datum?" }) },
@@ -254,6 +255,10 @@ export const ROUTES: Row[] = [
   // a supplier only through a released report of its own company (other companies' reports: tests/backend/datasets.test.ts)
   { route: "GET /api/reports/:id/datasets", allowed: EVERYONE, path: async (c) => `/api/reports/${await freshReleasedReport(c)}/datasets` },
   { route: "POST /api/reports/:id/datasets", allowed: ["admin", "engineer", "supplier"], path: async (c) => `/api/reports/${await freshReleasedReport(c)}/datasets`, upload: MEASUREMENTS },
+  { route: "GET /api/notifications", allowed: EVERYONE },
+  { route: "POST /api/notifications/read", allowed: EVERYONE, body: () => ({}) },
+  { route: "GET /api/notification-settings", allowed: EVERYONE },
+  { route: "PUT /api/notification-settings", allowed: EVERYONE, body: () => ({ email: { "report.sent": false } }) },
 ];
 
 let t: TestApp;

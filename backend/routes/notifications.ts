@@ -1,0 +1,31 @@
+import { Router } from "express";
+import { MarkReadSchema, UpdateNotificationSettingsSchema } from "@shared/schemas/notifications";
+import type { AppDeps } from "../deps";
+import { parse } from "../lib/validate";
+import { actorOf, allow } from "../middleware/session";
+import { listNotifications, markRead, notificationSettings, updateNotificationSettings } from "../services/notifications";
+
+/** Everyone signed in has their own notifications and settings; nobody sees another's. */
+export function notificationsRouter({ db }: AppDeps) {
+  const r = Router();
+
+  r.get("/notifications", allow("notifications.read"), async (req, res) => {
+    res.json(await listNotifications(db, actorOf(req)));
+  });
+
+  r.post("/notifications/read", allow("notifications.read"), async (req, res) => {
+    const { ids } = parse(MarkReadSchema, req);
+    res.json(await markRead(db, actorOf(req), ids));
+  });
+
+  r.get("/notification-settings", allow("notifications.read"), async (req, res) => {
+    res.json(await notificationSettings(db, actorOf(req)));
+  });
+
+  r.put("/notification-settings", allow("notifications.read"), async (req, res) => {
+    const { email } = parse(UpdateNotificationSettingsSchema, req);
+    res.json(await updateNotificationSettings(db, actorOf(req), email));
+  });
+
+  return r;
+}
