@@ -174,7 +174,7 @@ export function formatRate(rate: number | null | undefined): string {
 /** A file size: "512 B", "3.4 kB", "1.2 MB". */
 export function formatBytes(n: number): string {
   if (n < 1024) return `${n} B`;
-  if (n < 1024 * 1024) return `${(n / 1024).toFixed(1)} kB`;
+  if (n < 1024 * 1024) return `${(n / 1024).toFixed(n < 10 * 1024 ? 1 : 0)} kB`;
   return `${(n / 1048576).toFixed(1)} MB`;
 }
 

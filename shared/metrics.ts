@@ -4,6 +4,7 @@
  * unit and group from. Ids: `<sensor>.crossAxisPct.<ij>`, `<sensor>.crossAxisTotalPct.<i>`,
  * `<sensor>.axisMisalignDeg.<i>`, `<element>.tiltDeg`, `<a>~<b>.relRotDeg`, `heading.*`.
  */
+import { unitText } from "./format";
 
 export type MetricKind = "heading" | "crossAxis" | "crossAxisTotal" | "misalign" | "tilt" | "relRot" | "other";
 
@@ -47,8 +48,6 @@ export function parseMetric(id: string): MetricParts {
   if (tilt) return { id, kind: "tilt", element: tilt[1] };
   return { id, kind: "other", element: id };
 }
-
-export const UNIT_SYMBOL: Record<MetricUnit, string> = { "%": "%", deg: "°" };
 
 export function metricUnit(id: string): MetricUnit {
   const kind = parseMetric(id).kind;
@@ -104,7 +103,7 @@ export function metricGroup(id: string): string {
 
 export function metricInfo(id: string): MetricInfo {
   const unit = metricUnit(id);
-  return { id, label: metricLabel(id), shortLabel: metricShortLabel(id), unit, unitSymbol: UNIT_SYMBOL[unit], group: metricGroup(id) };
+  return { id, label: metricLabel(id), shortLabel: metricShortLabel(id), unit, unitSymbol: unitText(unit), group: metricGroup(id) };
 }
 
 const KIND_ORDER: MetricKind[] = ["heading", "crossAxisTotal", "crossAxis", "misalign", "relRot", "tilt", "other"];

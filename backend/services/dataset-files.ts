@@ -10,6 +10,7 @@ import { DATASET_MAX_COLUMNS, DATASET_MAX_ROWS, DATASET_PREVIEW_ROWS } from "@sh
 import { parseHeader, type MeasureUnit } from "@shared/datasets/units";
 import { summarize } from "@shared/datasets/statistics";
 import { badRequest, HttpError, type FieldError } from "../lib/errors";
+import { formatCount } from "@shared/format";
 
 /** Refuse a workbook whose parts unpack to more than this (a small zip can hold a huge sheet). */
 const MAX_XLSX_UNPACKED = 120 * 1024 * 1024;
@@ -289,7 +290,7 @@ async function readXlsx(buf: Buffer): Promise<RawTable> {
 }
 
 const tooManyRows = () =>
-  invalid(`The file has more than ${DATASET_MAX_ROWS.toLocaleString("en-US")} data rows, the most one data set may hold. Nothing was stored.`, undefined, "too_many_rows");
+  invalid(`The file has more than ${formatCount(DATASET_MAX_ROWS)} data rows, the most one data set may hold. Nothing was stored.`, undefined, "too_many_rows");
 
 // ---------------------------------------------------------------- the file as a whole
 

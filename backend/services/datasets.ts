@@ -3,7 +3,8 @@ import { and, desc, eq, inArray } from "drizzle-orm";
 import type { Dataset, DatasetColumn, DatasetStatistics, DatasetSummary, UpdateMappings } from "@shared/schemas/datasets";
 import { findSource, toleranceLimits } from "@shared/datasets/sources";
 import { andersonDarling, AD_MIN_N, capability, histogram, outliers, OUTLIER_LIMIT, summarize } from "@shared/datasets/statistics";
-import { conversionFactor, UNIT_TEXT, unitKind, type MeasureUnit, type SourceUnit } from "@shared/datasets/units";
+import { conversionFactor, unitKind, type MeasureUnit, type SourceUnit } from "@shared/datasets/units";
+import { formatCount, unitText } from "@shared/format";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
 import { datasetMappings, datasets, projects, reports, stackRevisions, suppliers, users } from "../db/schema";
@@ -162,7 +163,7 @@ async function storeUpload(db: Database, actor: Actor, projectId: string, file: 
       projectId,
       actorId: actor.userId,
       action: "dataset.uploaded",
-      summary: `${origin.via ? "sent" : "uploaded"} the data set “${name}” (${parsed.rowNumbers.length.toLocaleString("en-US")} rows, ${numeric} measured ${numeric === 1 ? "column" : "columns"})${origin.via ?? ""}`,
+      summary: `${origin.via ? "sent" : "uploaded"} the data set “${name}” (${formatCount(parsed.rowNumbers.length)} rows, ${numeric} measured ${numeric === 1 ? "column" : "columns"})${origin.via ?? ""}`,
       data: { datasetId: row.id, ...(origin.reportId ? { reportId: origin.reportId } : {}) },
     });
     return row.id;
@@ -251,7 +252,7 @@ export async function updateMappings(db: Database, actor: Actor, id: string, inp
     if (!unit) return void fields.push({ path: at("unit"), message: `“${m.column}” has no unit in its header: give one of um, mm, deg, mrad, arcmin` });
     if (conversionFactor(unit, src.unit) === null) {
       const what = src.unit === "um" ? "a height or offset in µm" : "an angle in degrees";
-      return void fields.push({ path: at("unit"), message: `${m.source} is ${what}; a column in ${UNIT_TEXT[unit]} cannot measure it` });
+      return void fields.push({ path: at("unit"), message: `${m.source} is ${what}; a column in ${unitText(unit)} cannot measure it` });
     }
     planned.push({ column: m.column, revisionId: rev.id, source: m.source, unit, nominal: m.nominal ?? 0 });
   });
@@ -266,7 +267,7 @@ export async function updateMappings(db: Database, actor: Actor, id: string, inp
     const set = planned.filter((p) => p.source !== null);
     const cleared = planned.filter((p) => p.source === null);
     const parts = [
-      ...set.map((p) => `“${p.column}” → ${p.source} (rev ${revs.find((r) => r.id === p.revisionId)!.number}, ${UNIT_TEXT[p.unit]})`),
+      ...set.map((p) => `“${p.column}” → ${p.source} (rev ${revs.find((r) => r.id === p.revisionId)!.number}, ${unitText(p.unit)})`),
       ...cleared.map((p) => `“${p.column}” unmapped`),
     ];
     await recordActivity(tx, {
@@ -310,7 +311,7 @@ export async function datasetFile(db: Database, workspaceId: string, id: string)
  */
 export function convertedValues(raw: number[], unit: MeasureUnit, nominal: number, to: SourceUnit): { values: number[]; factor: number } {
   const factor = conversionFactor(unit, to);
-  if (factor === null) throw badRequest(`A column in ${UNIT_TEXT[unit]} cannot measure a source in ${UNIT_TEXT[to]}.`, undefined, "invalid_mapping");
+  if (factor === null) throw badRequest(`A column in ${unitText(unit)} cannot measure a source in ${unitText(to)}.`, undefined, "invalid_mapping");
   return { values: raw.map((v) => (v - nominal) * factor), factor };
 }
 
@@ -391,7 +392,7 @@ export async function columnForSource(
     throw badRequest(`Column “${column}” has no unit.`, [{ path: `${path}.column`, message: `give “${column}” a unit by mapping it to ${source}` }], "invalid_as_built");
   }
   if (conversionFactor(unit, sourceUnit) === null) {
-    throw badRequest(`Column “${column}” is in ${UNIT_TEXT[unit]}; ${source} is in ${UNIT_TEXT[sourceUnit]}.`, [{ path: `${path}.column`, message: `a column in ${UNIT_TEXT[unit]} cannot replace ${source}` }], "invalid_as_built");
+    throw badRequest(`Column “${column}” is in ${unitText(unit)}; ${source} is in ${unitText(sourceUnit)}.`, [{ path: `${path}.column`, message: `a column in ${unitText(unit)} cannot replace ${source}` }], "invalid_as_built");
   }
   const { values } = convertedValues(ds.data[column] as number[], unit, m?.nominal ?? 0, sourceUnit);
   return { name: ds.name, values };

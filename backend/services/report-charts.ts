@@ -1,7 +1,7 @@
 /** The report's figures drawn as vector graphics: contributors, heading envelope, stack side view. */
 import type { ReportContent } from "@shared/schemas/reports";
 import { box, COLOURS, FAINT, INK, LINE, MUTED, rule, text, type Doc } from "./pdf-draw";
-import { sig } from "./report-format";
+import { formatNumber, formatShare } from "@shared/format";
 
 export const OURS = COLOURS.mag;
 const OTHERS = "#b9c0c9";
@@ -34,7 +34,7 @@ export function contributorChart(doc: Doc, c: Chart, x: number, y: number, w: nu
     text(doc, b.label, x, cy + 1.5, { size: 7.5, weight: b.ours ? "bold" : "regular", color: b.rest ? FAINT : b.ours ? INK : MUTED, width: labelW - 8 });
     const bw = Math.max(0.8, (b.share / max) * barW);
     box(doc, barX, cy + 1, bw, 9.5, { fill: b.ours ? OURS : b.rest ? "#e3dfd5" : OTHERS, radius: 1.2 });
-    text(doc, b.share < 0.0005 ? "< 0.1 %" : `${(b.share * 100).toFixed(b.share < 0.1 ? 1 : 0)} %`, barX + barW + 4, cy + 1.5, { size: 7.5, weight: b.ours ? "bold" : "regular", width: valueW - 4, align: "right", color: b.ours ? INK : MUTED });
+    text(doc, formatShare(b.share), barX + barW + 4, cy + 1.5, { size: 7.5, weight: b.ours ? "bold" : "regular", width: valueW - 4, align: "right", color: b.ours ? INK : MUTED });
     cy += 15;
   }
 }
@@ -70,7 +70,7 @@ export function envelopeChart(doc: Doc, env: NonNullable<ReportContent["envelope
     const yy = py(v);
     if (Math.abs(v) < step / 1000) rule(doc, plotX, yy, plotX + plotW, "#a9a293", 0.6);
     else rule(doc, plotX, yy, plotX + plotW, "#ebe7de", 0.4);
-    text(doc, `${sig(v, 2)}°`, x, yy - 3.5, { size: 6.5, color: MUTED, width: 34, align: "right" });
+    text(doc, `${formatNumber(v, 2)}°`, x, yy - 3.5, { size: 6.5, color: MUTED, width: 34, align: "right" });
   }
   for (let hd = 0; hd <= 360; hd += 45) {
     const xx = px(hd);
@@ -116,7 +116,7 @@ export function envelopeChart(doc: Doc, env: NonNullable<ReportContent["envelope
     }
   }
   doc.restore();
-  if (limit !== null) text(doc, `limit ±${sig(limit, 3)}°`, plotX + plotW - 84, py(limit) - 10, { size: 6.5, weight: "bold", color: COLOURS.fail, width: 80, align: "right" });
+  if (limit !== null) text(doc, `limit ±${formatNumber(limit, 3)}°`, plotX + plotW - 84, py(limit) - 10, { size: 6.5, weight: "bold", color: COLOURS.fail, width: 80, align: "right" });
 
   // legend
   let lx = plotX;
@@ -208,7 +208,7 @@ export function sideView(doc: Doc, stack: El[], x: number, y: number, w: number,
   doc.moveTo(bx0, by).lineTo(bx1, by).lineTo(bx1 - 4, by + boardH / 2).lineTo(bx1, by + boardH).lineTo(bx0, by + boardH).lineTo(bx0 + 4, by + boardH / 2).closePath();
   doc.fillOpacity(0.9).fill(KIND_COLOUR.board);
   doc.restore();
-  text(doc, `${board.e.id} (board, ${sig(board.e.size.z, 2)} mm, drawn cut)`, bx0 + 8, by + boardH / 2 - 3.5, { size: 6.5, color: "#e9efe9" });
+  text(doc, `${board.e.id} (board, ${formatNumber(board.e.size.z, 2)} mm, drawn cut)`, bx0 + 8, by + boardH / 2 - 3.5, { size: 6.5, color: "#e9efe9" });
 
   const labels: Array<{ p: Placed; yMid: number }> = [];
   for (const p of rest.sort((a, b) => a.depth - b.depth)) {
@@ -232,10 +232,10 @@ export function sideView(doc: Doc, stack: El[], x: number, y: number, w: number,
     lastY = ly + (l.p.e.sources.length ? 18 : 11);
     doc.save().moveTo(X(l.p.x1) + 1, l.yMid).lineTo(lx - 4, ly + 4).lineWidth(0.4).strokeColor("#a9a293").stroke().restore();
     const ours = l.p.e.sources.length > 0;
-    text(doc, `${l.p.e.id}  ·  ${l.p.e.kind}, ${sig(l.p.e.size.z * 1000, 3)} µm`, lx, ly, { size: 6.8, weight: ours ? "bold" : "regular", color: ours ? INK : MUTED, width: labelW - 6 });
+    text(doc, `${l.p.e.id}  ·  ${l.p.e.kind}, ${formatNumber(l.p.e.size.z * 1000, 3)} µm`, lx, ly, { size: 6.8, weight: ours ? "bold" : "regular", color: ours ? INK : MUTED, width: labelW - 6 });
     if (ours) text(doc, l.p.e.sources.map((s) => s.slice(l.p.e.id.length + 1)).join(", "), lx, ly + 8.5, { size: 6.2, color: OURS, width: labelW - 6 });
   }
   const ptPerMm = 72 / 25.4;
-  const scale = `scale about ${sig(sx / ptPerMm, 2)} : 1 across; heights a further ${sig(sz / sx, 2)}× exaggerated`;
+  const scale = `scale about ${formatNumber(sx / ptPerMm, 2)} : 1 across; heights a further ${formatNumber(sz / sx, 2)}× exaggerated`;
   text(doc, scale, x + 8, y + 6, { size: 6, color: FAINT });
 }

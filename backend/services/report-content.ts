@@ -6,7 +6,8 @@
 import { z } from "zod";
 import { capabilityAsk } from "@shared/reports/capability";
 import { REPORT_CAUTIONS } from "@shared/reports/cautions";
-import { metricLabel, metricUnit, UNIT_SYMBOL } from "@shared/metrics";
+import { unitText } from "@shared/format";
+import { metricLabel, metricUnit } from "@shared/metrics";
 import { matchOwner, toleranceSources, type ToleranceSource } from "@shared/reports/sources";
 import { ContributorsSchema, EnvelopeSchema, RequirementResultSchema } from "@shared/schemas/result-file";
 import type { ReportContent, ReportRequirement, ReportTolerance } from "@shared/schemas/reports";
@@ -109,7 +110,7 @@ export function buildReportContent(input: ReportInputs, builtAt = new Date()): R
     return {
       metric: r.metric,
       description: metricLabel(r.metric),
-      unit: UNIT_SYMBOL[metricUnit(r.metric)],
+      unit: unitText(metricUnit(r.metric)),
       max: r.max,
       yield: r.yield,
       predictedYield: r.predictedYield,

@@ -11,10 +11,11 @@ import { reportDownloads, reportFiles, users } from "../db/schema";
 import { found } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
-import { reportCode, safeFileName } from "./report-format";
 import { renderReportPdf, type ReportMeta } from "./report-pdf";
 import { iso, reportLabel, reportLink, visibleRow, type ReportRow } from "./report-queries";
 import { renderReportCsv, renderReportXlsx } from "./report-sheets";
+import { safeFileName } from "./report-format";
+import { reportCode } from "@shared/reports/format";
 
 export const FILE_TYPES: Record<ReportFileKind, string> = {
   pdf: "application/pdf",

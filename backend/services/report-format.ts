@@ -1,5 +1,4 @@
-/** Formatting for the report files: the shared number formats, plus dates in UTC and file names. */
-export { distLabel, pct, plain, reportCode, sig, sigUnit, unitOf, withUnit } from "@shared/reports/format";
+/** Dates in UTC and file names for the report files (numbers: shared/format.ts; names: shared/reports/format.ts). */
 
 const dateFmt = new Intl.DateTimeFormat("en-GB", { year: "numeric", month: "short", day: "2-digit", timeZone: "UTC" });
 const dateTimeFmt = new Intl.DateTimeFormat("en-GB", { year: "numeric", month: "short", day: "2-digit", hour: "2-digit", minute: "2-digit", timeZone: "UTC" });

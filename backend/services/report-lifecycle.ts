@@ -14,11 +14,11 @@ import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
 import { buildReportContent } from "./report-content";
 import { FILE_TYPES, fileName, metaFor, render, sha256 } from "./report-files";
-import { reportCode } from "./report-format";
 import { getReport, reportLabel, visibleRow, type ReportRow } from "./report-queries";
 import { listComments } from "./revisions";
 import { getStudy } from "./studies";
 import { getSupplier } from "./suppliers";
+import { reportCode } from "@shared/reports/format";
 
 const approver = alias(users, "revision_approver");
 

@@ -8,12 +8,13 @@ import { conflict, found, HttpError } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { requireMail, type MailService } from "./mail";
-import { reportCode } from "./report-format";
 import { getReport, reportLabel, reportLink, visibleRow } from "./report-queries";
+import { reportCode } from "@shared/reports/format";
+import { formatIndex } from "@shared/format";
 
 function mailBody(opts: { contact: string; workspace: string; sender: string; code: string; revision: number; c: ReportContent; link: string; sha: string; message?: string }) {
   const { c } = opts;
-  const cpk = `Cpk ≥ ${c.capability.cpk.toFixed(2)}${Object.keys(c.capability.overrides).length || c.tolerances.some((t) => t.raised) ? " (some tolerances ask more; see the table)" : ""}`;
+  const cpk = `Cpk ≥ ${formatIndex(c.capability.cpk)}${Object.keys(c.capability.overrides).length || c.tolerances.some((t) => t.raised) ? " (some tolerances ask more; see the table)" : ""}`;
   const lines = [
     `Hello ${opts.contact},`,
     "",

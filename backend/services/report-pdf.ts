@@ -6,7 +6,9 @@
 import type { ReportContent } from "@shared/schemas/reports";
 import { contributorChart, contributorChartHeight, envelopeChart, OURS, sideView } from "./report-charts";
 import { box, COLOURS, createDoc, FAINT, finish, INK, LINE, measure, MUTED, PAPER, paragraph, rule, text, type Doc } from "./pdf-draw";
-import { distLabel, fmtDate, fmtDateTime, pct, sig, sigUnit, withUnit } from "./report-format";
+import { formatCount, formatFraction, formatIndex, formatNumber, formatNumberUnit, formatShare, formatWritten, formatYieldRange } from "@shared/format";
+import { fmtDate, fmtDateTime } from "./report-format";
+import { distLabel } from "@shared/reports/format";
 
 export type ReportMeta = {
   code: string;
@@ -109,12 +111,12 @@ function cover(l: Layout, c: ReportContent, meta: ReportMeta) {
     ["Stack revision", `${c.revision.number}${c.revision.name ? ` — ${c.revision.name}` : ""}`],
     ["Approved", c.revision.approvedAt ? `${fmtDate(c.revision.approvedAt)}${c.revision.approvedByName ? ` by ${c.revision.approvedByName}` : ""}` : "—"],
     ["Study", `${c.study.number}${c.study.label ? ` — ${c.study.label}` : ""}`],
-    ["Trials and seed", `${c.study.trials.toLocaleString("en-US")} trials, seed ${c.study.seed}`],
+    ["Trials and seed", `${formatCount(c.study.trials)} trials, seed ${c.study.seed}`],
     ["Report", `${meta.code}, revision ${meta.revision}`],
     ["Status", meta.status === "released" ? `Released ${fmtDate(meta.releasedAt)}${meta.releasedByName ? ` by ${meta.releasedByName}` : ""}` : "Draft: not released, not for production"],
     ["Date", fmtDate(meta.status === "released" ? meta.releasedAt : meta.createdAt)],
     ["Prepared by", meta.createdByName ?? "—"],
-    ["Capability asked", `Cpk ≥ ${c.capability.cpk.toFixed(2)}${Object.keys(c.capability.overrides).length ? " (some tolerances differ)" : ""}`],
+    ["Capability asked", `Cpk ≥ ${formatIndex(c.capability.cpk)}${Object.keys(c.capability.overrides).length ? " (some tolerances differ)" : ""}`],
   ];
   const colW = CW / 2;
   const rows = Math.ceil(facts.length / 2);
@@ -139,7 +141,7 @@ function cover(l: Layout, c: ReportContent, meta: ReportMeta) {
     [String(c.tolerances.length), c.tolerances.length === 1 ? "tolerance assigned to you" : "tolerances assigned to you", INK],
     [`${fed.length} of ${c.requirements.length}`, "requirements your tolerances feed", INK],
     [`${passing} of ${c.requirements.length}`, "requirements predicted to pass", passing === c.requirements.length ? COLOURS.pass : COLOURS.fail],
-    [c.capability.cpk.toFixed(2), "Cpk asked of your process", OURS],
+    [formatIndex(c.capability.cpk), "Cpk asked of your process", OURS],
   ];
   const tw = (CW - 3 * 8) / 4;
   tiles.forEach(([big, small, colour], i) => {
@@ -220,14 +222,14 @@ function toleranceTable(l: Layout, c: ReportContent) {
     text(doc, t.elementName, cell(1), y, { size: 7.5, width: cols[1].w - 8 });
     paragraph(doc, t.quantity, cell(2), y, cols[2].w - 8, { size: 7, lineHeight: 9, color: MUTED });
     const tx = cell(3);
-    text(doc, withUnit(t.tol, t.unit, "±"), tx, y, { size: 7.5, weight: "bold", width: cols[3].w - 8, align: "right" });
-    if (t.mean) text(doc, `target ${t.mean > 0 ? "+" : ""}${withUnit(t.mean, t.unit)}`, tx - 20, y + 10, { size: 6.2, color: MUTED, width: cols[3].w + 12, align: "right" });
+    text(doc, formatWritten(t.tol, t.unit, "±"), tx, y, { size: 7.5, weight: "bold", width: cols[3].w - 8, align: "right" });
+    if (t.mean) text(doc, `target ${t.mean > 0 ? "+" : ""}${formatWritten(t.mean, t.unit)}`, tx - 20, y + 10, { size: 6.2, color: MUTED, width: cols[3].w + 12, align: "right" });
     text(doc, distLabel(t.dist, t.sigmas), cell(4), y, { size: 7.5, width: cols[4].w - 8 });
     text(doc, t.stage, cell(5), y, { size: 7.5, width: cols[5].w - 8 });
     anyRaised ||= t.raised;
-    text(doc, `${t.cpk.toFixed(2)}${t.raised ? "*" : ""}`, cell(6), y, { size: 7.5, weight: "bold", color: OURS, width: cols[6].w - 8, align: "right" });
-    text(doc, sigUnit(t.sigmaMax, t.unit), cell(7), y, { size: 7.5, weight: "bold", width: cols[7].w - 8, align: "right" });
-    text(doc, sigUnit(t.sigmaModelled, t.unit), cell(8), y, { size: 7.5, color: MUTED, width: cols[8].w - 8, align: "right" });
+    text(doc, `${formatIndex(t.cpk)}${t.raised ? "*" : ""}`, cell(6), y, { size: 7.5, weight: "bold", color: OURS, width: cols[6].w - 8, align: "right" });
+    text(doc, formatNumberUnit(t.sigmaMax, t.unit), cell(7), y, { size: 7.5, weight: "bold", width: cols[7].w - 8, align: "right" });
+    text(doc, formatNumberUnit(t.sigmaModelled, t.unit), cell(8), y, { size: 7.5, color: MUTED, width: cols[8].w - 8, align: "right" });
     l.y += rh;
     rule(doc, ML, l.y, ML + CW, LINE, 0.5);
   });
@@ -277,7 +279,7 @@ function shareMatrix(l: Layout, c: ReportContent) {
       const cx = ML + labelW + j * cellW;
       if (share >= 0.001) {
         box(doc, cx + 2, l.y + 1.5, cellW - 4, 12, { fill: OURS, fillOpacity: Math.min(0.85, 0.1 + share * 1.6), radius: 1.5 });
-        text(doc, `${(share * 100).toFixed(share < 0.1 ? 1 : 0)} %`, cx, l.y + 4, { size: 6.8, weight: share >= 0.25 ? "bold" : "regular", color: share >= 0.35 ? "#ffffff" : INK, width: cellW, align: "center" });
+        text(doc, formatShare(share), cx, l.y + 4, { size: 6.8, weight: share >= 0.25 ? "bold" : "regular", color: share >= 0.35 ? "#ffffff" : INK, width: cellW, align: "center" });
       }
     });
     l.y += 15;
@@ -301,7 +303,7 @@ function requirementsTable(l: Layout, c: ReportContent) {
     l,
     "2",
     "Requirements your tolerances feed",
-    `The system requirements of the study, with the yield the model predicts for them (95 % Wilson interval over ${c.study.trials.toLocaleString("en-US")} trials). ` +
+    `The system requirements of the study, with the yield the model predicts for them (95 % Wilson interval over ${formatCount(c.study.trials)} trials). ` +
       `"Your share" is the part of each requirement's spread that comes from your tolerances; ${fedCount} of ${c.requirements.length} take at least 1 % from them.`,
   );
   const cols: Col[] = [
@@ -334,12 +336,12 @@ function requirementsTable(l: Layout, c: ReportContent) {
     const rx = cell(1);
     text(doc, r.description, rx, y, { size: 7.5, weight: "bold", width: cols[1].w - 8, color: r.fed ? INK : MUTED });
     text(doc, r.metric, rx, y + 10, { size: 6.5, color: FAINT, width: cols[1].w - 8 });
-    text(doc, `≤ ${sig(r.max, 3)}${r.unit === "%" ? " %" : "°"}`, cell(2), y, { size: 7.5, width: cols[2].w - 8, align: "right" });
-    text(doc, pct(r.yield), cell(3), y, { size: 7.5, width: cols[3].w - 8, align: "right" });
+    text(doc, `≤ ${formatNumber(r.max, 3)}${r.unit === "%" ? " %" : "°"}`, cell(2), y, { size: 7.5, width: cols[2].w - 8, align: "right" });
+    text(doc, formatFraction(r.yield), cell(3), y, { size: 7.5, width: cols[3].w - 8, align: "right" });
     const px = cell(4);
-    text(doc, pct(r.predictedYield), px, y, { size: 7.5, weight: "bold", width: cols[4].w - 8, align: "right" });
-    text(doc, `${(r.ci[0] * 100).toFixed(2)} – ${(r.ci[1] * 100).toFixed(2)} %`, px, y + 10, { size: 6.5, color: MUTED, width: cols[4].w - 8, align: "right" });
-    text(doc, Math.round(r.ppmOut).toLocaleString("en-US"), cell(5), y, { size: 7.5, width: cols[5].w - 8, align: "right" });
+    text(doc, formatFraction(r.predictedYield), px, y, { size: 7.5, weight: "bold", width: cols[4].w - 8, align: "right" });
+    text(doc, formatYieldRange(r.ci[0], r.ci[1]), px, y + 10, { size: 6.5, color: MUTED, width: cols[4].w - 8, align: "right" });
+    text(doc, formatCount(r.ppmOut), cell(5), y, { size: 7.5, width: cols[5].w - 8, align: "right" });
     const resX = cell(6);
     const colour = r.passes ? COLOURS.pass : COLOURS.fail;
     const label = r.passes ? "PASS" : "FAIL";
@@ -347,7 +349,7 @@ function requirementsTable(l: Layout, c: ReportContent) {
     const pxx = resX - 4 + (cols[6].w - pw) / 2;
     box(doc, pxx, y - 1.5, pw, 12, { fill: colour, radius: 2 });
     text(doc, label, pxx + 5, y + 1, { size: 6.5, weight: "heavy", color: "#ffffff" });
-    text(doc, r.supplierShare === null ? "—" : `${(r.supplierShare * 100).toFixed(1)} %`, cell(7), y, { size: 7.5, weight: r.fed ? "bold" : "regular", color: r.fed ? OURS : MUTED, width: cols[7].w - 8, align: "right" });
+    text(doc, formatShare(r.supplierShare), cell(7), y, { size: 7.5, weight: r.fed ? "bold" : "regular", color: r.fed ? OURS : MUTED, width: cols[7].w - 8, align: "right" });
     l.y += rh;
     rule(doc, ML, l.y, ML + CW, LINE, 0.5);
   });
@@ -383,7 +385,7 @@ function envelopeSection(l: Layout, c: ReportContent) {
     l,
     "4",
     "Heading error envelope",
-    `Compass heading error of the whole stack (${c.envelope.accel} and ${c.envelope.mag}) against true heading, for each tilt of the sweep, at a field inclination of ${sig(c.envelope.inclinationDeg, 4)}°. ` +
+    `Compass heading error of the whole stack (${c.envelope.accel} and ${c.envelope.mag}) against true heading, for each tilt of the sweep, at a field inclination of ${formatNumber(c.envelope.inclinationDeg, 4)}°. ` +
       "The shaded band (level) and the dashed lines (tilted) hold 90 % of units, 5th to 95th percentile; the solid lines are the medians.",
   );
   const h = 210;
@@ -408,13 +410,13 @@ function assumptions(l: Layout, c: ReportContent, meta: ReportMeta) {
   const s = c.study;
   section(l, c.envelope ? "5" : "4", "Assumptions of the study", "The predictions of this report hold for these settings. The same stack, settings, seed and engine give the same numbers.");
   const site = s.site
-    ? `${sig(s.inclinationDeg, 4)}° (dip), from the ${s.site.model} at ${sig(s.site.latitudeDeg, 4)}°, ${sig(s.site.longitudeDeg, 4)}°, ${s.site.altitudeKm} km on ${s.site.date}`
-    : `${sig(s.inclinationDeg, 4)}° (dip), as entered`;
+    ? `${formatNumber(s.inclinationDeg, 4)}° (dip), from the ${s.site.model} at ${formatNumber(s.site.latitudeDeg, 4)}°, ${formatNumber(s.site.longitudeDeg, 4)}°, ${s.site.altitudeKm} km on ${s.site.date}`
+    : `${formatNumber(s.inclinationDeg, 4)}° (dip), as entered`;
   const tilts = s.tilts.map((t) => (t.pitchDeg === 0 && t.rollDeg === 0 ? "level" : `pitch ${t.pitchDeg}°, roll ${t.rollDeg}°`)).join("; ");
   kv(l, [
     ["Field inclination", site],
     ["Calibration", s.calibration.after === "none" ? "none: every deviation reaches the product" : `after the ${s.calibration.after} stage, residual ${s.calibration.residual ?? "none"}`],
-    ["Trials and seed", `${s.trials.toLocaleString("en-US")} Monte Carlo trials (${s.sampling === "lhs" ? "Latin hypercube" : "random"} sampling), seed ${s.seed}`],
+    ["Trials and seed", `${formatCount(s.trials)} Monte Carlo trials (${s.sampling === "lhs" ? "Latin hypercube" : "random"} sampling), seed ${s.seed}`],
     ["Heading sweep", `every ${s.headingStepDeg}° of heading at each tilt: ${tilts}`],
     ["Stack", `revision ${c.revision.number}${c.revision.name ? `, ${c.revision.name}` : ""}, approved ${fmtDate(c.revision.approvedAt)}; ${c.stack.length} elements`],
     ["Engine", s.engine || "—"],

@@ -13,8 +13,8 @@ import { projects, reportDownloads, reportFiles, reports, reportSends, stackRevi
 import { found, notFound } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { reportBlocker } from "./report-content";
-import { reportCode } from "./report-format";
 import { listComments } from "./revisions";
+import { reportCode } from "@shared/reports/format";
 
 const creator = alias(users, "report_creator");
 const releaser = alias(users, "report_releaser");

@@ -2,7 +2,8 @@
 import ExcelJS from "exceljs";
 import type { ReportContent } from "@shared/schemas/reports";
 import type { ReportMeta } from "./report-pdf";
-import { distLabel, fmtDate } from "./report-format";
+import { fmtDate } from "./report-format";
+import { distLabel } from "@shared/reports/format";
 
 type Cell = string | number | null;
 type Table = { title: string; header: string[]; rows: Cell[][]; numFmt?: Record<number, string> };

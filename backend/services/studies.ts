@@ -13,6 +13,7 @@ import { fieldAtSite } from "./geomagnetic";
 import { assertProjectOpen } from "./project-records";
 import { getRevisionRow } from "./revisions";
 import type { StudyQueue } from "./study-queue";
+import { formatCount } from "@shared/format";
 
 const summaryColumns = {
   id: studies.id,
@@ -146,7 +147,7 @@ export async function createStudy(db: Database, queue: StudyQueue, actor: Actor,
       projectId: revision.projectId,
       actorId: actor.userId,
       action: "study.queued",
-      summary: `queued ${asBuilt ? "as-built " : ""}study ${next} on stack revision ${revision.number} (${v.study.trials.toLocaleString("en-US")} trials, seed ${v.study.seed})${
+      summary: `queued ${asBuilt ? "as-built " : ""}study ${next} on stack revision ${revision.number} (${formatCount(v.study.trials)} trials, seed ${v.study.seed})${
         asBuilt ? `, measured data for ${asBuilt.records.map((r) => r.source).join(", ")}` : ""
       }`,
       data: { studyId: row.id },

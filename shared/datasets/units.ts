@@ -15,8 +15,6 @@ const FACTOR: Record<MeasureUnit, { kind: SourceUnit; toBase: number }> = {
   arcmin: { kind: "deg", toBase: 1 / 60 },
 };
 
-export const UNIT_TEXT: Record<MeasureUnit, string> = { um: "µm", mm: "mm", deg: "°", mrad: "mrad", arcmin: "arcmin" };
-
 export function unitKind(unit: MeasureUnit): SourceUnit {
   return FACTOR[unit].kind;
 }

@@ -88,4 +88,3 @@ export function matchOwner<S extends SupplierRef>(owner: string | null | undefin
   return suppliers.find((s) => s.id.toLowerCase() === lower) ?? suppliers.find((s) => s.name.trim().toLowerCase() === lower) ?? null;
 }
 
-export const UNIT_LABEL: Record<SourceUnit, string> = { um: "µm", deg: "°" };

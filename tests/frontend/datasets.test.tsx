@@ -2,8 +2,9 @@ import { describe, expect, it, vi, afterEach } from "vitest";
 import { cleanup, fireEvent, screen, waitFor, within } from "@testing-library/react";
 import { uploadDataset } from "@frontend/features/datasets/api/upload-dataset";
 import { DatasetsPanel } from "@frontend/features/datasets/components/datasets-panel";
-import { formatMeasure, formatPpm, niceTicks, withUnit } from "@frontend/features/datasets/lib/format";
 import { failOnConsoleError, jsonResponse, renderWithApp } from "./helpers";
+import { niceTicks } from "@frontend/features/datasets/lib/ticks";
+import { formatMeasure, formatMeasureUnit, formatPpm } from "@shared/format";
 
 const PROJECT = "11111111-1111-4111-8111-111111111111";
 const DATASET = {
@@ -34,10 +35,10 @@ describe("data set formatting", () => {
     expect(formatMeasure(-1.3)).toBe("−1.3");
     expect(formatMeasure(12345.6)).toBe("12346");
     expect(formatMeasure(2.5e-7)).toBe("2.500e-7");
-    expect(withUnit(0.4, "deg")).toBe("0.4°");
-    expect(withUnit(10.38, "um")).toBe("10.38 µm");
-    expect(formatPpm(2699.8)).toBe("2,700");
-    expect(formatPpm(0.573)).toBe("0.57");
+    expect(formatMeasureUnit(0.4, "deg")).toBe("0.4°");
+    expect(formatMeasureUnit(10.38, "um")).toBe("10.38 µm");
+    expect(formatPpm(2699.8)).toBe("2,700 ppm");
+    expect(formatPpm(0.573)).toBe("0.57 ppm");
   });
 
   it("round axis ticks that include zero exactly", () => {

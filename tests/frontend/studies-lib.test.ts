@@ -4,11 +4,11 @@ import { crossAxisMatrix, crossAxisSensors, heat } from "@frontend/features/stud
 import { changeTone, relativeChange, requirementComparison, settingRows, sourceChanges } from "@frontend/features/studies/lib/compare";
 import { yieldRows, lateDrift } from "@frontend/features/studies/lib/convergence";
 import { envelopeByTilt, niceCeil, tiltLabel } from "@frontend/features/studies/lib/envelope";
-import { formatDuration, formatPpm, formatValue, formatYield, formatYieldRange } from "@frontend/features/studies/lib/format";
 import { histogramRows, niceTicks } from "@frontend/features/studies/lib/histogram";
 import { groupMetrics, metricLabel, parseMetric } from "@shared/metrics";
 import { paretoRows, sourcesToReach } from "@frontend/features/studies/lib/pareto";
 import { estimateSeconds, progressView, recentPace } from "@frontend/features/studies/lib/progress";
+import { formatDuration, formatPpm, formatValue, formatYield, formatYieldRange } from "@shared/format";
 
 const stats = (p: Partial<MetricStats> & { v?: number }): MetricStats => {
   const v = p.v ?? 1;

@@ -14,12 +14,13 @@ import { AsBuiltDialog } from "@frontend/features/datasets/components/as-built-d
 import { CapabilityView } from "@frontend/features/datasets/components/capability-view";
 import { ColumnMapping } from "@frontend/features/datasets/components/column-mapping";
 import { DatasetPreview } from "@frontend/features/datasets/components/dataset-preview";
-import { formatBytes, reportNumber } from "@frontend/features/datasets/lib/format";
 import { projectQueryOptions, useProject } from "@frontend/features/projects/api/get-project";
 import { isApiError } from "@frontend/lib/api-client";
 import { formatDateTime } from "@frontend/lib/format";
 import { can } from "@frontend/lib/permissions";
 import { requirePermission } from "../../route-guards";
+import { formatBytes, formatCount } from "@shared/format";
+import { reportNumber } from "@shared/reports/format";
 
 const notFound = () => data({ message: "This data set does not exist, or it was deleted." }, { status: 404 });
 
@@ -112,7 +113,7 @@ export function DatasetRoute() {
           </time>
         </Fact>
         <Fact label="Rows">
-          <span className="tabular-nums">{dataset.rows.toLocaleString("en-US")}</span>
+          <span className="tabular-nums">{formatCount(dataset.rows)}</span>
         </Fact>
         <Fact label="File">
           {dataset.fileType.toUpperCase()}

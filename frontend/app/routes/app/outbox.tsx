@@ -9,9 +9,9 @@ import { PageHeader } from "@frontend/components/ui/page-header";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { Table, TableFrame, Td, Th, THead, Tr } from "@frontend/components/ui/table";
 import { outboxQueryOptions, useOutbox } from "@frontend/features/reports/api/get-outbox";
-import { formatBytes } from "@frontend/features/reports/lib/files";
 import { formatDateTime, formatRelative } from "@frontend/lib/format";
 import { requirePermission } from "../../route-guards";
+import { formatBytes } from "@shared/format";
 
 export const outboxLoader =
   (queryClient: QueryClient) =>

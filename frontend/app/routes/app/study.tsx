@@ -16,11 +16,11 @@ import { StudyProgress } from "@frontend/features/studies/components/study-progr
 import { RunRecord } from "@frontend/features/studies/components/run-record";
 import { StudyResults } from "@frontend/features/studies/components/study-results";
 import { downloadResultFile } from "@frontend/features/studies/lib/download";
-import { formatCount, formatDeg } from "@frontend/features/studies/lib/format";
 import { isApiError } from "@frontend/lib/api-client";
 import { formatDateTime } from "@frontend/lib/format";
 import { can } from "@frontend/lib/permissions";
 import { requirePermission } from "../../route-guards";
+import { formatCount, formatDeg } from "@shared/format";
 
 const notFound = () => data({ message: "This study does not exist, or it was removed." }, { status: 404 });
 

@@ -8,6 +8,7 @@ import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Select } from "@frontend/components/ui/field";
 import { studyQueryOptions, useCreateStudy, useStudies } from "@frontend/features/studies";
 import { isApiError } from "@frontend/lib/api-client";
+import { formatCount } from "@shared/format";
 
 type Choice = { use: boolean; mode: AsBuiltEntry["mode"] };
 
@@ -90,7 +91,7 @@ export function AsBuiltDialog({ dataset, open, onClose }: { dataset: Dataset; op
                 <Select id={id} value={design?.id ?? ""} onChange={(e) => setDesignId(e.target.value)}>
                   {designs.map((s) => (
                     <option key={s.id} value={s.id}>
-                      Study {s.number} · rev {s.revisionNumber} · {s.trials.toLocaleString("en-US")} trials, seed {s.seed}
+                      Study {s.number} · rev {s.revisionNumber} · {formatCount(s.trials)} trials, seed {s.seed}
                       {s.label ? ` · ${s.label}` : ""}
                     </option>
                   ))}

@@ -8,7 +8,8 @@ import { Spinner } from "@frontend/components/ui/spinner";
 import { axisLine, axisTick, FAIL, gridProps, INK, PASS } from "@frontend/features/studies";
 import { isApiError } from "@frontend/lib/api-client";
 import { useDatasetStatistics } from "../api/get-dataset-statistics";
-import { formatIndex, formatMeasure, formatPpm, niceTicks, unitText, withUnit } from "../lib/format";
+import { niceTicks } from "@frontend/features/datasets/lib/ticks";
+import { formatCount, formatIndex, formatMeasure, formatMeasureUnit, formatPpm, unitText } from "@shared/format";
 
 /** Production target for Cpk (REFERENCES.md: ≥ 1.33 in production, common practice). */
 const CPK_TARGET = 1.33;
@@ -68,15 +69,15 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
   return (
     <>
       <dl className="grid grid-cols-2 gap-px overflow-hidden rounded-lg border border-line bg-line sm:grid-cols-4 lg:grid-cols-8" aria-label="Column statistics">
-        <Stat label="n">{s.summary.n.toLocaleString("en-US")}</Stat>
-        <Stat label="Mean">{withUnit(s.summary.mean, u)}</Stat>
-        <Stat label="Std dev (n − 1)">{withUnit(s.summary.std, u)}</Stat>
+        <Stat label="n">{formatCount(s.summary.n)}</Stat>
+        <Stat label="Mean">{formatMeasureUnit(s.summary.mean, u)}</Stat>
+        <Stat label="Std dev (n − 1)">{formatMeasureUnit(s.summary.std, u)}</Stat>
         <Stat label="Min … max">
-          {formatMeasure(s.summary.min)} … {withUnit(s.summary.max, u)}
+          {formatMeasure(s.summary.min)} … {formatMeasureUnit(s.summary.max, u)}
         </Stat>
         <Stat label="Tolerance">
           {s.tolerance && s.tolerance.tol !== null
-            ? `${s.tolerance.mean ? `${formatMeasure(s.tolerance.mean)} ` : ""}±${withUnit(s.tolerance.tol, u)} ${s.tolerance.dist}`
+            ? `${s.tolerance.mean ? `${formatMeasure(s.tolerance.mean)} ` : ""}±${formatMeasureUnit(s.tolerance.tol, u)} ${s.tolerance.dist}`
             : s.tolerance
               ? "measured data"
               : "—"}
@@ -95,7 +96,7 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
         <Stat label="Out of tolerance">
           {c ? (
             <span title="Expected from the fitted normal; measured units outside the limits">
-              {formatPpm(c.expectedPpm)} ppm · {c.observedOut} of {s.summary.n}
+              {formatPpm(c.expectedPpm)} · {c.observedOut} of {s.summary.n}
             </span>
           ) : (
             "—"
@@ -136,7 +137,7 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
             <section aria-label="Capability">
               <h3 className="text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">Capability</h3>
               <p className="mt-1 text-xs text-ink/65">
-                LSL {withUnit(c.lsl, u)}, USL {withUnit(c.usl, u)}. σ is the spread of all {s.summary.n} units together (a first build has no
+                LSL {formatMeasureUnit(c.lsl, u)}, USL {formatMeasureUnit(c.usl, u)}. σ is the spread of all {s.summary.n} units together (a first build has no
                 subgroups), so Cp and Cpk here are the overall indices (Pp, Ppk). Production asks Cpk ≥ {CPK_TARGET} (common practice).
               </p>
             </section>
@@ -147,7 +148,7 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
               <ul className="mt-1 flex flex-col gap-0.5 text-xs">
                 {s.outliers.values.slice(0, 12).map((o) => (
                   <li key={o.row} className="tabular-nums">
-                    <span className="font-semibold text-fail">Row {o.row}</span>: {withUnit(o.value, u)} (M = {o.score.toFixed(1)})
+                    <span className="font-semibold text-fail">Row {o.row}</span>: {formatMeasureUnit(o.value, u)} (M = {o.score.toFixed(1)})
                   </li>
                 ))}
                 {s.outliers.values.length > 12 ? <li className="text-ink/55">and {s.outliers.values.length - 12} more</li> : null}

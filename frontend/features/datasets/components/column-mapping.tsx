@@ -11,7 +11,7 @@ import { useProjectRevisions, useRevision } from "@frontend/features/studies";
 import { isApiError } from "@frontend/lib/api-client";
 import { sentence } from "@frontend/lib/form";
 import { useUpdateMappings } from "../api/update-mappings";
-import { formatMeasure, unitText } from "../lib/format";
+import { formatMeasure, unitText } from "@shared/format";
 
 type Row = { source: string; unit: MeasureUnit | ""; nominal: string };
 

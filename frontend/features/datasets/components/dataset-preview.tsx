@@ -1,5 +1,5 @@
 import type { Dataset } from "@shared/schemas/datasets";
-import { unitText } from "../lib/format";
+import { formatCount, unitText } from "@shared/format";
 
 /** The first rows as they are in the file, with the file's own row numbers. */
 export function DatasetPreview({ dataset }: { dataset: Dataset }) {
@@ -36,7 +36,7 @@ export function DatasetPreview({ dataset }: { dataset: Dataset }) {
       </table>
       {dataset.rows > preview.cells.length ? (
         <p className="border-t border-line px-3 py-2 text-xs text-ink/55">
-          The first {preview.cells.length} of {dataset.rows.toLocaleString("en-US")} rows.
+          The first {preview.cells.length} of {formatCount(dataset.rows)} rows.
         </p>
       ) : null}
     </div>

@@ -13,8 +13,9 @@ import { cn } from "@frontend/lib/cn";
 import { formatDateTime, formatRelative } from "@frontend/lib/format";
 import { useDatasets } from "../api/get-datasets";
 import { useUploadDataset } from "../api/upload-dataset";
-import { reportNumber } from "../lib/format";
 import { UploadRefusal } from "./upload-refusal";
+import { reportNumber } from "@shared/reports/format";
+import { formatBytes, formatCount } from "@shared/format";
 
 const th = "h-7 px-3 text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase";
 
@@ -35,7 +36,7 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
     uploadMutation.reset();
     // The server refuses it too; saying so here spares sending 5 MB for nothing.
     if (file.size > DATASET_MAX_BYTES) {
-      setTooBig(`“${file.name}” is ${(file.size / 1048576).toFixed(1)} MB; a data set file may be at most ${DATASET_MAX_BYTES / 1048576} MB.`);
+      setTooBig(`“${file.name}” is ${formatBytes(file.size)}; a data set file may be at most ${DATASET_MAX_BYTES / 1048576} MB.`);
       return;
     }
     uploadMutation.mutate({ projectId, file }, { onSuccess: (d) => navigate(`/projects/${projectId}/datasets/${d.id}`) });
@@ -122,7 +123,7 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
                       {d.sheet ? ` · sheet ${d.sheet}` : ""} · {d.columnCount} columns
                     </span>
                   </td>
-                  <td className="num h-10 px-3">{d.rows.toLocaleString("en-US")}</td>
+                  <td className="num h-10 px-3">{formatCount(d.rows)}</td>
                   <td className="h-10 px-3">
                     {d.mappedColumns.length ? (
                       <span className="flex flex-wrap gap-1">

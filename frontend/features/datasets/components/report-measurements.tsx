@@ -9,6 +9,7 @@ import { formatDateTime } from "@frontend/lib/format";
 import { useReportDatasets } from "../api/get-report-datasets";
 import { useUploadReportDataset } from "../api/upload-report-dataset";
 import { UploadRefusal } from "./upload-refusal";
+import { formatCount } from "@shared/format";
 
 /**
  * On a released report: the measurement files sent for it, and (for the supplier, or staff on
@@ -54,7 +55,7 @@ export function ReportMeasurements({ reportId, canSend }: { reportId: string; ca
         {send.isError ? <UploadRefusal error={send.error} onDismiss={() => send.reset()} /> : null}
         {send.isSuccess ? (
           <Alert tone="info" title="Received">
-            “{send.data.name}”: {send.data.rows.toLocaleString("en-US")} rows.
+            “{send.data.name}”: {formatCount(send.data.rows)} rows.
           </Alert>
         ) : null}
         {list.isPending ? (
@@ -69,7 +70,7 @@ export function ReportMeasurements({ reportId, canSend }: { reportId: string; ca
               <li key={d.id} className="flex flex-wrap items-baseline justify-between gap-2 py-1.5">
                 <span className="font-semibold text-ink">{d.name}</span>
                 <span className="text-xs text-ink/60 tabular-nums">
-                  {d.rows.toLocaleString("en-US")} rows · {d.uploadedByName ?? "a removed member"} · {formatDateTime(d.createdAt)}
+                  {formatCount(d.rows)} rows · {d.uploadedByName ?? "a removed member"} · {formatDateTime(d.createdAt)}
                 </span>
               </li>
             ))}

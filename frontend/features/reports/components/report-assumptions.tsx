@@ -1,6 +1,7 @@
 import type { ReactNode } from "react";
 import type { ReportContent } from "@shared/schemas/reports";
 import { Panel } from "@frontend/components/ui/panel";
+import { formatCount } from "@shared/format";
 
 /** What the study assumed (field, calibration, trials, sweep) and the engineer's note. */
 export function ReportAssumptions({ content: c, note }: { content: ReportContent; note: string }) {
@@ -12,7 +13,7 @@ export function ReportAssumptions({ content: c, note }: { content: ReportContent
         </Item>
         <Item label="Calibration">{c.study.calibration.after === "none" ? "none" : `after ${c.study.calibration.after}, residual ${c.study.calibration.residual ?? "none"}`}</Item>
         <Item label="Trials and seed">
-          {c.study.trials.toLocaleString("en-US")} trials, seed {c.study.seed}
+          {formatCount(c.study.trials)} trials, seed {c.study.seed}
         </Item>
         <Item label="Heading sweep">
           every {c.study.headingStepDeg}° at {c.study.tilts.length} tilt{c.study.tilts.length === 1 ? "" : "s"}

@@ -1,6 +1,7 @@
 import type { ReactNode } from "react";
 import type { ReportContent } from "@shared/schemas/reports";
 import { cn } from "@frontend/lib/cn";
+import { formatIndex } from "@shared/format";
 
 /** Four figures across the top: tolerances held, capability asked, requirements fed and passing. */
 export function ReportKeyFacts({ content: c }: { content: ReportContent }) {
@@ -9,7 +10,7 @@ export function ReportKeyFacts({ content: c }: { content: ReportContent }) {
   return (
     <dl className="mb-5 grid grid-cols-2 gap-px overflow-hidden rounded-lg border border-line bg-line sm:grid-cols-4">
       <Fact label="Tolerances you hold">{c.tolerances.length}</Fact>
-      <Fact label="Capability asked">Cpk ≥ {c.capability.cpk.toFixed(2)}</Fact>
+      <Fact label="Capability asked">Cpk ≥ {formatIndex(c.capability.cpk)}</Fact>
       <Fact label="Requirements fed">
         {fed} of {c.requirements.length}
       </Fact>

@@ -4,8 +4,9 @@ import { CopyButton } from "@frontend/components/ui/copy-button";
 import { Panel } from "@frontend/components/ui/panel";
 import { cn } from "@frontend/lib/cn";
 import { formatDateTime } from "@frontend/lib/format";
-import { FILE_LABEL, formatBytes } from "../lib/files";
+import { FILE_LABEL } from "../lib/files";
 import { DownloadButtons } from "./download-buttons";
+import { formatBytes } from "@shared/format";
 
 /** Download buttons, and for a released report the stored files with their checksums. */
 export function ReportFilesPanel({ report }: { report: Report }) {

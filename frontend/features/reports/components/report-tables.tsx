@@ -1,7 +1,8 @@
-import { distLabel, pct, sig, sigUnit, withUnit } from "@shared/reports/format";
 import type { ReportContent } from "@shared/schemas/reports";
 import { Badge } from "@frontend/components/ui/badge";
 import { Table, Td, Th, THead, Tr } from "@frontend/components/ui/table";
+import { formatFraction, formatIndex, formatNumber, formatNumberUnit, formatShare, formatWritten, formatYieldRange } from "@shared/format";
+import { distLabel } from "@shared/reports/format";
 
 /** The supplier's tolerances with the capability asked, as in section 1 of the PDF. */
 export function TolerancesTable({ content }: { content: ReportContent }) {
@@ -34,17 +35,17 @@ export function TolerancesTable({ content }: { content: ReportContent }) {
                 </Td>
                 <Td className="min-w-[150px] py-1.5 text-xs leading-4 text-ink/60">{t.quantity}</Td>
                 <Td numeric className="font-semibold">
-                  {withUnit(t.tol, t.unit, "±")}
-                  {t.mean ? <span className="block text-2xs font-normal text-ink/55">target {t.mean > 0 ? "+" : ""}{withUnit(t.mean, t.unit)}</span> : null}
+                  {formatWritten(t.tol, t.unit, "±")}
+                  {t.mean ? <span className="block text-2xs font-normal text-ink/55">target {t.mean > 0 ? "+" : ""}{formatWritten(t.mean, t.unit)}</span> : null}
                 </Td>
                 <Td className="whitespace-nowrap text-ink/75">{distLabel(t.dist, t.sigmas)}</Td>
                 <Td className="text-ink/75">{t.stage}</Td>
                 <Td numeric className="font-bold text-mag">
-                  {t.cpk.toFixed(2)}
+                  {formatIndex(t.cpk)}
                   {t.raised ? <sup title="raised to what the study assumed">*</sup> : null}
                 </Td>
-                <Td numeric className="font-semibold">{sigUnit(t.sigmaMax, t.unit)}</Td>
-                <Td numeric className="text-ink/60">{sigUnit(t.sigmaModelled, t.unit)}</Td>
+                <Td numeric className="font-semibold">{formatNumberUnit(t.sigmaMax, t.unit)}</Td>
+                <Td numeric className="text-ink/60">{formatNumberUnit(t.sigmaModelled, t.unit)}</Td>
               </Tr>
             ))}
           </tbody>
@@ -83,14 +84,14 @@ export function RequirementsTable({ content }: { content: ReportContent }) {
                 <p className="text-xs text-ink/50">{r.metric}</p>
               </Td>
               <Td numeric>
-                ≤ {sig(r.max, 3)}
+                ≤ {formatNumber(r.max, 3)}
                 {r.unit === "%" ? " %" : "°"}
               </Td>
-              <Td numeric>{pct(r.yield)}</Td>
+              <Td numeric>{formatFraction(r.yield)}</Td>
               <Td numeric>
-                <span className="font-semibold">{pct(r.predictedYield)}</span>
+                <span className="font-semibold">{formatFraction(r.predictedYield)}</span>
                 <span className="block text-2xs text-ink/50">
-                  {(r.ci[0] * 100).toFixed(2)}–{(r.ci[1] * 100).toFixed(2)} %
+                  {formatYieldRange(r.ci[0], r.ci[1])}
                 </span>
               </Td>
               <Td>
@@ -104,7 +105,7 @@ export function RequirementsTable({ content }: { content: ReportContent }) {
                     <span className="h-1.5 w-16 overflow-hidden rounded-full bg-line/70" aria-hidden="true">
                       <span className="block h-full rounded-full bg-mag" style={{ width: `${Math.min(100, r.supplierShare * 100)}%` }} />
                     </span>
-                    <span className={r.fed ? "font-bold" : undefined}>{(r.supplierShare * 100).toFixed(1)} %</span>
+                    <span className={r.fed ? "font-bold" : undefined}>{formatShare(r.supplierShare)}</span>
                   </span>
                 )}
               </Td>

@@ -10,6 +10,7 @@ import { formatDateTime, formatRelative } from "@frontend/lib/format";
 import { useReports } from "../api/get-reports";
 import { BuildReportDialog } from "./build-report-dialog";
 import { ReportStatus, reportTitle } from "./report-status";
+import { formatIndex } from "@shared/format";
 
 /** The project's supplier reports on its page, newest first, with "Build report" for engineers. */
 export function ReportsPanel({ projectId, canWrite, className }: { projectId: string; canWrite: boolean; className?: string }) {
@@ -53,7 +54,7 @@ export function ReportsPanel({ projectId, canWrite, className }: { projectId: st
                   {reportTitle(r)}
                 </Link>
                 <p className="truncate text-xs text-ink/55">
-                  {r.supplierName} · {r.toleranceCount} tolerances · Cpk ≥ {r.cpk.toFixed(2)} · study {r.studyNumber}
+                  {r.supplierName} · {r.toleranceCount} tolerances · Cpk ≥ {formatIndex(r.cpk)} · study {r.studyNumber}
                 </p>
               </div>
               <ReportStatus report={r} />

@@ -3,6 +3,7 @@ import type { ReportSummary } from "@shared/schemas/reports";
 import { Table, TableFrame, Td, Th, THead, Tr } from "@frontend/components/ui/table";
 import { formatDate, formatDateTime, formatRelative } from "@frontend/lib/format";
 import { ReportStatus, reportTitle } from "./report-status";
+import { formatIndex } from "@shared/format";
 
 /** Every report the reader may see; the supplier's view leaves out what is internal (drafts, who built it). */
 export function ReportsTable({ reports, supplierView, showProject = true }: { reports: ReportSummary[]; supplierView: boolean; showProject?: boolean }) {
@@ -41,7 +42,7 @@ export function ReportsTable({ reports, supplierView, showProject = true }: { re
                   </Td>
                 ) : null}
                 <Td numeric>{r.toleranceCount}</Td>
-                <Td numeric>{r.cpk.toFixed(2)}</Td>
+                <Td numeric>{formatIndex(r.cpk)}</Td>
                 <Td>
                   <ReportStatus report={r} />
                 </Td>

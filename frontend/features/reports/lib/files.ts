@@ -5,12 +5,6 @@ export const reportFileHref = (id: string, kind: ReportFileKind) => `/api/report
 
 export const FILE_LABEL: Record<ReportFileKind, string> = { pdf: "PDF", xlsx: "Spreadsheet", csv: "CSV" };
 
-export function formatBytes(n: number): string {
-  if (n < 1024) return `${n} B`;
-  if (n < 1024 * 1024) return `${(n / 1024).toFixed(n < 10 * 1024 ? 1 : 0)} kB`;
-  return `${(n / 1024 / 1024).toFixed(1)} MB`;
-}
-
 /** Reads a picked PNG file as a data URL for the report's 3D snapshot. */
 export function readPng(file: File): Promise<string> {
   return new Promise((resolve, reject) => {

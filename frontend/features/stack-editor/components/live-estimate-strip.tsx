@@ -10,7 +10,7 @@ import { cn } from "@frontend/lib/cn";
 import type { EstimateState } from "../hooks/use-live-estimate";
 import { LIVE_INCLINATION_DEG, LIVE_TRIALS } from "../lib/live-estimate";
 import { metricLabel } from "@shared/metrics";
-import { formatCount, formatFigure, formatMrad, formatYield } from "../lib/number-text";
+import { formatCount, formatMrad, formatNumber, formatYield } from "@shared/format";
 
 function Figure({ label, value, unit, sub, title, testId }: { label: string; value: string; unit: string; sub?: ReactNode; title?: string; testId?: string }) {
   return (
@@ -72,13 +72,13 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
           {summary.heading ? (
             <Figure
               label="Heading error · p99"
-              value={formatFigure(summary.heading.p99)}
+              value={formatNumber(summary.heading.p99)}
               unit="°"
               testId="estimate-heading-p99"
               sub={
                 <>
-                  <span className="num">{formatMrad(summary.heading.p99)} mrad</span> · p95 <span className="num">{formatFigure(summary.heading.p95)}°</span> · max{" "}
-                  <span className="num">{formatFigure(summary.heading.max)}°</span>
+                  <span className="num">{formatMrad(summary.heading.p99)}</span> · p95 <span className="num">{formatNumber(summary.heading.p95)}°</span> · max{" "}
+                  <span className="num">{formatNumber(summary.heading.max)}°</span>
                 </>
               }
               title="heading.maxAbsDeg: the largest heading error over the attitude sweep, 99th percentile over the trials"
@@ -89,7 +89,7 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
           {summary.worstCrossAxis ? (
             <Figure
               label="Worst cross-axis · p99"
-              value={formatFigure(summary.worstCrossAxis.p99)}
+              value={formatNumber(summary.worstCrossAxis.p99)}
               unit="%"
               testId="estimate-cross-axis-p99"
               sub={<span className="font-mono text-[10.5px]">{summary.worstCrossAxis.metric}</span>}
@@ -101,7 +101,7 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
           {summary.worstRelRot ? (
             <Figure
               label="Relative rotation · p99"
-              value={formatFigure(summary.worstRelRot.p99)}
+              value={formatNumber(summary.worstRelRot.p99)}
               unit="°"
               sub={<span className="font-mono text-[10.5px]">{summary.worstRelRot.metric}</span>}
               title={metricLabel(summary.worstRelRot.metric)}

@@ -12,11 +12,11 @@ import { cn } from "@frontend/lib/cn";
 import { sentence } from "@frontend/lib/form";
 import { fieldError } from "../lib/issues";
 import type { EstimateSummary } from "../lib/live-estimate";
-import { metricLabel, metricUnit, UNIT_SYMBOL } from "@shared/metrics";
+import { metricLabel, metricUnit } from "@shared/metrics";
 import { metricOptions } from "../lib/metrics";
-import { formatYield } from "../lib/number-text";
 import { useEditor } from "./editor-context";
 import { NumberInput, SelectInput } from "./fields";
+import { formatMrad, formatPpm, formatYield, formatYieldRange, unitText } from "@shared/format";
 
 export function RequirementsEditor({ estimate, estimateStale }: { estimate: EstimateSummary | null; estimateStale: boolean }) {
   const { doc, issues, readOnly, setAt, update } = useEditor();
@@ -85,14 +85,14 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                 <td className="px-2 py-1.5">
                   <NumberInput
                     aria-label={`Requirement ${i + 1} limit`}
-                    unit={UNIT_SYMBOL[unit]}
+                    unit={unitText(unit)}
                     value={r.max}
                     disabled={readOnly}
                     invalid={!!fieldError(list, "max")}
                     onChange={(v) => setAt(["requirements", i, "max"], v, `req:${i}:max`)}
                   />
                   {unit === "deg" && Number.isFinite(r.max) ? (
-                    <p className="num mt-0.5 text-[10.5px] text-ink/45">{((r.max * Math.PI) / 180 * 1000).toFixed(2)} mrad</p>
+                    <p className="num mt-0.5 text-[10.5px] text-ink/45">{formatMrad(r.max)}</p>
                   ) : null}
                 </td>
                 <td className="px-2 py-1.5">
@@ -105,7 +105,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                   />
                   {Number.isFinite(r.yield) && r.yield > 0 && r.yield < 1 ? (
                     <p className="num mt-0.5 text-[10.5px] text-ink/45">
-                      {formatYield(r.yield)} · {Math.round((1 - r.yield) * 1e6).toLocaleString("en-GB")} ppm out
+                      {formatYield(r.yield)} · {formatPpm((1 - r.yield) * 1e6)} out
                     </p>
                   ) : null}
                 </td>
@@ -117,7 +117,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                         <Badge tone={est.passes ? "pass" : "fail"}>{est.passes ? "Meets" : "Misses"}</Badge>
                       </span>
                       <span className="num text-[10.5px] text-ink/45">
-                        95 % CI {formatYield(est.ci[0])}–{formatYield(est.ci[1])}
+                        95 % CI {formatYieldRange(est.ci[0], est.ci[1])}
                       </span>
                       {est.drivers.length ? (
                         <span className="mt-0.5 max-w-full truncate text-[10.5px] text-ink/55" title="Largest linearised contributors: share of the metric's variance (or mean square)">

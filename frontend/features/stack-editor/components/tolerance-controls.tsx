@@ -11,11 +11,11 @@ import { cn } from "@frontend/lib/cn";
 import { sentence } from "@frontend/lib/form";
 import { errorsUnder, fieldError, type LocalIssue } from "../lib/issues";
 import { STAGE_LABEL } from "../lib/kinds";
-import { formatFigure } from "../lib/number-text";
 import type { Path } from "../lib/stack-ops";
-import { sigmaOf, UNIT_LABEL, type ToleranceUnit } from "../lib/tolerance-rows";
+import { sigmaOf, type ToleranceUnit } from "../lib/tolerance-rows";
 import { useEditor } from "./editor-context";
 import { FieldShell, NumberInput, SelectInput, TextInput } from "./fields";
+import { formatNumber, unitText } from "@shared/format";
 
 export const DIST_LABEL: Record<Tolerance["dist"], string> = {
   normal: "Normal",
@@ -200,7 +200,7 @@ export function ToleranceFields({
   sourceId: string;
 }) {
   const { setAt, readOnly, suppliers } = useEditor();
-  const u = UNIT_LABEL[unit];
+  const u = unitText(unit);
   const key = path.join(".");
   const err = (sub: string) => fieldError(issues, `${field}.${sub}`);
   const placed = new Set([`${field}.tol`, `${field}.sigmas`, `${field}.mean`, `${field}.stage`, `${field}.owner`, `${field}.dist`]);
@@ -239,7 +239,7 @@ export function ToleranceFields({
         </div>
         <div className="flex items-center gap-1.5">
           <span className="num text-[11px] text-ink/45" title="One standard deviation of this source">
-            σ = {formatFigure(sigma)} {u}
+            σ = {formatNumber(sigma)} {u}
           </span>
           {readOnly ? null : (
             <IconButton label={`Remove ${label.toLowerCase()} tolerance`} className="size-6" onClick={() => setAt(path, undefined)}>

@@ -7,7 +7,6 @@ import { cn } from "@frontend/lib/cn";
 import { sentence } from "@frontend/lib/form";
 import { errorsUnder, fieldError } from "../lib/issues";
 import { KIND_COLOR, STAGE_LABEL } from "../lib/kinds";
-import { formatFigure } from "../lib/number-text";
 import { formatPath } from "@shared/schemas/stack-file";
 import {
   filterRows,
@@ -15,7 +14,6 @@ import {
   sigmaOf,
   sortRows,
   toleranceRows,
-  UNIT_LABEL,
   type SortDir,
   type SortKey,
   type ToleranceRow,
@@ -23,6 +21,7 @@ import {
 import { useEditor } from "./editor-context";
 import { NumberInput, SelectInput, TextInput } from "./fields";
 import { DistSelect, OwnerPicker, StageSelect, withDist } from "./tolerance-controls";
+import { formatNumber, unitText } from "@shared/format";
 
 const COLUMNS: { key: SortKey; label: string; align?: "right"; className?: string }[] = [
   { key: "element", label: "Element", className: "w-[8%]" },
@@ -136,7 +135,7 @@ function Row({ row: r, selected, onSelect }: { row: ToleranceRow; selected: bool
   const list = issues.elements.get(r.elementIndex);
   const err = (sub: string) => fieldError(list, `${field}.${sub}`);
   const all = errorsUnder(list, field);
-  const u = UNIT_LABEL[r.unit];
+  const u = unitText(r.unit);
   const key = path.join(".");
   const name = r.sourceId;
   return (
@@ -176,7 +175,7 @@ function Row({ row: r, selected, onSelect }: { row: ToleranceRow; selected: bool
           <NumberInput aria-label={`${name} mean shift`} unit={u} placeholder="0" value={r.tol.mean} disabled={readOnly} invalid={!!err("mean")} onChange={(v) => setAt([...path, "mean"], v, `${key}.mean`)} />
         </td>
         <td className="num px-2 py-1 text-ink/60">
-          {formatFigure(sigmaOf(r.tol))}
+          {formatNumber(sigmaOf(r.tol))}
           <span className="ml-0.5 text-ink/40">{u}</span>
         </td>
         <td className="px-2 py-1">

@@ -19,35 +19,3 @@ export function numberText(value: number | undefined | null): string {
   if (value === undefined || value === null || !Number.isFinite(value)) return "";
   return String(Number(value.toPrecision(12)));
 }
-
-const group = (s: string) => s.replace(/\B(?=(\d{3})+(?!\d))/g, ",");
-
-/** 3000 -> "3,000". */
-export function formatCount(n: number): string {
-  return group(String(Math.round(n)));
-}
-
-/** A figure for the estimate: three significant digits, at most four decimals. */
-export function formatFigure(v: number): string {
-  if (!Number.isFinite(v)) return "—";
-  const a = Math.abs(v);
-  if (a >= 100) return v.toFixed(0);
-  if (a >= 10) return v.toFixed(1);
-  if (a >= 1) return v.toFixed(2);
-  if (a >= 0.01) return v.toFixed(3);
-  if (a === 0) return "0";
-  return v.toPrecision(2);
-}
-
-export function formatMrad(deg: number): string {
-  return formatFigure((deg * Math.PI) / 180 * 1000);
-}
-
-/** A yield as a percentage with enough digits to tell 99.73 % from 99.9 %. */
-export function formatYield(y: number): string {
-  if (!Number.isFinite(y)) return "—";
-  const pct = y * 100;
-  if (pct >= 99.99 && pct < 100) return `${pct.toFixed(3)} %`;
-  if (pct >= 99 && pct < 100) return `${pct.toFixed(2)} %`;
-  return `${pct.toFixed(1)} %`;
-}

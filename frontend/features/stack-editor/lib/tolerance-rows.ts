@@ -41,7 +41,6 @@ export const SLOTS: SlotSpec[] = [
   { path: ["axisTol"], suffix: "axis", label: "Sensing-axis alignment", unit: "deg", applies: sensor },
 ];
 
-export const UNIT_LABEL: Record<ToleranceUnit, string> = { um: "µm", deg: "°" };
 
 export interface ToleranceRow {
   /** MODEL.md source id, e.g. "mag.bondLine", "gyro.axis.g3" */

@@ -1,7 +1,7 @@
 /** Pieces every part of the study comparison shares: the A/B marks, the change tones, signed numbers. */
 import type { ChangeTone } from "../lib/compare";
-import { formatNumber } from "../lib/format";
 import { SERIES_A, SERIES_B } from "./chart-theme";
+import { formatNumber } from "@shared/format";
 
 export const TONE_CLASS: Record<ChangeTone, string> = {
   better: "bg-pass/[0.09] text-pass font-semibold",

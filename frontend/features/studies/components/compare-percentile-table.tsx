@@ -3,11 +3,11 @@ import type { ResultFile } from "@shared/schemas/result-file";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { cn } from "@frontend/lib/cn";
 import { changeTone, relativeChange } from "../lib/compare";
-import { formatNumber } from "../lib/format";
 import { groupMetrics, metricLabel } from "@shared/metrics";
 import { PERCENTILES, type PercentileKey } from "../lib/percentiles";
 import { signed, TONE_CLASS } from "./compare-parts";
 import { SegmentedControl } from "./segmented-control";
+import { formatNumber } from "@shared/format";
 
 /** Key percentiles of A and B per metric, with the relative change at a chosen percentile. */
 export function PercentileTable({ ra, rb, elementOrder }: { ra: ResultFile; rb: ResultFile; elementOrder: string[] }) {

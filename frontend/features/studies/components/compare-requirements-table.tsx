@@ -3,10 +3,10 @@ import { Panel } from "@frontend/components/ui/panel";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { cn } from "@frontend/lib/cn";
 import { requirementComparison, type ChangeTone } from "../lib/compare";
-import { formatNumber, formatPpm, formatYield, formatYieldRange } from "../lib/format";
 import { metricLabel } from "@shared/metrics";
 import { ABLabel, signed, TONE_CLASS } from "./compare-parts";
 import { VerdictBadge } from "./study-status-badge";
+import { formatNumber, formatPpm, formatYield, formatYieldRange } from "@shared/format";
 
 /** Each requirement's predicted yield in A and B, the change and whether it is beyond sampling error. */
 export function RequirementsCompared({ ra, rb }: { ra: ResultFile; rb: ResultFile }) {

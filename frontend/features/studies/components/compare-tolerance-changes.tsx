@@ -2,8 +2,8 @@ import type { ResultFile } from "@shared/schemas/result-file";
 import { Panel } from "@frontend/components/ui/panel";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { sourceChanges } from "../lib/compare";
-import { formatNumber } from "../lib/format";
 import { ABLabel } from "./compare-parts";
+import { formatNumber } from "@shared/format";
 
 /** The tolerance sources whose width, mean or stage differ between A and B. */
 export function TolerancesThatDiffer({ ra, rb }: { ra: ResultFile; rb: ResultFile }) {

@@ -4,9 +4,9 @@ import { Badge } from "@frontend/components/ui/badge";
 import { Select } from "@frontend/components/ui/field";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { cn } from "@frontend/lib/cn";
-import { formatPct } from "../lib/format";
 import { metricLabel } from "@shared/metrics";
 import { ABLabel, signed } from "./compare-parts";
+import { formatPct } from "@shared/format";
 
 /** The largest linearised shares of one requirement metric in A and B. */
 export function TopContributors({ ra, rb }: { ra: ResultFile; rb: ResultFile }) {

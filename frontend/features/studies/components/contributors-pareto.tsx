@@ -2,11 +2,11 @@ import { useMemo } from "react";
 import { Bar, CartesianGrid, Cell, ComposedChart, Line, Tooltip, XAxis, YAxis } from "recharts";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
-import { formatNumber, formatPct } from "../lib/format";
 import { metricLabel } from "@shared/metrics";
 import { paretoRows, sourcesToReach, type ContributorMethod, type ParetoRow } from "../lib/pareto";
 import { axisLine, axisTick, gridProps, INK, SENSOR_COLOUR, tooltipStyle } from "./chart-theme";
 import { MetricSelect } from "./metric-select";
+import { formatNumber, formatPct } from "@shared/format";
 
 type Contributors = ResultFile["contributors"][number];
 

@@ -3,10 +3,10 @@ import { Area, CartesianGrid, ComposedChart, Line, LineChart, ReferenceLine, Too
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Select } from "@frontend/components/ui/field";
 import { lateDrift, statRows, yieldRows, type ConvergenceStat } from "../lib/convergence";
-import { formatCount, formatNumber, formatPct, formatValue, formatYield } from "../lib/format";
 import { niceTicks } from "../lib/histogram";
 import { metricLabel } from "@shared/metrics";
 import { axisLine, axisTick, FAIL, gridProps, INK, SERIES_A, tooltipStyle } from "./chart-theme";
+import { formatCount, formatNumber, formatPct, formatValue, formatYield } from "@shared/format";
 
 const pLabel = (p: number) => `p${formatNumber(p * 100, 4)}`;
 const trialsTick = (v: number) => (v >= 1e6 ? `${formatNumber(v / 1e6, 2)}M` : v >= 1000 ? `${Math.round(v / 1000)}k` : String(v));

@@ -1,10 +1,10 @@
 import { useMemo, useState } from "react";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { AXES, crossAxisMatrix, crossAxisSensors, heat } from "../lib/cross-axis";
-import { formatDeg, formatMrad, formatNumber } from "../lib/format";
 import { PERCENTILES, percentileLabel, type PercentileKey } from "../lib/percentiles";
 import { SENSOR_COLOUR } from "./chart-theme";
 import { SegmentedControl } from "./segmented-control";
+import { formatDeg, formatMrad, formatNumber } from "@shared/format";
 
 /**
  * Each sensor's 3×3 cross-axis matrix at the chosen percentile, shaded by size. Row i is the

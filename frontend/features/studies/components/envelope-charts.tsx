@@ -1,10 +1,10 @@
 import { useMemo, useState } from "react";
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceLine, Tooltip, XAxis, YAxis } from "recharts";
 import type { ResultFile } from "@shared/schemas/result-file";
-import { formatDeg, formatMrad, formatNumber } from "../lib/format";
 import { envelopeByTilt, envelopeExtent, type TiltSeries } from "../lib/envelope";
 import { axisLine, axisTick, FAIL, gridProps, INK, tooltipStyle } from "./chart-theme";
 import { SegmentedControl } from "./segmented-control";
+import { formatDeg, formatMrad, formatNumber } from "@shared/format";
 
 type Envelope = NonNullable<ResultFile["envelope"]>;
 

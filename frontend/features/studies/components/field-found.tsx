@@ -2,7 +2,7 @@ import { WMM_FIRST_DATE, WMM_LAST_DATE } from "@shared/schemas/site";
 import { Badge } from "@frontend/components/ui/badge";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { cn } from "@frontend/lib/cn";
-import { formatCount, formatDeg, formatMrad } from "../lib/format";
+import { formatCount, formatDeg, formatMrad } from "@shared/format";
 
 export interface FoundField {
   model: string;

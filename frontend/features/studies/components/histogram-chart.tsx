@@ -1,11 +1,11 @@
 import { useMemo, useState } from "react";
 import { Bar, BarChart, CartesianGrid, Cell, ReferenceLine, Tooltip, XAxis, YAxis } from "recharts";
 import type { ResultFile } from "@shared/schemas/result-file";
-import { formatCount, formatDeg, formatMrad, formatNumber, formatPct, formatValue } from "../lib/format";
 import { histogramRows, niceTicks } from "../lib/histogram";
 import { axisLine, axisTick, FAIL, gridProps, INK, tooltipStyle } from "./chart-theme";
 import { MetricSelect } from "./metric-select";
 import { SegmentedControl } from "./segmented-control";
+import { formatCount, formatDeg, formatMrad, formatNumber, formatPct, formatValue } from "@shared/format";
 
 /**
  * The distribution of one metric over the trials, with the requirement's limit drawn and the

@@ -3,8 +3,8 @@ import type { ResultFile } from "@shared/schemas/result-file";
 import { Button } from "@frontend/components/ui/button";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { cn } from "@frontend/lib/cn";
-import { formatNumber, MRAD_PER_DEG } from "../lib/format";
 import { groupMetrics, metricLabel } from "@shared/metrics";
+import { MRAD_PER_DEG, formatNumber } from "@shared/format";
 
 /**
  * Every metric of the study with its mean, σ and shortest 95 % coverage interval (signed),

@@ -1,8 +1,8 @@
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Badge } from "@frontend/components/ui/badge";
 import { cn } from "@frontend/lib/cn";
-import { formatCount, formatDeg, formatMrad, formatPct, formatPpm, formatYield, formatYieldRange } from "../lib/format";
 import { metricLabel } from "@shared/metrics";
+import { formatCount, formatDeg, formatMrad, formatPct, formatPpm, formatYield, formatYieldRange } from "@shared/format";
 
 type Requirement = ResultFile["requirements"][number];
 

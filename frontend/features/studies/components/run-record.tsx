@@ -1,8 +1,8 @@
 import type { ReactNode } from "react";
 import type { StudyDetail } from "../api/get-study";
-import { formatCount, formatDeg, formatDuration, formatMrad, formatNumber } from "../lib/format";
 import { tiltLabel } from "../lib/envelope";
 import { attitudeCount } from "../lib/study-form";
+import { formatCount, formatDeg, formatDuration, formatMrad, formatNumber } from "@shared/format";
 
 /** The frozen settings of a study and how its run went: what a reviewer needs to reproduce it. */
 export function RunRecord({ study }: { study: StudyDetail }) {

@@ -2,9 +2,9 @@ import { Button } from "@frontend/components/ui/button";
 import { Field, Input, Select } from "@frontend/components/ui/field";
 import { PlusIcon, TrashIcon } from "@frontend/components/ui/icons";
 import { Panel } from "@frontend/components/ui/panel";
-import { formatCount } from "../lib/format";
 import { DEFAULT_TILTS } from "../lib/study-form";
 import type { SettingsSectionProps } from "./settings-section-props";
+import { formatCount } from "@shared/format";
 
 /** The heading step, the compass's sensors (when the stack has several) and the table of tilts. */
 export function SettingsAttitudePanel({ v, set, errors, sensors, attitudes }: SettingsSectionProps & { sensors: { accel: string[]; mag: string[] }; attitudes: number | null }) {

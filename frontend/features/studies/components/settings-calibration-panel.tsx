@@ -1,9 +1,9 @@
 import { Field, Input, Select } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
-import { formatNumber, MRAD_PER_DEG } from "../lib/format";
 import type { StudyFormValues } from "../lib/study-form";
 import { SegmentedControl } from "./segmented-control";
 import type { SettingsSectionProps } from "./settings-section-props";
+import { MRAD_PER_DEG, formatNumber } from "@shared/format";
 
 /** Calibration after a stage and the residual it leaves. */
 export function SettingsCalibrationPanel({ v, set, errors }: SettingsSectionProps) {

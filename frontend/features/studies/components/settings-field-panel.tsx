@@ -2,10 +2,10 @@ import type { UseQueryResult } from "@tanstack/react-query";
 import { WMM_FIRST_DATE, WMM_LAST_DATE } from "@shared/schemas/site";
 import { Field, Input } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
-import { formatMrad, formatNumber } from "../lib/format";
 import { FieldFound, type FoundField } from "./field-found";
 import { SegmentedControl } from "./segmented-control";
 import type { SettingsSectionProps } from "./settings-section-props";
+import { formatMrad, formatNumber } from "@shared/format";
 
 /** The magnetic field's inclination: typed, or looked up for a site with WMM2025. */
 export function SettingsFieldPanel({ v, set, errors, site, field }: SettingsSectionProps & { site: unknown; field: UseQueryResult<FoundField> & { isPlaceholderData: boolean } }) {

@@ -3,9 +3,9 @@ import { Field, Input, Select } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
-import { formatCount, formatDeg, formatMrad, formatPct, formatYield } from "../lib/format";
 import { metricLabel } from "@shared/metrics";
 import type { SettingsSectionProps } from "./settings-section-props";
+import { formatCount, formatDeg, formatMrad, formatPct, formatYield } from "@shared/format";
 
 const REVISION_STATUS: Record<string, string> = { draft: "draft", in_review: "in review", approved: "approved" };
 

@@ -1,8 +1,8 @@
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Panel } from "@frontend/components/ui/panel";
-import { formatCount, formatDeg, formatDuration } from "../lib/format";
 import type { FormErrors, StudyFormValues } from "../lib/study-form";
+import { formatCount, formatDeg, formatDuration } from "@shared/format";
 
 /** The run's size, dip and estimated time beside the form, with the start button. */
 export function SettingsRunPanel({

@@ -2,12 +2,12 @@ import { useMemo, useState } from "react";
 import { Bar, BarChart, CartesianGrid, Legend, Tooltip, XAxis, YAxis } from "recharts";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
-import { formatNumber, formatValue } from "../lib/format";
 import { niceCeil } from "../lib/envelope";
 import { niceTicks } from "../lib/histogram";
 import { parseMetric } from "@shared/metrics";
 import { axisLine, axisTick, gridProps, INK, tooltipStyle } from "./chart-theme";
 import { SegmentedControl } from "./segmented-control";
+import { formatNumber, formatValue } from "@shared/format";
 
 const SERIES = [
   { key: "worstCase", name: "Worst case", colour: "#b91c1c" },

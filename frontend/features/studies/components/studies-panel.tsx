@@ -8,8 +8,8 @@ import { Spinner } from "@frontend/components/ui/spinner";
 import { cn } from "@frontend/lib/cn";
 import { formatDateTime, formatRelative } from "@frontend/lib/format";
 import { useStudies } from "../api/get-studies";
-import { formatCount } from "../lib/format";
 import { StudyStatusBadge, VerdictBadge } from "./study-status-badge";
+import { formatCount } from "@shared/format";
 
 const SHOWN = 6;
 

@@ -3,8 +3,8 @@ import type { StudySummary } from "@shared/schemas/studies";
 import { Button } from "@frontend/components/ui/button";
 import { CloseIcon } from "@frontend/components/ui/icons";
 import { cn } from "@frontend/lib/cn";
-import { formatCount, formatDuration, formatRate } from "../lib/format";
 import { PACE_WINDOW_MS, progressView, recentPace, type ProgressSample } from "../lib/progress";
+import { formatCount, formatDuration, formatRate } from "@shared/format";
 
 /**
  * The running study: a bar with trials done, the pace and the time left, and Cancel.

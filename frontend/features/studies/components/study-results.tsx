@@ -16,8 +16,8 @@ import { StudyCautions } from "./study-cautions";
 import { TrialViewerSheet, type WorstTrialPick } from "./trial-viewer-sheet";
 import { WorstTrials } from "./worst-trials";
 import { SERIES_A } from "./chart-theme";
-import { formatValue } from "../lib/format";
 import { metricLabel } from "@shared/metrics";
+import { formatValue } from "@shared/format";
 
 /**
  * The figures of a finished study. Choosing a requirement card points the histogram, the

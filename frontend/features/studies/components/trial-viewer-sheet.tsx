@@ -4,7 +4,7 @@ import type { StackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
 import { CloseIcon } from "@frontend/components/ui/icons";
 import { Spinner } from "@frontend/components/ui/spinner";
-import { formatCount } from "../lib/format";
+import { formatCount } from "@shared/format";
 
 // three.js stays in its own chunk until someone opens a trial.
 const StackViewer = lazy(() => import("@frontend/features/viewer3d"));

@@ -1,9 +1,9 @@
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Button } from "@frontend/components/ui/button";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
-import { formatCount, formatValue } from "../lib/format";
 import { metricLabel } from "@shared/metrics";
 import { MetricSelect } from "./metric-select";
+import { formatCount, formatValue } from "@shared/format";
 
 /** The trials with the largest |value| of a metric, each one click from its 3D pose. */
 export function WorstTrials({

@@ -6,8 +6,8 @@
 import type { ResultFile } from "@shared/schemas/result-file";
 import type { StudyFile } from "@shared/schemas/study-file";
 import type { FieldAtSite } from "@shared/schemas/site";
-import { formatCount, formatDeg, formatNumber } from "./format";
 import { tiltLabel } from "./envelope";
+import { formatCount, formatDeg, formatNumber } from "@shared/format";
 
 export interface SettingRow {
   label: string;

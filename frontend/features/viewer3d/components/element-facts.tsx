@@ -2,7 +2,8 @@
 import type { StackFile } from "@shared/schemas/stack-file";
 import { BOND_LINE, KIND_COLOUR, KIND_LABEL } from "../lib/palette";
 import type { PoseSet } from "../lib/poses";
-import { fmt, fmtAngle } from "../lib/viewer-format";
+import { fmt } from "../lib/viewer-format";
+import { formatValue } from "@shared/format";
 
 export function ElementFacts({ stack, set, index, part }: { stack: StackFile; set: PoseSet; index: number; part: "body" | "bond" }) {
   const e = stack.elements[index];
@@ -46,7 +47,7 @@ export function ElementFacts({ stack, set, index, part }: { stack: StackFile; se
               {e.parent !== null ? (
                 <>
                   <dt className="text-paper/55">tilt</dt>
-                  <dd className="num text-left">{fmtAngle(tilt)}</dd>
+                  <dd className="num text-left">{formatValue(tilt, "deg")}</dd>
                 </>
               ) : null}
             </>

@@ -2,7 +2,8 @@
 import { cn } from "@frontend/lib/cn";
 import type { ViewerPose } from "../hooks/use-viewer-pose";
 import type { ViewPreset } from "../lib/framing";
-import { fmtMm, fmtValue } from "../lib/viewer-format";
+import { fmtMm } from "../lib/viewer-format";
+import { formatNumberUnit } from "@shared/format";
 
 export function PoseCaption({ pose, exaggeration, explode, onView }: { pose: ViewerPose; exaggeration: number; explode: number; onView: (preset: ViewPreset) => void }) {
   const { poseLabel, pick, recomputed, mismatch, poseError, vm, choice, stackIssue, drawn } = pose;
@@ -20,8 +21,8 @@ export function PoseCaption({ pose, exaggeration, explode, onView }: { pose: Vie
             {pick && recomputed !== null ? (
               <div className={cn("mt-0.5", mismatch ? "font-semibold text-[#f5a08a]" : "text-paper/65")} data-testid="recomputed">
                 {mismatch
-                  ? `Regenerated trial gives ${pick.metric} = ${fmtValue(recomputed, pick.unit)}, not ${fmtValue(pick.value, pick.unit)}: the stack or study changed since the study ran.`
-                  : `Regenerated from the seed: ${pick.metric} = ${fmtValue(recomputed, pick.unit)}`}
+                  ? `Regenerated trial gives ${pick.metric} = ${formatNumberUnit(recomputed, pick.unit)}, not ${formatNumberUnit(pick.value, pick.unit)}: the stack or study changed since the study ran.`
+                  : `Regenerated from the seed: ${pick.metric} = ${formatNumberUnit(recomputed, pick.unit)}`}
               </div>
             ) : null}
             {poseError ? <div className="mt-0.5 font-semibold text-[#f5a08a]">{poseError}</div> : null}

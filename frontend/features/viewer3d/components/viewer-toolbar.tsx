@@ -2,7 +2,8 @@
 import { cn } from "@frontend/lib/cn";
 import type { ViewerPose } from "../hooks/use-viewer-pose";
 import type { ViewSettings } from "../hooks/use-view-settings";
-import { EXAGGERATION_STOPS, fmt, fmtCount, fmtMm, fmtValue, fromSlider, sectionSign, toSlider } from "../lib/viewer-format";
+import { EXAGGERATION_STOPS, fmt, fmtMm, fromSlider, sectionSign, toSlider } from "../lib/viewer-format";
+import { formatCount, formatNumberUnit } from "@shared/format";
 
 export function ViewerToolbar({ pose, settings, onSave, canSave }: { pose: ViewerPose; settings: ViewSettings; onSave: () => void; canSave: boolean }) {
   return (
@@ -24,7 +25,7 @@ export function ViewerToolbar({ pose, settings, onSave, canSave }: { pose: Viewe
               <optgroup label="Worst trial for">
                 {pose.worst.map((w, i) => (
                   <option key={`${w.metric}-${w.trialIndex}-${i}`} value={`worst:${i}`}>
-                    {w.metric}: {fmtValue(w.value, w.unit)} (trial {w.trialIndex})
+                    {w.metric}: {formatNumberUnit(w.value, w.unit)} (trial {w.trialIndex})
                   </option>
                 ))}
               </optgroup>
@@ -64,7 +65,7 @@ export function ViewerToolbar({ pose, settings, onSave, canSave }: { pose: Viewe
             >
               ›
             </button>
-            <span className="text-ink/50">of {fmtCount(pose.trials)}</span>
+            <span className="text-ink/50">of {formatCount(pose.trials)}</span>
           </div>
         ) : null}
         <div className="flex items-center gap-2">

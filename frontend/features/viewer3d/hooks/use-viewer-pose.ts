@@ -7,7 +7,7 @@ import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { type StackFile, validateStackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
 import { compileForViewer, drawsFor, type PoseChoice, poseSet } from "../lib/poses";
-import { fmtValue } from "../lib/viewer-format";
+import { formatNumberUnit } from "@shared/format";
 
 export interface WorstTrialPick {
   metric: string;
@@ -92,7 +92,7 @@ export function useViewerPose({ stack, study, worstTrials, trialIndex, onTrialCh
       : choice.kind === "mean"
         ? "Tolerance means (systematic shifts only)"
         : pick
-          ? `Trial ${choice.index}: worst ${pick.metric}, ${fmtValue(pick.value, pick.unit)}`
+          ? `Trial ${choice.index}: worst ${pick.metric}, ${formatNumberUnit(pick.value, pick.unit)}`
           : `Trial ${choice.index}`;
 
   const selectValue = choice.kind === "trial" ? (pickIndex >= 0 ? `worst:${pickIndex}` : "trial") : choice.kind;

@@ -1,15 +1,7 @@
-/** Numbers as the 3D view's toolbar, caption and tooltip write them. */
+/** Coordinates as the 3D view's toolbar, caption and tooltip write them (fixed decimals, so they do not jump); every other number: shared/format.ts. */
 
 export const fmt = (v: number, digits = 2) => v.toFixed(digits);
 export const fmtMm = (v: number) => `${v.toFixed(2)} mm`;
-export const fmtCount = (n: number) => n.toLocaleString("en-GB").replace(/,/g, "\u202f");
-export function fmtValue(v: number, unit?: string): string {
-  const a = Math.abs(v);
-  const s = a >= 100 ? v.toFixed(0) : a >= 10 ? v.toFixed(1) : a >= 1 ? v.toFixed(2) : v.toPrecision(2);
-  if (!unit) return s;
-  return unit === "°" ? `${s}°` : `${s} ${unit}`;
-}
-export const fmtAngle = (deg: number) => `${deg.toFixed(3)}° (${((deg * Math.PI) / 180 * 1000).toFixed(2)} mrad)`;
 
 /** The exaggeration slider is logarithmic from ×1 to ×200, snapping to round factors. */
 export const MAX_EXAGGERATION = 200;
