@@ -9,7 +9,7 @@ import type { AppDeps } from "../deps";
 import { projects, reports, stackRevisions } from "../db/schema";
 import type { Actor } from "../middleware/session";
 import { membersWithRole, notify } from "./notifications";
-import { reportCode } from "./report-format";
+import { reportCode } from "@shared/reports/format";
 
 /** What a notification needs: the database, the public address for links, the mail. */
 export type NotifyDeps = Pick<AppDeps, "db" | "baseURL" | "mail">;
