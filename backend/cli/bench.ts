@@ -1,45 +1,159 @@
 /**
- * npm run bench: the reference stack and study of tests/fixtures at 10^5 and 10^6
- * trials on worker threads; prints trials per second (wall clock and per CPU-second, the
- * second being what the code costs when the machine is shared), threads and peak memory
- * (RSS of the whole process, workers included).
+ * npm run bench: the figures of docs/engine.md on the reference stack and study.
+ *
+ *   engine: process start to first trial, CPU per trial (µs) and trials per CPU-second,
+ *           wall time at 10^4, 10^5, 10^6 trials with 1 and 2 threads, peak memory at 10^7
+ *           trials, the live estimate's time from an edit to its figures;
+ *   API:    GET /api/projects with 50 signed-in clients (autocannon), alone and while a long
+ *           study runs: reads per second, p99 latency, failed requests.
+ *
+ * Options: --quick (10^4 and 10^5 only, no 10^7), --no-api, --api-seconds N (default 10).
+ * The machine's load is printed with every figure: wall-clock figures mean little when other
+ * processes share the cores, CPU-seconds mean more.
  */
-import { readFileSync } from "node:fs";
-import { cpus, loadavg } from "node:os";
+import { spawn, type ChildProcess } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { cpus, loadavg, tmpdir } from "node:os";
+import { join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { defaultThreads, runStudyOnThreads } from "../engine/runner";
+import autocannon from "autocannon";
+import { EnginePool } from "../engine/pool";
+import { runStudy } from "@shared/engine/study";
 import { validateStackFile } from "@shared/schemas/stack-file";
 import { validateStudy } from "@shared/schemas/study-file";
 
-const fixture = (name: string) => fileURLToPath(new URL(`../../tests/fixtures/${name}`, import.meta.url));
+const root = fileURLToPath(new URL("../../", import.meta.url));
+const fixture = (name: string) => JSON.parse(readFileSync(join(root, "tests/fixtures", name), "utf8"));
+const args = process.argv.slice(2);
+const quick = args.includes("--quick");
+const apiSeconds = Number(args[args.indexOf("--api-seconds") + 1]) || 10;
+const out = (line: string) => process.stdout.write(line + "\n");
+const load = () => `load ${loadavg()[0].toFixed(1)} on ${cpus().length} cores`;
+const fmt = (n: number) => Math.round(n).toLocaleString("en-US");
 
-async function main() {
-  const stackV = validateStackFile(JSON.parse(readFileSync(fixture("stack-reference.json"), "utf8")));
+async function engine() {
+  const stackV = validateStackFile(fixture("stack-reference.json"));
   if (!stackV.ok) throw new Error("reference stack does not validate");
-  const studyV = validateStudy(JSON.parse(readFileSync(fixture("study-reference.json"), "utf8")), stackV.stack);
+  const studyV = validateStudy(fixture("study-reference.json"), stackV.stack);
   if (!studyV.ok) throw new Error("reference study does not validate");
-  const threadArg = process.argv.indexOf("--threads");
-  const threads = threadArg > 0 ? Number(process.argv[threadArg + 1]) : defaultThreads();
-  const nAtt = (360 / (studyV.study.headingStepDeg ?? 10)) * (studyV.study.tilts?.length ?? 5);
-  console.log(`reference stack, ${nAtt}-attitude sweep, ${threads} thread(s), Node ${process.version}`);
-  const [load1] = loadavg();
-  console.log(`load average before: ${load1.toFixed(2)} on ${cpus().length} cores (other processes share the machine: wall-clock figures drop with it)`);
-  console.log("trials        wall s   trials/s    CPU s   trials per CPU-s   peak RSS");
-  for (const trials of [100_000, 1_000_000]) {
-    const t0 = performance.now();
-    const c0 = process.cpuUsage();
-    const r = await runStudyOnThreads(stackV.stack, studyV.study, { trials, threads });
-    const s = (performance.now() - t0) / 1000;
-    const c = process.cpuUsage(c0);
-    const cpuS = (c.user + c.system) / 1e6;
-    const rssMb = process.resourceUsage().maxRSS / 1024;
-    console.log(
-      `${String(r.trials).padEnd(12)} ${s.toFixed(2).padStart(7)} ${Math.round(r.trials / s).toLocaleString("en-US").padStart(10)} ${cpuS.toFixed(2).padStart(8)} ${Math.round(r.trials / cpuS).toLocaleString("en-US").padStart(18)} ${rssMb.toFixed(0).padStart(7)} MB`,
-    );
+  const stack = stackV.stack, study = studyV.study;
+
+  // process start to first trial: the pool starts, compiles and returns one block
+  const pool1 = new EnginePool({ threads: 1 });
+  let first = 0;
+  await pool1.run(stack, study, { trials: 4096, onProgress: () => (first ||= performance.now()) });
+  out(`process start to first block of trials (4,096) back: ${first.toFixed(0)} ms · ${load()}`);
+  await pool1.stop();
+
+  // in this thread: CPU per trial of the loop alone
+  const c0 = process.cpuUsage();
+  runStudy(stack, study, { trials: 5 * 4096 });
+  const c = process.cpuUsage(c0);
+  const us = (c.user + c.system) / (5 * 4096);
+  out(`CPU per trial, one thread, whole study in process (20,480 trials): ${us.toFixed(1)} µs · ${fmt(1e6 / us)} trials per CPU-second · ${load()}`);
+
+  // the live estimate: an edit compiles the stack and runs 3,000 trials (stack editor's Web Worker)
+  const t0 = performance.now();
+  runStudy(stack, { ...study, trials: 3000 }, {});
+  out(`live estimate (3,000 trials, compile to figures, one thread): ${(performance.now() - t0).toFixed(0)} ms · ${load()}`);
+
+  out("");
+  out("trials       threads   wall s   trials/s (wall)   CPU s   trials per CPU-s   peak RSS   load");
+  const sizes = quick ? [10_000, 100_000] : [10_000, 100_000, 1_000_000];
+  const row = async (trials: number, threads: number) => {
+    const t = performance.now();
+    const cpu0 = process.cpuUsage();
+    const pool = new EnginePool({ threads });
+    const r = await pool.run(stack, study, { trials });
+    await pool.stop();
+    const s = (performance.now() - t) / 1000;
+    const cu = process.cpuUsage(cpu0);
+    const cpuS = (cu.user + cu.system) / 1e6;
+    const rss = process.resourceUsage().maxRSS / 1024;
+    out(`${fmt(r.trials).padEnd(12)} ${String(threads).padStart(7)} ${s.toFixed(2).padStart(8)} ${fmt(r.trials / s).padStart(17)} ${cpuS.toFixed(2).padStart(7)} ${fmt(r.trials / cpuS).padStart(18)} ${rss.toFixed(0).padStart(7)} MB   ${loadavg()[0].toFixed(1)}`);
+  };
+  for (const n of sizes) for (const th of [1, 2]) await row(n, th);
+  if (!quick) {
+    await row(10_000_000, 2);
+    out("(peak RSS is of the whole process, worker threads included; it stays bounded: the percentile stores do not grow with the trials)");
   }
 }
 
+async function startServer(): Promise<{ child: ChildProcess; url: string; dir: string }> {
+  const dir = mkdtempSync(join(tmpdir(), "orthostack-bench-"));
+  const child = spawn(join(root, "node_modules/.bin/tsx"), [join(root, "backend/cli/bench-server.ts")], {
+    cwd: root,
+    env: { ...process.env, DATA_DIR: dir, SEED_DEMO: "true", NODE_ENV: "production", MAIL_CATCHER_PORT: "0" },
+    stdio: ["ignore", "pipe", "inherit"],
+  });
+  const port = await new Promise<number>((resolve, reject) => {
+    let buf = "";
+    child.stdout!.on("data", (d: Buffer) => {
+      buf += d.toString();
+      const line = buf.split("\n").find((l) => l.startsWith("{"));
+      if (line) resolve(JSON.parse(line).port);
+    });
+    child.on("exit", (code) => reject(new Error(`bench server exited with ${code}`)));
+  });
+  return { child, url: `http://127.0.0.1:${port}`, dir };
+}
+
+async function json(url: string, init: RequestInit = {}, cookie = "") {
+  const r = await fetch(url, { ...init, headers: { "content-type": "application/json", origin: new URL(url).origin, cookie, ...(init.headers ?? {}) } });
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any -- a load script reading a few known fields
+  const body = (await r.json().catch(() => null)) as any;
+  return { status: r.status, body, headers: r.headers };
+}
+
+async function api() {
+  const { child, url, dir } = await startServer();
+  try {
+    const signIn = await fetch(`${url}/api/auth/sign-in/email`, {
+      method: "POST",
+      headers: { "content-type": "application/json", origin: url },
+      body: JSON.stringify({ email: "engineer@example.com", password: "orthostack-demo" }),
+    });
+    if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status}`);
+    const cookie = signIn.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    // let the demo study the seed queued finish first: "alone" means no study running
+    for (let i = 0; i < 600; i++) {
+      const projects = await json(`${url}/api/projects`, {}, cookie);
+      const lists = await Promise.all((projects.body?.projects ?? projects.body ?? []).map((p: { id: string }) => json(`${url}/api/projects/${p.id}/studies`, {}, cookie)));
+      if (!lists.some((l) => /"status":"(queued|running)"/.test(JSON.stringify(l.body)))) break;
+      await new Promise((r) => setTimeout(r, 500));
+    }
+    const measure = async (label: string) => {
+      const r = await autocannon({ url: `${url}/api/projects`, connections: 50, duration: apiSeconds, headers: { cookie } });
+      const failed = r.errors + r.timeouts + r.non2xx;
+      out(`${label.padEnd(34)} ${fmt(r.requests.average).padStart(7)} reads/s   p99 ${String(r.latency.p99).padStart(5)} ms   failed ${failed}   (${fmt(r.requests.total)} requests, ${load()})`);
+      return r.requests.average;
+    };
+    out("");
+    out(`GET /api/projects, 50 signed-in clients, ${apiSeconds} s each (autocannon):`);
+    const alone = await measure("alone");
+    const p = await json(`${url}/api/projects`, { method: "POST", body: JSON.stringify({ name: "bench" }) }, cookie);
+    const rev = await json(`${url}/api/projects/${p.body.id}/revisions`, { method: "POST", body: JSON.stringify({ stack: fixture("stack-reference.json") }) }, cookie);
+    const st = await json(`${url}/api/revisions/${rev.body.id}/studies`, { method: "POST", body: JSON.stringify({ study: { ...fixture("study-reference.json"), trials: 5_000_000 } }) }, cookie);
+    if (st.status !== 202) throw new Error(`study not queued: ${st.status} ${JSON.stringify(st.body)}`);
+    await new Promise((r) => setTimeout(r, 1000));
+    const busy = await measure("while a 5,000,000-trial study runs");
+    const s = await json(`${url}/api/studies/${st.body.id}`, {}, cookie);
+    out(`the study was ${s.body.status} during the measurement (${fmt(s.body.progress?.done ?? 0)} trials done); reads while it ran: ${((100 * busy) / alone).toFixed(0)} % of alone`);
+    await json(`${url}/api/studies/${st.body.id}/cancel`, { method: "POST", body: "{}" }, cookie);
+  } finally {
+    child.kill("SIGTERM");
+    await new Promise((r) => child.once("exit", r));
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+async function main() {
+  out(`Orthostack bench · Node ${process.version} · ${cpus().length} cores (${cpus()[0]?.model ?? "?"}) · ${load()} at start`);
+  await engine();
+  if (!args.includes("--no-api")) await api();
+}
+
 main().catch((e) => {
-  console.error(e);
+  process.stderr.write(`bench failed: ${e instanceof Error ? e.stack : String(e)}\n`);
   process.exit(1);
 });
