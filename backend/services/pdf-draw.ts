@@ -8,24 +8,15 @@ import { existsSync, readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import { inflateSync } from "node:zlib";
 import PDFDocument from "pdfkit";
+import { KIND_COLOUR, PALETTE } from "@shared/palette";
 
 export type Doc = PDFKit.PDFDocument;
 export type Weight = "regular" | "medium" | "bold" | "heavy";
 
-export const INK = "#17212b";
-export const PAPER = "#f7f5f0";
-export const LINE = "#d9d4c7";
-export const COLOURS = {
-  gyro: "#4f46e5",
-  accel: "#0d9488",
-  mag: "#e4572e",
-  asic: "#64748b",
-  substrate: "#7c8b4f",
-  board: "#2f4f3f",
-  pass: "#15803d",
-  fail: "#b91c1c",
-  spacer: "#94a3b8",
-};
+export const INK: string = PALETTE.ink;
+export const PAPER: string = PALETTE.paper;
+export const LINE: string = PALETTE.line;
+export const COLOURS = { ...KIND_COLOUR, pass: PALETTE.pass, fail: PALETTE.fail };
 export const MUTED = "#5d6670";
 export const FAINT = "#8a9099";
 

@@ -1,22 +1,15 @@
-/** Shared looks for the study charts (recharts), in the palette of DESIGN.md. */
+/** Shared looks for the study charts (recharts), in the palette of DESIGN.md (shared/palette.ts). */
+import { KIND_COLOUR, PALETTE } from "@shared/palette";
 
-export const INK = "#17212b";
-export const LINE = "#d9d4c7";
-export const PAPER = "#f7f5f0";
-export const PASS = "#15803d";
-export const FAIL = "#b91c1c";
-export const SENSOR_COLOUR: Record<string, string> = {
-  gyro: "#4f46e5",
-  accel: "#0d9488",
-  mag: "#e4572e",
-  asic: "#64748b",
-  substrate: "#7c8b4f",
-  board: "#2f4f3f",
-  spacer: "#64748b",
-};
+export const INK = PALETTE.ink;
+export const LINE = PALETTE.line;
+export const PAPER = PALETTE.paper;
+export const PASS = PALETTE.pass;
+export const FAIL = PALETTE.fail;
+export const SENSOR_COLOUR: Record<string, string> = KIND_COLOUR;
 /** Study A and study B wherever two are drawn together. */
-export const SERIES_A = "#4f46e5";
-export const SERIES_B = "#e4572e";
+export const SERIES_A = PALETTE.gyro;
+export const SERIES_B = PALETTE.mag;
 
 export const axisTick = { fontSize: 10.5, fill: "rgba(23,33,43,0.62)", fontFamily: "Manrope, sans-serif" } as const;
 export const axisLine = { stroke: LINE } as const;
@@ -25,7 +18,7 @@ export const axisLabel = (value: string, angle = 0) =>
   ({ value, angle, fontSize: 10.5, fill: "rgba(23,33,43,0.55)", fontWeight: 600, position: angle ? "insideLeft" : "insideBottom" }) as const;
 export const tooltipStyle = {
   contentStyle: {
-    background: "#fffefb",
+    background: PALETTE.panel,
     border: `1px solid ${LINE}`,
     borderRadius: 6,
     fontSize: 12,
