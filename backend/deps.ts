@@ -1,8 +1,9 @@
+import type { QueueStatus } from "./services/study-jobs";
 import type { Auth } from "./auth";
 import type { Database } from "./db/client";
 import type { MailService } from "./services/mail";
 import type { EnginePool } from "./engine/pool";
-import type { StudyQueue } from "./services/study-queue";
+import type { StudyScheduler } from "./services/study-queue";
 
 /** Writes a line of the server's log; an error goes with the message it explains. */
 export type Log = (message: string, err?: unknown) => void;
@@ -23,7 +24,10 @@ export type AppDeps = {
   clock: Clock;
   /** Outgoing mail (SMTP or the local catcher); null when the server runs without mail. */
   mail: MailService | null;
-  studyQueue: StudyQueue;
+  /** Runs studies: the in-process queue, or the job queue of server mode (DATABASE_URL). */
+  studyQueue: StudyScheduler;
+  /** Server mode only: the job queue's depth and the worker processes seen recently (health, status page). */
+  queueStatus?: () => Promise<QueueStatus>;
   /** The warm engine worker threads, created at start and stopped at shutdown; the queue runs on it. */
   enginePool: EnginePool;
 };

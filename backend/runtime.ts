@@ -11,7 +11,8 @@ import { mailSettingsOf, type Env, type MailSettings } from "./lib/env";
 import { loadSecret } from "./lib/secret";
 import { seedDemo, type SeedStep } from "./seed";
 import { createMailService, type MailService } from "./services/mail";
-import { StudyQueue, type StudyRunner } from "./services/study-queue";
+import { StudyQueue, type StudyRunner, type StudyScheduler } from "./services/study-queue";
+import { jobSettingsOf, startServerMode } from "./services/server-mode";
 import { engineRunner } from "./services/study-runner";
 import { ENGINE_NICE, EnginePool } from "./engine/pool";
 
@@ -41,6 +42,8 @@ export type RuntimeParts = {
   seedSteps: readonly SeedStep[] | null;
   /** Whether closing the runtime closes the database too (tests may reopen it). */
   ownsDatabase?: boolean;
+  /** Server mode: the job queue takes the place of the in-process study queue. */
+  serverMode?: { studyQueue: StudyScheduler; queueStatus: AppDeps["queueStatus"]; stop: () => Promise<void> };
 };
 
 const isService = (m: MailSettings | MailService): m is MailService => "send" in m;
@@ -53,7 +56,7 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
     log(mail.mode === "catcher" ? `mail catcher on ${mail.address}: mail shows in the outbox` : `mail goes out through ${mail.address}`);
   // Warm worker threads for every study; niced, so the request thread keeps answering while they work.
   const enginePool = new EnginePool({ threads: parts.engineThreads, nice: ENGINE_NICE, log });
-  const studyQueue = new StudyQueue(handle.db, parts.runner ?? engineRunner(enginePool), log);
+  const studyQueue = parts.serverMode?.studyQueue ?? new StudyQueue(handle.db, parts.runner ?? engineRunner(enginePool), log);
   const deps: AppDeps = {
     db: handle.db,
     auth: parts.auth,
@@ -63,11 +66,13 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
     mail,
     studyQueue,
     enginePool,
+    queueStatus: parts.serverMode?.queueStatus,
   };
   const lifecycle: Lifecycle[] = [
     { name: "database", stop: parts.ownsDatabase === false ? undefined : () => handle.close() },
     { name: "mail", stop: mail ? () => mail.close() : undefined },
     { name: "engine pool", stop: () => enginePool.stop() },
+    { name: "job queue", stop: parts.serverMode ? () => parts.serverMode!.stop() : undefined },
     { name: "study queue", start: () => studyQueue.start(), stop: () => studyQueue.stop() },
   ];
   return { deps, handle, seedSteps: parts.seedSteps, lifecycle };
@@ -84,11 +89,17 @@ export async function createRuntime(env: Env, log: Log): Promise<Runtime> {
     trustedOrigins: env.TRUSTED_ORIGINS,
     signInPerMinute: env.SIGN_IN_PER_MINUTE,
   });
+  // With DATABASE_URL, studies go through the job queue (and `npm run worker` processes).
+  const serverMode =
+    handle.kind === "postgres"
+      ? await startServerMode(handle, { settings: jobSettingsOf(env), runStudies: env.RUN_STUDIES, threads: env.WORKER_THREADS ?? env.STUDY_THREADS, log })
+      : undefined;
   return assembleRuntime({
     handle,
     auth,
     baseURL,
     log,
+    serverMode,
     mail: mailSettingsOf(env),
     engineThreads: env.STUDY_THREADS,
     seedSteps: env.SEED_DEMO ? DEMO_SEED_STEPS : null,

@@ -27,6 +27,17 @@ const EnvSchema = z.object({
   SIGN_IN_PER_MINUTE: z.coerce.number().int().min(1).max(10000).default(10),
   /** Worker threads of the engine pool (shared by every running study); default: one per core. */
   STUDY_THREADS: z.coerce.number().int().min(1).max(64).optional(),
+  /** Server mode (DATABASE_URL): "false" leaves studies to `npm run worker` processes. */
+  RUN_STUDIES: z
+    .enum(["true", "false"])
+    .default("true")
+    .transform((v) => v === "true"),
+  /** Threads of one `npm run worker` process (and of the app's own worker); default: one per core. */
+  WORKER_THREADS: z.coerce.number().int().min(1).max(256).optional(),
+  /** Server mode: seconds a study job may run before the queue gives it to another worker. */
+  STUDY_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).max(3600).default(300),
+  /** Server mode: how often the queue looks for expired jobs of workers that died. */
+  QUEUE_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
   /** Seed the demo workspace when the database has no workspace yet. */
   SEED_DEMO: z
     .enum(["true", "false"])

@@ -5,11 +5,12 @@ import { parse } from "../lib/validate";
 import { acceptInvitation, previewInvitation } from "../services/members";
 
 /** Routes that need no session: health and the invitation hand-shake. */
-export function publicRouter({ db, auth, clock }: AppDeps) {
+export function publicRouter({ db, auth, clock, queueStatus }: AppDeps) {
   const r = Router();
 
-  r.get("/health", (_req, res) => {
-    res.json({ status: "ok" });
+  // Server mode adds the job queue: its depth and the worker processes seen in the last minute.
+  r.get("/health", async (_req, res) => {
+    res.json(queueStatus ? { status: "ok", queue: await queueStatus() } : { status: "ok" });
   });
 
   r.get("/invitations/by-token/:token", async (req, res) => {

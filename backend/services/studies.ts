@@ -12,7 +12,7 @@ import { applyAsBuilt, asBuiltLabel } from "./as-built";
 import { fieldAtSite } from "./geomagnetic";
 import { assertProjectOpen } from "./project-records";
 import { getRevisionRow } from "./revisions";
-import type { StudyQueue } from "./study-queue";
+import type { StudyScheduler } from "./study-queue";
 import { formatCount } from "@shared/format";
 
 const summaryColumns = {
@@ -99,7 +99,7 @@ export async function getStudy(db: Database, workspaceId: string, id: string, wi
  * Freezes the study file (with the revision's requirements when it names none, and the WMM
  * inclination when a site is given) and the revision's stack, then queues it.
  */
-export async function createStudy(db: Database, queue: StudyQueue, actor: Actor, revisionId: string, input: CreateStudy) {
+export async function createStudy(db: Database, queue: StudyScheduler, actor: Actor, revisionId: string, input: CreateStudy) {
   const revision = await getRevisionRow(db, actor.workspaceId, revisionId);
   await assertProjectOpen(db, actor.workspaceId, revision.projectId);
   const file: Record<string, unknown> = { ...input.study };
@@ -158,7 +158,7 @@ export async function createStudy(db: Database, queue: StudyQueue, actor: Actor,
   return getStudy(db, actor.workspaceId, id, false);
 }
 
-export async function cancelStudy(db: Database, queue: StudyQueue, actor: Actor, id: string) {
+export async function cancelStudy(db: Database, queue: StudyScheduler, actor: Actor, id: string) {
   const s = await getStudy(db, actor.workspaceId, id, false);
   if (s.status !== "queued" && s.status !== "running") throw conflict(`Study ${s.number} is ${s.status}; only a queued or running study can be cancelled.`, "invalid_state");
   await queue.cancel(id);
@@ -167,7 +167,7 @@ export async function cancelStudy(db: Database, queue: StudyQueue, actor: Actor,
 }
 
 /** Puts an interrupted, failed or cancelled study back in the queue with the same frozen settings. */
-export async function rerunStudy(db: Database, queue: StudyQueue, actor: Actor, id: string) {
+export async function rerunStudy(db: Database, queue: StudyScheduler, actor: Actor, id: string) {
   const s = await getStudy(db, actor.workspaceId, id, false);
   if (!["interrupted", "failed", "cancelled"].includes(s.status)) {
     throw conflict(`Study ${s.number} is ${s.status}; only an interrupted, failed or cancelled study can be run again.`, "invalid_state");

@@ -1,7 +1,7 @@
 import { and, asc, eq, inArray } from "drizzle-orm";
 import type { Database } from "../db/client";
-import { studies, studyResults } from "../db/schema";
-import { recordActivity } from "./activity";
+import { studies } from "../db/schema";
+import { writeFinishedStudy } from "./study-finish";
 
 export type RunInput = { stack: Record<string, unknown>; study: Record<string, unknown> };
 export type RunOptions = {
@@ -21,6 +21,18 @@ export class CancelledError extends Error {
   }
 }
 
+/** What the routes need of whatever runs studies: the in-process queue or the server's job queue. */
+export interface StudyScheduler {
+  start(): Promise<void>;
+  /** Looks for queued work; safe to call any number of times. */
+  kick(): void;
+  /** Cancels a queued or running study; true when it was found in one of those states. */
+  cancel(id: string): Promise<boolean>;
+  stop(): Promise<void>;
+  /** Stops without writing anything, as a crash would (tests of the restart path). */
+  abandon?(): void;
+}
+
 /** Studies running at once; the engine pool shares its worker threads between them block by block. */
 export const MAX_RUNNING_STUDIES = 4;
 
@@ -31,7 +43,7 @@ export const MAX_RUNNING_STUDIES = 4;
  * pool shares the threads between them. State lives in the database: a study marked running
  * when the server starts was cut off by a stop and becomes "interrupted".
  */
-export class StudyQueue {
+export class StudyQueue implements StudyScheduler {
   private running = new Map<string, { owner: string; controller: AbortController; done: Promise<void> }>();
   private stopped = true;
   private kicking = false;
@@ -157,26 +169,8 @@ export class StudyQueue {
       await pending;
       if (controller.signal.aborted) throw new CancelledError();
       const seconds = (Date.now() - started) / 1000;
-      const trials = typeof result.trials === "number" ? result.trials : undefined;
       // One transaction: the result and the finished state land together or not at all.
-      await this.db.transaction(async (tx) => {
-        await tx.insert(studyResults).values({ studyId: job.id, result, passes });
-        await tx
-          .update(studies)
-          .set({
-            status: "finished",
-            finishedAt: new Date(),
-            ...(trials !== undefined ? { trialsDone: trials, trialsTotal: trials, trialsPerSecond: trials / Math.max(seconds, 1e-3) } : {}),
-          })
-          .where(eq(studies.id, job.id));
-        await recordActivity(tx, {
-          workspaceId: job.workspaceId,
-          projectId: job.projectId,
-          action: "study.finished",
-          summary: `study ${job.number} finished${passes === null ? "" : passes ? ": every requirement met" : ": a requirement is not met"}`,
-          data: { studyId: job.id },
-        });
-      });
+      await this.db.transaction((tx) => writeFinishedStudy(tx, job, { result, passes, seconds }));
     } catch (e) {
       await pending.catch(() => undefined);
       if (this.stopped && !this.running.has(job.id)) return; // abandoned: leave the row as a crash would

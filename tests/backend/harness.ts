@@ -11,7 +11,7 @@ import type { AppDeps, Clock } from "@backend/deps";
 import { mailSettings } from "@backend/lib/env";
 import { assembleRuntime, startRuntime, stopRuntime } from "@backend/runtime";
 import { DEMO_PASSWORD, type SeedStep } from "@backend/seed";
-import type { StudyRunner } from "@backend/services/study-queue";
+import type { StudyRunner, StudyScheduler } from "@backend/services/study-queue";
 
 export type TestApp = {
   url: string;
@@ -37,6 +37,9 @@ export type TestAppOptions = {
   /** Mail settings read from this environment instead of the test process's (SMTP_URL, ...). */
   mailEnv?: NodeJS.ProcessEnv;
   clock?: Clock;
+  /** Server mode: a job-queue scheduler and its status, in place of the in-process queue. */
+  scheduler?: StudyScheduler;
+  queueStatus?: AppDeps["queueStatus"];
 };
 
 // The seed queues the demo study; most tests want the queue to themselves.
@@ -61,6 +64,7 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
     engineThreads: 2,
     seedSteps: opts.seed === false ? null : opts.keepDemoStudy ? DEMO_SEED_STEPS : [...DEMO_SEED_STEPS, cancelQueuedStudies],
     ownsDatabase: !opts.handle,
+    serverMode: opts.scheduler ? { studyQueue: opts.scheduler, queueStatus: opts.queueStatus, stop: async () => undefined } : undefined,
   });
   const { deps } = runtime;
   const { studyQueue } = deps;
@@ -113,7 +117,7 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
     signIn,
     call,
     crash: async () => {
-      studyQueue.abandon();
+      studyQueue.abandon?.();
       await deps.enginePool.stop();
       await new Promise((r) => server.close(r));
     },

@@ -1,0 +1,130 @@
+/**
+ * Warm engine threads for the server-mode job queue: each thread runs one job (a range of one
+ * study's blocks) at a time and hands back what the engine needs to merge that job with the
+ * others later: every block's partial, and the worker state those blocks were counted into.
+ * The threads are the warm pool's (./worker.ts, loaded from its plain-JS bundle) and speak its
+ * protocol; they live as long as the worker process. Partials and states do not depend on the
+ * thread, so the merged study equals the in-process runner's for the same files and seed.
+ */
+import { pathToFileURL } from "node:url";
+import { Worker } from "node:worker_threads";
+import type { BlockPartial, WorkerState } from "@shared/engine/accumulate";
+import type { StackFile } from "@shared/schemas/stack-file";
+import type { StudyFile } from "@shared/schemas/study-file";
+import { ensureBundle } from "./bundle.mjs";
+import { StudyAbortedError } from "./pool";
+import type { FromWorker, ToWorker, WorkerInit } from "./worker";
+
+export type BlockRangeResult = { partials: BlockPartial[]; state: WorkerState };
+
+export type BlockRangeOptions = {
+  signal?: AbortSignal;
+  /** After each block, in the order they finish. */
+  onBlock?: (p: BlockPartial) => void;
+};
+
+/** The engine refused the study (bad input, a failed block): running it again would not help. */
+export class EngineError extends Error {}
+
+/** One block running and one waiting, so the thread never idles between blocks. */
+const IN_FLIGHT = 2;
+
+type Slot = { w: Worker; busy: boolean };
+
+export class PartThreads {
+  private readonly slots: Slot[] = [];
+  private readonly url = pathToFileURL(ensureBundle("worker"));
+  private nextJob = 1;
+  private waiting: (() => void)[] = [];
+  private stopped = false;
+
+  constructor(
+    readonly size: number,
+    private readonly opts: { nice?: number } = {},
+  ) {
+    for (let i = 0; i < size; i++) this.slots.push({ w: this.spawn(), busy: false });
+  }
+
+  private spawn(): Worker {
+    return new Worker(this.url, { workerData: { nice: this.opts.nice ?? 0 } satisfies WorkerInit, execArgv: [] });
+  }
+
+  async stop() {
+    this.stopped = true;
+    await Promise.all(this.slots.map((s) => s.w.terminate()));
+  }
+
+  /** Runs `blocks` of the study on the next free thread. */
+  async run(files: { stack: StackFile; study: StudyFile }, blocks: number[], opts: BlockRangeOptions = {}): Promise<BlockRangeResult> {
+    let slot = this.slots.find((s) => !s.busy);
+    while (!slot) {
+      await new Promise<void>((r) => this.waiting.push(r));
+      if (this.stopped) throw new StudyAbortedError("the worker is stopping");
+      slot = this.slots.find((s) => !s.busy);
+    }
+    slot.busy = true;
+    try {
+      return await this.runOn(slot, files, blocks, opts);
+    } finally {
+      slot.busy = false;
+      this.waiting.shift()?.();
+    }
+  }
+
+  private runOn(slot: Slot, files: { stack: StackFile; study: StudyFile }, blocks: number[], opts: BlockRangeOptions): Promise<BlockRangeResult> {
+    const job = this.nextJob++;
+    const w = slot.w;
+    const queue = [...blocks];
+    const partials: BlockPartial[] = [];
+    let inFlight = 0;
+    return new Promise<BlockRangeResult>((resolve, reject) => {
+      const cleanup = () => {
+        w.off("message", onMessage);
+        w.off("exit", onExit);
+        opts.signal?.removeEventListener("abort", onAbort);
+      };
+      const settle = (e: Error | null, r?: BlockRangeResult) => {
+        cleanup();
+        if (e) reject(e);
+        else resolve(r!);
+      };
+      const feed = () => {
+        while (inFlight < IN_FLIGHT && queue.length) {
+          inFlight++;
+          w.postMessage({ type: "run", job, block: queue.shift()! } satisfies ToWorker);
+        }
+        if (inFlight === 0 && !queue.length) w.postMessage({ type: "finish", job } satisfies ToWorker);
+      };
+      const onMessage = (msg: FromWorker) => {
+        if (msg.job !== job) return;
+        if (msg.type === "block") {
+          inFlight--;
+          partials.push(msg.partial as BlockPartial);
+          opts.onBlock?.(msg.partial as BlockPartial);
+          feed();
+        } else if (msg.type === "state") {
+          partials.sort((a, b) => a.block - b.block);
+          settle(null, { partials, state: msg.state });
+        } else if (msg.type === "error") {
+          w.postMessage({ type: "close", job } satisfies ToWorker);
+          settle(new EngineError(msg.message.split("\n")[0]));
+        }
+      };
+      // A thread that dies takes its job with it: replace the thread; the queue runs the job again.
+      const onExit = () => {
+        if (!this.stopped) slot.w = this.spawn();
+        settle(new Error("an engine thread stopped during the job"));
+      };
+      const onAbort = () => {
+        w.postMessage({ type: "close", job } satisfies ToWorker);
+        settle(new StudyAbortedError());
+      };
+      w.on("message", onMessage);
+      w.on("exit", onExit);
+      if (opts.signal?.aborted) return onAbort();
+      opts.signal?.addEventListener("abort", onAbort, { once: true });
+      w.postMessage({ type: "open", job, stack: files.stack, study: files.study, overrides: {} } satisfies ToWorker);
+      feed();
+    });
+  }
+}
