@@ -1,7 +1,7 @@
 import { Router, type RequestHandler } from "express";
 import multer from "multer";
 import { IdParamsSchema } from "@shared/schemas/common";
-import { DATASET_MAX_BYTES, StatisticsQuerySchema, UpdateMappingsSchema } from "@shared/schemas/datasets";
+import { DATASET_MAX_BYTES, StatisticsQuerySchema, UpdateDatasetSchema, UpdateMappingsSchema, UploadFieldsSchema } from "@shared/schemas/datasets";
 import type { AppDeps } from "../deps";
 import { badRequest, HttpError } from "../lib/errors";
 import { parse } from "../lib/validate";
@@ -9,15 +9,16 @@ import { actorOf, allow } from "../middleware/session";
 import { notifyReport } from "../services/review-notifications";
 import {
   datasetFile,
-  datasetStatistics,
   deleteDataset,
   getDataset,
   listDatasets,
   listReportDatasets,
+  updateDataset,
   updateMappings,
   uploadDataset,
   uploadForReport,
 } from "../services/datasets";
+import { datasetStatistics } from "../services/dataset-statistics";
 
 
 const upload = multer({
@@ -58,7 +59,8 @@ export function datasetsRouter(deps: AppDeps) {
   // The role is checked before the body is read, so a refused caller never uploads anything.
   r.post(UPLOAD_PATHS[0], allow("datasets.write"), receiveFile, async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.status(201).json(await uploadDataset(db, actorOf(req), id, req.file));
+    const fields = parse(UploadFieldsSchema, req);
+    res.status(201).json(await uploadDataset(db, actorOf(req), id, req.file, fields));
   });
 
   r.get("/datasets/:id", allow("projects.read"), async (req, res) => {
@@ -70,6 +72,12 @@ export function datasetsRouter(deps: AppDeps) {
     const { id } = parse(IdParamsSchema, req, "params");
     await deleteDataset(db, actorOf(req), id);
     res.status(204).end();
+  });
+
+  r.patch("/datasets/:id", allow("datasets.write"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const input = parse(UpdateDatasetSchema, req);
+    res.json(await updateDataset(db, actorOf(req), id, input));
   });
 
   r.patch("/datasets/:id/mappings", allow("datasets.write"), async (req, res) => {
@@ -100,7 +108,8 @@ export function datasetsRouter(deps: AppDeps) {
 
   r.post(UPLOAD_PATHS[1], allow("datasets.send"), receiveFile, async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    const dataset = await uploadForReport(db, actorOf(req), id, req.file);
+    const fields = parse(UploadFieldsSchema, req);
+    const dataset = await uploadForReport(db, actorOf(req), id, req.file, fields);
     if (actorOf(req).role === "supplier") await notifyReport(deps, actorOf(req), id, "measurements");
     res.status(201).json(dataset);
   });

@@ -28,19 +28,26 @@ export type ParsedColumn = {
   letter: string;
   unit: MeasureUnit | null;
   kind: "number" | "label";
-  summary: { n: number; mean: number; std: number; min: number; max: number } | null;
+  /** n: values; missing: gaps (empty cells and missing markers) */
+  summary: { n: number; missing: number; mean: number; std: number; min: number; max: number } | null;
 };
 
 export type ParsedDataset = {
   fileType: "csv" | "xlsx";
   sheet: string | null;
   columns: ParsedColumn[];
-  data: Record<string, Array<number | string>>;
+  /** null marks a gap in a measured column */
+  data: Record<string, Array<number | string | null>>;
   rowNumbers: number[];
   preview: { rowNumbers: number[]; cells: string[][] };
 };
 
 const EMPTY: Cell = { kind: "empty", text: "", value: null };
+
+/** What metrology exports write for "no value": a gap in a measured column, not an error. */
+export const MISSING_MARKERS = ["NA", "N/A", "n/a", "-", "null"] as const;
+const MISSING = new Set<string>(MISSING_MARKERS.map((m) => m.toLowerCase()));
+export const isMissingMarker = (text: string) => MISSING.has(text.trim().toLowerCase());
 
 export function columnLetter(index: number): string {
   let s = "";
@@ -380,8 +387,9 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
     if (ph.unit) kind = "number";
     else if (LABEL_HEADER.test(ph.name)) kind = "label";
     else {
-      const first = dataRows.map((r) => r.cells[k] ?? EMPTY).find((c) => c.kind !== "empty")!;
-      kind = first.kind === "number" ? "number" : "label";
+      // the first cell that holds something other than a gap decides
+      const first = dataRows.map((r) => r.cells[k] ?? EMPTY).find((c) => c.kind !== "empty" && !(c.kind === "text" && isMissingMarker(c.text)));
+      kind = first?.kind === "number" ? "number" : "label";
     }
     cols.push({ index: k, key, name: ph.name, unit: ph.unit, kind });
   }
@@ -393,9 +401,9 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
   }
   if (problems.length) throw refuse(problems);
 
-  const data: Record<string, Array<number | string>> = {};
+  const data: Record<string, Array<number | string | null>> = {};
   for (const c of cols) {
-    const values: Array<number | string> = new Array(dataRows.length);
+    const values: Array<number | string | null> = new Array(dataRows.length);
     for (let r = 0; r < dataRows.length; r++) {
       const cell = dataRows[r].cells[c.index] ?? EMPTY;
       if (c.kind === "label") {
@@ -404,7 +412,7 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
       }
       const at = where(dataRows[r].row, c.index, c.key);
       if (cell.kind === "number") values[r] = cell.value!;
-      else if (cell.kind === "empty") problems.push({ at, message: "missing value" });
+      else if (cell.kind === "empty" || (cell.kind === "text" && isMissingMarker(cell.text))) values[r] = null;
       else if (cell.kind === "date") problems.push({ at, message: `holds a date (${cell.text}), not a number` });
       else if (cell.kind === "error") problems.push({ at, message: `holds the spreadsheet error ${cell.text}, not a number` });
       else if (cell.kind === "bool") problems.push({ at, message: `holds ${cell.text}, not a number` });
@@ -413,6 +421,9 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
       if (problems.length > MAX_LISTED) break;
     }
     if (problems.length > MAX_LISTED) break;
+    if (c.kind === "number" && !values.some((v) => v !== null)) {
+      problems.push({ at: where(hr, c.index, c.key), message: "the column holds only gaps (empty or NA), no value" });
+    }
     data[c.key] = values;
   }
   if (problems.length) throw refuse(problems);
@@ -424,8 +435,9 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
     columns: cols.map((c) => {
       let summary: ParsedColumn["summary"] = null;
       if (c.kind === "number") {
-        const s = summarize(data[c.key] as number[]);
-        summary = { n: s.n, mean: s.mean, std: s.std, min: s.min, max: s.max };
+        const present = (data[c.key] as Array<number | null>).filter((v): v is number => v !== null);
+        const s = summarize(present);
+        summary = { n: s.n, missing: dataRows.length - s.n, mean: s.mean, std: s.std, min: s.min, max: s.max };
       }
       return { key: c.key, name: c.name, letter: columnLetter(c.index), unit: c.unit, kind: c.kind, summary };
     }),

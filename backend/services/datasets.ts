@@ -1,9 +1,8 @@
 import { createHash } from "node:crypto";
 import { and, desc, eq, inArray } from "drizzle-orm";
-import type { Dataset, DatasetColumn, DatasetStatistics, DatasetSummary, UpdateMappings } from "@shared/schemas/datasets";
-import { findSource, toleranceLimits } from "@shared/datasets/sources";
-import { andersonDarling, AD_MIN_N, capability, histogram, outliers, OUTLIER_LIMIT, summarize } from "@shared/datasets/statistics";
-import { conversionFactor, unitKind, type MeasureUnit, type SourceUnit } from "@shared/datasets/units";
+import type { Dataset, DatasetColumn, DatasetSummary, UpdateDataset, UpdateMappings, UploadFields } from "@shared/schemas/datasets";
+import { findSource, stackSources, type StackSource } from "@shared/datasets/sources";
+import { conversionFactor, unitKind, type MeasureUnit } from "@shared/datasets/units";
 import { formatCount, unitText } from "@shared/format";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
@@ -13,6 +12,7 @@ import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
 import { readMeasurementFile, type ParsedColumn } from "./dataset-files";
+import { pooledRows } from "./dataset-values";
 
 export type UploadedFile = { originalname: string; buffer: Buffer };
 
@@ -31,6 +31,9 @@ const summaryColumns = {
   reportId: reports.id,
   reportNumber: reports.number,
   reportRevision: reports.revision,
+  lot: datasets.lot,
+  note: datasets.note,
+  lotColumn: datasets.lotColumn,
   createdAt: datasets.createdAt,
 };
 
@@ -44,7 +47,18 @@ function baseQuery(db: Database) {
 }
 
 type SummaryRow = Awaited<ReturnType<ReturnType<typeof baseQuery>["where"]>>[number];
-type MappingRow = { datasetId: string; column: string; revisionId: string; revisionNumber: number; source: string; unit: string; nominal: number; updatedByName: string | null; updatedAt: Date };
+type MappingRow = {
+  datasetId: string;
+  column: string;
+  revisionId: string;
+  revisionNumber: number;
+  source: string;
+  part: number | null;
+  unit: string;
+  nominal: number;
+  updatedByName: string | null;
+  updatedAt: Date;
+};
 
 async function mappingsOf(db: Database, ids: string[]): Promise<MappingRow[]> {
   if (!ids.length) return [];
@@ -55,6 +69,7 @@ async function mappingsOf(db: Database, ids: string[]): Promise<MappingRow[]> {
       revisionId: datasetMappings.revisionId,
       revisionNumber: stackRevisions.number,
       source: datasetMappings.source,
+      part: datasetMappings.part,
       unit: datasetMappings.unit,
       nominal: datasetMappings.nominal,
       updatedByName: users.name,
@@ -82,6 +97,9 @@ function toSummary(r: SummaryRow, maps: MappingRow[]): DatasetSummary {
     uploadedByRole: r.uploadedByRole,
     supplierName: r.supplierName,
     report: r.reportId ? { id: r.reportId, number: r.reportNumber!, revision: r.reportRevision! } : null,
+    lot: r.lot,
+    note: r.note,
+    lotColumn: r.lotColumn,
     createdAt: r.createdAt.toISOString(),
   };
 }
@@ -105,15 +123,24 @@ export async function getDataset(db: Database, workspaceId: string, id: string):
   const r = found(row, "The data set");
   const [extra] = await db.select({ preview: datasets.preview, sha256: datasets.sha256 }).from(datasets).where(eq(datasets.id, id));
   const maps = await mappingsOf(db, [id]);
+  const stacks = new Map<string, StackSource[]>();
+  for (const revId of new Set(maps.map((m) => m.revisionId))) {
+    const [rv] = await db.select({ stack: stackRevisions.stack }).from(stackRevisions).where(eq(stackRevisions.id, revId));
+    stacks.set(revId, rv ? stackSources(rv.stack as StackFile) : []);
+  }
+  const sourceOf = (m: MappingRow) => stacks.get(m.revisionId)?.find((x) => x.id === m.source) ?? null;
   const columns: DatasetColumn[] = (r.columns as unknown as ParsedColumn[]).map((c) => {
     const m = maps.find((x) => x.column === c.key);
     return {
       ...c,
+      summary: c.summary ? { ...c.summary, missing: c.summary.missing ?? 0 } : null,
       mapping: m
         ? {
             revisionId: m.revisionId,
             revisionNumber: m.revisionNumber,
             source: m.source,
+            part: m.part,
+            partLabel: m.part !== null ? (sourceOf(m)?.parts?.[m.part]?.label ?? null) : null,
             unit: m.unit as MeasureUnit,
             sourceUnit: unitKind(m.unit as MeasureUnit),
             nominal: m.nominal,
@@ -123,13 +150,41 @@ export async function getDataset(db: Database, workspaceId: string, id: string):
         : null,
     };
   });
-  return { ...toSummary(r, maps), columns, preview: extra.preview, sha256: extra.sha256 };
+  return { ...toSummary(r, maps), columns, pooled: await pooledOf(db, id, maps, sourceOf), preview: extra.preview, sha256: extra.sha256 };
+}
+
+/** Each pooled source of the data set: its columns, and how many rows are complete. */
+async function pooledOf(db: Database, id: string, maps: MappingRow[], sourceOf: (m: MappingRow) => StackSource | null): Promise<Dataset["pooled"]> {
+  const groups = new Map<string, MappingRow[]>();
+  for (const m of maps) {
+    if (m.part === null) continue;
+    const k = `${m.revisionId} ${m.source}`;
+    groups.set(k, [...(groups.get(k) ?? []), m]);
+  }
+  if (!groups.size) return [];
+  const [row] = await db.select({ data: datasets.data }).from(datasets).where(eq(datasets.id, id));
+  return [...groups.values()].map((g) => {
+    const src = sourceOf(g[0]);
+    const parts = src?.parts?.length ?? g.length;
+    const cols = g.map((m) => ({ column: m.column, part: m.part!, unit: m.unit as MeasureUnit, nominal: m.nominal }));
+    const p = pooledRows(row.data, cols, src?.unit ?? unitKind(cols[0].unit));
+    const have = new Set(g.map((m) => m.part));
+    return {
+      source: g[0].source,
+      revisionNumber: g[0].revisionNumber,
+      columns: [...g].sort((a, b) => a.part! - b.part!).map((m) => m.column),
+      missingParts: (src?.parts ?? []).filter((x) => !have.has(x.index)).map((x) => x.label),
+      parts,
+      completeRows: p.rows.length,
+      dropped: p.dropped,
+    };
+  });
 }
 
 type Origin = { supplierId: string | null; reportId: string | null; via?: string };
 
 /** Reads the file completely first; only a file without a single problem is stored (one transaction, with its activity). */
-async function storeUpload(db: Database, actor: Actor, projectId: string, file: UploadedFile | undefined, origin: Origin): Promise<Dataset> {
+async function storeUpload(db: Database, actor: Actor, projectId: string, file: UploadedFile | undefined, origin: Origin, fields: UploadFields = {}): Promise<Dataset> {
   if (!file) throw badRequest("Attach the measurement file in the form field “file” (multipart/form-data).", [{ path: "file", message: "a CSV or XLSX file is required" }], "missing_file");
   const name = (file.originalname || "measurements").replace(/[\\/]/g, "_").slice(0, 200);
   const parsed = await readMeasurementFile(name, file.buffer);
@@ -155,6 +210,8 @@ async function storeUpload(db: Database, actor: Actor, projectId: string, file: 
         uploaderRole: actor.role,
         supplierId: origin.supplierId,
         reportId: origin.reportId,
+        lot: fields.lot || null,
+        note: fields.note || null,
       })
       .returning({ id: datasets.id });
     const numeric = parsed.columns.filter((c) => c.kind === "number").length;
@@ -163,7 +220,7 @@ async function storeUpload(db: Database, actor: Actor, projectId: string, file: 
       projectId,
       actorId: actor.userId,
       action: "dataset.uploaded",
-      summary: `${origin.via ? "sent" : "uploaded"} the data set “${name}” (${formatCount(parsed.rowNumbers.length)} rows, ${numeric} measured ${numeric === 1 ? "column" : "columns"})${origin.via ?? ""}`,
+      summary: `${origin.via ? "sent" : "uploaded"} the data set “${name}” (${formatCount(parsed.rowNumbers.length)} rows, ${numeric} measured ${numeric === 1 ? "column" : "columns"}${fields.lot ? `, lot ${fields.lot}` : ""})${origin.via ?? ""}`,
       data: { datasetId: row.id, ...(origin.reportId ? { reportId: origin.reportId } : {}) },
     });
     return row.id;
@@ -171,10 +228,10 @@ async function storeUpload(db: Database, actor: Actor, projectId: string, file: 
   return getDataset(db, actor.workspaceId, id);
 }
 
-export async function uploadDataset(db: Database, actor: Actor, projectId: string, file: UploadedFile | undefined) {
+export async function uploadDataset(db: Database, actor: Actor, projectId: string, file: UploadedFile | undefined, fields: UploadFields = {}) {
   await assertProject(db, actor.workspaceId, projectId);
   await assertProjectOpen(db, actor.workspaceId, projectId);
-  return storeUpload(db, actor, projectId, file, { supplierId: actor.supplierId, reportId: null });
+  return storeUpload(db, actor, projectId, file, { supplierId: actor.supplierId, reportId: null }, fields);
 }
 
 /**
@@ -191,7 +248,7 @@ async function visibleReport(db: Database, actor: Actor, reportId: string) {
 }
 
 /** A supplier (or an engineer on its behalf) sends the measurements a released report asks for. */
-export async function uploadForReport(db: Database, actor: Actor, reportId: string, file: UploadedFile | undefined) {
+export async function uploadForReport(db: Database, actor: Actor, reportId: string, file: UploadedFile | undefined, fields: UploadFields = {}) {
   const report = await visibleReport(db, actor, reportId);
   if (report.status !== "released") throw conflict(`Report TR-${String(report.number).padStart(4, "0")} is not released yet; measurements are sent against a released report.`, "invalid_state");
   const [s] = report.supplierId ? await db.select({ name: suppliers.name }).from(suppliers).where(eq(suppliers.id, report.supplierId)) : [];
@@ -200,7 +257,7 @@ export async function uploadForReport(db: Database, actor: Actor, reportId: stri
     supplierId: report.supplierId,
     reportId: report.id,
     via: ` for report ${tr}${s ? ` (${s.name})` : ""}`,
-  });
+  }, fields);
 }
 
 export async function listReportDatasets(db: Database, actor: Actor, reportId: string): Promise<DatasetSummary[]> {
@@ -217,13 +274,6 @@ async function datasetRow(db: Database, workspaceId: string, id: string) {
   return found(row, "The data set");
 }
 
-function numericColumn(columns: ParsedColumn[], key: string, path = "column"): ParsedColumn {
-  const c = columns.find((x) => x.key === key);
-  if (!c) throw badRequest(`The data set has no column “${key}”.`, [{ path, message: `no column “${key}”; the columns are ${columns.map((x) => `“${x.key}”`).join(", ")}` }], "unknown_column");
-  if (c.kind !== "number") throw badRequest(`Column “${key}” holds labels, not measurements.`, [{ path, message: "a label column cannot be mapped to a tolerance" }], "not_numeric");
-  return c;
-}
-
 /** Sets or clears the tolerance source of each listed column; the others keep theirs. */
 export async function updateMappings(db: Database, actor: Actor, id: string, input: UpdateMappings): Promise<Dataset> {
   const ds = await datasetRow(db, actor.workspaceId, id);
@@ -234,7 +284,7 @@ export async function updateMappings(db: Database, actor: Actor, id: string, inp
     .from(stackRevisions)
     .where(and(eq(stackRevisions.workspaceId, actor.workspaceId), inArray(stackRevisions.id, revisionIds)));
   const fields: { path: string; message: string }[] = [];
-  const planned: Array<{ column: string; revisionId: string; source: string | null; unit: MeasureUnit; nominal: number }> = [];
+  const planned: Array<{ column: string; revisionId: string; source: string | null; part: number | null; unit: MeasureUnit; nominal: number }> = [];
   input.mappings.forEach((m, i) => {
     const at = (f: string) => `mappings[${i}].${f}`;
     const col = columns.find((c) => c.key === m.column);
@@ -242,9 +292,11 @@ export async function updateMappings(db: Database, actor: Actor, id: string, inp
     if (col.kind !== "number") return void fields.push({ path: at("column"), message: `“${m.column}” holds labels, not measurements` });
     const rev = revs.find((r) => r.id === m.revisionId);
     if (!rev || rev.projectId !== ds.projectId) return void fields.push({ path: at("revisionId"), message: "no stack revision with this id in the data set's project" });
-    if (m.source === null) return void planned.push({ column: m.column, revisionId: rev.id, source: null, unit: col.unit ?? "um", nominal: 0 });
+    if (m.source === null) return void planned.push({ column: m.column, revisionId: rev.id, source: null, part: null, unit: col.unit ?? "um", nominal: 0 });
     const src = findSource(rev.stack as StackFile, m.source);
     if (!src) return void fields.push({ path: at("source"), message: `stack revision ${rev.number} has no tolerance source “${m.source}”` });
+    const part = partOf(src, m.support, m.component);
+    if (typeof part === "string") return void fields.push({ path: at(m.support !== undefined ? "support" : "component"), message: part });
     if (col.unit && m.unit && m.unit !== col.unit) {
       return void fields.push({ path: at("unit"), message: `the header of “${m.column}” says ${col.unit}; leave out the unit or use ${col.unit}` });
     }
@@ -254,20 +306,37 @@ export async function updateMappings(db: Database, actor: Actor, id: string, inp
       const what = src.unit === "um" ? "a height or offset in µm" : "an angle in degrees";
       return void fields.push({ path: at("unit"), message: `${m.source} is ${what}; a column in ${unitText(unit)} cannot measure it` });
     }
-    planned.push({ column: m.column, revisionId: rev.id, source: m.source, unit, nominal: m.nominal ?? 0 });
+    // the design value from the stack (bond-line thickness, position, yaw) in the column's unit
+    const nominal = m.nominal ?? src.nominal / conversionFactor(unit, src.unit)!;
+    planned.push({ column: m.column, revisionId: rev.id, source: m.source, part, unit, nominal });
   });
+  if (!fields.length) {
+    // after this change: one column per part of a pooled source, and a source either pooled or single
+    const existing = await db.select({ column: datasetMappings.column, revisionId: datasetMappings.revisionId, source: datasetMappings.source, part: datasetMappings.part }).from(datasetMappings).where(eq(datasetMappings.datasetId, id));
+    const after = [...existing.filter((e) => !planned.some((p) => p.column === e.column)), ...planned.filter((p) => p.source !== null)];
+    planned.forEach((p) => {
+      if (p.source === null) return;
+      const i = input.mappings.findIndex((m) => m.column === p.column);
+      const same = after.filter((o) => o.column !== p.column && o.revisionId === p.revisionId && o.source === p.source);
+      const twin = same.find((o) => o.part === p.part);
+      if (twin && p.part !== null) fields.push({ path: `mappings[${i}].${typeof input.mappings[i].support === "number" ? "support" : "component"}`, message: `“${twin.column}” already measures this part of ${p.source}` });
+      else if (same.some((o) => (o.part === null) !== (p.part === null))) {
+        fields.push({ path: `mappings[${i}].source`, message: `${p.source} is mapped both as one column and as several: give every column its part, or map one column` });
+      }
+    });
+  }
   if (fields.length) throw badRequest(fields.length === 1 ? "A mapping is not valid; nothing was changed." : `${fields.length} mappings are not valid; nothing was changed.`, fields, "invalid_mapping");
 
   await db.transaction(async (tx) => {
     for (const p of planned) {
       await tx.delete(datasetMappings).where(and(eq(datasetMappings.datasetId, id), eq(datasetMappings.column, p.column)));
       if (p.source === null) continue;
-      await tx.insert(datasetMappings).values({ datasetId: id, column: p.column, revisionId: p.revisionId, source: p.source, unit: p.unit, nominal: p.nominal, updatedBy: actor.userId });
+      await tx.insert(datasetMappings).values({ datasetId: id, column: p.column, revisionId: p.revisionId, source: p.source, part: p.part, unit: p.unit, nominal: p.nominal, updatedBy: actor.userId });
     }
     const set = planned.filter((p) => p.source !== null);
     const cleared = planned.filter((p) => p.source === null);
     const parts = [
-      ...set.map((p) => `“${p.column}” → ${p.source} (rev ${revs.find((r) => r.id === p.revisionId)!.number}, ${unitText(p.unit)})`),
+      ...set.map((p) => `“${p.column}” → ${p.source}${p.part !== null ? ` part ${p.part}` : ""} (rev ${revs.find((r) => r.id === p.revisionId)!.number}, ${unitText(p.unit)})`),
       ...cleared.map((p) => `“${p.column}” unmapped`),
     ];
     await recordActivity(tx, {
@@ -276,6 +345,57 @@ export async function updateMappings(db: Database, actor: Actor, id: string, inp
       actorId: actor.userId,
       action: "dataset.mapped",
       summary: `mapped the data set “${ds.name}”: ${parts.join("; ")}`,
+      data: { datasetId: id },
+    });
+  });
+  return getDataset(db, actor.workspaceId, id);
+}
+
+/**
+ * The part a column is of a pooled source, or null for a source taken as one column; a
+ * string is the reason it is refused.
+ */
+function partOf(src: StackSource, support: number | undefined, component: string | undefined): number | null | string {
+  const kind = src.id.endsWith(".bondLine") ? "support" : src.id.endsWith(".tilt") ? "tilt" : src.id.endsWith(".axis") ? "axis" : null;
+  if (support !== undefined) {
+    if (kind !== "support") return `${src.id} has no support points: support applies to a bond line`;
+    if (support >= src.parts!.length) return `${src.id} rests on ${src.parts!.length} support points, numbered 0 to ${src.parts!.length - 1}`;
+    return support;
+  }
+  if (component !== undefined) {
+    if (kind === "tilt" && (component === "x" || component === "y")) return component === "x" ? 0 : 1;
+    if (kind === "axis" && /^g[1-6]$/.test(component)) return Number(component.slice(1)) - 1;
+    return kind === "tilt" ? `${src.id} has the components x and y` : kind === "axis" ? `${src.id} has the components g1 to g6` : `${src.id} is one quantity: leave out component`;
+  }
+  // the pooled tilt exists only as two columns; a bond line or a single axis tolerance may also take one column for every draw
+  if (kind === "tilt") return `${src.id} pools x and y: give component "x" or "y" (or map to ${src.elementId}.tiltX / .tiltY)`;
+  if (kind === "axis" && !findAxisSingle(src)) return `${src.id} pools the six axis angles: give component g1..g6`;
+  return null;
+}
+
+/** The single axis tolerance when a sensor's six angles share one (so one column may stand for all six). */
+function findAxisSingle(src: StackSource) {
+  const t = src.parts?.[0]?.tolerance;
+  return src.parts?.every((p) => p.tolerance === t) ? t : undefined;
+}
+
+/** Marks (or clears) the label column that names each row's lot or date. */
+export async function updateDataset(db: Database, actor: Actor, id: string, input: UpdateDataset): Promise<Dataset> {
+  const ds = await datasetRow(db, actor.workspaceId, id);
+  const columns = ds.columns as unknown as ParsedColumn[];
+  if (input.lotColumn !== null) {
+    const c = columns.find((x) => x.key === input.lotColumn);
+    if (!c) throw badRequest(`The data set has no column “${input.lotColumn}”.`, [{ path: "lotColumn", message: `no column “${input.lotColumn}” in this data set` }], "unknown_column");
+    if (c.kind !== "label") throw badRequest(`Column “${input.lotColumn}” holds measurements, not lots.`, [{ path: "lotColumn", message: "the lot column must hold labels (lot numbers or dates)" }], "not_label");
+  }
+  await db.transaction(async (tx) => {
+    await tx.update(datasets).set({ lotColumn: input.lotColumn }).where(eq(datasets.id, id));
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId: ds.projectId,
+      actorId: actor.userId,
+      action: "dataset.lots",
+      summary: input.lotColumn ? `marked “${input.lotColumn}” as the lot column of the data set “${ds.name}”` : `cleared the lot column of the data set “${ds.name}”`,
       data: { datasetId: id },
     });
   });
@@ -305,95 +425,3 @@ export async function datasetFile(db: Database, workspaceId: string, id: string)
   };
 }
 
-/**
- * The values of a measured column in the unit of the source it is mapped to, with the
- * mapping's nominal taken off: the deviations the engine draws.
- */
-export function convertedValues(raw: number[], unit: MeasureUnit, nominal: number, to: SourceUnit): { values: number[]; factor: number } {
-  const factor = conversionFactor(unit, to);
-  if (factor === null) throw badRequest(`A column in ${unitText(unit)} cannot measure a source in ${unitText(to)}.`, undefined, "invalid_mapping");
-  return { values: raw.map((v) => (v - nominal) * factor), factor };
-}
-
-/** Summary, normality, capability against the mapped tolerance, outliers and the histogram of one column. */
-export async function datasetStatistics(db: Database, workspaceId: string, id: string, column: string): Promise<DatasetStatistics> {
-  const ds = await datasetRow(db, workspaceId, id);
-  const col = numericColumn(ds.columns as unknown as ParsedColumn[], column);
-  const raw = ds.data[col.key] as number[];
-  const [m] = await db
-    .select({ source: datasetMappings.source, unit: datasetMappings.unit, nominal: datasetMappings.nominal, stack: stackRevisions.stack })
-    .from(datasetMappings)
-    .innerJoin(stackRevisions, eq(stackRevisions.id, datasetMappings.revisionId))
-    .where(and(eq(datasetMappings.datasetId, id), eq(datasetMappings.column, col.key)));
-  let values = raw;
-  let unit: string | null = col.unit;
-  let converted: DatasetStatistics["converted"] = null;
-  let tolerance: DatasetStatistics["tolerance"] = null;
-  let limits: { lsl: number; usl: number } | null = null;
-  const src = m ? findSource(m.stack as StackFile, m.source) : null;
-  if (m && src) {
-    const c = convertedValues(raw, m.unit as MeasureUnit, m.nominal, src.unit);
-    values = c.values;
-    unit = src.unit;
-    converted = { from: m.unit as MeasureUnit, factor: c.factor, nominal: m.nominal };
-    const t = src.tolerance;
-    const sigma = t.dist === "data" || t.tol === undefined ? null : t.dist === "normal" ? t.tol / (t.sigmas ?? 3) : t.dist === "uniform" ? t.tol / Math.sqrt(3) : t.tol / Math.sqrt(6);
-    tolerance = { dist: t.dist, tol: t.tol ?? null, sigmas: t.dist === "normal" ? (t.sigmas ?? 3) : null, mean: t.mean ?? 0, sigma };
-    limits = toleranceLimits(t);
-  }
-  const s = summarize(values);
-  const ad = andersonDarling(values);
-  const rowNumbers = ds.rowNumbers;
-  return {
-    column: col.key,
-    unit,
-    converted,
-    source: m?.source ?? null,
-    summary: s,
-    normality: ad,
-    normalityNote: ad ? null : s.n < AD_MIN_N ? `The normality test needs at least ${AD_MIN_N} values; this column has ${s.n}.` : "Every value is the same: there is no spread to test.",
-    tolerance,
-    capability: limits ? capability(values, limits.lsl, limits.usl) : null,
-    outliers: {
-      rule: `modified z-score |0.6745·(x − median)/MAD| > ${OUTLIER_LIMIT} (Iglewicz and Hoaglin)`,
-      values: outliers(values).map((o) => ({ row: rowNumbers[o.index], value: o.value, score: o.score })),
-    },
-    histogram: histogram(values, limits),
-  };
-}
-
-/**
- * One column of a data set as an as-built study uses it: in the unit of `source`, checked
- * against the column's mapping (a column mapped to another source is refused).
- */
-export async function columnForSource(
-  db: Pick<Database, "select">,
-  workspaceId: string,
-  projectId: string,
-  datasetId: string,
-  column: string,
-  source: string,
-  sourceUnit: SourceUnit,
-  path: string,
-) {
-  const [ds] = await db.select().from(datasets).where(and(eq(datasets.workspaceId, workspaceId), eq(datasets.id, datasetId)));
-  if (!ds || ds.projectId !== projectId) throw badRequest("A data set of the as-built study is not in this project.", [{ path: `${path}.datasetId`, message: "no data set with this id in the revision's project" }], "invalid_as_built");
-  const cols = ds.columns as unknown as ParsedColumn[];
-  const col = cols.find((c) => c.key === column);
-  if (!col || col.kind !== "number") {
-    throw badRequest(`Data set “${ds.name}” has no measured column “${column}”.`, [{ path: `${path}.column`, message: `no measured column “${column}” in “${ds.name}”` }], "invalid_as_built");
-  }
-  const [m] = await db.select().from(datasetMappings).where(and(eq(datasetMappings.datasetId, datasetId), eq(datasetMappings.column, column)));
-  if (m && m.source !== source) {
-    throw badRequest(`Column “${column}” is mapped to ${m.source}, not ${source}.`, [{ path: `${path}.source`, message: `“${column}” of “${ds.name}” measures ${m.source}; map it to ${source} first` }], "invalid_as_built");
-  }
-  const unit = (m?.unit as MeasureUnit | undefined) ?? col.unit;
-  if (!unit) {
-    throw badRequest(`Column “${column}” has no unit.`, [{ path: `${path}.column`, message: `give “${column}” a unit by mapping it to ${source}` }], "invalid_as_built");
-  }
-  if (conversionFactor(unit, sourceUnit) === null) {
-    throw badRequest(`Column “${column}” is in ${unitText(unit)}; ${source} is in ${unitText(sourceUnit)}.`, [{ path: `${path}.column`, message: `a column in ${unitText(unit)} cannot replace ${source}` }], "invalid_as_built");
-  }
-  const { values } = convertedValues(ds.data[column] as number[], unit, m?.nominal ?? 0, sourceUnit);
-  return { name: ds.name, values };
-}

@@ -11,12 +11,16 @@ export const DATASET_PREVIEW_ROWS = 20;
 export const MeasureUnitSchema = z.enum(MEASURE_UNITS, { message: "unit must be one of um, mm, deg, mrad, arcmin" });
 export const DatasetFileTypeSchema = z.enum(["csv", "xlsx"]);
 
-const ColumnSummarySchema = z.object({ n: z.number().int(), mean: z.number(), std: z.number(), min: z.number(), max: z.number() });
+/** n values and the gaps (empty cells, NA, N/A, n/a, -, null) beside them */
+const ColumnSummarySchema = z.object({ n: z.number().int(), missing: z.number().int().default(0), mean: z.number(), std: z.number(), min: z.number(), max: z.number() });
 
 export const ColumnMappingSchema = z.object({
   revisionId: IdSchema,
   revisionNumber: z.number().int(),
   source: z.string(),
+  /** for a pooled source: which support point or component this column is (0-based), and its name */
+  part: z.number().int().nullable(),
+  partLabel: z.string().nullable(),
   /** the column's unit; the values are converted to the source's unit (um or deg) */
   unit: MeasureUnitSchema,
   sourceUnit: z.enum(["um", "deg"]),
@@ -54,6 +58,11 @@ export const DatasetSummarySchema = z.object({
   uploadedByRole: z.string(),
   supplierName: z.string().nullable(),
   report: z.object({ id: IdSchema, number: z.number().int(), revision: z.number().int() }).nullable(),
+  /** the production lot the sender gave for the whole file, and the sender's note */
+  lot: z.string().nullable(),
+  note: z.string().nullable(),
+  /** a label column marked as each row's lot (or date) */
+  lotColumn: z.string().nullable(),
   createdAt: z.string(),
 });
 export type DatasetSummary = z.infer<typeof DatasetSummarySchema>;
@@ -61,6 +70,19 @@ export const DatasetListSchema = z.object({ datasets: z.array(DatasetSummarySche
 
 export const DatasetSchema = DatasetSummarySchema.extend({
   columns: z.array(DatasetColumnSchema),
+  /** each source measured by several columns: the rows where all of them have a value are used */
+  pooled: z.array(
+    z.object({
+      source: z.string(),
+      revisionNumber: z.number().int(),
+      columns: z.array(z.string()),
+      /** parts of the source with no column yet (the as-built study needs all) */
+      missingParts: z.array(z.string()),
+      parts: z.number().int(),
+      completeRows: z.number().int(),
+      dropped: z.number().int(),
+    }),
+  ),
   /** the first rows as written in the file, with their row numbers in the file */
   preview: z.object({ rowNumbers: z.array(z.number().int()), cells: z.array(z.array(z.string())) }),
   sha256: z.string(),
@@ -72,6 +94,10 @@ export const MappingInputSchema = z.object({
   revisionId: IdSchema,
   /** a source id of the revision's stack, e.g. "mag.yaw"; null removes the mapping */
   source: z.string().min(1, { message: "source must not be empty" }).max(200).nullable(),
+  /** a bond line's support point (0-based, in MODEL.md's corner order) for one of several height columns */
+  support: z.number({ message: "support must be a number" }).int({ message: "support must be a whole number" }).min(0).max(63).optional(),
+  /** a tilt's component (x, y) or an axis angle (g1..g6) for one of several columns of one source */
+  component: z.enum(["x", "y", "g1", "g2", "g3", "g4", "g5", "g6"], { message: "component must be x, y or g1..g6" }).optional(),
   unit: MeasureUnitSchema.optional(),
   nominal: z.number({ message: "nominal must be a number" }).finite({ message: "nominal must be a finite number" }).optional(),
 });
@@ -81,16 +107,33 @@ export const UpdateMappingsSchema = z.object({
 });
 export type UpdateMappings = z.infer<typeof UpdateMappingsSchema>;
 
+/** Fields sent beside the file of an upload. */
+export const UploadFieldsSchema = z.object({
+  lot: z.string().trim().max(100, { message: "the lot is limited to 100 characters" }).optional(),
+  note: z.string().trim().max(2000, { message: "the note is limited to 2,000 characters" }).optional(),
+});
+export type UploadFields = z.infer<typeof UploadFieldsSchema>;
+
+export const UpdateDatasetSchema = z.object({
+  /** a label column naming each row's lot (or date); null: the rows have no lots */
+  lotColumn: z.string({ message: "lotColumn must be a column's header or null" }).min(1).nullable(),
+});
+export type UpdateDataset = z.infer<typeof UpdateDatasetSchema>;
+
 export const StatisticsQuerySchema = z.object({ column: z.string({ message: "name the column: ?column=…" }).min(1, { message: "name the column: ?column=…" }) });
 
 export const DatasetStatisticsSchema = z.object({
   column: z.string(),
   /** unit of every number below: the source's unit when mapped, else the column's own (or none) */
   unit: z.string().nullable(),
-  converted: z.object({ from: MeasureUnitSchema, factor: z.number(), nominal: z.number() }).nullable(),
+  /** `text` says what happened in words: "value − 10 µm nominal, mm → µm (× 1000)" */
+  converted: z.object({ from: MeasureUnitSchema, factor: z.number(), nominal: z.number(), text: z.string() }).nullable(),
   source: z.string().nullable(),
+  part: z.number().int().nullable(),
+  partLabel: z.string().nullable(),
   summary: z.object({
     n: z.number().int(),
+    missing: z.number().int(),
     mean: z.number(),
     std: z.number(),
     min: z.number(),
@@ -110,11 +153,37 @@ export const DatasetStatisticsSchema = z.object({
     .object({
       lsl: z.number(),
       usl: z.number(),
+      /** units the figures rest on */
+      n: z.number().int(),
+      pp: z.number(),
+      ppk: z.number(),
+      /** within lots when the rows have lots of several units; otherwise equal to pp, ppk */
       cp: z.number(),
       cpk: z.number(),
+      basis: z.enum(["within lots", "overall"]),
+      sigmaOverall: z.number(),
+      sigmaWithin: z.number().nullable(),
+      /** one-sided lower confidence bound of cpk at `confidence` (Bissell 1990) */
+      cpkLower: z.number(),
+      confidence: z.number(),
       expectedPpm: z.number(),
       observedOut: z.number().int(),
       observedPpm: z.number(),
+    })
+    .nullable(),
+  /** the lot column used, and statistics per lot in file order */
+  lotColumn: z.string().nullable(),
+  lots: z.array(z.object({ lot: z.string(), n: z.number().int(), mean: z.number(), std: z.number(), min: z.number(), max: z.number(), ppk: z.number().nullable() })),
+  /** Shewhart individuals and moving-range chart in production (file) order */
+  controlChart: z
+    .object({
+      method: z.string(),
+      constants: z.object({ d2: z.number(), D3: z.number(), D4: z.number(), source: z.string() }),
+      points: z.array(z.object({ order: z.number().int(), row: z.number().int(), lot: z.string().nullable(), x: z.number(), mr: z.number().nullable(), outX: z.boolean(), outMr: z.boolean() })),
+      x: z.object({ centre: z.number(), lcl: z.number(), ucl: z.number() }),
+      mr: z.object({ centre: z.number(), lcl: z.number(), ucl: z.number() }),
+      sigmaShortTerm: z.number(),
+      signals: z.number().int(),
     })
     .nullable(),
   outliers: z.object({
@@ -134,7 +203,8 @@ export type DatasetStatistics = z.infer<typeof DatasetStatisticsSchema>;
 export const AsBuiltEntrySchema = z.object({
   source: z.string({ message: "source is required" }).min(1, { message: "source is required" }).max(200),
   datasetId: IdSchema,
-  column: z.string({ message: "column is required" }).min(1, { message: "column is required" }),
+  /** needed only where the source has one column in the data set; a pooled source takes all of its mapped columns */
+  column: z.string({ message: "column must be a header" }).min(1, { message: "column must not be empty" }).optional(),
   mode: z.enum(["resample", "normal"], { message: 'mode must be "resample" or "normal"' }),
 });
 export type AsBuiltEntry = z.infer<typeof AsBuiltEntrySchema>;
@@ -142,6 +212,10 @@ export type AsBuiltEntry = z.infer<typeof AsBuiltEntrySchema>;
 /** What a study records of each replaced source. */
 export const AsBuiltRecordSchema = AsBuiltEntrySchema.extend({
   datasetName: z.string(),
+  /** the columns used, in part order for a pooled source */
+  columns: z.array(z.string()).default([]),
+  /** rows left out because a column of the row had a gap */
+  dropped: z.number().int().default(0),
   n: z.number().int(),
   /** of the values as drawn, in the source's unit */
   mean: z.number(),

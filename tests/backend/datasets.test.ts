@@ -147,8 +147,7 @@ describe("upload", () => {
 describe("refused files: 400 naming the row and column, nothing stored", () => {
   const cases: Array<{ what: string; name: string; content: string | Buffer | (() => Promise<string | Buffer> | string | Buffer); status?: number; code: string; message: RegExp }> = [
     { what: "a word in a number column", name: "a.csv", content: "unit,tilt [deg]\nU1,0.1\nU2,0.1o\n", code: "invalid_file", message: /^Row 3, column B \(tilt \[deg\]\): “0\.1o” is not a number/ },
-    { what: "a missing value", name: "b.csv", content: "unit,tilt [deg],yaw [deg]\nU1,0.1,0.2\nU2,,0.3\n", code: "invalid_file", message: /^Row 3, column B \(tilt \[deg\]\): missing value/ },
-    { what: "a short row", name: "b2.csv", content: "tilt [deg],yaw [deg]\n0.1,0.2\n0.3\n", code: "invalid_file", message: /^Row 3, column B \(yaw \[deg\]\): missing value/ },
+    { what: "a measured column of gaps only", name: "b.csv", content: "unit,tilt [deg],yaw [deg]\nU1,NA,0.2\nU2,,0.3\n", code: "invalid_file", message: /^Row 1, column B \(tilt \[deg\]\): the column holds only gaps/ },
     { what: "an unknown unit in a header", name: "c.csv", content: "unit,tilt_x [furlong]\nU1,1\n", code: "invalid_file", message: /^Row 1, column B \(tilt_x \[furlong\]\): unknown unit “furlong”/ },
     { what: "empty brackets in a header", name: "c2.csv", content: "tilt_x []\n1\n", code: "invalid_file", message: /^Row 1, column A \(tilt_x \[\]\): the brackets in the header hold no unit/ },
     { what: "an empty file", name: "d.csv", content: "", code: "empty_file", message: /“d\.csv” is empty/ },
@@ -193,13 +192,6 @@ describe("refused files: 400 naming the row and column, nothing stored", () => {
       message: /more than 100,000 data rows/,
     },
     {
-      what: "a missing cell (XLSX)",
-      name: "l.xlsx",
-      content: () => xlsx([["unit", "yaw [deg]", "tilt [deg]"], ["U1", 0.1, 0.2], ["U2", null, 0.3]]),
-      code: "invalid_file",
-      message: /^Row 3, column B \(yaw \[deg\]\): missing value/,
-    },
-    {
       what: "more rows than allowed",
       name: "big.csv",
       content: () => "v [um]\n" + "1\n".repeat(DATASET_MAX_ROWS + 1),
@@ -228,20 +220,36 @@ describe("refused files: 400 naming the row and column, nothing stored", () => {
     });
   }
 
+  it("gaps (empty, short rows, missing markers, empty XLSX cells) are counted, not refused", async () => {
+    const csv = await uploadToProject("gaps.csv", "unit,tilt [deg],yaw [deg]\nU1,0.1,0.2\nU2,,0.3\nU3,NA,-\nU4,n/a,null\nU5,N/A\nU6,0.4,0.5\n");
+    expect(csv.status, JSON.stringify(csv.body)).toBe(201);
+    const sum = (d: any, k: string) => d.columns.find((c: any) => c.key === k).summary;
+    expect([sum(csv.body, "tilt [deg]").n, sum(csv.body, "tilt [deg]").missing]).toEqual([2, 4]);
+    expect([sum(csv.body, "yaw [deg]").n, sum(csv.body, "yaw [deg]").missing]).toEqual([3, 3]);
+    expect(sum(csv.body, "tilt [deg]").mean).toBeCloseTo(0.25, 12);
+    const book = await uploadToProject("gaps.xlsx", await xlsx([["unit", "yaw [deg]", "tilt [deg]"], ["U1", 0.1, 0.2], ["U2", null, 0.3], ["U3", "NA", 0.1]]));
+    expect(book.status).toBe(201);
+    expect([sum(book.body, "yaw [deg]").n, sum(book.body, "yaw [deg]").missing]).toEqual([1, 2]);
+    // a first cell that is a gap does not turn a measured column into labels
+    const first = await uploadToProject("first-gap.csv", "unit,z\nU1,NA\nU2,1.5\nU3,2\n");
+    expect(first.body.columns[1]).toMatchObject({ kind: "number", summary: { n: 2, missing: 1 } });
+  });
+
   it("lists every problem of a file in the fields, with row and column", async () => {
-    const res = await uploadToProject("many.csv", "unit,tilt [deg],yaw [deg]\nU1,x,0.1\nU2,0.2,\nU3,0.3,y\n");
+    const res = await uploadToProject("many.csv", "unit,tilt [deg],yaw [deg]\nU1,x,0.1\nU2,0.2,?\nU3,0.3,y\n");
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(/^Row 2, column B \(tilt \[deg\]\): “x” is not a number\. \(3 problems; nothing was stored\)$/);
     expect(res.body.error.fields).toContainEqual({ path: "Row 4, column C (yaw [deg])", message: "“y” is not a number" });
-    expect(res.body.error.fields).toContainEqual({ path: "Row 3, column C (yaw [deg])", message: "missing value" });
+    expect(res.body.error.fields).toContainEqual({ path: "Row 3, column C (yaw [deg])", message: "“?” is not a number" });
     expect(res.body.error.fields.map((f: any) => f.path).sort()).toEqual(["Row 2, column B (tilt [deg])", "Row 3, column C (yaw [deg])", "Row 4, column C (yaw [deg])"]);
   });
 
   it("no file, or the file in another field", async () => {
     const before = await counts();
+    // a JSON body is not a form at all: refused before it is read (request-guard)
     const none = await t.call("POST", `/api/projects/${projectId}/datasets`, { cookie: eng, body: {} });
-    expect(none.status).toBe(400);
-    expect(none.body.error.code).toBe("missing_file");
+    expect(none.status).toBe(415);
+    expect(none.body.error.code).toBe("unsupported_media_type");
     const wrong = await upload(`/api/projects/${projectId}/datasets`, eng, "a.csv", "v [um]\n1\n", "upload");
     expect(wrong.status).toBe(400);
     expect(wrong.body.error.code).toBe("missing_file");

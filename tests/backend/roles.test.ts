@@ -244,6 +244,7 @@ export const ROUTES: Row[] = [
   { route: "POST /api/projects/:id/datasets", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}/datasets`, upload: MEASUREMENTS },
   { route: "GET /api/datasets/:id", allowed: STAFF, path: async (c) => `/api/datasets/${await freshDataset(c)}` },
   { route: "DELETE /api/datasets/:id", allowed: WRITERS, path: async (c) => `/api/datasets/${await freshDataset(c)}` },
+  { route: "PATCH /api/datasets/:id", allowed: WRITERS, path: async (c) => `/api/datasets/${await freshDataset(c)}`, body: () => ({ lotColumn: null }) },
   {
     route: "PATCH /api/datasets/:id/mappings",
     allowed: WRITERS,

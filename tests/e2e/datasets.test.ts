@@ -58,19 +58,20 @@ describe("data sets", () => {
 
     // The capability of the yaw column: against ±0.4° of mag.yaw, converted from mrad.
     await page.getByLabel("Column for capability").selectOption("mag yaw [mrad]");
-    await page.getByText("converted from mrad to °").waitFor();
+    await page.getByText("mrad converted to ° (× 0.0572958)").waitFor();
     const statList = page.locator('dl[aria-label="Column statistics"]');
     await statList.getByText("40", { exact: true }).waitFor();
     await statList.getByText(/±0\.4° normal/).waitFor();
     const cpk = await statList.locator("div", { hasText: /^Cpk/ }).locator("dd").innerText();
     expect(Number(cpk.split(/\s/)[0])).toBeGreaterThan(0.5);
-    await page.locator('figure[data-chart="capability-histogram"] svg').first().waitFor();
+    await page.locator('svg[data-chart="tolerance-window"]').waitFor();
+    await page.getByLabel("Capability statement").getByText(/^Over 40 units, Cpk over all units reads \d\.\d\d; with 95 % confidence the process is at least \d\.\d\d/).waitFor();
     await page.getByText(/A\* = \d\.\d{3}, p = /).waitFor();
     await screenshot(page, "datasets-capability");
 
     // The bond line, less its nominal: in µm around 0.4.
     await page.getByLabel("Column for capability").selectOption("mag bond line A [um]");
-    await page.getByText("less the nominal 10 µm", { exact: false }).waitFor();
+    await page.getByText("the nominal 10 µm taken off each value.", { exact: false }).waitFor();
 
     // The demo data set flags its re-picked unit as an outlier, by its row in the file.
     await page.goto(projectUrl);
@@ -87,6 +88,58 @@ describe("data sets", () => {
     await page.getByRole("list", { name: "Project activity" }).getByText(/mapped the data set “first-build-40\.csv”/).waitFor();
     await screenshot(page, "datasets-project-panel");
 
+    expect(unexpectedProblems(problems)).toEqual([]);
+  });
+
+  it("a corner-height file with gaps, sent for one lot, maps in one step to the bond line and reads its capability with its confidence", async () => {
+    const { page, problems } = await e2e.session();
+    await signInAs(page, "engineer@example.com");
+    await page.getByRole("table", { name: "Projects" }).getByRole("link", { name: /Ridgeline/ }).click();
+    await page.waitForURL(/\/projects\/[0-9a-f-]{36}$/);
+    const projectUrl = page.url();
+    // 30 magnetometers (0.9 × 0.5 mm) in two lots; heights 10 µm + a wedge, three cells missing
+    const X = [-0.45, 0.45, 0.45, -0.45], Y = [-0.25, -0.25, 0.25, 0.25];
+    const rows = Array.from({ length: 30 }, (_, i) => {
+      const b = 2 + (i % 4) * 0.5, a = 10 + 0.2 * (i % 3);
+      const h = X.map((x, k) => (a + b * x - Y[k]).toFixed(3));
+      if (i === 3) h[1] = "NA";
+      if (i === 9) h[2] = "";
+      if (i === 20) h[0] = "n/a";
+      return [`M${i + 1}`, i < 15 ? "L2611" : "L2612", ...h].join(",");
+    });
+    const CORNERS = ["unit,lot,h0 [um],h1 [um],h2 [um],h3 [um]", ...rows].join("\n");
+    await page.getByLabel("Lot of the upload").fill("L2611-12");
+    await page.getByLabel("Note on the upload").fill("corner heights, first build");
+    await page.getByLabel("Measurement file (CSV or XLSX)").setInputFiles({ name: "mag-corners.csv", mimeType: "text/csv", buffer: Buffer.from(CORNERS) });
+    await page.waitForURL(/\/datasets\/[0-9a-f-]{36}/);
+    await page.getByRole("heading", { name: "mag-corners.csv", level: 1 }).waitFor();
+
+    // one step: four columns to the four supports, the nominal 10 µm from the stack's bond line
+    const mapping = page.getByRole("table", { name: "Column mapping" });
+    await mapping.getByLabel("Tolerance source for h0 [µm]").locator('option[value="mag.bondLine#0"]').waitFor({ state: "attached" });
+    for (const k of [0, 1, 2, 3]) await mapping.getByLabel(`Tolerance source for h${k} [µm]`).selectOption(`mag.bondLine#${k}`);
+    await expect(mapping.getByLabel("Nominal of h2 [µm]").inputValue()).resolves.toBe("10");
+    await page.getByLabel("Lot column").selectOption("lot");
+    await page.getByRole("button", { name: "Save mapping (4)" }).click();
+    await page.getByRole("list", { name: "Sources measured by several columns" }).getByText(/mag\.bondLine.*4 of 4 columns: 27 complete rows, 3 left out for a gap/).waitFor();
+    await screenshot(page, "datasets-pooled-mapping");
+
+    // the capability of one corner: a statement with its confidence, units in production order inside the window, lots
+    await page.getByLabel("Column for capability").selectOption("h1 [um]");
+    const statement = page.getByLabel("Capability statement");
+    await statement.getByText(/^Over 29 units, Cpk within lots reads \d\.\d\d; with 95 % confidence the process is at least \d\.\d\d/).waitFor();
+    const chart = page.locator('svg[data-chart="tolerance-window"]');
+    await expect(chart.locator("circle[data-unit]").count()).resolves.toBe(29);
+    await expect(chart.locator('[data-layer="control-limits"] line').count()).resolves.toBe(3);
+    await page.getByRole("table", { name: "Lots" }).getByRole("cell", { name: "L2612" }).waitFor();
+    await page.getByText("+ 1 gaps").waitFor();
+    await screenshot(page, "datasets-capability-window");
+
+    // on the project, grouped by lot
+    await page.goto(projectUrl);
+    await page.getByLabel("Group data sets by").selectOption("lot");
+    await page.getByRole("table", { name: "Data sets" }).locator('tr[data-group="Lot L2611-12"]').waitFor();
+    await page.getByRole("table", { name: "Data sets" }).getByText("corner heights, first build").waitFor();
     expect(unexpectedProblems(problems)).toEqual([]);
   });
 

@@ -266,6 +266,15 @@ describe("comparing two results", () => {
     const rows = settingRows({ study: s, site: null, revisionNumber: 1 }, { study: { ...s, calibration: { after: "board" } }, site: null, revisionNumber: 2 });
     expect(rows.filter((r) => r.differs).map((r) => r.label)).toEqual(["Stack revision", "Calibration"]);
   });
+
+  it("an as-built study of the same dip typed in shows no site difference; another dip does", () => {
+    const s = { format: "orthostack.study/1" as const, trials: 1000, seed: 7, inclinationDeg: 64.25 };
+    const site = { site: { latitudeDeg: 48.1, longitudeDeg: 11.6, altitudeKm: 0.5, date: "2026-06-01" }, model: "WMM2025", inclinationDeg: 64.25, declinationDeg: 4, totalIntensityNt: 48000 } as never;
+    const same = settingRows({ study: s, site, revisionNumber: 1 }, { study: s, site: null, revisionNumber: 1 });
+    expect(same.filter((r) => r.differs).map((r) => r.label)).toEqual([]);
+    const other = settingRows({ study: s, site, revisionNumber: 1 }, { study: { ...s, inclinationDeg: 60 }, site: null, revisionNumber: 1 });
+    expect(other.filter((r) => r.differs).map((r) => r.label)).toEqual(["Field dip", "Site"]);
+  });
 });
 
 describe("recent pace", () => {

@@ -11,6 +11,7 @@ import { isApiError } from "@frontend/lib/api-client";
 import { formatCount } from "@shared/format";
 
 type Choice = { use: boolean; mode: AsBuiltEntry["mode"] };
+type Item = { key: string; source: string; column: string | undefined; text: string; pooled: boolean };
 
 /**
  * Runs the stack of a finished design study again with the mapped columns in place of their
@@ -25,10 +26,22 @@ export function AsBuiltDialog({ dataset, open, onClose }: { dataset: Dataset; op
   const design = designs.find((s) => s.id === designId) ?? designs[0];
   const [choices, setChoices] = useState<Record<string, Choice>>({});
   const choice = (key: string): Choice => choices[key] ?? { use: true, mode: "resample" };
-  const usable = design ? mapped.filter((c) => c.mapping!.revisionId === design.revisionId) : [];
-  const entries: AsBuiltEntry[] = usable
-    .filter((c) => choice(c.key).use)
-    .map((c) => ({ source: c.mapping!.source, datasetId: dataset.id, column: c.key, mode: choice(c.key).mode }));
+  const onRev = design ? mapped.filter((c) => c.mapping!.revisionId === design.revisionId) : [];
+  // a source measured as several columns is one item: its rows are drawn whole
+  const items: Item[] = [
+    ...onRev.filter((c) => c.mapping!.part === null).map((c) => ({ key: c.key, source: c.mapping!.source, column: c.key, text: `from “${c.key}” (${c.summary?.n ?? 0} values)`, pooled: false })),
+    ...[...new Set(onRev.filter((c) => c.mapping!.part !== null).map((c) => c.mapping!.source))].map((src) => {
+      const p = dataset.pooled.find((x) => x.source === src);
+      const cols = p?.columns ?? [];
+      const text = p
+        ? `from ${cols.length} columns together (${cols.map((c) => `“${c}”`).join(", ")}): ${p.completeRows} complete rows${p.dropped ? `, ${p.dropped} left out for a gap` : ""}${p.missingParts.length ? `; no column yet for ${p.missingParts.join(", ")}` : ""}`
+        : "from several columns";
+      return { key: `pool:${src}`, source: src, column: undefined, text, pooled: true };
+    }),
+  ];
+  const entries: AsBuiltEntry[] = items
+    .filter((it) => choice(it.key).use)
+    .map((it) => ({ source: it.source, datasetId: dataset.id, ...(it.column ? { column: it.column } : {}), mode: it.pooled ? "resample" : choice(it.key).mode }));
   const create = useCreateStudy();
   const queryClient = useQueryClient();
   const navigate = useNavigate();
@@ -100,7 +113,7 @@ export function AsBuiltDialog({ dataset, open, onClose }: { dataset: Dataset; op
             </Field>
             <fieldset className="flex flex-col gap-2">
               <legend className="mb-1 text-xs font-semibold text-ink/80">Measured columns</legend>
-              {usable.map((c) => {
+              {items.map((c) => {
                 const ch = choice(c.key);
                 return (
                   <div key={c.key} className="flex flex-wrap items-center gap-3 rounded-md border border-line px-3 py-2">
@@ -111,24 +124,25 @@ export function AsBuiltDialog({ dataset, open, onClose }: { dataset: Dataset; op
                         onChange={(e) => setChoices((x) => ({ ...x, [c.key]: { ...ch, use: e.target.checked } }))}
                       />
                       <span className="truncate">
-                        <span className="font-semibold">{c.mapping!.source}</span> from “{c.key}” ({c.summary?.n ?? 0} values)
+                        <span className="font-semibold">{c.source}</span> {c.text}
                       </span>
                     </label>
                     <Select
                       compact
-                      aria-label={`How ${c.mapping!.source} is drawn`}
-                      value={ch.mode}
-                      disabled={!ch.use}
+                      aria-label={`How ${c.source} is drawn`}
+                      value={c.pooled ? "resample" : ch.mode}
+                      disabled={!ch.use || c.pooled}
+                      title={c.pooled ? "Each trial takes one unit's whole row, so its columns stay together" : undefined}
                       onChange={(e) => setChoices((x) => ({ ...x, [c.key]: { ...ch, mode: e.target.value as Choice["mode"] } }))}
                       className="w-56"
                     >
-                      <option value="resample">Resample the measurements</option>
+                      <option value="resample">{c.pooled ? "Resample whole rows" : "Resample the measurements"}</option>
                       <option value="normal">Fitted normal (mean, 3σ)</option>
                     </Select>
                   </div>
                 );
               })}
-              {mapped.length > usable.length ? (
+              {mapped.length > onRev.length ? (
                 <p className="text-xs text-ink/55">Columns mapped on another revision than the design study's are left out.</p>
               ) : null}
             </fieldset>

@@ -1,21 +1,18 @@
 import type { ReactNode } from "react";
-import { CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, Scatter, XAxis, YAxis } from "recharts";
 import type { Dataset, DatasetStatistics } from "@shared/schemas/datasets";
 import { Alert } from "@frontend/components/ui/alert";
 import { Badge } from "@frontend/components/ui/badge";
 import { Select } from "@frontend/components/ui/field";
 import { Spinner } from "@frontend/components/ui/spinner";
-import { axisLine, axisTick, FAIL, gridProps, INK, PASS } from "@frontend/features/studies";
 import { isApiError } from "@frontend/lib/api-client";
 import { useDatasetStatistics } from "../api/get-dataset-statistics";
-import { niceTicks } from "@frontend/features/datasets/lib/ticks";
-import { formatCount, formatIndex, formatMeasure, formatMeasureUnit, formatPpm, unitText } from "@shared/format";
+import { formatCount, formatIndex, formatMeasure, formatMeasureUnit as withUnit, formatPpm } from "@shared/format";
+import { ToleranceWindow } from "./tolerance-window";
 
 /** Production target for Cpk (REFERENCES.md: ≥ 1.33 in production, common practice). */
 const CPK_TARGET = 1.33;
-const BAR = "#0d9488";
 
-/** The statistics of one measured column: summary, normality, capability against its tolerance, histogram, outliers. */
+/** The statistics of one measured column: capability as a statement, the tolerance window with the units in production order, lots, normality, outliers. */
 export function CapabilityView({ dataset, column, onColumn }: { dataset: Dataset; column: string; onColumn: (c: string) => void }) {
   const numeric = dataset.columns.filter((c) => c.kind === "number");
   const stats = useDatasetStatistics(dataset.id, column);
@@ -39,12 +36,8 @@ export function CapabilityView({ dataset, column, onColumn }: { dataset: Dataset
         {s?.source ? (
           <span className="text-xs text-ink/65">
             Measures <Badge tone="accel">{s.source}</Badge>
-            {s.converted ? (
-              <span className="ml-1.5">
-                converted from {unitText(s.converted.from)} to {unitText(s.unit)}
-                {s.converted.nominal ? `, less the nominal ${formatMeasure(s.converted.nominal)} ${unitText(s.converted.from)}` : ""}
-              </span>
-            ) : null}
+            {s.partLabel ? <span className="ml-1">({s.partLabel})</span> : null}
+            {s.converted ? <span className="ml-1.5">{s.converted.text}</span> : null}
           </span>
         ) : s ? (
           <span className="text-xs text-ink/55">Not mapped: map the column to a tolerance source to compare it with the tolerance.</span>
@@ -62,60 +55,74 @@ export function CapabilityView({ dataset, column, onColumn }: { dataset: Dataset
   );
 }
 
+/** The capability and its confidence bound as one statement, in words and numbers. */
+export function capabilityStatement(s: DatasetStatistics): string | null {
+  const c = s.capability;
+  if (!c) return null;
+  const u = s.unit;
+  const within = c.basis === "within lots";
+  const head = `Over ${c.n} units, Cpk ${within ? "within lots" : "over all units"} reads ${formatIndex(c.cpk)}; with ${Math.round(c.confidence * 100)} % confidence the process is at least ${formatIndex(c.cpkLower)}`;
+  const ask = c.cpkLower >= CPK_TARGET ? `, so it holds the usual ${CPK_TARGET}` : c.cpk >= CPK_TARGET ? `, so ${c.n} units do not yet show the usual ${CPK_TARGET}` : `, short of the usual ${CPK_TARGET}`;
+  const overall = within ? ` Over all units together Ppk is ${formatIndex(c.ppk)}.` : "";
+  const out = ` ${c.observedOut} of ${c.n} units lie outside ${withUnit(c.lsl, u)} … ${withUnit(c.usl, u)}; the fitted normal expects ${formatPpm(c.expectedPpm)} ppm.`;
+  return `${head}${ask}.${overall}${out}`;
+}
+
 function StatisticsBody({ s }: { s: DatasetStatistics }) {
   const u = s.unit;
   const c = s.capability;
-  const cpkTone = !c ? "neutral" : c.cpk >= CPK_TARGET ? "pass" : "fail";
+  const statement = capabilityStatement(s);
+  const holds = c ? c.cpkLower >= CPK_TARGET : false;
   return (
     <>
-      <dl className="grid grid-cols-2 gap-px overflow-hidden rounded-lg border border-line bg-line sm:grid-cols-4 lg:grid-cols-8" aria-label="Column statistics">
-        <Stat label="n">{formatCount(s.summary.n)}</Stat>
-        <Stat label="Mean">{formatMeasureUnit(s.summary.mean, u)}</Stat>
-        <Stat label="Std dev (n − 1)">{formatMeasureUnit(s.summary.std, u)}</Stat>
-        <Stat label="Min … max">
-          {formatMeasure(s.summary.min)} … {formatMeasureUnit(s.summary.max, u)}
-        </Stat>
-        <Stat label="Tolerance">
-          {s.tolerance && s.tolerance.tol !== null
-            ? `${s.tolerance.mean ? `${formatMeasure(s.tolerance.mean)} ` : ""}±${formatMeasureUnit(s.tolerance.tol, u)} ${s.tolerance.dist}`
-            : s.tolerance
-              ? "measured data"
-              : "—"}
-        </Stat>
-        <Stat label="Cp">{c ? formatIndex(c.cp) : "—"}</Stat>
-        <Stat label="Cpk">
-          {c ? (
-            <span className="inline-flex items-center gap-1.5">
-              {formatIndex(c.cpk)}
-              <Badge tone={cpkTone}>{c.cpk >= CPK_TARGET ? `≥ ${CPK_TARGET}` : `< ${CPK_TARGET}`}</Badge>
-            </span>
-          ) : (
-            "—"
-          )}
-        </Stat>
-        <Stat label="Out of tolerance">
-          {c ? (
-            <span title="Expected from the fitted normal; measured units outside the limits">
-              {formatPpm(c.expectedPpm)} · {c.observedOut} of {s.summary.n}
-            </span>
-          ) : (
-            "—"
-          )}
-        </Stat>
-      </dl>
-
-      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_300px]">
-        <figure aria-label={`Histogram of ${s.column}`} data-chart="capability-histogram" className="min-w-0 rounded-lg border border-line bg-white/60 p-2">
-          <Histogram s={s} />
-          <figcaption className="flex flex-wrap gap-x-4 gap-y-1 px-2 pt-1 text-2xs text-ink/60">
-            <Legend swatch={<span className="inline-block size-2.5 rounded-sm" style={{ background: BAR, opacity: 0.55 }} />}>measured units per bin</Legend>
-            <Legend swatch={<span className="inline-block h-0.5 w-4" style={{ background: INK }} />}>fitted normal</Legend>
-            {c ? <Legend swatch={<span className="inline-block h-3 w-0 border-l-2 border-dashed" style={{ borderColor: FAIL }} />}>tolerance limits LSL, USL</Legend> : null}
-            {s.tolerance ? <Legend swatch={<span className="inline-block h-3 w-0 border-l-2 border-dotted" style={{ borderColor: PASS }} />}>target (the tolerance's mean)</Legend> : null}
-            {s.outliers.values.length ? <Legend swatch={<span className="inline-block size-2 rounded-full" style={{ background: FAIL }} />}>outliers</Legend> : null}
+      {statement ? (
+        <p aria-label="Capability statement" className={`rounded-lg border-l-4 bg-panel px-4 py-3 text-[14px] leading-relaxed text-ink ${holds ? "border-pass" : "border-fail"}`}>
+          {statement}
+        </p>
+      ) : (
+        <p className="text-[13px] text-ink/65">
+          {s.tolerance ? "The tolerance is measured data itself: there are no limits to hold the units against." : "No tolerance to hold the units against: map the column to a source."}
+        </p>
+      )}
+      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_290px]">
+        <figure aria-label={`Tolerance window of ${s.column}`} className="min-w-0 rounded-lg border border-line bg-white/60 p-2">
+          <ToleranceWindow s={s} />
+          <figcaption className="px-2 pt-1 text-2xs text-ink/60">
+            The frame is the tolerance window{c ? "" : " (none: the column is not mapped to a ± tolerance)"}. Left: each unit in production order
+            {s.lotColumn ? `, lots from “${s.lotColumn}”` : ""}, with the individuals chart's centre line and control limits (dashed). Right: the same
+            values as a distribution with the fitted normal. Below: moving ranges of consecutive units.{" "}
+            {s.controlChart ? `Constants d₂ = ${s.controlChart.constants.d2}, D₄ = ${s.controlChart.constants.D4} (${s.controlChart.constants.source}). ` : ""}
+            {s.controlChart ? (s.controlChart.signals ? `${s.controlChart.signals} ${s.controlChart.signals === 1 ? "unit lies" : "units lie"} beyond a control limit: look for a drift or a step.` : "No unit beyond a control limit.") : ""}
           </figcaption>
         </figure>
         <div className="flex flex-col gap-3 text-[13px]">
+          <dl className="grid grid-cols-2 gap-px overflow-hidden rounded-lg border border-line bg-line" aria-label="Column statistics">
+            <Stat label="Units">
+              {formatCount(s.summary.n)}
+              {s.summary.missing ? <span className="ml-1 text-xs font-normal text-ink/55">+ {s.summary.missing} gaps</span> : null}
+            </Stat>
+            <Stat label="Mean">{withUnit(s.summary.mean, u)}</Stat>
+            <Stat label="Std dev (n − 1)">{withUnit(s.summary.std, u)}</Stat>
+            <Stat label="Min … max">
+              {formatMeasure(s.summary.min)} … {withUnit(s.summary.max, u)}
+            </Stat>
+            <Stat label="Tolerance">
+              {s.tolerance && s.tolerance.tol !== null ? `${s.tolerance.mean ? `${formatMeasure(s.tolerance.mean)} ` : ""}±${withUnit(s.tolerance.tol, u)} ${s.tolerance.dist}` : s.tolerance ? "measured data" : "—"}
+            </Stat>
+            <Stat label={`Cpk ${c?.basis === "within lots" ? "within lots" : ""}`}>{c ? formatIndex(c.cpk) : "—"}</Stat>
+            <Stat label="Cpk, 95 % lower">{c ? formatIndex(c.cpkLower) : "—"}</Stat>
+            <Stat label="Cp">{c ? formatIndex(c.cp) : "—"}</Stat>
+            <Stat label="Ppk over all">{c ? formatIndex(c.ppk) : "—"}</Stat>
+            <Stat label="Pp">{c ? formatIndex(c.pp) : "—"}</Stat>
+            <Stat label="Out of tolerance">{c ? `${formatPpm(c.expectedPpm)} ppm · ${c.observedOut} of ${c.n}` : "—"}</Stat>
+            <Stat label="σ within / overall">{c ? `${c.sigmaWithin !== null ? formatMeasure(c.sigmaWithin, 3) : "—"} / ${formatMeasure(c.sigmaOverall, 3)}` : "—"}</Stat>
+          </dl>
+          {c ? (
+            <p className="text-2xs text-ink/55">
+              Lower bound: Bissell's normal approximation (1990), one-sided {Math.round(c.confidence * 100)} %.{" "}
+              {c.basis === "within lots" ? "Cp, Cpk use the pooled spread within lots; Pp, Ppk the spread of all units." : "Without lots of several units, Cp and Cpk are the overall indices (Pp, Ppk)."}
+            </p>
+          ) : null}
           <section aria-label="Normality">
             <h3 className="text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">Normality</h3>
             {s.normality ? (
@@ -125,33 +132,24 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
                   A* = {s.normality.a2Star.toFixed(3)}, p = {s.normality.pValue < 0.001 ? "< 0.001" : s.normality.pValue.toFixed(3)}
                 </span>
                 <span className="mt-1 block text-xs text-ink/55">
-                  Anderson–Darling with mean and σ from the sample, small-sample modified statistic and p-value of D'Agostino and Stephens (1986).
-                  {s.normality.normalAt5pct ? "" : " The fitted normal and its ppm are then only a rough guide; the as-built study can resample the measurements instead."}
+                  Anderson–Darling, D'Agostino and Stephens (1986).
+                  {s.normality.normalAt5pct ? "" : " The fitted normal, its ppm and the bound are then only a rough guide; the as-built study can resample the measurements instead."}
                 </span>
               </p>
             ) : (
               <p className="mt-1 text-xs text-ink/60">{s.normalityNote}</p>
             )}
           </section>
-          {c ? (
-            <section aria-label="Capability">
-              <h3 className="text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">Capability</h3>
-              <p className="mt-1 text-xs text-ink/65">
-                LSL {formatMeasureUnit(c.lsl, u)}, USL {formatMeasureUnit(c.usl, u)}. σ is the spread of all {s.summary.n} units together (a first build has no
-                subgroups), so Cp and Cpk here are the overall indices (Pp, Ppk). Production asks Cpk ≥ {CPK_TARGET} (common practice).
-              </p>
-            </section>
-          ) : null}
           <section aria-label="Outliers">
             <h3 className="text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">Outliers</h3>
             {s.outliers.values.length ? (
               <ul className="mt-1 flex flex-col gap-0.5 text-xs">
-                {s.outliers.values.slice(0, 12).map((o) => (
+                {s.outliers.values.slice(0, 8).map((o) => (
                   <li key={o.row} className="tabular-nums">
                     <span className="font-semibold text-fail">Row {o.row}</span>: {formatMeasureUnit(o.value, u)} (M = {o.score.toFixed(1)})
                   </li>
                 ))}
-                {s.outliers.values.length > 12 ? <li className="text-ink/55">and {s.outliers.values.length - 12} more</li> : null}
+                {s.outliers.values.length > 8 ? <li className="text-ink/55">and {s.outliers.values.length - 8} more</li> : null}
               </ul>
             ) : (
               <p className="mt-1 text-xs text-ink/60">None.</p>
@@ -160,49 +158,40 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
           </section>
         </div>
       </div>
+      {s.lots.length > 1 ? <LotTable s={s} /> : null}
     </>
   );
 }
 
-function Histogram({ s }: { s: DatasetStatistics }) {
-  const h = s.histogram;
-  const yTicks = niceTicks(0, Math.max(1, ...h.bins.map((b) => b.count), ...h.curve.map((p) => p.y)) * 1.08, 5).filter((v) => Number.isInteger(v));
-  const top = Math.max(yTicks[yTicks.length - 1], Math.max(...h.bins.map((b) => b.count)) * 1.08);
-  const c = s.capability;
-  const unit = unitText(s.unit);
-  const tick = (v: number) => `${formatMeasure(v, 3)}${unit === "°" ? "°" : ""}`;
-  const outliers = s.outliers.values.map((o) => ({ x: o.value, y: top * 0.03 }));
+function LotTable({ s }: { s: DatasetStatistics }) {
+  const u = s.unit;
   return (
-    <ComposedChart responsive style={{ width: "100%", height: 280 }} data={h.curve} margin={{ top: 18, right: 16, bottom: 4, left: 0 }}>
-      <CartesianGrid {...gridProps} vertical={false} />
-      <XAxis
-        dataKey="x"
-        type="number"
-        domain={h.domain}
-        allowDataOverflow
-        tick={axisTick}
-        axisLine={axisLine}
-        tickLine={false}
-        tickFormatter={tick}
-        ticks={niceTicks(h.domain[0], h.domain[1], 8)}
-        height={30}
-        label={{ value: `${s.source ?? s.column}${unit && unit !== "°" ? ` (${unit})` : unit ? " (deg)" : ""}`, position: "insideBottomRight", offset: -2, fontSize: 10.5, fill: "rgba(23,33,43,0.55)" }}
-      />
-      <YAxis domain={[0, top]} ticks={yTicks} allowDecimals={false} tick={axisTick} axisLine={axisLine} tickLine={false} width={36} />
-      {h.bins.map((b, i) => (
-        <ReferenceArea key={i} x1={b.from} x2={b.to} y1={0} y2={b.count} fill={BAR} fillOpacity={0.5} stroke={BAR} strokeOpacity={0.85} ifOverflow="extendDomain" />
-      ))}
-      {c ? (
-        <ReferenceLine x={c.lsl} stroke={FAIL} strokeWidth={1.5} strokeDasharray="5 3" label={{ value: "LSL", position: "insideTopLeft", fontSize: 10.5, fill: FAIL, fontWeight: 700 }} />
-      ) : null}
-      {c ? (
-        <ReferenceLine x={c.usl} stroke={FAIL} strokeWidth={1.5} strokeDasharray="5 3" label={{ value: "USL", position: "insideTopRight", fontSize: 10.5, fill: FAIL, fontWeight: 700 }} />
-      ) : null}
-      {s.tolerance ? <ReferenceLine x={s.tolerance.mean} stroke={PASS} strokeOpacity={0.6} strokeDasharray="2 3" /> : null}
-      <ReferenceLine x={s.summary.mean} stroke={INK} strokeOpacity={0.5} label={{ value: "mean", position: "top", fontSize: 10, fill: "rgba(23,33,43,0.6)" }} />
-      {h.curve.length ? <Line type="monotone" dataKey="y" stroke={INK} strokeWidth={1.6} dot={false} isAnimationActive={false} name="Fitted normal" /> : null}
-      {outliers.length ? <Scatter data={outliers} dataKey="y" fill={FAIL} isAnimationActive={false} name="Outliers" /> : null}
-    </ComposedChart>
+    <table className="w-full max-w-3xl border-collapse text-[13px]" aria-label="Lots">
+      <thead className="border-b border-line text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
+        <tr>
+          <th className="px-2 py-1 text-left">Lot</th>
+          <th className="px-2 py-1 text-right">Units</th>
+          <th className="px-2 py-1 text-right">Mean</th>
+          <th className="px-2 py-1 text-right">Std dev</th>
+          <th className="px-2 py-1 text-right">Min … max</th>
+          <th className="px-2 py-1 text-right">Ppk of the lot</th>
+        </tr>
+      </thead>
+      <tbody>
+        {s.lots.map((l) => (
+          <tr key={l.lot} className="border-b border-line/60">
+            <td className="px-2 py-1 font-semibold">{l.lot}</td>
+            <td className="num px-2 py-1">{l.n}</td>
+            <td className="num px-2 py-1">{withUnit(l.mean, u)}</td>
+            <td className="num px-2 py-1">{l.n > 1 ? withUnit(l.std, u) : "—"}</td>
+            <td className="num px-2 py-1">
+              {formatMeasure(l.min)} … {withUnit(l.max, u)}
+            </td>
+            <td className="num px-2 py-1">{l.ppk !== null ? formatIndex(l.ppk) : "—"}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
   );
 }
 
@@ -212,14 +201,5 @@ function Stat({ label, children }: { label: string; children: ReactNode }) {
       <dt className="text-[10px] font-bold tracking-[0.08em] text-ink/45 uppercase">{label}</dt>
       <dd className="mt-0.5 text-[13px] font-semibold whitespace-nowrap text-ink tabular-nums">{children}</dd>
     </div>
-  );
-}
-
-function Legend({ swatch, children }: { swatch: ReactNode; children: ReactNode }) {
-  return (
-    <span className="inline-flex items-center gap-1.5">
-      {swatch}
-      {children}
-    </span>
   );
 }

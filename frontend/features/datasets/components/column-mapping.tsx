@@ -2,7 +2,7 @@ import { useEffect, useMemo, useState } from "react";
 import type { Dataset, DatasetColumn, MappingInput } from "@shared/schemas/datasets";
 import type { StackFile } from "@shared/schemas/stack-file";
 import { stackSources, type StackSource } from "@shared/datasets/sources";
-import { MEASURE_UNITS, unitKind, type MeasureUnit } from "@shared/datasets/units";
+import { conversionFactor, MEASURE_UNITS, unitKind, type MeasureUnit } from "@shared/datasets/units";
 import { Alert } from "@frontend/components/ui/alert";
 import { Badge } from "@frontend/components/ui/badge";
 import { Button } from "@frontend/components/ui/button";
@@ -10,10 +10,37 @@ import { Input, Select } from "@frontend/components/ui/field";
 import { useProjectRevisions, useRevision } from "@frontend/features/studies";
 import { isApiError } from "@frontend/lib/api-client";
 import { sentence } from "@frontend/lib/form";
+import { useUpdateDataset } from "../api/update-dataset";
 import { useUpdateMappings } from "../api/update-mappings";
 import { formatMeasure, unitText } from "@shared/format";
 
-type Row = { source: string; unit: MeasureUnit | ""; nominal: string };
+/** `source` is a source id, or "<id>#<part>" for one column of a pooled source. */
+type Row = { source: string; unit: MeasureUnit | ""; nominal: string; nominalEdited?: boolean };
+
+const COMPONENTS = ["x", "y"] as const;
+
+function splitChoice(v: string): { source: string; part: number | null } {
+  const i = v.indexOf("#");
+  return i < 0 ? { source: v, part: null } : { source: v.slice(0, i), part: Number(v.slice(i + 1)) };
+}
+
+/** The body fields that name the part: a bond line's support, a tilt's x/y, an axis angle g1..g6. */
+function partFields(source: string, part: number | null): Pick<MappingInput, "support" | "component"> {
+  if (part === null) return {};
+  if (source.endsWith(".bondLine")) return { support: part };
+  if (source.endsWith(".tilt")) return { component: COMPONENTS[part] };
+  return { component: `g${part + 1}` as MappingInput["component"] };
+}
+
+/** A source offered as one column for all its draws, beside its parts (not the pooled tilt, not six separate axis tolerances). */
+const takesOneColumn = (s: StackSource) => !s.parts || s.id.endsWith(".bondLine") || (s.id.endsWith(".axis") && s.parts.every((p) => p.tolerance === s.parts![0].tolerance));
+
+/** The stack's design value of a source (bond-line thickness, position, yaw) in the column's unit: the nominal to take off. */
+function stackNominal(src: StackSource | undefined, unit: MeasureUnit | ""): string {
+  if (!src || !unit) return "0";
+  const f = conversionFactor(unit, src.unit);
+  return f ? String(Number((src.nominal / f).toPrecision(8))) : "0";
+}
 
 const th = "h-7 px-3 text-2xs font-bold tracking-[0.06em] whitespace-nowrap text-ink/55 uppercase";
 
@@ -53,13 +80,15 @@ export function ColumnMapping({
     const out: Record<string, Row> = {};
     for (const c of numeric) {
       const m = c.mapping && c.mapping.revisionId === rev ? c.mapping : null;
-      out[c.key] = { source: m?.source ?? "", unit: m?.unit ?? c.unit ?? "", nominal: m ? String(m.nominal) : "0" };
+      out[c.key] = { source: m ? (m.part !== null ? `${m.source}#${m.part}` : m.source) : "", unit: m?.unit ?? c.unit ?? "", nominal: m ? String(m.nominal) : "0" };
     }
     return out;
   }, [numeric, rev]);
   const [rows, setRows] = useState(initial);
   useEffect(() => setRows(initial), [initial]);
   const update = useUpdateMappings();
+  const lotUpdate = useUpdateDataset();
+  const labels = dataset.columns.filter((c) => c.kind === "label");
 
   const changed = numeric.filter((c) => {
     const a = rows[c.key], b = initial[c.key];
@@ -69,7 +98,8 @@ export function ColumnMapping({
     (c): MappingInput => ({
       column: c.key,
       revisionId: rev,
-      source: rows[c.key].source || null,
+      source: rows[c.key].source ? splitChoice(rows[c.key].source).source : null,
+      ...(rows[c.key].source ? partFields(splitChoice(rows[c.key].source).source, splitChoice(rows[c.key].source).part) : {}),
       ...(rows[c.key].source && rows[c.key].unit ? { unit: rows[c.key].unit as MeasureUnit } : {}),
       ...(rows[c.key].source ? { nominal: Number(rows[c.key].nominal) || 0 } : {}),
     }),
@@ -88,7 +118,13 @@ export function ColumnMapping({
     update.mutate({ id: dataset.id, body: { mappings: sent } });
   }
 
-  const set = (key: string, patch: Partial<Row>) => setRows((r) => ({ ...r, [key]: { ...r[key], ...patch } }));
+  const set = (key: string, patch: Partial<Row>) =>
+    setRows((r) => {
+      const next = { ...r[key], ...patch };
+      // choosing a source brings its design value from the stack, until the nominal is typed
+      if (patch.source !== undefined && !next.nominalEdited) next.nominal = stackNominal(sources.find((x) => x.id === splitChoice(next.source).source), next.unit);
+      return { ...r, [key]: next };
+    });
 
   return (
     <div className="flex flex-col">
@@ -104,6 +140,26 @@ export function ColumnMapping({
           </Select>
         </label>
         {!list.length && !revisions.isPending ? <span className="text-xs text-ink/55">This project has no stack revision to map to yet.</span> : null}
+        {labels.length ? (
+          <label className="flex items-center gap-2 text-xs font-semibold whitespace-nowrap text-ink/75">
+            Lots from
+            <Select
+              compact
+              aria-label="Lot column"
+              value={dataset.lotColumn ?? ""}
+              disabled={!canWrite || lotUpdate.isPending}
+              onChange={(e) => lotUpdate.mutate({ id: dataset.id, body: { lotColumn: e.target.value || null } })}
+              className="w-40"
+            >
+              <option value="">{dataset.lot ? `the upload (lot ${dataset.lot})` : "no lots"}</option>
+              {labels.map((c) => (
+                <option key={c.key} value={c.key}>
+                  {c.key}
+                </option>
+              ))}
+            </Select>
+          </label>
+        ) : null}
         {canWrite ? (
           <Button size="sm" variant="primary" className="ml-auto" disabled={!sent.length || !rev} pending={update.isPending} onClick={save}>
             Save mapping{sent.length > 1 ? ` (${sent.length})` : ""}
@@ -156,12 +212,23 @@ export function ColumnMapping({
                 canWrite={canWrite}
                 error={errors.get(c.key)}
                 onChange={(p) => set(c.key, p)}
+                onNominal={(v) => set(c.key, { nominal: v, nominalEdited: true })}
                 onShow={() => onShow(c.key)}
               />
             ))}
           </tbody>
         </table>
       </div>
+      {dataset.pooled.length ? (
+        <ul className="flex flex-col gap-1 border-t border-line px-4 py-2.5 text-xs text-ink/70" aria-label="Sources measured by several columns">
+          {dataset.pooled.map((p) => (
+            <li key={`${p.revisionNumber}-${p.source}`}>
+              <span className="font-semibold text-ink">{p.source}</span> (rev {p.revisionNumber}) from {p.columns.length} of {p.parts} columns: {p.completeRows} complete rows
+              {p.dropped ? `, ${p.dropped} left out for a gap` : ""}.{p.missingParts.length ? ` Still to map: ${p.missingParts.join(", ")}.` : " Each as-built trial draws one unit's whole row."}
+            </li>
+          ))}
+        </ul>
+      ) : null}
     </div>
   );
 }
@@ -174,6 +241,7 @@ function MappingRow({
   canWrite,
   error,
   onChange,
+  onNominal,
   onShow,
 }: {
   column: DatasetColumn;
@@ -183,6 +251,7 @@ function MappingRow({
   canWrite: boolean;
   error: string | undefined;
   onChange: (p: Partial<Row>) => void;
+  onNominal: (v: string) => void;
   onShow: () => void;
 }) {
   const kind = row.unit ? unitKind(row.unit) : null;
@@ -209,14 +278,23 @@ function MappingRow({
           {canWrite ? (
             <Select compact aria-label={`Tolerance source for ${label}`} value={row.source} onChange={(e) => onChange({ source: e.target.value })} className="w-72" invalid={!!error}>
               <option value="">Not mapped</option>
-              {offered.map((s) => (
-                <option key={s.id} value={s.id}>
-                  {s.id} · {s.quantity} · {toleranceText(s)}
-                </option>
-              ))}
+              {offered.flatMap((s) => [
+                ...(takesOneColumn(s)
+                  ? [
+                      <option key={s.id} value={s.id}>
+                        {s.id} · {s.parts ? `${s.quantity}, this one column for all` : s.quantity} · {toleranceText(s)}
+                      </option>,
+                    ]
+                  : []),
+                ...(s.parts ?? []).map((p) => (
+                  <option key={`${s.id}#${p.index}`} value={`${s.id}#${p.index}`}>
+                    {s.id} · {p.label}
+                  </option>
+                )),
+              ])}
             </Select>
           ) : row.source ? (
-            <Badge tone="accel">{row.source}</Badge>
+            <Badge tone="accel">{row.source.replace("#", " · part ")}</Badge>
           ) : (
             <span className="text-xs text-ink/45">not mapped</span>
           )}
@@ -242,7 +320,7 @@ function MappingRow({
               inputMode="decimal"
               aria-label={`Nominal of ${label}`}
               value={row.nominal}
-              onChange={(e) => onChange({ nominal: e.target.value })}
+              onChange={(e) => onNominal(e.target.value)}
               className="w-20 text-right tabular-nums"
               disabled={!row.source}
             />

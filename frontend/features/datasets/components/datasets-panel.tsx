@@ -1,10 +1,11 @@
 import { useRef, useState, type ChangeEvent } from "react";
 import { Link, useNavigate } from "react-router";
-import { DATASET_MAX_BYTES } from "@shared/schemas/datasets";
+import { DATASET_MAX_BYTES, type DatasetSummary } from "@shared/schemas/datasets";
 import { Alert } from "@frontend/components/ui/alert";
 import { Badge } from "@frontend/components/ui/badge";
 import { Button } from "@frontend/components/ui/button";
 import { EmptyState } from "@frontend/components/ui/empty-state";
+import { Input, Select } from "@frontend/components/ui/field";
 import { PlusIcon } from "@frontend/components/ui/icons";
 import { Panel } from "@frontend/components/ui/panel";
 import { Spinner } from "@frontend/components/ui/spinner";
@@ -26,6 +27,9 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
   const input = useRef<HTMLInputElement>(null);
   const navigate = useNavigate();
   const [tooBig, setTooBig] = useState<string | null>(null);
+  const [lot, setLot] = useState("");
+  const [note, setNote] = useState("");
+  const [groupBy, setGroupBy] = useState<GroupBy>("none");
   const list = datasets.data ?? [];
 
   function onFile(e: ChangeEvent<HTMLInputElement>) {
@@ -39,7 +43,7 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
       setTooBig(`“${file.name}” is ${formatBytes(file.size)}; a data set file may be at most ${DATASET_MAX_BYTES / 1048576} MB.`);
       return;
     }
-    uploadMutation.mutate({ projectId, file }, { onSuccess: (d) => navigate(`/projects/${projectId}/datasets/${d.id}`) });
+    uploadMutation.mutate({ projectId, file, lot, note }, { onSuccess: (d) => navigate(`/projects/${projectId}/datasets/${d.id}`) });
   }
 
   return (
@@ -52,6 +56,8 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
       actions={
         canWrite ? (
           <>
+            <Input compact aria-label="Lot of the upload" placeholder="Lot (optional)" value={lot} onChange={(e) => setLot(e.target.value)} className="w-32" maxLength={100} />
+            <Input compact aria-label="Note on the upload" placeholder="Note (optional)" value={note} onChange={(e) => setNote(e.target.value)} className="w-48" maxLength={2000} />
             <input
               ref={input}
               type="file"
@@ -91,6 +97,16 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
         </EmptyState>
       ) : (
         <div className="overflow-x-auto">
+          <div className="flex items-center gap-2 border-b border-line px-3 py-1.5">
+            <label className="flex items-center gap-2 text-xs font-semibold text-ink/70">
+              Group
+              <Select compact aria-label="Group data sets by" value={groupBy} onChange={(e) => setGroupBy(e.target.value as GroupBy)} className="w-40">
+                <option value="none">newest first</option>
+                <option value="lot">by lot</option>
+                <option value="report">by report</option>
+              </Select>
+            </label>
+          </div>
           <table className="w-full border-collapse text-[13px]" aria-label="Data sets">
             <thead className="border-b border-line bg-paper/70">
               <tr>
@@ -112,7 +128,17 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
               </tr>
             </thead>
             <tbody>
-              {list.map((d) => (
+              {grouped(list, groupBy).flatMap(({ label, rows }) => [
+                ...(label !== null
+                  ? [
+                      <tr key={`group-${label}`} className="border-b border-line bg-paper/60" data-group={label}>
+                        <th scope="rowgroup" colSpan={5} className="px-3 py-1 text-left text-xs font-bold text-ink/75">
+                          {label} <span className="font-normal text-ink/50">· {rows.length} {rows.length === 1 ? "file" : "files"}</span>
+                        </th>
+                      </tr>,
+                    ]
+                  : []),
+                ...rows.map((d) => (
                 <tr key={d.id} className="border-b border-line/70 last:border-b-0 hover:bg-paper/60">
                   <td className="h-10 max-w-[280px] px-3 py-1.5">
                     <Link to={`/projects/${projectId}/datasets/${d.id}`} className="block truncate font-bold text-ink hover:text-accel hover:underline" title={d.name}>
@@ -122,6 +148,12 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
                       {d.fileType}
                       {d.sheet ? ` · sheet ${d.sheet}` : ""} · {d.columnCount} columns
                     </span>
+                    {d.lot ? <span className="ml-1.5 text-2xs font-semibold text-ink/70">lot {d.lot}</span> : null}
+                    {d.note ? (
+                      <span className="block truncate text-2xs text-ink/55" title={d.note}>
+                        {d.note}
+                      </span>
+                    ) : null}
                   </td>
                   <td className="num h-10 px-3">{formatCount(d.rows)}</td>
                   <td className="h-10 px-3">
@@ -152,11 +184,23 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
                     </time>
                   </td>
                 </tr>
-              ))}
+                )),
+              ])}
             </tbody>
           </table>
         </div>
       )}
     </Panel>
   );
+}
+
+type GroupBy = "none" | "lot" | "report";
+
+/** The data sets in groups (by the lot they were sent for, or by report), newest first within each. */
+function grouped(list: DatasetSummary[], by: GroupBy): { label: string | null; rows: DatasetSummary[] }[] {
+  if (by === "none") return [{ label: null, rows: list }];
+  const key = (d: DatasetSummary) => (by === "lot" ? (d.lot ? `Lot ${d.lot}` : "No lot given") : d.report ? `${reportNumber(d.report)}${d.supplierName ? ` · ${d.supplierName}` : ""}` : "Not sent for a report");
+  const groups = new Map<string, DatasetSummary[]>();
+  for (const d of list) groups.set(key(d), [...(groups.get(key(d)) ?? []), d]);
+  return [...groups.entries()].map(([label, rows]) => ({ label, rows }));
 }

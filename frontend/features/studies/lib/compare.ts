@@ -40,7 +40,12 @@ export function settingRows(a: Side, b: Side): SettingRow[] {
     row("Seed", (s) => String(s.study.seed)),
     row("Sampling", (s) => `${s.study.sampling === "lhs" ? "Latin hypercube" : "random"}${s.study.adaptive ? ", adaptive" : ""}`),
     row("Field dip", (s) => formatDeg(s.study.inclinationDeg, 5)),
-    row("Site", (s) => (s.site ? `${s.site.site.latitudeDeg}°, ${s.site.site.longitudeDeg}°, ${s.site.site.date}` : "typed in")),
+    // The site enters a study only through its dip (declination cancels, MODEL.md §6): a site
+    // against a typed-in dip of the same value, or two sites of one dip, is no difference.
+    {
+      ...row("Site", (s) => (s.site ? `${s.site.site.latitudeDeg}°, ${s.site.site.longitudeDeg}°, ${s.site.site.date}` : "typed in")),
+      ...(a.study.inclinationDeg === b.study.inclinationDeg ? { differs: false } : {}),
+    },
     row("Heading step", (s) => `${formatNumber(s.study.headingStepDeg ?? 10)}°`),
     row("Tilts", (s) => tilts(s.study)),
     row("Calibration", (s) => calibrationText(s.study)),
