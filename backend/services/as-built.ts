@@ -8,7 +8,8 @@ import { and, eq } from "drizzle-orm";
 import type { AsBuiltEntry, AsBuiltRecord } from "@shared/schemas/datasets";
 import { findSource, replaceSource, type StackSource } from "@shared/datasets/sources";
 import { summarize } from "@shared/datasets/statistics";
-import { conversionFactor, UNIT_TEXT, type MeasureUnit } from "@shared/datasets/units";
+import { conversionFactor, type MeasureUnit } from "@shared/datasets/units";
+import { unitText } from "@shared/format";
 import { MAX_DATA_VALUES, validateStackFile, type StackFile, type Tolerance } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
 import { datasetMappings, datasets } from "../db/schema";
@@ -64,7 +65,7 @@ async function measuredSource(db: Pick<Database, "select">, workspaceId: string,
   if (m && m.part !== null) fail("column", `“${column}” is one of the ${pooled.length} columns of ${e.source}; leave out column to use them together`);
   const unit = (m?.unit as MeasureUnit | undefined) ?? col!.unit;
   if (!unit) fail("column", `give “${column}” a unit by mapping it to ${e.source}`);
-  if (conversionFactor(unit!, src.unit) === null) fail("column", `a column in ${UNIT_TEXT[unit!]} cannot replace ${e.source}`);
+  if (conversionFactor(unit!, src.unit) === null) fail("column", `a column in ${unitText(unit!)} cannot replace ${e.source}`);
   const present = presentValues(ds.data[column]);
   const { values } = convertedValues(present.values, unit!, m?.nominal ?? 0, src.unit);
   if (values.length < 2) fail("column", `“${column}” has ${values.length} value; at least two are needed`);

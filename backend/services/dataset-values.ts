@@ -3,7 +3,8 @@
  * (a pooled source keeps only the rows where every one of its columns has a value), the
  * mapping's nominal taken off and the unit converted to the source's.
  */
-import { UNIT_TEXT, conversionFactor, type MeasureUnit, type SourceUnit } from "@shared/datasets/units";
+import { conversionFactor, type MeasureUnit, type SourceUnit } from "@shared/datasets/units";
+import { unitText } from "@shared/format";
 import { badRequest } from "../lib/errors";
 
 export type Cells = Array<number | string | null>;
@@ -27,7 +28,7 @@ export function presentValues(raw: Cells): { values: number[]; index: number[] }
  */
 export function convertedValues(raw: number[], unit: MeasureUnit, nominal: number, to: SourceUnit): { values: number[]; factor: number } {
   const factor = conversionFactor(unit, to);
-  if (factor === null) throw badRequest(`A column in ${UNIT_TEXT[unit]} cannot measure a source in ${UNIT_TEXT[to]}.`, undefined, "invalid_mapping");
+  if (factor === null) throw badRequest(`A column in ${unitText(unit)} cannot measure a source in ${unitText(to)}.`, undefined, "invalid_mapping");
   return { values: raw.map((v) => (v - nominal) * factor), factor };
 }
 
@@ -36,9 +37,9 @@ const num = (v: number) => String(Number(v.toPrecision(6)));
 /** What was done to the measured values, in words: no "converted from µm to µm". */
 export function conversionText(unit: MeasureUnit, to: SourceUnit, nominal: number, factor: number): string {
   const steps: string[] = [];
-  if (nominal !== 0) steps.push(`the nominal ${num(nominal)} ${UNIT_TEXT[unit]} taken off each value`);
-  if (unit !== to) steps.push(`${UNIT_TEXT[unit]} converted to ${UNIT_TEXT[to]} (× ${num(factor)})`);
-  return steps.length ? `${steps.join("; ")}.` : `Values used as measured, in ${UNIT_TEXT[to]}.`;
+  if (nominal !== 0) steps.push(`the nominal ${num(nominal)} ${unitText(unit)} taken off each value`);
+  if (unit !== to) steps.push(`${unitText(unit)} converted to ${unitText(to)} (× ${num(factor)})`);
+  return steps.length ? `${steps.join("; ")}.` : `Values used as measured, in ${unitText(to)}.`;
 }
 
 export type PooledColumn = { column: string; part: number; unit: MeasureUnit; nominal: number };

@@ -6,7 +6,7 @@ import { Select } from "@frontend/components/ui/field";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { isApiError } from "@frontend/lib/api-client";
 import { useDatasetStatistics } from "../api/get-dataset-statistics";
-import { formatCount, formatIndex, formatMeasure, formatMeasureUnit as withUnit, formatPpm } from "@shared/format";
+import { formatCount, formatIndex, formatMeasure, formatMeasureUnit, formatPpm } from "@shared/format";
 import { ToleranceWindow } from "./tolerance-window";
 
 /** Production target for Cpk (REFERENCES.md: ≥ 1.33 in production, common practice). */
@@ -64,7 +64,7 @@ export function capabilityStatement(s: DatasetStatistics): string | null {
   const head = `Over ${c.n} units, Cpk ${within ? "within lots" : "over all units"} reads ${formatIndex(c.cpk)}; with ${Math.round(c.confidence * 100)} % confidence the process is at least ${formatIndex(c.cpkLower)}`;
   const ask = c.cpkLower >= CPK_TARGET ? `, so it holds the usual ${CPK_TARGET}` : c.cpk >= CPK_TARGET ? `, so ${c.n} units do not yet show the usual ${CPK_TARGET}` : `, short of the usual ${CPK_TARGET}`;
   const overall = within ? ` Over all units together Ppk is ${formatIndex(c.ppk)}.` : "";
-  const out = ` ${c.observedOut} of ${c.n} units lie outside ${withUnit(c.lsl, u)} … ${withUnit(c.usl, u)}; the fitted normal expects ${formatPpm(c.expectedPpm)} ppm.`;
+  const out = ` ${c.observedOut} of ${c.n} units lie outside ${formatMeasureUnit(c.lsl, u)} … ${formatMeasureUnit(c.usl, u)}; the fitted normal expects ${formatPpm(c.expectedPpm)} ppm.`;
   return `${head}${ask}.${overall}${out}`;
 }
 
@@ -101,13 +101,13 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
               {formatCount(s.summary.n)}
               {s.summary.missing ? <span className="ml-1 text-xs font-normal text-ink/55">+ {s.summary.missing} gaps</span> : null}
             </Stat>
-            <Stat label="Mean">{withUnit(s.summary.mean, u)}</Stat>
-            <Stat label="Std dev (n − 1)">{withUnit(s.summary.std, u)}</Stat>
+            <Stat label="Mean">{formatMeasureUnit(s.summary.mean, u)}</Stat>
+            <Stat label="Std dev (n − 1)">{formatMeasureUnit(s.summary.std, u)}</Stat>
             <Stat label="Min … max">
-              {formatMeasure(s.summary.min)} … {withUnit(s.summary.max, u)}
+              {formatMeasure(s.summary.min)} … {formatMeasureUnit(s.summary.max, u)}
             </Stat>
             <Stat label="Tolerance">
-              {s.tolerance && s.tolerance.tol !== null ? `${s.tolerance.mean ? `${formatMeasure(s.tolerance.mean)} ` : ""}±${withUnit(s.tolerance.tol, u)} ${s.tolerance.dist}` : s.tolerance ? "measured data" : "—"}
+              {s.tolerance && s.tolerance.tol !== null ? `${s.tolerance.mean ? `${formatMeasure(s.tolerance.mean)} ` : ""}±${formatMeasureUnit(s.tolerance.tol, u)} ${s.tolerance.dist}` : s.tolerance ? "measured data" : "—"}
             </Stat>
             <Stat label={`Cpk ${c?.basis === "within lots" ? "within lots" : ""}`}>{c ? formatIndex(c.cpk) : "—"}</Stat>
             <Stat label="Cpk, 95 % lower">{c ? formatIndex(c.cpkLower) : "—"}</Stat>
@@ -182,10 +182,10 @@ function LotTable({ s }: { s: DatasetStatistics }) {
           <tr key={l.lot} className="border-b border-line/60">
             <td className="px-2 py-1 font-semibold">{l.lot}</td>
             <td className="num px-2 py-1">{l.n}</td>
-            <td className="num px-2 py-1">{withUnit(l.mean, u)}</td>
-            <td className="num px-2 py-1">{l.n > 1 ? withUnit(l.std, u) : "—"}</td>
+            <td className="num px-2 py-1">{formatMeasureUnit(l.mean, u)}</td>
+            <td className="num px-2 py-1">{l.n > 1 ? formatMeasureUnit(l.std, u) : "—"}</td>
             <td className="num px-2 py-1">
-              {formatMeasure(l.min)} … {withUnit(l.max, u)}
+              {formatMeasure(l.min)} … {formatMeasureUnit(l.max, u)}
             </td>
             <td className="num px-2 py-1">{l.ppk !== null ? formatIndex(l.ppk) : "—"}</td>
           </tr>
