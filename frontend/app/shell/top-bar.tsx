@@ -5,6 +5,7 @@ import { Button } from "@frontend/components/ui/button";
 import { SignOutIcon } from "@frontend/components/ui/icons";
 import { RoleBadge } from "@frontend/components/ui/role-badge";
 import { useSignOut } from "@frontend/features/auth/api/sign-out";
+import { NotificationsMenu } from "@frontend/features/notifications";
 import { initials } from "@frontend/lib/format";
 
 export function TopBar({ me }: { me: Me }) {
@@ -37,6 +38,7 @@ export function TopBar({ me }: { me: Me }) {
       </div>
       <div className="flex items-center gap-3">
         {signOut.isError ? <span className="text-xs text-fail">{signOut.error.message}</span> : null}
+        <NotificationsMenu />
         <div className="flex items-center gap-2.5" aria-label="Signed in as">
           <span className="flex size-7.5 items-center justify-center rounded-full bg-ink text-[10px] font-extrabold text-paper">
             {initials(me.user.name)}

@@ -6,3 +6,4 @@ export { useReturnRevision } from "./api/return-revision";
 export { useSubmitRevision } from "./api/submit-revision";
 export { useUpdateRevision, type UpdateRevisionInput } from "./api/update-revision";
 export { RevisionStatusChip, STATUS_LABEL } from "./components/revision-status-chip";
+export { RevisionChanges } from "./components/revision-changes";

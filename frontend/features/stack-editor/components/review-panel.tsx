@@ -11,7 +11,7 @@ import { Button } from "@frontend/components/ui/button";
 import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Textarea } from "@frontend/components/ui/field";
 import { CheckIcon } from "@frontend/components/ui/icons";
-import { useAddRevisionComment, useApproveRevision, useCreateDraftFrom, useReturnRevision, useSubmitRevision } from "@frontend/features/revisions";
+import { RevisionChanges, useAddRevisionComment, useApproveRevision, useCreateDraftFrom, useReturnRevision, useSubmitRevision } from "@frontend/features/revisions";
 import { cn } from "@frontend/lib/cn";
 import { sentence } from "@frontend/lib/form";
 import { formatDateTime, initials } from "@frontend/lib/format";
@@ -132,6 +132,9 @@ export function ReviewActions({
           </>
         }
       >
+        <div className="mb-3">
+          <RevisionChanges revisionId={revision.id} updatedAt={revision.updatedAt} />
+        </div>
         <Field label={dialog === "return" ? "Reason" : "Comment"} aside={dialog === "return" ? undefined : "optional"} error={commentError ?? undefined}>
           {({ id, describedBy, invalid }) => (
             <Textarea id={id} aria-describedby={describedBy} invalid={invalid} rows={4} value={comment} onChange={(e) => setComment(e.target.value)} maxLength={4000} />

@@ -1,0 +1,3 @@
+/** What other parts of the client use of notifications. */
+export { useNotifications } from "./api/notifications";
+export { NotificationsMenu } from "./components/notifications-menu";
