@@ -11,6 +11,7 @@ const PROJECT = {
   ownerName: "Ezra Lindqvist",
   createdAt: "2026-01-05T10:00:00.000Z",
   updatedAt: "2026-01-05T10:00:00.000Z",
+  archivedAt: null,
   lastStudy: null,
 };
 
