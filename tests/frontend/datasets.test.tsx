@@ -21,6 +21,9 @@ const DATASET = {
   uploadedByRole: "supplier",
   supplierName: "Larkfield Assembly",
   report: { id: "33333333-3333-4333-8333-333333333333", number: 7, revision: 2 },
+  lot: null,
+  note: null,
+  lotColumn: null,
   createdAt: new Date().toISOString(),
 };
 
