@@ -31,8 +31,7 @@ export async function buildClientIfNeeded(log: (m: string) => void) {
   await build({ configFile: join(root, "vite.config.ts"), logLevel: "warn" });
 }
 
-const fonts = (app: Express) =>
-  app.use("/fonts", express.static(fontsDir, { immutable: true, maxAge: "365d", fallthrough: false }));
+const fonts = (app: Express) => app.use("/fonts", express.static(fontsDir, { immutable: true, maxAge: "365d", fallthrough: false }));
 
 /** Production: the built client, with the single-page fallback. */
 export function mountStaticClient(app: Express) {

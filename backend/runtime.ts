@@ -92,7 +92,12 @@ export async function createRuntime(env: Env, log: Log): Promise<Runtime> {
   // With DATABASE_URL, studies go through the job queue (and `npm run worker` processes).
   const serverMode =
     handle.kind === "postgres"
-      ? await startServerMode(handle, { settings: jobSettingsOf(env), runStudies: env.RUN_STUDIES, threads: env.WORKER_THREADS ?? env.STUDY_THREADS, log })
+      ? await startServerMode(handle, {
+          settings: jobSettingsOf(env),
+          runStudies: env.RUN_STUDIES,
+          threads: env.WORKER_THREADS ?? env.STUDY_THREADS,
+          log,
+        })
       : undefined;
   return assembleRuntime({
     handle,

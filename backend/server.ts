@@ -24,7 +24,9 @@ const app = createApp(deps, {
 if (devApp) await mountDevClient(devApp);
 
 const server = app.listen(env.PORT, env.HOST, () => {
-  log(`serving on ${deps.baseURL} (data ${runtime.handle.kind === "postgres" ? "in the PostgreSQL server of DATABASE_URL" : `in ${env.DATA_DIR}`})`);
+  log(
+    `serving on ${deps.baseURL} (data ${runtime.handle.kind === "postgres" ? "in the PostgreSQL server of DATABASE_URL" : `in ${env.DATA_DIR}`})`,
+  );
 });
 
 let stopping = false;

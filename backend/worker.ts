@@ -5,17 +5,18 @@
  */
 import { openDatabase } from "./db/client";
 import { parseEnv } from "./lib/env";
+import { consoleSink, createLog } from "./lib/log";
 import { defaultThreads } from "./engine/runner";
 import { openJobQueue, StudyJobWorker } from "./services/study-jobs";
 import { jobSettingsOf } from "./services/server-mode";
 
 const env = parseEnv();
-const log = (message: string, err?: unknown) => {
-  if (err) console.error(`[orthostack-worker] ${message}`, err);
-  else console.info(`[orthostack-worker] ${message}`);
-};
+const log = createLog(consoleSink);
 if (!env.DATABASE_URL) {
-  log("DATABASE_URL is not set: a worker serves a PostgreSQL server's job queue (one-machine installs run studies in the app)", new Error("DATABASE_URL missing"));
+  log(
+    "DATABASE_URL is not set: a worker serves a PostgreSQL server's job queue (one-machine installs run studies in the app)",
+    new Error("DATABASE_URL missing"),
+  );
   process.exit(2);
 }
 const handle = await openDatabase(env.DATABASE_URL, { poolSize: 4 });

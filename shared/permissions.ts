@@ -36,7 +36,15 @@ export const RIGHTS = [
 ] as const;
 export type Right = (typeof RIGHTS)[number];
 
-const STAFF_READ = ["notifications.read", "projects.read", "revisions.comment", "suppliers.read", "reports.read", "reports.comment", "reports.send"] as const;
+const STAFF_READ = [
+  "notifications.read",
+  "projects.read",
+  "revisions.comment",
+  "suppliers.read",
+  "reports.read",
+  "reports.comment",
+  "reports.send",
+] as const;
 
 /** The table: each role and the rights it holds. */
 export const ROLE_RIGHTS: Record<Role, readonly Right[]> = {

@@ -10,7 +10,10 @@ import { createRuntime, startRuntime, stopRuntime } from "../runtime";
 
 const env = parseEnv();
 // the load generator reads standard output: log lines go to standard error
-const log = createLog({ info: (line) => process.stderr.write(line + "\n"), error: (line, err) => process.stderr.write(`${line} ${String(err)}\n`) });
+const log = createLog({
+  info: (line) => process.stderr.write(line + "\n"),
+  error: (line, err) => process.stderr.write(`${line} ${String(err)}\n`),
+});
 const runtime = await createRuntime(env, log);
 await startRuntime(runtime);
 const app = createApp(runtime.deps, { trustedOrigins: env.TRUSTED_ORIGINS });

@@ -36,7 +36,8 @@ async function engine() {
   if (!stackV.ok) throw new Error("reference stack does not validate");
   const studyV = validateStudy(fixture("study-reference.json"), stackV.stack);
   if (!studyV.ok) throw new Error("reference study does not validate");
-  const stack = stackV.stack, study = studyV.study;
+  const stack = stackV.stack,
+    study = studyV.study;
 
   // process start to first trial: the pool starts, compiles and returns one block
   const pool1 = new EnginePool({ threads: 1 });
@@ -50,7 +51,9 @@ async function engine() {
   runStudy(stack, study, { trials: 5 * 4096 });
   const c = process.cpuUsage(c0);
   const us = (c.user + c.system) / (5 * 4096);
-  out(`CPU per trial, one thread, whole study in process (20,480 trials): ${us.toFixed(1)} µs · ${fmt(1e6 / us)} trials per CPU-second · ${load()}`);
+  out(
+    `CPU per trial, one thread, whole study in process (20,480 trials): ${us.toFixed(1)} µs · ${fmt(1e6 / us)} trials per CPU-second · ${load()}`,
+  );
 
   // the live estimate: an edit compiles the stack and runs 3,000 trials (stack editor's Web Worker)
   const t0 = performance.now();
@@ -70,7 +73,9 @@ async function engine() {
     const cu = process.cpuUsage(cpu0);
     const cpuS = (cu.user + cu.system) / 1e6;
     const rss = process.resourceUsage().maxRSS / 1024;
-    out(`${fmt(r.trials).padEnd(12)} ${String(threads).padStart(7)} ${s.toFixed(2).padStart(8)} ${fmt(r.trials / s).padStart(17)} ${cpuS.toFixed(2).padStart(7)} ${fmt(r.trials / cpuS).padStart(18)} ${rss.toFixed(0).padStart(7)} MB   ${loadavg()[0].toFixed(1)}`);
+    out(
+      `${fmt(r.trials).padEnd(12)} ${String(threads).padStart(7)} ${s.toFixed(2).padStart(8)} ${fmt(r.trials / s).padStart(17)} ${cpuS.toFixed(2).padStart(7)} ${fmt(r.trials / cpuS).padStart(18)} ${rss.toFixed(0).padStart(7)} MB   ${loadavg()[0].toFixed(1)}`,
+    );
   };
   for (const n of sizes) for (const th of [1, 2]) await row(n, th);
   if (!quick) {
@@ -99,7 +104,10 @@ async function startServer(): Promise<{ child: ChildProcess; url: string; dir: s
 }
 
 async function json(url: string, init: RequestInit = {}, cookie = "") {
-  const r = await fetch(url, { ...init, headers: { "content-type": "application/json", origin: new URL(url).origin, cookie, ...(init.headers ?? {}) } });
+  const r = await fetch(url, {
+    ...init,
+    headers: { "content-type": "application/json", origin: new URL(url).origin, cookie, ...(init.headers ?? {}) },
+  });
   // eslint-disable-next-line @typescript-eslint/no-explicit-any -- a load script reading a few known fields
   const body = (await r.json().catch(() => null)) as any;
   return { status: r.status, body, headers: r.headers };
@@ -114,31 +122,50 @@ async function api() {
       body: JSON.stringify({ email: "engineer@example.com", password: "orthostack-demo" }),
     });
     if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status}`);
-    const cookie = signIn.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    const cookie = signIn.headers
+      .getSetCookie()
+      .map((c) => c.split(";")[0])
+      .join("; ");
     // let the demo study the seed queued finish first: "alone" means no study running
     for (let i = 0; i < 600; i++) {
       const projects = await json(`${url}/api/projects`, {}, cookie);
-      const lists = await Promise.all((projects.body?.projects ?? projects.body ?? []).map((p: { id: string }) => json(`${url}/api/projects/${p.id}/studies`, {}, cookie)));
+      const lists = await Promise.all(
+        (projects.body?.projects ?? projects.body ?? []).map((p: { id: string }) =>
+          json(`${url}/api/projects/${p.id}/studies`, {}, cookie),
+        ),
+      );
       if (!lists.some((l) => /"status":"(queued|running)"/.test(JSON.stringify(l.body)))) break;
       await new Promise((r) => setTimeout(r, 500));
     }
     const measure = async (label: string) => {
       const r = await autocannon({ url: `${url}/api/projects`, connections: 50, duration: apiSeconds, headers: { cookie } });
       const failed = r.errors + r.timeouts + r.non2xx;
-      out(`${label.padEnd(34)} ${fmt(r.requests.average).padStart(7)} reads/s   p99 ${String(r.latency.p99).padStart(5)} ms   failed ${failed}   (${fmt(r.requests.total)} requests, ${load()})`);
+      out(
+        `${label.padEnd(34)} ${fmt(r.requests.average).padStart(7)} reads/s   p99 ${String(r.latency.p99).padStart(5)} ms   failed ${failed}   (${fmt(r.requests.total)} requests, ${load()})`,
+      );
       return r.requests.average;
     };
     out("");
     out(`GET /api/projects, 50 signed-in clients, ${apiSeconds} s each (autocannon):`);
     const alone = await measure("alone");
     const p = await json(`${url}/api/projects`, { method: "POST", body: JSON.stringify({ name: "bench" }) }, cookie);
-    const rev = await json(`${url}/api/projects/${p.body.id}/revisions`, { method: "POST", body: JSON.stringify({ stack: fixture("stack-reference.json") }) }, cookie);
-    const st = await json(`${url}/api/revisions/${rev.body.id}/studies`, { method: "POST", body: JSON.stringify({ study: { ...fixture("study-reference.json"), trials: 5_000_000 } }) }, cookie);
+    const rev = await json(
+      `${url}/api/projects/${p.body.id}/revisions`,
+      { method: "POST", body: JSON.stringify({ stack: fixture("stack-reference.json") }) },
+      cookie,
+    );
+    const st = await json(
+      `${url}/api/revisions/${rev.body.id}/studies`,
+      { method: "POST", body: JSON.stringify({ study: { ...fixture("study-reference.json"), trials: 5_000_000 } }) },
+      cookie,
+    );
     if (st.status !== 202) throw new Error(`study not queued: ${st.status} ${JSON.stringify(st.body)}`);
     await new Promise((r) => setTimeout(r, 1000));
     const busy = await measure("while a 5,000,000-trial study runs");
     const s = await json(`${url}/api/studies/${st.body.id}`, {}, cookie);
-    out(`the study was ${s.body.status} during the measurement (${fmt(s.body.progress?.done ?? 0)} trials done); reads while it ran: ${((100 * busy) / alone).toFixed(0)} % of alone`);
+    out(
+      `the study was ${s.body.status} during the measurement (${fmt(s.body.progress?.done ?? 0)} trials done); reads while it ran: ${((100 * busy) / alone).toFixed(0)} % of alone`,
+    );
     await json(`${url}/api/studies/${st.body.id}/cancel`, { method: "POST", body: "{}" }, cookie);
   } finally {
     child.kill("SIGTERM");

@@ -69,8 +69,13 @@ const f = (v: number, d = 4) => (Number.isFinite(v) ? v.toFixed(d) : String(v));
 
 export function summary(r: ResultFile, seconds: number, threads: number): string {
   const out: string[] = [];
-  out.push(`${r.engine} · ${r.trials.toLocaleString("en-US")} trials · seed ${r.seed} · ${r.sampling} · calibration ${r.calibration} · ${threads} thread${threads > 1 ? "s" : ""} · ${seconds.toFixed(2)} s (${Math.round(r.trials / seconds).toLocaleString("en-US")} trials/s)`);
-  if (r.adaptive) out.push(`adaptive (JCGM 101 7.9): ${r.adaptive.runs} runs of ${r.adaptive.runTrials} trials, ${r.adaptive.converged ? "stable" : "NOT stable within the trial limit"}`);
+  out.push(
+    `${r.engine} · ${r.trials.toLocaleString("en-US")} trials · seed ${r.seed} · ${r.sampling} · calibration ${r.calibration} · ${threads} thread${threads > 1 ? "s" : ""} · ${seconds.toFixed(2)} s (${Math.round(r.trials / seconds).toLocaleString("en-US")} trials/s)`,
+  );
+  if (r.adaptive)
+    out.push(
+      `adaptive (JCGM 101 7.9): ${r.adaptive.runs} runs of ${r.adaptive.runTrials} trials, ${r.adaptive.converged ? "stable" : "NOT stable within the trial limit"}`,
+    );
   if (r.requirements.length) {
     out.push("", "requirement                         limit   target  predicted  95% CI (Wilson)        ppm out   ");
     for (const q of r.requirements) {
@@ -84,7 +89,9 @@ export function summary(r: ResultFile, seconds: number, threads: number): string
   out.push("", "metric                                   mean      std      p50      p95   p99.73      max");
   for (const [id, m] of Object.entries(r.metrics)) {
     if (!shown.has(id)) continue;
-    out.push(`${(id + " (" + m.unit + ")").padEnd(38)} ${[m.mean, m.std, m.p50, m.p95, m.p9973, m.max].map((v) => f(v).padStart(8)).join(" ")}`);
+    out.push(
+      `${(id + " (" + m.unit + ")").padEnd(38)} ${[m.mean, m.std, m.p50, m.p95, m.p9973, m.max].map((v) => f(v).padStart(8)).join(" ")}`,
+    );
   }
   const rest = Object.keys(r.metrics).length - [...shown].filter((id) => id in r.metrics).length;
   if (rest > 0) out.push(`(${rest} more metrics in the result file; percentiles are of |value|)`);

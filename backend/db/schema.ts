@@ -6,7 +6,20 @@
 import { relations, sql } from "drizzle-orm";
 import { NOTIFICATION_KINDS } from "@shared/schemas/notifications";
 import type { StackFile } from "@shared/schemas/stack-file";
-import { boolean, customType, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import {
+  boolean,
+  customType,
+  doublePrecision,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+  uniqueIndex,
+  uuid,
+} from "drizzle-orm/pg-core";
 
 /**
  * Edit counter of a record people share: every change adds one, and a change is accepted only

@@ -71,7 +71,12 @@ export class PartThreads {
     }
   }
 
-  private runOn(slot: Slot, files: { stack: StackFile; study: StudyFile }, blocks: number[], opts: BlockRangeOptions): Promise<BlockRangeResult> {
+  private runOn(
+    slot: Slot,
+    files: { stack: StackFile; study: StudyFile },
+    blocks: number[],
+    opts: BlockRangeOptions,
+  ): Promise<BlockRangeResult> {
     const job = this.nextJob++;
     const w = slot.w;
     const queue = [...blocks];

@@ -19,7 +19,15 @@ import { availableParallelism } from "node:os";
 import { pathToFileURL } from "node:url";
 import { Worker } from "node:worker_threads";
 import { mergeWorkerStates, type BlockPartial, type WorkerState } from "@shared/engine/accumulate";
-import { adaptiveDone, finalizeStudy, newCoordinator, prepareStudy, type PreparedStudy, type Progress, type StudyOverrides } from "@shared/engine/study";
+import {
+  adaptiveDone,
+  finalizeStudy,
+  newCoordinator,
+  prepareStudy,
+  type PreparedStudy,
+  type Progress,
+  type StudyOverrides,
+} from "@shared/engine/study";
 import type { Coordinator } from "@shared/engine/coordinator";
 import type { ResultFile } from "@shared/schemas/result-file";
 import type { StackFile } from "@shared/schemas/stack-file";

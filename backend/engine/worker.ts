@@ -65,6 +65,11 @@ port.on("message", (msg: ToWorker) => {
     }
   } catch (e) {
     jobs.delete(msg.job);
-    port.postMessage({ type: "error", job: msg.job, block: msg.type === "run" ? msg.block : undefined, message: e instanceof Error ? (e.stack ?? e.message) : String(e) } satisfies FromWorker);
+    port.postMessage({
+      type: "error",
+      job: msg.job,
+      block: msg.type === "run" ? msg.block : undefined,
+      message: e instanceof Error ? (e.stack ?? e.message) : String(e),
+    } satisfies FromWorker);
   }
 });

@@ -10,7 +10,10 @@ export type NewAccount = { email: string; name: string; password: string };
 export async function createAccount(auth: Auth, input: NewAccount): Promise<{ id: string; email: string; name: string }> {
   const ctx = await auth.$context;
   const hash = await ctx.password.hash(input.password);
-  const user = await ctx.internalAdapter.createUser({ email: input.email.toLowerCase(), name: input.name, emailVerified: false }, { method: "email-password" });
+  const user = await ctx.internalAdapter.createUser(
+    { email: input.email.toLowerCase(), name: input.name, emailVerified: false },
+    { method: "email-password" },
+  );
   await ctx.internalAdapter.linkAccount({ userId: user.id, providerId: "credential", accountId: user.id, password: hash });
   return { id: user.id, email: user.email, name: user.name };
 }

@@ -18,8 +18,15 @@ const EnvSchema = z.object({
   TRUSTED_ORIGINS: z
     .string()
     .optional()
-    .transform((v) => (v ?? "").split(",").map((s) => s.trim()).filter(Boolean))
-    .pipe(z.array(z.string().url({ message: "TRUSTED_ORIGINS must list full origins such as https://stack.example.com, separated by commas" }))),
+    .transform((v) =>
+      (v ?? "")
+        .split(",")
+        .map((s) => s.trim())
+        .filter(Boolean),
+    )
+    .pipe(
+      z.array(z.string().url({ message: "TRUSTED_ORIGINS must list full origins such as https://stack.example.com, separated by commas" })),
+    ),
   /** Express's `trust proxy` behind a reverse proxy (e.g. "loopback" or "1"): scheme, host and client address then come from X-Forwarded-*. */
   TRUST_PROXY: z.string().min(1).optional(),
   BETTER_AUTH_SECRET: z.string().min(32, "BETTER_AUTH_SECRET must be at least 32 characters").optional(),
@@ -62,10 +69,22 @@ const EnvSchema = z.object({
 export type Env = z.infer<typeof EnvSchema>;
 
 export type MailSettings =
-  | { mode: "smtp"; from: string; transport: string | { host: string; port: number; secure: boolean; auth?: { user: string; pass: string } } }
+  | {
+      mode: "smtp";
+      from: string;
+      transport: string | { host: string; port: number; secure: boolean; auth?: { user: string; pass: string } };
+    }
   | { mode: "catcher"; from: string; port: number };
 
-const MailEnvSchema = EnvSchema.pick({ SMTP_URL: true, SMTP_HOST: true, SMTP_PORT: true, SMTP_USER: true, SMTP_PASS: true, MAIL_FROM: true, MAIL_CATCHER_PORT: true });
+const MailEnvSchema = EnvSchema.pick({
+  SMTP_URL: true,
+  SMTP_HOST: true,
+  SMTP_PORT: true,
+  SMTP_USER: true,
+  SMTP_PASS: true,
+  MAIL_FROM: true,
+  MAIL_CATCHER_PORT: true,
+});
 type MailEnv = z.infer<typeof MailEnvSchema>;
 
 /** Where outgoing mail goes: an SMTP server from the environment, or the local catcher. */

@@ -16,8 +16,7 @@ export class HttpError extends Error {
   }
 }
 
-export const badRequest = (message: string, fields?: FieldError[], code = "invalid_input") =>
-  new HttpError(400, code, message, fields);
+export const badRequest = (message: string, fields?: FieldError[], code = "invalid_input") => new HttpError(400, code, message, fields);
 export const unauthorized = () => new HttpError(401, "unauthenticated", "Sign in to continue.");
 export const forbidden = (message = "Your role does not allow this.") => new HttpError(403, "forbidden", message);
 export const notFound = (what = "The resource") => new HttpError(404, "not_found", `${what} was not found.`);

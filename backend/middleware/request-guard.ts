@@ -35,7 +35,11 @@ export function sameOrigin(policy: OriginPolicy): RequestHandler {
     if (SAFE_METHODS.has(req.method)) return next();
     const origin = req.get("origin")?.toLowerCase();
     if (!origin || origin === "null") {
-      throw new HttpError(403, "cross_origin", "This request did not say where it came from (no Origin header). Changes are accepted only from the app's own pages.");
+      throw new HttpError(
+        403,
+        "cross_origin",
+        "This request did not say where it came from (no Origin header). Changes are accepted only from the app's own pages.",
+      );
     }
     const explicitlyTrusted = trusted.has(origin);
     if (!explicitlyTrusted && origin !== app && origin !== requestOrigin(req)) {

@@ -1,7 +1,13 @@
 import { Router, type RequestHandler } from "express";
 import multer from "multer";
 import { IdParamsSchema } from "@shared/schemas/common";
-import { DATASET_MAX_BYTES, StatisticsQuerySchema, UpdateDatasetSchema, UpdateMappingsSchema, UploadFieldsSchema } from "@shared/schemas/datasets";
+import {
+  DATASET_MAX_BYTES,
+  StatisticsQuerySchema,
+  UpdateDatasetSchema,
+  UpdateMappingsSchema,
+  UploadFieldsSchema,
+} from "@shared/schemas/datasets";
 import type { AppDeps } from "../deps";
 import { badRequest, HttpError } from "../lib/errors";
 import { parse } from "../lib/validate";
@@ -20,7 +26,6 @@ import {
 } from "../services/datasets";
 import { datasetStatistics } from "../services/dataset-statistics";
 
-
 const upload = multer({
   storage: multer.memoryStorage(),
   limits: { fileSize: DATASET_MAX_BYTES, files: 1, fields: 5, parts: 6 },
@@ -33,10 +38,22 @@ const receiveFile: RequestHandler = (req, res, next) => {
     if (!err) return next();
     if (err instanceof multer.MulterError) {
       if (err.code === "LIMIT_FILE_SIZE") {
-        return next(new HttpError(413, "too_large", `The file is larger than ${DATASET_MAX_BYTES / 1048576} MB, the most one upload may be. Nothing was stored.`));
+        return next(
+          new HttpError(
+            413,
+            "too_large",
+            `The file is larger than ${DATASET_MAX_BYTES / 1048576} MB, the most one upload may be. Nothing was stored.`,
+          ),
+        );
       }
       if (err.code === "LIMIT_UNEXPECTED_FILE" || err.code === "LIMIT_FILE_COUNT") {
-        return next(badRequest("Send one file, in the form field “file”.", [{ path: "file", message: "one CSV or XLSX file in the field “file”" }], "missing_file"));
+        return next(
+          badRequest(
+            "Send one file, in the form field “file”.",
+            [{ path: "file", message: "one CSV or XLSX file in the field “file”" }],
+            "missing_file",
+          ),
+        );
       }
       return next(badRequest("The upload could not be read as a form with one file.", undefined, "bad_upload"));
     }

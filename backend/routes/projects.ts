@@ -1,5 +1,11 @@
 import { Router } from "express";
-import { CreateProjectSchema, DeleteProjectQuerySchema, IdParamsSchema, ProjectListQuerySchema, UpdateProjectSchema } from "@shared/schemas/api";
+import {
+  CreateProjectSchema,
+  DeleteProjectQuerySchema,
+  IdParamsSchema,
+  ProjectListQuerySchema,
+  UpdateProjectSchema,
+} from "@shared/schemas/api";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";

@@ -16,7 +16,15 @@ import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
 import { notifyReport } from "../services/review-notifications";
 import { listOutbox, outboxAttachment } from "../services/outbox";
-import { acknowledgeReport, addReportComment, createReport, deleteReport, releaseReport, returnReport, updateReport } from "../services/report-lifecycle";
+import {
+  acknowledgeReport,
+  addReportComment,
+  createReport,
+  deleteReport,
+  releaseReport,
+  returnReport,
+  updateReport,
+} from "../services/report-lifecycle";
 import { reportFile } from "../services/report-files";
 import { sendReport } from "../services/report-mail";
 import { getReport, listReports, reportOptions } from "../services/report-queries";

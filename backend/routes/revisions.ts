@@ -1,5 +1,12 @@
 import { Router } from "express";
-import { CommentBodySchema, CreateRevisionSchema, ReturnRevisionSchema, RevisionDiffQuerySchema, SubmitRevisionSchema, UpdateRevisionSchema } from "@shared/schemas/revisions";
+import {
+  CommentBodySchema,
+  CreateRevisionSchema,
+  ReturnRevisionSchema,
+  RevisionDiffQuerySchema,
+  SubmitRevisionSchema,
+  UpdateRevisionSchema,
+} from "@shared/schemas/revisions";
 import { IdParamsSchema } from "@shared/schemas/common";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
@@ -16,7 +23,11 @@ import {
   updateRevision,
 } from "../services/revisions";
 
-const safeFileName = (s: string) => s.replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 80) || "stack";
+const safeFileName = (s: string) =>
+  s
+    .replace(/[^\w.-]+/g, "-")
+    .replace(/^-+|-+$/g, "")
+    .slice(0, 80) || "stack";
 
 export function revisionsRouter(deps: AppDeps) {
   const { db } = deps;

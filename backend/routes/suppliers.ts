@@ -4,7 +4,15 @@ import { CreateContactSchema, CreateSupplierSchema, IdParamsSchema, IdSchema, Up
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
-import { addContact, createSupplier, deleteSupplier, getSupplier, listSuppliers, removeContact, updateSupplier } from "../services/suppliers";
+import {
+  addContact,
+  createSupplier,
+  deleteSupplier,
+  getSupplier,
+  listSuppliers,
+  removeContact,
+  updateSupplier,
+} from "../services/suppliers";
 
 const ContactParamsSchema = z.object({ id: IdSchema, contactId: IdSchema });
 

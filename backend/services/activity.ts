@@ -6,7 +6,14 @@ type Executor = Pick<Database, "insert">;
 
 export async function recordActivity(
   db: Executor,
-  entry: { workspaceId: string; projectId?: string | null; actorId?: string | null; action: string; summary: string; data?: Record<string, unknown> },
+  entry: {
+    workspaceId: string;
+    projectId?: string | null;
+    actorId?: string | null;
+    action: string;
+    summary: string;
+    data?: Record<string, unknown>;
+  },
 ) {
   await db.insert(activities).values({
     workspaceId: entry.workspaceId,

@@ -22,7 +22,8 @@ type Measured = { name: string; columns: string[]; dropped: number; values: numb
 /** The source ids a replacement touches, so a pooled tilt and tiltX cannot both be replaced. */
 function touched(id: string): string[] {
   const dot = id.indexOf(".");
-  const el = id.slice(0, dot), rest = id.slice(dot + 1);
+  const el = id.slice(0, dot),
+    rest = id.slice(dot + 1);
   if (rest === "tilt" || rest === "tiltX" || rest === "tiltY") return rest === "tilt" ? [`${el}.tiltX`, `${el}.tiltY`] : [id];
   if (rest === "axis") return [1, 2, 3, 4, 5, 6].map((k) => `${el}.axis.g${k}`);
   return [id];
@@ -32,12 +33,31 @@ function touched(id: string): string[] {
  * The measured values of one source from a data set: the named column, or, with no column,
  * every column mapped to the source (one per part, complete rows only) or its one column.
  */
-async function measuredSource(db: Pick<Database, "select">, workspaceId: string, projectId: string, e: AsBuiltEntry, src: StackSource, path: string): Promise<Measured> {
+async function measuredSource(
+  db: Pick<Database, "select">,
+  workspaceId: string,
+  projectId: string,
+  e: AsBuiltEntry,
+  src: StackSource,
+  path: string,
+): Promise<Measured> {
   const fail = (field: string, message: string): never => {
-    throw badRequest(`The as-built study cannot use ${e.source}: ${message}. Nothing was queued.`, [{ path: `${path}.${field}`, message }], "invalid_as_built");
+    throw badRequest(
+      `The as-built study cannot use ${e.source}: ${message}. Nothing was queued.`,
+      [{ path: `${path}.${field}`, message }],
+      "invalid_as_built",
+    );
   };
-  const [ds] = await db.select().from(datasets).where(and(eq(datasets.workspaceId, workspaceId), eq(datasets.id, e.datasetId)));
-  if (!ds || ds.projectId !== projectId) throw badRequest("A data set of the as-built study is not in this project.", [{ path: `${path}.datasetId`, message: "no data set with this id in the revision's project" }], "invalid_as_built");
+  const [ds] = await db
+    .select()
+    .from(datasets)
+    .where(and(eq(datasets.workspaceId, workspaceId), eq(datasets.id, e.datasetId)));
+  if (!ds || ds.projectId !== projectId)
+    throw badRequest(
+      "A data set of the as-built study is not in this project.",
+      [{ path: `${path}.datasetId`, message: "no data set with this id in the revision's project" }],
+      "invalid_as_built",
+    );
   const cols = ds.columns as unknown as ParsedColumn[];
   const maps = await db.select().from(datasetMappings).where(eq(datasetMappings.datasetId, e.datasetId));
   const mine = maps.filter((m) => m.source === e.source);
@@ -48,11 +68,30 @@ async function measuredSource(db: Pick<Database, "select">, workspaceId: string,
       const have = new Set(pooled.map((m) => m.part));
       const missing = (src.parts ?? []).filter((p) => !have.has(p.index)).map((p) => p.label);
       if (missing.length) fail("datasetId", `“${ds.name}” has no column for ${missing.join(", ")} of ${e.source}`);
-      if (e.mode === "normal") fail("mode", `${e.source} is measured as ${pooled.length} columns together; resample their rows (a normal fitted to each column would lose how they vary together)`);
-      const p = pooledRows(ds.data, pooled.map((m) => ({ column: m.column, part: m.part!, unit: m.unit as MeasureUnit, nominal: m.nominal })), src.unit);
-      if (p.rows.length < 2) fail("datasetId", `“${ds.name}” has ${p.rows.length} complete ${p.rows.length === 1 ? "row" : "rows"} for ${e.source} (${p.dropped} with a gap); at least two are needed`);
-      if (p.rows.length * pooled.length > MAX_DATA_VALUES) fail("datasetId", `“${ds.name}” holds more than ${MAX_DATA_VALUES} values for ${e.source}`);
-      return { name: ds.name, columns: [...pooled].sort((a, b) => a.part! - b.part!).map((m) => m.column), dropped: p.dropped, values: null, rows: p.rows };
+      if (e.mode === "normal")
+        fail(
+          "mode",
+          `${e.source} is measured as ${pooled.length} columns together; resample their rows (a normal fitted to each column would lose how they vary together)`,
+        );
+      const p = pooledRows(
+        ds.data,
+        pooled.map((m) => ({ column: m.column, part: m.part!, unit: m.unit as MeasureUnit, nominal: m.nominal })),
+        src.unit,
+      );
+      if (p.rows.length < 2)
+        fail(
+          "datasetId",
+          `“${ds.name}” has ${p.rows.length} complete ${p.rows.length === 1 ? "row" : "rows"} for ${e.source} (${p.dropped} with a gap); at least two are needed`,
+        );
+      if (p.rows.length * pooled.length > MAX_DATA_VALUES)
+        fail("datasetId", `“${ds.name}” holds more than ${MAX_DATA_VALUES} values for ${e.source}`);
+      return {
+        name: ds.name,
+        columns: [...pooled].sort((a, b) => a.part! - b.part!).map((m) => m.column),
+        dropped: p.dropped,
+        values: null,
+        rows: p.rows,
+      };
     }
     if (mine.length !== 1) fail("column", `no column of “${ds.name}” is mapped to ${e.source}: map one, or name the column`);
     e = { ...e, column: mine[0].column };
@@ -62,7 +101,8 @@ async function measuredSource(db: Pick<Database, "select">, workspaceId: string,
   if (!col || col.kind !== "number") fail("column", `no measured column “${column}” in “${ds.name}”`);
   const m = maps.find((x) => x.column === column);
   if (m && m.source !== e.source) fail("source", `“${column}” of “${ds.name}” measures ${m.source}; map it to ${e.source} first`);
-  if (m && m.part !== null) fail("column", `“${column}” is one of the ${pooled.length} columns of ${e.source}; leave out column to use them together`);
+  if (m && m.part !== null)
+    fail("column", `“${column}” is one of the ${pooled.length} columns of ${e.source}; leave out column to use them together`);
   const unit = (m?.unit as MeasureUnit | undefined) ?? col!.unit;
   if (!unit) fail("column", `give “${column}” a unit by mapping it to ${e.source}`);
   if (conversionFactor(unit!, src.unit) === null) fail("column", `a column in ${unitText(unit!)} cannot replace ${e.source}`);
@@ -85,7 +125,11 @@ export async function applyAsBuilt(
   for (const [i, e] of entries.entries()) {
     const path = `asBuilt[${i}]`;
     const fail = (field: string, message: string): never => {
-      throw badRequest(`The as-built study cannot use ${e.source}: ${message}. Nothing was queued.`, [{ path: `${path}.${field}`, message }], "invalid_as_built");
+      throw badRequest(
+        `The as-built study cannot use ${e.source}: ${message}. Nothing was queued.`,
+        [{ path: `${path}.${field}`, message }],
+        "invalid_as_built",
+      );
     };
     for (const t of touched(e.source)) {
       const by = seen.get(t);

@@ -67,8 +67,14 @@ const invalid = (message: string, fields?: FieldError[], code = "invalid_file") 
 /** One message naming the first problem, every problem (up to a limit) in `fields`. */
 function refuse(problems: { at: string; message: string }[]): HttpError {
   const first = problems[0];
-  const more = problems.length > 1 ? ` (${problems.length > MAX_LISTED ? `${MAX_LISTED}+` : problems.length} problems; nothing was stored)` : " Nothing was stored.";
-  return invalid(`${first.at}: ${first.message}.${more}`, problems.slice(0, MAX_LISTED).map((p) => ({ path: p.at, message: p.message })));
+  const more =
+    problems.length > 1
+      ? ` (${problems.length > MAX_LISTED ? `${MAX_LISTED}+` : problems.length} problems; nothing was stored)`
+      : " Nothing was stored.";
+  return invalid(
+    `${first.at}: ${first.message}.${more}`,
+    problems.slice(0, MAX_LISTED).map((p) => ({ path: p.at, message: p.message })),
+  );
 }
 
 // ---------------------------------------------------------------- numbers
@@ -153,11 +159,16 @@ export function parseCsvRecords(text: string, delimiter: string, maxRecords: num
         field += q;
         i++;
       }
-      if (!closed) throw invalid(`Row ${startRow}, column ${columnLetter(record.length)}: a quoted field is not closed (a " is missing). Nothing was stored.`);
+      if (!closed)
+        throw invalid(
+          `Row ${startRow}, column ${columnLetter(record.length)}: a quoted field is not closed (a " is missing). Nothing was stored.`,
+        );
       // only spaces may sit between the closing quote and the delimiter
       while (i < n && (text[i] === " " || (text[i] === "\t" && delimiter !== "\t"))) i++;
       if (i < n && text[i] !== delimiter && text[i] !== "\n" && text[i] !== "\r") {
-        throw invalid(`Row ${startRow}, column ${columnLetter(record.length)}: text after the closing quote of a quoted field. Nothing was stored.`);
+        throw invalid(
+          `Row ${startRow}, column ${columnLetter(record.length)}: text after the closing quote of a quoted field. Nothing was stored.`,
+        );
       }
       continue;
     }
@@ -222,7 +233,8 @@ function zipUnpackedSize(buf: Buffer): number | null {
 
 function cellOf(v: ExcelJS.CellValue): Cell {
   if (v === null || v === undefined) return EMPTY;
-  if (typeof v === "number") return Number.isFinite(v) ? { kind: "number", text: String(v), value: v } : { kind: "error", text: String(v), value: null };
+  if (typeof v === "number")
+    return Number.isFinite(v) ? { kind: "number", text: String(v), value: v } : { kind: "error", text: String(v), value: null };
   if (typeof v === "string") {
     const t = v.trim();
     if (t === "") return EMPTY;
@@ -258,7 +270,9 @@ async function readXlsx(buf: Buffer): Promise<RawTable> {
   const unpacked = zipUnpackedSize(buf);
   if (unpacked === null) throw invalid("The file could not be read as an Excel workbook (.xlsx). Nothing was stored.");
   if (unpacked > MAX_XLSX_UNPACKED) {
-    throw invalid(`The workbook unpacks to ${Math.round(unpacked / 1048576)} MB, more than the ${MAX_XLSX_UNPACKED / 1048576} MB accepted. Nothing was stored.`);
+    throw invalid(
+      `The workbook unpacks to ${Math.round(unpacked / 1048576)} MB, more than the ${MAX_XLSX_UNPACKED / 1048576} MB accepted. Nothing was stored.`,
+    );
   }
   const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(buf), {
     sharedStrings: "cache",
@@ -297,7 +311,11 @@ async function readXlsx(buf: Buffer): Promise<RawTable> {
 }
 
 const tooManyRows = () =>
-  invalid(`The file has more than ${formatCount(DATASET_MAX_ROWS)} data rows, the most one data set may hold. Nothing was stored.`, undefined, "too_many_rows");
+  invalid(
+    `The file has more than ${formatCount(DATASET_MAX_ROWS)} data rows, the most one data set may hold. Nothing was stored.`,
+    undefined,
+    "too_many_rows",
+  );
 
 // ---------------------------------------------------------------- the file as a whole
 
@@ -309,24 +327,38 @@ export function fileTypeOf(name: string, buf: Buffer): "csv" | "xlsx" {
   const lower = name.toLowerCase();
   if (buf.subarray(0, 4).equals(XLSX_MAGIC)) {
     if (lower.endsWith(".xlsx") || lower.endsWith(".xlsm") || !/\.[a-z0-9]+$/.test(lower)) return "xlsx";
-    throw invalid(`“${name}” is a zip archive, not a measurement file. Upload a CSV file (.csv) or an Excel workbook (.xlsx). Nothing was stored.`, undefined, "wrong_file_type");
+    throw invalid(
+      `“${name}” is a zip archive, not a measurement file. Upload a CSV file (.csv) or an Excel workbook (.xlsx). Nothing was stored.`,
+      undefined,
+      "wrong_file_type",
+    );
   }
   if (buf.subarray(0, 8).equals(OLE_MAGIC)) {
-    throw invalid(`“${name}” is an old-style Excel file (.xls). Save it as an Excel workbook (.xlsx) or as CSV and upload that. Nothing was stored.`, undefined, "wrong_file_type");
+    throw invalid(
+      `“${name}” is an old-style Excel file (.xls). Save it as an Excel workbook (.xlsx) or as CSV and upload that. Nothing was stored.`,
+      undefined,
+      "wrong_file_type",
+    );
   }
-  if (lower.endsWith(".xlsx")) throw invalid(`“${name}” is named .xlsx but is not an Excel workbook. Nothing was stored.`, undefined, "wrong_file_type");
+  if (lower.endsWith(".xlsx"))
+    throw invalid(`“${name}” is named .xlsx but is not an Excel workbook. Nothing was stored.`, undefined, "wrong_file_type");
   const ext = /\.([a-z0-9]+)$/.exec(lower)?.[1];
   const textExt = ext === undefined || ["csv", "txt", "tsv", "tab", "dat"].includes(ext);
   // A text file has no NUL bytes; PDFs, images and the like do, or carry another name.
   const binary = buf.subarray(0, 8192).includes(0);
   if (binary || !textExt) {
-    throw invalid(`“${name}” is not a CSV file or an Excel workbook. Upload a .csv or .xlsx file. Nothing was stored.`, undefined, "wrong_file_type");
+    throw invalid(
+      `“${name}” is not a CSV file or an Excel workbook. Upload a .csv or .xlsx file. Nothing was stored.`,
+      undefined,
+      "wrong_file_type",
+    );
   }
   return "csv";
 }
 
 // Names of columns that identify a unit rather than measure it.
-const LABEL_HEADER = /^(id|unit|units|unit ?id|unit ?no\.?|serial|serial ?no\.?|serial ?number|s\/?n|sample|sample ?id|part|part ?no\.?|lot|lot ?id|batch|label|name|die|die ?id|site|position|date|time|operator|comment|comments|note|notes)$/i;
+const LABEL_HEADER =
+  /^(id|unit|units|unit ?id|unit ?no\.?|serial|serial ?no\.?|serial ?number|s\/?n|sample|sample ?id|part|part ?no\.?|lot|lot ?id|batch|label|name|die|die ?id|site|position|date|time|operator|comment|comments|note|notes)$/i;
 
 /** Reads and checks the whole file; throws a 400 naming the row and column of the first problem. */
 export async function readMeasurementFile(name: string, buf: Buffer): Promise<ParsedDataset> {
@@ -334,11 +366,17 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
   const fileType = fileTypeOf(name, buf);
   const table = fileType === "xlsx" ? await readXlsx(buf) : readCsv(buf);
   const nonBlank = table.rows.filter((r) => r.cells.some((c) => c.kind !== "empty"));
-  if (nonBlank.length === 0) throw invalid(`“${name}” holds no data: the ${fileType === "xlsx" ? "sheet" : "file"} is empty. Nothing was stored.`, undefined, "empty_file");
+  if (nonBlank.length === 0)
+    throw invalid(
+      `“${name}” holds no data: the ${fileType === "xlsx" ? "sheet" : "file"} is empty. Nothing was stored.`,
+      undefined,
+      "empty_file",
+    );
   const [headerRow, ...dataRows] = nonBlank;
   if (dataRows.length > DATASET_MAX_ROWS) throw tooManyRows();
   const hr = headerRow.row;
-  if (dataRows.length === 0) throw invalid(`Row ${hr + 1}: the file has a header but no data rows. Nothing was stored.`, undefined, "empty_file");
+  if (dataRows.length === 0)
+    throw invalid(`Row ${hr + 1}: the file has a header but no data rows. Nothing was stored.`, undefined, "empty_file");
 
   // Columns: the header's cells, plus any column that has data further down.
   let width = headerRow.cells.length;
@@ -350,8 +388,14 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
       }
     }
   }
-  while (width > 0 && (headerRow.cells[width - 1] ?? EMPTY).kind === "empty" && dataRows.every((r) => (r.cells[width - 1] ?? EMPTY).kind === "empty")) width--;
-  if (width > DATASET_MAX_COLUMNS) throw invalid(`The file has ${width} columns; at most ${DATASET_MAX_COLUMNS} are accepted. Nothing was stored.`);
+  while (
+    width > 0 &&
+    (headerRow.cells[width - 1] ?? EMPTY).kind === "empty" &&
+    dataRows.every((r) => (r.cells[width - 1] ?? EMPTY).kind === "empty")
+  )
+    width--;
+  if (width > DATASET_MAX_COLUMNS)
+    throw invalid(`The file has ${width} columns; at most ${DATASET_MAX_COLUMNS} are accepted. Nothing was stored.`);
 
   const problems: { at: string; message: string }[] = [];
   const seen = new Map<string, number>();
@@ -375,7 +419,9 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
     if (ph.strict && !ph.unit) {
       problems.push({
         at: where(hr, k, key),
-        message: ph.unitText ? `unknown unit “${ph.unitText}” in the header: use um, mm, deg, mrad or arcmin` : "the brackets in the header hold no unit: use um, mm, deg, mrad or arcmin",
+        message: ph.unitText
+          ? `unknown unit “${ph.unitText}” in the header: use um, mm, deg, mrad or arcmin`
+          : "the brackets in the header hold no unit: use um, mm, deg, mrad or arcmin",
       });
       continue;
     }
@@ -388,7 +434,9 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
     else if (LABEL_HEADER.test(ph.name)) kind = "label";
     else {
       // the first cell that holds something other than a gap decides
-      const first = dataRows.map((r) => r.cells[k] ?? EMPTY).find((c) => c.kind !== "empty" && !(c.kind === "text" && isMissingMarker(c.text)));
+      const first = dataRows
+        .map((r) => r.cells[k] ?? EMPTY)
+        .find((c) => c.kind !== "empty" && !(c.kind === "text" && isMissingMarker(c.text)));
       kind = first?.kind === "number" ? "number" : "label";
     }
     cols.push({ index: k, key, name: ph.name, unit: ph.unit, kind });

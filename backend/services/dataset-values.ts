@@ -28,7 +28,8 @@ export function presentValues(raw: Cells): { values: number[]; index: number[] }
  */
 export function convertedValues(raw: number[], unit: MeasureUnit, nominal: number, to: SourceUnit): { values: number[]; factor: number } {
   const factor = conversionFactor(unit, to);
-  if (factor === null) throw badRequest(`A column in ${unitText(unit)} cannot measure a source in ${unitText(to)}.`, undefined, "invalid_mapping");
+  if (factor === null)
+    throw badRequest(`A column in ${unitText(unit)} cannot measure a source in ${unitText(to)}.`, undefined, "invalid_mapping");
   return { values: raw.map((v) => (v - nominal) * factor), factor };
 }
 
@@ -48,7 +49,11 @@ export type PooledColumn = { column: string; part: number; unit: MeasureUnit; no
  * Complete rows of a pooled source: one row per unit whose every column has a value,
  * converted to the source's unit, in part order; `dropped` counts the rows left out.
  */
-export function pooledRows(data: Record<string, Cells>, columns: PooledColumn[], to: SourceUnit): { rows: number[][]; dropped: number; total: number } {
+export function pooledRows(
+  data: Record<string, Cells>,
+  columns: PooledColumn[],
+  to: SourceUnit,
+): { rows: number[][]; dropped: number; total: number } {
   const sorted = [...columns].sort((a, b) => a.part - b.part);
   const factors = sorted.map((c) => conversionFactor(c.unit, to));
   if (factors.some((f) => f === null)) throw badRequest("A pooled column's unit cannot measure its source.", undefined, "invalid_mapping");

@@ -105,7 +105,10 @@ function toSummary(r: SummaryRow, maps: MappingRow[]): DatasetSummary {
 }
 
 async function assertProject(db: Database, workspaceId: string, projectId: string) {
-  const [p] = await db.select({ id: projects.id }).from(projects).where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, projectId)));
+  const [p] = await db
+    .select({ id: projects.id })
+    .from(projects)
+    .where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, projectId)));
   return found(p, "The project");
 }
 
@@ -114,7 +117,10 @@ export async function listDatasets(db: Database, workspaceId: string, projectId:
   const rows = await baseQuery(db)
     .where(and(eq(datasets.workspaceId, workspaceId), eq(datasets.projectId, projectId)))
     .orderBy(desc(datasets.createdAt));
-  const maps = await mappingsOf(db, rows.map((r) => r.id));
+  const maps = await mappingsOf(
+    db,
+    rows.map((r) => r.id),
+  );
   return rows.map((r) => toSummary(r, maps));
 }
 
@@ -154,7 +160,12 @@ export async function getDataset(db: Database, workspaceId: string, id: string):
 }
 
 /** Each pooled source of the data set: its columns, and how many rows are complete. */
-async function pooledOf(db: Database, id: string, maps: MappingRow[], sourceOf: (m: MappingRow) => StackSource | null): Promise<Dataset["pooled"]> {
+async function pooledOf(
+  db: Database,
+  id: string,
+  maps: MappingRow[],
+  sourceOf: (m: MappingRow) => StackSource | null,
+): Promise<Dataset["pooled"]> {
   const groups = new Map<string, MappingRow[]>();
   for (const m of maps) {
     if (m.part === null) continue;
@@ -184,8 +195,20 @@ async function pooledOf(db: Database, id: string, maps: MappingRow[], sourceOf: 
 type Origin = { supplierId: string | null; reportId: string | null; via?: string };
 
 /** Reads the file completely first; only a file without a single problem is stored (one transaction, with its activity). */
-async function storeUpload(db: Database, actor: Actor, projectId: string, file: UploadedFile | undefined, origin: Origin, fields: UploadFields = {}): Promise<Dataset> {
-  if (!file) throw badRequest("Attach the measurement file in the form field “file” (multipart/form-data).", [{ path: "file", message: "a CSV or XLSX file is required" }], "missing_file");
+async function storeUpload(
+  db: Database,
+  actor: Actor,
+  projectId: string,
+  file: UploadedFile | undefined,
+  origin: Origin,
+  fields: UploadFields = {},
+): Promise<Dataset> {
+  if (!file)
+    throw badRequest(
+      "Attach the measurement file in the form field “file” (multipart/form-data).",
+      [{ path: "file", message: "a CSV or XLSX file is required" }],
+      "missing_file",
+    );
   const name = (file.originalname || "measurements").replace(/[\\/]/g, "_").slice(0, 200);
   const parsed = await readMeasurementFile(name, file.buffer);
   const sha256 = createHash("sha256").update(file.buffer).digest("hex");
@@ -228,7 +251,13 @@ async function storeUpload(db: Database, actor: Actor, projectId: string, file: 
   return getDataset(db, actor.workspaceId, id);
 }
 
-export async function uploadDataset(db: Database, actor: Actor, projectId: string, file: UploadedFile | undefined, fields: UploadFields = {}) {
+export async function uploadDataset(
+  db: Database,
+  actor: Actor,
+  projectId: string,
+  file: UploadedFile | undefined,
+  fields: UploadFields = {},
+) {
   await assertProject(db, actor.workspaceId, projectId);
   await assertProjectOpen(db, actor.workspaceId, projectId);
   return storeUpload(db, actor, projectId, file, { supplierId: actor.supplierId, reportId: null }, fields);
@@ -239,7 +268,10 @@ export async function uploadDataset(db: Database, actor: Actor, projectId: strin
  * report of its own company (anything else is "not found", so report ids do not leak).
  */
 async function visibleReport(db: Database, actor: Actor, reportId: string) {
-  const [r] = await db.select().from(reports).where(and(eq(reports.workspaceId, actor.workspaceId), eq(reports.id, reportId)));
+  const [r] = await db
+    .select()
+    .from(reports)
+    .where(and(eq(reports.workspaceId, actor.workspaceId), eq(reports.id, reportId)));
   const report = found(r, "The report");
   if (actor.role === "supplier" && (report.supplierId === null || report.supplierId !== actor.supplierId || report.status !== "released")) {
     throw found(null, "The report");
@@ -248,16 +280,33 @@ async function visibleReport(db: Database, actor: Actor, reportId: string) {
 }
 
 /** A supplier (or an engineer on its behalf) sends the measurements a released report asks for. */
-export async function uploadForReport(db: Database, actor: Actor, reportId: string, file: UploadedFile | undefined, fields: UploadFields = {}) {
+export async function uploadForReport(
+  db: Database,
+  actor: Actor,
+  reportId: string,
+  file: UploadedFile | undefined,
+  fields: UploadFields = {},
+) {
   const report = await visibleReport(db, actor, reportId);
-  if (report.status !== "released") throw conflict(`Report TR-${String(report.number).padStart(4, "0")} is not released yet; measurements are sent against a released report.`, "invalid_state");
+  if (report.status !== "released")
+    throw conflict(
+      `Report TR-${String(report.number).padStart(4, "0")} is not released yet; measurements are sent against a released report.`,
+      "invalid_state",
+    );
   const [s] = report.supplierId ? await db.select({ name: suppliers.name }).from(suppliers).where(eq(suppliers.id, report.supplierId)) : [];
   const tr = `TR-${String(report.number).padStart(4, "0")} rev ${report.revision}`;
-  return storeUpload(db, actor, report.projectId, file, {
-    supplierId: report.supplierId,
-    reportId: report.id,
-    via: ` for report ${tr}${s ? ` (${s.name})` : ""}`,
-  }, fields);
+  return storeUpload(
+    db,
+    actor,
+    report.projectId,
+    file,
+    {
+      supplierId: report.supplierId,
+      reportId: report.id,
+      via: ` for report ${tr}${s ? ` (${s.name})` : ""}`,
+    },
+    fields,
+  );
 }
 
 export async function listReportDatasets(db: Database, actor: Actor, reportId: string): Promise<DatasetSummary[]> {
@@ -265,12 +314,18 @@ export async function listReportDatasets(db: Database, actor: Actor, reportId: s
   const rows = await baseQuery(db)
     .where(and(eq(datasets.workspaceId, actor.workspaceId), eq(datasets.reportId, report.id)))
     .orderBy(desc(datasets.createdAt));
-  const maps = await mappingsOf(db, rows.map((r) => r.id));
+  const maps = await mappingsOf(
+    db,
+    rows.map((r) => r.id),
+  );
   return rows.map((r) => toSummary(r, maps));
 }
 
 async function datasetRow(db: Database, workspaceId: string, id: string) {
-  const [row] = await db.select().from(datasets).where(and(eq(datasets.workspaceId, workspaceId), eq(datasets.id, id)));
+  const [row] = await db
+    .select()
+    .from(datasets)
+    .where(and(eq(datasets.workspaceId, workspaceId), eq(datasets.id, id)));
   return found(row, "The data set");
 }
 
@@ -284,24 +339,41 @@ export async function updateMappings(db: Database, actor: Actor, id: string, inp
     .from(stackRevisions)
     .where(and(eq(stackRevisions.workspaceId, actor.workspaceId), inArray(stackRevisions.id, revisionIds)));
   const fields: { path: string; message: string }[] = [];
-  const planned: Array<{ column: string; revisionId: string; source: string | null; part: number | null; unit: MeasureUnit; nominal: number }> = [];
+  const planned: Array<{
+    column: string;
+    revisionId: string;
+    source: string | null;
+    part: number | null;
+    unit: MeasureUnit;
+    nominal: number;
+  }> = [];
   input.mappings.forEach((m, i) => {
     const at = (f: string) => `mappings[${i}].${f}`;
     const col = columns.find((c) => c.key === m.column);
     if (!col) return void fields.push({ path: at("column"), message: `no column “${m.column}” in this data set` });
     if (col.kind !== "number") return void fields.push({ path: at("column"), message: `“${m.column}” holds labels, not measurements` });
     const rev = revs.find((r) => r.id === m.revisionId);
-    if (!rev || rev.projectId !== ds.projectId) return void fields.push({ path: at("revisionId"), message: "no stack revision with this id in the data set's project" });
-    if (m.source === null) return void planned.push({ column: m.column, revisionId: rev.id, source: null, part: null, unit: col.unit ?? "um", nominal: 0 });
+    if (!rev || rev.projectId !== ds.projectId)
+      return void fields.push({ path: at("revisionId"), message: "no stack revision with this id in the data set's project" });
+    if (m.source === null)
+      return void planned.push({ column: m.column, revisionId: rev.id, source: null, part: null, unit: col.unit ?? "um", nominal: 0 });
     const src = findSource(rev.stack as StackFile, m.source);
-    if (!src) return void fields.push({ path: at("source"), message: `stack revision ${rev.number} has no tolerance source “${m.source}”` });
+    if (!src)
+      return void fields.push({ path: at("source"), message: `stack revision ${rev.number} has no tolerance source “${m.source}”` });
     const part = partOf(src, m.support, m.component);
     if (typeof part === "string") return void fields.push({ path: at(m.support !== undefined ? "support" : "component"), message: part });
     if (col.unit && m.unit && m.unit !== col.unit) {
-      return void fields.push({ path: at("unit"), message: `the header of “${m.column}” says ${col.unit}; leave out the unit or use ${col.unit}` });
+      return void fields.push({
+        path: at("unit"),
+        message: `the header of “${m.column}” says ${col.unit}; leave out the unit or use ${col.unit}`,
+      });
     }
     const unit = m.unit ?? col.unit;
-    if (!unit) return void fields.push({ path: at("unit"), message: `“${m.column}” has no unit in its header: give one of um, mm, deg, mrad, arcmin` });
+    if (!unit)
+      return void fields.push({
+        path: at("unit"),
+        message: `“${m.column}” has no unit in its header: give one of um, mm, deg, mrad, arcmin`,
+      });
     if (conversionFactor(unit, src.unit) === null) {
       const what = src.unit === "um" ? "a height or offset in µm" : "an angle in degrees";
       return void fields.push({ path: at("unit"), message: `${m.source} is ${what}; a column in ${unitText(unit)} cannot measure it` });
@@ -312,31 +384,67 @@ export async function updateMappings(db: Database, actor: Actor, id: string, inp
   });
   if (!fields.length) {
     // after this change: one column per part of a pooled source, and a source either pooled or single
-    const existing = await db.select({ column: datasetMappings.column, revisionId: datasetMappings.revisionId, source: datasetMappings.source, part: datasetMappings.part }).from(datasetMappings).where(eq(datasetMappings.datasetId, id));
+    const existing = await db
+      .select({
+        column: datasetMappings.column,
+        revisionId: datasetMappings.revisionId,
+        source: datasetMappings.source,
+        part: datasetMappings.part,
+      })
+      .from(datasetMappings)
+      .where(eq(datasetMappings.datasetId, id));
     const after = [...existing.filter((e) => !planned.some((p) => p.column === e.column)), ...planned.filter((p) => p.source !== null)];
     planned.forEach((p) => {
       if (p.source === null) return;
       const i = input.mappings.findIndex((m) => m.column === p.column);
       const same = after.filter((o) => o.column !== p.column && o.revisionId === p.revisionId && o.source === p.source);
       const twin = same.find((o) => o.part === p.part);
-      if (twin && p.part !== null) fields.push({ path: `mappings[${i}].${typeof input.mappings[i].support === "number" ? "support" : "component"}`, message: `“${twin.column}” already measures this part of ${p.source}` });
+      if (twin && p.part !== null)
+        fields.push({
+          path: `mappings[${i}].${typeof input.mappings[i].support === "number" ? "support" : "component"}`,
+          message: `“${twin.column}” already measures this part of ${p.source}`,
+        });
       else if (same.some((o) => (o.part === null) !== (p.part === null))) {
-        fields.push({ path: `mappings[${i}].source`, message: `${p.source} is mapped both as one column and as several: give every column its part, or map one column` });
+        fields.push({
+          path: `mappings[${i}].source`,
+          message: `${p.source} is mapped both as one column and as several: give every column its part, or map one column`,
+        });
       }
     });
   }
-  if (fields.length) throw badRequest(fields.length === 1 ? "A mapping is not valid; nothing was changed." : `${fields.length} mappings are not valid; nothing was changed.`, fields, "invalid_mapping");
+  if (fields.length)
+    throw badRequest(
+      fields.length === 1
+        ? "A mapping is not valid; nothing was changed."
+        : `${fields.length} mappings are not valid; nothing was changed.`,
+      fields,
+      "invalid_mapping",
+    );
 
   await db.transaction(async (tx) => {
     for (const p of planned) {
       await tx.delete(datasetMappings).where(and(eq(datasetMappings.datasetId, id), eq(datasetMappings.column, p.column)));
       if (p.source === null) continue;
-      await tx.insert(datasetMappings).values({ datasetId: id, column: p.column, revisionId: p.revisionId, source: p.source, part: p.part, unit: p.unit, nominal: p.nominal, updatedBy: actor.userId });
+      await tx
+        .insert(datasetMappings)
+        .values({
+          datasetId: id,
+          column: p.column,
+          revisionId: p.revisionId,
+          source: p.source,
+          part: p.part,
+          unit: p.unit,
+          nominal: p.nominal,
+          updatedBy: actor.userId,
+        });
     }
     const set = planned.filter((p) => p.source !== null);
     const cleared = planned.filter((p) => p.source === null);
     const parts = [
-      ...set.map((p) => `“${p.column}” → ${p.source}${p.part !== null ? ` part ${p.part}` : ""} (rev ${revs.find((r) => r.id === p.revisionId)!.number}, ${unitText(p.unit)})`),
+      ...set.map(
+        (p) =>
+          `“${p.column}” → ${p.source}${p.part !== null ? ` part ${p.part}` : ""} (rev ${revs.find((r) => r.id === p.revisionId)!.number}, ${unitText(p.unit)})`,
+      ),
       ...cleared.map((p) => `“${p.column}” unmapped`),
     ];
     await recordActivity(tx, {
@@ -359,13 +467,18 @@ function partOf(src: StackSource, support: number | undefined, component: string
   const kind = src.id.endsWith(".bondLine") ? "support" : src.id.endsWith(".tilt") ? "tilt" : src.id.endsWith(".axis") ? "axis" : null;
   if (support !== undefined) {
     if (kind !== "support") return `${src.id} has no support points: support applies to a bond line`;
-    if (support >= src.parts!.length) return `${src.id} rests on ${src.parts!.length} support points, numbered 0 to ${src.parts!.length - 1}`;
+    if (support >= src.parts!.length)
+      return `${src.id} rests on ${src.parts!.length} support points, numbered 0 to ${src.parts!.length - 1}`;
     return support;
   }
   if (component !== undefined) {
     if (kind === "tilt" && (component === "x" || component === "y")) return component === "x" ? 0 : 1;
     if (kind === "axis" && /^g[1-6]$/.test(component)) return Number(component.slice(1)) - 1;
-    return kind === "tilt" ? `${src.id} has the components x and y` : kind === "axis" ? `${src.id} has the components g1 to g6` : `${src.id} is one quantity: leave out component`;
+    return kind === "tilt"
+      ? `${src.id} has the components x and y`
+      : kind === "axis"
+        ? `${src.id} has the components g1 to g6`
+        : `${src.id} is one quantity: leave out component`;
   }
   // the pooled tilt exists only as two columns; a bond line or a single axis tolerance may also take one column for every draw
   if (kind === "tilt") return `${src.id} pools x and y: give component "x" or "y" (or map to ${src.elementId}.tiltX / .tiltY)`;
@@ -385,8 +498,18 @@ export async function updateDataset(db: Database, actor: Actor, id: string, inpu
   const columns = ds.columns as unknown as ParsedColumn[];
   if (input.lotColumn !== null) {
     const c = columns.find((x) => x.key === input.lotColumn);
-    if (!c) throw badRequest(`The data set has no column “${input.lotColumn}”.`, [{ path: "lotColumn", message: `no column “${input.lotColumn}” in this data set` }], "unknown_column");
-    if (c.kind !== "label") throw badRequest(`Column “${input.lotColumn}” holds measurements, not lots.`, [{ path: "lotColumn", message: "the lot column must hold labels (lot numbers or dates)" }], "not_label");
+    if (!c)
+      throw badRequest(
+        `The data set has no column “${input.lotColumn}”.`,
+        [{ path: "lotColumn", message: `no column “${input.lotColumn}” in this data set` }],
+        "unknown_column",
+      );
+    if (c.kind !== "label")
+      throw badRequest(
+        `Column “${input.lotColumn}” holds measurements, not lots.`,
+        [{ path: "lotColumn", message: "the lot column must hold labels (lot numbers or dates)" }],
+        "not_label",
+      );
   }
   await db.transaction(async (tx) => {
     await tx.update(datasets).set({ lotColumn: input.lotColumn }).where(eq(datasets.id, id));
@@ -395,7 +518,9 @@ export async function updateDataset(db: Database, actor: Actor, id: string, inpu
       projectId: ds.projectId,
       actorId: actor.userId,
       action: "dataset.lots",
-      summary: input.lotColumn ? `marked “${input.lotColumn}” as the lot column of the data set “${ds.name}”` : `cleared the lot column of the data set “${ds.name}”`,
+      summary: input.lotColumn
+        ? `marked “${input.lotColumn}” as the lot column of the data set “${ds.name}”`
+        : `cleared the lot column of the data set “${ds.name}”`,
       data: { datasetId: id },
     });
   });
@@ -424,4 +549,3 @@ export async function datasetFile(db: Database, workspaceId: string, id: string)
     data: ds.file,
   };
 }
-

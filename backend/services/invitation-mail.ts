@@ -3,14 +3,20 @@ import type { Role } from "@shared/schemas/common";
 import type { Actor } from "../middleware/session";
 import type { MailService } from "./mail";
 
-
 /**
  * Mails the invitation link to the invitee. The admin page keeps showing the link, so a
  * failure here is reported (false) but never undoes the invitation.
  */
-export async function mailInvitation(mail: MailService | null, actor: Actor, invitation: { email: string; role: Role; expiresAt: Date }, link: string): Promise<boolean> {
+export async function mailInvitation(
+  mail: MailService | null,
+  actor: Actor,
+  invitation: { email: string; role: Role; expiresAt: Date },
+  link: string,
+): Promise<boolean> {
   if (!mail) return false;
-  const until = new Intl.DateTimeFormat("en-GB", { year: "numeric", month: "long", day: "numeric", timeZone: "UTC" }).format(invitation.expiresAt);
+  const until = new Intl.DateTimeFormat("en-GB", { year: "numeric", month: "long", day: "numeric", timeZone: "UTC" }).format(
+    invitation.expiresAt,
+  );
   const text = [
     "Hello,",
     "",
@@ -28,7 +34,13 @@ export async function mailInvitation(mail: MailService | null, actor: Actor, inv
 <p style="color:#5d6670;font-size:12px">The link works once and until ${esc(until)}. If you did not expect this invitation, ignore this message.</p>
 </div>`;
   try {
-    await mail.send({ workspaceId: actor.workspaceId, to: invitation.email, subject: `${actor.workspaceName} invites you to Orthostack`, text, html });
+    await mail.send({
+      workspaceId: actor.workspaceId,
+      to: invitation.email,
+      subject: `${actor.workspaceName} invites you to Orthostack`,
+      text,
+      html,
+    });
     return true;
   } catch {
     return false;

@@ -59,7 +59,9 @@ export async function updateMember(db: Database, actor: Actor, id: string, input
   const member = await getMember(db, actor.workspaceId, id);
   const supplierId = input.role === "supplier" ? (input.supplierId ?? member.supplierId) : null;
   if (input.role === "supplier" && !supplierId) {
-    throw badRequest("A supplier user must belong to a supplier company.", [{ path: "supplierId", message: "choose the supplier company" }]);
+    throw badRequest("A supplier user must belong to a supplier company.", [
+      { path: "supplierId", message: "choose the supplier company" },
+    ]);
   }
   await assertSupplierInWorkspace(db, actor.workspaceId, supplierId);
   if (member.role === "admin" && input.role !== "admin" && (await adminCount(db, actor.workspaceId, id)) === 0) {
@@ -105,7 +107,12 @@ export async function listInvitations(db: Database, workspaceId: string, { baseU
   return rows.map((r) => toInvitation(r, baseURL, now));
 }
 
-export async function createInvitation(db: Database, actor: Actor, input: z.infer<typeof CreateInvitationSchema>, { baseURL, mail, clock }: InvitationDeps) {
+export async function createInvitation(
+  db: Database,
+  actor: Actor,
+  input: z.infer<typeof CreateInvitationSchema>,
+  { baseURL, mail, clock }: InvitationDeps,
+) {
   await assertSupplierInWorkspace(db, actor.workspaceId, input.supplierId);
   const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, input.email));
   if (existing) throw conflict(`${input.email} already has an account.`, "already_member");
@@ -177,7 +184,8 @@ export async function acceptInvitation(db: Database, auth: Auth, clock: Clock, t
         .set({ status: "accepted", acceptedAt: clock() })
         .where(and(eq(invitations.id, invitation.id), eq(invitations.status, "pending")))
         .returning({ id: invitations.id });
-      if (!used.length) throw new HttpError(404, "invitation_invalid", "This invitation is not valid any more. Ask your admin for a new one.");
+      if (!used.length)
+        throw new HttpError(404, "invitation_invalid", "This invitation is not valid any more. Ask your admin for a new one.");
       await tx.insert(members).values({
         workspaceId: invitation.workspaceId,
         userId: user.id,

@@ -4,7 +4,14 @@
  * told about their own act. A failed mail leaves the in-app notification in place.
  */
 import { and, desc, eq, inArray, isNull, ne, sql } from "drizzle-orm";
-import { NOTIFICATION_KIND_LABELS, NOTIFICATION_KINDS, type Notification, type NotificationKind, type NotificationList, type NotificationSettings } from "@shared/schemas/notifications";
+import {
+  NOTIFICATION_KIND_LABELS,
+  NOTIFICATION_KINDS,
+  type Notification,
+  type NotificationKind,
+  type NotificationList,
+  type NotificationSettings,
+} from "@shared/schemas/notifications";
 import type { Database } from "../db/client";
 import { members, notificationMailOptOuts, notifications, users } from "../db/schema";
 import type { Actor } from "../middleware/session";
@@ -23,7 +30,12 @@ export type NotifyInput = {
 };
 
 /** Everyone in the workspace with one of these roles, the actor left out. */
-export async function membersWithRole(db: Database, workspaceId: string, roles: Array<"admin" | "engineer" | "reviewer">, except?: string): Promise<string[]> {
+export async function membersWithRole(
+  db: Database,
+  workspaceId: string,
+  roles: Array<"admin" | "engineer" | "reviewer">,
+  except?: string,
+): Promise<string[]> {
   const rows = await db
     .select({ userId: members.userId })
     .from(members)
@@ -34,22 +46,45 @@ export async function membersWithRole(db: Database, workspaceId: string, roles: 
 const esc = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 
 /** Stores one notification per recipient and mails those who did not opt out of the kind. */
-export async function notify({ db, baseURL, mail }: { db: Database; baseURL: string; mail: MailService | null }, recipients: Array<string | null | undefined>, actor: Pick<Actor, "userId" | "name">, n: NotifyInput): Promise<void> {
+export async function notify(
+  { db, baseURL, mail }: { db: Database; baseURL: string; mail: MailService | null },
+  recipients: Array<string | null | undefined>,
+  actor: Pick<Actor, "userId" | "name">,
+  n: NotifyInput,
+): Promise<void> {
   const ids = [...new Set(recipients.filter((r): r is string => !!r && r !== actor.userId))];
   if (!ids.length) return;
-  await db.insert(notifications).values(ids.map((userId) => ({ workspaceId: n.workspaceId, userId, projectId: n.projectId, kind: n.kind, title: n.title, link: n.link })));
+  await db
+    .insert(notifications)
+    .values(
+      ids.map((userId) => ({ workspaceId: n.workspaceId, userId, projectId: n.projectId, kind: n.kind, title: n.title, link: n.link })),
+    );
   if (!mail) return;
   const optedOut = new Set(
-    (await db.select({ userId: notificationMailOptOuts.userId }).from(notificationMailOptOuts).where(and(inArray(notificationMailOptOuts.userId, ids), eq(notificationMailOptOuts.kind, n.kind)))).map(
-      (r) => r.userId,
-    ),
+    (
+      await db
+        .select({ userId: notificationMailOptOuts.userId })
+        .from(notificationMailOptOuts)
+        .where(and(inArray(notificationMailOptOuts.userId, ids), eq(notificationMailOptOuts.kind, n.kind)))
+    ).map((r) => r.userId),
   );
   const people = await db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(inArray(users.id, ids));
   const url = `${baseURL.replace(/\/$/, "")}${n.link}`;
   const footer = `You get this mail for “${NOTIFICATION_KIND_LABELS[n.kind]}”. Turn it off under Notifications in Orthostack.`;
   for (const p of people) {
     if (optedOut.has(p.id)) continue;
-    const text = [`Hello ${p.name},`, "", n.title + ".", ...(n.detail ? ["", n.detail] : []), "", `Open it: ${url}`, "", `(${actor.name} did this.)`, "", footer].join("\n");
+    const text = [
+      `Hello ${p.name},`,
+      "",
+      n.title + ".",
+      ...(n.detail ? ["", n.detail] : []),
+      "",
+      `Open it: ${url}`,
+      "",
+      `(${actor.name} did this.)`,
+      "",
+      footer,
+    ].join("\n");
     const html = `<div style="font-family:Manrope,Segoe UI,Helvetica,Arial,sans-serif;color:#17212b;font-size:14px;line-height:1.5;max-width:560px">
 <p>Hello ${esc(p.name)},</p>
 <p><strong>${esc(n.title)}.</strong></p>
@@ -77,9 +112,15 @@ export async function listNotifications(db: Database, actor: Actor): Promise<Not
     .from(notifications)
     .where(and(eq(notifications.userId, actor.userId), eq(notifications.workspaceId, actor.workspaceId), isNull(notifications.readAt)));
   return {
-    notifications: rows.map(
-      (r): Notification => ({ id: r.id, kind: r.kind, title: r.title, link: r.link, projectId: r.projectId, createdAt: r.createdAt.toISOString(), readAt: r.readAt ? r.readAt.toISOString() : null }),
-    ),
+    notifications: rows.map((r): Notification => ({
+      id: r.id,
+      kind: r.kind,
+      title: r.title,
+      link: r.link,
+      projectId: r.projectId,
+      createdAt: r.createdAt.toISOString(),
+      readAt: r.readAt ? r.readAt.toISOString() : null,
+    })),
     unread,
   };
 }
@@ -89,19 +130,39 @@ export async function markRead(db: Database, actor: Actor, ids?: string[]): Prom
   await db
     .update(notifications)
     .set({ readAt: new Date() })
-    .where(and(eq(notifications.userId, actor.userId), isNull(notifications.readAt), ids ? inArray(notifications.id, ids.length ? ids : ["00000000-0000-0000-0000-000000000000"]) : undefined));
+    .where(
+      and(
+        eq(notifications.userId, actor.userId),
+        isNull(notifications.readAt),
+        ids ? inArray(notifications.id, ids.length ? ids : ["00000000-0000-0000-0000-000000000000"]) : undefined,
+      ),
+    );
   return listNotifications(db, actor);
 }
 
 export async function notificationSettings(db: Database, actor: Actor): Promise<NotificationSettings> {
-  const off = new Set((await db.select({ kind: notificationMailOptOuts.kind }).from(notificationMailOptOuts).where(eq(notificationMailOptOuts.userId, actor.userId))).map((r) => r.kind));
+  const off = new Set(
+    (
+      await db
+        .select({ kind: notificationMailOptOuts.kind })
+        .from(notificationMailOptOuts)
+        .where(eq(notificationMailOptOuts.userId, actor.userId))
+    ).map((r) => r.kind),
+  );
   return { kinds: NOTIFICATION_KINDS.map((kind) => ({ kind, label: NOTIFICATION_KIND_LABELS[kind], email: !off.has(kind) })) };
 }
 
-export async function updateNotificationSettings(db: Database, actor: Actor, email: Partial<Record<NotificationKind, boolean>>): Promise<NotificationSettings> {
+export async function updateNotificationSettings(
+  db: Database,
+  actor: Actor,
+  email: Partial<Record<NotificationKind, boolean>>,
+): Promise<NotificationSettings> {
   await db.transaction(async (tx) => {
     for (const [kind, on] of Object.entries(email) as Array<[NotificationKind, boolean]>) {
-      if (on) await tx.delete(notificationMailOptOuts).where(and(eq(notificationMailOptOuts.userId, actor.userId), eq(notificationMailOptOuts.kind, kind)));
+      if (on)
+        await tx
+          .delete(notificationMailOptOuts)
+          .where(and(eq(notificationMailOptOuts.userId, actor.userId), eq(notificationMailOptOuts.kind, kind)));
       else await tx.insert(notificationMailOptOuts).values({ userId: actor.userId, kind }).onConflictDoNothing();
     }
   });

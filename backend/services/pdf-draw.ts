@@ -39,7 +39,11 @@ export function woffToSfnt(woff: Buffer): Buffer {
     const compLength = woff.readUInt32BE(at + 8);
     const origLength = woff.readUInt32BE(at + 12);
     const raw = woff.subarray(offset, offset + compLength);
-    tables.push({ tag: woff.subarray(at, at + 4), checksum: woff.readUInt32BE(at + 16), data: compLength < origLength ? inflateSync(raw) : Buffer.from(raw) });
+    tables.push({
+      tag: woff.subarray(at, at + 4),
+      checksum: woff.readUInt32BE(at + 16),
+      data: compLength < origLength ? inflateSync(raw) : Buffer.from(raw),
+    });
   }
   const entrySelector = Math.floor(Math.log2(numTables));
   const searchRange = 2 ** entrySelector * 16;
@@ -70,7 +74,9 @@ function fonts() {
   if (!cache) {
     const w: Record<Weight, string> = { regular: "400", medium: "600", bold: "700", heavy: "800" };
     const load = (subset: string) =>
-      Object.fromEntries(Object.entries(w).map(([k, v]) => [k, woffToSfnt(readFileSync(fontFile(`manrope-${subset}-${v}-normal.woff`)))])) as Record<Weight, Buffer>;
+      Object.fromEntries(
+        Object.entries(w).map(([k, v]) => [k, woffToSfnt(readFileSync(fontFile(`manrope-${subset}-${v}-normal.woff`)))]),
+      ) as Record<Weight, Buffer>;
     cache = { latin: load("latin"), greek: load("greek"), symbol: existsSync(SYMBOL_FONT) ? readFileSync(SYMBOL_FONT) : null };
   }
   return cache;
@@ -82,7 +88,14 @@ export function createDoc(info: { title: string; subject: string; date: Date }):
     margin: 0,
     bufferPages: true,
     autoFirstPage: true,
-    info: { Title: info.title, Subject: info.subject, Author: "Orthostack", Creator: "Orthostack", Producer: "Orthostack", CreationDate: info.date },
+    info: {
+      Title: info.title,
+      Subject: info.subject,
+      Author: "Orthostack",
+      Creator: "Orthostack",
+      Producer: "Orthostack",
+      CreationDate: info.date,
+    },
   });
   const f = fonts();
   for (const wt of Object.keys(f.latin) as Weight[]) {
@@ -166,7 +179,13 @@ function ellipsize(doc: Doc, text: string, style: TextStyle, width: number): str
 }
 
 /** One line of text at (x, y) = top-left of the line box; align within `width` when given. */
-export function text(doc: Doc, value: string, x: number, y: number, style: TextStyle & { width?: number; align?: "left" | "right" | "center" }) {
+export function text(
+  doc: Doc,
+  value: string,
+  x: number,
+  y: number,
+  style: TextStyle & { width?: number; align?: "left" | "right" | "center" },
+) {
   const s = style.width ? ellipsize(doc, value, style, style.width) : value;
   const w = measure(doc, s, style);
   let cx = x;
@@ -185,7 +204,15 @@ export function text(doc: Doc, value: string, x: number, y: number, style: TextS
 }
 
 /** Word-wrapped text; returns its height. Blank lines in `value` separate paragraphs. */
-export function paragraph(doc: Doc, value: string, x: number, y: number, width: number, style: TextStyle & { lineHeight?: number }, draw = true): number {
+export function paragraph(
+  doc: Doc,
+  value: string,
+  x: number,
+  y: number,
+  width: number,
+  style: TextStyle & { lineHeight?: number },
+  draw = true,
+): number {
   const lh = style.lineHeight ?? style.size * 1.42;
   const space = measure(doc, " ", style);
   let cy = y;
@@ -216,13 +243,24 @@ export function rule(doc: Doc, x1: number, y: number, x2: number, color = LINE, 
   doc.save().moveTo(x1, y).lineTo(x2, y).lineWidth(width).strokeColor(color).stroke().restore();
 }
 
-export function box(doc: Doc, x: number, y: number, w: number, h: number, opts: { fill?: string; stroke?: string; radius?: number; lineWidth?: number; fillOpacity?: number }) {
+export function box(
+  doc: Doc,
+  x: number,
+  y: number,
+  w: number,
+  h: number,
+  opts: { fill?: string; stroke?: string; radius?: number; lineWidth?: number; fillOpacity?: number },
+) {
   doc.save();
   if (opts.radius) doc.roundedRect(x, y, w, h, opts.radius);
   else doc.rect(x, y, w, h);
   if (opts.fillOpacity !== undefined) doc.fillOpacity(opts.fillOpacity);
   if (opts.fill && opts.stroke) doc.lineWidth(opts.lineWidth ?? 0.6).fillAndStroke(opts.fill, opts.stroke);
   else if (opts.fill) doc.fill(opts.fill);
-  else if (opts.stroke) doc.lineWidth(opts.lineWidth ?? 0.6).strokeColor(opts.stroke).stroke();
+  else if (opts.stroke)
+    doc
+      .lineWidth(opts.lineWidth ?? 0.6)
+      .strokeColor(opts.stroke)
+      .stroke();
   doc.restore();
 }

@@ -39,7 +39,10 @@ export function describeKept(k: KeptRecords): string {
 const holdsAny = (k: KeptRecords) => k.approvedRevisions + k.releasedReports + k.acknowledgements > 0;
 
 async function projectRow(db: Database, workspaceId: string, id: string) {
-  const [p] = await db.select().from(projects).where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, id)));
+  const [p] = await db
+    .select()
+    .from(projects)
+    .where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, id)));
   return found(p, "The project");
 }
 
@@ -61,13 +64,21 @@ export async function deleteProjectGuarded(db: Database, actor: Actor, id: strin
   const kept = await keptRecords(db, id);
   const holds = holdsAny(kept);
   if (holds && actor.role !== "admin") {
-    throw conflict(`“${project.name}” holds ${describeKept(kept)}, which are kept. Archive the project instead; only an admin can delete it.`, "records_kept");
+    throw conflict(
+      `“${project.name}” holds ${describeKept(kept)}, which are kept. Archive the project instead; only an admin can delete it.`,
+      "records_kept",
+    );
   }
   if (holds && confirm === undefined) {
-    throw conflict(`“${project.name}” holds ${describeKept(kept)}. To delete them with it, confirm with the project's name.`, "confirmation_required");
+    throw conflict(
+      `“${project.name}” holds ${describeKept(kept)}. To delete them with it, confirm with the project's name.`,
+      "confirmation_required",
+    );
   }
   if (holds && confirm !== project.name) {
-    throw badRequest("The confirmation does not match the project's name.", [{ path: "confirm", message: `type the project's name exactly: ${project.name}` }]);
+    throw badRequest("The confirmation does not match the project's name.", [
+      { path: "confirm", message: `type the project's name exactly: ${project.name}` },
+    ]);
   }
   await db.transaction(async (tx) => {
     await tx.delete(projects).where(and(eq(projects.workspaceId, actor.workspaceId), eq(projects.id, id)));
@@ -75,7 +86,9 @@ export async function deleteProjectGuarded(db: Database, actor: Actor, id: strin
       workspaceId: actor.workspaceId,
       actorId: actor.userId,
       action: "project.deleted",
-      summary: holds ? `deleted the project “${project.name}” with ${describeKept(kept)}, confirmed by its name` : `deleted the project “${project.name}”`,
+      summary: holds
+        ? `deleted the project “${project.name}” with ${describeKept(kept)}, confirmed by its name`
+        : `deleted the project “${project.name}”`,
       data: { projectId: id, ...(holds ? { kept } : {}) },
     });
   });

@@ -21,10 +21,22 @@ const projectColumns = {
   archivedAt: projects.archivedAt,
 };
 
-type Row = { id: string; name: string; description: string; ownerId: string | null; ownerName: string | null; createdAt: Date; updatedAt: Date; archivedAt: Date | null };
+type Row = {
+  id: string;
+  name: string;
+  description: string;
+  ownerId: string | null;
+  ownerName: string | null;
+  createdAt: Date;
+  updatedAt: Date;
+  archivedAt: Date | null;
+};
 
 async function toProjects(db: Database, rows: Row[]): Promise<Project[]> {
-  const last = await lastStudies(db, rows.map((r) => r.id));
+  const last = await lastStudies(
+    db,
+    rows.map((r) => r.id),
+  );
   return rows.map((r) => ({
     ...r,
     createdAt: r.createdAt.toISOString(),
@@ -86,7 +98,10 @@ export async function updateProject(db: Database, actor: Actor, id: string, inpu
   await db.transaction(async (tx) => {
     await tx
       .update(projects)
-      .set({ ...(input.name !== undefined ? { name: input.name } : {}), ...(input.description !== undefined ? { description: input.description } : {}) })
+      .set({
+        ...(input.name !== undefined ? { name: input.name } : {}),
+        ...(input.description !== undefined ? { description: input.description } : {}),
+      })
       .where(and(eq(projects.workspaceId, actor.workspaceId), eq(projects.id, id)));
     if (input.name !== undefined && input.name !== before.name) {
       await recordActivity(tx, {

@@ -25,16 +25,40 @@ export function contributorChart(doc: Doc, c: Chart, x: number, y: number, w: nu
   // quarter grid lines so a bar's length reads without its number
   for (const f of [0, 0.25, 0.5, 0.75, 1]) {
     const gx = barX + barW * f;
-    doc.save().moveTo(gx, cy - 2).lineTo(gx, cy + (c.bars.length + 1) * 15).lineWidth(0.4).strokeColor(f === 0 ? "#a9a293" : "#ebe7de").stroke().restore();
-    if (f > 0) text(doc, `${Math.round(max * f * 100)} %`, gx - 20, cy + (c.bars.length + 1) * 15 + 1, { size: 6, color: FAINT, width: 40, align: "center" });
+    doc
+      .save()
+      .moveTo(gx, cy - 2)
+      .lineTo(gx, cy + (c.bars.length + 1) * 15)
+      .lineWidth(0.4)
+      .strokeColor(f === 0 ? "#a9a293" : "#ebe7de")
+      .stroke()
+      .restore();
+    if (f > 0)
+      text(doc, `${Math.round(max * f * 100)} %`, gx - 20, cy + (c.bars.length + 1) * 15 + 1, {
+        size: 6,
+        color: FAINT,
+        width: 40,
+        align: "center",
+      });
   }
   const rows = [...c.bars.map((b) => ({ label: b.source, share: b.share, ours: b.ours, rest: false }))];
   if (c.restShare > 0.0005) rows.push({ label: "all other sources", share: c.restShare, ours: false, rest: true });
   for (const b of rows) {
-    text(doc, b.label, x, cy + 1.5, { size: 7.5, weight: b.ours ? "bold" : "regular", color: b.rest ? FAINT : b.ours ? INK : MUTED, width: labelW - 8 });
+    text(doc, b.label, x, cy + 1.5, {
+      size: 7.5,
+      weight: b.ours ? "bold" : "regular",
+      color: b.rest ? FAINT : b.ours ? INK : MUTED,
+      width: labelW - 8,
+    });
     const bw = Math.max(0.8, (b.share / max) * barW);
     box(doc, barX, cy + 1, bw, 9.5, { fill: b.ours ? OURS : b.rest ? "#e3dfd5" : OTHERS, radius: 1.2 });
-    text(doc, formatShare(b.share), barX + barW + 4, cy + 1.5, { size: 7.5, weight: b.ours ? "bold" : "regular", width: valueW - 4, align: "right", color: b.ours ? INK : MUTED });
+    text(doc, formatShare(b.share), barX + barW + 4, cy + 1.5, {
+      size: 7.5,
+      weight: b.ours ? "bold" : "regular",
+      width: valueW - 4,
+      align: "right",
+      color: b.ours ? INK : MUTED,
+    });
     cy += 15;
   }
 }
@@ -49,9 +73,18 @@ function niceStep(range: number, target: number) {
 }
 
 /** Heading error against true heading, per tilt: the 5–95 % band of units and the median. */
-export function envelopeChart(doc: Doc, env: NonNullable<ReportContent["envelope"]>, limit: number | null, x: number, y: number, w: number, h: number) {
+export function envelopeChart(
+  doc: Doc,
+  env: NonNullable<ReportContent["envelope"]>,
+  limit: number | null,
+  x: number,
+  y: number,
+  w: number,
+  h: number,
+) {
   const tilts: Array<{ pitch: number; roll: number }> = [];
-  for (const p of env.points) if (!tilts.some((t) => t.pitch === p.pitchDeg && t.roll === p.rollDeg)) tilts.push({ pitch: p.pitchDeg, roll: p.rollDeg });
+  for (const p of env.points)
+    if (!tilts.some((t) => t.pitch === p.pitchDeg && t.roll === p.rollDeg)) tilts.push({ pitch: p.pitchDeg, roll: p.rollDeg });
   const lo = Math.min(...env.points.map((p) => p.p5), limit !== null ? -limit : 0);
   const hi = Math.max(...env.points.map((p) => p.p95), limit !== null ? limit : 0);
   const span = Math.max(hi - lo, 1e-6);
@@ -74,7 +107,14 @@ export function envelopeChart(doc: Doc, env: NonNullable<ReportContent["envelope
   }
   for (let hd = 0; hd <= 360; hd += 45) {
     const xx = px(hd);
-    doc.save().moveTo(xx, plotY).lineTo(xx, plotY + plotH).lineWidth(0.4).strokeColor(hd % 90 === 0 ? "#e3ded2" : "#f0ece4").stroke().restore();
+    doc
+      .save()
+      .moveTo(xx, plotY)
+      .lineTo(xx, plotY + plotH)
+      .lineWidth(0.4)
+      .strokeColor(hd % 90 === 0 ? "#e3ded2" : "#f0ece4")
+      .stroke()
+      .restore();
     text(doc, `${hd}°`, xx - 15, plotY + plotH + 4, { size: 6.5, color: MUTED, width: 30, align: "center" });
   }
   text(doc, "true heading", plotX + plotW - 80, plotY + plotH + 12, { size: 6.5, color: FAINT, width: 80, align: "right" });
@@ -98,13 +138,19 @@ export function envelopeChart(doc: Doc, env: NonNullable<ReportContent["envelope
     doc.save();
     doc.moveTo(px(ring[0].headingDeg), py(ring[0].p50));
     for (const p of ring.slice(1)) doc.lineTo(px(p.headingDeg), py(p.p50));
-    doc.lineWidth(i === 0 ? 1.3 : 0.9).strokeColor(colour).stroke();
+    doc
+      .lineWidth(i === 0 ? 1.3 : 0.9)
+      .strokeColor(colour)
+      .stroke();
     doc.restore();
     for (const key of ["p5", "p95"] as const) {
       doc.save();
       doc.moveTo(px(ring[0].headingDeg), py(ring[0][key]));
       for (const p of ring.slice(1)) doc.lineTo(px(p.headingDeg), py(p[key]));
-      doc.lineWidth(i === 0 ? 0.7 : 0.5).strokeColor(colour).strokeOpacity(i === 0 ? 0.9 : 0.6);
+      doc
+        .lineWidth(i === 0 ? 0.7 : 0.5)
+        .strokeColor(colour)
+        .strokeOpacity(i === 0 ? 0.9 : 0.6);
       if (i > 0) doc.dash(2, { space: 2 });
       doc.stroke().undash();
       doc.restore();
@@ -112,17 +158,38 @@ export function envelopeChart(doc: Doc, env: NonNullable<ReportContent["envelope
   });
   if (limit !== null) {
     for (const v of [limit, -limit]) {
-      doc.save().moveTo(plotX, py(v)).lineTo(plotX + plotW, py(v)).lineWidth(0.9).dash(4, { space: 3 }).strokeColor(COLOURS.fail).stroke().undash().restore();
+      doc
+        .save()
+        .moveTo(plotX, py(v))
+        .lineTo(plotX + plotW, py(v))
+        .lineWidth(0.9)
+        .dash(4, { space: 3 })
+        .strokeColor(COLOURS.fail)
+        .stroke()
+        .undash()
+        .restore();
     }
   }
   doc.restore();
-  if (limit !== null) text(doc, `limit ±${formatNumber(limit, 3)}°`, plotX + plotW - 84, py(limit) - 10, { size: 6.5, weight: "bold", color: COLOURS.fail, width: 80, align: "right" });
+  if (limit !== null)
+    text(doc, `limit ±${formatNumber(limit, 3)}°`, plotX + plotW - 84, py(limit) - 10, {
+      size: 6.5,
+      weight: "bold",
+      color: COLOURS.fail,
+      width: 80,
+      align: "right",
+    });
 
   // legend
   let lx = plotX;
   const ly = y + h + 4;
   tilts.forEach((t, i) => {
-    const label = t.pitch === 0 && t.roll === 0 ? "level" : [t.pitch ? `pitch ${t.pitch > 0 ? "+" : ""}${t.pitch}°` : "", t.roll ? `roll ${t.roll > 0 ? "+" : ""}${t.roll}°` : ""].filter(Boolean).join(", ");
+    const label =
+      t.pitch === 0 && t.roll === 0
+        ? "level"
+        : [t.pitch ? `pitch ${t.pitch > 0 ? "+" : ""}${t.pitch}°` : "", t.roll ? `roll ${t.roll > 0 ? "+" : ""}${t.roll}°` : ""]
+            .filter(Boolean)
+            .join(", ");
     const colour = TILT_COLOURS[i % TILT_COLOURS.length];
     if (i === 0) box(doc, lx, ly + 1.5, 12, 6, { fill: colour, fillOpacity: 0.18 });
     rule(doc, lx, ly + 4.5, lx + 12, colour, 1.1);
@@ -176,7 +243,15 @@ export function sideView(doc: Doc, stack: El[], x: number, y: number, w: number,
     const half = (Math.abs(Math.cos(b)) * e.size.x + Math.abs(Math.sin(b)) * e.size.y) / 2;
     const bond = parent ? e.bondThicknessUm / 1000 : 0;
     const z0 = parent ? parent.z1 + bond : 0;
-    placed.set(e.id, { e, x0: cx - half, x1: cx + half, z0, z1: z0 + e.size.z, bond0: parent ? parent.z1 : 0, depth: parent ? parent.depth + 1 : 0 });
+    placed.set(e.id, {
+      e,
+      x0: cx - half,
+      x1: cx + half,
+      z0,
+      z1: z0 + e.size.z,
+      bond0: parent ? parent.z1 : 0,
+      depth: parent ? parent.depth + 1 : 0,
+    });
     yawAbs.set(e.id, yaw);
     centre.set(e.id, { x: cx, y: cyy });
   }
@@ -205,10 +280,20 @@ export function sideView(doc: Doc, stack: El[], x: number, y: number, w: number,
   const bx1 = x + drawW - 2;
   const by = Z(baseZ);
   doc.save();
-  doc.moveTo(bx0, by).lineTo(bx1, by).lineTo(bx1 - 4, by + boardH / 2).lineTo(bx1, by + boardH).lineTo(bx0, by + boardH).lineTo(bx0 + 4, by + boardH / 2).closePath();
+  doc
+    .moveTo(bx0, by)
+    .lineTo(bx1, by)
+    .lineTo(bx1 - 4, by + boardH / 2)
+    .lineTo(bx1, by + boardH)
+    .lineTo(bx0, by + boardH)
+    .lineTo(bx0 + 4, by + boardH / 2)
+    .closePath();
   doc.fillOpacity(0.9).fill(KIND_COLOUR.board);
   doc.restore();
-  text(doc, `${board.e.id} (board, ${formatNumber(board.e.size.z, 2)} mm, drawn cut)`, bx0 + 8, by + boardH / 2 - 3.5, { size: 6.5, color: "#e9efe9" });
+  text(doc, `${board.e.id} (board, ${formatNumber(board.e.size.z, 2)} mm, drawn cut)`, bx0 + 8, by + boardH / 2 - 3.5, {
+    size: 6.5,
+    color: "#e9efe9",
+  });
 
   const labels: Array<{ p: Placed; yMid: number }> = [];
   for (const p of rest.sort((a, b) => a.depth - b.depth)) {
@@ -230,10 +315,27 @@ export function sideView(doc: Doc, stack: El[], x: number, y: number, w: number,
   for (const l of labels) {
     const ly = Math.max(l.yMid - 4, lastY);
     lastY = ly + (l.p.e.sources.length ? 18 : 11);
-    doc.save().moveTo(X(l.p.x1) + 1, l.yMid).lineTo(lx - 4, ly + 4).lineWidth(0.4).strokeColor("#a9a293").stroke().restore();
+    doc
+      .save()
+      .moveTo(X(l.p.x1) + 1, l.yMid)
+      .lineTo(lx - 4, ly + 4)
+      .lineWidth(0.4)
+      .strokeColor("#a9a293")
+      .stroke()
+      .restore();
     const ours = l.p.e.sources.length > 0;
-    text(doc, `${l.p.e.id}  ·  ${l.p.e.kind}, ${formatNumber(l.p.e.size.z * 1000, 3)} µm`, lx, ly, { size: 6.8, weight: ours ? "bold" : "regular", color: ours ? INK : MUTED, width: labelW - 6 });
-    if (ours) text(doc, l.p.e.sources.map((s) => s.slice(l.p.e.id.length + 1)).join(", "), lx, ly + 8.5, { size: 6.2, color: OURS, width: labelW - 6 });
+    text(doc, `${l.p.e.id}  ·  ${l.p.e.kind}, ${formatNumber(l.p.e.size.z * 1000, 3)} µm`, lx, ly, {
+      size: 6.8,
+      weight: ours ? "bold" : "regular",
+      color: ours ? INK : MUTED,
+      width: labelW - 6,
+    });
+    if (ours)
+      text(doc, l.p.e.sources.map((s) => s.slice(l.p.e.id.length + 1)).join(", "), lx, ly + 8.5, {
+        size: 6.2,
+        color: OURS,
+        width: labelW - 6,
+      });
   }
   const ptPerMm = 72 / 25.4;
   const scale = `scale about ${formatNumber(sx / ptPerMm, 2)} : 1 across; heights a further ${formatNumber(sz / sx, 2)}× exaggerated`;

@@ -63,9 +63,14 @@ export function supplierSources(stack: StackFile, supplier: { id: string; name: 
 }
 
 /** Checks that a report may be built from this study, and why not otherwise (null: it may). */
-export function reportBlocker(study: Pick<Study, "status" | "number" | "stack" | "result">, revision: { number: number; status: string; stack: StackFile }): string | null {
-  if (revision.status !== "approved") return `Stack revision ${revision.number} is not approved. Reports are built from approved revisions only.`;
-  if (study.status !== "finished" || !study.result) return `Study ${study.number} is ${study.status}. Reports are built from finished studies only.`;
+export function reportBlocker(
+  study: Pick<Study, "status" | "number" | "stack" | "result">,
+  revision: { number: number; status: string; stack: StackFile },
+): string | null {
+  if (revision.status !== "approved")
+    return `Stack revision ${revision.number} is not approved. Reports are built from approved revisions only.`;
+  if (study.status !== "finished" || !study.result)
+    return `Study ${study.number} is ${study.status}. Reports are built from finished studies only.`;
   if (stable(study.stack) !== stable(revision.stack)) {
     return `Study ${study.number} ran on an earlier state of stack revision ${revision.number}. Run a study on the approved revision.`;
   }
@@ -77,7 +82,8 @@ export function buildReportContent(input: ReportInputs, builtAt = new Date()): R
   const blocked = reportBlocker(study, revision);
   if (blocked) throw conflict(blocked, "not_reportable");
   const parsed = ResultForReportSchema.safeParse(study.result);
-  if (!parsed.success) throw conflict(`The result of study ${study.number} cannot be read for a report. Run the study again.`, "not_reportable");
+  if (!parsed.success)
+    throw conflict(`The result of study ${study.number} cannot be read for a report. Run the study again.`, "not_reportable");
   const result = parsed.data;
   const stack = revision.stack;
 
@@ -157,7 +163,11 @@ export function buildReportContent(input: ReportInputs, builtAt = new Date()): R
     const c = contributorsOf.get(r.metric);
     if (!c) return [];
     const ranked = c.sources
-      .map((s) => ({ source: s.source, share: Number.isFinite(s.linearShare) ? s.linearShare : (s.mcShare ?? 0), ours: ourIds.has(s.source) }))
+      .map((s) => ({
+        source: s.source,
+        share: Number.isFinite(s.linearShare) ? s.linearShare : (s.mcShare ?? 0),
+        ours: ourIds.has(s.source),
+      }))
       .filter((s) => s.share > 0)
       .sort((a, b) => b.share - a.share);
     const bars = ranked.slice(0, CHART_BARS);

@@ -67,7 +67,10 @@ export async function reportFile(db: Database, actor: Actor, id: string, kind: R
   const row = await visibleRow(db, actor, id);
   let file: { data: Buffer; sha256: string | null; fileName: string; contentType: string };
   if (row.status === "released") {
-    const [stored] = await db.select().from(reportFiles).where(and(eq(reportFiles.reportId, id), eq(reportFiles.kind, kind)));
+    const [stored] = await db
+      .select()
+      .from(reportFiles)
+      .where(and(eq(reportFiles.reportId, id), eq(reportFiles.kind, kind)));
     const f = found(stored, "The report file");
     file = { data: f.data, sha256: f.sha256, fileName: f.fileName, contentType: f.contentType };
   } else {

@@ -32,14 +32,21 @@ export function decodeSnapshot(dataUrl: string): Buffer {
   const bytes = Buffer.from(dataUrl.slice(dataUrl.indexOf(",") + 1), "base64");
   const signature = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
   const field = (message: string) => badRequest("The 3D snapshot is not usable.", [{ path: "snapshotPng", message }]);
-  if (bytes.length < 33 || !bytes.subarray(0, 8).equals(signature) || bytes.toString("latin1", 12, 16) !== "IHDR") throw field("not a PNG image");
+  if (bytes.length < 33 || !bytes.subarray(0, 8).equals(signature) || bytes.toString("latin1", 12, 16) !== "IHDR")
+    throw field("not a PNG image");
   const w = bytes.readUInt32BE(16);
   const h = bytes.readUInt32BE(20);
   if (w < 16 || h < 16 || w > 8192 || h > 8192) throw field(`a ${w} × ${h} image is outside 16 to 8192 pixels a side`);
   return bytes;
 }
 
-async function inputsFor(db: Database, actor: Actor, studyId: string, supplierId: string, capability: { cpk: number; overrides: Record<string, number> }) {
+async function inputsFor(
+  db: Database,
+  actor: Actor,
+  studyId: string,
+  supplierId: string,
+  capability: { cpk: number; overrides: Record<string, number> },
+) {
   const study = await getStudy(db, actor.workspaceId, studyId);
   const [rev] = await db
     .select({ revision: stackRevisions, approvedByName: approver.name, projectName: projects.name })
@@ -52,7 +59,8 @@ async function inputsFor(db: Database, actor: Actor, studyId: string, supplierId
   try {
     supplier = await getSupplier(db, actor.workspaceId, supplierId);
   } catch (e) {
-    if (e instanceof HttpError && e.status === 404) throw badRequest("The supplier company does not exist.", [{ path: "supplierId", message: "no such supplier in this workspace" }]);
+    if (e instanceof HttpError && e.status === 404)
+      throw badRequest("The supplier company does not exist.", [{ path: "supplierId", message: "no such supplier in this workspace" }]);
     throw e;
   }
   return {
@@ -83,7 +91,13 @@ export async function createReport(db: Database, actor: Actor, studyId: string, 
       const [latest] = await tx
         .select({ id: reports.id, number: reports.number, revision: reports.revision, status: reports.status })
         .from(reports)
-        .where(and(eq(reports.workspaceId, actor.workspaceId), eq(reports.projectId, inputs.project.id), eq(reports.supplierId, inputs.supplier.id)))
+        .where(
+          and(
+            eq(reports.workspaceId, actor.workspaceId),
+            eq(reports.projectId, inputs.project.id),
+            eq(reports.supplierId, inputs.supplier.id),
+          ),
+        )
         .orderBy(desc(reports.revision))
         .limit(1);
       if (latest?.status === "draft") {
@@ -134,17 +148,22 @@ export async function createReport(db: Database, actor: Actor, studyId: string, 
 
 function assertDraft(row: ReportRow) {
   if (row.status !== "draft") {
-    throw conflict(`${reportCode(row.number)} revision ${row.revision} is released and frozen. Build a new revision to change it.`, "report_frozen");
+    throw conflict(
+      `${reportCode(row.number)} revision ${row.revision} is released and frozen. Build a new revision to change it.`,
+      "report_frozen",
+    );
   }
 }
 
 export async function updateReport(db: Database, actor: Actor, id: string, input: UpdateReport, baseURL: string) {
   const row = await visibleRow(db, actor, id);
   assertDraft(row);
-  if (!row.studyId || !row.supplierId) throw conflict("The study or the supplier of this draft was deleted. Discard it and build a new one.", "not_reportable");
+  if (!row.studyId || !row.supplierId)
+    throw conflict("The study or the supplier of this draft was deleted. Discard it and build a new one.", "not_reportable");
   const capability = { cpk: input.cpk ?? row.capability.cpk, overrides: input.cpkOverrides ?? row.capability.overrides };
   const content = buildReportContent(await inputsFor(db, actor, row.studyId, row.supplierId, capability));
-  const snapshot = input.snapshotPng === undefined ? row.snapshotPng : input.snapshotPng === null ? null : decodeSnapshot(input.snapshotPng);
+  const snapshot =
+    input.snapshotPng === undefined ? row.snapshotPng : input.snapshotPng === null ? null : decodeSnapshot(input.snapshotPng);
   await db.transaction(async (tx) => {
     const changed = await tx
       .update(reports)
@@ -168,7 +187,10 @@ export async function deleteReport(db: Database, actor: Actor, id: string) {
   const row = await visibleRow(db, actor, id);
   assertDraft(row);
   await db.transaction(async (tx) => {
-    const gone = await tx.delete(reports).where(and(eq(reports.id, id), eq(reports.status, "draft"))).returning({ id: reports.id });
+    const gone = await tx
+      .delete(reports)
+      .where(and(eq(reports.id, id), eq(reports.status, "draft")))
+      .returning({ id: reports.id });
     if (!gone.length) throw conflict("The report was released meanwhile; it can no longer be discarded.", "report_frozen");
     await tx.delete(comments).where(and(eq(comments.targetType, "report"), eq(comments.targetId, id)));
     await recordActivity(tx, {
@@ -188,12 +210,18 @@ export async function releaseReport(db: Database, actor: Actor, id: string, comm
   const c = row.content as unknown as ReportContent;
   if (row.revisionId) {
     // the revision cannot lose its approval today, but the report must never outlive it silently
-    const [rev] = await db.select({ status: stackRevisions.status, number: stackRevisions.number }).from(stackRevisions).where(eq(stackRevisions.id, row.revisionId));
-    if (rev && rev.status !== "approved") throw conflict(`Stack revision ${rev.number} is no longer approved; this report cannot be released.`, "not_reportable");
+    const [rev] = await db
+      .select({ status: stackRevisions.status, number: stackRevisions.number })
+      .from(stackRevisions)
+      .where(eq(stackRevisions.id, row.revisionId));
+    if (rev && rev.status !== "approved")
+      throw conflict(`Stack revision ${rev.number} is no longer approved; this report cannot be released.`, "not_reportable");
   }
   const releasedAt = new Date();
   const meta = await metaFor(db, row, baseURL, { status: "released", releasedAt: releasedAt.toISOString(), releasedByName: actor.name });
-  const rendered = await Promise.all((["pdf", "xlsx", "csv"] as const).map(async (kind) => ({ kind, data: await render(row, meta, kind) })));
+  const rendered = await Promise.all(
+    (["pdf", "xlsx", "csv"] as const).map(async (kind) => ({ kind, data: await render(row, meta, kind) })),
+  );
   await db.transaction(async (tx) => {
     const changed = await tx
       .update(reports)
@@ -201,9 +229,19 @@ export async function releaseReport(db: Database, actor: Actor, id: string, comm
       .where(and(eq(reports.id, id), eq(reports.status, "draft")))
       .returning({ id: reports.id });
     if (!changed.length) throw conflict("The report was released meanwhile.", "report_frozen");
-    await tx.insert(reportFiles).values(
-      rendered.map((f) => ({ reportId: id, kind: f.kind, fileName: fileName(row, f.kind), contentType: FILE_TYPES[f.kind], data: f.data, size: f.data.length, sha256: sha256(f.data) })),
-    );
+    await tx
+      .insert(reportFiles)
+      .values(
+        rendered.map((f) => ({
+          reportId: id,
+          kind: f.kind,
+          fileName: fileName(row, f.kind),
+          contentType: FILE_TYPES[f.kind],
+          data: f.data,
+          size: f.data.length,
+          sha256: sha256(f.data),
+        })),
+      );
     await tx.insert(comments).values({
       workspaceId: actor.workspaceId,
       projectId: row.projectId,
@@ -227,7 +265,8 @@ export async function releaseReport(db: Database, actor: Actor, id: string, comm
 
 export async function acknowledgeReport(db: Database, actor: Actor, id: string, comment: string | undefined, baseURL: string) {
   const row = await visibleRow(db, actor, id);
-  if (row.acknowledgedAt) throw conflict(`${reportCode(row.number)} revision ${row.revision} is already acknowledged.`, "already_acknowledged");
+  if (row.acknowledgedAt)
+    throw conflict(`${reportCode(row.number)} revision ${row.revision} is already acknowledged.`, "already_acknowledged");
   const c = row.content as unknown as ReportContent;
   await db.transaction(async (tx) => {
     const changed = await tx
@@ -290,7 +329,17 @@ export async function returnReport(db: Database, actor: Actor, id: string, comme
   const row = await visibleRow(db, actor, id);
   assertDraft(row);
   await db.transaction(async (tx) => {
-    await tx.insert(comments).values({ workspaceId: actor.workspaceId, projectId: row.projectId, targetType: "report", targetId: id, authorId: actor.userId, kind: "returned", body: comment });
+    await tx
+      .insert(comments)
+      .values({
+        workspaceId: actor.workspaceId,
+        projectId: row.projectId,
+        targetType: "report",
+        targetId: id,
+        authorId: actor.userId,
+        kind: "returned",
+        body: comment,
+      });
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,
       projectId: row.projectId,

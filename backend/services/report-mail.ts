@@ -12,7 +12,17 @@ import { getReport, reportLabel, reportLink, visibleRow } from "./report-queries
 import { reportCode } from "@shared/reports/format";
 import { formatIndex } from "@shared/format";
 
-function mailBody(opts: { contact: string; workspace: string; sender: string; code: string; revision: number; c: ReportContent; link: string; sha: string; message?: string }) {
+function mailBody(opts: {
+  contact: string;
+  workspace: string;
+  sender: string;
+  code: string;
+  revision: number;
+  c: ReportContent;
+  link: string;
+  sha: string;
+  message?: string;
+}) {
   const { c } = opts;
   const cpk = `Cpk ≥ ${formatIndex(c.capability.cpk)}${Object.keys(c.capability.overrides).length || c.tolerances.some((t) => t.raised) ? " (some tolerances ask more; see the table)" : ""}`;
   const lines = [
@@ -44,14 +54,33 @@ ${opts.message ? `<p style="border-left:3px solid #d9d4c7;padding-left:10px">${e
 }
 
 /** Mails each contact of the supplier the link and the stored PDF; records who received it. */
-export async function sendReport(db: Database, mailService: MailService | null, actor: Actor, id: string, message: string | undefined, baseURL: string): Promise<SendResult> {
+export async function sendReport(
+  db: Database,
+  mailService: MailService | null,
+  actor: Actor,
+  id: string,
+  message: string | undefined,
+  baseURL: string,
+): Promise<SendResult> {
   const row = await visibleRow(db, actor, id);
-  if (row.status !== "released") throw conflict(`${reportCode(row.number)} revision ${row.revision} is a draft. A reviewer releases it before it is sent.`, "not_released");
+  if (row.status !== "released")
+    throw conflict(
+      `${reportCode(row.number)} revision ${row.revision} is a draft. A reviewer releases it before it is sent.`,
+      "not_released",
+    );
   if (!row.supplierId) throw conflict("The supplier company of this report was deleted; there is no one to send it to.", "no_contacts");
-  const contacts = await db.select().from(supplierContacts).where(eq(supplierContacts.supplierId, row.supplierId)).orderBy(asc(supplierContacts.name));
+  const contacts = await db
+    .select()
+    .from(supplierContacts)
+    .where(eq(supplierContacts.supplierId, row.supplierId))
+    .orderBy(asc(supplierContacts.name));
   const c = row.content as unknown as ReportContent;
-  if (contacts.length === 0) throw conflict(`${c.supplier.name} has no contacts to send to. An admin adds them on the Suppliers page.`, "no_contacts");
-  const [pdf] = await db.select().from(reportFiles).where(and(eq(reportFiles.reportId, id), eq(reportFiles.kind, "pdf")));
+  if (contacts.length === 0)
+    throw conflict(`${c.supplier.name} has no contacts to send to. An admin adds them on the Suppliers page.`, "no_contacts");
+  const [pdf] = await db
+    .select()
+    .from(reportFiles)
+    .where(and(eq(reportFiles.reportId, id), eq(reportFiles.kind, "pdf")));
   const file = found(pdf, "The report's PDF");
   const mail = requireMail(mailService);
   const link = reportLink(baseURL, id);
@@ -59,7 +88,17 @@ export async function sendReport(db: Database, mailService: MailService | null, 
   const sent: Array<{ name: string; email: string }> = [];
   const failed: Array<{ name: string; email: string; error: string }> = [];
   for (const contact of contacts) {
-    const body = mailBody({ contact: contact.name, workspace: actor.workspaceName, sender: actor.name, code, revision: row.revision, c, link, sha: file.sha256, message });
+    const body = mailBody({
+      contact: contact.name,
+      workspace: actor.workspaceName,
+      sender: actor.name,
+      code,
+      revision: row.revision,
+      c,
+      link,
+      sha: file.sha256,
+      message,
+    });
     try {
       await mail.send({
         workspaceId: actor.workspaceId,
@@ -71,10 +110,19 @@ export async function sendReport(db: Database, mailService: MailService | null, 
       });
       sent.push({ name: contact.name, email: contact.email });
     } catch (e) {
-      failed.push({ name: contact.name, email: contact.email, error: e instanceof Error ? e.message.slice(0, 200) : "the mail server refused the message" });
+      failed.push({
+        name: contact.name,
+        email: contact.email,
+        error: e instanceof Error ? e.message.slice(0, 200) : "the mail server refused the message",
+      });
     }
   }
-  if (sent.length === 0) throw new HttpError(502, "mail_failed", `The mail server refused every message: ${failed[0]?.error ?? "unknown reason"}. Nothing was recorded as sent.`);
+  if (sent.length === 0)
+    throw new HttpError(
+      502,
+      "mail_failed",
+      `The mail server refused every message: ${failed[0]?.error ?? "unknown reason"}. Nothing was recorded as sent.`,
+    );
   await db.transaction(async (tx) => {
     await tx.insert(reportSends).values({ reportId: id, sentBy: actor.userId, recipients: sent, message: message ?? "" });
     await recordActivity(tx, {

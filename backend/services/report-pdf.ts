@@ -6,7 +6,16 @@
 import type { ReportContent } from "@shared/schemas/reports";
 import { contributorChart, contributorChartHeight, envelopeChart, OURS, sideView } from "./report-charts";
 import { box, COLOURS, createDoc, FAINT, finish, INK, LINE, measure, MUTED, PAPER, paragraph, rule, text, type Doc } from "./pdf-draw";
-import { formatCount, formatFraction, formatIndex, formatNumber, formatNumberUnit, formatShare, formatWritten, formatYieldRange } from "@shared/format";
+import {
+  formatCount,
+  formatFraction,
+  formatIndex,
+  formatNumber,
+  formatNumberUnit,
+  formatShare,
+  formatWritten,
+  formatYieldRange,
+} from "@shared/format";
 import { fmtDate, fmtDateTime } from "./report-format";
 import { distLabel } from "@shared/reports/format";
 
@@ -80,7 +89,14 @@ type Col = { key: string; label: string; w: number; align?: "left" | "right" | "
 const caps = (s: string) => s.replace(/[a-z]/g, (ch) => ch.toUpperCase());
 
 function tableHeader(doc: Doc, cols: Col[], x: number, y: number) {
-  box(doc, x, y, cols.reduce((a, c) => a + c.w, 0), 18, { fill: PAPER });
+  box(
+    doc,
+    x,
+    y,
+    cols.reduce((a, c) => a + c.w, 0),
+    18,
+    { fill: PAPER },
+  );
   let cx = x;
   for (const c of cols) {
     text(doc, caps(c.label), cx + 4, y + 6, { size: 6.2, weight: "bold", color: MUTED, width: c.w - 8, align: c.align ?? "left" });
@@ -95,7 +111,14 @@ function cover(l: Layout, c: ReportContent, meta: ReportMeta) {
   brandStrip(doc, 0, 5);
   text(doc, "ORTHOSTACK", ML, 30, { size: 8.5, weight: "heavy", tracking: 2.2 });
   text(doc, "Supplier tolerance report", ML + 86, 30, { size: 8.5, color: MUTED });
-  pill(doc, meta.status === "released" ? "RELEASED" : "DRAFT · NOT RELEASED", ML + CW, 27, meta.status === "released" ? COLOURS.pass : COLOURS.fail, "right");
+  pill(
+    doc,
+    meta.status === "released" ? "RELEASED" : "DRAFT · NOT RELEASED",
+    ML + CW,
+    27,
+    meta.status === "released" ? COLOURS.pass : COLOURS.fail,
+    "right",
+  );
 
   let y = 78;
   text(doc, `${meta.code}  ·  REVISION ${meta.revision}`, ML, y, { size: 8.5, weight: "bold", color: OURS });
@@ -109,14 +132,27 @@ function cover(l: Layout, c: ReportContent, meta: ReportMeta) {
   const facts: Array<[string, string]> = [
     ["Project", c.project.name],
     ["Stack revision", `${c.revision.number}${c.revision.name ? ` — ${c.revision.name}` : ""}`],
-    ["Approved", c.revision.approvedAt ? `${fmtDate(c.revision.approvedAt)}${c.revision.approvedByName ? ` by ${c.revision.approvedByName}` : ""}` : "—"],
+    [
+      "Approved",
+      c.revision.approvedAt
+        ? `${fmtDate(c.revision.approvedAt)}${c.revision.approvedByName ? ` by ${c.revision.approvedByName}` : ""}`
+        : "—",
+    ],
     ["Study", `${c.study.number}${c.study.label ? ` — ${c.study.label}` : ""}`],
     ["Trials and seed", `${formatCount(c.study.trials)} trials, seed ${c.study.seed}`],
     ["Report", `${meta.code}, revision ${meta.revision}`],
-    ["Status", meta.status === "released" ? `Released ${fmtDate(meta.releasedAt)}${meta.releasedByName ? ` by ${meta.releasedByName}` : ""}` : "Draft: not released, not for production"],
+    [
+      "Status",
+      meta.status === "released"
+        ? `Released ${fmtDate(meta.releasedAt)}${meta.releasedByName ? ` by ${meta.releasedByName}` : ""}`
+        : "Draft: not released, not for production",
+    ],
     ["Date", fmtDate(meta.status === "released" ? meta.releasedAt : meta.createdAt)],
     ["Prepared by", meta.createdByName ?? "—"],
-    ["Capability asked", `Cpk ≥ ${formatIndex(c.capability.cpk)}${Object.keys(c.capability.overrides).length ? " (some tolerances differ)" : ""}`],
+    [
+      "Capability asked",
+      `Cpk ≥ ${formatIndex(c.capability.cpk)}${Object.keys(c.capability.overrides).length ? " (some tolerances differ)" : ""}`,
+    ],
   ];
   const colW = CW / 2;
   const rows = Math.ceil(facts.length / 2);
@@ -140,7 +176,11 @@ function cover(l: Layout, c: ReportContent, meta: ReportMeta) {
   const tiles: Array<[string, string, string]> = [
     [String(c.tolerances.length), c.tolerances.length === 1 ? "tolerance assigned to you" : "tolerances assigned to you", INK],
     [`${fed.length} of ${c.requirements.length}`, "requirements your tolerances feed", INK],
-    [`${passing} of ${c.requirements.length}`, "requirements predicted to pass", passing === c.requirements.length ? COLOURS.pass : COLOURS.fail],
+    [
+      `${passing} of ${c.requirements.length}`,
+      "requirements predicted to pass",
+      passing === c.requirements.length ? COLOURS.pass : COLOURS.fail,
+    ],
     [formatIndex(c.capability.cpk), "Cpk asked of your process", OURS],
   ];
   const tw = (CW - 3 * 8) / 4;
@@ -156,7 +196,8 @@ function cover(l: Layout, c: ReportContent, meta: ReportMeta) {
   // the stack: the engineer's 3D snapshot, or our schematic side view
   const figH = 250;
   text(doc, meta.snapshot ? "The stack, from the 3D view" : "The stack in side view (schematic)", ML, y, { size: 8, weight: "bold" });
-  if (!meta.snapshot) text(doc, "your elements outlined, your sources named", ML + CW - 220, y, { size: 7, color: FAINT, width: 220, align: "right" });
+  if (!meta.snapshot)
+    text(doc, "your elements outlined, your sources named", ML + CW - 220, y, { size: 7, color: FAINT, width: 220, align: "right" });
   y += 13;
   if (meta.snapshot) {
     box(doc, ML, y, CW, figH, { fill: "#1d2731", radius: 3 });
@@ -223,11 +264,23 @@ function toleranceTable(l: Layout, c: ReportContent) {
     paragraph(doc, t.quantity, cell(2), y, cols[2].w - 8, { size: 7, lineHeight: 9, color: MUTED });
     const tx = cell(3);
     text(doc, formatWritten(t.tol, t.unit, "±"), tx, y, { size: 7.5, weight: "bold", width: cols[3].w - 8, align: "right" });
-    if (t.mean) text(doc, `target ${t.mean > 0 ? "+" : ""}${formatWritten(t.mean, t.unit)}`, tx - 20, y + 10, { size: 6.2, color: MUTED, width: cols[3].w + 12, align: "right" });
+    if (t.mean)
+      text(doc, `target ${t.mean > 0 ? "+" : ""}${formatWritten(t.mean, t.unit)}`, tx - 20, y + 10, {
+        size: 6.2,
+        color: MUTED,
+        width: cols[3].w + 12,
+        align: "right",
+      });
     text(doc, distLabel(t.dist, t.sigmas), cell(4), y, { size: 7.5, width: cols[4].w - 8 });
     text(doc, t.stage, cell(5), y, { size: 7.5, width: cols[5].w - 8 });
     anyRaised ||= t.raised;
-    text(doc, `${formatIndex(t.cpk)}${t.raised ? "*" : ""}`, cell(6), y, { size: 7.5, weight: "bold", color: OURS, width: cols[6].w - 8, align: "right" });
+    text(doc, `${formatIndex(t.cpk)}${t.raised ? "*" : ""}`, cell(6), y, {
+      size: 7.5,
+      weight: "bold",
+      color: OURS,
+      width: cols[6].w - 8,
+      align: "right",
+    });
     text(doc, formatNumberUnit(t.sigmaMax, t.unit), cell(7), y, { size: 7.5, weight: "bold", width: cols[7].w - 8, align: "right" });
     text(doc, formatNumberUnit(t.sigmaModelled, t.unit), cell(8), y, { size: 7.5, color: MUTED, width: cols[8].w - 8, align: "right" });
     l.y += rh;
@@ -239,7 +292,9 @@ function toleranceTable(l: Layout, c: ReportContent) {
     c.tolerances.some((t) => /\.(x|y)$/.test(t.source))
       ? "Placement offsets (x, y) move an element without turning it: they matter for overhang and clearance, not for the angles this study predicts."
       : "",
-    anyRaised ? "* Raised above the Cpk chosen for this report: the study assumed a tighter process for this source, and its predictions hold only if the process is at least that capable." : "",
+    anyRaised
+      ? "* Raised above the Cpk chosen for this report: the study assumed a tighter process for this source, and its predictions hold only if the process is at least that capable."
+      : "",
   ].filter(Boolean);
   for (const n of notes) {
     const h = paragraph(doc, n, ML, 0, CW, { size: 7, color: MUTED }, false);
@@ -259,12 +314,25 @@ function shareMatrix(l: Layout, c: ReportContent) {
   const needed = 30 + 18 + c.tolerances.length * 15 + 14 * reqs.length;
   l.ensure(Math.min(needed, 260));
   text(doc, "Where each tolerance matters", ML, l.y, { size: 9, weight: "bold" });
-  text(doc, "share of each requirement's spread (linearised), blank below 0.1 %", ML + CW - 260, l.y + 1, { size: 7, color: FAINT, width: 260, align: "right" });
+  text(doc, "share of each requirement's spread (linearised), blank below 0.1 %", ML + CW - 260, l.y + 1, {
+    size: 7,
+    color: FAINT,
+    width: 260,
+    align: "right",
+  });
   l.y += 15;
   const header = () => {
     box(doc, ML, l.y, labelW + cellW * reqs.length, 16, { fill: PAPER });
     text(doc, "SOURCE", ML + 4, l.y + 5, { size: 6.2, weight: "bold", color: MUTED });
-    reqs.forEach((r, j) => text(doc, `R${c.requirements.indexOf(r) + 1}`, ML + labelW + j * cellW, l.y + 5, { size: 6.5, weight: "bold", color: MUTED, width: cellW, align: "center" }));
+    reqs.forEach((r, j) =>
+      text(doc, `R${c.requirements.indexOf(r) + 1}`, ML + labelW + j * cellW, l.y + 5, {
+        size: 6.5,
+        weight: "bold",
+        color: MUTED,
+        width: cellW,
+        align: "center",
+      }),
+    );
     l.y += 16;
   };
   header();
@@ -279,7 +347,13 @@ function shareMatrix(l: Layout, c: ReportContent) {
       const cx = ML + labelW + j * cellW;
       if (share >= 0.001) {
         box(doc, cx + 2, l.y + 1.5, cellW - 4, 12, { fill: OURS, fillOpacity: Math.min(0.85, 0.1 + share * 1.6), radius: 1.5 });
-        text(doc, formatShare(share), cx, l.y + 4, { size: 6.8, weight: share >= 0.25 ? "bold" : "regular", color: share >= 0.35 ? "#ffffff" : INK, width: cellW, align: "center" });
+        text(doc, formatShare(share), cx, l.y + 4, {
+          size: 6.8,
+          weight: share >= 0.25 ? "bold" : "regular",
+          color: share >= 0.35 ? "#ffffff" : INK,
+          width: cellW,
+          align: "center",
+        });
       }
     });
     l.y += 15;
@@ -349,7 +423,13 @@ function requirementsTable(l: Layout, c: ReportContent) {
     const pxx = resX - 4 + (cols[6].w - pw) / 2;
     box(doc, pxx, y - 1.5, pw, 12, { fill: colour, radius: 2 });
     text(doc, label, pxx + 5, y + 1, { size: 6.5, weight: "heavy", color: "#ffffff" });
-    text(doc, formatShare(r.supplierShare), cell(7), y, { size: 7.5, weight: r.fed ? "bold" : "regular", color: r.fed ? OURS : MUTED, width: cols[7].w - 8, align: "right" });
+    text(doc, formatShare(r.supplierShare), cell(7), y, {
+      size: 7.5,
+      weight: r.fed ? "bold" : "regular",
+      color: r.fed ? OURS : MUTED,
+      width: cols[7].w - 8,
+      align: "right",
+    });
     l.y += rh;
     rule(doc, ML, l.y, ML + CW, LINE, 0.5);
   });
@@ -408,17 +488,33 @@ function kv(l: Layout, rows: Array<[string, string]>) {
 
 function assumptions(l: Layout, c: ReportContent, meta: ReportMeta) {
   const s = c.study;
-  section(l, c.envelope ? "5" : "4", "Assumptions of the study", "The predictions of this report hold for these settings. The same stack, settings, seed and engine give the same numbers.");
+  section(
+    l,
+    c.envelope ? "5" : "4",
+    "Assumptions of the study",
+    "The predictions of this report hold for these settings. The same stack, settings, seed and engine give the same numbers.",
+  );
   const site = s.site
     ? `${formatNumber(s.inclinationDeg, 4)}° (dip), from the ${s.site.model} at ${formatNumber(s.site.latitudeDeg, 4)}°, ${formatNumber(s.site.longitudeDeg, 4)}°, ${s.site.altitudeKm} km on ${s.site.date}`
     : `${formatNumber(s.inclinationDeg, 4)}° (dip), as entered`;
   const tilts = s.tilts.map((t) => (t.pitchDeg === 0 && t.rollDeg === 0 ? "level" : `pitch ${t.pitchDeg}°, roll ${t.rollDeg}°`)).join("; ");
   kv(l, [
     ["Field inclination", site],
-    ["Calibration", s.calibration.after === "none" ? "none: every deviation reaches the product" : `after the ${s.calibration.after} stage, residual ${s.calibration.residual ?? "none"}`],
-    ["Trials and seed", `${formatCount(s.trials)} Monte Carlo trials (${s.sampling === "lhs" ? "Latin hypercube" : "random"} sampling), seed ${s.seed}`],
+    [
+      "Calibration",
+      s.calibration.after === "none"
+        ? "none: every deviation reaches the product"
+        : `after the ${s.calibration.after} stage, residual ${s.calibration.residual ?? "none"}`,
+    ],
+    [
+      "Trials and seed",
+      `${formatCount(s.trials)} Monte Carlo trials (${s.sampling === "lhs" ? "Latin hypercube" : "random"} sampling), seed ${s.seed}`,
+    ],
     ["Heading sweep", `every ${s.headingStepDeg}° of heading at each tilt: ${tilts}`],
-    ["Stack", `revision ${c.revision.number}${c.revision.name ? `, ${c.revision.name}` : ""}, approved ${fmtDate(c.revision.approvedAt)}; ${c.stack.length} elements`],
+    [
+      "Stack",
+      `revision ${c.revision.number}${c.revision.name ? `, ${c.revision.name}` : ""}, approved ${fmtDate(c.revision.approvedAt)}; ${c.stack.length} elements`,
+    ],
     ["Engine", s.engine || "—"],
     ["Built", `${fmtDateTime(c.builtAt)} from study ${s.number}, finished ${fmtDateTime(s.finishedAt)}`],
     ...(meta.note ? ([["Note from the engineer", meta.note]] as Array<[string, string]>) : []),
@@ -457,25 +553,51 @@ function decoratePages(doc: Doc, meta: ReportMeta, c: ReportContent) {
     if (i > range.start) {
       brandStrip(doc, 0, 3);
       text(doc, "ORTHOSTACK", ML, 30, { size: 7, weight: "heavy", tracking: 1.8 });
-      text(doc, `${meta.code} revision ${meta.revision}  ·  ${c.supplier.name}  ·  ${c.project.name}`, ML + 80, 30, { size: 7, color: MUTED, width: CW - 80 - 100 });
-      pill(doc, meta.status === "released" ? "RELEASED" : "DRAFT", ML + CW, 26, meta.status === "released" ? COLOURS.pass : COLOURS.fail, "right");
+      text(doc, `${meta.code} revision ${meta.revision}  ·  ${c.supplier.name}  ·  ${c.project.name}`, ML + 80, 30, {
+        size: 7,
+        color: MUTED,
+        width: CW - 80 - 100,
+      });
+      pill(
+        doc,
+        meta.status === "released" ? "RELEASED" : "DRAFT",
+        ML + CW,
+        26,
+        meta.status === "released" ? COLOURS.pass : COLOURS.fail,
+        "right",
+      );
       rule(doc, ML, 48, ML + CW, LINE);
     }
     if (meta.status === "draft") {
       doc.save();
       doc.rotate(-35, { origin: [W / 2, H / 2] });
-      text(doc, "DRAFT", W / 2 - 300, H / 2 - 50, { size: 110, weight: "heavy", color: COLOURS.fail, opacity: 0.06, width: 600, align: "center" });
+      text(doc, "DRAFT", W / 2 - 300, H / 2 - 50, {
+        size: 110,
+        weight: "heavy",
+        color: COLOURS.fail,
+        opacity: 0.06,
+        width: 600,
+        align: "center",
+      });
       doc.restore();
     }
     rule(doc, ML, 800, ML + CW, LINE);
-    text(doc, "Predictions from a model of the tolerances entered; they do not replace qualification of built parts.", ML, 807, { size: 6.5, color: FAINT, width: CW - 90 });
+    text(doc, "Predictions from a model of the tolerances entered; they do not replace qualification of built parts.", ML, 807, {
+      size: 6.5,
+      color: FAINT,
+      width: CW - 90,
+    });
     text(doc, `Page ${i - range.start + 1} of ${total}`, ML + CW - 90, 807, { size: 6.5, color: MUTED, width: 90, align: "right" });
   }
 }
 
 export async function renderReportPdf(c: ReportContent, meta: ReportMeta): Promise<Buffer> {
   const date = new Date(meta.releasedAt ?? c.builtAt);
-  const doc = createDoc({ title: `${meta.code} revision ${meta.revision}: ${c.supplier.name}`, subject: `Supplier tolerance report for ${c.project.name}`, date });
+  const doc = createDoc({
+    title: `${meta.code} revision ${meta.revision}: ${c.supplier.name}`,
+    subject: `Supplier tolerance report for ${c.project.name}`,
+    date,
+  });
   const l = new Layout(doc);
   cover(l, c, meta);
   l.newPage();

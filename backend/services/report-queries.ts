@@ -9,7 +9,19 @@ import { matchOwner, toleranceSources } from "@shared/reports/sources";
 import type { Report, ReportContent, ReportOptions, ReportSummary } from "@shared/schemas/reports";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
-import { projects, reportDownloads, reportFiles, reports, reportSends, stackRevisions, studies, studyResults, supplierContacts, suppliers, users } from "../db/schema";
+import {
+  projects,
+  reportDownloads,
+  reportFiles,
+  reports,
+  reportSends,
+  stackRevisions,
+  studies,
+  studyResults,
+  supplierContacts,
+  suppliers,
+  users,
+} from "../db/schema";
 import { found, notFound } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { reportBlocker } from "./report-content";
@@ -29,7 +41,10 @@ export type ReportRow = typeof reports.$inferSelect;
 
 /** The report if this actor may see it: staff see their workspace's, suppliers only their company's released ones. */
 export async function visibleRow(db: Database, actor: Actor, id: string): Promise<ReportRow> {
-  const [row] = await db.select().from(reports).where(and(eq(reports.workspaceId, actor.workspaceId), eq(reports.id, id)));
+  const [row] = await db
+    .select()
+    .from(reports)
+    .where(and(eq(reports.workspaceId, actor.workspaceId), eq(reports.id, id)));
   // a supplier learns nothing about reports that are not theirs: the same 404 as a missing one
   if (!row || (actor.role === "supplier" && (row.status !== "released" || !actor.supplierId || row.supplierId !== actor.supplierId))) {
     throw notFound("The report");
@@ -88,7 +103,11 @@ function toSummary(r: SummaryRecord): ReportSummary {
   };
 }
 
-export async function listReports(db: Database, actor: Actor, query: { projectId?: string; supplierId?: string; status?: "draft" | "released" }) {
+export async function listReports(
+  db: Database,
+  actor: Actor,
+  query: { projectId?: string; supplierId?: string; status?: "draft" | "released" },
+) {
   const supplierView = actor.role === "supplier";
   if (supplierView && !actor.supplierId) return [];
   const rows = await summaryQuery(db, supplierView)
@@ -110,14 +129,26 @@ export async function getReport(db: Database, actor: Actor, id: string, baseURL:
   const supplierView = actor.role === "supplier";
   const [files, sends, downloads, history, commentList] = await Promise.all([
     db
-      .select({ kind: reportFiles.kind, fileName: reportFiles.fileName, size: reportFiles.size, sha256: reportFiles.sha256, createdAt: reportFiles.createdAt })
+      .select({
+        kind: reportFiles.kind,
+        fileName: reportFiles.fileName,
+        size: reportFiles.size,
+        sha256: reportFiles.sha256,
+        createdAt: reportFiles.createdAt,
+      })
       .from(reportFiles)
       .where(eq(reportFiles.reportId, id))
       .orderBy(asc(reportFiles.kind)),
     supplierView
       ? Promise.resolve([])
       : db
-          .select({ id: reportSends.id, createdAt: reportSends.createdAt, sentByName: users.name, recipients: reportSends.recipients, message: reportSends.message })
+          .select({
+            id: reportSends.id,
+            createdAt: reportSends.createdAt,
+            sentByName: users.name,
+            recipients: reportSends.recipients,
+            message: reportSends.message,
+          })
           .from(reportSends)
           .leftJoin(users, eq(users.id, reportSends.sentBy))
           .where(eq(reportSends.reportId, id))
@@ -132,16 +163,30 @@ export async function getReport(db: Database, actor: Actor, id: string, baseURL:
           .orderBy(desc(reportDownloads.createdAt))
           .limit(100),
     db
-      .select({ id: reports.id, revision: reports.revision, status: reports.status, createdAt: reports.createdAt, releasedAt: reports.releasedAt })
+      .select({
+        id: reports.id,
+        revision: reports.revision,
+        status: reports.status,
+        createdAt: reports.createdAt,
+        releasedAt: reports.releasedAt,
+      })
       .from(reports)
-      .where(and(eq(reports.workspaceId, visible.workspaceId), eq(reports.number, visible.number), supplierView ? eq(reports.status, "released") : undefined))
+      .where(
+        and(
+          eq(reports.workspaceId, visible.workspaceId),
+          eq(reports.number, visible.number),
+          supplierView ? eq(reports.status, "released") : undefined,
+        ),
+      )
       .orderBy(desc(reports.revision)),
     listComments(db, "report", id),
   ]);
   // Review notes on the draft and the release note are internal; the supplier sees the
   // conversation from the release on (its questions, the answers, its acknowledgement).
   const releasedAt = visible.releasedAt?.getTime() ?? Infinity;
-  const shownComments = supplierView ? commentList.filter((c) => c.kind !== "released" && Date.parse(c.createdAt) >= releasedAt) : commentList;
+  const shownComments = supplierView
+    ? commentList.filter((c) => c.kind !== "released" && Date.parse(c.createdAt) >= releasedAt)
+    : commentList;
   return {
     ...toSummary(r),
     capability: visible.capability,
@@ -149,10 +194,22 @@ export async function getReport(db: Database, actor: Actor, id: string, baseURL:
     hasSnapshot: visible.snapshotPng !== null,
     content: visible.content as unknown as ReportContent,
     files: files.map((f) => ({ ...f, createdAt: f.createdAt.toISOString() })),
-    sends: sends.map((s) => ({ id: s.id, sentAt: s.createdAt.toISOString(), sentByName: s.sentByName, recipients: s.recipients, message: s.message })),
+    sends: sends.map((s) => ({
+      id: s.id,
+      sentAt: s.createdAt.toISOString(),
+      sentByName: s.sentByName,
+      recipients: s.recipients,
+      message: s.message,
+    })),
     downloads: downloads.map((d) => ({ at: d.createdAt.toISOString(), userName: d.userName, role: d.role, kind: d.kind })),
     comments: shownComments,
-    history: history.map((h) => ({ id: h.id, revision: h.revision, status: h.status, createdAt: h.createdAt.toISOString(), releasedAt: iso(h.releasedAt) })),
+    history: history.map((h) => ({
+      id: h.id,
+      revision: h.revision,
+      status: h.status,
+      createdAt: h.createdAt.toISOString(),
+      releasedAt: iso(h.releasedAt),
+    })),
     link: reportLink(baseURL, id),
   };
 }
@@ -160,7 +217,10 @@ export async function getReport(db: Database, actor: Actor, id: string, baseURL:
 // ---- what a project offers to build from ---------------------------------------------------
 
 export async function reportOptions(db: Database, actor: Actor, projectId: string): Promise<ReportOptions> {
-  const [p] = await db.select({ id: projects.id }).from(projects).where(and(eq(projects.workspaceId, actor.workspaceId), eq(projects.id, projectId)));
+  const [p] = await db
+    .select({ id: projects.id })
+    .from(projects)
+    .where(and(eq(projects.workspaceId, actor.workspaceId), eq(projects.id, projectId)));
   found(p, "The project");
   const rows = await db
     .select({
@@ -190,7 +250,13 @@ export async function reportOptions(db: Database, actor: Actor, projectId: strin
     .where(eq(suppliers.workspaceId, actor.workspaceId))
     .groupBy(supplierContacts.supplierId);
   const latest = await db
-    .selectDistinctOn([reports.supplierId], { supplierId: reports.supplierId, id: reports.id, number: reports.number, revision: reports.revision, status: reports.status })
+    .selectDistinctOn([reports.supplierId], {
+      supplierId: reports.supplierId,
+      id: reports.id,
+      number: reports.number,
+      revision: reports.revision,
+      status: reports.status,
+    })
     .from(reports)
     .where(and(eq(reports.workspaceId, actor.workspaceId), eq(reports.projectId, projectId)))
     .orderBy(reports.supplierId, desc(reports.revision));

@@ -32,7 +32,25 @@ function facts(c: ReportContent, meta: ReportMeta): Array<[string, Cell]> {
 function tolerancesTable(c: ReportContent): Table {
   return {
     title: "Tolerances",
-    header: ["Source", "Element", "Element kind", "Quantity", "Unit", "Tolerance (±)", "Target (mean)", "Lower limit", "Upper limit", "Distribution", "Sigmas", "Stage", "Cpk asked", "Cpk raised to study", "Sigma max", "Sigma modelled", "Draws"],
+    header: [
+      "Source",
+      "Element",
+      "Element kind",
+      "Quantity",
+      "Unit",
+      "Tolerance (±)",
+      "Target (mean)",
+      "Lower limit",
+      "Upper limit",
+      "Distribution",
+      "Sigmas",
+      "Stage",
+      "Cpk asked",
+      "Cpk raised to study",
+      "Sigma max",
+      "Sigma modelled",
+      "Draws",
+    ],
     rows: c.tolerances.map((t) => [
       t.source,
       t.elementName,
@@ -59,7 +77,21 @@ function tolerancesTable(c: ReportContent): Table {
 function requirementsTable(c: ReportContent): Table {
   return {
     title: "Requirements",
-    header: ["#", "Metric", "Description", "Unit", "Limit", "Yield target", "Predicted yield", "CI low (95 %)", "CI high (95 %)", "ppm out", "Result", "Share from this supplier", "Fed by this supplier"],
+    header: [
+      "#",
+      "Metric",
+      "Description",
+      "Unit",
+      "Limit",
+      "Yield target",
+      "Predicted yield",
+      "CI low (95 %)",
+      "CI high (95 %)",
+      "ppm out",
+      "Result",
+      "Share from this supplier",
+      "Fed by this supplier",
+    ],
     rows: c.requirements.map((r, i) => [
       `R${i + 1}`,
       r.metric,
@@ -95,7 +127,10 @@ function assumptionsTable(c: ReportContent): Table {
     header: ["Setting", "Value"],
     rows: [
       ["Field inclination (deg)", s.inclinationDeg],
-      ["Inclination from", s.site ? `${s.site.model} at ${s.site.latitudeDeg}, ${s.site.longitudeDeg}, ${s.site.altitudeKm} km on ${s.site.date}` : "entered"],
+      [
+        "Inclination from",
+        s.site ? `${s.site.model} at ${s.site.latitudeDeg}, ${s.site.longitudeDeg}, ${s.site.altitudeKm} km on ${s.site.date}` : "entered",
+      ],
       ["Calibration after", s.calibration.after],
       ["Calibration residual", s.calibration.residual ?? ""],
       ["Trials", s.trials],

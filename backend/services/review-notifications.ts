@@ -43,7 +43,10 @@ export async function notifyRevision(deps: NotifyDeps, actor: Actor, id: string,
     await notify(deps, [rev.createdBy, rev.submittedBy], actor, {
       ...base,
       kind: kind === "approve" ? "revision.approved" : "revision.returned",
-      title: kind === "approve" ? `Revision ${rev.number} of “${projectName}” was approved` : `Revision ${rev.number} of “${projectName}” was sent back`,
+      title:
+        kind === "approve"
+          ? `Revision ${rev.number} of “${projectName}” was approved`
+          : `Revision ${rev.number} of “${projectName}” was sent back`,
       detail: comment ? `${actor.name}: “${comment}”` : undefined,
     });
   }
@@ -66,7 +69,12 @@ export async function notifyReport(deps: NotifyDeps, actor: Actor, id: string, e
   const quote = text ? `${actor.name}: “${text}”` : undefined;
   if (event === "ready") {
     const reviewers = await membersWithRole(db, row.workspaceId, ["reviewer"], actor.userId);
-    await notify(deps, reviewers, actor, { ...base, kind: "report.ready", title: `${name} for ${supplier} waits for release`, detail: `${actor.name} built it.` });
+    await notify(deps, reviewers, actor, {
+      ...base,
+      kind: "report.ready",
+      title: `${name} for ${supplier} waits for release`,
+      detail: `${actor.name} built it.`,
+    });
     return;
   }
   const titles: Record<Exclude<ReportEvent, "ready">, string> = {

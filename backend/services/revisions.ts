@@ -2,7 +2,14 @@ import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { z } from "zod";
 import { diffRevisions } from "@shared/revisions/diff";
-import type { Requirement, Revision, RevisionDiff, RevisionSummary, CreateRevisionSchema, UpdateRevisionSchema } from "@shared/schemas/revisions";
+import type {
+  Requirement,
+  Revision,
+  RevisionDiff,
+  RevisionSummary,
+  CreateRevisionSchema,
+  UpdateRevisionSchema,
+} from "@shared/schemas/revisions";
 import type { Database } from "../db/client";
 import { comments, projects, stackRevisions, users } from "../db/schema";
 import { badRequest, conflict, found } from "../lib/errors";
@@ -48,7 +55,10 @@ function toSummary({ stack, ...r }: SummaryRow): RevisionSummary {
 }
 
 async function assertProject(db: Database, workspaceId: string, projectId: string) {
-  const [p] = await db.select({ id: projects.id, name: projects.name }).from(projects).where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, projectId)));
+  const [p] = await db
+    .select({ id: projects.id, name: projects.name })
+    .from(projects)
+    .where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, projectId)));
   return found(p, "The project");
 }
 
@@ -65,7 +75,10 @@ export async function listRevisions(db: Database, workspaceId: string, projectId
 }
 
 export async function getRevisionRow(db: Database, workspaceId: string, id: string) {
-  const [row] = await db.select().from(stackRevisions).where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, id)));
+  const [row] = await db
+    .select()
+    .from(stackRevisions)
+    .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, id)));
   return found(row, "The stack revision");
 }
 
@@ -91,7 +104,13 @@ export async function getRevision(db: Database, workspaceId: string, id: string)
   return { ...toSummary(summary), stack: r.stack, requirements, comments: await listComments(db, "revision", id) };
 }
 
-export async function createRevision(db: Database, actor: Actor, projectId: string, input: z.infer<typeof CreateRevisionSchema>, basedOnId?: string) {
+export async function createRevision(
+  db: Database,
+  actor: Actor,
+  projectId: string,
+  input: z.infer<typeof CreateRevisionSchema>,
+  basedOnId?: string,
+) {
   await assertProject(db, actor.workspaceId, projectId);
   await assertProjectOpen(db, actor.workspaceId, projectId);
   const stack = checkStack(input.stack);
@@ -158,17 +177,29 @@ const TRANSITIONS = {
 
 const STATUS_WORDS: Record<Revision["status"], string> = { draft: "a draft", in_review: "in review", approved: "approved" };
 
-export async function transitionRevision(db: Database, actor: Actor, id: string, kind: keyof typeof TRANSITIONS, comment?: string, note?: string) {
+export async function transitionRevision(
+  db: Database,
+  actor: Actor,
+  id: string,
+  kind: keyof typeof TRANSITIONS,
+  comment?: string,
+  note?: string,
+) {
   const t = TRANSITIONS[kind];
   const row = await getRevisionRow(db, actor.workspaceId, id);
   await assertProjectOpen(db, actor.workspaceId, row.projectId);
   if (row.status !== t.from) {
-    throw conflict(`Revision ${row.number} is ${STATUS_WORDS[row.status]}; only a revision that is ${STATUS_WORDS[t.from]} can be ${t.verb}.`, "invalid_state");
+    throw conflict(
+      `Revision ${row.number} is ${STATUS_WORDS[row.status]}; only a revision that is ${STATUS_WORDS[t.from]} can be ${t.verb}.`,
+      "invalid_state",
+    );
   }
   const finalNote = note ?? row.note;
   // the reviewer of a later revision needs the engineer's own words on what changed and why
   if (kind === "submit" && row.number > 1 && !finalNote.trim()) {
-    throw badRequest("Say what changed and why before submitting.", [{ path: "note", message: "a revision after the first needs a note: what changed and why" }]);
+    throw badRequest("Say what changed and why before submitting.", [
+      { path: "note", message: "a revision after the first needs a note: what changed and why" },
+    ]);
   }
   const now = new Date();
   await db.transaction(async (tx) => {
@@ -208,7 +239,16 @@ export async function transitionRevision(db: Database, actor: Actor, id: string,
 export async function addRevisionComment(db: Database, actor: Actor, id: string, body: string) {
   const row = await getRevisionRow(db, actor.workspaceId, id);
   await db.transaction(async (tx) => {
-    await tx.insert(comments).values({ workspaceId: actor.workspaceId, projectId: row.projectId, targetType: "revision", targetId: id, authorId: actor.userId, body });
+    await tx
+      .insert(comments)
+      .values({
+        workspaceId: actor.workspaceId,
+        projectId: row.projectId,
+        targetType: "revision",
+        targetId: id,
+        authorId: actor.userId,
+        body,
+      });
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,
       projectId: row.projectId,
@@ -224,13 +264,22 @@ export async function addRevisionComment(db: Database, actor: Actor, id: string,
 /** A new draft whose content is a copy of an existing revision (how an approved one is edited). */
 export async function draftFrom(db: Database, actor: Actor, id: string) {
   const row = await getRevisionRow(db, actor.workspaceId, id);
-  return createRevision(db, actor, row.projectId, { stack: row.stack, requirements: row.requirements, note: `Based on revision ${row.number}.` }, row.id);
+  return createRevision(
+    db,
+    actor,
+    row.projectId,
+    { stack: row.stack, requirements: row.requirements, note: `Based on revision ${row.number}.` },
+    row.id,
+  );
 }
 
 /** The revision before this one: the one it is based on, else the previous number in its project. */
 async function previousOf(db: Database, row: typeof stackRevisions.$inferSelect) {
   if (row.basedOnId) {
-    const [b] = await db.select().from(stackRevisions).where(and(eq(stackRevisions.workspaceId, row.workspaceId), eq(stackRevisions.id, row.basedOnId)));
+    const [b] = await db
+      .select()
+      .from(stackRevisions)
+      .where(and(eq(stackRevisions.workspaceId, row.workspaceId), eq(stackRevisions.id, row.basedOnId)));
     if (b) return b;
   }
   const [p] = await db
@@ -247,9 +296,14 @@ export async function revisionDiff(db: Database, workspaceId: string, id: string
   const row = await getRevisionRow(db, workspaceId, id);
   let other: typeof stackRevisions.$inferSelect | null;
   if (againstId) {
-    const [o] = await db.select().from(stackRevisions).where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, againstId)));
+    const [o] = await db
+      .select()
+      .from(stackRevisions)
+      .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, againstId)));
     if (!o || o.projectId !== row.projectId) {
-      throw badRequest("The revision to compare with is not in this project.", [{ path: "against", message: "no such revision in this project" }]);
+      throw badRequest("The revision to compare with is not in this project.", [
+        { path: "against", message: "no such revision in this project" },
+      ]);
     }
     other = o;
   } else {

@@ -26,7 +26,9 @@ export async function startServerMode(
   if (handle.kind !== "postgres" || !handle.url) throw new Error("server mode needs a PostgreSQL server (DATABASE_URL)");
   const boss = await openJobQueue(handle.url, opts.settings, opts.log);
   const studyQueue = new JobStudyQueue(handle.db, boss, opts.log, opts.settings);
-  const worker = opts.runStudies ? new StudyJobWorker(handle.db, boss, opts.log, { threads: opts.threads ?? defaultThreads(), settings: opts.settings }) : undefined;
+  const worker = opts.runStudies
+    ? new StudyJobWorker(handle.db, boss, opts.log, { threads: opts.threads ?? defaultThreads(), settings: opts.settings })
+    : undefined;
   await worker?.start();
   return {
     studyQueue,

@@ -24,4 +24,3 @@ export function checkRequirements(stack: StackFile, requirements: Requirement[])
   );
   if (fields.length) throw badRequest("A requirement names a metric the stack does not have.", fields, "invalid_requirements");
 }
-

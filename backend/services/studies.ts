@@ -73,7 +73,10 @@ function baseQuery(db: Database) {
 }
 
 export async function listStudies(db: Database, workspaceId: string, projectId: string) {
-  const [p] = await db.select({ id: projects.id }).from(projects).where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, projectId)));
+  const [p] = await db
+    .select({ id: projects.id })
+    .from(projects)
+    .where(and(eq(projects.workspaceId, workspaceId), eq(projects.id, projectId)));
   found(p, "The project");
   const rows = await baseQuery(db)
     .where(and(eq(studies.workspaceId, workspaceId), eq(studies.projectId, projectId)))
@@ -160,9 +163,16 @@ export async function createStudy(db: Database, queue: StudyScheduler, actor: Ac
 
 export async function cancelStudy(db: Database, queue: StudyScheduler, actor: Actor, id: string) {
   const s = await getStudy(db, actor.workspaceId, id, false);
-  if (s.status !== "queued" && s.status !== "running") throw conflict(`Study ${s.number} is ${s.status}; only a queued or running study can be cancelled.`, "invalid_state");
+  if (s.status !== "queued" && s.status !== "running")
+    throw conflict(`Study ${s.number} is ${s.status}; only a queued or running study can be cancelled.`, "invalid_state");
   await queue.cancel(id);
-  await recordActivity(db, { workspaceId: actor.workspaceId, projectId: s.projectId, actorId: actor.userId, action: "study.cancelled", summary: `cancelled study ${s.number}` });
+  await recordActivity(db, {
+    workspaceId: actor.workspaceId,
+    projectId: s.projectId,
+    actorId: actor.userId,
+    action: "study.cancelled",
+    summary: `cancelled study ${s.number}`,
+  });
   return getStudy(db, actor.workspaceId, id, false);
 }
 
@@ -176,9 +186,23 @@ export async function rerunStudy(db: Database, queue: StudyScheduler, actor: Act
     await tx.delete(studyResults).where(eq(studyResults.studyId, id));
     await tx
       .update(studies)
-      .set({ status: "queued", trialsDone: 0, trialsPerSecond: null, error: null, startedAt: null, finishedAt: null, createdAt: new Date() })
+      .set({
+        status: "queued",
+        trialsDone: 0,
+        trialsPerSecond: null,
+        error: null,
+        startedAt: null,
+        finishedAt: null,
+        createdAt: new Date(),
+      })
       .where(eq(studies.id, id));
-    await recordActivity(tx, { workspaceId: actor.workspaceId, projectId: s.projectId, actorId: actor.userId, action: "study.requeued", summary: `ran study ${s.number} again` });
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId: s.projectId,
+      actorId: actor.userId,
+      action: "study.requeued",
+      summary: `ran study ${s.number} again`,
+    });
   });
   queue.kick();
   return getStudy(db, actor.workspaceId, id, false);

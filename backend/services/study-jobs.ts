@@ -44,7 +44,12 @@ export type JobQueueSettings = {
   /** Blocks per job (tests use few to get many parts from a small study). */
   partBlocks?: number;
 };
-export const DEFAULT_JOB_SETTINGS: JobQueueSettings = { expireSeconds: 300, maintenanceSeconds: 30, pollSeconds: 1, partBlocks: PART_BLOCKS };
+export const DEFAULT_JOB_SETTINGS: JobQueueSettings = {
+  expireSeconds: 300,
+  maintenanceSeconds: 30,
+  pollSeconds: 1,
+  partBlocks: PART_BLOCKS,
+};
 
 export type QueueStatus = {
   depth: number;
@@ -54,11 +59,25 @@ export type QueueStatus = {
 
 type Log = (message: string, err?: unknown) => void;
 type PartJob = { studyId: string; part: number };
-type StudyRow = { id: string; status: string; stack: StackFile; study: Record<string, unknown>; workspaceId: string; projectId: string; number: number; startedAt: Date | null };
+type StudyRow = {
+  id: string;
+  status: string;
+  stack: StackFile;
+  study: Record<string, unknown>;
+  workspaceId: string;
+  projectId: string;
+  number: number;
+  startedAt: Date | null;
+};
 
 /** pg-boss on the app's PostgreSQL server; its tables live in their own schema (`pgboss`). */
 export async function openJobQueue(url: string, settings: JobQueueSettings, log: Log): Promise<PgBoss> {
-  const boss = new PgBoss({ connectionString: url, max: 4, maintenanceIntervalSeconds: settings.maintenanceSeconds, application_name: "orthostack-queue" });
+  const boss = new PgBoss({
+    connectionString: url,
+    max: 4,
+    maintenanceIntervalSeconds: settings.maintenanceSeconds,
+    application_name: "orthostack-queue",
+  });
   boss.on("error", (e) => log("job queue error", e));
   await boss.start();
   if (!(await boss.getQueue(STUDY_PARTS_QUEUE))) {
@@ -85,7 +104,8 @@ class EngineInputError extends Error {}
 function stageParts(prep: PreparedStudy, fromBlock: number, firstPart: number, partBlocks = PART_BLOCKS) {
   const end = prep.adaptive ? Math.min(prep.plan.blocks, fromBlock + prep.adaptive.runBlocks) : prep.plan.blocks;
   const parts: { part: number; blockFrom: number; blockTo: number }[] = [];
-  for (let b = fromBlock, i = firstPart; b < end; b += partBlocks, i++) parts.push({ part: i, blockFrom: b, blockTo: Math.min(end, b + partBlocks) });
+  for (let b = fromBlock, i = firstPart; b < end; b += partBlocks, i++)
+    parts.push({ part: i, blockFrom: b, blockTo: Math.min(end, b + partBlocks) });
   return parts;
 }
 
@@ -161,7 +181,12 @@ export class JobStudyQueue implements StudyScheduler {
 
   private async dispatch() {
     while (!this.stopped) {
-      const [row] = await this.db.select({ id: studies.id }).from(studies).where(eq(studies.status, "queued")).orderBy(asc(studies.createdAt)).limit(1);
+      const [row] = await this.db
+        .select({ id: studies.id })
+        .from(studies)
+        .where(eq(studies.status, "queued"))
+        .orderBy(asc(studies.createdAt))
+        .limit(1);
       if (!row) return;
       const [claimed] = await this.db
         .update(studies)
@@ -228,21 +253,35 @@ export class StudyJobWorker {
     for (const c of this.running) c.abort();
     await this.boss.offWork(STUDY_PARTS_QUEUE).catch(() => undefined);
     await this.engine?.stop();
-    await this.db.delete(queueWorkers).where(eq(queueWorkers.id, this.id)).catch(() => undefined);
+    await this.db
+      .delete(queueWorkers)
+      .where(eq(queueWorkers.id, this.id))
+      .catch(() => undefined);
   }
 
   private async beat() {
     const now = new Date();
     await this.db
       .insert(queueWorkers)
-      .values({ id: this.id, host: hostname(), pid: process.pid, threads: this.opts.threads, jobsDone: this.jobsDone, startedAt: this.startedAt, seenAt: now })
+      .values({
+        id: this.id,
+        host: hostname(),
+        pid: process.pid,
+        threads: this.opts.threads,
+        jobsDone: this.jobsDone,
+        startedAt: this.startedAt,
+        seenAt: now,
+      })
       .onConflictDoUpdate({ target: queueWorkers.id, set: { seenAt: now, jobsDone: this.jobsDone } });
   }
 
   private async runPart({ studyId, part }: PartJob) {
     const [s] = await this.db.select().from(studies).where(eq(studies.id, studyId));
     if (!s || s.status !== "running") return;
-    const [p] = await this.db.select({ blockFrom: studyParts.blockFrom, blockTo: studyParts.blockTo, finishedAt: studyParts.finishedAt }).from(studyParts).where(and(eq(studyParts.studyId, studyId), eq(studyParts.part, part)));
+    const [p] = await this.db
+      .select({ blockFrom: studyParts.blockFrom, blockTo: studyParts.blockTo, finishedAt: studyParts.finishedAt })
+      .from(studyParts)
+      .where(and(eq(studyParts.studyId, studyId), eq(studyParts.part, part)));
     if (!p) return;
     if (!p.finishedAt) {
       const ran = await this.compute(s as StudyRow, part, p.blockFrom, p.blockTo);
@@ -301,7 +340,10 @@ export class StudyJobWorker {
   }
 
   private async progress(studyId: string, part: number, trials: number, controller: AbortController) {
-    await this.db.update(studyParts).set({ trialsDone: trials }).where(and(eq(studyParts.studyId, studyId), eq(studyParts.part, part)));
+    await this.db
+      .update(studyParts)
+      .set({ trialsDone: trials })
+      .where(and(eq(studyParts.studyId, studyId), eq(studyParts.part, part)));
     const rows = await this.db
       .update(studies)
       .set({
@@ -322,9 +364,17 @@ export class StudyJobWorker {
     return this.db.transaction(async (tx) => {
       const [s] = await tx.select().from(studies).where(eq(studies.id, studyId)).for("update");
       if (!s || s.status !== "running") return [];
-      const open = await tx.select({ part: studyParts.part }).from(studyParts).where(and(eq(studyParts.studyId, studyId), sql`${studyParts.finishedAt} is null`)).limit(1);
+      const open = await tx
+        .select({ part: studyParts.part })
+        .from(studyParts)
+        .where(and(eq(studyParts.studyId, studyId), sql`${studyParts.finishedAt} is null`))
+        .limit(1);
       if (open.length) return [];
-      const rows = await tx.select({ part: studyParts.part, blockTo: studyParts.blockTo, data: studyParts.data }).from(studyParts).where(eq(studyParts.studyId, studyId)).orderBy(asc(studyParts.part));
+      const rows = await tx
+        .select({ part: studyParts.part, blockTo: studyParts.blockTo, data: studyParts.data })
+        .from(studyParts)
+        .where(eq(studyParts.studyId, studyId))
+        .orderBy(asc(studyParts.part));
       const { prep } = filesOf(s);
       const coord = newCoordinator(prep);
       const states: WorkerState[] = [];
@@ -366,6 +416,14 @@ export async function queueStatus(db: Database, boss: PgBoss): Promise<QueueStat
   return {
     depth,
     active: Math.max(0, active - depth),
-    workers: seen.map((w) => ({ id: w.id, host: w.host, pid: w.pid, threads: w.threads, jobsDone: w.jobsDone, startedAt: w.startedAt.toISOString(), seenAt: w.seenAt.toISOString() })),
+    workers: seen.map((w) => ({
+      id: w.id,
+      host: w.host,
+      pid: w.pid,
+      threads: w.threads,
+      jobsDone: w.jobsDone,
+      startedAt: w.startedAt.toISOString(),
+      seenAt: w.seenAt.toISOString(),
+    })),
   };
 }

@@ -124,7 +124,15 @@ export class StudyQueue implements StudyScheduler {
     while (!this.stopped && this.running.size < this.maxRunning) {
       const busy = new Set([...this.running.values()].map((r) => r.owner));
       const queued = await this.db
-        .select({ id: studies.id, study: studies.study, stack: studies.stack, workspaceId: studies.workspaceId, projectId: studies.projectId, number: studies.number, createdBy: studies.createdBy })
+        .select({
+          id: studies.id,
+          study: studies.study,
+          stack: studies.stack,
+          workspaceId: studies.workspaceId,
+          projectId: studies.projectId,
+          number: studies.number,
+          createdBy: studies.createdBy,
+        })
         .from(studies)
         .where(eq(studies.status, "queued"))
         .orderBy(asc(studies.createdAt))
@@ -148,7 +156,18 @@ export class StudyQueue implements StudyScheduler {
     }
   }
 
-  private async run(job: { id: string; study: Record<string, unknown>; stack: Record<string, unknown>; workspaceId: string; projectId: string; number: number }, owner: string, controller: AbortController) {
+  private async run(
+    job: {
+      id: string;
+      study: Record<string, unknown>;
+      stack: Record<string, unknown>;
+      workspaceId: string;
+      projectId: string;
+      number: number;
+    },
+    owner: string,
+    controller: AbortController,
+  ) {
     const started = Date.now();
     let lastWrite = 0;
     let pending: Promise<unknown> = Promise.resolve();
@@ -165,7 +184,10 @@ export class StudyQueue implements StudyScheduler {
       );
     };
     try {
-      const { result, passes } = await this.runner({ stack: job.stack, study: job.study }, { signal: controller.signal, onProgress, owner });
+      const { result, passes } = await this.runner(
+        { stack: job.stack, study: job.study },
+        { signal: controller.signal, onProgress, owner },
+      );
       await pending;
       if (controller.signal.aborted) throw new CancelledError();
       const seconds = (Date.now() - started) / 1000;

@@ -47,7 +47,10 @@ export async function createSupplier(db: Database, workspaceId: string, input: z
 export async function updateSupplier(db: Database, workspaceId: string, id: string, input: z.infer<typeof UpdateSupplierSchema>) {
   await getSupplier(db, workspaceId, id);
   try {
-    await db.update(suppliers).set(input).where(and(eq(suppliers.workspaceId, workspaceId), eq(suppliers.id, id)));
+    await db
+      .update(suppliers)
+      .set(input)
+      .where(and(eq(suppliers.workspaceId, workspaceId), eq(suppliers.id, id)));
   } catch (e) {
     if (isUniqueViolation(e)) throw conflict(`A supplier named “${input.name}” already exists.`, "duplicate_supplier");
     throw e;

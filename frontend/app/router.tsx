@@ -53,10 +53,16 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
                 { index: true, loader: homeLoader(queryClient) },
                 { path: "projects", loader: projectsLoader(queryClient), element: <ProjectsRoute /> },
                 { path: "projects/:id", loader: projectLoader(queryClient), element: <ProjectRoute /> },
-                { path: "projects/:id/studies/new", lazy: () => import("./routes/app/study-new").then((m) => m.studyNewRoute(queryClient)) },
+                {
+                  path: "projects/:id/studies/new",
+                  lazy: () => import("./routes/app/study-new").then((m) => m.studyNewRoute(queryClient)),
+                },
                 { path: "projects/:id/studies/:studyId", lazy: () => import("./routes/app/study").then((m) => m.studyRoute(queryClient)) },
                 { path: "projects/:id/compare", lazy: () => import("./routes/app/compare").then((m) => m.compareRoute(queryClient)) },
-                { path: "projects/:id/datasets/:datasetId", lazy: () => import("./routes/app/dataset").then((m) => m.datasetRoute(queryClient)) },
+                {
+                  path: "projects/:id/datasets/:datasetId",
+                  lazy: () => import("./routes/app/dataset").then((m) => m.datasetRoute(queryClient)),
+                },
                 { path: "projects/:id/revisions/:revisionId", loader: stackEditorLoader(queryClient), element: <StackEditorRoute /> },
                 { path: "suppliers", loader: suppliersLoader(queryClient), element: <SuppliersRoute /> },
                 { path: "members", loader: membersLoader(queryClient), element: <MembersRoute /> },

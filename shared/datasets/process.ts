@@ -27,7 +27,8 @@ export const SHEWHART_SOURCE = "ASTM E2587 / Montgomery, Introduction to Statist
 
 /** z with Φ(z) = p, by bisection on our Φ (no table): accurate to 1e-10 for 0 < p < 1. */
 export function normalQuantile(p: number): number {
-  let lo = -40, hi = 40;
+  let lo = -40,
+    hi = 40;
   for (let i = 0; i < 200 && hi - lo > 1e-12; i++) {
     const mid = (lo + hi) / 2;
     if (normalCdf(mid) < p) lo = mid;
@@ -80,7 +81,9 @@ export function pooledWithin(values: ArrayLike<number>, lots: ArrayLike<string>)
     if (g) g.push(values[i]);
     else groups.set(lots[i], [values[i]]);
   }
-  let ss = 0, dof = 0, used = 0;
+  let ss = 0,
+    dof = 0,
+    used = 0;
   for (const g of groups.values()) {
     if (g.length < 2) continue;
     const s = summarize(g);
@@ -94,7 +97,12 @@ export function pooledWithin(values: ArrayLike<number>, lots: ArrayLike<string>)
 }
 
 /** Pp, Ppk over every unit; Cp, Cpk within lots where there are lots; Cpk's lower bound. */
-export function processCapability(values: ArrayLike<number>, lsl: number, usl: number, lots?: ArrayLike<string> | null): ProcessCapability | null {
+export function processCapability(
+  values: ArrayLike<number>,
+  lsl: number,
+  usl: number,
+  lots?: ArrayLike<string> | null,
+): ProcessCapability | null {
   const { mean, std, n } = summarize(values);
   if (!(std > 0) || !(usl > lsl) || n < 2) return null;
   const index = (sigma: number) => ({ c: (usl - lsl) / (6 * sigma), ck: Math.min(usl - mean, mean - lsl) / (3 * sigma) });

@@ -52,8 +52,20 @@ const FIELDS: Field[] = [
     set: (e, t) => void (e.bondLine = { ...e.bondLine, heightTol: t }),
     nominal: (e) => e.bondLine?.thicknessUm ?? 0,
   },
-  { suffix: "tiltX", quantity: "direct tilt about x", unit: "deg", get: (e) => e.tiltTol?.x, set: (e, t) => void (e.tiltTol = { ...e.tiltTol, x: t }) },
-  { suffix: "tiltY", quantity: "direct tilt about y", unit: "deg", get: (e) => e.tiltTol?.y, set: (e, t) => void (e.tiltTol = { ...e.tiltTol, y: t }) },
+  {
+    suffix: "tiltX",
+    quantity: "direct tilt about x",
+    unit: "deg",
+    get: (e) => e.tiltTol?.x,
+    set: (e, t) => void (e.tiltTol = { ...e.tiltTol, x: t }),
+  },
+  {
+    suffix: "tiltY",
+    quantity: "direct tilt about y",
+    unit: "deg",
+    get: (e) => e.tiltTol?.y,
+    set: (e, t) => void (e.tiltTol = { ...e.tiltTol, y: t }),
+  },
   {
     suffix: "yaw",
     quantity: "placement rotation",
@@ -61,8 +73,22 @@ const FIELDS: Field[] = [
     get: (e) => e.placementTol?.yawDeg,
     set: (e, t) => void (e.placementTol = { ...e.placementTol, yawDeg: t }),
   },
-  { suffix: "x", quantity: "placement offset in x", unit: "um", get: (e) => e.placementTol?.xUm, set: (e, t) => void (e.placementTol = { ...e.placementTol, xUm: t }), nominal: (e) => (e.position?.x ?? 0) * 1000 },
-  { suffix: "y", quantity: "placement offset in y", unit: "um", get: (e) => e.placementTol?.yUm, set: (e, t) => void (e.placementTol = { ...e.placementTol, yUm: t }), nominal: (e) => (e.position?.y ?? 0) * 1000 },
+  {
+    suffix: "x",
+    quantity: "placement offset in x",
+    unit: "um",
+    get: (e) => e.placementTol?.xUm,
+    set: (e, t) => void (e.placementTol = { ...e.placementTol, xUm: t }),
+    nominal: (e) => (e.position?.x ?? 0) * 1000,
+  },
+  {
+    suffix: "y",
+    quantity: "placement offset in y",
+    unit: "um",
+    get: (e) => e.placementTol?.yUm,
+    set: (e, t) => void (e.placementTol = { ...e.placementTol, yUm: t }),
+    nominal: (e) => (e.position?.y ?? 0) * 1000,
+  },
 ];
 
 /** Every tolerance source of the stack, in file order (the calibration residual is a study setting, not listed). */
@@ -73,10 +99,19 @@ export function stackSources(stack: StackFile): StackSource[] {
       const t = f.get(e);
       if (!t) continue;
       const parts = f.suffix === "bondLine" ? supportLabels(e).map((label, index) => ({ index, label, tolerance: t })) : null;
-      out.push({ id: `${e.id}.${f.suffix}`, elementId: e.id, quantity: f.quantity, unit: f.unit, tolerance: t, nominal: f.nominal?.(e) ?? 0, parts });
+      out.push({
+        id: `${e.id}.${f.suffix}`,
+        elementId: e.id,
+        quantity: f.quantity,
+        unit: f.unit,
+        tolerance: t,
+        nominal: f.nominal?.(e) ?? 0,
+        parts,
+      });
     }
     // the tilt's two components measured on the same unit, pooled
-    const tx = e.tiltTol?.x, ty = e.tiltTol?.y;
+    const tx = e.tiltTol?.x,
+      ty = e.tiltTol?.y;
     if (tx || ty) {
       const zero: Tolerance = { dist: "normal", tol: 0 };
       out.push({
@@ -94,14 +129,42 @@ export function stackSources(stack: StackFile): StackSource[] {
     }
     if (isSensorKind(e.kind) && e.axisTol) {
       const axis = e.axisTol;
-      const parts = Array.from({ length: 6 }, (_, k) => ({ index: k, label: `g${k + 1}`, tolerance: Array.isArray(axis) ? axis[k] : axis }));
+      const parts = Array.from({ length: 6 }, (_, k) => ({
+        index: k,
+        label: `g${k + 1}`,
+        tolerance: Array.isArray(axis) ? axis[k] : axis,
+      }));
       if (Array.isArray(axis)) {
         axis.forEach((t, k) =>
-          out.push({ id: `${e.id}.axis.g${k + 1}`, elementId: e.id, quantity: `sensing-axis angle g${k + 1}`, unit: "deg", tolerance: t, nominal: 0, parts: null }),
+          out.push({
+            id: `${e.id}.axis.g${k + 1}`,
+            elementId: e.id,
+            quantity: `sensing-axis angle g${k + 1}`,
+            unit: "deg",
+            tolerance: t,
+            nominal: 0,
+            parts: null,
+          }),
         );
-        out.push({ id: `${e.id}.axis`, elementId: e.id, quantity: "sensing-axis angles g1..g6 of one unit together", unit: "deg", tolerance: axis[0], nominal: 0, parts });
+        out.push({
+          id: `${e.id}.axis`,
+          elementId: e.id,
+          quantity: "sensing-axis angles g1..g6 of one unit together",
+          unit: "deg",
+          tolerance: axis[0],
+          nominal: 0,
+          parts,
+        });
       } else {
-        out.push({ id: `${e.id}.axis`, elementId: e.id, quantity: "sensing-axis angles (each of six)", unit: "deg", tolerance: axis, nominal: 0, parts });
+        out.push({
+          id: `${e.id}.axis`,
+          elementId: e.id,
+          quantity: "sensing-axis angles (each of six)",
+          unit: "deg",
+          tolerance: axis,
+          nominal: 0,
+          parts,
+        });
       }
     }
   }

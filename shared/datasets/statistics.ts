@@ -38,7 +38,8 @@ export function summarize(values: ArrayLike<number>): Summary {
   const n = values.length;
   if (n === 0) return { n: 0, mean: NaN, std: NaN, min: NaN, max: NaN, median: NaN, q1: NaN, q3: NaN };
   // Welford: one pass, no cancellation for values with a large offset (absolute heights).
-  let mean = 0, m2 = 0;
+  let mean = 0,
+    m2 = 0;
   for (let i = 0; i < n; i++) {
     const d = values[i] - mean;
     mean += d / (i + 1);
@@ -217,7 +218,8 @@ export function histogram(values: ArrayLike<number>, limits?: { lsl: number; usl
   const n = values.length;
   const s = sortedCopy(values);
   const { mean, std } = summarize(values);
-  const lo = s[0], hi = s[n - 1];
+  const lo = s[0],
+    hi = s[n - 1];
   const range = hi - lo;
   let k: number;
   if (!(range > 0)) k = 1;
@@ -233,7 +235,8 @@ export function histogram(values: ArrayLike<number>, limits?: { lsl: number; usl
     const b = Math.min(k - 1, Math.max(0, Math.floor((s[i] - start) / w)));
     bins[b].count++;
   }
-  let dLo = start, dHi = start + k * w;
+  let dLo = start,
+    dHi = start + k * w;
   if (limits) {
     dLo = Math.min(dLo, limits.lsl);
     dHi = Math.max(dHi, limits.usl);

@@ -28,8 +28,8 @@ export function conversionFactor(from: MeasureUnit, to: SourceUnit): number | nu
 // Spellings seen in measurement files: micro sign and Greek mu, "°", plurals.
 const ALIASES: Record<string, MeasureUnit> = {
   um: "um",
-  "µm": "um",
-  "μm": "um",
+  µm: "um",
+  μm: "um",
   micron: "um",
   microns: "um",
   micrometer: "um",
@@ -62,6 +62,7 @@ export function parseHeader(header: string): ParsedHeader {
   const square = /^(.*?)\s*\[([^\]]*)\]\s*$/.exec(h);
   if (square) return { name: square[1].trim() || h, unit: parseUnit(square[2]), unitText: square[2].trim(), strict: true };
   const round = /^(.*?)\s*\(([^)]*)\)\s*$/.exec(h);
-  if (round && parseUnit(round[2])) return { name: round[1].trim() || h, unit: parseUnit(round[2]), unitText: round[2].trim(), strict: false };
+  if (round && parseUnit(round[2]))
+    return { name: round[1].trim() || h, unit: parseUnit(round[2]), unitText: round[2].trim(), strict: false };
   return { name: h, unit: null, unitText: null, strict: false };
 }

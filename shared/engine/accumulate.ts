@@ -149,7 +149,8 @@ function insertWorst(st: WorkerState, k: number, v: number, trial: number): void
   if (K === 0) return;
   const o = k * K;
   const a = Math.abs(v);
-  const wv = st.worstVal, wt = st.worstTrial;
+  const wv = st.worstVal,
+    wt = st.worstTrial;
   // last slot is the smallest kept; order: |v| descending, then trial ascending
   const lastT = wt[o + K - 1];
   if (lastT >= 0) {
@@ -199,8 +200,15 @@ export function runBlock(m: Model, plan: Plan, st: WorkerState, block: number): 
   const eLen = ENVELOPE_LEN;
   const hist = metricStore(new Uint32Array(0));
   const envH = envelopeStore(new Uint32Array(0));
-  const stHist = st.hist, stEnv = st.env, minAbs = st.minAbs, maxAbs = st.maxAbs, vMin = st.min, vMax = st.max;
-  const envMin = st.envMin, envMax = st.envMax, pass = st.pass;
+  const stHist = st.hist,
+    stEnv = st.env,
+    minAbs = st.minAbs,
+    maxAbs = st.maxAbs,
+    vMin = st.min,
+    vMax = st.max;
+  const envMin = st.envMin,
+    envMax = st.envMax,
+    pass = st.pass;
   const reqs = plan.requirements;
   const nAtt = st.nAtt;
   const firstTrial = block * BLOCK_SIZE;

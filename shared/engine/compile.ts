@@ -77,7 +77,13 @@ export interface SensorInfo {
 export type MetricKind = "crossAxis" | "crossAxisTotal" | "axisMisalign" | "tilt" | "relRot" | "headingMax" | "headingRms";
 
 const KIND_CODE: Record<MetricKind, number> = {
-  crossAxis: 0, crossAxisTotal: 1, axisMisalign: 2, tilt: 3, relRot: 4, headingMax: 5, headingRms: 6,
+  crossAxis: 0,
+  crossAxisTotal: 1,
+  axisMisalign: 2,
+  tilt: 3,
+  relRot: 4,
+  headingMax: 5,
+  headingRms: 6,
 };
 
 export interface MetricInfo {
@@ -123,14 +129,24 @@ function elementStage(e: StackElement): string {
 function planeFitRows(pts: { x: number; y: number }[]): { pa: Float64Array; pb: Float64Array; pc: Float64Array } {
   const n = pts.length;
   // normal equations of [1 x y]
-  let sx = 0, sy = 0, sxx = 0, syy = 0, sxy = 0;
+  let sx = 0,
+    sy = 0,
+    sxx = 0,
+    syy = 0,
+    sxy = 0;
   for (const p of pts) {
-    sx += p.x; sy += p.y; sxx += p.x * p.x; syy += p.y * p.y; sxy += p.x * p.y;
+    sx += p.x;
+    sy += p.y;
+    sxx += p.x * p.x;
+    syy += p.y * p.y;
+    sxy += p.x * p.y;
   }
   const N = new Float64Array([n, sx, sy, sx, sxx, sxy, sy, sxy, syy]);
   const Ni = new Float64Array(9);
   if (!invert(N, Ni)) throw new Error("support points are collinear");
-  const pa = new Float64Array(n), pb = new Float64Array(n), pc = new Float64Array(n);
+  const pa = new Float64Array(n),
+    pb = new Float64Array(n),
+    pc = new Float64Array(n);
   pts.forEach((p, k) => {
     // (NᵀN)⁻¹ Xᵀ, heights in um -> mm
     pa[k] = (Ni[0] + Ni[1] * p.x + Ni[2] * p.y) * 1e-3;
@@ -153,7 +169,12 @@ export function metricIds(stack: StackFile, study: Pick<StudyFile, "headingSenso
   return metricCatalogue(stack, study).map((m) => m.id);
 }
 
-function metricCatalogue(stack: StackFile, study: Pick<StudyFile, "headingSensors" | "heading">, sensorsIdx?: Map<string, number>, elIdx?: Map<string, number>): MetricInfo[] {
+function metricCatalogue(
+  stack: StackFile,
+  study: Pick<StudyFile, "headingSensors" | "heading">,
+  sensorsIdx?: Map<string, number>,
+  elIdx?: Map<string, number>,
+): MetricInfo[] {
   const out: Omit<MetricInfo, "code">[] = [];
   const sensors = stack.elements.filter((e) => isSensorKind(e.kind));
   sensors.forEach((s, si) => {
@@ -174,8 +195,13 @@ function metricCatalogue(stack: StackFile, study: Pick<StudyFile, "headingSensor
   for (let i = 0; i < sensors.length; i++)
     for (let j = i + 1; j < sensors.length; j++) {
       out.push({
-        id: `${sensors[i].id}~${sensors[j].id}.relRotDeg`, kind: "relRot", signed: false, unit: "deg",
-        a: sensorsIdx?.get(sensors[i].id) ?? i, b: sensorsIdx?.get(sensors[j].id) ?? j, row: 0,
+        id: `${sensors[i].id}~${sensors[j].id}.relRotDeg`,
+        kind: "relRot",
+        signed: false,
+        unit: "deg",
+        a: sensorsIdx?.get(sensors[i].id) ?? i,
+        b: sensorsIdx?.get(sensors[j].id) ?? j,
+        row: 0,
       });
     }
   if (study.heading !== false && headingPair(stack, study)) {
@@ -264,7 +290,12 @@ export function compileModel(stack: StackFile, study: StudyFile): Model {
   }
 
   const calibrationRank = study.calibration && study.calibration.after !== "none" ? STAGE_RANK[study.calibration.after] : -1;
-  const sensors: SensorInfo[] = sensorList.map((e) => ({ element: idx.get(e.id)!, id: e.id, kind: e.kind as SensorInfo["kind"], calOff: -1 }));
+  const sensors: SensorInfo[] = sensorList.map((e) => ({
+    element: idx.get(e.id)!,
+    id: e.id,
+    kind: e.kind as SensorInfo["kind"],
+    calOff: -1,
+  }));
   if (calibrationRank >= 0 && study.calibration?.residualDeg) {
     for (const s of sensors) {
       // the residual belongs to no assembly stage: it only enters E
@@ -276,8 +307,10 @@ export function compileModel(stack: StackFile, study: StudyFile): Model {
   order.forEach((e, i) => {
     const d = perElementDraws.get(e.id)!;
     const parent = e.parent === null ? -1 : idx.get(e.parent)!;
-    const x = e.position?.x ?? 0, y = e.position?.y ?? 0;
-    let kx = 0, ky = 0;
+    const x = e.position?.x ?? 0,
+      y = e.position?.y ?? 0;
+    let kx = 0,
+      ky = 0;
     if (parent >= 0) {
       const p = byId.get(e.parent!)!;
       const rd2 = (p.size.x / 2) ** 2 + (p.size.y / 2) ** 2;
@@ -285,7 +318,8 @@ export function compileModel(stack: StackFile, study: StudyFile): Model {
       kx = (-2e-3 * x) / rd2;
       ky = (-2e-3 * y) / rd2;
     }
-    const fit = d.nSup! > 0 ? planeFitRows(supportPoints(e)) : { pa: new Float64Array(0), pb: new Float64Array(0), pc: new Float64Array(0) };
+    const fit =
+      d.nSup! > 0 ? planeFitRows(supportPoints(e)) : { pa: new Float64Array(0), pb: new Float64Array(0), pc: new Float64Array(0) };
     const Rnom = mat3();
     if (parent >= 0) mul(elements[parent].Rnom, rotZ((e.yawDeg ?? 0) * DEG, mat3()), Rnom);
     else identity(Rnom);
@@ -295,19 +329,26 @@ export function compileModel(stack: StackFile, study: StudyFile): Model {
       fileIndex: stack.elements.indexOf(e),
       parent,
       stage: elementStage(e),
-      x, y,
+      x,
+      y,
       yaw: (e.yawDeg ?? 0) * DEG,
       cosYaw: Math.cos((e.yawDeg ?? 0) * DEG),
       sinYaw: Math.sin((e.yawDeg ?? 0) * DEG),
       size: e.size,
       bondThickness: (e.bondLine?.thicknessUm ?? 0) * 1e-3,
-      kx, ky,
+      kx,
+      ky,
       bowOff: d.bowOff!,
       supOff: d.supOff!,
       nSup: d.nSup!,
-      pa: fit.pa, pb: fit.pb, pc: fit.pc,
-      tiltXOff: d.tiltXOff!, tiltYOff: d.tiltYOff!,
-      dxOff: d.dxOff!, dyOff: d.dyOff!, yawOff: d.yawOff!,
+      pa: fit.pa,
+      pb: fit.pb,
+      pc: fit.pc,
+      tiltXOff: d.tiltXOff!,
+      tiltYOff: d.tiltYOff!,
+      dxOff: d.dxOff!,
+      dyOff: d.dyOff!,
+      yawOff: d.yawOff!,
       axisOff: d.axisOff!,
       sensor: sensorIdx.get(e.id) ?? -1,
       Rnom,

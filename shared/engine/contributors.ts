@@ -91,7 +91,8 @@ export function linearisedContributions(m: Model, metricIdx: number[]): Linearis
     }
   }
   if (nAtt > 0) {
-    let worst = 0, worstVar = -1;
+    let worst = 0,
+      worstVar = -1;
     for (let k = 0; k < nAtt; k++) {
       let v = 0;
       for (let d = 0; d < D; d++) v += hJ2[d * nAtt + k];
@@ -143,7 +144,9 @@ export function stackUp(m: Model, lin: LinearisedResult[]): StackUpRow[] {
   return lin
     .filter((l) => l.basis === "variance")
     .map((l) => {
-      let wc = 0, rss = 0, v = 0;
+      let wc = 0,
+        rss = 0,
+        v = 0;
       for (let d = 0; d < m.drawCount; d++) {
         const a = l.slopes[d];
         const T = m.drawDist[d].halfWidth;
@@ -152,7 +155,13 @@ export function stackUp(m: Model, lin: LinearisedResult[]): StackUpRow[] {
         rss += (a * T) ** 2;
         v += (a * sg) ** 2;
       }
-      return { metric: l.metric, nominal: l.nominal, worstCase: Math.abs(l.nominal) + wc, rss: Math.abs(l.nominal) + Math.sqrt(rss), linearStd: Math.sqrt(v) };
+      return {
+        metric: l.metric,
+        nominal: l.nominal,
+        worstCase: Math.abs(l.nominal) + wc,
+        rss: Math.abs(l.nominal) + Math.sqrt(rss),
+        linearStd: Math.sqrt(v),
+      };
     });
 }
 
@@ -169,7 +178,13 @@ export interface RegressionResult {
  * zy = Σ z·y, yy = Σ y². Returns null when the sample cannot support the fit.
  */
 export function regressionFromSums(
-  m: Model, cols: Int32Array, tri: Float64Array, zy: Float64Array, yy: number, metric: string, design: "linear" | "squared",
+  m: Model,
+  cols: Int32Array,
+  tri: Float64Array,
+  zy: Float64Array,
+  yy: number,
+  metric: string,
+  design: "linear" | "squared",
 ): RegressionResult | null {
   const p = cols.length;
   const L = p + 1;

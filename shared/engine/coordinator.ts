@@ -125,9 +125,11 @@ export class Coordinator {
     const nM = this.model.metrics.length;
     // Chan et al.: combine (n_a, mean_a, M2_a) with the block's (n_b, mean_b, M2_b)
     for (let k = 0; k < nM; k++) {
-      const na = this.count[k], nb = p.n;
+      const na = this.count[k],
+        nb = p.n;
       if (nb === 0) continue;
-      const mb = p.moments[2 * k], m2b = p.moments[2 * k + 1];
+      const mb = p.moments[2 * k],
+        m2b = p.moments[2 * k + 1];
       const n = na + nb;
       const d = mb - this.mean[k];
       this.mean[k] += (d * nb) / n;

@@ -88,18 +88,30 @@ export function buildAttitudes(opts: {
     ey: new Float64Array(count),
   };
   for (let j = 0; j < nPsi; j++) {
-    const c = Math.cos(j * step * DEG), sn = Math.sin(j * step * DEG);
-    a.hc[j] = c; a.hs[j] = sn; a.hcc[j] = c * c; a.hcs[j] = c * sn; a.hss[j] = sn * sn;
+    const c = Math.cos(j * step * DEG),
+      sn = Math.sin(j * step * DEG);
+    a.hc[j] = c;
+    a.hs[j] = sn;
+    a.hcc[j] = c * c;
+    a.hcs[j] = c * sn;
+    a.hss[j] = sn * sn;
   }
   tilts.forEach((t, ti) => {
     const L = mul(transposeOf(rotX(t.rollDeg * DEG, mat3())), transposeOf(rotY(t.pitchDeg * DEG, mat3())), mat3());
     a.tiltL.set(L, 9 * ti);
-    a.tiltF[3 * ti] = -L[2]; a.tiltF[3 * ti + 1] = -L[5]; a.tiltF[3 * ti + 2] = -L[8];
+    a.tiltF[3 * ti] = -L[2];
+    a.tiltF[3 * ti + 1] = -L[5];
+    a.tiltF[3 * ti + 2] = -L[8];
   });
   const I = opts.inclinationDeg * DEG;
   const gN = new Float64Array([0, 0, 1]);
   const mN = new Float64Array([Math.cos(I), 0, Math.sin(I)]);
-  const Rz = mat3(), Ry = mat3(), Rx = mat3(), T = mat3(), Cbn = mat3(), v = vec3();
+  const Rz = mat3(),
+    Ry = mat3(),
+    Rx = mat3(),
+    T = mat3(),
+    Cbn = mat3(),
+    v = vec3();
   let k = 0;
   for (const t of tilts) {
     for (let j = 0; j < nPsi; j++, k++) {
@@ -112,9 +124,13 @@ export function buildAttitudes(opts: {
       // Cbnᵀ·v
       const CbnT = mulTA(Cbn, identity3, T);
       mulVec(CbnT, gN, v);
-      a.f[3 * k] = -v[0]; a.f[3 * k + 1] = -v[1]; a.f[3 * k + 2] = -v[2];
+      a.f[3 * k] = -v[0];
+      a.f[3 * k + 1] = -v[1];
+      a.f[3 * k + 2] = -v[2];
       mulVec(CbnT, mN, v);
-      a.m[3 * k] = v[0]; a.m[3 * k + 1] = v[1]; a.m[3 * k + 2] = v[2];
+      a.m[3 * k] = v[0];
+      a.m[3 * k + 1] = v[1];
+      a.m[3 * k + 2] = v[2];
       a.psiDeg[k] = psi;
       a.cosPsi[k] = Math.cos(psi * DEG);
       a.sinPsi[k] = Math.sin(psi * DEG);
@@ -137,41 +153,88 @@ const sweepResult = { maxAbs: 0, rms: 0 };
  */
 function levelledField(Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes): void {
   // Q·C·Q flips the sign of the entries that mix body x with body y or z
-  const a0 = Ca[ca], a1 = -Ca[ca + 1], a2 = -Ca[ca + 2];
-  const a3 = -Ca[ca + 3], a4 = Ca[ca + 4], a5 = Ca[ca + 5];
-  const a6 = -Ca[ca + 6], a7 = Ca[ca + 7], a8 = Ca[ca + 8];
-  const m0 = Cm[cm], m1 = -Cm[cm + 1], m2 = -Cm[cm + 2];
-  const m3 = -Cm[cm + 3], m4 = Cm[cm + 4], m5 = Cm[cm + 5];
-  const m6 = -Cm[cm + 6], m7 = Cm[cm + 7], m8 = Cm[cm + 8];
-  const nPsi = att.headingsPerTilt, nT = att.tilts.length;
-  const TL = att.tiltL, TF = att.tiltF;
-  const hc = att.hc, hs = att.hs, hcc = att.hcc, hcs = att.hcs, hss = att.hss;
-  const cosI = att.cosI, sinI = att.sinI;
-  const EX = att.ex, EY = att.ey;
+  const a0 = Ca[ca],
+    a1 = -Ca[ca + 1],
+    a2 = -Ca[ca + 2];
+  const a3 = -Ca[ca + 3],
+    a4 = Ca[ca + 4],
+    a5 = Ca[ca + 5];
+  const a6 = -Ca[ca + 6],
+    a7 = Ca[ca + 7],
+    a8 = Ca[ca + 8];
+  const m0 = Cm[cm],
+    m1 = -Cm[cm + 1],
+    m2 = -Cm[cm + 2];
+  const m3 = -Cm[cm + 3],
+    m4 = Cm[cm + 4],
+    m5 = Cm[cm + 5];
+  const m6 = -Cm[cm + 6],
+    m7 = Cm[cm + 7],
+    m8 = Cm[cm + 8];
+  const nPsi = att.headingsPerTilt,
+    nT = att.tilts.length;
+  const TL = att.tiltL,
+    TF = att.tiltF;
+  const hc = att.hc,
+    hs = att.hs,
+    hcc = att.hcc,
+    hcs = att.hcs,
+    hss = att.hss;
+  const cosI = att.cosI,
+    sinI = att.sinI;
+  const EX = att.ex,
+    EY = att.ey;
   for (let t = 0; t < nT; t++) {
-    const o = 3 * t, l = 9 * t;
-    const tfx = TF[o], tfy = TF[o + 1], tfz = TF[o + 2];
+    const o = 3 * t,
+      l = 9 * t;
+    const tfx = TF[o],
+      tfy = TF[o + 1],
+      tfz = TF[o + 2];
     const fx = a0 * tfx + a1 * tfy + a2 * tfz;
     const fy = a3 * tfx + a4 * tfy + a5 * tfz;
     const fz = a6 * tfx + a7 * tfy + a8 * tfz;
     const r2 = fy * fy + fz * fz;
     const N = Math.sqrt(r2 + fx * fx);
     // u = (r², −fx·fy, −fx·fz), v = (0, N·fz, −N·fy); U = uᵀ·Mm·L, V = vᵀ·Mm·L
-    const u0 = r2, u1 = -fx * fy, u2 = -fx * fz;
-    const v1 = N * fz, v2 = -N * fy;
-    const p0 = u0 * m0 + u1 * m3 + u2 * m6, p1 = u0 * m1 + u1 * m4 + u2 * m7, p2 = u0 * m2 + u1 * m5 + u2 * m8;
-    const q0 = v1 * m3 + v2 * m6, q1 = v1 * m4 + v2 * m7, q2 = v1 * m5 + v2 * m8;
-    const L0 = TL[l], L1 = TL[l + 1], L2 = TL[l + 2], L3 = TL[l + 3], L4 = TL[l + 4], L5 = TL[l + 5];
-    const L6 = TL[l + 6], L7 = TL[l + 7], L8 = TL[l + 8];
-    const U0 = p0 * L0 + p1 * L3 + p2 * L6, U1 = p0 * L1 + p1 * L4 + p2 * L7, U2 = p0 * L2 + p1 * L5 + p2 * L8;
-    const V0 = q0 * L0 + q1 * L3 + q2 * L6, V1 = q0 * L1 + q1 * L4 + q2 * L7, V2 = q0 * L2 + q1 * L5 + q2 * L8;
-    const A = U0 * cosI, B = -U1 * cosI, C = U2 * sinI;
-    const D = V0 * cosI, E = -V1 * cosI, F = V2 * sinI;
-    const BD = B + D, EA = E - A;
+    const u0 = r2,
+      u1 = -fx * fy,
+      u2 = -fx * fz;
+    const v1 = N * fz,
+      v2 = -N * fy;
+    const p0 = u0 * m0 + u1 * m3 + u2 * m6,
+      p1 = u0 * m1 + u1 * m4 + u2 * m7,
+      p2 = u0 * m2 + u1 * m5 + u2 * m8;
+    const q0 = v1 * m3 + v2 * m6,
+      q1 = v1 * m4 + v2 * m7,
+      q2 = v1 * m5 + v2 * m8;
+    const L0 = TL[l],
+      L1 = TL[l + 1],
+      L2 = TL[l + 2],
+      L3 = TL[l + 3],
+      L4 = TL[l + 4],
+      L5 = TL[l + 5];
+    const L6 = TL[l + 6],
+      L7 = TL[l + 7],
+      L8 = TL[l + 8];
+    const U0 = p0 * L0 + p1 * L3 + p2 * L6,
+      U1 = p0 * L1 + p1 * L4 + p2 * L7,
+      U2 = p0 * L2 + p1 * L5 + p2 * L8;
+    const V0 = q0 * L0 + q1 * L3 + q2 * L6,
+      V1 = q0 * L1 + q1 * L4 + q2 * L7,
+      V2 = q0 * L2 + q1 * L5 + q2 * L8;
+    const A = U0 * cosI,
+      B = -U1 * cosI,
+      C = U2 * sinI;
+    const D = V0 * cosI,
+      E = -V1 * cosI,
+      F = V2 * sinI;
+    const BD = B + D,
+      EA = E - A;
     const base = t * nPsi;
     for (let j = 0; j < nPsi; j++) {
       // (ex, ey) = (h_x, −h_y) turned by −ψ; its angle is e = ψ^ − ψ in (−π, π]
-      const c = hc[j], s = hs[j];
+      const c = hc[j],
+        s = hs[j];
       EX[base + j] = A * hcc[j] + BD * hcs[j] + E * hss[j] + C * c + F * s;
       EY[base + j] = D * hcc[j] + EA * hcs[j] - B * hss[j] + F * c - C * s;
     }
@@ -190,20 +253,29 @@ function levelledField(Ca: Float64Array, ca: number, Cm: Float64Array, cm: numbe
  * tilt, and after the turn by −ψ each heading needs a handful of products and one atan2.
  */
 export function headingSweep(
-  Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes, out: Float64Array,
+  Ca: Float64Array,
+  ca: number,
+  Cm: Float64Array,
+  cm: number,
+  att: Attitudes,
+  out: Float64Array,
 ): { maxAbs: number; rms: number } {
   levelledField(Ca, ca, Cm, cm, att);
-  const EX = att.ex, EY = att.ey;
-  let maxAbs = 0, sum2 = 0;
+  const EX = att.ex,
+    EY = att.ey;
+  let maxAbs = 0,
+    sum2 = 0;
   // second pass: the angles, in a loop small enough to keep its values in registers
   const n = att.count;
   for (let k = 0; k < n; k++) {
-    const x = EX[k], y = EY[k];
+    const x = EX[k],
+      y = EY[k];
     const ay = y < 0 ? -y : y;
     let e: number;
     if (x > 0 && ay <= 0.03125 * x) {
       // the series of fastmath.atan2Fast's first range, inlined by hand
-      const t = y / x, t2 = t * t;
+      const t = y / x,
+        t2 = t * t;
       e = t * (1 + t2 * (-1 / 3 + t2 * (1 / 5 + t2 * (-1 / 7 + t2 * (1 / 9 + t2 * (-1 / 11 + t2 * (1 / 13))))))) * TO_DEG;
     } else e = atan2Fast(y, x) * TO_DEG;
     out[k] = e;
@@ -217,15 +289,25 @@ export function headingSweep(
 }
 
 /** The section 6 equations step by step, for one attitude (deg in, deg out). */
-export function headingErrorReference(Ca: Float64Array, Cm: Float64Array, inclinationDeg: number, psiDeg: number, pitchDeg: number, rollDeg: number): number {
+export function headingErrorReference(
+  Ca: Float64Array,
+  Cm: Float64Array,
+  inclinationDeg: number,
+  psiDeg: number,
+  pitchDeg: number,
+  rollDeg: number,
+): number {
   const Q = new Float64Array([1, 0, 0, 0, -1, 0, 0, 0, -1]);
-  const Cbn = mat3(), T = mat3();
+  const Cbn = mat3(),
+    T = mat3();
   mul(rotZ(psiDeg * DEG, mat3()), rotY(pitchDeg * DEG, mat3()), T);
   mul(T, rotX(rollDeg * DEG, mat3()), Cbn);
   const CbnT = mulTA(Cbn, identity3, mat3());
   const I = inclinationDeg * DEG;
   const f = mulVec(CbnT, new Float64Array([0, 0, 1]), vec3());
-  f[0] = -f[0]; f[1] = -f[1]; f[2] = -f[2];
+  f[0] = -f[0];
+  f[1] = -f[1];
+  f[2] = -f[2];
   const m = mulVec(CbnT, new Float64Array([Math.cos(I), 0, Math.sin(I)]), vec3());
   const QCaQ = mul(mul(Q, Ca, mat3()), Q, mat3());
   const QCmQ = mul(mul(Q, Cm, mat3()), Q, mat3());
@@ -259,13 +341,26 @@ const screenResult = { maxAbs: 0, rms: 0 };
  * - Every attitude outside that range (error above 1.8°, or ex ≤ 0) is evaluated exactly,
  *   one atan2 each, and enters both figures directly.
  */
-export function headingSweepScreened(Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes): { maxAbs: number; rms: number } {
+export function headingSweepScreened(
+  Ca: Float64Array,
+  ca: number,
+  Cm: Float64Array,
+  cm: number,
+  att: Attitudes,
+): { maxAbs: number; rms: number } {
   levelledField(Ca, ca, Cm, cm, att);
-  const EX = att.ex, EY = att.ey;
+  const EX = att.ex,
+    EY = att.ey;
   const n = att.count;
-  let tMax = 0, s2 = 0, s4 = 0, s6 = 0, wide2 = 0, wideMax = 0;
+  let tMax = 0,
+    s2 = 0,
+    s4 = 0,
+    s6 = 0,
+    wide2 = 0,
+    wideMax = 0;
   for (let k = 0; k < n; k++) {
-    const x = EX[k], y = EY[k];
+    const x = EX[k],
+      y = EY[k];
     const ay = y < 0 ? -y : y;
     if (x > 0 && ay <= SCREEN_T * x) {
       const t = ay / x;

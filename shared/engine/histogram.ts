@@ -67,7 +67,8 @@ export class LogHistogram {
   }
 
   merge(o: LogHistogram): void {
-    const c = this.counts, d = o.counts;
+    const c = this.counts,
+      d = o.counts;
     for (let i = 0; i < c.length; i++) c[i] += d[i];
   }
 
@@ -100,7 +101,9 @@ export class LogHistogram {
     const n = this.total();
     if (n === 0) return NaN;
     const r = q * (n - 1);
-    const lo = Math.floor(r), hi = Math.min(n - 1, lo + 1), frac = r - lo;
+    const lo = Math.floor(r),
+      hi = Math.min(n - 1, lo + 1),
+      frac = r - lo;
     const at = (idx: number): number => {
       // the extreme order statistics are known exactly
       if (idx >= n - 1) return maxAbs;
@@ -133,7 +136,9 @@ export class LogHistogram {
     const n = this.total();
     if (n === 0) return NaN;
     const r = q * (n - 1);
-    const lo = Math.floor(r), hi = Math.min(n - 1, lo + 1), frac = r - lo;
+    const lo = Math.floor(r),
+      hi = Math.min(n - 1, lo + 1),
+      frac = r - lo;
     const maxAbs = Math.max(Math.abs(min), Math.abs(max));
     const at = (idx: number): number => {
       if (idx >= n - 1) return max;
@@ -173,27 +178,36 @@ export class LogHistogram {
     const P = this.perSign;
     const c = this.counts;
     // non-empty buckets in value order, with their bounds and cumulative counts
-    const lo: number[] = [], hi: number[] = [], cum: number[] = [];
+    const lo: number[] = [],
+      hi: number[] = [],
+      cum: number[] = [];
     let n = 0;
     const maxAbs = Math.max(Math.abs(min), Math.abs(max));
     for (let b = P - 1; b >= 0; b--) {
       const k = c[P + b];
       if (!k) continue;
       const [l, u] = this.magnitudeBounds(b, maxAbs);
-      lo.push(-u); hi.push(-l); n += k; cum.push(n);
+      lo.push(-u);
+      hi.push(-l);
+      n += k;
+      cum.push(n);
     }
     for (let b = 0; b < P; b++) {
       const k = c[b];
       if (!k) continue;
       const [l, u] = this.magnitudeBounds(b, maxAbs);
-      lo.push(l); hi.push(u); n += k; cum.push(n);
+      lo.push(l);
+      hi.push(u);
+      n += k;
+      cum.push(n);
     }
     if (n === 0) return [NaN, NaN];
     const at = (q: number): number => {
       const idx = q * (n - 1);
       if (idx <= 0) return min;
       if (idx >= n - 1) return max;
-      let a = 0, z = cum.length - 1;
+      let a = 0,
+        z = cum.length - 1;
       while (a < z) {
         const mid = (a + z) >> 1;
         if (cum[mid] > idx) z = mid;
@@ -208,7 +222,8 @@ export class LogHistogram {
     const steps = 200;
     for (let i = 1; i <= steps; i++) {
       const q = ((1 - p) * i) / steps;
-      const l = at(q), u = at(q + p);
+      const l = at(q),
+        u = at(q + p);
       if (u - l < best[1] - best[0]) best = [l, u];
     }
     return best;
@@ -244,7 +259,8 @@ export class LogHistogram {
       counts[i] += k;
     };
     for (let b = 0; b < P; b++) {
-      const kp = this.counts[b], kn = this.counts[P + b];
+      const kp = this.counts[b],
+        kn = this.counts[P + b];
       if (kp === 0 && kn === 0) continue;
       const [l, u] = this.magnitudeBounds(b, maxAbs);
       const mid = 0.5 * (l + Math.min(u, maxAbs));

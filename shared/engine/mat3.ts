@@ -24,9 +24,15 @@ export function fromRows(rows: ArrayLike<number>[], out: Mat3 = mat3()): Mat3 {
 }
 
 export function identity(out: Mat3): Mat3 {
-  out[0] = 1; out[1] = 0; out[2] = 0;
-  out[3] = 0; out[4] = 1; out[5] = 0;
-  out[6] = 0; out[7] = 0; out[8] = 1;
+  out[0] = 1;
+  out[1] = 0;
+  out[2] = 0;
+  out[3] = 0;
+  out[4] = 1;
+  out[5] = 0;
+  out[6] = 0;
+  out[7] = 0;
+  out[8] = 1;
   return out;
 }
 
@@ -37,8 +43,24 @@ export function copy(a: Mat3, out: Mat3): Mat3 {
 
 /** out = a · b */
 export function mul(a: Mat3, b: Mat3, out: Mat3): Mat3 {
-  const a0 = a[0], a1 = a[1], a2 = a[2], a3 = a[3], a4 = a[4], a5 = a[5], a6 = a[6], a7 = a[7], a8 = a[8];
-  const b0 = b[0], b1 = b[1], b2 = b[2], b3 = b[3], b4 = b[4], b5 = b[5], b6 = b[6], b7 = b[7], b8 = b[8];
+  const a0 = a[0],
+    a1 = a[1],
+    a2 = a[2],
+    a3 = a[3],
+    a4 = a[4],
+    a5 = a[5],
+    a6 = a[6],
+    a7 = a[7],
+    a8 = a[8];
+  const b0 = b[0],
+    b1 = b[1],
+    b2 = b[2],
+    b3 = b[3],
+    b4 = b[4],
+    b5 = b[5],
+    b6 = b[6],
+    b7 = b[7],
+    b8 = b[8];
   out[0] = a0 * b0 + a1 * b3 + a2 * b6;
   out[1] = a0 * b1 + a1 * b4 + a2 * b7;
   out[2] = a0 * b2 + a1 * b5 + a2 * b8;
@@ -53,8 +75,24 @@ export function mul(a: Mat3, b: Mat3, out: Mat3): Mat3 {
 
 /** out = aᵀ · b */
 export function mulTA(a: Mat3, b: Mat3, out: Mat3): Mat3 {
-  const a0 = a[0], a1 = a[3], a2 = a[6], a3 = a[1], a4 = a[4], a5 = a[7], a6 = a[2], a7 = a[5], a8 = a[8];
-  const b0 = b[0], b1 = b[1], b2 = b[2], b3 = b[3], b4 = b[4], b5 = b[5], b6 = b[6], b7 = b[7], b8 = b[8];
+  const a0 = a[0],
+    a1 = a[3],
+    a2 = a[6],
+    a3 = a[1],
+    a4 = a[4],
+    a5 = a[7],
+    a6 = a[2],
+    a7 = a[5],
+    a8 = a[8];
+  const b0 = b[0],
+    b1 = b[1],
+    b2 = b[2],
+    b3 = b[3],
+    b4 = b[4],
+    b5 = b[5],
+    b6 = b[6],
+    b7 = b[7],
+    b8 = b[8];
   out[0] = a0 * b0 + a1 * b3 + a2 * b6;
   out[1] = a0 * b1 + a1 * b4 + a2 * b7;
   out[2] = a0 * b2 + a1 * b5 + a2 * b8;
@@ -69,8 +107,24 @@ export function mulTA(a: Mat3, b: Mat3, out: Mat3): Mat3 {
 
 /** out = a · bᵀ */
 export function mulTB(a: Mat3, b: Mat3, out: Mat3): Mat3 {
-  const a0 = a[0], a1 = a[1], a2 = a[2], a3 = a[3], a4 = a[4], a5 = a[5], a6 = a[6], a7 = a[7], a8 = a[8];
-  const b0 = b[0], b1 = b[3], b2 = b[6], b3 = b[1], b4 = b[4], b5 = b[7], b6 = b[2], b7 = b[5], b8 = b[8];
+  const a0 = a[0],
+    a1 = a[1],
+    a2 = a[2],
+    a3 = a[3],
+    a4 = a[4],
+    a5 = a[5],
+    a6 = a[6],
+    a7 = a[7],
+    a8 = a[8];
+  const b0 = b[0],
+    b1 = b[3],
+    b2 = b[6],
+    b3 = b[1],
+    b4 = b[4],
+    b5 = b[7],
+    b6 = b[2],
+    b7 = b[5],
+    b8 = b[8];
   out[0] = a0 * b0 + a1 * b3 + a2 * b6;
   out[1] = a0 * b1 + a1 * b4 + a2 * b7;
   out[2] = a0 * b2 + a1 * b5 + a2 * b8;
@@ -84,25 +138,36 @@ export function mulTB(a: Mat3, b: Mat3, out: Mat3): Mat3 {
 }
 
 export function transpose(a: Mat3, out: Mat3): Mat3 {
-  const a1 = a[1], a2 = a[2], a5 = a[5];
-  out[0] = a[0]; out[4] = a[4]; out[8] = a[8];
-  out[1] = a[3]; out[3] = a1;
-  out[2] = a[6]; out[6] = a2;
-  out[5] = a[7]; out[7] = a5;
+  const a1 = a[1],
+    a2 = a[2],
+    a5 = a[5];
+  out[0] = a[0];
+  out[4] = a[4];
+  out[8] = a[8];
+  out[1] = a[3];
+  out[3] = a1;
+  out[2] = a[6];
+  out[6] = a2;
+  out[5] = a[7];
+  out[7] = a5;
   return out;
 }
 
 export function det(a: Mat3): number {
-  return (
-    a[0] * (a[4] * a[8] - a[5] * a[7]) -
-    a[1] * (a[3] * a[8] - a[5] * a[6]) +
-    a[2] * (a[3] * a[7] - a[4] * a[6])
-  );
+  return a[0] * (a[4] * a[8] - a[5] * a[7]) - a[1] * (a[3] * a[8] - a[5] * a[6]) + a[2] * (a[3] * a[7] - a[4] * a[6]);
 }
 
 /** General inverse (cross-axis matrices are not orthogonal). Returns false if singular. */
 export function invert(a: Mat3, out: Mat3): boolean {
-  const a0 = a[0], a1 = a[1], a2 = a[2], a3 = a[3], a4 = a[4], a5 = a[5], a6 = a[6], a7 = a[7], a8 = a[8];
+  const a0 = a[0],
+    a1 = a[1],
+    a2 = a[2],
+    a3 = a[3],
+    a4 = a[4],
+    a5 = a[5],
+    a6 = a[6],
+    a7 = a[7],
+    a8 = a[8];
   const c0 = a4 * a8 - a5 * a7;
   const c3 = a5 * a6 - a3 * a8;
   const c6 = a3 * a7 - a4 * a6;
@@ -123,7 +188,9 @@ export function invert(a: Mat3, out: Mat3): boolean {
 
 /** out = m · v */
 export function mulVec(m: Mat3, v: Vec3, out: Vec3): Vec3 {
-  const x = v[0], y = v[1], z = v[2];
+  const x = v[0],
+    y = v[1],
+    z = v[2];
   out[0] = m[0] * x + m[1] * y + m[2] * z;
   out[1] = m[3] * x + m[4] * y + m[5] * z;
   out[2] = m[6] * x + m[7] * y + m[8] * z;

@@ -33,7 +33,8 @@ export function prepareStudy(stack: StackFile, study: StudyFile, overrides: Stud
   };
   const requirements = (s.requirements ?? []).map((r) => ({ id: r.metric, metric: idx(r.metric), max: r.max, yield: r.yield }));
   const tracked: TrackedSpec[] = [];
-  for (const r of requirements) if (!tracked.some((t) => t.metric === r.metric)) tracked.push({ metric: r.metric, limit: r.max, p: r.yield });
+  for (const r of requirements)
+    if (!tracked.some((t) => t.metric === r.metric)) tracked.push({ metric: r.metric, limit: r.max, p: r.yield });
   for (const id of s.adaptive?.metrics ?? []) {
     const k = idx(id);
     if (!tracked.some((t) => t.metric === k)) tracked.push({ metric: k, limit: NaN, p: s.adaptive?.coverage ?? 0.95 });
@@ -43,9 +44,7 @@ export function prepareStudy(stack: StackFile, study: StudyFile, overrides: Stud
     tracked.push({ metric: k, limit: NaN, p: s.adaptive?.coverage ?? 0.95 });
   }
 
-  const cols = Int32Array.from(
-    model.drawDist.map((d, i) => (d.sigma > 0 ? i : -1)).filter((i) => i >= 0),
-  );
+  const cols = Int32Array.from(model.drawDist.map((d, i) => (d.sigma > 0 ? i : -1)).filter((i) => i >= 0));
   const regMetrics: RegressionSpec["metrics"] = [];
   for (const r of requirements) {
     if (regMetrics.some((x) => x.metric === r.metric)) continue;
@@ -77,4 +76,3 @@ export function prepareStudy(stack: StackFile, study: StudyFile, overrides: Stud
   };
   return { stack, study: s, model, plan, adaptive };
 }
-

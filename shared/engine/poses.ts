@@ -21,7 +21,9 @@ export function poses(m: Model, draws: Float64Array): ElementPose[] {
   const place = (d: Float64Array, Rs: Float64Array, P: Float64Array) => {
     m.elements.forEach((e, i) => {
       if (e.parent < 0) {
-        P[3 * i] = 0; P[3 * i + 1] = 0; P[3 * i + 2] = -e.size.z;
+        P[3 * i] = 0;
+        P[3 * i + 1] = 0;
+        P[3 * i + 2] = -e.size.z;
         return;
       }
       const p = m.elements[e.parent];
@@ -55,4 +57,3 @@ export function poses(m: Model, draws: Float64Array): ElementPose[] {
   list.sort((a, b) => a.fileIndex - b.fileIndex);
   return list.map((l) => l.pose);
 }
-

@@ -22,8 +22,10 @@ export interface U64 {
 /** (a · b) mod 2^64 for 64-bit a, b given as halves. */
 function mul64(ahi: number, alo: number, bhi: number, blo: number, out: U64): void {
   // full 32x32 -> 64 product of the low words through 16-bit limbs
-  const a0 = alo & 0xffff, a1 = alo >>> 16;
-  const b0 = blo & 0xffff, b1 = blo >>> 16;
+  const a0 = alo & 0xffff,
+    a1 = alo >>> 16;
+  const b0 = blo & 0xffff,
+    b1 = blo >>> 16;
   const p00 = a0 * b0;
   const p01 = a0 * b1;
   const p10 = a1 * b0;
@@ -54,17 +56,20 @@ export class SplitMix64 {
     const carry = lo < this.lo ? 1 : 0;
     this.lo = lo;
     this.hi = (this.hi + 0x9e3779b9 + carry) >>> 0;
-    let zh = this.hi, zl = this.lo;
+    let zh = this.hi,
+      zl = this.lo;
     // z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9
     zl = (zl ^ ((zl >>> 30) | (zh << 2))) >>> 0;
     zh = (zh ^ (zh >>> 30)) >>> 0;
     mul64(zh, zl, 0xbf58476d, 0x1ce4e5b9, this.t);
-    zh = this.t.hi; zl = this.t.lo;
+    zh = this.t.hi;
+    zl = this.t.lo;
     // z = (z ^ (z >> 27)) * 0x94d049bb133111eb
     zl = (zl ^ ((zl >>> 27) | (zh << 5))) >>> 0;
     zh = (zh ^ (zh >>> 27)) >>> 0;
     mul64(zh, zl, 0x94d049bb, 0x133111eb, this.t);
-    zh = this.t.hi; zl = this.t.lo;
+    zh = this.t.hi;
+    zl = this.t.lo;
     // z ^ (z >> 31)
     out.lo = (zl ^ ((zl >>> 31) | (zh << 1))) >>> 0;
     out.hi = (zh ^ (zh >>> 31)) >>> 0;
@@ -116,19 +121,35 @@ export class Xoshiro128ss {
    * calls this once per trial, so no double crosses a call boundary (which would box it).
    */
   fillOpen01(out: Float64Array, n: number): void {
-    let s0 = this.s0, s1 = this.s1, s2 = this.s2, s3 = this.s3;
+    let s0 = this.s0,
+      s1 = this.s1,
+      s2 = this.s2,
+      s3 = this.s3;
     for (let i = 0; i < n; i++) {
       let m = Math.imul(s1, 5);
       const ra = Math.imul((m << 7) | (m >>> 25), 9) >>> 5;
       let t = s1 << 9;
-      s2 ^= s0; s3 ^= s1; s1 ^= s2; s0 ^= s3; s2 ^= t; s3 = (s3 << 11) | (s3 >>> 21);
+      s2 ^= s0;
+      s3 ^= s1;
+      s1 ^= s2;
+      s0 ^= s3;
+      s2 ^= t;
+      s3 = (s3 << 11) | (s3 >>> 21);
       m = Math.imul(s1, 5);
       const rb = Math.imul((m << 7) | (m >>> 25), 9) >>> 6;
       t = s1 << 9;
-      s2 ^= s0; s3 ^= s1; s1 ^= s2; s0 ^= s3; s2 ^= t; s3 = (s3 << 11) | (s3 >>> 21);
+      s2 ^= s0;
+      s3 ^= s1;
+      s1 ^= s2;
+      s0 ^= s3;
+      s2 ^= t;
+      s3 = (s3 << 11) | (s3 >>> 21);
       out[i] = (ra * 67108864 + rb + 0.5) / 9007199254740992;
     }
-    this.s0 = s0; this.s1 = s1; this.s2 = s2; this.s3 = s3;
+    this.s0 = s0;
+    this.s1 = s1;
+    this.s2 = s2;
+    this.s3 = s3;
   }
 
   /** Skip n outputs of nextU32. */
@@ -139,16 +160,25 @@ export class Xoshiro128ss {
   /** The authors' jump(): equivalent to 2^64 calls of nextU32. */
   jump(): void {
     const J = [0x8764000b, 0xf542d2d3, 0x6fa035c3, 0x77f2db5b];
-    let t0 = 0, t1 = 0, t2 = 0, t3 = 0;
+    let t0 = 0,
+      t1 = 0,
+      t2 = 0,
+      t3 = 0;
     for (let i = 0; i < 4; i++) {
       for (let b = 0; b < 32; b++) {
         if ((J[i] >>> b) & 1) {
-          t0 ^= this.s0; t1 ^= this.s1; t2 ^= this.s2; t3 ^= this.s3;
+          t0 ^= this.s0;
+          t1 ^= this.s1;
+          t2 ^= this.s2;
+          t3 ^= this.s3;
         }
         this.nextU32();
       }
     }
-    this.s0 = t0; this.s1 = t1; this.s2 = t2; this.s3 = t3;
+    this.s0 = t0;
+    this.s1 = t1;
+    this.s2 = t2;
+    this.s3 = t3;
   }
 
   state(): [number, number, number, number] {

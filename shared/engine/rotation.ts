@@ -63,26 +63,47 @@ export function tiltToSlope(b: number, c: number, out: Mat3): Mat3 {
 }
 
 export function rotZ(a: number, out: Mat3): Mat3 {
-  const c = Math.cos(a), s = Math.sin(a);
-  out[0] = c; out[1] = -s; out[2] = 0;
-  out[3] = s; out[4] = c; out[5] = 0;
-  out[6] = 0; out[7] = 0; out[8] = 1;
+  const c = Math.cos(a),
+    s = Math.sin(a);
+  out[0] = c;
+  out[1] = -s;
+  out[2] = 0;
+  out[3] = s;
+  out[4] = c;
+  out[5] = 0;
+  out[6] = 0;
+  out[7] = 0;
+  out[8] = 1;
   return out;
 }
 
 export function rotY(a: number, out: Mat3): Mat3 {
-  const c = Math.cos(a), s = Math.sin(a);
-  out[0] = c; out[1] = 0; out[2] = s;
-  out[3] = 0; out[4] = 1; out[5] = 0;
-  out[6] = -s; out[7] = 0; out[8] = c;
+  const c = Math.cos(a),
+    s = Math.sin(a);
+  out[0] = c;
+  out[1] = 0;
+  out[2] = s;
+  out[3] = 0;
+  out[4] = 1;
+  out[5] = 0;
+  out[6] = -s;
+  out[7] = 0;
+  out[8] = c;
   return out;
 }
 
 export function rotX(a: number, out: Mat3): Mat3 {
-  const c = Math.cos(a), s = Math.sin(a);
-  out[0] = 1; out[1] = 0; out[2] = 0;
-  out[3] = 0; out[4] = c; out[5] = -s;
-  out[6] = 0; out[7] = s; out[8] = c;
+  const c = Math.cos(a),
+    s = Math.sin(a);
+  out[0] = 1;
+  out[1] = 0;
+  out[2] = 0;
+  out[3] = 0;
+  out[4] = c;
+  out[5] = -s;
+  out[6] = 0;
+  out[7] = s;
+  out[8] = c;
   return out;
 }
 
@@ -91,7 +112,9 @@ export function rotX(a: number, out: Mat3): Mat3 {
  * instead of acos((tr − 1)/2), which loses half the digits near zero.
  */
 export function rotationAngle(m: Mat3): number {
-  const sx = m[7] - m[5], sy = m[2] - m[6], sz = m[3] - m[1];
+  const sx = m[7] - m[5],
+    sy = m[2] - m[6],
+    sz = m[3] - m[1];
   const sin2 = Math.sqrt(sx * sx + sy * sy + sz * sz); // 2 sin θ
   const cos2 = m[0] + m[4] + m[8] - 1; // 2 cos θ
   return Math.atan2(sin2, cos2);
@@ -106,10 +129,9 @@ export function relativeAngle(a: Mat3, b: Mat3): number {
   const m12 = a[1] * b[2] + a[4] * b[5] + a[7] * b[8];
   const m20 = a[2] * b[0] + a[5] * b[3] + a[8] * b[6];
   const m21 = a[2] * b[1] + a[5] * b[4] + a[8] * b[7];
-  const tr =
-    a[0] * b[0] + a[3] * b[3] + a[6] * b[6] +
-    a[1] * b[1] + a[4] * b[4] + a[7] * b[7] +
-    a[2] * b[2] + a[5] * b[5] + a[8] * b[8];
-  const sx = m21 - m12, sy = m02 - m20, sz = m10 - m01;
+  const tr = a[0] * b[0] + a[3] * b[3] + a[6] * b[6] + a[1] * b[1] + a[4] * b[4] + a[7] * b[7] + a[2] * b[2] + a[5] * b[5] + a[8] * b[8];
+  const sx = m21 - m12,
+    sy = m02 - m20,
+    sz = m10 - m01;
   return Math.atan2(Math.sqrt(sx * sx + sy * sy + sz * sz), tr - 1);
 }

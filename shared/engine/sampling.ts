@@ -26,7 +26,10 @@ export interface BlockSampler {
 
 class RandomSampler implements BlockSampler {
   private readonly u: Float64Array;
-  constructor(private readonly m: Model, private readonly rng: Xoshiro128ss) {
+  constructor(
+    private readonly m: Model,
+    private readonly rng: Xoshiro128ss,
+  ) {
     this.u = new Float64Array(m.drawCount);
   }
   next(draws: Float64Array): void {
@@ -37,7 +40,10 @@ class RandomSampler implements BlockSampler {
 
 class LhsSampler implements BlockSampler {
   private i = 0;
-  constructor(private readonly m: Model, private readonly u: Float64Array) {}
+  constructor(
+    private readonly m: Model,
+    private readonly u: Float64Array,
+  ) {}
   next(draws: Float64Array): void {
     sampleInto(this.m.drawDist, this.u, this.i * this.m.drawCount, draws);
     this.i++;

@@ -102,18 +102,25 @@ export function finalizeStudy(prep: PreparedStudy, coord: Coordinator, state: Wo
     metrics[mi.id] = {
       mean: coord.mean[k],
       std: coord.count[k] > 1 ? Math.sqrt(coord.m2[k] / (coord.count[k] - 1)) : 0,
-      p50, p95, p99, p9973,
+      p50,
+      p95,
+      p99,
+      p9973,
       max: state.maxAbs[k],
       unit: mi.unit,
       signed: mi.signed,
       minValue: state.min[k],
       maxValue: state.max[k],
-      interval95: n > 0 ? [h.quantileSigned(0.025, state.min[k], state.max[k]), h.quantileSigned(0.975, state.min[k], state.max[k])] : [NaN, NaN],
+      interval95:
+        n > 0 ? [h.quantileSigned(0.025, state.min[k], state.max[k]), h.quantileSigned(0.975, state.min[k], state.max[k])] : [NaN, NaN],
       shortest95: n > 0 ? h.shortestInterval(0.95, state.min[k], state.max[k]) : [NaN, NaN],
     };
     const lo = mi.signed ? state.min[k] : 0;
     const hi = mi.signed ? state.max[k] : state.maxAbs[k];
-    histograms[mi.id] = n > 0 ? { abs: !mi.signed, ...h.plotBins(lo, hi > lo ? hi : lo + 1e-12, 60, !mi.signed) } : { abs: !mi.signed, edges: [], counts: [] };
+    histograms[mi.id] =
+      n > 0
+        ? { abs: !mi.signed, ...h.plotBins(lo, hi > lo ? hi : lo + 1e-12, 60, !mi.signed) }
+        : { abs: !mi.signed, edges: [], counts: [] };
     const K = state.worstK;
     const list: { trial: number; value: number }[] = [];
     for (let j = 0; j < K; j++) {
@@ -200,7 +207,10 @@ export function finalizeStudy(prep: PreparedStudy, coord: Coordinator, state: Wo
         .sort((a, b) => b.linearShare - a.linearShare || a.source.localeCompare(b.source)),
     };
   });
-  const stack = stackUp(model, signedMetrics.map((k) => linOf.get(model.metrics[k].id)!)).map((row) => {
+  const stack = stackUp(
+    model,
+    signedMetrics.map((k) => linOf.get(model.metrics[k].id)!),
+  ).map((row) => {
     const k = model.metricIndex.get(row.metric)!;
     const mst = metrics[row.metric];
     return {

@@ -20,7 +20,10 @@ export interface Scratch {
   C: Float64Array; // 9 per sensor, C_eff after evaluate
   Ck: Float64Array;
   delta: Float64Array; // 9 per sensor, R·Rnomᵀ
-  t1: Mat3; t2: Mat3; t3: Mat3; t4: Mat3;
+  t1: Mat3;
+  t2: Mat3;
+  t3: Mat3;
+  t4: Mat3;
   /** small results of the fast-math helpers (six axis tangents, a sine and cosine) */
   fm: Float64Array;
   metrics: Float64Array;
@@ -30,7 +33,8 @@ export interface Scratch {
 }
 
 export function createScratch(m: Model): Scratch {
-  const nE = m.elements.length, nS = m.sensors.length;
+  const nE = m.elements.length,
+    nS = m.sensors.length;
   return {
     R: new Float64Array(9 * nE),
     Rk: new Float64Array(9 * nE),
@@ -38,7 +42,10 @@ export function createScratch(m: Model): Scratch {
     C: new Float64Array(9 * nS),
     Ck: new Float64Array(9 * nS),
     delta: new Float64Array(9 * nS),
-    t1: mat3(), t2: mat3(), t3: mat3(), t4: mat3(),
+    t1: mat3(),
+    t2: mat3(),
+    t3: mat3(),
+    t4: mat3(),
     fm: new Float64Array(8),
     metrics: new Float64Array(m.metrics.length),
     headingErr: new Float64Array(m.heading ? m.heading.attitudes.count : 0),
@@ -49,7 +56,10 @@ export function createScratch(m: Model): Scratch {
 /** R_e = R_parent · W · Rz(yaw + dYaw) · Bl · D for every element (MODEL.md section 3). */
 export function orientations(m: Model, draws: Float64Array, R: Float64Array, s: Scratch): void {
   const els = m.elements;
-  const W = s.t1, Z = s.t2, B = s.t3, T = s.t4;
+  const W = s.t1,
+    Z = s.t2,
+    B = s.t3,
+    T = s.t4;
   for (let i = 0; i < els.length; i++) {
     const e = els[i];
     const o = 9 * i;
@@ -63,13 +73,24 @@ export function orientations(m: Model, draws: Float64Array, R: Float64Array, s: 
     // Rz(yaw + dYaw) by angle addition: the deviation is small, the nominal yaw exact
     if (e.yawOff >= 0) {
       sinCosTo(draws[e.yawOff] * DEG, s.fm, 6);
-      const sd = s.fm[6], cd = s.fm[7];
-      const c = e.cosYaw * cd - e.sinYaw * sd, sn = e.sinYaw * cd + e.cosYaw * sd;
-      Z[0] = c; Z[1] = -sn; Z[2] = 0; Z[3] = sn; Z[4] = c; Z[5] = 0; Z[6] = 0; Z[7] = 0; Z[8] = 1;
+      const sd = s.fm[6],
+        cd = s.fm[7];
+      const c = e.cosYaw * cd - e.sinYaw * sd,
+        sn = e.sinYaw * cd + e.cosYaw * sd;
+      Z[0] = c;
+      Z[1] = -sn;
+      Z[2] = 0;
+      Z[3] = sn;
+      Z[4] = c;
+      Z[5] = 0;
+      Z[6] = 0;
+      Z[7] = 0;
+      Z[8] = 1;
     } else rotZ(e.yaw, Z);
     mul(W, Z, T);
     if (e.supOff >= 0) {
-      let b = 0, c = 0;
+      let b = 0,
+        c = 0;
       for (let k = 0; k < e.nSup; k++) {
         const h = draws[e.supOff + k];
         b += e.pb[k] * h;
@@ -87,7 +108,9 @@ export function orientations(m: Model, draws: Float64Array, R: Float64Array, s: 
     // R_e = R_parent · T, written into the flat array
     const po = 9 * e.parent;
     for (let r = 0; r < 3; r++) {
-      const p0 = R[po + 3 * r], p1 = R[po + 3 * r + 1], p2 = R[po + 3 * r + 2];
+      const p0 = R[po + 3 * r],
+        p1 = R[po + 3 * r + 1],
+        p2 = R[po + 3 * r + 2];
       R[o + 3 * r] = p0 * T[0] + p1 * T[3] + p2 * T[6];
       R[o + 3 * r + 1] = p0 * T[1] + p1 * T[4] + p2 * T[7];
       R[o + 3 * r + 2] = p0 * T[2] + p1 * T[5] + p2 * T[8];
@@ -103,13 +126,24 @@ function crossAxisMatrix(m: Model, si: number, draws: Float64Array, R: Float64Ar
     const o = e.axisOff;
     const G = s.fm;
     tanTo(draws, o, DEG, 6, G, 0);
-    const g1 = G[0], g2 = G[1], g3 = G[2], g4 = G[3], g5 = G[4], g6 = G[5];
+    const g1 = G[0],
+      g2 = G[1],
+      g3 = G[2],
+      g4 = G[3],
+      g5 = G[4],
+      g6 = G[5];
     const nx = 1 / Math.sqrt(1 + g1 * g1 + g2 * g2);
     const ny = 1 / Math.sqrt(g3 * g3 + 1 + g4 * g4);
     const nz = 1 / Math.sqrt(g5 * g5 + g6 * g6 + 1);
-    U[0] = nx; U[1] = g1 * nx; U[2] = g2 * nx;
-    U[3] = g3 * ny; U[4] = ny; U[5] = g4 * ny;
-    U[6] = g5 * nz; U[7] = g6 * nz; U[8] = nz;
+    U[0] = nx;
+    U[1] = g1 * nx;
+    U[2] = g2 * nx;
+    U[3] = g3 * ny;
+    U[4] = ny;
+    U[5] = g4 * ny;
+    U[6] = g5 * nz;
+    U[7] = g6 * nz;
+    U[8] = nz;
   } else identity(U);
   mul(e.Rnom, U, s.t2);
   const Re = s.t3;
@@ -137,7 +171,10 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
       crossAxisMatrix(m, si, masked, s.Rk, s.Ck, s);
       // C_eff = (E · C_k)⁻¹ · C_total
       const sen = m.sensors[si];
-      const E = s.t1, EC = s.t2, inv = s.t3, Ct = s.t4;
+      const E = s.t1,
+        EC = s.t2,
+        inv = s.t3,
+        Ct = s.t4;
       if (sen.calOff >= 0) rotVec(draws[sen.calOff] * DEG, draws[sen.calOff + 1] * DEG, draws[sen.calOff + 2] * DEG, E);
       else identity(E);
       for (let k = 0; k < 9; k++) Ct[k] = s.Ck[9 * si + k];
@@ -155,14 +192,17 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
     const o = 9 * m.sensors[si].element;
     const Rn = e.Rnom;
     for (let r = 0; r < 3; r++) {
-      const a0 = s.R[o + 3 * r], a1 = s.R[o + 3 * r + 1], a2 = s.R[o + 3 * r + 2];
+      const a0 = s.R[o + 3 * r],
+        a1 = s.R[o + 3 * r + 1],
+        a2 = s.R[o + 3 * r + 2];
       s.delta[9 * si + 3 * r] = a0 * Rn[0] + a1 * Rn[1] + a2 * Rn[2];
       s.delta[9 * si + 3 * r + 1] = a0 * Rn[3] + a1 * Rn[4] + a2 * Rn[5];
       s.delta[9 * si + 3 * r + 2] = a0 * Rn[6] + a1 * Rn[7] + a2 * Rn[8];
     }
   }
 
-  let hMax = 0, hRms = 0;
+  let hMax = 0,
+    hRms = 0;
   if (m.heading) {
     const h = m.heading;
     const r =
@@ -174,7 +214,8 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
   }
 
   const out = s.metrics;
-  const C = s.C, R = s.R;
+  const C = s.C,
+    R = s.R;
   const ms = m.metrics;
   for (let k = 0; k < ms.length; k++) {
     const mi = ms[k];
@@ -187,7 +228,9 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
       case 1:
       case 2: {
         const o = 9 * mi.a + 3 * mi.row;
-        const i = mi.row, j = i === 2 ? 0 : i + 1, l = i === 0 ? 2 : i - 1;
+        const i = mi.row,
+          j = i === 2 ? 0 : i + 1,
+          l = i === 0 ? 2 : i - 1;
         const off = Math.sqrt(C[o + j] * C[o + j] + C[o + l] * C[o + l]);
         if (mi.code === 1) out[k] = (100 * off) / Math.abs(C[o + i]);
         else {
@@ -200,8 +243,15 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
         const o = 9 * mi.a;
         const Rn = m.elements[mi.a].Rnom;
         // angle between R·ez and Rnom·ez
-        const ax = R[o + 2], ay = R[o + 5], az = R[o + 8], bx = Rn[2], by = Rn[5], bz = Rn[8];
-        const cx = ay * bz - az * by, cy = az * bx - ax * bz, cz = ax * by - ay * bx;
+        const ax = R[o + 2],
+          ay = R[o + 5],
+          az = R[o + 8],
+          bx = Rn[2],
+          by = Rn[5],
+          bz = Rn[8];
+        const cx = ay * bz - az * by,
+          cy = az * bx - ax * bz,
+          cz = ax * by - ay * bx;
         atan2To(Math.sqrt(cx * cx + cy * cy + cz * cz), ax * bx + ay * by + az * bz, out, k);
         out[k] /= DEG;
         break;
@@ -231,7 +281,9 @@ function relativeAngleTo(d: Float64Array, oa: number, ob: number, out: Float64Ar
   const m20 = d[oa + 2] * d[ob] + d[oa + 5] * d[ob + 3] + d[oa + 8] * d[ob + 6];
   const m10 = d[oa + 1] * d[ob] + d[oa + 4] * d[ob + 3] + d[oa + 7] * d[ob + 6];
   const m01 = d[oa] * d[ob + 1] + d[oa + 3] * d[ob + 4] + d[oa + 6] * d[ob + 7];
-  const sx = m21 - m12, sy = m02 - m20, sz = m10 - m01;
+  const sx = m21 - m12,
+    sy = m02 - m20,
+    sz = m10 - m01;
   atan2To(Math.sqrt(sx * sx + sy * sy + sz * sz), tr - 1, out, i);
 }
 

@@ -41,7 +41,8 @@ export type CapabilityAsk = {
 
 export function capabilityAsk(t: Tolerance, cpkChosen: number): CapabilityAsk {
   const sm = modelledSigma(t);
-  if (sm === null || t.tol === undefined || t.tol === 0) return { cpk: cpkChosen, cpkChosen, raised: false, sigmaMax: null, sigmaModelled: sm };
+  if (sm === null || t.tol === undefined || t.tol === 0)
+    return { cpk: cpkChosen, cpkChosen, raised: false, sigmaMax: null, sigmaModelled: sm };
   const cpkModel = t.tol / (3 * sm);
   // a small margin so that 3 sigmas against 1.0 is not shown as "raised" by rounding
   const raised = cpkModel > cpkChosen + 1e-9;

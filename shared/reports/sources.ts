@@ -87,4 +87,3 @@ export function matchOwner<S extends SupplierRef>(owner: string | null | undefin
   const lower = o.toLowerCase();
   return suppliers.find((s) => s.id.toLowerCase() === lower) ?? suppliers.find((s) => s.name.trim().toLowerCase() === lower) ?? null;
 }
-

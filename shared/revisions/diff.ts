@@ -78,7 +78,8 @@ function toleranceLeaves(prefix: string, label: string, unit: string | null, tol
 function elementLeaves(e: StackElement): Leaf[] {
   const out: Leaf[] = [];
   const base = `elements[${e.id}]`;
-  const get = (path: string) => path.split(".").reduce<unknown>((o, k) => (o && typeof o === "object" ? (o as Record<string, unknown>)[k] : undefined), e);
+  const get = (path: string) =>
+    path.split(".").reduce<unknown>((o, k) => (o && typeof o === "object" ? (o as Record<string, unknown>)[k] : undefined), e);
   for (const [path, w] of Object.entries(ELEMENT_FIELDS)) {
     const v = get(path);
     if (v !== undefined) out.push({ path: `${base}.${path}`, label: `${e.id}: ${w.label}`, unit: w.unit, value: summarise(v) });
@@ -101,29 +102,52 @@ function compareLeaves(before: Leaf[], after: Leaf[], out: StackChange[]) {
   for (const l of before) {
     const n = a.get(l.path);
     if (!n) out.push({ path: l.path, label: l.label, kind: "removed", before: l.value, after: null, unit: l.unit });
-    else if (n.value !== l.value) out.push({ path: l.path, label: l.label, kind: "changed", before: l.value, after: n.value, unit: n.unit ?? l.unit });
+    else if (n.value !== l.value)
+      out.push({ path: l.path, label: l.label, kind: "changed", before: l.value, after: n.value, unit: n.unit ?? l.unit });
   }
-  for (const l of after) if (!b.has(l.path)) out.push({ path: l.path, label: l.label, kind: "added", before: null, after: l.value, unit: l.unit });
+  for (const l of after)
+    if (!b.has(l.path)) out.push({ path: l.path, label: l.label, kind: "added", before: null, after: l.value, unit: l.unit });
 }
 
 const describeElement = (e: StackElement) => `${e.name ?? e.id} (${e.kind}${e.parent ? ` on ${e.parent}` : ""})`;
 
 /** Every change from `before` to `after`: stack fields, elements (added, removed, each field), requirements. */
-export function diffRevisions(before: { stack: StackFile; requirements: RequirementLike[] }, after: { stack: StackFile; requirements: RequirementLike[] }): StackChange[] {
+export function diffRevisions(
+  before: { stack: StackFile; requirements: RequirementLike[] },
+  after: { stack: StackFile; requirements: RequirementLike[] },
+): StackChange[] {
   const out: StackChange[] = [];
   const stackLeaves = (s: StackFile): Leaf[] =>
-    (["name", "notes"] as const).filter((k) => s[k] !== undefined).map((k) => ({ path: k, label: `stack ${k}`, unit: null, value: s[k] ?? null }));
+    (["name", "notes"] as const)
+      .filter((k) => s[k] !== undefined)
+      .map((k) => ({ path: k, label: `stack ${k}`, unit: null, value: s[k] ?? null }));
   compareLeaves(stackLeaves(before.stack), stackLeaves(after.stack), out);
 
   const oldById = new Map(before.stack.elements.map((e) => [e.id, e]));
   const newById = new Map(after.stack.elements.map((e) => [e.id, e]));
   for (const e of before.stack.elements) {
     const n = newById.get(e.id);
-    if (!n) out.push({ path: `elements[${e.id}]`, label: `${e.id}: element`, kind: "removed", before: describeElement(e), after: null, unit: null });
+    if (!n)
+      out.push({
+        path: `elements[${e.id}]`,
+        label: `${e.id}: element`,
+        kind: "removed",
+        before: describeElement(e),
+        after: null,
+        unit: null,
+      });
     else compareLeaves(elementLeaves(e), elementLeaves(n), out);
   }
   for (const e of after.stack.elements) {
-    if (!oldById.has(e.id)) out.push({ path: `elements[${e.id}]`, label: `${e.id}: element`, kind: "added", before: null, after: describeElement(e), unit: null });
+    if (!oldById.has(e.id))
+      out.push({
+        path: `elements[${e.id}]`,
+        label: `${e.id}: element`,
+        kind: "added",
+        before: null,
+        after: describeElement(e),
+        unit: null,
+      });
   }
 
   const reqLeaves = (rs: RequirementLike[]): Leaf[] =>
@@ -131,7 +155,12 @@ export function diffRevisions(before: { stack: StackFile; requirements: Requirem
       const what = r.name ? `${r.name} (${metricLabel(r.metric)})` : metricLabel(r.metric);
       return [
         { path: `requirements[${r.metric}].max`, label: `requirement: ${what}, limit`, unit: unitText(metricUnit(r.metric)), value: r.max },
-        { path: `requirements[${r.metric}].yield`, label: `requirement: ${what}, yield target`, unit: "%", value: Math.round(r.yield * 1e6) / 1e4 },
+        {
+          path: `requirements[${r.metric}].yield`,
+          label: `requirement: ${what}, yield target`,
+          unit: "%",
+          value: Math.round(r.yield * 1e6) / 1e4,
+        },
       ];
     });
   compareLeaves(reqLeaves(before.requirements), reqLeaves(after.requirements), out);

@@ -32,9 +32,7 @@ export const ProjectSchema = z.object({
   updatedAt: z.string(),
   /** Set when archived: read-only, hidden from the default list. */
   archivedAt: z.string().nullable(),
-  lastStudy: z
-    .object({ id: IdSchema, status: z.string(), passes: z.boolean().nullable(), finishedAt: z.string().nullable() })
-    .nullable(),
+  lastStudy: z.object({ id: IdSchema, status: z.string(), passes: z.boolean().nullable(), finishedAt: z.string().nullable() }).nullable(),
 });
 export type Project = z.infer<typeof ProjectSchema>;
 export const ProjectListSchema = z.object({ projects: z.array(ProjectSchema) });
@@ -46,7 +44,10 @@ export const ProjectListQuerySchema = z.object({
 });
 export const DeleteProjectQuerySchema = z.object({
   /** The project's name, typed by an admin to delete a project that holds kept records. */
-  confirm: z.string().max(NAME_MAX + 10, { message: "confirm is too long" }).optional(),
+  confirm: z
+    .string()
+    .max(NAME_MAX + 10, { message: "confirm is too long" })
+    .optional(),
 });
 export const CreateProjectSchema = z.object({
   name: trimmedName("Project name"),

@@ -12,7 +12,14 @@ export const MeasureUnitSchema = z.enum(MEASURE_UNITS, { message: "unit must be 
 export const DatasetFileTypeSchema = z.enum(["csv", "xlsx"]);
 
 /** n values and the gaps (empty cells, NA, N/A, n/a, -, null) beside them */
-const ColumnSummarySchema = z.object({ n: z.number().int(), missing: z.number().int().default(0), mean: z.number(), std: z.number(), min: z.number(), max: z.number() });
+const ColumnSummarySchema = z.object({
+  n: z.number().int(),
+  missing: z.number().int().default(0),
+  mean: z.number(),
+  std: z.number(),
+  min: z.number(),
+  max: z.number(),
+});
 
 export const ColumnMappingSchema = z.object({
   revisionId: IdSchema,
@@ -103,7 +110,10 @@ export const MappingInputSchema = z.object({
 });
 export type MappingInput = z.infer<typeof MappingInputSchema>;
 export const UpdateMappingsSchema = z.object({
-  mappings: z.array(MappingInputSchema, { message: "mappings must be a list" }).min(1, { message: "give at least one mapping" }).max(DATASET_MAX_COLUMNS),
+  mappings: z
+    .array(MappingInputSchema, { message: "mappings must be a list" })
+    .min(1, { message: "give at least one mapping" })
+    .max(DATASET_MAX_COLUMNS),
 });
 export type UpdateMappings = z.infer<typeof UpdateMappingsSchema>;
 
@@ -120,7 +130,9 @@ export const UpdateDatasetSchema = z.object({
 });
 export type UpdateDataset = z.infer<typeof UpdateDatasetSchema>;
 
-export const StatisticsQuerySchema = z.object({ column: z.string({ message: "name the column: ?column=…" }).min(1, { message: "name the column: ?column=…" }) });
+export const StatisticsQuerySchema = z.object({
+  column: z.string({ message: "name the column: ?column=…" }).min(1, { message: "name the column: ?column=…" }),
+});
 
 export const DatasetStatisticsSchema = z.object({
   column: z.string(),
@@ -173,13 +185,33 @@ export const DatasetStatisticsSchema = z.object({
     .nullable(),
   /** the lot column used, and statistics per lot in file order */
   lotColumn: z.string().nullable(),
-  lots: z.array(z.object({ lot: z.string(), n: z.number().int(), mean: z.number(), std: z.number(), min: z.number(), max: z.number(), ppk: z.number().nullable() })),
+  lots: z.array(
+    z.object({
+      lot: z.string(),
+      n: z.number().int(),
+      mean: z.number(),
+      std: z.number(),
+      min: z.number(),
+      max: z.number(),
+      ppk: z.number().nullable(),
+    }),
+  ),
   /** Shewhart individuals and moving-range chart in production (file) order */
   controlChart: z
     .object({
       method: z.string(),
       constants: z.object({ d2: z.number(), D3: z.number(), D4: z.number(), source: z.string() }),
-      points: z.array(z.object({ order: z.number().int(), row: z.number().int(), lot: z.string().nullable(), x: z.number(), mr: z.number().nullable(), outX: z.boolean(), outMr: z.boolean() })),
+      points: z.array(
+        z.object({
+          order: z.number().int(),
+          row: z.number().int(),
+          lot: z.string().nullable(),
+          x: z.number(),
+          mr: z.number().nullable(),
+          outX: z.boolean(),
+          outMr: z.boolean(),
+        }),
+      ),
       x: z.object({ centre: z.number(), lcl: z.number(), ucl: z.number() }),
       mr: z.object({ centre: z.number(), lcl: z.number(), ucl: z.number() }),
       sigmaShortTerm: z.number(),

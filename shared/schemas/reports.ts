@@ -28,13 +28,18 @@ const cpk = (what: string) =>
 export const PngDataUrlSchema = z
   .string({ message: "snapshotPng must be a PNG data URL" })
   .max(SNAPSHOT_MAX_CHARS, { message: "the snapshot is too large: export it at most about 1.4 MB" })
-  .regex(/^data:image\/png;base64,[A-Za-z0-9+/]+={0,2}$/, { message: "snapshotPng must be a data URL of a PNG image (data:image/png;base64,…)" });
+  .regex(/^data:image\/png;base64,[A-Za-z0-9+/]+={0,2}$/, {
+    message: "snapshotPng must be a data URL of a PNG image (data:image/png;base64,…)",
+  });
 
 const overrides = z
   .record(z.string().min(1).max(140), cpk("a capability override"), { message: "cpkOverrides must map source ids to a Cpk" })
   .refine((o) => Object.keys(o).length <= 500, { message: "at most 500 overrides" });
 
-const note = z.string({ message: "note must be text" }).trim().max(NOTE_MAX, { message: `note must be at most ${NOTE_MAX} characters` });
+const note = z
+  .string({ message: "note must be text" })
+  .trim()
+  .max(NOTE_MAX, { message: `note must be at most ${NOTE_MAX} characters` });
 
 export const CreateReportSchema = z.object({
   supplierId: IdSchema,
@@ -62,7 +67,11 @@ export const ReportListQuerySchema = z.object({
   status: ReportStatusSchema.optional(),
 });
 
-const shortText = (what: string) => z.string({ message: `${what} must be text` }).trim().max(NOTE_MAX, { message: `${what} must be at most ${NOTE_MAX} characters` });
+const shortText = (what: string) =>
+  z
+    .string({ message: `${what} must be text` })
+    .trim()
+    .max(NOTE_MAX, { message: `${what} must be at most ${NOTE_MAX} characters` });
 export const ReleaseReportSchema = z.object({ comment: shortText("comment").optional() });
 export const SendReportSchema = z.object({ message: shortText("message").optional() });
 export const AcknowledgeReportSchema = z.object({ comment: shortText("comment").optional() });
@@ -136,7 +145,13 @@ export const ReportContentSchema = z.object({
   format: z.literal("orthostack.report/1"),
   builtAt: z.string(),
   project: z.object({ id: IdSchema, name: z.string() }),
-  revision: z.object({ id: IdSchema, number: z.number().int(), name: z.string(), approvedAt: z.string().nullable(), approvedByName: z.string().nullable() }),
+  revision: z.object({
+    id: IdSchema,
+    number: z.number().int(),
+    name: z.string(),
+    approvedAt: z.string().nullable(),
+    approvedByName: z.string().nullable(),
+  }),
   study: z.object({
     id: IdSchema,
     number: z.number().int(),
@@ -147,7 +162,9 @@ export const ReportContentSchema = z.object({
     engine: z.string(),
     sampling: z.string(),
     inclinationDeg: z.number(),
-    site: z.object({ latitudeDeg: z.number(), longitudeDeg: z.number(), altitudeKm: z.number(), date: z.string(), model: z.string() }).nullable(),
+    site: z
+      .object({ latitudeDeg: z.number(), longitudeDeg: z.number(), altitudeKm: z.number(), date: z.string(), model: z.string() })
+      .nullable(),
     calibration: z.object({ after: z.string(), residual: z.string().nullable() }),
     headingStepDeg: z.number(),
     tilts: z.array(z.object({ pitchDeg: z.number(), rollDeg: z.number() })),
@@ -222,7 +239,15 @@ export const ReportSchema = ReportSummarySchema.extend({
   downloads: z.array(ReportDownloadSchema),
   comments: z.array(CommentSchema),
   /** every revision of this report number the reader may see, newest first */
-  history: z.array(z.object({ id: IdSchema, revision: z.number().int(), status: ReportStatusSchema, createdAt: z.string(), releasedAt: z.string().nullable() })),
+  history: z.array(
+    z.object({
+      id: IdSchema,
+      revision: z.number().int(),
+      status: ReportStatusSchema,
+      createdAt: z.string(),
+      releasedAt: z.string().nullable(),
+    }),
+  ),
   /** where the supplier's people open it */
   link: z.string(),
 });
@@ -286,5 +311,9 @@ export const OutboxSchema = z.object({
 });
 export const OutboxAttachmentParamsSchema = z.object({
   id: IdSchema,
-  index: z.coerce.number({ message: "index must be a number" }).int({ message: "index must be a whole number" }).min(0, { message: "index cannot be negative" }).max(100, { message: "index is at most 100" }),
+  index: z.coerce
+    .number({ message: "index must be a number" })
+    .int({ message: "index must be a whole number" })
+    .min(0, { message: "index cannot be negative" })
+    .max(100, { message: "index is at most 100" }),
 });

@@ -31,7 +31,11 @@ export const ReturnRevisionSchema = z.object({
     .max(4000, { message: "comment must be at most 4000 characters" }),
 });
 export const CommentBodySchema = z.object({
-  body: z.string({ message: "comment is required" }).trim().min(1, { message: "comment must not be empty" }).max(4000, { message: "comment must be at most 4000 characters" }),
+  body: z
+    .string({ message: "comment is required" })
+    .trim()
+    .min(1, { message: "comment must not be empty" })
+    .max(4000, { message: "comment must be at most 4000 characters" }),
 });
 
 export const CommentSchema = z.object({

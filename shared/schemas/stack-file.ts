@@ -101,8 +101,17 @@ const stageEnum = (values: readonly string[]) =>
     error: (iss) => `unknown stage ${JSON.stringify(iss.input)}: use ${values.map((v) => `"${v}"`).join(", ")}`,
   });
 
-export const StageSchema = stageEnum(STAGES) as unknown as z.ZodEnum<{ die: "die"; package: "package"; board: "board"; product: "product" }>;
-export const ElementStageSchema = stageEnum(ELEMENT_STAGES) as unknown as z.ZodEnum<{ package: "package"; board: "board"; product: "product" }>;
+export const StageSchema = stageEnum(STAGES) as unknown as z.ZodEnum<{
+  die: "die";
+  package: "package";
+  board: "board";
+  product: "product";
+}>;
+export const ElementStageSchema = stageEnum(ELEMENT_STAGES) as unknown as z.ZodEnum<{
+  package: "package";
+  board: "board";
+  product: "product";
+}>;
 
 export const MetaSchema = z.record(z.string(), z.unknown());
 
@@ -131,9 +140,15 @@ export const ToleranceSchema = z
      * line's support heights in support order, a tilt's x and y, the six axis angles g1..g6).
      */
     rows: z
-      .array(z.array(finite("a measured value"), { error: "each row must be a list of numbers" }).min(2, { error: "a row holds at least two values" }).max(64), {
-        error: "rows must be a list of rows",
-      })
+      .array(
+        z
+          .array(finite("a measured value"), { error: "each row must be a list of numbers" })
+          .min(2, { error: "a row holds at least two values" })
+          .max(64),
+        {
+          error: "rows must be a list of rows",
+        },
+      )
       .min(2, { error: "measured rows need at least two units" })
       .max(MAX_DATA_VALUES, { error: `measured rows may hold at most ${MAX_DATA_VALUES} units` })
       .optional(),
@@ -148,13 +163,21 @@ export const ToleranceSchema = z
         ctx.addIssue({ code: "custom", path: ["rows"], message: "every measured row needs the same number of values" });
       }
       if (t.tol !== undefined || t.sigmas !== undefined)
-        ctx.addIssue({ code: "custom", path: ["tol"], message: `a "data" tolerance takes its spread from the values: leave out tol and sigmas` });
+        ctx.addIssue({
+          code: "custom",
+          path: ["tol"],
+          message: `a "data" tolerance takes its spread from the values: leave out tol and sigmas`,
+        });
     } else {
       if (t.tol === undefined) ctx.addIssue({ code: "custom", path: ["tol"], message: `a tolerance needs its half-width "tol"` });
       if (t.values !== undefined) ctx.addIssue({ code: "custom", path: ["values"], message: `measured values need "dist": "data"` });
       if (t.rows !== undefined) ctx.addIssue({ code: "custom", path: ["rows"], message: `measured rows need "dist": "data"` });
       if (t.sigmas !== undefined && t.dist !== "normal")
-        ctx.addIssue({ code: "custom", path: ["sigmas"], message: `sigmas applies to "normal" tolerances only: a ${t.dist} tolerance spans mean ± tol` });
+        ctx.addIssue({
+          code: "custom",
+          path: ["sigmas"],
+          message: `sigmas applies to "normal" tolerances only: a ${t.dist} tolerance spans mean ± tol`,
+        });
     }
   });
 
@@ -170,12 +193,15 @@ export const BondLineSchema = z.strictObject({
   thicknessUm: positive("the bond-line thickness (um)").optional(),
   heightTol: ToleranceSchema.optional(),
   supports: z
-    .union([
-      z.literal("corners"),
-      z.array(XYSchema, { error: `supports must be "corners" or a list of points {"x", "y"}` }).max(MAX_SUPPORTS, {
-        error: `at most ${MAX_SUPPORTS} support points`,
-      }),
-    ], { error: `supports must be "corners" or a list of points {"x", "y"}` })
+    .union(
+      [
+        z.literal("corners"),
+        z.array(XYSchema, { error: `supports must be "corners" or a list of points {"x", "y"}` }).max(MAX_SUPPORTS, {
+          error: `at most ${MAX_SUPPORTS} support points`,
+        }),
+      ],
+      { error: `supports must be "corners" or a list of points {"x", "y"}` },
+    )
     .optional(),
 });
 
@@ -188,8 +214,7 @@ export const ElementSchema = z.strictObject({
       error: "an id may hold letters, digits, - and _ only (it becomes part of metric names such as mag.tiltDeg)",
     }),
   kind: z.enum(ELEMENT_KINDS, {
-    error: (iss) =>
-      `unknown element kind ${JSON.stringify(iss.input)}: use ${ELEMENT_KINDS.map((k) => `"${k}"`).join(", ")}`,
+    error: (iss) => `unknown element kind ${JSON.stringify(iss.input)}: use ${ELEMENT_KINDS.map((k) => `"${k}"`).join(", ")}`,
   }),
   parent: z.union([z.string(), z.null()], { error: "parent must be the id of another element, or null for the board" }),
   name: z.string().max(200).optional(),
@@ -272,17 +297,24 @@ export function checkStack(file: unknown, add: (issue: { path: (string | number)
   }
   for (const { e, i } of roots) {
     if (typeof e.kind === "string" && e.kind !== "board")
-      add({ path: ["elements", i, "kind"], message: `"${idOf(e) ?? "?"}" has no parent, so it must be the board (kind "board"), not a ${e.kind}` });
+      add({
+        path: ["elements", i, "kind"],
+        message: `"${idOf(e) ?? "?"}" has no parent, so it must be the board (kind "board"), not a ${e.kind}`,
+      });
   }
 
   els.forEach((e, i) => {
     const id = idOf(e) ?? "?";
     if (e.kind === "board" && typeof e.parent === "string") {
-      add({ path: ["elements", i, "kind"], message: `"${id}" is a board but sits on "${e.parent}": only the root element can be the board` });
+      add({
+        path: ["elements", i, "kind"],
+        message: `"${id}" is a board but sits on "${e.parent}": only the root element can be the board`,
+      });
     }
     if (typeof e.parent === "string") {
       if (e.parent === id) add({ path: ["elements", i, "parent"], message: `"${id}" cannot sit on itself` });
-      else if (!byId.has(e.parent)) add({ path: ["elements", i, "parent"], message: `unknown parent "${e.parent}": no element has that id` });
+      else if (!byId.has(e.parent))
+        add({ path: ["elements", i, "parent"], message: `unknown parent "${e.parent}": no element has that id` });
     }
     if (e.parent === null) {
       for (const key of ["bondLine", "placementTol", "tiltTol", "position", "yawDeg"]) {
@@ -291,13 +323,19 @@ export function checkStack(file: unknown, add: (issue: { path: (string | number)
     }
     checkRows(e, i, add);
     if (e.axisTol !== undefined && typeof e.kind === "string" && !isSensorKind(e.kind)) {
-      add({ path: ["elements", i, "axisTol"], message: `axisTol (sensing-axis alignment) applies to sensor dies only (gyro, accel, mag), not to a ${e.kind}` });
+      add({
+        path: ["elements", i, "axisTol"],
+        message: `axisTol (sensing-axis alignment) applies to sensor dies only (gyro, accel, mag), not to a ${e.kind}`,
+      });
     }
   });
 
   const sensorIdx = els.map((e, i) => (typeof e.kind === "string" && isSensorKind(e.kind) ? i : -1)).filter((i) => i >= 0);
   if (sensorIdx.length > MAX_SENSORS) {
-    add({ path: ["elements", sensorIdx[MAX_SENSORS]], message: `a stack may hold at most ${MAX_SENSORS} sensor dies (this one has ${sensorIdx.length}): split it into several stacks` });
+    add({
+      path: ["elements", sensorIdx[MAX_SENSORS]],
+      message: `a stack may hold at most ${MAX_SENSORS} sensor dies (this one has ${sensorIdx.length}): split it into several stacks`,
+    });
   }
 
   // Cycles: follow the parents from each element; a walk that comes back is a cycle.
@@ -328,7 +366,8 @@ export function checkStack(file: unknown, add: (issue: { path: (string | number)
 
   // Geometry: support points and positions inside footprints.
   const tolMm = 1e-9;
-  const sizeOf = (e: Loose) => (isObj(e.size) && isNum(e.size.x) && isNum(e.size.y) && e.size.x > 0 && e.size.y > 0 ? { x: e.size.x, y: e.size.y } : undefined);
+  const sizeOf = (e: Loose) =>
+    isObj(e.size) && isNum(e.size.x) && isNum(e.size.y) && e.size.x > 0 && e.size.y > 0 ? { x: e.size.x, y: e.size.y } : undefined;
   els.forEach((e, i) => {
     const id = idOf(e) ?? "?";
     const size = sizeOf(e);
@@ -336,10 +375,14 @@ export function checkStack(file: unknown, add: (issue: { path: (string | number)
     if (Array.isArray(s)) {
       const pts = s.filter((p): p is { x: number; y: number } => isObj(p) && isNum(p.x) && isNum(p.y));
       if (s.length < 3) {
-        add({ path: ["elements", i, "bondLine", "supports"], message: `"${id}" rests on ${s.length} support point${s.length === 1 ? "" : "s"}: a bond-line plane needs at least three` });
+        add({
+          path: ["elements", i, "bondLine", "supports"],
+          message: `"${id}" rests on ${s.length} support point${s.length === 1 ? "" : "s"}: a bond-line plane needs at least three`,
+        });
       }
       if (size) {
-        const hx = size.x / 2, hy = size.y / 2;
+        const hx = size.x / 2,
+          hy = size.y / 2;
         s.forEach((p, j) => {
           if (isObj(p) && isNum(p.x) && isNum(p.y) && (Math.abs(p.x) > hx + tolMm || Math.abs(p.y) > hy + tolMm)) {
             add({
@@ -349,7 +392,10 @@ export function checkStack(file: unknown, add: (issue: { path: (string | number)
           }
         });
         if (pts.length === s.length && pts.length >= 3 && collinear(pts, Math.max(size.x, size.y))) {
-          add({ path: ["elements", i, "bondLine", "supports"], message: `the support points of "${id}" all lie on one line: the die would rock and the bond-line plane is undefined` });
+          add({
+            path: ["elements", i, "bondLine", "supports"],
+            message: `the support points of "${id}" all lie on one line: the die would rock and the bond-line plane is undefined`,
+          });
         }
       }
     }
@@ -378,23 +424,39 @@ function checkRows(e: Loose, i: number, add: (i: { path: (string | number)[]; me
   if (blw !== null) {
     const s = bl!.supports;
     const need = Array.isArray(s) ? s.length : 4;
-    if (blw !== need) add({ path: ["elements", i, "bondLine", "heightTol", "rows"], message: `each row needs one height per support point (${need}), not ${blw}` });
+    if (blw !== need)
+      add({
+        path: ["elements", i, "bondLine", "heightTol", "rows"],
+        message: `each row needs one height per support point (${need}), not ${blw}`,
+      });
   }
   const tt = isObj(e.tiltTol) ? e.tiltTol : undefined;
   if (tt) {
     const w = width(tt.xy);
-    if (tt.xy !== undefined && (tt.x !== undefined || tt.y !== undefined)) add({ path: ["elements", i, "tiltTol", "xy"], message: "tiltTol.xy takes the place of x and y: give one or the other" });
-    if (tt.xy !== undefined && w !== 2) add({ path: ["elements", i, "tiltTol", "xy"], message: "tiltTol.xy is measured rows of two values (x, y)" });
-    for (const k of ["x", "y"]) if (width(tt[k]) !== null) add({ path: ["elements", i, "tiltTol", k, "rows"], message: "a single tilt component takes values, not rows: measured x and y together go in tiltTol.xy" });
+    if (tt.xy !== undefined && (tt.x !== undefined || tt.y !== undefined))
+      add({ path: ["elements", i, "tiltTol", "xy"], message: "tiltTol.xy takes the place of x and y: give one or the other" });
+    if (tt.xy !== undefined && w !== 2)
+      add({ path: ["elements", i, "tiltTol", "xy"], message: "tiltTol.xy is measured rows of two values (x, y)" });
+    for (const k of ["x", "y"])
+      if (width(tt[k]) !== null)
+        add({
+          path: ["elements", i, "tiltTol", k, "rows"],
+          message: "a single tilt component takes values, not rows: measured x and y together go in tiltTol.xy",
+        });
   }
   const ax = e.axisTol;
   if (ax !== undefined && !Array.isArray(ax) && width(ax) !== null && width(ax) !== 6) {
     add({ path: ["elements", i, "axisTol", "rows"], message: "each row of axis angles holds six values, g1 to g6" });
   }
-  if (Array.isArray(ax)) ax.forEach((t, k) => width(t) !== null && add({ path: ["elements", i, "axisTol", k, "rows"], message: "one axis angle takes values, not rows" }));
+  if (Array.isArray(ax))
+    ax.forEach(
+      (t, k) => width(t) !== null && add({ path: ["elements", i, "axisTol", k, "rows"], message: "one axis angle takes values, not rows" }),
+    );
   if (width(e.bowUm) !== null) add({ path: ["elements", i, "bowUm", "rows"], message: "the bow takes values, not rows" });
   const pl = isObj(e.placementTol) ? e.placementTol : undefined;
-  for (const k of ["xUm", "yUm", "yawDeg"]) if (pl && width(pl[k]) !== null) add({ path: ["elements", i, "placementTol", k, "rows"], message: "a placement tolerance takes values, not rows" });
+  for (const k of ["xUm", "yUm", "yawDeg"])
+    if (pl && width(pl[k]) !== null)
+      add({ path: ["elements", i, "placementTol", k, "rows"], message: "a placement tolerance takes values, not rows" });
 }
 
 /** Points on one line (within a relative tolerance of the footprint). */

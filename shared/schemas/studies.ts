@@ -15,7 +15,10 @@ export const CreateStudySchema = z.object({
   site: SiteSchema.optional(),
   label: z.string().trim().max(120, { message: "label must be at most 120 characters" }).optional(),
   /** As built: tolerance sources replaced by measured data sets in the frozen stack (issue 7). */
-  asBuilt: z.array(AsBuiltEntrySchema, { message: "asBuilt must be a list" }).max(100, { message: "at most 100 as-built sources" }).optional(),
+  asBuilt: z
+    .array(AsBuiltEntrySchema, { message: "asBuilt must be a list" })
+    .max(100, { message: "at most 100 as-built sources" })
+    .optional(),
 });
 export type CreateStudy = z.infer<typeof CreateStudySchema>;
 

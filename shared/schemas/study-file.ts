@@ -7,33 +7,25 @@
  */
 import { z } from "zod";
 import { headingPair, metricIds } from "../engine/compile";
-import {
-  type FieldIssue,
-  type StackFile,
-  dedupe,
-  formatPath,
-  fromZodError,
-  isSensorKind,
-  MetaSchema,
-  ToleranceSchema,
-} from "./stack-file";
+import { type FieldIssue, type StackFile, dedupe, formatPath, fromZodError, isSensorKind, MetaSchema, ToleranceSchema } from "./stack-file";
 
 export const MAX_TRIALS = 10_000_000;
 export const MAX_ATTITUDES = 20_000;
 export const MAX_WORST_TRIALS = 50;
 
-const num = (what: string) =>
-  z.number({ error: (iss) => (iss.input === undefined ? `${what} is required` : `${what} must be a number`) });
+const num = (what: string) => z.number({ error: (iss) => (iss.input === undefined ? `${what} is required` : `${what} must be a number`) });
 
 export const TiltSchema = z.strictObject({
   pitchDeg: num("pitchDeg").gt(-90, { error: "pitch must lie strictly between -90 and 90 deg: at ±90 the heading is undefined" }).lt(90, {
     error: "pitch must lie strictly between -90 and 90 deg: at ±90 the heading is undefined",
   }),
-  rollDeg: num("rollDeg").gte(-180, { error: "roll must lie between -180 and 180 deg" }).lte(180, { error: "roll must lie between -180 and 180 deg" }),
+  rollDeg: num("rollDeg")
+    .gte(-180, { error: "roll must lie between -180 and 180 deg" })
+    .lte(180, { error: "roll must lie between -180 and 180 deg" }),
 });
 
 export const RequirementSchema = z.strictObject({
-  metric: z.string({ error: "a requirement names a metric id, e.g. \"heading.maxAbsDeg\"" }).min(1),
+  metric: z.string({ error: 'a requirement names a metric id, e.g. "heading.maxAbsDeg"' }).min(1),
   max: num("the limit max").gt(0, { error: "the limit max is an upper bound on |value| and must be greater than 0" }),
   yield: num("the yield target")
     .gt(0, { error: "the yield target is a fraction between 0 and 1 (e.g. 0.9973)" })
@@ -76,7 +68,10 @@ export const StudyFileObjectSchema = z.strictObject({
   inclinationDeg: num("inclinationDeg (the field's dip)")
     .gt(-90, { error: "inclinationDeg must lie strictly between -90 and 90: at ±90 the horizontal field vanishes and there is no heading" })
     .lt(90, { error: "inclinationDeg must lie strictly between -90 and 90: at ±90 the horizontal field vanishes and there is no heading" }),
-  headingStepDeg: num("headingStepDeg").gt(0, { error: "headingStepDeg must be greater than 0" }).lte(360, { error: "headingStepDeg is at most 360" }).optional(),
+  headingStepDeg: num("headingStepDeg")
+    .gt(0, { error: "headingStepDeg must be greater than 0" })
+    .lte(360, { error: "headingStepDeg is at most 360" })
+    .optional(),
   tilts: z.array(TiltSchema).min(1, { error: "tilts, when given, needs at least one attitude" }).max(200).optional(),
   calibration: CalibrationSchema.optional(),
   requirements: z.array(RequirementSchema).max(200).optional(),
@@ -91,7 +86,12 @@ export const StudyFileObjectSchema = z.strictObject({
    * takes the angle of every attitude. Both give the same figures to about 1e-9 of their value.
    */
   headingEvaluation: z.enum(["screened", "exact"], { error: `headingEvaluation must be "screened" or "exact"` }).optional(),
-  worstTrials: z.number().int().min(0).max(MAX_WORST_TRIALS, { error: `worstTrials is at most ${MAX_WORST_TRIALS}` }).optional(),
+  worstTrials: z
+    .number()
+    .int()
+    .min(0)
+    .max(MAX_WORST_TRIALS, { error: `worstTrials is at most ${MAX_WORST_TRIALS}` })
+    .optional(),
   /** resolved to inclinationDeg by the API; not read by the engine */
   site: z.unknown().optional(),
 });
@@ -111,9 +111,15 @@ export function checkStudyAgainstStack(study: StudyFile, stack: StackFile): Fiel
   if (study.headingSensors) {
     const { accel, mag } = study.headingSensors;
     if (kinds.get(accel) !== "accel")
-      add(["headingSensors", "accel"], kinds.has(accel) ? `"${accel}" is a ${kinds.get(accel)}, not an accelerometer` : `no element "${accel}" in the stack`);
+      add(
+        ["headingSensors", "accel"],
+        kinds.has(accel) ? `"${accel}" is a ${kinds.get(accel)}, not an accelerometer` : `no element "${accel}" in the stack`,
+      );
     if (kinds.get(mag) !== "mag")
-      add(["headingSensors", "mag"], kinds.has(mag) ? `"${mag}" is a ${kinds.get(mag)}, not a magnetometer` : `no element "${mag}" in the stack`);
+      add(
+        ["headingSensors", "mag"],
+        kinds.has(mag) ? `"${mag}" is a ${kinds.get(mag)}, not a magnetometer` : `no element "${mag}" in the stack`,
+      );
   }
   const hasPair = study.headingSensors ? issues.length === 0 : headingPair(stack, study) !== null;
   const wantsHeading =
@@ -125,7 +131,8 @@ export function checkStudyAgainstStack(study: StudyFile, stack: StackFile): Fiel
     ].filter(Boolean);
     return `the compass heading needs an accelerometer and a magnetometer, and this stack has no ${missing.join(" and no ") || "usable pair"}`;
   };
-  if (wantsHeading && study.heading !== false && !hasPair && !study.headingSensors) add(study.heading === true ? ["heading"] : [], noCompass());
+  if (wantsHeading && study.heading !== false && !hasPair && !study.headingSensors)
+    add(study.heading === true ? ["heading"] : [], noCompass());
   if (study.heading === false && (study.requirements ?? []).some((r) => r.metric.startsWith("heading."))) {
     add(["heading"], "heading is switched off, but a requirement is on a heading metric");
   }
@@ -136,7 +143,8 @@ export function checkStudyAgainstStack(study: StudyFile, stack: StackFile): Fiel
     const head = metric.split(/[.~]/)[0];
     if (metric.startsWith("heading.")) return hasPair ? ` (heading metrics are heading.maxAbsDeg and heading.rmsDeg)` : `: ${noCompass()}`;
     if (!kinds.has(head)) return `: there is no element "${head}" in the stack`;
-    if (!sensorIds.includes(head) && !metric.endsWith(".tiltDeg")) return `: "${head}" is a ${kinds.get(head)}, and only sensors have cross-axis, misalignment and relative-rotation metrics`;
+    if (!sensorIds.includes(head) && !metric.endsWith(".tiltDeg"))
+      return `: "${head}" is a ${kinds.get(head)}, and only sensors have cross-axis, misalignment and relative-rotation metrics`;
     return "";
   };
   (study.requirements ?? []).forEach((r, i) => {
@@ -148,7 +156,11 @@ export function checkStudyAgainstStack(study: StudyFile, stack: StackFile): Fiel
 
   const nPsi = Math.ceil(360 / (study.headingStepDeg ?? 10) - 1e-9);
   const nAtt = nPsi * (study.tilts?.length ?? 5);
-  if (nAtt > MAX_ATTITUDES) add(["headingStepDeg"], `the sweep would have ${nAtt} attitudes; the limit is ${MAX_ATTITUDES}: use a larger headingStepDeg or fewer tilts`);
+  if (nAtt > MAX_ATTITUDES)
+    add(
+      ["headingStepDeg"],
+      `the sweep would have ${nAtt} attitudes; the limit is ${MAX_ATTITUDES}: use a larger headingStepDeg or fewer tilts`,
+    );
   if (study.calibration && study.calibration.after === "none" && study.calibration.residualDeg) {
     add(["calibration", "residualDeg"], `a calibration residual needs a calibration stage: set "after" to "package" or "board"`);
   }

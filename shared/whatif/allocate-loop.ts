@@ -18,7 +18,13 @@ import { leastCost } from "./least-cost";
 
 export type LoopSource = { id: string; current: number; free: boolean; cost: CostModel; min: number; max: number };
 export type LoopRequirement = { metric: string; max: number; yield: number };
-export type VerifiedRequirement = { predictedYield: number; ci: [number, number]; passes: boolean; probeLimit: number; limitAtTarget: number };
+export type VerifiedRequirement = {
+  predictedYield: number;
+  ci: [number, number];
+  passes: boolean;
+  probeLimit: number;
+  limitAtTarget: number;
+};
 
 export type LoopInput = {
   sources: LoopSource[];
@@ -34,7 +40,14 @@ export type LoopInput = {
   closeShare?: number;
 };
 
-export type Round = { round: number; T: number[]; cost: number; requirements: VerifiedRequirement[]; demonstrated: boolean; closest: number };
+export type Round = {
+  round: number;
+  T: number[];
+  cost: number;
+  requirements: VerifiedRequirement[];
+  demonstrated: boolean;
+  closest: number;
+};
 
 export type LoopResult = {
   current: Round;
@@ -48,7 +61,8 @@ export type LoopResult = {
 /** The yield whose Wilson 95 % lower bound at n trials equals the target; 1 when none below 1 does. */
 export function probeYield(target: number, n: number): number {
   if (wilson(n, n)[0] < target) return 1;
-  let lo = target, hi = 1;
+  let lo = target,
+    hi = 1;
   for (let i = 0; i < 60; i++) {
     const mid = (lo + hi) / 2;
     if (wilson(mid * n, n)[0] >= target) hi = mid;
@@ -61,7 +75,8 @@ export function probeYield(target: number, n: number): number {
 export function minTrialsFor(target: number): number {
   let n = 1;
   while (wilson(n, n)[0] < target) n = Math.ceil(n * 1.1) + 1;
-  let lo = 1, hi = n;
+  let lo = 1,
+    hi = n;
   while (lo < hi) {
     const mid = Math.floor((lo + hi) / 2);
     if (wilson(mid, mid)[0] >= target) hi = mid;
@@ -112,7 +127,9 @@ export async function allocate(input: LoopInput): Promise<LoopResult> {
       budgets.map((b) => b * b),
     );
     feasible = lc.feasible;
-    const T = lc.T.map((t, j) => (sources[j].free && sources[j].current > 0 ? Math.min(sources[j].max, Math.max(sources[j].min, roundTolerance(t))) : t));
+    const T = lc.T.map((t, j) =>
+      sources[j].free && sources[j].current > 0 ? Math.min(sources[j].max, Math.max(sources[j].min, roundTolerance(t))) : t,
+    );
     allAtUpperBound = sources.every((s, j) => !s.free || s.current <= 0 || T[j] >= s.max * (1 - 1e-9));
     const r = await judge(T, round);
     rounds.push(r);
@@ -126,7 +143,13 @@ export async function allocate(input: LoopInput): Promise<LoopResult> {
   return { current, rounds, chosen, feasible, allAtUpperBound };
 }
 
-function budgetsFrom(A: number[][], T: number[], at: Round, requirements: LoopRequirement[], spread: (A: number[][], T: number[]) => number[]): number[] {
+function budgetsFrom(
+  A: number[][],
+  T: number[],
+  at: Round,
+  requirements: LoopRequirement[],
+  spread: (A: number[][], T: number[]) => number[],
+): number[] {
   const s = spread(A, T);
   return requirements.map((req, r) => {
     const L = at.requirements[r].probeLimit;

@@ -109,7 +109,10 @@ export async function runAllocation(input: AllocationInput): Promise<AllocationO
   });
   // everything else that spreads a requirement (data sets, calibration residual): a fixed, costless term
   const others = [...new Set(lin0.flatMap((l) => l.sources.map((s) => s.source)))].filter((id) => !stackRows.some((s) => s.id === id));
-  const allSources: LoopSource[] = [...loopSources, ...others.map((id) => ({ id, current: 1, free: false, cost: { a: 0, b: 0, k: 1 }, min: 1, max: 1 }))];
+  const allSources: LoopSource[] = [
+    ...loopSources,
+    ...others.map((id) => ({ id, current: 1, free: false, cost: { a: 0, b: 0, k: 1 }, min: 1, max: 1 })),
+  ];
   const nStack = loopSources.length;
 
   const stackAt = (T: number[]) => withTolerances(stack, Object.fromEntries(loopSources.map((s, j) => [s.id, T[j]])));
@@ -125,14 +128,23 @@ export async function runAllocation(input: AllocationInput): Promise<AllocationO
   const total = (maxRounds + 1) * study.trials;
   const verify = async (T: number[], probes: number[], round: number): Promise<VerifiedRequirement[]> => {
     if (input.signal?.aborted) throw new WhatIfAbortedError();
-    const withProbes: StudyFile = { ...study, requirements: [...requirements, ...requirements.map((r, i) => ({ metric: r.metric, max: r.max, yield: probes[i] }))] };
+    const withProbes: StudyFile = {
+      ...study,
+      requirements: [...requirements, ...requirements.map((r, i) => ({ metric: r.metric, max: r.max, yield: probes[i] }))],
+    };
     const res = await input.execute(stackAt(T.slice(0, nStack)), withProbes, {
       signal: input.signal,
       onProgress: (done) => input.onProgress?.(round * study.trials + done, total),
     });
     return requirements.map((_, i) => {
       const r = res.requirements[i];
-      return { predictedYield: r.predictedYield, ci: r.ci, passes: r.passes, limitAtTarget: r.limitAtTarget ?? NaN, probeLimit: res.requirements[requirements.length + i].limitAtTarget ?? NaN };
+      return {
+        predictedYield: r.predictedYield,
+        ci: r.ci,
+        passes: r.passes,
+        limitAtTarget: r.limitAtTarget ?? NaN,
+        probeLimit: res.requirements[requirements.length + i].limitAtTarget ?? NaN,
+      };
     });
   };
 
@@ -157,7 +169,8 @@ export async function runAllocation(input: AllocationInput): Promise<AllocationO
     };
   });
   const reqRows: AllocationRequirementRow[] = requirements.map((r, i) => {
-    const v = pick.requirements[i], c = out.current.requirements[i];
+    const v = pick.requirements[i],
+      c = out.current.requirements[i];
     return {
       ...r,
       predictedYield: v.predictedYield,

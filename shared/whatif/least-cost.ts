@@ -63,7 +63,8 @@ export function leastCost(sources: LcSource[], budgets: number[]): LcResult {
         continue;
       }
       // bracket the multiplier (usage falls as μ_r grows), then bisect in log space
-      let lo = 0, hi = Math.max(old, 1e-30);
+      let lo = 0,
+        hi = Math.max(old, 1e-30);
       mu[r] = hi;
       while (usage(r, tAll()) > budgets[r] && hi < 1e300) {
         lo = hi;

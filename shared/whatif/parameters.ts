@@ -23,22 +23,30 @@ export type ParameterInfo = {
 
 /** Describes a sweep parameter, or gives the reason it cannot be swept. */
 export function describeParameter(stack: StackFile, study: StudyFile, parameter: string): ParameterInfo | { error: string } {
-  if (parameter === INCLINATION) return { parameter, kind: "inclination", unit: "deg", current: study.inclinationDeg, min: -89.9, max: 89.9 };
+  if (parameter === INCLINATION)
+    return { parameter, kind: "inclination", unit: "deg", current: study.inclinationDeg, min: -89.9, max: 89.9 };
   if (parameter === CALIBRATION_RESIDUAL) {
     const r = study.calibration?.residualDeg;
     if (!study.calibration || study.calibration.after === "none" || !r)
       return { error: "the study calibrates nothing: set calibration.after and a residualDeg tolerance to sweep the residual" };
-    if (r.dist === "data" || r.tol === undefined) return { error: "the calibration residual is a measured data set, which has no ± tolerance to vary" };
+    if (r.dist === "data" || r.tol === undefined)
+      return { error: "the calibration residual is a measured data set, which has no ± tolerance to vary" };
     return { parameter, kind: "calibration", unit: "deg", current: r.tol, min: 0, max: Infinity };
   }
   const s = findSource(stack, parameter);
   if (!s) return { error: `the stack has no tolerance source "${parameter}" (ids look like "mag.bondLine", "pkg.yaw", "mag.axis")` };
-  if (s.tolerance.dist === "data" || s.tolerance.tol === undefined) return { error: `"${parameter}" is a measured data set, which has no ± tolerance to vary` };
+  if (s.tolerance.dist === "data" || s.tolerance.tol === undefined)
+    return { error: `"${parameter}" is a measured data set, which has no ± tolerance to vary` };
   return { parameter, kind: "source", unit: s.unit, current: s.tolerance.tol, min: 0, max: Infinity };
 }
 
 /** The stack and study of one sweep point (copies; the inputs are not changed). */
-export function atParameter(stack: StackFile, study: StudyFile, info: ParameterInfo, value: number): { stack: StackFile; study: StudyFile } {
+export function atParameter(
+  stack: StackFile,
+  study: StudyFile,
+  info: ParameterInfo,
+  value: number,
+): { stack: StackFile; study: StudyFile } {
   if (info.kind === "inclination") return { stack, study: { ...study, inclinationDeg: value } };
   if (info.kind === "calibration") {
     const cal = study.calibration!;

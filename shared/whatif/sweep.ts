@@ -9,7 +9,15 @@ import type { StudyExecutor } from "./executor";
 import { WhatIfAbortedError } from "./executor";
 import { atParameter, type ParameterInfo } from "./parameters";
 
-export type SweepRequirement = { metric: string; max: number; yield: number; predictedYield: number; ci: [number, number]; passes: boolean; limitAtTarget: number };
+export type SweepRequirement = {
+  metric: string;
+  max: number;
+  yield: number;
+  predictedYield: number;
+  ci: [number, number];
+  passes: boolean;
+  limitAtTarget: number;
+};
 export type SweepPoint = { value: number; requirements: SweepRequirement[] };
 export type Crossing = { metric: string; max: number; value: number | null };
 
@@ -69,7 +77,8 @@ export function crossings(points: SweepPoint[]): Crossing[] {
   return points[0].requirements.map((r0, k) => {
     let value: number | null = null;
     for (let i = 0; i + 1 < points.length && value === null; i++) {
-      const a = points[i], b = points[i + 1];
+      const a = points[i],
+        b = points[i + 1];
       const ya = a.requirements[k].predictedYield - r0.yield;
       const yb = b.requirements[k].predictedYield - r0.yield;
       if (ya === 0) value = a.value;

@@ -33,7 +33,10 @@ const units = Array.from({ length: 60 }, (_, i) => ({
   yawMrad: 3 + ((i * 7) % 11) * 0.2 - 1,
   heightUm: 10.8 + ((i * 5) % 9) * 0.1 - 0.4,
 }));
-const CSV = ["unit,mag yaw [mrad],mag bond line [um]", ...units.map((u) => `${u.id},${u.yawMrad.toFixed(3)},${u.heightUm.toFixed(2)}`)].join("\n");
+const CSV = [
+  "unit,mag yaw [mrad],mag bond line [um]",
+  ...units.map((u) => `${u.id},${u.yawMrad.toFixed(3)},${u.heightUm.toFixed(2)}`),
+].join("\n");
 
 it("runs as built beside the design: the replaced sources are frozen in the study and reach the engine", async () => {
   const eng = await t.signIn("engineer@example.com");
@@ -42,7 +45,11 @@ it("runs as built beside the design: the replaced sources are frozen in the stud
 
   const form = new FormData();
   form.append("file", new Blob([CSV]), "first-build.csv");
-  const up = await fetch(`${t.url}/api/projects/${p.body.id}/datasets`, { method: "POST", headers: { cookie: eng, origin: t.deps.baseURL }, body: form });
+  const up = await fetch(`${t.url}/api/projects/${p.body.id}/datasets`, {
+    method: "POST",
+    headers: { cookie: eng, origin: t.deps.baseURL },
+    body: form,
+  });
   expect(up.status).toBe(201);
   const ds = await up.json();
 
@@ -121,5 +128,7 @@ it("runs as built beside the design: the replaced sources are frozen in the stud
   expect((byId.get(design.body.id) as any).asBuilt).toEqual([]);
   expect((byId.get(asBuilt.body.id) as any).asBuilt).toHaveLength(2);
   const act = await t.call("GET", `/api/projects/${p.body.id}/activity`, { cookie: eng });
-  expect(act.body.activity.map((x: any) => x.summary)).toContain("queued as-built study 2 on stack revision 1 (4,000 trials, seed 19), measured data for mag.yaw, mag.bondLine");
+  expect(act.body.activity.map((x: any) => x.summary)).toContain(
+    "queued as-built study 2 on stack revision 1 (4,000 trials, seed 19), measured data for mag.yaw, mag.bondLine",
+  );
 });

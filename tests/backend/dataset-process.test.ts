@@ -4,7 +4,15 @@
  */
 import { describe, expect, it } from "vitest";
 import { jStat } from "jstat";
-import { cpkLowerBound, individualsChart, lotStatistics, normalQuantile, pooledWithin, processCapability, SHEWHART_N2 } from "@shared/datasets/process";
+import {
+  cpkLowerBound,
+  individualsChart,
+  lotStatistics,
+  normalQuantile,
+  pooledWithin,
+  processCapability,
+  SHEWHART_N2,
+} from "@shared/datasets/process";
 
 describe("lower confidence bound of Cpk (Bissell 1990)", () => {
   it("reproduces a published 95 % interval: n = 45, Cpk 1.15 -> 0.89 to 1.41", () => {
@@ -57,8 +65,11 @@ describe("Shewhart individuals and moving-range chart", () => {
     expect(c.points.map((p) => p.mr)).toEqual([null, 2, 1, 4, 2]);
     expect(c.signals).toBe(0);
     // 20 steady units, then a jump of 10 σ: the jump is flagged at unit 21, not before
-    const steady = Array.from({ length: 20 }, (_, i) => 10 + ((i * 7) % 5 - 2) * 0.1);
-    const drift = individualsChart([...steady, 13, 13.1, 12.9], Array.from({ length: 23 }, (_, i) => i + 2))!;
+    const steady = Array.from({ length: 20 }, (_, i) => 10 + (((i * 7) % 5) - 2) * 0.1);
+    const drift = individualsChart(
+      [...steady, 13, 13.1, 12.9],
+      Array.from({ length: 23 }, (_, i) => i + 2),
+    )!;
     expect(drift.points.findIndex((p) => p.outX || p.outMr)).toBe(20);
   });
 });
@@ -68,7 +79,10 @@ describe("lots", () => {
   const values = [1, 2, 1.5, 1.2, 4, 5, 4.5, 4.2];
   it("statistics per lot in file order, pooled within-lot σ by hand", () => {
     const ls = lotStatistics(values, lots, { lsl: -10, usl: 10 });
-    expect(ls.map((l) => [l.lot, l.n])).toEqual([["A", 4], ["B", 4]]);
+    expect(ls.map((l) => [l.lot, l.n])).toEqual([
+      ["A", 4],
+      ["B", 4],
+    ]);
     expect(ls[0].mean).toBeCloseTo(1.425, 12);
     expect(ls[1].mean).toBeCloseTo(4.425, 12);
     // both lots have the same spread: s² = Σ(x − x̄)²/3 = (0.180625 + 0.330625 + 0.005625 + 0.050625)/3
@@ -89,6 +103,11 @@ describe("lots", () => {
     expect(none.cpk).toBe(none.ppk);
     expect(none.n).toBe(8);
     // one unit per lot: nothing within lots to pool
-    expect(pooledWithin(values, values.map((_, i) => String(i)))).toBeNull();
+    expect(
+      pooledWithin(
+        values,
+        values.map((_, i) => String(i)),
+      ),
+    ).toBeNull();
   });
 });

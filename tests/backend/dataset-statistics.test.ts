@@ -112,7 +112,8 @@ describe("Anderson–Darling normality test", () => {
   it("A² equals a direct evaluation of the defining sum with jstat's normal CDF", () => {
     const xs = normalSample(250, -0.03, 0.11, 99);
     const n = xs.length;
-    const mean = jStat.mean(xs), sd = jStat.stdev(xs, true);
+    const mean = jStat.mean(xs),
+      sd = jStat.stdev(xs, true);
     const s = [...xs].sort((a, b) => a - b);
     let sum = 0;
     for (let i = 1; i <= n; i++) {
@@ -171,7 +172,8 @@ describe("capability", () => {
   it("Cp and Cpk by their definitions (Cp = (USL − LSL)/6σ, Cpk = min(USL − μ, μ − LSL)/3σ)", () => {
     const xs = normalSample(400, 0.05, 0.1, 5);
     const c = capability(xs, -0.4, 0.4)!;
-    const m = jStat.mean(xs), s = jStat.stdev(xs, true);
+    const m = jStat.mean(xs),
+      s = jStat.stdev(xs, true);
     expect(c.cp).toBeCloseTo(0.8 / (6 * s), 12);
     expect(c.cpk).toBeCloseTo(Math.min(0.4 - m, m + 0.4) / (3 * s), 12);
     expect(c.observedOut).toBe(xs.filter((x) => Math.abs(x) > 0.4).length);

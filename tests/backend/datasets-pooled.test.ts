@@ -28,10 +28,13 @@ async function upload(path: string, cookie: string, name: string, content: strin
 
 // The magnetometer (0.9 × 0.5 mm, bond line 10 µm): corners at (±0.45, ±0.25) mm in MODEL.md's
 // order. Unit i: heights 10 + 0.3·(i mod 3) + b·x + c·y µm with b = 2 + (i mod 5)·0.5 µm/mm, c = −1 µm/mm.
-const X = [-0.45, 0.45, 0.45, -0.45], Y = [-0.25, -0.25, 0.25, 0.25];
+const X = [-0.45, 0.45, 0.45, -0.45],
+  Y = [-0.25, -0.25, 0.25, 0.25];
 const unitsOf = (n: number) =>
   Array.from({ length: n }, (_, i) => {
-    const b = 2 + (i % 5) * 0.5, c = -1, a = 10 + 0.3 * (i % 3);
+    const b = 2 + (i % 5) * 0.5,
+      c = -1,
+      a = 10 + 0.3 * (i % 3);
     return { id: `M${String(i + 1).padStart(3, "0")}`, lot: i < n / 2 ? "L2611" : "L2612", h: X.map((x, k) => a + b * x + c * Y[k]) };
   });
 const UNITS = unitsOf(40);
@@ -58,7 +61,18 @@ async function releasedReport() {
   const [{ next }] = await t.handle.db.select({ next: sql<number>`coalesce(max(${reports.number}), 0)::int + 1` }).from(reports);
   const [r] = await t.handle.db
     .insert(reports)
-    .values({ workspaceId: s.workspaceId, projectId, supplierId: s.id, revisionId, number: next, revision: 1, status: "released", capability: { cpk: 1.33, overrides: {} }, content: {}, releasedAt: new Date() })
+    .values({
+      workspaceId: s.workspaceId,
+      projectId,
+      supplierId: s.id,
+      revisionId,
+      number: next,
+      revision: 1,
+      status: "released",
+      capability: { cpk: 1.33, overrides: {} },
+      content: {},
+      releasedAt: new Date(),
+    })
     .returning();
   return r.id;
 }
@@ -71,18 +85,31 @@ describe("a corner-height file from the line", () => {
 
   it("the supplier sends it for one lot with a note; gaps are counted, not refused", async () => {
     reportId = await releasedReport();
-    const res = await upload(`/api/reports/${reportId}/datasets`, sup, "mag-corners.csv", CSV, { lot: "L2611-12", note: "first build, corner heights by white-light interferometer" });
+    const res = await upload(`/api/reports/${reportId}/datasets`, sup, "mag-corners.csv", CSV, {
+      lot: "L2611-12",
+      note: "first build, corner heights by white-light interferometer",
+    });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     datasetId = res.body.id;
     expect(res.body.lot).toBe("L2611-12");
     expect(res.body.note).toBe("first build, corner heights by white-light interferometer");
     const h = (k: number) => res.body.columns.find((c: any) => c.key === `h${k} [um]`).summary;
-    expect([0, 1, 2, 3].map((k) => [h(k).n, h(k).missing])).toEqual([[38, 2], [39, 1], [38, 2], [39, 1]]);
+    expect([0, 1, 2, 3].map((k) => [h(k).n, h(k).missing])).toEqual([
+      [38, 2],
+      [39, 1],
+      [38, 2],
+      [39, 1],
+    ]);
     // the engineer sees it by report and by lot
     const list = await t.call("GET", `/api/projects/${projectId}/datasets`, { cookie: eng });
     const mine = list.body.datasets.find((d: any) => d.id === datasetId);
     expect([mine.lot, mine.report.id, mine.supplierName]).toEqual(["L2611-12", reportId, "Larkfield Assembly"]);
-    const [act] = await t.handle.db.select().from(activities).where(eq(activities.action, "dataset.uploaded")).orderBy(sql`${activities.createdAt} desc`).limit(1);
+    const [act] = await t.handle.db
+      .select()
+      .from(activities)
+      .where(eq(activities.action, "dataset.uploaded"))
+      .orderBy(sql`${activities.createdAt} desc`)
+      .limit(1);
     expect(act.summary).toContain("lot L2611-12");
   });
 
@@ -109,19 +136,44 @@ describe("a corner-height file from the line", () => {
     const m = res.body.columns.find((c: any) => c.key === "h2 [um]").mapping;
     expect([m.source, m.part, m.partLabel, m.nominal]).toEqual(["mag.bondLine", 2, "support 2 (+x/2, +y/2)", 10]);
     // 40 rows, 6 with a gap in one corner
-    expect(res.body.pooled).toEqual([{ source: "mag.bondLine", revisionNumber: 1, columns: ["h0 [um]", "h1 [um]", "h2 [um]", "h3 [um]"], missingParts: [], parts: 4, completeRows: 34, dropped: 6 }]);
+    expect(res.body.pooled).toEqual([
+      {
+        source: "mag.bondLine",
+        revisionNumber: 1,
+        columns: ["h0 [um]", "h1 [um]", "h2 [um]", "h3 [um]"],
+        missingParts: [],
+        parts: 4,
+        completeRows: 34,
+        dropped: 6,
+      },
+    ]);
   });
 
   it("refuses a second column for one support, a mix of pooled and single, a support the die lacks; nothing changed", async () => {
     const before = await t.handle.db.select().from(datasetMappings).where(eq(datasetMappings.datasetId, datasetId));
-    const twice = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, { cookie: eng, body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.bondLine", support: 0 }] } });
+    const twice = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
+      cookie: eng,
+      body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.bondLine", support: 0 }] },
+    });
     expect(twice.status).toBe(400);
-    expect(twice.body.error.fields[0]).toEqual({ path: "mappings[0].support", message: "“h0 [um]” already measures this part of mag.bondLine" });
-    const mixed = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, { cookie: eng, body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.bondLine" }] } });
+    expect(twice.body.error.fields[0]).toEqual({
+      path: "mappings[0].support",
+      message: "“h0 [um]” already measures this part of mag.bondLine",
+    });
+    const mixed = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
+      cookie: eng,
+      body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.bondLine" }] },
+    });
     expect(mixed.status).toBe(400);
-    const far = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, { cookie: eng, body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.bondLine", support: 4 }] } });
+    const far = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
+      cookie: eng,
+      body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.bondLine", support: 4 }] },
+    });
     expect(far.body.error.fields[0].message).toBe("mag.bondLine rests on 4 support points, numbered 0 to 3");
-    const tilt = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, { cookie: eng, body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.yaw", component: "x" }] } });
+    const tilt = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
+      cookie: eng,
+      body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.yaw", component: "x" }] },
+    });
     expect(tilt.body.error.fields[0].message).toBe("mag.yaw is one quantity: leave out component");
     expect(await t.handle.db.select().from(datasetMappings).where(eq(datasetMappings.datasetId, datasetId))).toEqual(before);
   });
@@ -136,7 +188,10 @@ describe("a corner-height file from the line", () => {
     expect([s.summary.n, s.summary.missing]).toEqual([38, 2]);
     expect(s.converted.text).toBe("the nominal 10 µm taken off each value.");
     expect(s.partLabel).toBe("support 0 (−x/2, −y/2)");
-    expect(s.lots.map((l: any) => [l.lot, l.n])).toEqual([["L2611", 20], ["L2612", 18]]);
+    expect(s.lots.map((l: any) => [l.lot, l.n])).toEqual([
+      ["L2611", 20],
+      ["L2612", 18],
+    ]);
     const c = s.capability;
     expect(c.n).toBe(38);
     expect(c.basis).toBe("within lots");
@@ -148,17 +203,27 @@ describe("a corner-height file from the line", () => {
     expect(s.controlChart.constants.d2).toBe(1.128);
     // the mm → µm wording when a unit really changes
     const mm = await upload(`/api/projects/${projectId}/datasets`, eng, "mm.csv", "unit,height [mm]\nA,0.0112\nB,0.0104\nC,0.0098\n");
-    await t.call("PATCH", `/api/datasets/${mm.body.id}/mappings`, { cookie: eng, body: { mappings: [{ column: "height [mm]", revisionId, source: "mag.bondLine" }] } });
-    const sm = (await t.call("GET", `/api/datasets/${mm.body.id}/statistics?column=${encodeURIComponent("height [mm]")}`, { cookie: eng })).body;
+    await t.call("PATCH", `/api/datasets/${mm.body.id}/mappings`, {
+      cookie: eng,
+      body: { mappings: [{ column: "height [mm]", revisionId, source: "mag.bondLine" }] },
+    });
+    const sm = (await t.call("GET", `/api/datasets/${mm.body.id}/statistics?column=${encodeURIComponent("height [mm]")}`, { cookie: eng }))
+      .body;
     expect(sm.converted.text).toBe("the nominal 0.01 mm taken off each value; mm converted to µm (× 1000).");
-    expect(sm.summary.mean).toBeCloseTo(((11.2 + 10.4 + 9.8) / 3) - 10, 9);
+    expect(sm.summary.mean).toBeCloseTo((11.2 + 10.4 + 9.8) / 3 - 10, 9);
   });
 
   it("runs as built from the corner heights: whole rows, complete rows only, the tilt those heights make", async () => {
-    const normal = await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: eng, body: { study, asBuilt: [{ source: "mag.bondLine", datasetId, mode: "normal" }] } });
+    const normal = await t.call("POST", `/api/revisions/${revisionId}/studies`, {
+      cookie: eng,
+      body: { study, asBuilt: [{ source: "mag.bondLine", datasetId, mode: "normal" }] },
+    });
     expect(normal.status).toBe(400);
     expect(normal.body.error.fields[0].path).toBe("asBuilt[0].mode");
-    const res = await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: eng, body: { study, asBuilt: [{ source: "mag.bondLine", datasetId, mode: "resample" }] } });
+    const res = await t.call("POST", `/api/revisions/${revisionId}/studies`, {
+      cookie: eng,
+      body: { study, asBuilt: [{ source: "mag.bondLine", datasetId, mode: "resample" }] },
+    });
     expect(res.status, JSON.stringify(res.body)).toBe(202);
     const rec = res.body.asBuilt[0];
     expect([rec.source, rec.n, rec.dropped, rec.columns]).toEqual(["mag.bondLine", 34, 6, ["h0 [um]", "h1 [um]", "h2 [um]", "h3 [um]"]]);
@@ -185,8 +250,14 @@ describe("a corner-height file from the line", () => {
     expect(Math.min(...tilts)).toBeGreaterThan(0.12);
     expect(s.result.metrics["mag.tiltDeg"].p50).toBeGreaterThan(0.1);
     // a pooled source with a corner unmapped is refused by name
-    await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, { cookie: eng, body: { mappings: [{ column: "h3 [um]", revisionId, source: null }] } });
-    const partial = await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: eng, body: { study, asBuilt: [{ source: "mag.bondLine", datasetId, mode: "resample" }] } });
+    await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
+      cookie: eng,
+      body: { mappings: [{ column: "h3 [um]", revisionId, source: null }] },
+    });
+    const partial = await t.call("POST", `/api/revisions/${revisionId}/studies`, {
+      cookie: eng,
+      body: { study, asBuilt: [{ source: "mag.bondLine", datasetId, mode: "resample" }] },
+    });
     expect(partial.status).toBe(400);
     expect(partial.body.error.fields[0].message).toContain("support 3 (−x/2, +y/2)");
   });

@@ -32,11 +32,15 @@ async function upload(path: string, cookie: string | undefined, name: string, co
   return { status: res.status, body: text ? JSON.parse(text) : null };
 }
 
-const uploadToProject = (name: string, content: string | Buffer, cookie = eng) => upload(`/api/projects/${projectId}/datasets`, cookie, name, content);
+const uploadToProject = (name: string, content: string | Buffer, cookie = eng) =>
+  upload(`/api/projects/${projectId}/datasets`, cookie, name, content);
 
 async function counts() {
   const [d] = await t.handle.db.select({ n: sql<number>`count(*)::int` }).from(datasets);
-  const [a] = await t.handle.db.select({ n: sql<number>`count(*)::int` }).from(activities).where(eq(activities.action, "dataset.uploaded"));
+  const [a] = await t.handle.db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(activities)
+    .where(eq(activities.action, "dataset.uploaded"));
   return { datasets: d.n, activities: a.n };
 }
 
@@ -47,7 +51,10 @@ async function xlsx(rows: unknown[][], sheetName = "Build 1"): Promise<Buffer> {
   return Buffer.from(await wb.xlsx.writeBuffer());
 }
 
-const TILT_CSV = ["unit,tilt [deg],yaw [mrad],height [um]", ...Array.from({ length: 30 }, (_, i) => `U${i + 1},${((i % 7) - 3) * 0.02},${((i % 5) - 2) * 0.8},${10 + ((i % 3) - 1) * 0.5}`)].join("\n");
+const TILT_CSV = [
+  "unit,tilt [deg],yaw [mrad],height [um]",
+  ...Array.from({ length: 30 }, (_, i) => `U${i + 1},${((i % 7) - 3) * 0.02},${((i % 5) - 2) * 0.8},${10 + ((i % 3) - 1) * 0.5}`),
+].join("\n");
 
 beforeAll(async () => {
   t = await startTestApp();
@@ -145,42 +152,153 @@ describe("upload", () => {
 });
 
 describe("refused files: 400 naming the row and column, nothing stored", () => {
-  const cases: Array<{ what: string; name: string; content: string | Buffer | (() => Promise<string | Buffer> | string | Buffer); status?: number; code: string; message: RegExp }> = [
-    { what: "a word in a number column", name: "a.csv", content: "unit,tilt [deg]\nU1,0.1\nU2,0.1o\n", code: "invalid_file", message: /^Row 3, column B \(tilt \[deg\]\): “0\.1o” is not a number/ },
-    { what: "a measured column of gaps only", name: "b.csv", content: "unit,tilt [deg],yaw [deg]\nU1,NA,0.2\nU2,,0.3\n", code: "invalid_file", message: /^Row 1, column B \(tilt \[deg\]\): the column holds only gaps/ },
-    { what: "an unknown unit in a header", name: "c.csv", content: "unit,tilt_x [furlong]\nU1,1\n", code: "invalid_file", message: /^Row 1, column B \(tilt_x \[furlong\]\): unknown unit “furlong”/ },
-    { what: "empty brackets in a header", name: "c2.csv", content: "tilt_x []\n1\n", code: "invalid_file", message: /^Row 1, column A \(tilt_x \[\]\): the brackets in the header hold no unit/ },
+  const cases: Array<{
+    what: string;
+    name: string;
+    content: string | Buffer | (() => Promise<string | Buffer> | string | Buffer);
+    status?: number;
+    code: string;
+    message: RegExp;
+  }> = [
+    {
+      what: "a word in a number column",
+      name: "a.csv",
+      content: "unit,tilt [deg]\nU1,0.1\nU2,0.1o\n",
+      code: "invalid_file",
+      message: /^Row 3, column B \(tilt \[deg\]\): “0\.1o” is not a number/,
+    },
+    {
+      what: "a measured column of gaps only",
+      name: "b.csv",
+      content: "unit,tilt [deg],yaw [deg]\nU1,NA,0.2\nU2,,0.3\n",
+      code: "invalid_file",
+      message: /^Row 1, column B \(tilt \[deg\]\): the column holds only gaps/,
+    },
+    {
+      what: "an unknown unit in a header",
+      name: "c.csv",
+      content: "unit,tilt_x [furlong]\nU1,1\n",
+      code: "invalid_file",
+      message: /^Row 1, column B \(tilt_x \[furlong\]\): unknown unit “furlong”/,
+    },
+    {
+      what: "empty brackets in a header",
+      name: "c2.csv",
+      content: "tilt_x []\n1\n",
+      code: "invalid_file",
+      message: /^Row 1, column A \(tilt_x \[\]\): the brackets in the header hold no unit/,
+    },
     { what: "an empty file", name: "d.csv", content: "", code: "empty_file", message: /“d\.csv” is empty/ },
     { what: "only blank lines", name: "d2.csv", content: "\r\n , ,\r\n\r\n", code: "empty_file", message: /holds no data/ },
-    { what: "a header without rows", name: "e.csv", content: "unit,tilt [deg]\n", code: "empty_file", message: /^Row 2: the file has a header but no data rows/ },
-    { what: "a PDF", name: "report.pdf", content: Buffer.from("%PDF-1.7\n%\u00e2\u00e3\n1 0 obj\n<<>>\nendobj\n\u0000\u0000", "latin1"), code: "wrong_file_type", message: /“report\.pdf” is not a CSV file or an Excel workbook/ },
-    { what: "a PNG named .csv", name: "photo.csv", content: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13]), code: "wrong_file_type", message: /is not a CSV file or an Excel workbook/ },
-    { what: "an old .xls", name: "old.xls", content: Buffer.from([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1, 0, 0]), code: "wrong_file_type", message: /old-style Excel file \(\.xls\)/ },
-    { what: "text named .xlsx", name: "fake.xlsx", content: "unit,tilt [deg]\nU1,1\n", code: "wrong_file_type", message: /named \.xlsx but is not an Excel workbook/ },
-    { what: "a broken workbook", name: "broken.xlsx", content: Buffer.concat([Buffer.from([0x50, 0x4b, 0x03, 0x04]), Buffer.alloc(200, 7)]), code: "invalid_file", message: /could not be read as an Excel workbook/ },
-    { what: "an unclosed quote", name: "f.csv", content: 'unit,tilt [deg]\nU1,0.1\n"U2,0.2\n', code: "invalid_file", message: /^Row 3, column A: a quoted field is not closed/ },
-    { what: "text after a closing quote", name: "f2.csv", content: 'unit,tilt [deg]\n"U1"x,0.1\n', code: "invalid_file", message: /^Row 2, column A: text after the closing quote/ },
-    { what: "values under no header", name: "g.csv", content: "unit,tilt [deg]\nU1,0.1,7\n", code: "invalid_file", message: /^Row 1, column C: the column has values but no header/ },
-    { what: "a header used twice", name: "h.csv", content: "tilt [deg],tilt [deg]\n1,2\n", code: "invalid_file", message: /^Row 1, column B \(tilt \[deg\]\): the header “tilt \[deg\]” is already used by column A/ },
-    { what: "no column of numbers", name: "i.csv", content: "unit,operator\nU1,Kim\n", code: "invalid_file", message: /^Row 1: no column holds numbers/ },
+    {
+      what: "a header without rows",
+      name: "e.csv",
+      content: "unit,tilt [deg]\n",
+      code: "empty_file",
+      message: /^Row 2: the file has a header but no data rows/,
+    },
+    {
+      what: "a PDF",
+      name: "report.pdf",
+      content: Buffer.from("%PDF-1.7\n%\u00e2\u00e3\n1 0 obj\n<<>>\nendobj\n\u0000\u0000", "latin1"),
+      code: "wrong_file_type",
+      message: /“report\.pdf” is not a CSV file or an Excel workbook/,
+    },
+    {
+      what: "a PNG named .csv",
+      name: "photo.csv",
+      content: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13]),
+      code: "wrong_file_type",
+      message: /is not a CSV file or an Excel workbook/,
+    },
+    {
+      what: "an old .xls",
+      name: "old.xls",
+      content: Buffer.from([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1, 0, 0]),
+      code: "wrong_file_type",
+      message: /old-style Excel file \(\.xls\)/,
+    },
+    {
+      what: "text named .xlsx",
+      name: "fake.xlsx",
+      content: "unit,tilt [deg]\nU1,1\n",
+      code: "wrong_file_type",
+      message: /named \.xlsx but is not an Excel workbook/,
+    },
+    {
+      what: "a broken workbook",
+      name: "broken.xlsx",
+      content: Buffer.concat([Buffer.from([0x50, 0x4b, 0x03, 0x04]), Buffer.alloc(200, 7)]),
+      code: "invalid_file",
+      message: /could not be read as an Excel workbook/,
+    },
+    {
+      what: "an unclosed quote",
+      name: "f.csv",
+      content: 'unit,tilt [deg]\nU1,0.1\n"U2,0.2\n',
+      code: "invalid_file",
+      message: /^Row 3, column A: a quoted field is not closed/,
+    },
+    {
+      what: "text after a closing quote",
+      name: "f2.csv",
+      content: 'unit,tilt [deg]\n"U1"x,0.1\n',
+      code: "invalid_file",
+      message: /^Row 2, column A: text after the closing quote/,
+    },
+    {
+      what: "values under no header",
+      name: "g.csv",
+      content: "unit,tilt [deg]\nU1,0.1,7\n",
+      code: "invalid_file",
+      message: /^Row 1, column C: the column has values but no header/,
+    },
+    {
+      what: "a header used twice",
+      name: "h.csv",
+      content: "tilt [deg],tilt [deg]\n1,2\n",
+      code: "invalid_file",
+      message: /^Row 1, column B \(tilt \[deg\]\): the header “tilt \[deg\]” is already used by column A/,
+    },
+    {
+      what: "no column of numbers",
+      name: "i.csv",
+      content: "unit,operator\nU1,Kim\n",
+      code: "invalid_file",
+      message: /^Row 1: no column holds numbers/,
+    },
     {
       what: "a date in a number column (XLSX)",
       name: "j.xlsx",
-      content: () => xlsx([["unit", "yaw [deg]"], ["U1", 0.1], ["U2", new Date(Date.UTC(2026, 2, 14))]]),
+      content: () =>
+        xlsx([
+          ["unit", "yaw [deg]"],
+          ["U1", 0.1],
+          ["U2", new Date(Date.UTC(2026, 2, 14))],
+        ]),
       code: "invalid_file",
       message: /^Row 3, column B \(yaw \[deg\]\): holds a date \(2026-03-14\), not a number/,
     },
     {
       what: "a spreadsheet error (XLSX)",
       name: "k.xlsx",
-      content: () => xlsx([["unit", "yaw [deg]"], ["U1", 0.1], ["U2", { error: "#DIV/0!" }]]),
+      content: () =>
+        xlsx([
+          ["unit", "yaw [deg]"],
+          ["U1", 0.1],
+          ["U2", { error: "#DIV/0!" }],
+        ]),
       code: "invalid_file",
       message: /^Row 3, column B \(yaw \[deg\]\): holds the spreadsheet error #DIV\/0!, not a number/,
     },
     {
       what: "a formula without a numeric result (XLSX)",
       name: "k2.xlsx",
-      content: () => xlsx([["unit", "yaw [deg]"], ["U1", { formula: "1/0", result: { error: "#DIV/0!" } }]]),
+      content: () =>
+        xlsx([
+          ["unit", "yaw [deg]"],
+          ["U1", { formula: "1/0", result: { error: "#DIV/0!" } }],
+        ]),
       code: "invalid_file",
       message: /^Row 2, column B \(yaw \[deg\]\): holds the formula =1\/0 with no number saved as its result/,
     },
@@ -221,13 +339,24 @@ describe("refused files: 400 naming the row and column, nothing stored", () => {
   }
 
   it("gaps (empty, short rows, missing markers, empty XLSX cells) are counted, not refused", async () => {
-    const csv = await uploadToProject("gaps.csv", "unit,tilt [deg],yaw [deg]\nU1,0.1,0.2\nU2,,0.3\nU3,NA,-\nU4,n/a,null\nU5,N/A\nU6,0.4,0.5\n");
+    const csv = await uploadToProject(
+      "gaps.csv",
+      "unit,tilt [deg],yaw [deg]\nU1,0.1,0.2\nU2,,0.3\nU3,NA,-\nU4,n/a,null\nU5,N/A\nU6,0.4,0.5\n",
+    );
     expect(csv.status, JSON.stringify(csv.body)).toBe(201);
     const sum = (d: any, k: string) => d.columns.find((c: any) => c.key === k).summary;
     expect([sum(csv.body, "tilt [deg]").n, sum(csv.body, "tilt [deg]").missing]).toEqual([2, 4]);
     expect([sum(csv.body, "yaw [deg]").n, sum(csv.body, "yaw [deg]").missing]).toEqual([3, 3]);
     expect(sum(csv.body, "tilt [deg]").mean).toBeCloseTo(0.25, 12);
-    const book = await uploadToProject("gaps.xlsx", await xlsx([["unit", "yaw [deg]", "tilt [deg]"], ["U1", 0.1, 0.2], ["U2", null, 0.3], ["U3", "NA", 0.1]]));
+    const book = await uploadToProject(
+      "gaps.xlsx",
+      await xlsx([
+        ["unit", "yaw [deg]", "tilt [deg]"],
+        ["U1", 0.1, 0.2],
+        ["U2", null, 0.3],
+        ["U3", "NA", 0.1],
+      ]),
+    );
     expect(book.status).toBe(201);
     expect([sum(book.body, "yaw [deg]").n, sum(book.body, "yaw [deg]").missing]).toEqual([1, 2]);
     // a first cell that is a gap does not turn a measured column into labels
@@ -241,7 +370,11 @@ describe("refused files: 400 naming the row and column, nothing stored", () => {
     expect(res.body.error.message).toMatch(/^Row 2, column B \(tilt \[deg\]\): “x” is not a number\. \(3 problems; nothing was stored\)$/);
     expect(res.body.error.fields).toContainEqual({ path: "Row 4, column C (yaw [deg])", message: "“y” is not a number" });
     expect(res.body.error.fields).toContainEqual({ path: "Row 3, column C (yaw [deg])", message: "“?” is not a number" });
-    expect(res.body.error.fields.map((f: any) => f.path).sort()).toEqual(["Row 2, column B (tilt [deg])", "Row 3, column C (yaw [deg])", "Row 4, column C (yaw [deg])"]);
+    expect(res.body.error.fields.map((f: any) => f.path).sort()).toEqual([
+      "Row 2, column B (tilt [deg])",
+      "Row 3, column C (yaw [deg])",
+      "Row 4, column C (yaw [deg])",
+    ]);
   });
 
   it("no file, or the file in another field", async () => {
@@ -274,12 +407,30 @@ describe("mapping and statistics", () => {
   it("maps a column to a source of a revision, in its header's unit", async () => {
     const res = await t.call("PATCH", `/api/datasets/${id}/mappings`, {
       cookie: eng,
-      body: { mappings: [{ column: "yaw [mrad]", revisionId, source: "mag.yaw" }, { column: "height [um]", revisionId, source: "mag.bondLine", nominal: 10 }] },
+      body: {
+        mappings: [
+          { column: "yaw [mrad]", revisionId, source: "mag.yaw" },
+          { column: "height [um]", revisionId, source: "mag.bondLine", nominal: 10 },
+        ],
+      },
     });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     const yaw = res.body.columns.find((c: any) => c.key === "yaw [mrad]");
-    expect(yaw.mapping).toMatchObject({ revisionId, revisionNumber: 1, source: "mag.yaw", unit: "mrad", sourceUnit: "deg", nominal: 0, updatedByName: "Ezra Lindqvist" });
-    expect(res.body.mappedColumns).toEqual(expect.arrayContaining([{ column: "yaw [mrad]", source: "mag.yaw" }, { column: "height [um]", source: "mag.bondLine" }]));
+    expect(yaw.mapping).toMatchObject({
+      revisionId,
+      revisionNumber: 1,
+      source: "mag.yaw",
+      unit: "mrad",
+      sourceUnit: "deg",
+      nominal: 0,
+      updatedByName: "Ezra Lindqvist",
+    });
+    expect(res.body.mappedColumns).toEqual(
+      expect.arrayContaining([
+        { column: "yaw [mrad]", source: "mag.yaw" },
+        { column: "height [um]", source: "mag.bondLine" },
+      ]),
+    );
   });
 
   it("refuses what cannot be right, naming the field, and changes nothing", async () => {
@@ -315,9 +466,17 @@ describe("mapping and statistics", () => {
   it("a column without a unit needs one when mapped", async () => {
     const up = await uploadToProject("no-unit.csv", "unit,tilt\nU1,0.1\nU2,0.2\n");
     expect(up.body.columns[1]).toMatchObject({ key: "tilt", unit: null, kind: "number" });
-    const bad = await t.call("PATCH", `/api/datasets/${up.body.id}/mappings`, { cookie: eng, body: { mappings: [{ column: "tilt", revisionId, source: "mag.yaw" }] } });
-    expect(bad.body.error.fields).toEqual([{ path: "mappings[0].unit", message: "“tilt” has no unit in its header: give one of um, mm, deg, mrad, arcmin" }]);
-    const ok = await t.call("PATCH", `/api/datasets/${up.body.id}/mappings`, { cookie: eng, body: { mappings: [{ column: "tilt", revisionId, source: "mag.yaw", unit: "arcmin" }] } });
+    const bad = await t.call("PATCH", `/api/datasets/${up.body.id}/mappings`, {
+      cookie: eng,
+      body: { mappings: [{ column: "tilt", revisionId, source: "mag.yaw" }] },
+    });
+    expect(bad.body.error.fields).toEqual([
+      { path: "mappings[0].unit", message: "“tilt” has no unit in its header: give one of um, mm, deg, mrad, arcmin" },
+    ]);
+    const ok = await t.call("PATCH", `/api/datasets/${up.body.id}/mappings`, {
+      cookie: eng,
+      body: { mappings: [{ column: "tilt", revisionId, source: "mag.yaw", unit: "arcmin" }] },
+    });
     expect(ok.status).toBe(200);
     expect(ok.body.columns[1].mapping.unit).toBe("arcmin");
   });
@@ -332,7 +491,7 @@ describe("mapping and statistics", () => {
     expect(s.unit).toBe("deg");
     expect(s.source).toBe("mag.yaw");
     expect(s.converted).toMatchObject({ from: "mrad", nominal: 0 });
-    expect(s.converted.factor).toBeCloseTo(0.180 / Math.PI, 12);
+    expect(s.converted.factor).toBeCloseTo(0.18 / Math.PI, 12);
     const raw = [...Array.from({ length: 30 }, (_, i) => ((i % 5) - 2) * 0.8), 0.1];
     const deg = raw.map((v) => (v * 0.18) / Math.PI);
     const mean = deg.reduce((a, b) => a + b, 0) / deg.length;
@@ -365,7 +524,10 @@ describe("mapping and statistics", () => {
   });
 
   it("clearing a mapping, and deleting a data set", async () => {
-    const res = await t.call("PATCH", `/api/datasets/${id}/mappings`, { cookie: eng, body: { mappings: [{ column: "height [um]", revisionId, source: null }] } });
+    const res = await t.call("PATCH", `/api/datasets/${id}/mappings`, {
+      cookie: eng,
+      body: { mappings: [{ column: "height [um]", revisionId, source: null }] },
+    });
     expect(res.body.columns.find((c: any) => c.key === "height [um]").mapping).toBeNull();
     const up = await uploadToProject("to-delete.csv", "v [um]\n1\n2\n");
     const del = await t.call("DELETE", `/api/datasets/${up.body.id}`, { cookie: eng });
@@ -380,7 +542,18 @@ describe("suppliers send measurements through a released report of their own com
     const [{ next }] = await t.handle.db.select({ next: sql<number>`coalesce(max(${reports.number}), 0)::int + 1` }).from(reports);
     const [r] = await t.handle.db
       .insert(reports)
-      .values({ workspaceId: s.workspaceId, projectId, supplierId: s.id, revisionId, number: next, revision: 1, status, capability: { cpk: 1.33, overrides: {} }, content: {}, releasedAt: status === "released" ? new Date() : null })
+      .values({
+        workspaceId: s.workspaceId,
+        projectId,
+        supplierId: s.id,
+        revisionId,
+        number: next,
+        revision: 1,
+        status,
+        capability: { cpk: 1.33, overrides: {} },
+        content: {},
+        releasedAt: status === "released" ? new Date() : null,
+      })
       .returning();
     return r.id;
   }
@@ -389,15 +562,25 @@ describe("suppliers send measurements through a released report of their own com
     const id = await report("released", "Larkfield Assembly");
     const res = await upload(`/api/reports/${id}/datasets`, sup, "larkfield-build1.csv", "die,yaw [deg]\nD1,0.02\nD2,-0.01\n");
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body).toMatchObject({ projectId, uploadedByName: "Sam Whitcombe", uploadedByRole: "supplier", supplierName: "Larkfield Assembly" });
+    expect(res.body).toMatchObject({
+      projectId,
+      uploadedByName: "Sam Whitcombe",
+      uploadedByRole: "supplier",
+      supplierName: "Larkfield Assembly",
+    });
     expect(res.body.report).toMatchObject({ id, revision: 1 });
     const list = await t.call("GET", `/api/projects/${projectId}/datasets`, { cookie: eng });
-    expect(list.body.datasets.find((d: any) => d.id === res.body.id)).toMatchObject({ supplierName: "Larkfield Assembly", uploadedByName: "Sam Whitcombe" });
+    expect(list.body.datasets.find((d: any) => d.id === res.body.id)).toMatchObject({
+      supplierName: "Larkfield Assembly",
+      uploadedByName: "Sam Whitcombe",
+    });
     const mine = await t.call("GET", `/api/reports/${id}/datasets`, { cookie: sup });
     expect(mine.status, JSON.stringify(mine.body)).toBe(200);
     expect(mine.body.datasets.map((d: any) => d.id)).toEqual([res.body.id]);
     const act = await t.call("GET", `/api/projects/${projectId}/activity`, { cookie: eng });
-    expect(act.body.activity[0].summary).toMatch(/^sent the data set “larkfield-build1\.csv” \(2 rows, 1 measured column\) for report TR-\d{4} rev 1 \(Larkfield Assembly\)$/);
+    expect(act.body.activity[0].summary).toMatch(
+      /^sent the data set “larkfield-build1\.csv” \(2 rows, 1 measured column\) for report TR-\d{4} rev 1 \(Larkfield Assembly\)$/,
+    );
     // the supplier reads nothing else of the workspace
     expect((await t.call("GET", `/api/datasets/${res.body.id}`, { cookie: sup })).status).toBe(403);
   });
@@ -431,7 +614,10 @@ describe("as-built study requests that cannot run are refused before anything is
   beforeAll(async () => {
     const res = await uploadToProject("as-built-checks.csv", "unit,yaw [mrad],height [um],solo [deg]\nU1,1,10,0\nU2,-1,11,0\nU3,0.5,9,0\n");
     id = res.body.id;
-    await t.call("PATCH", `/api/datasets/${id}/mappings`, { cookie: eng, body: { mappings: [{ column: "yaw [mrad]", revisionId, source: "mag.yaw" }] } });
+    await t.call("PATCH", `/api/datasets/${id}/mappings`, {
+      cookie: eng,
+      body: { mappings: [{ column: "yaw [mrad]", revisionId, source: "mag.yaw" }] },
+    });
     study = { ...JSON.parse(readFileSync(new URL("../fixtures/study-reference.json", import.meta.url), "utf8")), trials: 1000 };
   });
 
@@ -440,8 +626,16 @@ describe("as-built study requests that cannot run are refused before anything is
   it("names the entry and field of each problem", async () => {
     const [{ n: before }] = await t.handle.db.select({ n: sql<number>`count(*)::int` }).from(studies);
     const cases: Array<[unknown, string, RegExp]> = [
-      [[{ source: "mag.nothing", datasetId: id, column: "yaw [mrad]", mode: "resample" }], "asBuilt[0].source", /no tolerance source mag\.nothing/],
-      [[{ source: "mag.bondLine", datasetId: id, column: "yaw [mrad]", mode: "resample" }], "asBuilt[0].source", /measures mag\.yaw; map it to mag\.bondLine first/],
+      [
+        [{ source: "mag.nothing", datasetId: id, column: "yaw [mrad]", mode: "resample" }],
+        "asBuilt[0].source",
+        /no tolerance source mag\.nothing/,
+      ],
+      [
+        [{ source: "mag.bondLine", datasetId: id, column: "yaw [mrad]", mode: "resample" }],
+        "asBuilt[0].source",
+        /measures mag\.yaw; map it to mag\.bondLine first/,
+      ],
       [[{ source: "mag.yaw", datasetId: id, column: "height [um]", mode: "normal" }], "asBuilt[0].column", /cannot replace mag\.yaw/],
       [[{ source: "mag.yaw", datasetId: id, column: "unit", mode: "normal" }], "asBuilt[0].column", /no measured column “unit”/],
       [[{ source: "calibration.mag", datasetId: id, column: "solo [deg]", mode: "normal" }], "asBuilt[0].source", /calibration residual/],
@@ -465,7 +659,10 @@ describe("as-built study requests that cannot run are refused before anything is
     const foreign = await uploadToProject("x.csv", "yaw [deg]\n1\n2\n");
     await t.handle.db.update(datasets).set({ projectId: other.body.id }).where(eq(datasets.id, foreign.body.id));
     const res = await post([{ source: "mag.yaw", datasetId: foreign.body.id, column: "yaw [deg]", mode: "normal" }]);
-    expect(res.body.error.fields[0]).toEqual({ path: "asBuilt[0].datasetId", message: "no data set with this id in the revision's project" });
+    expect(res.body.error.fields[0]).toEqual({
+      path: "asBuilt[0].datasetId",
+      message: "no data set with this id in the revision's project",
+    });
     const [{ n: after }] = await t.handle.db.select({ n: sql<number>`count(*)::int` }).from(studies);
     expect(after).toBe(before);
   });
@@ -473,15 +670,25 @@ describe("as-built study requests that cannot run are refused before anything is
 
 describe("the demo workspace", () => {
   it("has the first-build magnetometer data set, mapped to mag.yaw of revision 1", async () => {
-    const [p] = await t.handle.db.select().from(projects).where(sql`${projects.name} like 'Ridgeline%'`);
+    const [p] = await t.handle.db
+      .select()
+      .from(projects)
+      .where(sql`${projects.name} like 'Ridgeline%'`);
     const list = await t.call("GET", `/api/projects/${p.id}/datasets`, { cookie: eng });
     const demo = list.body.datasets.find((d: any) => d.name === DEMO_DATASET_NAME);
-    expect(demo).toMatchObject({ rows: 48, mappedColumns: [{ column: "yaw [mrad]", source: "mag.yaw" }], uploadedByName: "Ezra Lindqvist" });
+    expect(demo).toMatchObject({
+      rows: 48,
+      mappedColumns: [{ column: "yaw [mrad]", source: "mag.yaw" }],
+      uploadedByName: "Ezra Lindqvist",
+    });
     const s = await t.call("GET", `/api/datasets/${demo.id}/statistics?column=${encodeURIComponent("yaw [mrad]")}`, { cookie: eng });
     // the re-picked unit RB1-031 is the one outlier, on row 32 of the file
     expect(s.body.outliers.values.map((o: any) => o.row)).toEqual([32]);
     expect(s.body.capability.cpk).toBeLessThan(1.33);
-    const [r1] = await t.handle.db.select().from(stackRevisions).where(and(eq(stackRevisions.projectId, p.id), eq(stackRevisions.number, 1)));
+    const [r1] = await t.handle.db
+      .select()
+      .from(stackRevisions)
+      .where(and(eq(stackRevisions.projectId, p.id), eq(stackRevisions.number, 1)));
     expect(r1).toBeTruthy();
   });
 });

@@ -144,7 +144,10 @@ describe("seed", () => {
 
 describe("invitations", () => {
   it("an admin invites, the invitee accepts with a password and is signed in with the role", async () => {
-    const inv = await t.call("POST", "/api/invitations", { cookie: cookies.admin, body: { email: "New.Person@Example.com", role: "reviewer" } });
+    const inv = await t.call("POST", "/api/invitations", {
+      cookie: cookies.admin,
+      body: { email: "New.Person@Example.com", role: "reviewer" },
+    });
     expect(inv.status).toBe(201);
     expect(inv.body.email).toBe("new.person@example.com");
     const token = inv.body.link.split("/invite/")[1];
@@ -161,7 +164,10 @@ describe("invitations", () => {
       body: JSON.stringify({ name: "New Person", password: "a-long-enough-password" }),
     });
     expect(res.status).toBe(200);
-    const cookie = res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    const cookie = res.headers
+      .getSetCookie()
+      .map((c) => c.split(";")[0])
+      .join("; ");
     const me = await t.call("GET", "/api/me", { cookie });
     expect(me.body.role).toBe("reviewer");
     // the link is single-use
@@ -175,7 +181,10 @@ describe("invitations", () => {
     const r = await t.call("POST", "/api/invitations", { cookie: cookies.admin, body: { email: "s2@example.com", role: "supplier" } });
     expect(r.status).toBe(400);
     expect(r.body.error.fields[0].path).toBe("supplierId");
-    const dup = await t.call("POST", "/api/invitations", { cookie: cookies.admin, body: { email: "engineer@example.com", role: "engineer" } });
+    const dup = await t.call("POST", "/api/invitations", {
+      cookie: cookies.admin,
+      body: { email: "engineer@example.com", role: "engineer" },
+    });
     expect(dup.status).toBe(409);
   });
 
@@ -201,7 +210,10 @@ describe("members and suppliers", () => {
     expect(s.status).toBe(201);
     const dup = await t.call("POST", "/api/suppliers", { cookie: cookies.admin, body: { name: "brackwater dies" } });
     expect(dup.status).toBe(409);
-    const c = await t.call("POST", `/api/suppliers/${s.body.id}/contacts`, { cookie: cookies.admin, body: { name: "Io", email: "io@brackwater.example" } });
+    const c = await t.call("POST", `/api/suppliers/${s.body.id}/contacts`, {
+      cookie: cookies.admin,
+      body: { name: "Io", email: "io@brackwater.example" },
+    });
     expect(c.status).toBe(201);
     const got = await t.call("GET", `/api/suppliers/${s.body.id}`, { cookie: cookies.engineer });
     expect(got.body.contacts).toEqual([{ id: c.body.id, name: "Io", email: "io@brackwater.example" }]);

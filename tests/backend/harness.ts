@@ -20,7 +20,11 @@ export type TestApp = {
   /** Signs in with e-mail and password and returns the session cookie. */
   signIn: (email: string, password?: string) => Promise<string>;
   /** fetch against the app with JSON body and optional cookie. */
-  call: (method: string, path: string, opts?: { cookie?: string; body?: unknown; raw?: string; headers?: Record<string, string> }) => Promise<{ status: number; body: any; headers: Headers }>;
+  call: (
+    method: string,
+    path: string,
+    opts?: { cookie?: string; body?: unknown; raw?: string; headers?: Record<string, string> },
+  ) => Promise<{ status: number; body: any; headers: Headers }>;
   close: () => Promise<void>;
   /** Stops like a crash: the server goes, the running study is dropped without a word to the database. */
   crash: () => Promise<void>;
@@ -50,7 +54,12 @@ const cancelQueuedStudies: SeedStep = async (db) => {
 export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> {
   const handle = opts.handle ?? (await openTestDatabase());
   const baseURL = "http://localhost:3999";
-  const auth = createAuth({ db: handle.db, baseURL, secret: "test-secret-test-secret-test-secret-123", signInPerMinute: opts.signInPerMinute ?? 1000 });
+  const auth = createAuth({
+    db: handle.db,
+    baseURL,
+    secret: "test-secret-test-secret-test-secret-123",
+    signInPerMinute: opts.signInPerMinute ?? 1000,
+  });
   const errors: unknown[] = [];
   const log = (_m: string, e?: unknown) => void errors.push(e);
   const runtime = await assembleRuntime({

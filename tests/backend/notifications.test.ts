@@ -28,7 +28,8 @@ beforeAll(async () => {
 afterAll(() => t?.close());
 
 type N = { id: string; kind: string; title: string; link: string; readAt: string | null };
-const list = async (who: string) => (await t.call("GET", "/api/notifications", { cookie: c[who] })).body as { notifications: N[]; unread: number };
+const list = async (who: string) =>
+  (await t.call("GET", "/api/notifications", { cookie: c[who] })).body as { notifications: N[]; unread: number };
 const latest = async (who: string) => (await list(who)).notifications[0];
 const mailsTo = async (email: string, subject: string) =>
   (await t.handle.db.select().from(outboxMessages)).filter((m) => m.recipients.includes(email) && m.subject === subject);
@@ -41,7 +42,12 @@ describe("revision notifications", () => {
     await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {} });
 
     const waiting = await latest("reviewer");
-    expect(waiting).toMatchObject({ kind: "revision.submitted", title: "Revision 1 of “Notified project” waits for your review", link: `/projects/${p.id}/revisions/${rev.id}`, readAt: null });
+    expect(waiting).toMatchObject({
+      kind: "revision.submitted",
+      title: "Revision 1 of “Notified project” waits for your review",
+      link: `/projects/${p.id}/revisions/${rev.id}`,
+      readAt: null,
+    });
     expect(await mailsTo("reviewer@example.com", waiting.title)).toHaveLength(1);
     expect((await list("engineer")).unread).toBe(beforeEngineer); // not told of their own act
     expect((await list("admin")).notifications.some((n) => n.link.includes(rev.id))).toBe(false);
@@ -63,11 +69,19 @@ describe("revision notifications", () => {
 
 describe("report notifications", () => {
   it("ready → reviewers; returned, released, sent, question, acknowledged, measurements → the engineer; opt-out stops only the mail", async () => {
-    const settings = await t.call("PUT", "/api/notification-settings", { cookie: c.engineer, body: { email: { "report.released": false } } });
+    const settings = await t.call("PUT", "/api/notification-settings", {
+      cookie: c.engineer,
+      body: { email: { "report.released": false } },
+    });
     expect(settings.status).toBe(200);
-    expect(settings.body.kinds.find((k: { kind: string }) => k.kind === "report.released")).toMatchObject({ email: false, label: "Your report was released" });
+    expect(settings.body.kinds.find((k: { kind: string }) => k.kind === "report.released")).toMatchObject({
+      email: false,
+      label: "Your report was released",
+    });
     expect(settings.body.kinds.find((k: { kind: string }) => k.kind === "report.sent").email).toBe(true);
-    expect((await t.call("PUT", "/api/notification-settings", { cookie: c.engineer, body: { email: { "report.lost": false } } })).status).toBe(400);
+    expect(
+      (await t.call("PUT", "/api/notification-settings", { cookie: c.engineer, body: { email: { "report.lost": false } } })).status,
+    ).toBe(400);
 
     const f = await insertFinishedStudy(t.handle.db, { workspaceId });
     const built = await t.call("POST", `/api/studies/${f.studyId}/reports`, { cookie: c.engineer, body: { supplierId } });
@@ -76,7 +90,11 @@ describe("report notifications", () => {
     const title = `${built.body.code} revision 1`;
 
     const ready = await latest("reviewer");
-    expect(ready).toMatchObject({ kind: "report.ready", title: `${title} for Larkfield Assembly waits for release`, link: `/reports/${id}` });
+    expect(ready).toMatchObject({
+      kind: "report.ready",
+      title: `${title} for Larkfield Assembly waits for release`,
+      link: `/reports/${id}`,
+    });
     expect(await mailsTo("reviewer@example.com", ready.title)).toHaveLength(1);
 
     await t.call("POST", `/api/reports/${id}/return`, { cookie: c.reviewer, body: { comment: "Ask Cpk 1.67 on the mag yaw." } });
@@ -108,7 +126,11 @@ describe("report notifications", () => {
 
     const boundary = "----n11";
     const raw = `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="lot-7.csv"\r\nContent-Type: text/csv\r\n\r\ndie,yaw [deg]\nD1,0.02\nD2,-0.01\n\r\n--${boundary}--\r\n`;
-    const up = await t.call("POST", `/api/reports/${id}/datasets`, { cookie: c.supplier, raw, headers: { "content-type": `multipart/form-data; boundary=${boundary}` } });
+    const up = await t.call("POST", `/api/reports/${id}/datasets`, {
+      cookie: c.supplier,
+      raw,
+      headers: { "content-type": `multipart/form-data; boundary=${boundary}` },
+    });
     expect(up.status).toBe(201);
     const m = await latest("engineer");
     expect(m).toMatchObject({ kind: "report.measurements", title: `Larkfield Assembly sent measurements for ${title}` });
@@ -125,7 +147,9 @@ describe("report notifications", () => {
     const other = await t.call("POST", "/api/notifications/read", { cookie: c.reviewer, body: {} });
     expect(other.body.unread).toBe(0);
     expect((await list("engineer")).unread).toBe(before.unread - 1);
-    expect((await t.call("POST", "/api/notifications/read", { cookie: c.engineer, body: { ids: ["x"] } })).body.error.fields[0].path).toMatch(/^ids/);
+    expect(
+      (await t.call("POST", "/api/notifications/read", { cookie: c.engineer, body: { ids: ["x"] } })).body.error.fields[0].path,
+    ).toMatch(/^ids/);
     expect((await t.call("POST", "/api/notifications/read", { cookie: c.engineer, body: {} })).body.unread).toBe(0);
   });
 });

@@ -72,7 +72,9 @@ describe("deleting a project", () => {
       const res = await t.call("DELETE", `/api/projects/${p.id}`, { cookie: cookie.engineer });
       expect(res.status).toBe(409);
       expect(res.body.error.code).toBe("records_kept");
-      expect(res.body.error.message).toContain(kept === "approved" ? "1 approved revision" : kept === "released" ? "1 released report" : "1 acknowledgement");
+      expect(res.body.error.message).toContain(
+        kept === "approved" ? "1 approved revision" : kept === "released" ? "1 released report" : "1 acknowledgement",
+      );
       expect(res.body.error.message).toMatch(/Archive/);
       expect(await exists(p.id)).toBe(true);
     });
@@ -90,7 +92,9 @@ describe("deleting a project", () => {
     const none = await t.call("DELETE", `/api/projects/${p.id}`, { cookie: cookie.admin });
     expect(none.status).toBe(409);
     expect(none.body.error.code).toBe("confirmation_required");
-    const wrong = await t.call("DELETE", `/api/projects/${p.id}?confirm=${encodeURIComponent(p.name.toUpperCase())}`, { cookie: cookie.admin });
+    const wrong = await t.call("DELETE", `/api/projects/${p.id}?confirm=${encodeURIComponent(p.name.toUpperCase())}`, {
+      cookie: cookie.admin,
+    });
     expect(wrong.status).toBe(400);
     expect(wrong.body.error.fields[0].path).toBe("confirm");
     expect(await exists(p.id)).toBe(true);
@@ -113,7 +117,8 @@ describe("archiving a project", () => {
     expect(archived.status).toBe(200);
     expect(archived.body.archivedAt).toEqual(expect.any(String));
 
-    const names = async (q: string) => ((await t.call("GET", `/api/projects${q}`, { cookie: cookie.reviewer })).body.projects as Array<{ name: string }>).map((x) => x.name);
+    const names = async (q: string) =>
+      ((await t.call("GET", `/api/projects${q}`, { cookie: cookie.reviewer })).body.projects as Array<{ name: string }>).map((x) => x.name);
     expect(await names("")).not.toContain(p.name);
     expect(await names("?archived=only")).toContain(p.name);
     expect(await names("?archived=all")).toContain(p.name);
@@ -132,6 +137,8 @@ describe("archiving a project", () => {
     expect(restored.status).toBe(200);
     expect(restored.body.archivedAt).toBeNull();
     expect(await names("")).toContain(p.name);
-    expect((await t.call("POST", `/api/projects/${p.id}/revisions`, { cookie: cookie.engineer, body: { stack: REFERENCE } })).status).toBe(201);
+    expect((await t.call("POST", `/api/projects/${p.id}/revisions`, { cookie: cookie.engineer, body: { stack: REFERENCE } })).status).toBe(
+      201,
+    );
   });
 });

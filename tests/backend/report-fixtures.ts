@@ -53,18 +53,47 @@ export function resultFor(stack: StackFile, study = STUDY): ResultFile {
 /** A project with an approved revision and a finished study on it, written straight into the tables. */
 export async function insertFinishedStudy(
   db: Database,
-  opts: { workspaceId: string; projectId?: string; stack?: StackFile; revisionStatus?: "draft" | "in_review" | "approved"; studyStatus?: "finished" | "running" },
+  opts: {
+    workspaceId: string;
+    projectId?: string;
+    stack?: StackFile;
+    revisionStatus?: "draft" | "in_review" | "approved";
+    studyStatus?: "finished" | "running";
+  },
 ) {
   const stack = opts.stack ?? ownedStack();
   const projectId =
-    opts.projectId ?? (await db.insert(projects).values({ workspaceId: opts.workspaceId, name: `Report fixture ${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}` }).returning())[0].id;
-  const [{ nextRev }] = await db.select({ nextRev: sql<number>`coalesce(max(${stackRevisions.number}), 0)::int + 1` }).from(stackRevisions).where(eq(stackRevisions.projectId, projectId));
+    opts.projectId ??
+    (
+      await db
+        .insert(projects)
+        .values({
+          workspaceId: opts.workspaceId,
+          name: `Report fixture ${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}`,
+        })
+        .returning()
+    )[0].id;
+  const [{ nextRev }] = await db
+    .select({ nextRev: sql<number>`coalesce(max(${stackRevisions.number}), 0)::int + 1` })
+    .from(stackRevisions)
+    .where(eq(stackRevisions.projectId, projectId));
   const status = opts.revisionStatus ?? "approved";
   const [rev] = await db
     .insert(stackRevisions)
-    .values({ workspaceId: opts.workspaceId, projectId, number: nextRev, status, stack, requirements: STUDY.requirements, ...(status === "approved" ? { approvedAt: new Date() } : {}) })
+    .values({
+      workspaceId: opts.workspaceId,
+      projectId,
+      number: nextRev,
+      status,
+      stack,
+      requirements: STUDY.requirements,
+      ...(status === "approved" ? { approvedAt: new Date() } : {}),
+    })
     .returning();
-  const [{ nextStudy }] = await db.select({ nextStudy: sql<number>`coalesce(max(${studies.number}), 0)::int + 1` }).from(studies).where(eq(studies.projectId, projectId));
+  const [{ nextStudy }] = await db
+    .select({ nextStudy: sql<number>`coalesce(max(${studies.number}), 0)::int + 1` })
+    .from(studies)
+    .where(eq(studies.projectId, projectId));
   const studyStatus = opts.studyStatus ?? "finished";
   const [study] = await db
     .insert(studies)
@@ -84,7 +113,13 @@ export async function insertFinishedStudy(
     .returning();
   if (studyStatus === "finished") {
     const result = resultFor(stack);
-    await db.insert(studyResults).values({ studyId: study.id, result: result as unknown as Record<string, unknown>, passes: result.requirements.every((r) => r.passes) });
+    await db
+      .insert(studyResults)
+      .values({
+        studyId: study.id,
+        result: result as unknown as Record<string, unknown>,
+        passes: result.requirements.every((r) => r.passes),
+      });
   }
   return { projectId, revisionId: rev.id, studyId: study.id };
 }

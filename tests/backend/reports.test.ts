@@ -17,7 +17,16 @@ import { createAccount } from "@backend/lib/accounts";
 import { startTestApp, type TestApp } from "./harness";
 import { insertFinishedStudy, LARKFIELD, ownedStack, resultFor } from "./report-fixtures";
 
-const LARKFIELD_SOURCES = ["asic.bondLine", "asic.yaw", "gyro.bondLine", "gyro.yaw", "accel.bondLine", "accel.yaw", "mag.bondLine", "mag.yaw"];
+const LARKFIELD_SOURCES = [
+  "asic.bondLine",
+  "asic.yaw",
+  "gyro.bondLine",
+  "gyro.yaw",
+  "accel.bondLine",
+  "accel.yaw",
+  "mag.bondLine",
+  "mag.yaw",
+];
 
 const tmp = mkdtempSync(join(tmpdir(), "orthostack-reports-"));
 let fileNo = 0;
@@ -46,7 +55,12 @@ function png(w: number, h: number, rgb: [number, number, number]): string {
   ihdr[9] = 2;
   const row = Buffer.concat([Buffer.from([0]), Buffer.alloc(w * 3).fill(Buffer.from(rgb))]);
   const raw = Buffer.concat(Array.from({ length: h }, () => row));
-  const file = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk("IHDR", ihdr), chunk("IDAT", deflateSync(raw)), chunk("IEND", Buffer.alloc(0))]);
+  const file = Buffer.concat([
+    Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+    chunk("IHDR", ihdr),
+    chunk("IDAT", deflateSync(raw)),
+    chunk("IEND", Buffer.alloc(0)),
+  ]);
   return `data:image/png;base64,${file.toString("base64")}`;
 }
 
@@ -104,7 +118,9 @@ describe("supplier reports", () => {
   let reportId: string;
 
   beforeAll(async () => {
-    t = await startTestApp({ runner: (_i, { signal }) => new Promise((_r, reject) => signal.addEventListener("abort", () => reject(new Error("cancelled")))) });
+    t = await startTestApp({
+      runner: (_i, { signal }) => new Promise((_r, reject) => signal.addEventListener("abort", () => reject(new Error("cancelled")))),
+    });
     for (const role of ["admin", "engineer", "reviewer", "supplier"]) c[role] = await t.signIn(`${role}@example.com`);
     const [s] = await t.handle.db.select().from(suppliers).where(eq(suppliers.name, LARKFIELD));
     workspaceId = s.workspaceId;
@@ -120,7 +136,15 @@ describe("supplier reports", () => {
     const r = await t.call("POST", `/api/studies/${fixture.studyId}/reports`, { cookie: c.engineer, body: { supplierId: larkfieldId } });
     expect(r.status, JSON.stringify(r.body)).toBe(201);
     reportId = r.body.id;
-    expect(r.body).toMatchObject({ code: "TR-0001", revision: 1, status: "draft", supplierName: LARKFIELD, cpk: 1.33, isLatest: true, files: [] });
+    expect(r.body).toMatchObject({
+      code: "TR-0001",
+      revision: 1,
+      status: "draft",
+      supplierName: LARKFIELD,
+      cpk: 1.33,
+      isLatest: true,
+      files: [],
+    });
     const tols = r.body.content.tolerances;
     // the owner "  larkfield ASSEMBLY " of mag.yaw matches too: case and spaces do not matter
     expect(tols.map((x: { source: string }) => x.source)).toEqual(LARKFIELD_SOURCES);
@@ -132,7 +156,9 @@ describe("supplier reports", () => {
     expect(asicBond.sigmaModelled).toBeCloseTo(asic.bondLine!.heightTol!.tol! / 3, 10);
     // the requirements carry the study's own predicted yields
     const result = resultFor(stack);
-    expect(r.body.content.requirements.map((x: { predictedYield: number }) => x.predictedYield)).toEqual(result.requirements.map((x) => x.predictedYield));
+    expect(r.body.content.requirements.map((x: { predictedYield: number }) => x.predictedYield)).toEqual(
+      result.requirements.map((x) => x.predictedYield),
+    );
     const rel = r.body.content.requirements.find((x: { metric: string }) => x.metric === "accel~mag.relRotDeg");
     expect(rel.fed).toBe(true);
     expect(rel.supplierShare).toBeGreaterThan(0.5);
@@ -141,20 +167,32 @@ describe("supplier reports", () => {
   });
 
   it("refuses a second draft for the same supplier, bad fields by name, and what cannot be reported", async () => {
-    const again = await t.call("POST", `/api/studies/${fixture.studyId}/reports`, { cookie: c.engineer, body: { supplierId: larkfieldId } });
+    const again = await t.call("POST", `/api/studies/${fixture.studyId}/reports`, {
+      cookie: c.engineer,
+      body: { supplierId: larkfieldId },
+    });
     expect(again.status).toBe(409);
     expect(again.body.error.code).toBe("draft_exists");
 
-    const bad = await t.call("POST", `/api/studies/${fixture.studyId}/reports`, { cookie: c.engineer, body: { supplierId: "nope", cpk: 9, snapshotPng: "data:image/jpeg;base64,AAAA" } });
+    const bad = await t.call("POST", `/api/studies/${fixture.studyId}/reports`, {
+      cookie: c.engineer,
+      body: { supplierId: "nope", cpk: 9, snapshotPng: "data:image/jpeg;base64,AAAA" },
+    });
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields.map((f: { path: string }) => f.path).sort()).toEqual(["cpk", "snapshotPng", "supplierId"]);
 
     const other = await insertFinishedStudy(t.handle.db, { workspaceId });
-    const foreign = await t.call("POST", `/api/studies/${other.studyId}/reports`, { cookie: c.engineer, body: { supplierId: larkfieldId, cpkOverrides: { "pkg.bow": 2 } } });
+    const foreign = await t.call("POST", `/api/studies/${other.studyId}/reports`, {
+      cookie: c.engineer,
+      body: { supplierId: larkfieldId, cpkOverrides: { "pkg.bow": 2 } },
+    });
     expect(foreign.status).toBe(400);
     expect(foreign.body.error.fields).toEqual([{ path: "cpkOverrides.pkg.bow", message: expect.stringContaining("not one of Larkfield") }]);
 
-    const notPng = await t.call("POST", `/api/studies/${other.studyId}/reports`, { cookie: c.engineer, body: { supplierId: larkfieldId, snapshotPng: "data:image/png;base64,AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" } });
+    const notPng = await t.call("POST", `/api/studies/${other.studyId}/reports`, {
+      cookie: c.engineer,
+      body: { supplierId: larkfieldId, snapshotPng: "data:image/png;base64,AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" },
+    });
     expect(notPng.status).toBe(400);
     expect(notPng.body.error.fields[0].path).toBe("snapshotPng");
 
@@ -189,7 +227,11 @@ describe("supplier reports", () => {
     expect(options.status).toBe(200);
     const s = options.body.studies[0];
     expect(s.blockedBy).toBeNull();
-    expect(s.suppliers.find((x: { name: string }) => x.name === LARKFIELD)).toMatchObject({ sources: expect.arrayContaining(["board.bow", "mag.yaw"]), contacts: 1, latest: { code: r.body.code, status: "draft" } });
+    expect(s.suppliers.find((x: { name: string }) => x.name === LARKFIELD)).toMatchObject({
+      sources: expect.arrayContaining(["board.bow", "mag.yaw"]),
+      contacts: 1,
+      latest: { code: r.body.code, status: "draft" },
+    });
     expect(s.unmatchedOwners.map((u: { owner: string }) => u.owner)).toContain("Sensor die fab (in-house)");
   });
 
@@ -197,15 +239,26 @@ describe("supplier reports", () => {
     const stack = ownedStack();
     stack.elements.find((e) => e.id === "gyro")!.bondLine!.heightTol!.sigmas = 6;
     const f = await insertFinishedStudy(t.handle.db, { workspaceId, stack });
-    const r = await t.call("POST", `/api/studies/${f.studyId}/reports`, { cookie: c.engineer, body: { supplierId: larkfieldId, cpk: 1.5, snapshotPng: png(40, 30, [23, 33, 43]) } });
+    const r = await t.call("POST", `/api/studies/${f.studyId}/reports`, {
+      cookie: c.engineer,
+      body: { supplierId: larkfieldId, cpk: 1.5, snapshotPng: png(40, 30, [23, 33, 43]) },
+    });
     expect(r.status).toBe(201);
     expect(r.body.hasSnapshot).toBe(true);
     const gyro = r.body.content.tolerances.find((x: { source: string }) => x.source === "gyro.bondLine");
     expect(gyro).toMatchObject({ cpkChosen: 1.5, raised: true });
     expect(gyro.cpk).toBeCloseTo(2, 10);
-    const p = await t.call("PATCH", `/api/reports/${r.body.id}`, { cookie: c.engineer, body: { cpk: 1.67, cpkOverrides: { "asic.yaw": 2.0 }, snapshotPng: null, note: "Line 2" } });
+    const p = await t.call("PATCH", `/api/reports/${r.body.id}`, {
+      cookie: c.engineer,
+      body: { cpk: 1.67, cpkOverrides: { "asic.yaw": 2.0 }, snapshotPng: null, note: "Line 2" },
+    });
     expect(p.status).toBe(200);
-    expect(p.body).toMatchObject({ cpk: 1.67, note: "Line 2", hasSnapshot: false, capability: { cpk: 1.67, overrides: { "asic.yaw": 2 } } });
+    expect(p.body).toMatchObject({
+      cpk: 1.67,
+      note: "Line 2",
+      hasSnapshot: false,
+      capability: { cpk: 1.67, overrides: { "asic.yaw": 2 } },
+    });
     const yaw = p.body.content.tolerances.find((x: { source: string }) => x.source === "asic.yaw");
     expect(yaw.sigmaMax).toBeCloseTo(yaw.tol / 6, 10);
     const pdf = await download(t, `/api/reports/${r.body.id}/pdf`, c.engineer);
@@ -226,10 +279,16 @@ describe("supplier reports", () => {
   });
 
   it("a reviewer releases it: frozen, with each file stored once and its SHA-256", async () => {
-    const internal = await t.call("POST", `/api/reports/${reportId}/comments`, { cookie: c.engineer, body: { body: "Internal: check the mag yaw against the jig." } });
+    const internal = await t.call("POST", `/api/reports/${reportId}/comments`, {
+      cookie: c.engineer,
+      body: { body: "Internal: check the mag yaw against the jig." },
+    });
     expect(internal.status).toBe(201);
     expect((await t.call("POST", `/api/reports/${reportId}/release`, { cookie: c.engineer, body: {} })).status).toBe(403);
-    const r = await t.call("POST", `/api/reports/${reportId}/release`, { cookie: c.reviewer, body: { comment: "Checked against the approved revision." } });
+    const r = await t.call("POST", `/api/reports/${reportId}/release`, {
+      cookie: c.reviewer,
+      body: { comment: "Checked against the approved revision." },
+    });
     expect(r.status, JSON.stringify(r.body)).toBe(200);
     expect(r.body).toMatchObject({ status: "released", releasedByName: "Rana Haddad" });
     expect(r.body.files.map((f: { kind: string }) => f.kind)).toEqual(["csv", "pdf", "xlsx"]);
@@ -244,8 +303,12 @@ describe("supplier reports", () => {
     expect(second.data.equals(first.data)).toBe(true);
     expect(first.headers.get("content-disposition")).toContain("TR-0001-r1-Larkfield-Assembly.pdf");
 
-    expect((await t.call("POST", `/api/reports/${reportId}/release`, { cookie: c.reviewer, body: {} })).body.error.code).toBe("report_frozen");
-    expect((await t.call("PATCH", `/api/reports/${reportId}`, { cookie: c.engineer, body: { cpk: 2 } })).body.error.code).toBe("report_frozen");
+    expect((await t.call("POST", `/api/reports/${reportId}/release`, { cookie: c.reviewer, body: {} })).body.error.code).toBe(
+      "report_frozen",
+    );
+    expect((await t.call("PATCH", `/api/reports/${reportId}`, { cookie: c.engineer, body: { cpk: 2 } })).body.error.code).toBe(
+      "report_frozen",
+    );
     expect((await t.call("DELETE", `/api/reports/${reportId}`, { cookie: c.engineer })).status).toBe(409);
   });
 
@@ -320,7 +383,9 @@ describe("supplier reports", () => {
     expect(msg.text).toContain(`http://localhost:3999/reports/${reportId}`);
     expect(msg.text).toContain("Please confirm by Friday.");
     expect(msg.text).toContain(stored.sha256);
-    expect(msg.attachments).toEqual([{ index: 0, fileName: "TR-0001-r1-Larkfield-Assembly.pdf", contentType: "application/pdf", size: stored.size }]);
+    expect(msg.attachments).toEqual([
+      { index: 0, fileName: "TR-0001-r1-Larkfield-Assembly.pdf", contentType: "application/pdf", size: stored.size },
+    ]);
     const att = await download(t, `/api/outbox/${msg.id}/attachments/0`, c.admin);
     expect(sha(att.data)).toBe(stored.sha256);
     expect((await download(t, `/api/outbox/${msg.id}/attachments/3`, c.admin)).status).toBe(404);
@@ -347,19 +412,30 @@ describe("supplier reports", () => {
     expect(pdf.status).toBe(200);
     expect(sha(pdf.data)).toBe(view.body.files.find((f: { kind: string }) => f.kind === "pdf").sha256);
 
-    const q = await t.call("POST", `/api/reports/${reportId}/comments`, { cookie: c.supplier, body: { body: "Is the mag bond line measured at the corners or the centre?" } });
+    const q = await t.call("POST", `/api/reports/${reportId}/comments`, {
+      cookie: c.supplier,
+      body: { body: "Is the mag bond line measured at the corners or the centre?" },
+    });
     expect(q.status).toBe(201);
     expect(q.body.comments.at(-1)).toMatchObject({ kind: "question", authorName: "Sam Whitcombe" });
-    const answer = await t.call("POST", `/api/reports/${reportId}/comments`, { cookie: c.engineer, body: { body: "At the three supports, as drawn." } });
+    const answer = await t.call("POST", `/api/reports/${reportId}/comments`, {
+      cookie: c.engineer,
+      body: { body: "At the three supports, as drawn." },
+    });
     expect(answer.body.comments.map((x: { body: string }) => x.body)).toContain("Internal: check the mag yaw against the jig.");
-    const thread = (await t.call("GET", `/api/reports/${reportId}`, { cookie: c.supplier })).body.comments.map((x: { body: string }) => x.body);
+    const thread = (await t.call("GET", `/api/reports/${reportId}`, { cookie: c.supplier })).body.comments.map(
+      (x: { body: string }) => x.body,
+    );
     expect(thread).toEqual(["Is the mag bond line measured at the corners or the centre?", "At the three supports, as drawn."]);
     const empty = await t.call("POST", `/api/reports/${reportId}/comments`, { cookie: c.supplier, body: { body: "  " } });
     expect(empty.status).toBe(400);
     expect(empty.body.error.fields[0].path).toBe("body");
 
     expect((await t.call("POST", `/api/reports/${reportId}/acknowledge`, { cookie: c.engineer, body: {} })).status).toBe(403);
-    const ack = await t.call("POST", `/api/reports/${reportId}/acknowledge`, { cookie: c.supplier, body: { comment: "Line 2 holds these." } });
+    const ack = await t.call("POST", `/api/reports/${reportId}/acknowledge`, {
+      cookie: c.supplier,
+      body: { comment: "Line 2 holds these." },
+    });
     expect(ack.status).toBe(200);
     expect(ack.body.acknowledgedByName).toBe("Sam Whitcombe");
     expect(Date.parse(ack.body.acknowledgedAt)).toBeGreaterThan(Date.now() - 60_000);
@@ -371,7 +447,10 @@ describe("supplier reports", () => {
   });
 
   it("refuses a supplier of another company everything about the report", async () => {
-    const [other] = await t.handle.db.insert(suppliers).values({ workspaceId, name: "Fenmoor Substrates Two", kind: "substrate" }).returning();
+    const [other] = await t.handle.db
+      .insert(suppliers)
+      .values({ workspaceId, name: "Fenmoor Substrates Two", kind: "substrate" })
+      .returning();
     const fenUser = await createAccount(t.deps.auth, { email: "fen@example.com", password: "orthostack-demo", name: "Fen Supplier" });
     await t.handle.db.insert(members).values({ workspaceId, userId: fenUser.id, role: "supplier", supplierId: other.id });
     const fen = await t.signIn("fen@example.com");
@@ -401,13 +480,24 @@ describe("supplier reports", () => {
   it("shows release, send, the supplier's download and the acknowledgement on the project", async () => {
     const a = await t.call("GET", `/api/projects/${fixture.projectId}/activity`, { cookie: c.reviewer });
     const actions = a.body.activity.map((x: { action: string }) => x.action);
-    for (const action of ["report.created", "report.released", "report.sent", "report.downloaded", "report.question", "report.acknowledged"]) expect(actions).toContain(action);
+    for (const action of [
+      "report.created",
+      "report.released",
+      "report.sent",
+      "report.downloaded",
+      "report.question",
+      "report.acknowledged",
+    ])
+      expect(actions).toContain(action);
     const ack = a.body.activity.find((x: { action: string }) => x.action === "report.acknowledged");
     expect(ack).toMatchObject({ actorName: "Sam Whitcombe", summary: expect.stringContaining("acknowledged report TR-0001 revision 1") });
   });
 
   it("a change after release is a new revision of the same report number", async () => {
-    const r = await t.call("POST", `/api/studies/${fixture.studyId}/reports`, { cookie: c.engineer, body: { supplierId: larkfieldId, cpk: 1.67 } });
+    const r = await t.call("POST", `/api/studies/${fixture.studyId}/reports`, {
+      cookie: c.engineer,
+      body: { supplierId: larkfieldId, cpk: 1.67 },
+    });
     expect(r.status).toBe(201);
     expect(r.body).toMatchObject({ code: "TR-0001", revision: 2, status: "draft", isLatest: true });
     expect(r.body.history.map((h: { revision: number }) => h.revision)).toEqual([2, 1]);
@@ -424,7 +514,10 @@ describe("supplier reports", () => {
   });
 
   it("invitations go out by mail through the same catcher, and the link stays on the admin page", async () => {
-    const inv = await t.call("POST", "/api/invitations", { cookie: c.admin, body: { email: "new.engineer@example.com", role: "engineer" } });
+    const inv = await t.call("POST", "/api/invitations", {
+      cookie: c.admin,
+      body: { email: "new.engineer@example.com", role: "engineer" },
+    });
     expect(inv.status).toBe(201);
     expect(inv.body.mailed).toBe(true);
     expect(inv.body.link).toMatch(/\/invite\//);
@@ -499,11 +592,20 @@ describe("mail settings", () => {
       const mail = requireMail(t.deps.mail);
       expect(mail.mode).toBe("smtp");
       expect(mail.address).toBe(`127.0.0.1:${port}`);
-      await mail.send({ workspaceId: "00000000-0000-4000-8000-000000000000", to: "someone@example.com", subject: "Through the real server", text: "hello" });
+      await mail.send({
+        workspaceId: "00000000-0000-4000-8000-000000000000",
+        to: "someone@example.com",
+        subject: "Through the real server",
+        text: "hello",
+      });
       expect(received).toHaveLength(1);
       expect(received[0]).toContain("Subject: Through the real server");
       expect(await t.handle.db.select().from(outboxMessages)).toEqual([]);
-      const direct = await createMailService(t.handle.db, { mode: "smtp", from: "Orthostack <o@example.com>", transport: { host: "127.0.0.1", port, secure: false } }, () => {});
+      const direct = await createMailService(
+        t.handle.db,
+        { mode: "smtp", from: "Orthostack <o@example.com>", transport: { host: "127.0.0.1", port, secure: false } },
+        () => {},
+      );
       expect(direct.address).toBe(`127.0.0.1:${port}`);
       await direct.close();
     } finally {

@@ -35,12 +35,30 @@ describe("diffRevisions on a hand-made pair", () => {
       after: 2,
       unit: "µm",
     });
-    expect(by("elements[pkg].position.x")).toMatchObject({ label: "pkg: position x on its parent", kind: "changed", before: 6, after: 6.5, unit: "mm" });
+    expect(by("elements[pkg].position.x")).toMatchObject({
+      label: "pkg: position x on its parent",
+      kind: "changed",
+      before: 6,
+      after: 6.5,
+      unit: "mm",
+    });
   });
 
   it("reports added and removed fields and elements", () => {
-    expect(by("elements[mag].bondLine.heightTol.mean")).toMatchObject({ label: "mag: bond-line height tolerance mean", kind: "added", before: null, after: 0.5, unit: "µm" });
-    expect(by("elements[mag].placementTol.yawDeg.tol")).toMatchObject({ label: "mag: placement yaw tolerance", kind: "removed", before: 0.4, after: null, unit: "°" });
+    expect(by("elements[mag].bondLine.heightTol.mean")).toMatchObject({
+      label: "mag: bond-line height tolerance mean",
+      kind: "added",
+      before: null,
+      after: 0.5,
+      unit: "µm",
+    });
+    expect(by("elements[mag].placementTol.yawDeg.tol")).toMatchObject({
+      label: "mag: placement yaw tolerance",
+      kind: "removed",
+      before: 0.4,
+      after: null,
+      unit: "°",
+    });
     expect(by("elements[temp]")).toMatchObject({ label: "temp: element", kind: "added", after: "temp (spacer on pkg)" });
     expect(changes.filter((c) => c.path.startsWith("elements[temp]."))).toEqual([]);
   });
@@ -82,7 +100,12 @@ describe("GET /api/revisions/:id/diff", () => {
     const labels = Object.fromEntries(res.body.changes.map((c: { label: string }) => [c.label, c]));
     expect(labels["mag: bond-line thickness"]).toMatchObject({ kind: "changed", before: 10, after: 15, unit: "µm" });
     expect(labels["mag: bond-line height tolerance"]).toMatchObject({ kind: "changed", before: 3, after: 2, unit: "µm" });
-    expect(labels["mag: bond-line height tolerance distribution"]).toMatchObject({ kind: "changed", before: "uniform", after: "normal", unit: null });
+    expect(labels["mag: bond-line height tolerance distribution"]).toMatchObject({
+      kind: "changed",
+      before: "uniform",
+      after: "normal",
+      unit: null,
+    });
     expect(labels["stack name"]).toMatchObject({ kind: "changed" });
     expect(res.body.changes).toHaveLength(4);
   });
@@ -90,23 +113,43 @@ describe("GET /api/revisions/:id/diff", () => {
   it("compares with another revision when asked, and refuses one from another project", async () => {
     const back = await t.call("GET", `/api/revisions/${rev1}/diff?against=${rev2}`, { cookie: cookie.engineer });
     expect(back.body.against.number).toBe(2);
-    expect(back.body.changes.find((c: { label: string }) => c.label === "mag: bond-line thickness")).toMatchObject({ before: 15, after: 10 });
+    expect(back.body.changes.find((c: { label: string }) => c.label === "mag: bond-line thickness")).toMatchObject({
+      before: 15,
+      after: 10,
+    });
     const first = await t.call("GET", `/api/revisions/${rev1}/diff`, { cookie: cookie.engineer });
     expect(first.body).toEqual({ against: null, changes: [] });
-    const [other] = await t.handle.db.insert(projects).values({ workspaceId: (await t.handle.db.select().from(stackRevisions).where(eq(stackRevisions.id, rev1)))[0].workspaceId, name: "Other" }).returning();
-    const [foreign] = await t.handle.db.insert(stackRevisions).values({ workspaceId: other.workspaceId, projectId: other.id, number: 1, stack: REFERENCE }).returning();
+    const [other] = await t.handle.db
+      .insert(projects)
+      .values({
+        workspaceId: (await t.handle.db.select().from(stackRevisions).where(eq(stackRevisions.id, rev1)))[0].workspaceId,
+        name: "Other",
+      })
+      .returning();
+    const [foreign] = await t.handle.db
+      .insert(stackRevisions)
+      .values({ workspaceId: other.workspaceId, projectId: other.id, number: 1, stack: REFERENCE })
+      .returning();
     const refused = await t.call("GET", `/api/revisions/${rev2}/diff?against=${foreign.id}`, { cookie: cookie.engineer });
     expect(refused.status).toBe(400);
     expect(refused.body.error.fields[0].path).toBe("against");
-    expect((await t.call("GET", `/api/revisions/${rev2}/diff?against=nope`, { cookie: cookie.engineer })).body.error.fields[0].path).toBe("against");
+    expect((await t.call("GET", `/api/revisions/${rev2}/diff?against=nope`, { cookie: cookie.engineer })).body.error.fields[0].path).toBe(
+      "against",
+    );
   });
 
   it("asks for a note when a later revision is submitted without one", async () => {
-    await t.handle.db.update(stackRevisions).set({ note: "" }).where(and(eq(stackRevisions.id, rev2)));
+    await t.handle.db
+      .update(stackRevisions)
+      .set({ note: "" })
+      .where(and(eq(stackRevisions.id, rev2)));
     const none = await t.call("POST", `/api/revisions/${rev2}/submit`, { cookie: cookie.engineer, body: {} });
     expect(none.status).toBe(400);
     expect(none.body.error.fields[0].path).toBe("note");
-    const ok = await t.call("POST", `/api/revisions/${rev2}/submit`, { cookie: cookie.engineer, body: { note: "Film attach under the mag: thinner spread." } });
+    const ok = await t.call("POST", `/api/revisions/${rev2}/submit`, {
+      cookie: cookie.engineer,
+      body: { note: "Film attach under the mag: thinner spread." },
+    });
     expect(ok.status).toBe(200);
     expect(ok.body).toMatchObject({ status: "in_review", note: "Film attach under the mag: thinner spread." });
   });

@@ -18,7 +18,13 @@ beforeAll(async () => {
 });
 afterAll(() => t?.close());
 
-const revisionCount = async () => (await t.handle.db.select({ n: sql<number>`count(*)::int` }).from(stackRevisions).where(sql`${stackRevisions.projectId} = ${projectId}`))[0].n;
+const revisionCount = async () =>
+  (
+    await t.handle.db
+      .select({ n: sql<number>`count(*)::int` })
+      .from(stackRevisions)
+      .where(sql`${stackRevisions.projectId} = ${projectId}`)
+  )[0].n;
 
 describe("stack revisions", () => {
   it("stores the reference stack and gives it back unchanged in meaning", async () => {
@@ -95,16 +101,23 @@ describe("stack revisions", () => {
     const noComment = await t.call("POST", `/api/revisions/${rev.id}/return`, { cookie: c.reviewer, body: {} });
     expect(noComment.status).toBe(400);
     expect(noComment.body.error.fields[0].path).toBe("comment");
-    const back = await t.call("POST", `/api/revisions/${rev.id}/return`, { cookie: c.reviewer, body: { comment: "Mag bond line: use the film's tolerance." } });
+    const back = await t.call("POST", `/api/revisions/${rev.id}/return`, {
+      cookie: c.reviewer,
+      body: { comment: "Mag bond line: use the film's tolerance." },
+    });
     expect(back.body.status).toBe("draft");
-    expect(back.body.comments).toEqual([expect.objectContaining({ kind: "returned", body: "Mag bond line: use the film's tolerance.", authorName: "Rana Haddad" })]);
+    expect(back.body.comments).toEqual([
+      expect.objectContaining({ kind: "returned", body: "Mag bond line: use the film's tolerance.", authorName: "Rana Haddad" }),
+    ]);
     const act = await t.call("GET", `/api/projects/${projectId}/activity`, { cookie: c.reviewer });
     expect(act.body.activity[0].action).toBe("revision.returned");
   });
 
   it("engineers write, reviewers review, suppliers get nothing", async () => {
     const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
-    expect((await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.reviewer, body: { stack: reference } })).status).toBe(403);
+    expect((await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.reviewer, body: { stack: reference } })).status).toBe(
+      403,
+    );
     expect((await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.reviewer, body: { note: "x" } })).status).toBe(403);
     await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {} });
     expect((await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.engineer, body: {} })).status).toBe(403);

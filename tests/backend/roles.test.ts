@@ -7,7 +7,19 @@ import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { createApp } from "@backend/app";
 import { readFileSync } from "node:fs";
-import { datasets, invitations, members, outboxMessages, projects, reports, stackRevisions, studies, supplierContacts, suppliers, users } from "@backend/db/schema";
+import {
+  datasets,
+  invitations,
+  members,
+  outboxMessages,
+  projects,
+  reports,
+  stackRevisions,
+  studies,
+  supplierContacts,
+  suppliers,
+  users,
+} from "@backend/db/schema";
 import type { Role } from "@shared/schemas/common";
 import { startTestApp, type TestApp } from "./harness";
 import { registeredApiRoutes } from "./route-table";
@@ -48,11 +60,17 @@ async function freshProject(c: Ctx, archived = false) {
   return p.id;
 }
 async function freshSupplier(c: Ctx) {
-  const [s] = await c.t.handle.db.insert(suppliers).values({ workspaceId: c.workspaceId, name: `s-${uniq()}` }).returning();
+  const [s] = await c.t.handle.db
+    .insert(suppliers)
+    .values({ workspaceId: c.workspaceId, name: `s-${uniq()}` })
+    .returning();
   return s.id;
 }
 async function freshContact(c: Ctx) {
-  const [x] = await c.t.handle.db.insert(supplierContacts).values({ supplierId: c.supplierId, name: "c", email: `${uniq()}@x.example` }).returning();
+  const [x] = await c.t.handle.db
+    .insert(supplierContacts)
+    .values({ supplierId: c.supplierId, name: "c", email: `${uniq()}@x.example` })
+    .returning();
   return x.id;
 }
 async function freshMember(c: Ctx) {
@@ -63,7 +81,10 @@ async function freshMember(c: Ctx) {
 }
 async function freshRevision(c: Ctx, status: "draft" | "in_review" | "approved" = "draft") {
   const projectId = await freshProject(c);
-  const [r] = await c.t.handle.db.insert(stackRevisions).values({ workspaceId: c.workspaceId, projectId, number: 1, status, stack: REFERENCE }).returning();
+  const [r] = await c.t.handle.db
+    .insert(stackRevisions)
+    .values({ workspaceId: c.workspaceId, projectId, number: 1, status, stack: REFERENCE })
+    .returning();
   return r.id;
 }
 async function freshStudy(c: Ctx, status: "queued" | "failed" | "finished" = "queued") {
@@ -71,14 +92,29 @@ async function freshStudy(c: Ctx, status: "queued" | "failed" | "finished" = "qu
   const [rev] = await c.t.handle.db.select().from(stackRevisions).where(eq(stackRevisions.id, revisionId));
   const [s] = await c.t.handle.db
     .insert(studies)
-    .values({ workspaceId: c.workspaceId, projectId: rev.projectId, revisionId, number: 1, status, study: { ...STUDY }, stack: REFERENCE, trialsTotal: STUDY.trials })
+    .values({
+      workspaceId: c.workspaceId,
+      projectId: rev.projectId,
+      revisionId,
+      number: 1,
+      status,
+      study: { ...STUDY },
+      stack: REFERENCE,
+      trialsTotal: STUDY.trials,
+    })
     .returning();
   return s.id;
 }
 async function freshInvitation(c: Ctx) {
   const [i] = await c.t.handle.db
     .insert(invitations)
-    .values({ workspaceId: c.workspaceId, email: `${uniq()}@i.example`, role: "engineer", token: `tok-${uniq()}-${"x".repeat(24)}`, expiresAt: new Date(Date.now() + 86_400_000) })
+    .values({
+      workspaceId: c.workspaceId,
+      email: `${uniq()}@i.example`,
+      role: "engineer",
+      token: `tok-${uniq()}-${"x".repeat(24)}`,
+      expiresAt: new Date(Date.now() + 86_400_000),
+    })
     .returning();
   return i;
 }
@@ -96,7 +132,16 @@ async function freshDataset(c: Ctx) {
       sizeBytes: 20,
       sha256: "0".repeat(64),
       rowCount: 3,
-      columns: [{ key: "yaw [deg]", name: "yaw", letter: "A", unit: "deg", kind: "number", summary: { n: 3, mean: 0.2, std: 0.1, min: 0.1, max: 0.3 } }],
+      columns: [
+        {
+          key: "yaw [deg]",
+          name: "yaw",
+          letter: "A",
+          unit: "deg",
+          kind: "number",
+          summary: { n: 3, mean: 0.2, std: 0.1, min: 0.1, max: 0.3 },
+        },
+      ],
       data: { "yaw [deg]": [0.1, 0.2, 0.3] },
       preview: { rowNumbers: [2, 3, 4], cells: [["0.1"], ["0.2"], ["0.3"]] },
       rowNumbers: [2, 3, 4],
@@ -166,14 +211,26 @@ async function freshOutboxMessage(c: Ctx) {
   );
   const [m] = await c.t.handle.db
     .insert(outboxMessages)
-    .values({ workspaceId: c.workspaceId, mailFrom: "orthostack@localhost", recipients: ["someone@example.com"], subject: "fixture", size: raw.length, raw, attachments: [{ fileName: "a.csv", contentType: "text/csv", size: 4 }] })
+    .values({
+      workspaceId: c.workspaceId,
+      mailFrom: "orthostack@localhost",
+      recipients: ["someone@example.com"],
+      subject: "fixture",
+      size: raw.length,
+      raw,
+      attachments: [{ fileName: "a.csv", contentType: "text/csv", size: 4 }],
+    })
     .returning();
   return m.id;
 }
 
 export const ROUTES: Row[] = [
   { route: "GET /api/health", allowed: "public" },
-  { route: "GET /api/invitations/by-token/:token", allowed: "public", path: async (c) => `/api/invitations/by-token/${(await freshInvitation(c)).token}` },
+  {
+    route: "GET /api/invitations/by-token/:token",
+    allowed: "public",
+    path: async (c) => `/api/invitations/by-token/${(await freshInvitation(c)).token}`,
+  },
   {
     route: "POST /api/invitations/by-token/:token/accept",
     allowed: "public",
@@ -184,7 +241,12 @@ export const ROUTES: Row[] = [
   { route: "GET /api/projects", allowed: STAFF },
   { route: "POST /api/projects", allowed: WRITERS, body: () => ({ name: `new ${uniq()}` }) },
   { route: "GET /api/projects/:id", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}` },
-  { route: "PATCH /api/projects/:id", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}`, body: () => ({ name: `renamed ${uniq()}` }) },
+  {
+    route: "PATCH /api/projects/:id",
+    allowed: WRITERS,
+    path: async (c) => `/api/projects/${await freshProject(c)}`,
+    body: () => ({ name: `renamed ${uniq()}` }),
+  },
   { route: "DELETE /api/projects/:id", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}` },
   { route: "POST /api/projects/:id/archive", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}/archive` },
   { route: "POST /api/projects/:id/restore", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c, true)}/restore` },
@@ -192,34 +254,94 @@ export const ROUTES: Row[] = [
   { route: "GET /api/suppliers", allowed: STAFF },
   { route: "GET /api/suppliers/:id", allowed: STAFF, path: (c) => `/api/suppliers/${c.supplierId}` },
   { route: "POST /api/suppliers", allowed: ADMIN, body: () => ({ name: `Supplier ${uniq()}`, kind: "die" }) },
-  { route: "PATCH /api/suppliers/:id", allowed: ADMIN, path: async (c) => `/api/suppliers/${await freshSupplier(c)}`, body: () => ({ kind: "board" }) },
+  {
+    route: "PATCH /api/suppliers/:id",
+    allowed: ADMIN,
+    path: async (c) => `/api/suppliers/${await freshSupplier(c)}`,
+    body: () => ({ kind: "board" }),
+  },
   { route: "DELETE /api/suppliers/:id", allowed: ADMIN, path: async (c) => `/api/suppliers/${await freshSupplier(c)}` },
-  { route: "POST /api/suppliers/:id/contacts", allowed: ADMIN, path: (c) => `/api/suppliers/${c.supplierId}/contacts`, body: () => ({ name: "Kit", email: `${uniq()}@k.example` }) },
-  { route: "DELETE /api/suppliers/:id/contacts/:contactId", allowed: ADMIN, path: async (c) => `/api/suppliers/${c.supplierId}/contacts/${await freshContact(c)}` },
+  {
+    route: "POST /api/suppliers/:id/contacts",
+    allowed: ADMIN,
+    path: (c) => `/api/suppliers/${c.supplierId}/contacts`,
+    body: () => ({ name: "Kit", email: `${uniq()}@k.example` }),
+  },
+  {
+    route: "DELETE /api/suppliers/:id/contacts/:contactId",
+    allowed: ADMIN,
+    path: async (c) => `/api/suppliers/${c.supplierId}/contacts/${await freshContact(c)}`,
+  },
   { route: "GET /api/members", allowed: ADMIN },
-  { route: "PATCH /api/members/:id", allowed: ADMIN, path: async (c) => `/api/members/${await freshMember(c)}`, body: () => ({ role: "reviewer" }) },
+  {
+    route: "PATCH /api/members/:id",
+    allowed: ADMIN,
+    path: async (c) => `/api/members/${await freshMember(c)}`,
+    body: () => ({ role: "reviewer" }),
+  },
   { route: "DELETE /api/members/:id", allowed: ADMIN, path: async (c) => `/api/members/${await freshMember(c)}` },
   { route: "GET /api/invitations", allowed: ADMIN },
   { route: "POST /api/invitations", allowed: ADMIN, body: () => ({ email: `${uniq()}@new.example`, role: "engineer" }) },
   { route: "DELETE /api/invitations/:id", allowed: ADMIN, path: async (c) => `/api/invitations/${(await freshInvitation(c)).id}` },
   { route: "GET /api/projects/:id/revisions", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/revisions` },
-  { route: "POST /api/projects/:id/revisions", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}/revisions`, body: () => ({ stack: REFERENCE }) },
+  {
+    route: "POST /api/projects/:id/revisions",
+    allowed: WRITERS,
+    path: async (c) => `/api/projects/${await freshProject(c)}/revisions`,
+    body: () => ({ stack: REFERENCE }),
+  },
   { route: "GET /api/revisions/:id", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}` },
-  { route: "PATCH /api/revisions/:id", allowed: WRITERS, path: async (c) => `/api/revisions/${await freshRevision(c)}`, body: () => ({ note: "changed" }) },
-  { route: "POST /api/revisions/:id/drafts", allowed: WRITERS, path: async (c) => `/api/revisions/${await freshRevision(c, "approved")}/drafts` },
+  {
+    route: "PATCH /api/revisions/:id",
+    allowed: WRITERS,
+    path: async (c) => `/api/revisions/${await freshRevision(c)}`,
+    body: () => ({ note: "changed" }),
+  },
+  {
+    route: "POST /api/revisions/:id/drafts",
+    allowed: WRITERS,
+    path: async (c) => `/api/revisions/${await freshRevision(c, "approved")}/drafts`,
+  },
   { route: "POST /api/revisions/:id/submit", allowed: WRITERS, path: async (c) => `/api/revisions/${await freshRevision(c)}/submit` },
-  { route: "POST /api/revisions/:id/approve", allowed: REVIEWERS, path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/approve` },
-  { route: "POST /api/revisions/:id/return", allowed: REVIEWERS, path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/return`, body: () => ({ comment: "please fix" }) },
-  { route: "POST /api/revisions/:id/comments", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/comments`, body: () => ({ body: "looks fine" }) },
+  {
+    route: "POST /api/revisions/:id/approve",
+    allowed: REVIEWERS,
+    path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/approve`,
+  },
+  {
+    route: "POST /api/revisions/:id/return",
+    allowed: REVIEWERS,
+    path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/return`,
+    body: () => ({ comment: "please fix" }),
+  },
+  {
+    route: "POST /api/revisions/:id/comments",
+    allowed: STAFF,
+    path: async (c) => `/api/revisions/${await freshRevision(c)}/comments`,
+    body: () => ({ body: "looks fine" }),
+  },
   { route: "GET /api/revisions/:id/diff", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/diff` },
   { route: "GET /api/revisions/:id/stack-file", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/stack-file` },
   { route: "GET /api/projects/:id/studies", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/studies` },
-  { route: "POST /api/revisions/:id/studies", allowed: WRITERS, path: async (c) => `/api/revisions/${await freshRevision(c)}/studies`, body: () => ({ study: STUDY }) },
+  {
+    route: "POST /api/revisions/:id/studies",
+    allowed: WRITERS,
+    path: async (c) => `/api/revisions/${await freshRevision(c)}/studies`,
+    body: () => ({ study: STUDY }),
+  },
   { route: "GET /api/studies/:id", allowed: STAFF, path: async (c) => `/api/studies/${await freshStudy(c)}` },
   { route: "POST /api/studies/:id/cancel", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c)}/cancel` },
   { route: "POST /api/studies/:id/rerun", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c, "failed")}/rerun` },
-  { route: "GET /api/geomagnetic-field", allowed: STAFF, path: () => "/api/geomagnetic-field?latitudeDeg=52&longitudeDeg=-1&altitudeKm=0&date=2026-06-01" },
-  { route: "GET /api/projects/:id/report-options", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/report-options` },
+  {
+    route: "GET /api/geomagnetic-field",
+    allowed: STAFF,
+    path: () => "/api/geomagnetic-field?latitudeDeg=52&longitudeDeg=-1&altitudeKm=0&date=2026-06-01",
+  },
+  {
+    route: "GET /api/projects/:id/report-options",
+    allowed: STAFF,
+    path: async (c) => `/api/projects/${await freshProject(c)}/report-options`,
+  },
   {
     route: "POST /api/studies/:id/reports",
     allowed: WRITERS,
@@ -228,34 +350,76 @@ export const ROUTES: Row[] = [
   },
   { route: "GET /api/reports", allowed: EVERYONE },
   { route: "GET /api/reports/:id", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}` },
-  { route: "PATCH /api/reports/:id", allowed: WRITERS, path: async (c) => `/api/reports/${await freshReport(c)}`, body: () => ({ note: "changed" }) },
+  {
+    route: "PATCH /api/reports/:id",
+    allowed: WRITERS,
+    path: async (c) => `/api/reports/${await freshReport(c)}`,
+    body: () => ({ note: "changed" }),
+  },
   { route: "DELETE /api/reports/:id", allowed: WRITERS, path: async (c) => `/api/reports/${await freshReport(c)}` },
   { route: "POST /api/reports/:id/release", allowed: REVIEWERS, path: async (c) => `/api/reports/${await freshReport(c)}/release` },
-  { route: "POST /api/reports/:id/return", allowed: REVIEWERS, path: async (c) => `/api/reports/${await freshReport(c)}/return`, body: () => ({ comment: "Ask Cpk 1.67 on the mag yaw." }) },
+  {
+    route: "POST /api/reports/:id/return",
+    allowed: REVIEWERS,
+    path: async (c) => `/api/reports/${await freshReport(c)}/return`,
+    body: () => ({ comment: "Ask Cpk 1.67 on the mag yaw." }),
+  },
   { route: "POST /api/reports/:id/send", allowed: STAFF, path: async (c) => `/api/reports/${await releasedReport(c)}/send` },
-  { route: "POST /api/reports/:id/acknowledge", allowed: ["supplier"], path: async (c) => `/api/reports/${await freshReport(c, "released")}/acknowledge` },
-  { route: "POST /api/reports/:id/comments", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}/comments`, body: () => ({ body: "Which side is the datum?" }) },
+  {
+    route: "POST /api/reports/:id/acknowledge",
+    allowed: ["supplier"],
+    path: async (c) => `/api/reports/${await freshReport(c, "released")}/acknowledge`,
+  },
+  {
+    route: "POST /api/reports/:id/comments",
+    allowed: EVERYONE,
+    path: async (c) => `/api/reports/${await releasedReport(c)}/comments`,
+    body: () => ({ body: "Which side is the datum?" }),
+  },
   { route: "GET /api/reports/:id/pdf", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}/pdf` },
   { route: "GET /api/reports/:id/xlsx", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}/xlsx` },
   { route: "GET /api/reports/:id/csv", allowed: EVERYONE, path: async (c) => `/api/reports/${await releasedReport(c)}/csv` },
   { route: "GET /api/outbox", allowed: ADMIN },
-  { route: "GET /api/outbox/:id/attachments/:index", allowed: ADMIN, path: async (c) => `/api/outbox/${await freshOutboxMessage(c)}/attachments/0` },
+  {
+    route: "GET /api/outbox/:id/attachments/:index",
+    allowed: ADMIN,
+    path: async (c) => `/api/outbox/${await freshOutboxMessage(c)}/attachments/0`,
+  },
   { route: "GET /api/projects/:id/datasets", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/datasets` },
-  { route: "POST /api/projects/:id/datasets", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}/datasets`, upload: MEASUREMENTS },
+  {
+    route: "POST /api/projects/:id/datasets",
+    allowed: WRITERS,
+    path: async (c) => `/api/projects/${await freshProject(c)}/datasets`,
+    upload: MEASUREMENTS,
+  },
   { route: "GET /api/datasets/:id", allowed: STAFF, path: async (c) => `/api/datasets/${await freshDataset(c)}` },
   { route: "DELETE /api/datasets/:id", allowed: WRITERS, path: async (c) => `/api/datasets/${await freshDataset(c)}` },
-  { route: "PATCH /api/datasets/:id", allowed: WRITERS, path: async (c) => `/api/datasets/${await freshDataset(c)}`, body: () => ({ lotColumn: null }) },
+  {
+    route: "PATCH /api/datasets/:id",
+    allowed: WRITERS,
+    path: async (c) => `/api/datasets/${await freshDataset(c)}`,
+    body: () => ({ lotColumn: null }),
+  },
   {
     route: "PATCH /api/datasets/:id/mappings",
     allowed: WRITERS,
     path: async (c) => `/api/datasets/${await freshDataset(c)}/mappings`,
     body: () => ({ mappings: [{ column: "yaw [deg]", revisionId: lastDatasetRevision, source: "mag.yaw" }] }),
   },
-  { route: "GET /api/datasets/:id/statistics", allowed: STAFF, path: async (c) => `/api/datasets/${await freshDataset(c)}/statistics?column=${encodeURIComponent("yaw [deg]")}` },
+  {
+    route: "GET /api/datasets/:id/statistics",
+    allowed: STAFF,
+    path: async (c) => `/api/datasets/${await freshDataset(c)}/statistics?column=${encodeURIComponent("yaw [deg]")}`,
+  },
   { route: "GET /api/datasets/:id/file", allowed: STAFF, path: async (c) => `/api/datasets/${await freshDataset(c)}/file` },
   // a supplier only through a released report of its own company (other companies' reports: tests/backend/datasets.test.ts)
   { route: "GET /api/reports/:id/datasets", allowed: EVERYONE, path: async (c) => `/api/reports/${await freshReleasedReport(c)}/datasets` },
-  { route: "POST /api/reports/:id/datasets", allowed: ["admin", "engineer", "supplier"], path: async (c) => `/api/reports/${await freshReleasedReport(c)}/datasets`, upload: MEASUREMENTS },
+  {
+    route: "POST /api/reports/:id/datasets",
+    allowed: ["admin", "engineer", "supplier"],
+    path: async (c) => `/api/reports/${await freshReleasedReport(c)}/datasets`,
+    upload: MEASUREMENTS,
+  },
   { route: "GET /api/notifications", allowed: EVERYONE },
   { route: "POST /api/notifications/read", allowed: EVERYONE, body: () => ({}) },
   { route: "GET /api/notification-settings", allowed: EVERYONE },
@@ -269,7 +433,8 @@ const cookies: Partial<Record<Who, string>> = {};
 beforeAll(async () => {
   // studies in this table never finish: they wait until cancelled
   t = await startTestApp({
-    runner: (_input, { signal }) => new Promise((_resolve, reject) => signal.addEventListener("abort", () => reject(new Error("cancelled")))),
+    runner: (_input, { signal }) =>
+      new Promise((_resolve, reject) => signal.addEventListener("abort", () => reject(new Error("cancelled")))),
   });
   for (const role of EVERYONE) cookies[role] = await t.signIn(`${role}@example.com`);
   const [s] = await t.handle.db.select().from(suppliers).where(eq(suppliers.name, "Larkfield Assembly"));
@@ -285,14 +450,15 @@ describe("role table", () => {
 
   for (const row of ROUTES) {
     for (const who of WHO) {
-      const expected =
-        row.allowed === "public" ? "allowed" : who === "nobody" ? 401 : row.allowed.includes(who) ? "allowed" : 403;
+      const expected = row.allowed === "public" ? "allowed" : who === "nobody" ? 401 : row.allowed.includes(who) ? "allowed" : 403;
       it(`${row.route} as ${who} → ${expected}`, async () => {
         const [method, template] = row.route.split(" ");
         const path = row.path ? await row.path(ctx) : template;
         const body = row.body?.(ctx) ?? (method === "GET" || method === "DELETE" ? undefined : {});
         const cookie = who === "nobody" ? undefined : cookies[who];
-        const res = row.upload ? await t.call(method, path, { cookie, ...multipart(row.upload) }) : await t.call(method, path, { cookie, body });
+        const res = row.upload
+          ? await t.call(method, path, { cookie, ...multipart(row.upload) })
+          : await t.call(method, path, { cookie, body });
         if (expected === "allowed") {
           expect(res.status, JSON.stringify(res.body)).toBeLessThan(400);
         } else {

@@ -73,7 +73,10 @@ describe.skipIf(!testPostgresUrl())("server mode: studies through the job queue"
   });
 
   const runStudyThroughApi = async (trials: number, seed: number) => {
-    const s = await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: eng, body: { study: { ...fixture("study-reference.json"), trials, seed } } });
+    const s = await t.call("POST", `/api/revisions/${revisionId}/studies`, {
+      cookie: eng,
+      body: { study: { ...fixture("study-reference.json"), trials, seed } },
+    });
     expect(s.status).toBe(202);
     return s.body.id as string;
   };
@@ -110,12 +113,18 @@ describe.skipIf(!testPostgresUrl())("server mode: studies through the job queue"
   it("cancel reaches the jobs: nothing more is run and no result is written", async () => {
     const id = await runStudyThroughApi(20 * 4096, 99);
     // no worker yet: the parts wait in the queue
-    const queued = await until(() => t.call("GET", "/api/health"), (h) => h.body.queue.depth === 10);
+    const queued = await until(
+      () => t.call("GET", "/api/health"),
+      (h) => h.body.queue.depth === 10,
+    );
     expect(queued.body.queue.depth).toBe(10);
     expect((await t.call("POST", `/api/studies/${id}/cancel`, { cookie: eng, body: {} })).status).toBe(200);
     const w = new StudyJobWorker(handle.db, boss, log, { threads: 1, settings });
     await w.start();
-    await until(() => t.call("GET", "/api/health"), (h) => h.body.queue.depth === 0 && h.body.queue.active === 0);
+    await until(
+      () => t.call("GET", "/api/health"),
+      (h) => h.body.queue.depth === 0 && h.body.queue.active === 0,
+    );
     await w.stop();
     const parts = await handle.db.select().from(studyParts).where(eq(studyParts.studyId, id));
     expect(parts.filter((p) => p.finishedAt).length).toBe(0);
@@ -123,35 +132,49 @@ describe.skipIf(!testPostgresUrl())("server mode: studies through the job queue"
     expect((await t.call("GET", `/api/studies/${id}`, { cookie: eng })).body.status).toBe("cancelled");
   });
 
-  it("a worker process killed mid-job: its job expires, another worker runs it again, the result is unchanged", { timeout: 240_000 }, async () => {
-    const id = await runStudyThroughApi(12 * 4096, 4321);
-    child = spawn(process.execPath, ["--import", "tsx", "backend/worker.ts"], {
-      cwd: root,
-      env: { ...process.env, DATABASE_URL: handle.url, WORKER_THREADS: "1", STUDY_JOB_EXPIRE_SECONDS: "20", QUEUE_MAINTENANCE_SECONDS: "1", NODE_ENV: "test" },
-      stdio: "ignore",
-    });
-    // kill -9 while it holds a job, after it has finished at least one part
-    await until(
-      async () => {
-        const parts = await handle.db.select({ f: studyParts.finishedAt }).from(studyParts).where(eq(studyParts.studyId, id));
-        return { finished: parts.filter((p) => p.f).length, active: (await queueStatus(handle.db, boss)).active };
-      },
-      (x) => x.finished >= 1 && x.active >= 1,
-      120_000,
-    );
-    child.kill("SIGKILL");
-    const partsAtKill = await handle.db.select({ f: studyParts.finishedAt }).from(studyParts).where(eq(studyParts.studyId, id));
-    expect(partsAtKill.filter((p) => p.f).length).toBeLessThan(6);
+  it(
+    "a worker process killed mid-job: its job expires, another worker runs it again, the result is unchanged",
+    { timeout: 240_000 },
+    async () => {
+      const id = await runStudyThroughApi(12 * 4096, 4321);
+      child = spawn(process.execPath, ["--import", "tsx", "backend/worker.ts"], {
+        cwd: root,
+        env: {
+          ...process.env,
+          DATABASE_URL: handle.url,
+          WORKER_THREADS: "1",
+          STUDY_JOB_EXPIRE_SECONDS: "20",
+          QUEUE_MAINTENANCE_SECONDS: "1",
+          NODE_ENV: "test",
+        },
+        stdio: "ignore",
+      });
+      // kill -9 while it holds a job, after it has finished at least one part
+      await until(
+        async () => {
+          const parts = await handle.db.select({ f: studyParts.finishedAt }).from(studyParts).where(eq(studyParts.studyId, id));
+          return { finished: parts.filter((p) => p.f).length, active: (await queueStatus(handle.db, boss)).active };
+        },
+        (x) => x.finished >= 1 && x.active >= 1,
+        120_000,
+      );
+      child.kill("SIGKILL");
+      const partsAtKill = await handle.db.select({ f: studyParts.finishedAt }).from(studyParts).where(eq(studyParts.studyId, id));
+      expect(partsAtKill.filter((p) => p.f).length).toBeLessThan(6);
 
-    const w = new StudyJobWorker(handle.db, boss, log, { threads: 2, settings });
-    await w.start();
-    workers.push(w);
-    const done = await finished(id);
-    expect(done.body.status).toBe("finished");
-    const [stored] = await handle.db.select().from(studyResults).where(eq(studyResults.studyId, id));
-    expect(stored.result).toEqual(await inProcessResult(handle, id));
-    // progress is the sum over parts: the part run twice is not counted twice
-    const [row] = await handle.db.select({ done: studies.trialsDone, total: studies.trialsTotal }).from(studies).where(eq(studies.id, id));
-    expect(row).toEqual({ done: 12 * 4096, total: 12 * 4096 });
-  });
+      const w = new StudyJobWorker(handle.db, boss, log, { threads: 2, settings });
+      await w.start();
+      workers.push(w);
+      const done = await finished(id);
+      expect(done.body.status).toBe("finished");
+      const [stored] = await handle.db.select().from(studyResults).where(eq(studyResults.studyId, id));
+      expect(stored.result).toEqual(await inProcessResult(handle, id));
+      // progress is the sum over parts: the part run twice is not counted twice
+      const [row] = await handle.db
+        .select({ done: studies.trialsDone, total: studies.trialsTotal })
+        .from(studies)
+        .where(eq(studies.id, id));
+      expect(row).toEqual({ done: 12 * 4096, total: 12 * 4096 });
+    },
+  );
 });

@@ -37,9 +37,22 @@ it("a study through the API gives the command-line runner's result for the same 
 
   const dir = mkdtempSync(join(tmpdir(), "orthostack-cli-"));
   writeFileSync(join(dir, "study.json"), JSON.stringify(study));
-  execFileSync("npx", ["tsx", "backend/cli/study.ts", fixturePath("stack-reference.json"), join(dir, "study.json"), "--out", join(dir, "result.json"), "--threads", "1"], {
-    stdio: "pipe",
-  });
+  execFileSync(
+    "npx",
+    [
+      "tsx",
+      "backend/cli/study.ts",
+      fixturePath("stack-reference.json"),
+      join(dir, "study.json"),
+      "--out",
+      join(dir, "result.json"),
+      "--threads",
+      "1",
+    ],
+    {
+      stdio: "pipe",
+    },
+  );
   const cli = JSON.parse(readFileSync(join(dir, "result.json"), "utf8"));
   const api = done.body.result;
   expect(api.trials).toBe(cli.trials);

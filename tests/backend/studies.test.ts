@@ -31,7 +31,11 @@ function controllableRunner() {
       const total = Number(input.study.trials);
       onProgress(Math.floor(total / 4), total);
       signal.addEventListener("abort", () => reject(new Error("aborted")));
-      release = () => resolve({ result: { format: "orthostack.result/1", trials: total, seed: input.study.seed, metrics: {}, requirements: [] }, passes: true });
+      release = () =>
+        resolve({
+          result: { format: "orthostack.result/1", trials: total, seed: input.study.seed, metrics: {}, requirements: [] },
+          passes: true,
+        });
     });
   return { runner, finish: () => release?.(), calls: () => calls };
 }
@@ -61,11 +65,17 @@ describe("studies with a controllable runner", () => {
     const r = await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: c.engineer, body: { study } });
     expect(r.status).toBe(202);
     expect(["queued", "running"]).toContain(r.body.status);
-    const running = await until(() => t.call("GET", `/api/studies/${r.body.id}`, { cookie: c.reviewer }), (x) => x.body.status === "running" && x.body.progress.done > 0);
+    const running = await until(
+      () => t.call("GET", `/api/studies/${r.body.id}`, { cookie: c.reviewer }),
+      (x) => x.body.status === "running" && x.body.progress.done > 0,
+    );
     expect(running.body.progress).toMatchObject({ done: 500, total: 2000 });
     expect(running.body.result).toBeNull();
     ctl.finish();
-    const done = await until(() => t.call("GET", `/api/studies/${r.body.id}`, { cookie: c.reviewer }), (x) => x.body.status === "finished");
+    const done = await until(
+      () => t.call("GET", `/api/studies/${r.body.id}`, { cookie: c.reviewer }),
+      (x) => x.body.status === "finished",
+    );
     expect(done.body.result.format).toBe("orthostack.result/1");
     expect(done.body.passes).toBe(true);
     expect(done.body.stack).toEqual(stack);
@@ -100,7 +110,10 @@ describe("studies with a controllable runner", () => {
 
   it("cancels a running study", async () => {
     const r = await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: c.engineer, body: { study } });
-    await until(() => t.call("GET", `/api/studies/${r.body.id}`, { cookie: c.engineer }), (x) => x.body.status === "running");
+    await until(
+      () => t.call("GET", `/api/studies/${r.body.id}`, { cookie: c.engineer }),
+      (x) => x.body.status === "running",
+    );
     const cancel = await t.call("POST", `/api/studies/${r.body.id}/cancel`, { cookie: c.engineer, body: {} });
     expect(cancel.status).toBe(200);
     expect(cancel.body.status).toBe("cancelled");
@@ -112,7 +125,11 @@ describe("studies with a controllable runner", () => {
 
   it("roles: reviewers read, suppliers get nothing", async () => {
     expect((await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: c.reviewer, body: { study } })).status).toBe(403);
-    const list = await t.call("GET", `/api/projects/${(await t.call("GET", `/api/revisions/${revisionId}`, { cookie: c.engineer })).body.projectId}/studies`, { cookie: c.supplier });
+    const list = await t.call(
+      "GET",
+      `/api/projects/${(await t.call("GET", `/api/revisions/${revisionId}`, { cookie: c.engineer })).body.projectId}/studies`,
+      { cookie: c.supplier },
+    );
     expect(list.status).toBe(403);
   });
 });
@@ -128,7 +145,10 @@ describe("faults", () => {
       const p = await t.call("POST", "/api/projects", { cookie: eng, body: { name: "x" } });
       const rev = await t.call("POST", `/api/projects/${p.body.id}/revisions`, { cookie: eng, body: { stack } });
       const s = await t.call("POST", `/api/revisions/${rev.body.id}/studies`, { cookie: eng, body: { study } });
-      const failed = await until(() => t.call("GET", `/api/studies/${s.body.id}`, { cookie: eng }), (x) => x.body.status === "failed");
+      const failed = await until(
+        () => t.call("GET", `/api/studies/${s.body.id}`, { cookie: eng }),
+        (x) => x.body.status === "failed",
+      );
       expect(failed.body.error).toBe("the stack has no board");
       expect((await t.call("GET", "/api/health")).status).toBe(200);
     } finally {
@@ -144,7 +164,10 @@ describe("faults", () => {
     const p = await t1.call("POST", "/api/projects", { cookie: eng, body: { name: "restart" } });
     const rev = await t1.call("POST", `/api/projects/${p.body.id}/revisions`, { cookie: eng, body: { stack } });
     const s = await t1.call("POST", `/api/revisions/${rev.body.id}/studies`, { cookie: eng, body: { study } });
-    await until(() => t1.call("GET", `/api/studies/${s.body.id}`, { cookie: eng }), (x) => x.body.status === "running");
+    await until(
+      () => t1.call("GET", `/api/studies/${s.body.id}`, { cookie: eng }),
+      (x) => x.body.status === "running",
+    );
     await t1.crash();
 
     const second = controllableRunner();
@@ -156,9 +179,15 @@ describe("faults", () => {
       expect(after.body.result).toBeNull();
       const rerun = await t2.call("POST", `/api/studies/${s.body.id}/rerun`, { cookie: eng2, body: {} });
       expect(rerun.status).toBe(202);
-      await until(() => t2.call("GET", `/api/studies/${s.body.id}`, { cookie: eng2 }), (x) => x.body.status === "running");
+      await until(
+        () => t2.call("GET", `/api/studies/${s.body.id}`, { cookie: eng2 }),
+        (x) => x.body.status === "running",
+      );
       second.finish();
-      const done = await until(() => t2.call("GET", `/api/studies/${s.body.id}`, { cookie: eng2 }), (x) => x.body.status === "finished");
+      const done = await until(
+        () => t2.call("GET", `/api/studies/${s.body.id}`, { cookie: eng2 }),
+        (x) => x.body.status === "finished",
+      );
       expect(done.body.result.trials).toBe(2000);
     } finally {
       await t2.close();

@@ -68,7 +68,13 @@ describe("writes from another port of the same host", () => {
     const { body: rlist } = await own(page, "GET", `/api/projects/${project.id}/revisions`);
     const draft = (rlist.revisions as Array<{ id: string; status: string; version?: number }>).find((r) => r.status === "draft")!;
     const current = await own(page, "GET", `/api/revisions/${draft.id}`);
-    const submitted = await own(page, "POST", `/api/revisions/${draft.id}/submit`, { version: current.body.version }, current.etag ? { "if-match": current.etag } : {});
+    const submitted = await own(
+      page,
+      "POST",
+      `/api/revisions/${draft.id}/submit`,
+      { version: current.body.version },
+      current.etag ? { "if-match": current.etag } : {},
+    );
     expect(submitted.status).toBe(200);
 
     // a draft report from the demo study

@@ -7,7 +7,11 @@ const e2e = setupE2E();
 // Invented first-build measurements: magnetometer placement rotation in mrad, bond-line height at one corner.
 const GOOD = [
   "unit,mag yaw [mrad],mag bond line A [um]",
-  ...Array.from({ length: 40 }, (_, i) => `FB-${String(i + 1).padStart(2, "0")},${(0.8 + (((i * 7) % 13) - 6) * 0.35).toFixed(2)},${(10.4 + (((i * 5) % 9) - 4) * 0.15).toFixed(2)}`),
+  ...Array.from(
+    { length: 40 },
+    (_, i) =>
+      `FB-${String(i + 1).padStart(2, "0")},${(0.8 + (((i * 7) % 13) - 6) * 0.35).toFixed(2)},${(10.4 + (((i * 5) % 9) - 4) * 0.15).toFixed(2)}`,
+  ),
 ].join("\n");
 const BAD = "unit,tilt_x [deg]\nFB-01,0.02\nFB-02,abc\n";
 
@@ -15,7 +19,10 @@ describe("data sets", () => {
   it("an engineer uploads measurements, maps them to tolerance sources and reads their capability", async () => {
     const { page, problems } = await e2e.session();
     await signInAs(page, "engineer@example.com");
-    await page.getByRole("table", { name: "Projects" }).getByRole("link", { name: /Ridgeline/ }).click();
+    await page
+      .getByRole("table", { name: "Projects" })
+      .getByRole("link", { name: /Ridgeline/ })
+      .click();
     await page.waitForURL(/\/projects\/[0-9a-f-]{36}$/);
     const projectUrl = page.url();
 
@@ -27,14 +34,18 @@ describe("data sets", () => {
     await expect(demoRow.getByText("mag.yaw").count()).resolves.toBe(1);
 
     // A file with a word in a number column is refused with its row and column; nothing is added.
-    await page.getByLabel("Measurement file (CSV or XLSX)").setInputFiles({ name: "tilt-bad.csv", mimeType: "text/csv", buffer: Buffer.from(BAD) });
+    await page
+      .getByLabel("Measurement file (CSV or XLSX)")
+      .setInputFiles({ name: "tilt-bad.csv", mimeType: "text/csv", buffer: Buffer.from(BAD) });
     const refusal = page.getByRole("alert").filter({ hasText: "The file was not accepted" });
     await refusal.getByText("Row 3, column B (tilt_x [deg]): “abc” is not a number.").waitFor();
     await expect(panel.getByRole("row").count()).resolves.toBe(2); // header + the demo data set
     await screenshot(page, "datasets-refused");
 
     // A good file opens its own page with the first rows.
-    await page.getByLabel("Measurement file (CSV or XLSX)").setInputFiles({ name: "first-build-40.csv", mimeType: "text/csv", buffer: Buffer.from(GOOD) });
+    await page
+      .getByLabel("Measurement file (CSV or XLSX)")
+      .setInputFiles({ name: "first-build-40.csv", mimeType: "text/csv", buffer: Buffer.from(GOOD) });
     await page.waitForURL(/\/projects\/[0-9a-f-]{36}\/datasets\/[0-9a-f-]{36}/);
     await page.getByRole("heading", { name: "first-build-40.csv", level: 1 }).waitFor();
     const preview = page.getByRole("table", { name: "Preview of the first rows" });
@@ -65,7 +76,10 @@ describe("data sets", () => {
     const cpk = await statList.locator("div", { hasText: /^Cpk/ }).locator("dd").innerText();
     expect(Number(cpk.split(/\s/)[0])).toBeGreaterThan(0.5);
     await page.locator('svg[data-chart="tolerance-window"]').waitFor();
-    await page.getByLabel("Capability statement").getByText(/^Over 40 units, Cpk over all units reads \d\.\d\d; with 95 % confidence the process is at least \d\.\d\d/).waitFor();
+    await page
+      .getByLabel("Capability statement")
+      .getByText(/^Over 40 units, Cpk over all units reads \d\.\d\d; with 95 % confidence the process is at least \d\.\d\d/)
+      .waitFor();
     await page.getByText(/A\* = \d\.\d{3}, p = /).waitFor();
     await screenshot(page, "datasets-capability");
 
@@ -85,7 +99,10 @@ describe("data sets", () => {
     await page.goto(projectUrl);
     const row = page.getByRole("table", { name: "Data sets" }).getByRole("row", { name: /first-build-40\.csv/ });
     await row.getByText("mag.bondLine").waitFor();
-    await page.getByRole("list", { name: "Project activity" }).getByText(/mapped the data set “first-build-40\.csv”/).waitFor();
+    await page
+      .getByRole("list", { name: "Project activity" })
+      .getByText(/mapped the data set “first-build-40\.csv”/)
+      .waitFor();
     await screenshot(page, "datasets-project-panel");
 
     expect(unexpectedProblems(problems)).toEqual([]);
@@ -94,13 +111,18 @@ describe("data sets", () => {
   it("a corner-height file with gaps, sent for one lot, maps in one step to the bond line and reads its capability with its confidence", async () => {
     const { page, problems } = await e2e.session();
     await signInAs(page, "engineer@example.com");
-    await page.getByRole("table", { name: "Projects" }).getByRole("link", { name: /Ridgeline/ }).click();
+    await page
+      .getByRole("table", { name: "Projects" })
+      .getByRole("link", { name: /Ridgeline/ })
+      .click();
     await page.waitForURL(/\/projects\/[0-9a-f-]{36}$/);
     const projectUrl = page.url();
     // 30 magnetometers (0.9 × 0.5 mm) in two lots; heights 10 µm + a wedge, three cells missing
-    const X = [-0.45, 0.45, 0.45, -0.45], Y = [-0.25, -0.25, 0.25, 0.25];
+    const X = [-0.45, 0.45, 0.45, -0.45],
+      Y = [-0.25, -0.25, 0.25, 0.25];
     const rows = Array.from({ length: 30 }, (_, i) => {
-      const b = 2 + (i % 4) * 0.5, a = 10 + 0.2 * (i % 3);
+      const b = 2 + (i % 4) * 0.5,
+        a = 10 + 0.2 * (i % 3);
       const h = X.map((x, k) => (a + b * x - Y[k]).toFixed(3));
       if (i === 3) h[1] = "NA";
       if (i === 9) h[2] = "";
@@ -110,7 +132,9 @@ describe("data sets", () => {
     const CORNERS = ["unit,lot,h0 [um],h1 [um],h2 [um],h3 [um]", ...rows].join("\n");
     await page.getByLabel("Lot of the upload").fill("L2611-12");
     await page.getByLabel("Note on the upload").fill("corner heights, first build");
-    await page.getByLabel("Measurement file (CSV or XLSX)").setInputFiles({ name: "mag-corners.csv", mimeType: "text/csv", buffer: Buffer.from(CORNERS) });
+    await page
+      .getByLabel("Measurement file (CSV or XLSX)")
+      .setInputFiles({ name: "mag-corners.csv", mimeType: "text/csv", buffer: Buffer.from(CORNERS) });
     await page.waitForURL(/\/datasets\/[0-9a-f-]{36}/);
     await page.getByRole("heading", { name: "mag-corners.csv", level: 1 }).waitFor();
 
@@ -121,13 +145,18 @@ describe("data sets", () => {
     await expect(mapping.getByLabel("Nominal of h2 [µm]").inputValue()).resolves.toBe("10");
     await page.getByLabel("Lot column").selectOption("lot");
     await page.getByRole("button", { name: "Save mapping (4)" }).click();
-    await page.getByRole("list", { name: "Sources measured by several columns" }).getByText(/mag\.bondLine.*4 of 4 columns: 27 complete rows, 3 left out for a gap/).waitFor();
+    await page
+      .getByRole("list", { name: "Sources measured by several columns" })
+      .getByText(/mag\.bondLine.*4 of 4 columns: 27 complete rows, 3 left out for a gap/)
+      .waitFor();
     await screenshot(page, "datasets-pooled-mapping");
 
     // the capability of one corner: a statement with its confidence, units in production order inside the window, lots
     await page.getByLabel("Column for capability").selectOption("h1 [um]");
     const statement = page.getByLabel("Capability statement");
-    await statement.getByText(/^Over 29 units, Cpk within lots reads \d\.\d\d; with 95 % confidence the process is at least \d\.\d\d/).waitFor();
+    await statement
+      .getByText(/^Over 29 units, Cpk within lots reads \d\.\d\d; with 95 % confidence the process is at least \d\.\d\d/)
+      .waitFor();
     const chart = page.locator('svg[data-chart="tolerance-window"]');
     await expect(chart.locator("circle[data-unit]").count()).resolves.toBe(29);
     await expect(chart.locator('[data-layer="control-limits"] line').count()).resolves.toBe(3);
@@ -146,7 +175,10 @@ describe("data sets", () => {
   it("runs the demo stack as built from the first-build data set and compares it with the design study", { timeout: 240_000 }, async () => {
     const { page, problems } = await e2e.session();
     await signInAs(page, "engineer@example.com");
-    await page.getByRole("table", { name: "Projects" }).getByRole("link", { name: /Ridgeline/ }).click();
+    await page
+      .getByRole("table", { name: "Projects" })
+      .getByRole("link", { name: /Ridgeline/ })
+      .click();
     await page.getByRole("table", { name: "Data sets" }).getByRole("link", { name: "ridgeline-first-build-mag.csv" }).click();
     await page.getByRole("button", { name: "Run as built" }).click();
     const dialog = page.getByRole("dialog", { name: "Run as built" });
@@ -171,7 +203,10 @@ describe("data sets", () => {
   it("a reviewer reads data sets but has no upload or mapping controls", async () => {
     const { page, problems } = await e2e.session();
     await signInAs(page, "reviewer@example.com");
-    await page.getByRole("table", { name: "Projects" }).getByRole("link", { name: /Ridgeline/ }).click();
+    await page
+      .getByRole("table", { name: "Projects" })
+      .getByRole("link", { name: /Ridgeline/ })
+      .click();
     await page.getByRole("table", { name: "Data sets" }).getByRole("link", { name: "ridgeline-first-build-mag.csv" }).click();
     await page.getByRole("heading", { name: "ridgeline-first-build-mag.csv", level: 1 }).waitFor();
     await page.getByRole("table", { name: "Column mapping" }).getByText("mag.yaw", { exact: true }).waitFor();

@@ -11,7 +11,9 @@ const PDFTOTEXT = "/usr/bin/pdftotext";
 function postgresInitdb() {
   const root = "/usr/lib/postgresql";
   if (!existsSync(root)) return undefined;
-  const found = readdirSync(root).map((v) => `${root}/${v}/bin/initdb`).find((p) => existsSync(p));
+  const found = readdirSync(root)
+    .map((v) => `${root}/${v}/bin/initdb`)
+    .find((p) => existsSync(p));
   return found;
 }
 const present = (w) => (w.find ? w.find() !== undefined : existsSync(w.path));

@@ -104,7 +104,7 @@ describe("members (admin)", () => {
     const table = page.getByRole("table", { name: "Members" });
     const role = table.getByLabel("Role of Rana Haddad");
     await role.selectOption("engineer");
-    await expect.poll(async () => (await memberRole(page, "reviewer@example.com"))).toBe("engineer");
+    await expect.poll(async () => await memberRole(page, "reviewer@example.com")).toBe("engineer");
 
     await role.selectOption("supplier");
     const dialog = page.getByRole("dialog", { name: "Make Rana Haddad a supplier user" });
@@ -117,7 +117,7 @@ describe("members (admin)", () => {
     expect(await memberRole(page, "reviewer@example.com")).toBe("supplier");
 
     await role.selectOption("reviewer");
-    await expect.poll(async () => (await memberRole(page, "reviewer@example.com"))).toBe("reviewer");
+    await expect.poll(async () => await memberRole(page, "reviewer@example.com")).toBe("reviewer");
     // The admin cannot demote or remove themself from this table.
     await expect(table.getByLabel("Role of Ada Okafor").count()).resolves.toBe(0);
     await expect(table.getByRole("button", { name: "Remove Ada Okafor" }).count()).resolves.toBe(0);

@@ -23,7 +23,10 @@ describe("an engineer's projects", () => {
     // The new project's page opens, with its creation on record.
     await page.waitForURL(/\/projects\/[0-9a-f-]{36}$/);
     await page.getByRole("heading", { name: "Harbour tracker IMU, rev A", level: 1 }).waitFor();
-    await page.getByRole("list", { name: "Project activity" }).getByText(/created the project/).waitFor();
+    await page
+      .getByRole("list", { name: "Project activity" })
+      .getByText(/created the project/)
+      .waitFor();
     await screenshot(page, "project-page");
 
     // Rename from the project page.

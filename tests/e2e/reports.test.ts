@@ -54,7 +54,11 @@ describe("a supplier report from the demo project", () => {
     await files.waitFor();
     const shown = (await files.getByTitle("SHA-256 checksum of the file as stored and sent").first().innerText()).match(/[0-9a-f]{64}/)![0];
     const csvRes = await rev.page.request.get(`/api${reportUrl}/csv`);
-    expect(createHash("sha256").update(await csvRes.body()).digest("hex")).toBe(shown);
+    expect(
+      createHash("sha256")
+        .update(await csvRes.body())
+        .digest("hex"),
+    ).toBe(shown);
     await rev.page.getByRole("button", { name: "Send to supplier" }).click();
     const send = rev.page.getByRole("dialog", { name: /Send TR-0001 revision 1/ });
     await send.getByRole("list", { name: "Recipients" }).getByText("supplier@example.com").waitFor();
@@ -86,7 +90,10 @@ describe("a supplier report from the demo project", () => {
     expect(pdf.subarray(0, 5).toString("latin1")).toBe("%PDF-");
     await sup.page.getByLabel("Your question").fill("Is the magnetometer bond line measured at its three supports?");
     await sup.page.getByRole("button", { name: "Ask a question" }).click();
-    await sup.page.getByRole("list", { name: "Comments" }).getByText("Is the magnetometer bond line measured at its three supports?").waitFor();
+    await sup.page
+      .getByRole("list", { name: "Comments" })
+      .getByText("Is the magnetometer bond line measured at its three supports?")
+      .waitFor();
     await sup.page.getByRole("button", { name: "Acknowledge" }).click();
     const ack = sup.page.getByRole("dialog", { name: /Acknowledge TR-0001 revision 1/ });
     await ack.getByRole("button", { name: "Acknowledge" }).click();
@@ -100,7 +107,12 @@ describe("a supplier report from the demo project", () => {
     await eng.page.goto("/projects");
     await eng.page.getByRole("link", { name: /Ridgeline trail watch/ }).click();
     const activity = eng.page.getByRole("list", { name: "Project activity" });
-    for (const text of ["released report TR-0001 revision 1", "sent report TR-0001 revision 1", "downloaded report TR-0001 revision 1 (PDF)", "acknowledged report TR-0001 revision 1"]) {
+    for (const text of [
+      "released report TR-0001 revision 1",
+      "sent report TR-0001 revision 1",
+      "downloaded report TR-0001 revision 1 (PDF)",
+      "acknowledged report TR-0001 revision 1",
+    ]) {
       await activity.getByText(text, { exact: false }).waitFor();
     }
     await eng.page.getByRole("list", { name: "Project reports" }).getByText("Acknowledged").waitFor();

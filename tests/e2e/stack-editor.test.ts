@@ -31,7 +31,11 @@ async function waitSaved(page: Page, after: number) {
   await page.waitForFunction(
     (n) => {
       const el = document.querySelector('[data-testid="save-status"]');
-      return el?.getAttribute("data-state") === "saved" && Number(el.getAttribute("data-saves")) > n && /^Saved · \d\d:\d\d$/.test(el.textContent?.trim() ?? "");
+      return (
+        el?.getAttribute("data-state") === "saved" &&
+        Number(el.getAttribute("data-saves")) > n &&
+        /^Saved · \d\d:\d\d$/.test(el.textContent?.trim() ?? "")
+      );
     },
     after,
     { timeout: 20_000 },
@@ -39,7 +43,10 @@ async function waitSaved(page: Page, after: number) {
 }
 
 async function openDemoRevision(page: Page, number: number) {
-  await page.getByRole("link", { name: /Ridgeline/ }).first().click();
+  await page
+    .getByRole("link", { name: /Ridgeline/ })
+    .first()
+    .click();
   await page.getByRole("table", { name: "Stack revisions" }).waitFor();
   await page.getByRole("link", { name: `Open revision ${number}` }).click();
   await page.getByRole("tree", { name: "Elements" }).waitFor();
@@ -49,7 +56,10 @@ describe("the stack editor", () => {
   it("edits a tolerance of the demo draft: the estimate follows, undo restores it, the draft saves itself", async () => {
     const { page, problems } = await e2e.session();
     await signInAs(page, "engineer@example.com");
-    await page.getByRole("link", { name: /Ridgeline/ }).first().click();
+    await page
+      .getByRole("link", { name: /Ridgeline/ })
+      .first()
+      .click();
     await page.getByRole("table", { name: "Stack revisions" }).waitFor();
     await screenshot(page, "editor-project-revisions");
     await page.getByRole("link", { name: "Open revision 2" }).click();
@@ -67,28 +77,38 @@ describe("the stack editor", () => {
     expect(await saves(page)).toBe(0);
     await magBond.fill("12");
     const t0 = Date.now();
-    await page.waitForFunction((b) => {
-      const s = document.querySelector('[data-testid="estimate-status"]')?.textContent?.trim() ?? "";
-      const v = document.querySelector('[data-testid="estimate-heading-p99"]')?.textContent?.trim();
-      return /^Updated in/.test(s) && v !== b;
-    }, before, { timeout: 30_000 });
+    await page.waitForFunction(
+      (b) => {
+        const s = document.querySelector('[data-testid="estimate-status"]')?.textContent?.trim() ?? "";
+        const v = document.querySelector('[data-testid="estimate-heading-p99"]')?.textContent?.trim();
+        return /^Updated in/.test(s) && v !== b;
+      },
+      before,
+      { timeout: 30_000 },
+    );
     const after = await settledHeading(page);
     const took = Date.now() - t0;
     expect(Number(after)).toBeGreaterThan(Number(before));
     // The form of the selected element shows the same value.
     await page.getByRole("treeitem", { name: /^mag,/ }).click();
-    await expect(page.getByRole("group", { name: "Height of each support tolerance" }).getByLabel("± Tolerance").inputValue()).resolves.toBe("12");
+    await expect(
+      page.getByRole("group", { name: "Height of each support tolerance" }).getByLabel("± Tolerance").inputValue(),
+    ).resolves.toBe("12");
     await waitSaved(page, 0);
     await screenshot(page, "editor-demo-changed");
 
     // Undo (Ctrl+Z) restores the value and the figures.
     await page.keyboard.press("Control+z");
     await expect(magBond.inputValue()).resolves.toBe("2");
-    await page.waitForFunction((b) => document.querySelector('[data-testid="estimate-heading-p99"]')?.textContent?.trim() === b, before, { timeout: 30_000 });
+    await page.waitForFunction((b) => document.querySelector('[data-testid="estimate-heading-p99"]')?.textContent?.trim() === b, before, {
+      timeout: 30_000,
+    });
     // Redo (the button) brings the change back; it is saved.
     await page.getByRole("button", { name: "Redo" }).click();
     await expect(magBond.inputValue()).resolves.toBe("12");
-    await page.waitForFunction((a) => document.querySelector('[data-testid="estimate-heading-p99"]')?.textContent?.trim() === a, after, { timeout: 30_000 });
+    await page.waitForFunction((a) => document.querySelector('[data-testid="estimate-heading-p99"]')?.textContent?.trim() === a, after, {
+      timeout: 30_000,
+    });
     // undo and redo are saved as well: at least two more saves
     await waitSaved(page, 2);
 
@@ -152,7 +172,10 @@ describe("the stack editor", () => {
 
     // Off its parent's footprint: the validator's message under the field, the tree marks it, nothing is saved.
     await page.getByLabel("Position x").fill("5");
-    await page.getByRole("group", { name: "Element mag" }).getByText(/The centre of "mag" at \(5, 0\) mm is off the .* top face of its parent "pkg"/).waitFor();
+    await page
+      .getByRole("group", { name: "Element mag" })
+      .getByText(/The centre of "mag" at \(5, 0\) mm is off the .* top face of its parent "pkg"/)
+      .waitFor();
     await page.getByRole("region", { name: "Problems" }).getByText("mag", { exact: true }).waitFor();
     await tree.getByRole("treeitem", { name: /^mag, magnetometer, 1 problem/ }).waitFor();
     await page.getByText("Not saved: 1 problem to fix").waitFor();
@@ -217,8 +240,13 @@ describe("the stack editor", () => {
     await expect(page.getByLabel("mag.bondLine tolerance").isDisabled()).resolves.toBe(false);
 
     // Import a broken file: refused with the paths of its problems, the draft unchanged.
-    const broken = { ...exported, elements: exported.elements.map((e: { id: string; size: object }) => (e.id === "mag" ? { ...e, size: { x: 0, y: 1, z: 0.2 } } : e)) };
-    await page.getByTestId("import-stack-file").setInputFiles({ name: "broken.stack.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(broken)) });
+    const broken = {
+      ...exported,
+      elements: exported.elements.map((e: { id: string; size: object }) => (e.id === "mag" ? { ...e, size: { x: 0, y: 1, z: 0.2 } } : e)),
+    };
+    await page
+      .getByTestId("import-stack-file")
+      .setInputFiles({ name: "broken.stack.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(broken)) });
     const refused = page.getByRole("dialog", { name: "This stack file cannot be imported" });
     await refused.getByText("elements[5].size.x").waitFor();
     await refused.getByText("mag", { exact: true }).waitFor();
@@ -227,8 +255,14 @@ describe("the stack editor", () => {
     await refused.getByRole("button", { name: "Close" }).first().click();
 
     // Import a good one: it replaces the stack in one undoable step.
-    const renamed = { ...exported, name: "Imported variant", elements: exported.elements.filter((e: { id: string }) => e.id !== "gyro" && e.id !== "accel" && e.id !== "mag") };
-    await page.getByTestId("import-stack-file").setInputFiles({ name: "variant.stack.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(renamed)) });
+    const renamed = {
+      ...exported,
+      name: "Imported variant",
+      elements: exported.elements.filter((e: { id: string }) => e.id !== "gyro" && e.id !== "accel" && e.id !== "mag"),
+    };
+    await page
+      .getByTestId("import-stack-file")
+      .setInputFiles({ name: "variant.stack.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(renamed)) });
     const tree = page.getByRole("tree", { name: "Elements" });
     await tree.getByRole("treeitem", { name: /^gyro,/ }).waitFor({ state: "detached" });
     await expect(tree.getByRole("treeitem").count()).resolves.toBe(3);
@@ -260,12 +294,18 @@ describe("the stack editor", () => {
     await back.getByRole("button", { name: "Send back to draft" }).click();
     await back.waitFor({ state: "detached" });
     await reviewer.page.getByText("Draft, read only for your role").waitFor();
-    await reviewer.page.getByRole("list", { name: "Review notes" }).getByText(/needs the supplier's bond-line data/).waitFor();
+    await reviewer.page
+      .getByRole("list", { name: "Review notes" })
+      .getByText(/needs the supplier's bond-line data/)
+      .waitFor();
     await screenshot(reviewer.page, "editor-reviewer-sent-back");
 
     await engineer.page.reload();
     await engineer.page.getByRole("button", { name: "Submit for review" }).waitFor();
-    await engineer.page.getByRole("list", { name: "Review notes" }).getByText(/sent back/).waitFor();
+    await engineer.page
+      .getByRole("list", { name: "Review notes" })
+      .getByText(/sent back/)
+      .waitFor();
 
     // Submitted again, the reviewer approves it: frozen, and listed as approved on the project page.
     await engineer.page.getByRole("button", { name: "Submit for review" }).click();

@@ -47,7 +47,10 @@ async function drawn(page: Page, selector: string) {
 }
 
 async function openDemoProject(page: Page) {
-  await page.getByRole("table", { name: "Projects" }).getByRole("link", { name: /Ridgeline/ }).click();
+  await page
+    .getByRole("table", { name: "Projects" })
+    .getByRole("link", { name: /Ridgeline/ })
+    .click();
   await page.getByRole("heading", { name: /Ridgeline trail watch/, level: 1 }).waitFor();
 }
 
@@ -122,10 +125,19 @@ describe("studies", () => {
     // Requirement cards with verdicts in the pass/fail colours.
     const cards = page.getByRole("list", { name: "Requirements" });
     await expect(cards.getByRole("listitem").count()).resolves.toBe(4);
-    await cards.getByText(/^(Pass|Fail)$/).first().waitFor();
-    await page.getByRole("complementary", { name: "Cautions" }).getByText(/must not be the only means of navigation/).waitFor();
+    await cards
+      .getByText(/^(Pass|Fail)$/)
+      .first()
+      .waitFor();
+    await page
+      .getByRole("complementary", { name: "Cautions" })
+      .getByText(/must not be the only means of navigation/)
+      .waitFor();
     // The WMM's dip is what the study ran with.
-    await page.getByRole("region", { name: "Settings and run" }).getByText(`${dip.toFixed(3)}°`, { exact: false }).waitFor();
+    await page
+      .getByRole("region", { name: "Settings and run" })
+      .getByText(`${dip.toFixed(3)}°`, { exact: false })
+      .waitFor();
 
     // Every chart drew its data.
     const envelopes = await drawn(page, '[data-chart="envelope"]');
@@ -150,7 +162,13 @@ describe("studies", () => {
     expect(convYield.areas + convYield.lines).toBe(2);
     const crossAxis = page.locator('[data-chart="cross-axis"]');
     await expect(crossAxis.count()).resolves.toBe(3);
-    await expect(crossAxis.first().getByRole("cell").filter({ hasText: /^\d+\.\d+%$/ }).count()).resolves.toBe(6);
+    await expect(
+      crossAxis
+        .first()
+        .getByRole("cell")
+        .filter({ hasText: /^\d+\.\d+%$/ })
+        .count(),
+    ).resolves.toBe(6);
 
     // The histogram follows the metric picker, with the limit drawn.
     await page.getByLabel("Histogram metric").selectOption("accel~mag.relRotDeg");
@@ -166,7 +184,10 @@ describe("studies", () => {
     await screenshot(page, "studies-results");
 
     // The result file, as stored.
-    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download result (JSON)" }).click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByRole("button", { name: "Download result (JSON)" }).click(),
+    ]);
     expect(download.suggestedFilename()).toMatch(/^ridgeline-trail-watch-9-axis-sensor-module-study-2\.result\.json$/);
     const file = JSON.parse(readFileSync((await download.path())!, "utf8"));
     expect(file.format).toBe("orthostack.result/1");
@@ -178,7 +199,10 @@ describe("studies", () => {
     // A worst trial in the 3D view.
     const worst = page.getByRole("table", { name: /^Worst trials of / });
     const firstTrial = (await worst.getByRole("row").nth(1).getByRole("cell").nth(1).innerText()).replace(/,/g, "");
-    await worst.getByRole("button", { name: /^Open trial \d+ in 3D$/ }).first().click();
+    await worst
+      .getByRole("button", { name: /^Open trial \d+ in 3D$/ })
+      .first()
+      .click();
     const viewer = page.getByRole("dialog", { name: new RegExp(`trial ${Number(firstTrial).toLocaleString("en-US")}`) });
     await viewer.locator("canvas").waitFor({ timeout: 60_000 });
     await page.waitForTimeout(1500);

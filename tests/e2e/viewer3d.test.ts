@@ -35,8 +35,15 @@ describe("exaggeration of rotations", () => {
   const maxDiff = (a: ArrayLike<number>, b: ArrayLike<number>) => Math.max(...Array.from(a, (v, i) => Math.abs(v - b[i])));
 
   it("log inverts Rodrigues, also near 0 and near π", () => {
-    const R = new Float64Array(9), v = new Float64Array(3);
-    for (const t of [[0.1, 0.2, -0.3], [1e-10, -2e-10, 3e-10], [Math.PI - 1e-7, 0, 0], [0, 2.2, -2.1], [1.7, -1.1, 2.0]]) {
+    const R = new Float64Array(9),
+      v = new Float64Array(3);
+    for (const t of [
+      [0.1, 0.2, -0.3],
+      [1e-10, -2e-10, 3e-10],
+      [Math.PI - 1e-7, 0, 0],
+      [0, 2.2, -2.1],
+      [1.7, -1.1, 2.0],
+    ]) {
       rotVec(t[0], t[1], t[2], R);
       logRotation(R, 0, v, 0);
       expect(maxDiff(v, t)).toBeLessThan(1e-6 * Math.max(1, Math.hypot(t[0], t[1], t[2])));
@@ -94,7 +101,11 @@ describe("poses for the view", () => {
       const q = set.parent[i];
       if (q < 0) continue;
       for (let r = 0; r < 3; r++) {
-        const p = set.P[3 * q + r] + set.R[9 * q + 3 * r] * set.L[3 * i] + set.R[9 * q + 3 * r + 1] * set.L[3 * i + 1] + set.R[9 * q + 3 * r + 2] * set.L[3 * i + 2];
+        const p =
+          set.P[3 * q + r] +
+          set.R[9 * q + 3 * r] * set.L[3 * i] +
+          set.R[9 * q + 3 * r + 1] * set.L[3 * i + 1] +
+          set.R[9 * q + 3 * r + 2] * set.L[3 * i + 2];
         expect(p).toBeCloseTo(set.P[3 * i + r], 12);
       }
     }
@@ -121,7 +132,14 @@ function serveFonts(): Plugin {
   };
 }
 
-type Stats = { width: number; height: number; gyro: number; accel: number; mag: number; centroids: Record<string, [number, number] | null> };
+type Stats = {
+  width: number;
+  height: number;
+  gyro: number;
+  accel: number;
+  mag: number;
+  centroids: Record<string, [number, number] | null>;
+};
 
 /**
  * Reads the WebGL canvas back through toDataURL and counts pixels by hue: the dies'
@@ -150,8 +168,11 @@ async function canvasStats(page: Page, snapshotName?: string): Promise<Stats> {
     const sums: Record<string, [number, number]> = { gyro: [0, 0], accel: [0, 0], mag: [0, 0] };
     const d = data.data;
     for (let p = 0; p < d.length; p += 4) {
-      const r = d[p] / 255, gg = d[p + 1] / 255, b = d[p + 2] / 255;
-      const max = Math.max(r, gg, b), min = Math.min(r, gg, b);
+      const r = d[p] / 255,
+        gg = d[p + 1] / 255,
+        b = d[p + 2] / 255;
+      const max = Math.max(r, gg, b),
+        min = Math.min(r, gg, b);
       const delta = max - min;
       if (max < 0.18 || delta / max < 0.5) continue;
       let h = max === r ? ((gg - b) / delta) % 6 : max === gg ? (b - r) / delta + 2 : (r - gg) / delta + 4;
@@ -178,7 +199,8 @@ async function pixelDifference(page: Page, a: string, b: string): Promise<number
   return page.evaluate(
     ([a, b]) => {
       const s = (window as unknown as { __snaps: Record<string, ImageData> }).__snaps;
-      const x = s[a].data, y = s[b].data;
+      const x = s[a].data,
+        y = s[b].data;
       if (x.length !== y.length) return 1;
       let changed = 0;
       for (let p = 0; p < x.length; p += 4) {
@@ -324,7 +346,11 @@ describe("3D view in the browser", () => {
   });
 
   it("shows the worst trial, regenerated from the seed, and its picture differs from nominal", async () => {
-    const worst = JSON.parse((await page.getByTestId("harness-worst").textContent())!) as { metric: string; trialIndex: number; value: number }[];
+    const worst = JSON.parse((await page.getByTestId("harness-worst").textContent())!) as {
+      metric: string;
+      trialIndex: number;
+      value: number;
+    }[];
     const heading = worst.find((w) => w.metric === "heading.maxAbsDeg")!;
     await act(page, () => page.getByLabel("Pose", { exact: true }).selectOption(`worst:${worst.indexOf(heading)}`));
     expect(await page.getByTestId("harness-trial").textContent()).toBe(String(heading.trialIndex));
@@ -332,7 +358,9 @@ describe("3D view in the browser", () => {
     // picking a worst trial starts at a visible exaggeration
     expect(await page.getByTestId("exaggeration-value").textContent()).toBe("×50");
     expect(await page.getByTestId("pose-label").textContent()).toContain("worst heading.maxAbsDeg");
-    expect(await page.getByTestId("recomputed").textContent()).toContain("Regenerated from the seed: heading.maxAbsDeg = " + heading.value.toFixed(2));
+    expect(await page.getByTestId("recomputed").textContent()).toContain(
+      "Regenerated from the seed: heading.maxAbsDeg = " + heading.value.toFixed(2),
+    );
     await shot(page, "viewer3d-worst-heading-x50");
     await canvasStats(page, "worst50");
     expect(await pixelDifference(page, "nominal", "worst50")).toBeGreaterThan(0.004);

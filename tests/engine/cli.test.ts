@@ -23,7 +23,18 @@ describe("npm run study", () => {
 
   it("writes the result file and prints a summary", async () => {
     const out = join(dir, "result.json");
-    const r = await run(["tests/fixtures/stack-reference.json", "tests/fixtures/study-reference.json", "--out", out, "--trials", "5000", "--threads", "2", "--seed", "9"]);
+    const r = await run([
+      "tests/fixtures/stack-reference.json",
+      "tests/fixtures/study-reference.json",
+      "--out",
+      out,
+      "--trials",
+      "5000",
+      "--threads",
+      "2",
+      "--seed",
+      "9",
+    ]);
     expect(r.stderr).toBe("");
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/heading\.maxAbsDeg .*(PASS|FAIL)/);
@@ -48,11 +59,27 @@ describe("npm run study", () => {
 
   it("a bad study file and bad options: exit code 2", async () => {
     const p = join(dir, "bad-study.json");
-    writeFileSync(p, JSON.stringify({ format: "orthostack.study/1", trials: 0, seed: 1, inclinationDeg: 60, requirements: [{ metric: "nope.tiltDeg", max: 1, yield: 0.9 }] }));
+    writeFileSync(
+      p,
+      JSON.stringify({
+        format: "orthostack.study/1",
+        trials: 0,
+        seed: 1,
+        inclinationDeg: 60,
+        requirements: [{ metric: "nope.tiltDeg", max: 1, yield: 0.9 }],
+      }),
+    );
     const r = await run(["tests/fixtures/stack-reference.json", p, "--out", join(dir, "y.json")]);
     expect(r.code).toBe(2);
     expect(r.stderr).toContain("trials: trials must lie between 1 and 10,000,000");
-    const o = await run(["tests/fixtures/stack-reference.json", "tests/fixtures/study-reference.json", "--out", join(dir, "z.json"), "--trials", "-5"]);
+    const o = await run([
+      "tests/fixtures/stack-reference.json",
+      "tests/fixtures/study-reference.json",
+      "--out",
+      join(dir, "z.json"),
+      "--trials",
+      "-5",
+    ]);
     expect(o.code).toBe(2);
     expect(o.stderr).toMatch(/--trials must be a whole number/);
   });

@@ -25,7 +25,13 @@ function sweepAt(Ca: Float64Array, Cm: Float64Array, inclinationDeg: number, psi
 describe("tilt-compensated compass: published check values", () => {
   it("+1 deg pitch-estimate error, level, psi = 90: exact values at I = 30, 45, 60, 70, 80", () => {
     // REFERENCES.md: compass equations, exact values for a +1 deg pitch-estimate error
-    const want: [number, number][] = [[30, -0.5773], [45, -0.9998], [60, -1.7314], [70, -2.7452], [80, -5.6526]];
+    const want: [number, number][] = [
+      [30, -0.5773],
+      [45, -0.9998],
+      [60, -1.7314],
+      [70, -2.7452],
+      [80, -5.6526],
+    ];
     const Ca = pitchErrorAccel(1);
     for (const [I, e] of want) {
       expect(sweepAt(Ca, I3, I, 90)).toBeCloseTo(e, 4);
@@ -123,7 +129,20 @@ describe("tilt-compensated compass: published check values", () => {
       { yawDeg: 90, bondLine: { heightTol: tol0 }, axisTol: tol0 },
       { yawDeg: -30, bondLine: { heightTol: tol0 }, axisTol: tol0, tiltTol: { x: tol0, y: tol0 } },
     );
-    const m = compileModel(stack, studyOf(study({ headingStepDeg: 5, tilts: [{ pitchDeg: 0, rollDeg: 0 }, { pitchDeg: 60, rollDeg: -45 }, { pitchDeg: -20, rollDeg: 170 }] }), stack));
+    const m = compileModel(
+      stack,
+      studyOf(
+        study({
+          headingStepDeg: 5,
+          tilts: [
+            { pitchDeg: 0, rollDeg: 0 },
+            { pitchDeg: 60, rollDeg: -45 },
+            { pitchDeg: -20, rollDeg: 170 },
+          ],
+        }),
+        stack,
+      ),
+    );
     const s = createScratch(m);
     evaluateTrial(m, new Float64Array(m.drawCount), s);
     for (let k = 0; k < s.C.length; k++) expect(Math.abs(s.C[k] - I3[k % 9])).toBeLessThan(1e-15);
@@ -133,7 +152,12 @@ describe("tilt-compensated compass: published check values", () => {
 
   it("the sweep's rearranged equations equal the step-by-step equations of MODEL.md section 6", () => {
     // exact path held to the literal one, for large and small errors and every tilt class
-    const tilts = [{ pitchDeg: 0, rollDeg: 0 }, { pitchDeg: 30, rollDeg: 0 }, { pitchDeg: -75, rollDeg: 20 }, { pitchDeg: 10, rollDeg: 160 }];
+    const tilts = [
+      { pitchDeg: 0, rollDeg: 0 },
+      { pitchDeg: 30, rollDeg: 0 },
+      { pitchDeg: -75, rollDeg: 20 },
+      { pitchDeg: 10, rollDeg: 160 },
+    ];
     const att = buildAttitudes({ inclinationDeg: 67, headingStepDeg: 15, tilts });
     const out = new Float64Array(att.count);
     for (const size of [1e-4, 0.02, 0.3]) {

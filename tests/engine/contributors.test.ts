@@ -15,7 +15,10 @@ describe("contributors", () => {
     const tilt2 = ((sh / 0.9) ** 2 + (sh / 0.5) ** 2) / DEG ** 2;
     const yaw2 = (0.4 / 3) ** 2;
     const n = 40_960;
-    const r = runStudy(stack, studyOf(study({ trials: n, requirements: [{ metric: "accel~mag.relRotDeg", max: 0.5, yield: 0.99 }] }), stack));
+    const r = runStudy(
+      stack,
+      studyOf(study({ trials: n, requirements: [{ metric: "accel~mag.relRotDeg", max: 0.5, yield: 0.99 }] }), stack),
+    );
     const c = r.contributors[0];
     const share = (id: string) => c.sources.find((s) => s.source === id)!;
     expect(share("mag.bondLine").linearShare).toBeCloseTo(tilt2 / (tilt2 + yaw2), 3);
@@ -34,7 +37,10 @@ describe("contributors", () => {
 
   it("a signed metric: SRC² shares agree with the linearised variance shares; RSS = linear 3σ for 3-sigma normals", () => {
     const n = 40_960;
-    const r = runStudy(stack, studyOf(study({ trials: n, requirements: [{ metric: "gyro.crossAxisPct.xy", max: 1.5, yield: 0.99 }] }), stack));
+    const r = runStudy(
+      stack,
+      studyOf(study({ trials: n, requirements: [{ metric: "gyro.crossAxisPct.xy", max: 1.5, yield: 0.99 }] }), stack),
+    );
     const c = r.contributors[0];
     expect(c.mcDesign).toBe("linear");
     expect(c.mcR2!).toBeGreaterThan(0.95);
@@ -48,6 +54,6 @@ describe("contributors", () => {
     expect(row.worstCase).toBeGreaterThan(row.rss);
     // Monte Carlo 3σ against the linear one: SE of 3·s is 3·s/√(2n) for a near-normal output
     const m = r.metrics["gyro.crossAxisPct.xy"];
-    expect(Math.abs(row.mc3Sigma - row.linear3Sigma)).toBeLessThan(4.5 * (3 * m.std) / Math.sqrt(2 * n) + 0.01 * row.linear3Sigma);
+    expect(Math.abs(row.mc3Sigma - row.linear3Sigma)).toBeLessThan((4.5 * (3 * m.std)) / Math.sqrt(2 * n) + 0.01 * row.linear3Sigma);
   });
 });

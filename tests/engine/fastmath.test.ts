@@ -15,7 +15,8 @@ describe("small-argument series against Math.*", () => {
     for (let i = 0; i < 200_000; i++) {
       const x = rnd() * 10 ** (3 * rnd());
       const y = x * (0.2 * rnd()) + (i % 7 === 0 ? rnd() : 0);
-      const a = atan2Fast(y, x), b = Math.atan2(y, x);
+      const a = atan2Fast(y, x),
+        b = Math.atan2(y, x);
       if (b !== 0) worst = Math.max(worst, ulps(a, b));
       else expect(a).toBe(0);
     }
@@ -25,7 +26,9 @@ describe("small-argument series against Math.*", () => {
   });
 
   it("tanFast, sinFast, cosFast within 2 ulp of Math.tan, Math.sin, Math.cos", () => {
-    let wt = 0, ws = 0, wc = 0;
+    let wt = 0,
+      ws = 0,
+      wc = 0;
     for (let i = 0; i < 200_000; i++) {
       const a = 0.3 * rnd() * 10 ** (-4 * Math.abs(rnd()));
       wt = Math.max(wt, ulps(tanFast(a), Math.tan(a)));
@@ -43,7 +46,8 @@ describe("out-parameter forms used by the trial loop", () => {
     const out = new Float64Array(8);
     const a = new Float64Array(6);
     for (let i = 0; i < 20_000; i++) {
-      const x = rnd() * 3, y = rnd() * 0.5;
+      const x = rnd() * 3,
+        y = rnd() * 0.5;
       atan2To(y, x, out, 0);
       expect(out[0]).toBe(atan2Fast(y, x));
       for (let k = 0; k < 6; k++) a[k] = rnd() * 8;

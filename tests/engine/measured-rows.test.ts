@@ -24,7 +24,12 @@ function oneDie(die: Record<string, unknown>) {
 
 /** Heights h = a + b·x + c·y (um, x and y in mm) at the corners in MODEL.md's order. */
 const corners = (a: number, b: number, c: number, hx = 1, hy = 0.5) =>
-  [[-hx, -hy], [hx, -hy], [hx, hy], [-hx, hy]].map(([x, y]) => a + b * x + c * y);
+  [
+    [-hx, -hy],
+    [hx, -hy],
+    [hx, hy],
+    [-hx, hy],
+  ].map(([x, y]) => a + b * x + c * y);
 
 describe("measured rows", () => {
   it("four corner heights with a known slope give the known tilt (hand computation)", () => {
@@ -61,7 +66,11 @@ describe("measured rows", () => {
   });
 
   it("the study's trials agree with the regenerated ones, and the tilt's x and y stay together", () => {
-    const rows = [[0.1, -0.1], [0.2, 0.2], [-0.3, 0]];
+    const rows = [
+      [0.1, -0.1],
+      [0.2, 0.2],
+      [-0.3, 0],
+    ];
     const st = stackOf(oneDie({ tiltTol: { xy: { dist: "data", rows } } }));
     const sd = studyOf(study({ trials: 300 }), st);
     const r = runStudy(st, sd);
@@ -79,13 +88,54 @@ describe("measured rows", () => {
   });
 
   it("a row of the wrong width, rows on a one-draw tolerance, and tilt xy beside x are refused", () => {
-    const bad = validateStackFile(oneDie({ bondLine: { heightTol: { dist: "data", rows: [[1, 2, 3], [1, 2, 3]] } }, bowUm: { dist: "data", rows: [[1, 2], [3, 4]] }, tiltTol: { x: { dist: "normal", tol: 1 }, xy: { dist: "data", rows: [[1, 2], [3, 4]] } } }));
+    const bad = validateStackFile(
+      oneDie({
+        bondLine: {
+          heightTol: {
+            dist: "data",
+            rows: [
+              [1, 2, 3],
+              [1, 2, 3],
+            ],
+          },
+        },
+        bowUm: {
+          dist: "data",
+          rows: [
+            [1, 2],
+            [3, 4],
+          ],
+        },
+        tiltTol: {
+          x: { dist: "normal", tol: 1 },
+          xy: {
+            dist: "data",
+            rows: [
+              [1, 2],
+              [3, 4],
+            ],
+          },
+        },
+      }),
+    );
     expect(bad.ok).toBe(false);
     const msgs = bad.ok ? [] : bad.issues.map((i) => `${i.path}: ${i.message}`);
     expect(msgs.some((m) => m.includes("bondLine.heightTol.rows") && m.includes("(4), not 3"))).toBe(true);
     expect(msgs.some((m) => m.includes("bowUm.rows"))).toBe(true);
     expect(msgs.some((m) => m.includes("tiltTol.xy") && m.includes("one or the other"))).toBe(true);
-    const uneven = validateStackFile(oneDie({ bondLine: { heightTol: { dist: "data", rows: [[1, 2, 3, 4], [1, 2, 3]] } } }));
+    const uneven = validateStackFile(
+      oneDie({
+        bondLine: {
+          heightTol: {
+            dist: "data",
+            rows: [
+              [1, 2, 3, 4],
+              [1, 2, 3],
+            ],
+          },
+        },
+      }),
+    );
     expect(uneven.ok).toBe(false);
   });
 });

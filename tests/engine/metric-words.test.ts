@@ -22,8 +22,19 @@ describe("metric words", () => {
 
   it("gives cross-axis terms % and angles degrees, as the engine computes them", () => {
     for (const id of ids) expect(metricUnit(id)).toBe(/Pct\./.test(id) ? "%" : "deg");
-    expect(metricInfo("mag.crossAxisPct.xy")).toMatchObject({ unit: "%", unitSymbol: "%", group: "mag", shortLabel: "x←y", label: "mag cross-axis x←y" });
-    expect(metricInfo("accel~mag.relRotDeg")).toMatchObject({ unit: "deg", unitSymbol: "°", group: "Relative rotation", label: "accel ↔ mag relative rotation" });
+    expect(metricInfo("mag.crossAxisPct.xy")).toMatchObject({
+      unit: "%",
+      unitSymbol: "%",
+      group: "mag",
+      shortLabel: "x←y",
+      label: "mag cross-axis x←y",
+    });
+    expect(metricInfo("accel~mag.relRotDeg")).toMatchObject({
+      unit: "deg",
+      unitSymbol: "°",
+      group: "Relative rotation",
+      label: "accel ↔ mag relative rotation",
+    });
   });
 
   it("keeps an unknown id as it is", () => {
@@ -31,7 +42,10 @@ describe("metric words", () => {
   });
 
   it("orders heading first and keeps every id exactly once", () => {
-    const ordered = orderedMetrics(ids, stack.elements.map((e) => e.id));
+    const ordered = orderedMetrics(
+      ids,
+      stack.elements.map((e) => e.id),
+    );
     expect(ordered[0]).toBe("heading.maxAbsDeg");
     expect([...ordered].sort()).toEqual([...ids].sort());
   });

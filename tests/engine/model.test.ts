@@ -47,7 +47,10 @@ describe("stack model: published and defining check values", () => {
 
   it("bond-line wedge D across a die of length L tilts it by atan(D/L): 10 um over 2 mm -> 0.286 deg, over 1 mm -> 0.573 deg", () => {
     // REFERENCES.md, packaging: bond-line wedge
-    for (const [L, want] of [[2, 0.286], [1, 0.573]]) {
+    for (const [L, want] of [
+      [2, 0.286],
+      [1, 0.573],
+    ]) {
       const st = oneDie({ size: { x: L, y: L, z: 0.2 }, bondLine: { heightTol: tol0 } });
       // corners in the order (−x,−y), (x,−y), (x,y), (−x,y): a 10 um wedge along x
       const { out } = evalWith(st, { "die.bondLine": [0, 10, 10, 0] });
@@ -67,22 +70,30 @@ describe("stack model: published and defining check values", () => {
       expect(sc).toBeCloseTo(1e-3 / L, 15);
     }
     // and sampled: the tilt of such a die is Rayleigh in tan, p95 = atan(2.4477·s/L)
-    const s = 4, L = 1, n = 100_000;
+    const s = 4,
+      L = 1,
+      n = 100_000;
     const st = oneDie({ bondLine: { heightTol: { dist: "normal", tol: 3 * s } } });
     const r = runStudy(st, studyOf(study({ trials: n, seed: 5 }), st));
     const sigma = (s * 1e-3) / L;
     const q = 2.4477 * sigma;
     const se = quantileSE(0.95, n, rayleighPdf(q, sigma) * (1 + q * q)) / DEG; // density of atan(slope) in rad
-    expect(Math.abs(r.metrics["die.tiltDeg"].p95 - Math.atan(q) / DEG)).toBeLessThan(4.5 * se + 1e-4 * Math.atan(q) / DEG);
+    expect(Math.abs(r.metrics["die.tiltDeg"].p95 - Math.atan(q) / DEG)).toBeLessThan(4.5 * se + (1e-4 * Math.atan(q)) / DEG);
   });
 
   it("tilt with two independent normal components: Rayleigh percentiles 1.1774, 2.4477, 3.0349, 3.4393 sigma", () => {
     // REFERENCES.md, distributions: Rayleigh quantile sigma·sqrt(−2 ln(1 − p))
-    const sigmaDeg = 0.1, n = 200_000;
+    const sigmaDeg = 0.1,
+      n = 200_000;
     const st = oneDie({ tiltTol: { x: { dist: "normal", tol: 3 * sigmaDeg }, y: { dist: "normal", tol: 3 * sigmaDeg } } });
     const r = runStudy(st, studyOf(study({ trials: n, seed: 11 }), st));
     const got = r.metrics["die.tiltDeg"];
-    const table: [number, number, keyof typeof got][] = [[0.5, 1.1774, "p50"], [0.95, 2.4477, "p95"], [0.99, 3.0349, "p99"], [0.9973, 3.4393, "p9973"]];
+    const table: [number, number, keyof typeof got][] = [
+      [0.5, 1.1774, "p50"],
+      [0.95, 2.4477, "p95"],
+      [0.99, 3.0349, "p99"],
+      [0.9973, 3.4393, "p9973"],
+    ];
     for (const [p, k, key] of table) {
       const q = k * sigmaDeg;
       expect(q).toBeCloseTo(sigmaDeg * Math.sqrt(-2 * Math.log(1 - p)), 5);
@@ -90,7 +101,9 @@ describe("stack model: published and defining check values", () => {
       expect(Math.abs((got[key] as number) - q)).toBeLessThan(4.5 * se);
     }
     // mean sigma·sqrt(pi/2), SE = sd/sqrt(n) with sd = sigma·sqrt(2 − pi/2)
-    expect(Math.abs(got.mean - sigmaDeg * Math.sqrt(Math.PI / 2))).toBeLessThan((4.5 * sigmaDeg * Math.sqrt(2 - Math.PI / 2)) / Math.sqrt(n));
+    expect(Math.abs(got.mean - sigmaDeg * Math.sqrt(Math.PI / 2))).toBeLessThan(
+      (4.5 * sigmaDeg * Math.sqrt(2 - Math.PI / 2)) / Math.sqrt(n),
+    );
   });
 
   it("1 deg of axis misalignment gives 1.75 % cross-axis sensitivity (tan 1 deg)", () => {
@@ -116,10 +129,7 @@ describe("stack model: published and defining check values", () => {
   });
 
   it("placement offsets move an element but do not turn it; yaw errors of two sensors give their relative rotation", () => {
-    const st = compassStack(
-      { placementTol: { xUm: tol0, yUm: tol0, yawDeg: tol0 } },
-      { placementTol: { yawDeg: tol0 } },
-    );
+    const st = compassStack({ placementTol: { xUm: tol0, yUm: tol0, yawDeg: tol0 } }, { placementTol: { yawDeg: tol0 } });
     const { out } = evalWith(st, { "acc.x": [40], "acc.y": [-25], "acc.yaw": [0.3], "mag.yaw": [-0.2] });
     expect(out["acc~mag.relRotDeg"]).toBeCloseTo(0.5, 12);
     expect(out["acc.tiltDeg"]).toBe(0);

@@ -12,7 +12,12 @@ describe("palette", () => {
   });
 
   it("leaves no palette colour written out again in the theme, the charts, the 3D view or the PDF", () => {
-    const files = ["frontend/styles/app.css", "frontend/features/studies/components/chart-theme.ts", "frontend/features/viewer3d/lib/palette.ts", "backend/services/pdf-draw.ts"];
+    const files = [
+      "frontend/styles/app.css",
+      "frontend/features/studies/components/chart-theme.ts",
+      "frontend/features/viewer3d/lib/palette.ts",
+      "backend/services/pdf-draw.ts",
+    ];
     for (const file of files) {
       const text = read(file).toLowerCase();
       for (const hex of Object.values(PALETTE)) expect(text, `${file} repeats ${hex}`).not.toContain(hex);

@@ -28,7 +28,8 @@ describe("engine pool", () => {
     let startShort!: () => void;
     const shortMayStart = new Promise<void>((r) => (startShort = r));
     const long = pool.run(stack, base, {
-      trials: longTotal, owner: "alice",
+      trials: longTotal,
+      owner: "alice",
       onProgress: (p) => {
         longDone = p.trialsDone;
         if (p.trialsDone >= 2 * 4096) startShort();
@@ -48,7 +49,8 @@ describe("engine pool", () => {
     const before = pool.threadsForTest().map((w) => w.threadId);
     let killed = false;
     const r = await pool.run(stack, base, {
-      trials: 10 * 4096, seed: 21,
+      trials: 10 * 4096,
+      seed: 21,
       onProgress: (p) => {
         if (!killed && p.trialsDone >= 3 * 4096) {
           killed = true;
@@ -66,8 +68,12 @@ describe("engine pool", () => {
   it("cancelling one study leaves another one running to its exact result", async () => {
     const ctl = new AbortController();
     const cancelled = pool.run(stack, base, {
-      trials: 30 * 4096, owner: "carol", signal: ctl.signal,
-      onProgress: (p) => { if (p.trialsDone >= 2 * 4096) ctl.abort(); },
+      trials: 30 * 4096,
+      owner: "carol",
+      signal: ctl.signal,
+      onProgress: (p) => {
+        if (p.trialsDone >= 2 * 4096) ctl.abort();
+      },
     });
     const other = pool.run(stack, base, { trials: 5 * 4096, owner: "dave", seed: 8 });
     await expect(cancelled).rejects.toBeInstanceOf(StudyAbortedError);

@@ -7,7 +7,13 @@ import { normInv, compileDist, sampleDist } from "@shared/engine/distributions";
 // (Blackman and Vigna, public domain), see tests/engine/reference/xoshiro128ss-reference.c.
 const XOSHIRO_1234 = [11520, 0, 5927040, 70819200, 2031721883, 1637235492, 1287239034, 3734860849, 3729100597, 4258142804];
 const XOSHIRO_AFTER_JUMP = [3637068021, 4046953083, 519179613, 3034282689, 1958767868];
-const SPLITMIX_1234567 = ["6457827717110365317", "3203168211198807973", "9817491932198370423", "4593380528125082431", "16408922859458223821"];
+const SPLITMIX_1234567 = [
+  "6457827717110365317",
+  "3203168211198807973",
+  "9817491932198370423",
+  "4593380528125082431",
+  "16408922859458223821",
+];
 const SPLITMIX_0 = ["16294208416658607535", "7960286522194355700", "487617019471545679"];
 
 const big = (x: U64) => (BigInt(x.hi) << 32n) | BigInt(x.lo);
@@ -30,7 +36,10 @@ describe("xoshiro128** and splitmix64 against their authors' reference output", 
   it("splitmix64 in 32-bit halves matches the 64-bit reference", () => {
     // reference/xoshiro128ss-reference.c; the 1234567 sequence is also the one commonly
     // published for splitmix64 (6457827717110365317, 3203168211198807973, ...)
-    for (const [seed, want] of [[1234567, SPLITMIX_1234567], [0, SPLITMIX_0]] as const) {
+    for (const [seed, want] of [
+      [1234567, SPLITMIX_1234567],
+      [0, SPLITMIX_0],
+    ] as const) {
       const s = new SplitMix64(0, seed);
       const out: U64 = { hi: 0, lo: 0 };
       expect(want.map(() => big(s.next(out)).toString())).toEqual(want);
@@ -48,7 +57,8 @@ describe("xoshiro128** and splitmix64 against their authors' reference output", 
     };
     const g = new Xoshiro128ss(9, 8, 7, 6);
     for (let t = 0; t < 200; t++) {
-      const hi = g.nextU32(), lo = g.nextU32();
+      const hi = g.nextU32(),
+        lo = g.nextU32();
       let x = (BigInt(hi) << 32n) | BigInt(lo);
       const s = new SplitMix64(hi, lo);
       const out: U64 = { hi: 0, lo: 0 };
@@ -61,7 +71,10 @@ describe("xoshiro128** and splitmix64 against their authors' reference output", 
   });
 
   it("block streams depend on seed and block only, and differ between blocks", () => {
-    const a = blockStream(7, 3), b = blockStream(7, 3), c = blockStream(7, 4), d = blockStream(8, 3);
+    const a = blockStream(7, 3),
+      b = blockStream(7, 3),
+      c = blockStream(7, 4),
+      d = blockStream(8, 3);
     const take = (g: Xoshiro128ss) => Array.from({ length: 8 }, () => g.nextU32());
     const ta = take(a);
     expect(take(b)).toEqual(ta);
@@ -72,13 +85,19 @@ describe("xoshiro128** and splitmix64 against their authors' reference output", 
   it("open uniforms stay inside (0, 1) and have mean 1/2, variance 1/12", () => {
     const g = blockStream(1, 0);
     const n = 200_000;
-    let s = 0, s2 = 0, lo = 1, hi = 0;
+    let s = 0,
+      s2 = 0,
+      lo = 1,
+      hi = 0;
     for (let i = 0; i < n; i++) {
       const u = g.nextOpen01();
-      s += u; s2 += u * u;
-      lo = Math.min(lo, u); hi = Math.max(hi, u);
+      s += u;
+      s2 += u * u;
+      lo = Math.min(lo, u);
+      hi = Math.max(hi, u);
     }
-    const mean = s / n, v = s2 / n - mean * mean;
+    const mean = s / n,
+      v = s2 / n - mean * mean;
     expect(lo).toBeGreaterThan(0);
     expect(hi).toBeLessThan(1);
     // standard errors: sqrt(1/12/n) for the mean, sqrt(1/180/n) for the variance of U(0,1)
@@ -126,12 +145,15 @@ describe("distributions", () => {
     const tri = compileDist({ dist: "triangular", tol: 1 });
     const data = compileDist({ dist: "data", values: [1, 2, 3, 4] });
     const n = 100_000;
-    let s2 = 0, sd = 0, sd2 = 0;
+    let s2 = 0,
+      sd = 0,
+      sd2 = 0;
     for (let i = 0; i < n; i++) {
       const x = sampleDist(tri, g.nextOpen01());
       s2 += x * x;
       const y = sampleDist(data, g.nextOpen01());
-      sd += y; sd2 += y * y;
+      sd += y;
+      sd2 += y * y;
     }
     // var of a symmetric triangular on ±1 is 1/6; SE of a variance estimate sqrt((m4 − σ⁴)/n), m4 = 1/15
     expect(Math.abs(s2 / n - 1 / 6)).toBeLessThan(5 * Math.sqrt((1 / 15 - 1 / 36) / n));

@@ -47,7 +47,8 @@ function kurtosis(v: Float64Array): number {
   let mean = 0;
   for (const x of v) mean += x;
   mean /= v.length;
-  let m2 = 0, m4 = 0;
+  let m2 = 0,
+    m4 = 0;
   for (const x of v) {
     const d = (x - mean) ** 2;
     m2 += d;
@@ -72,10 +73,12 @@ async function compare(studyName: string) {
   const exp = fixture(`${studyName}.expected.json`) as Expected;
   const r = await runStudyOnThreads(stack, study, { trials: N, threads: 2 });
   const pil = pilot(study);
-  const n1 = r.trials, n2 = exp.trials;
+  const n1 = r.trials,
+    n2 = exp.trials;
   const fails: string[] = [];
   let checks = 0;
-  let worstZ = 0, worstWhat = "";
+  let worstZ = 0,
+    worstWhat = "";
   const check = (what: string, got: number, want: number, se: number) => {
     checks++;
     const z = Math.abs(got - want) / se;
@@ -83,17 +86,23 @@ async function compare(studyName: string) {
       worstZ = z;
       worstWhat = what;
     }
-    if (!(Math.abs(got - want) <= Z * se)) fails.push(`${what}: ${got} vs ${want} (|Δ| = ${Math.abs(got - want).toExponential(2)}, allowed ${(Z * se).toExponential(2)})`);
+    if (!(Math.abs(got - want) <= Z * se))
+      fails.push(`${what}: ${got} vs ${want} (|Δ| = ${Math.abs(got - want).toExponential(2)}, allowed ${(Z * se).toExponential(2)})`);
   };
   expect(Object.keys(r.metrics).sort()).toEqual(Object.keys(exp.metrics).sort());
   for (const [id, e] of Object.entries(exp.metrics)) {
     const g = r.metrics[id];
     const raw = pil.get(id)!;
     const abs = Float64Array.from(raw, Math.abs).sort();
-    check(`${id} mean`, g.mean, e.mean, Math.sqrt((g.std ** 2) / n1 + (e.std ** 2) / n2));
+    check(`${id} mean`, g.mean, e.mean, Math.sqrt(g.std ** 2 / n1 + e.std ** 2 / n2));
     const k = kurtosis(raw);
     check(`${id} std`, g.std, e.std, Math.sqrt(((k - 1) / 4) * (g.std ** 2 / n1 + e.std ** 2 / n2)));
-    for (const [key, p] of [["p50", 0.5], ["p95", 0.95], ["p99", 0.99], ["p9973", 0.9973]] as const) {
+    for (const [key, p] of [
+      ["p50", 0.5],
+      ["p95", 0.95],
+      ["p99", 0.99],
+      ["p9973", 0.9973],
+    ] as const) {
       const f = densityAt(abs, p);
       check(`${id} ${key}`, g[key], e[key], Math.sqrt(p * (1 - p) * (1 / n1 + 1 / n2)) / f);
     }
@@ -103,7 +112,8 @@ async function compare(studyName: string) {
     const p = req.predictedYield;
     check(`${req.metric} yield`, g.predictedYield, p, Math.sqrt(p * (1 - p) * (1 / n1 + 1 / n2)));
   }
-  if (process.env.ORTHOSTACK_REPORT) process.stdout.write(`${studyName}: ${checks} checks, largest |Δ|/SE = ${worstZ.toFixed(2)} (${worstWhat})\n`);
+  if (process.env.ORTHOSTACK_REPORT)
+    process.stdout.write(`${studyName}: ${checks} checks, largest |Δ|/SE = ${worstZ.toFixed(2)} (${worstWhat})\n`);
   return { fails, checks };
 }
 

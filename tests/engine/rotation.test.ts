@@ -53,7 +53,8 @@ describe("rotations against three.js", () => {
 
   it("tiltTo of a plane z = a + b·x + c·y is rot(atan(√(b²+c²))·(c, −b, 0)/√(b²+c²)) (MODEL.md section 2)", () => {
     for (let t = 0; t < 50; t++) {
-      const b = 0.05 * rnd(), c = 0.05 * rnd();
+      const b = 0.05 * rnd(),
+        c = 0.05 * rnd();
       const s = Math.hypot(b, c);
       const th = Math.atan(s);
       const viaRot = rotVec((th * c) / s, (-th * b) / s, 0, mat3());
@@ -75,7 +76,8 @@ describe("rotations against three.js", () => {
 
   it("products, transposes and the general inverse equal three's Matrix4 results", () => {
     for (let t = 0; t < 20; t++) {
-      const a = Float64Array.from({ length: 9 }, rnd), b = Float64Array.from({ length: 9 }, rnd);
+      const a = Float64Array.from({ length: 9 }, rnd),
+        b = Float64Array.from({ length: 9 }, rnd);
       expect(maxDiff(mul(a, b, mat3()), fromThree(toThree(a).multiply(toThree(b))))).toBeLessThan(1e-15);
       expect(maxDiff(mulTA(a, b, mat3()), fromThree(toThree(a).transpose().multiply(toThree(b))))).toBeLessThan(1e-15);
       expect(maxDiff(mulTB(a, b, mat3()), fromThree(toThree(a).multiply(toThree(b).transpose())))).toBeLessThan(1e-15);
@@ -95,7 +97,8 @@ describe("rotations against three.js", () => {
       for (let t = 0; t < 10; t++) {
         const va = new THREE.Vector3(rnd(), rnd(), rnd()).setLength(scale);
         const vb = new THREE.Vector3(rnd(), rnd(), rnd()).setLength(scale);
-        const A = rotVec(va.x, va.y, va.z, mat3()), B = rotVec(vb.x, vb.y, vb.z, mat3());
+        const A = rotVec(va.x, va.y, va.z, mat3()),
+          B = rotVec(vb.x, vb.y, vb.z, mat3());
         expect(rotationAngle(A)).toBeCloseTo(va.length(), 14);
         const qa = new THREE.Quaternion().setFromAxisAngle(va.clone().normalize(), va.length());
         const qb = new THREE.Quaternion().setFromAxisAngle(vb.clone().normalize(), vb.length());

@@ -14,7 +14,10 @@ function issuesOf(json: unknown): FieldIssue[] {
 }
 
 function has(issues: FieldIssue[], path: string, text: RegExp) {
-  expect(issues.some((i) => i.path === path && text.test(i.message)), JSON.stringify(issues, null, 1)).toBe(true);
+  expect(
+    issues.some((i) => i.path === path && text.test(i.message)),
+    JSON.stringify(issues, null, 1),
+  ).toBe(true);
 }
 
 describe("stack file validation", () => {
@@ -63,13 +66,24 @@ describe("stack file validation", () => {
 
   it("support point outside the footprint, and fewer than three supports", () => {
     const j = base();
-    j.elements[5].bondLine.supports = [{ x: -0.4, y: -0.2 }, { x: 0.6, y: -0.2 }, { x: 0, y: 0.2 }];
+    j.elements[5].bondLine.supports = [
+      { x: -0.4, y: -0.2 },
+      { x: 0.6, y: -0.2 },
+      { x: 0, y: 0.2 },
+    ];
     has(issuesOf(j), "elements[5].bondLine.supports[1]", /outside the 0\.9 x 0\.5 mm footprint of "mag"/);
     const k = base();
-    k.elements[5].bondLine.supports = [{ x: -0.4, y: -0.2 }, { x: 0.4, y: -0.2 }];
+    k.elements[5].bondLine.supports = [
+      { x: -0.4, y: -0.2 },
+      { x: 0.4, y: -0.2 },
+    ];
     has(issuesOf(k), "elements[5].bondLine.supports", /at least three/);
     const c = base();
-    c.elements[5].bondLine.supports = [{ x: -0.4, y: 0 }, { x: 0, y: 0 }, { x: 0.4, y: 0 }];
+    c.elements[5].bondLine.supports = [
+      { x: -0.4, y: 0 },
+      { x: 0, y: 0 },
+      { x: 0.4, y: 0 },
+    ];
     has(issuesOf(c), "elements[5].bondLine.supports", /one line/);
   });
 
@@ -124,7 +138,14 @@ describe("study file validation", () => {
   });
 
   it("a requirement on a metric the stack does not have", () => {
-    const is = studyIssues(study({ requirements: [{ metric: "magnet.tiltDeg", max: 1, yield: 0.99 }, { metric: "asic.crossAxisPct.xy", max: 1, yield: 0.99 }] }));
+    const is = studyIssues(
+      study({
+        requirements: [
+          { metric: "magnet.tiltDeg", max: 1, yield: 0.99 },
+          { metric: "asic.crossAxisPct.xy", max: 1, yield: 0.99 },
+        ],
+      }),
+    );
     has(is, "requirements[0].metric", /no metric "magnet.tiltDeg": there is no element "magnet"/);
     has(is, "requirements[1].metric", /only sensors have cross-axis/);
   });
@@ -138,7 +159,11 @@ describe("study file validation", () => {
       ],
     });
     has(studyIssues(study({ heading: true }), gyroOnly), "heading", /needs an accelerometer and a magnetometer/);
-    has(studyIssues(study({ requirements: [{ metric: "heading.maxAbsDeg", max: 1, yield: 0.9 }] }), gyroOnly), "requirements[0].metric", /needs an accelerometer and a magnetometer/);
+    has(
+      studyIssues(study({ requirements: [{ metric: "heading.maxAbsDeg", max: 1, yield: 0.9 }] }), gyroOnly),
+      "requirements[0].metric",
+      /needs an accelerometer and a magnetometer/,
+    );
     has(studyIssues(study({ headingSensors: { accel: "g", mag: "board" } }), gyroOnly), "headingSensors.accel", /not an accelerometer/);
     // without a heading request, such a stack is fine
     expect(validateStudy(study(), gyroOnly).ok).toBe(true);

@@ -21,7 +21,10 @@ function crossAxis(a: number, b: number, c: number, skew: number): Float64Array 
 describe("screened sweep, one trial at a time", () => {
   it("max |e| and RMS equal the exact sweep's to 1e-9 of their value, small and large errors alike", () => {
     const tilts = [
-      { pitchDeg: 0, rollDeg: 0 }, { pitchDeg: 75, rollDeg: 0 }, { pitchDeg: -60, rollDeg: 45 }, { pitchDeg: 20, rollDeg: -85 },
+      { pitchDeg: 0, rollDeg: 0 },
+      { pitchDeg: 75, rollDeg: 0 },
+      { pitchDeg: -60, rollDeg: 45 },
+      { pitchDeg: 20, rollDeg: -85 },
     ];
     let wide = 0;
     for (const inclinationDeg of [0, 60, 85, -70]) {
@@ -72,22 +75,55 @@ describe("screened and exact studies report the same figures", () => {
   // Monte Carlo error of a percentile at these sizes is of the order of 1 %; the two paths
   // differ by rounding only (the series above), so 1e-6 is far inside it.
   const cases: [string, () => ResultFile[]][] = [
-    ["the reference stack and study", () => {
-      const stack = referenceStack();
-      const base = fixture("study-reference.json") as Record<string, unknown>;
-      return ["screened", "exact"].map((h) => runStudy(stack, studyOf({ ...base, headingEvaluation: h }, stack), { trials: 12_000 }));
-    }],
-    ["large tilts, inclination 80 deg, errors of several degrees", () => {
-      const stack = compassStack({ axisTol: { dist: "normal", tol: 2.5 } }, { axisTol: { dist: "normal", tol: 2 }, tiltTol: { x: { dist: "normal", tol: 1.5 }, y: { dist: "uniform", tol: 1.5 } } });
-      const tilts = [{ pitchDeg: 0, rollDeg: 0 }, { pitchDeg: 70, rollDeg: 0 }, { pitchDeg: -70, rollDeg: 0 }, { pitchDeg: 0, rollDeg: 80 }, { pitchDeg: 45, rollDeg: -60 }];
-      return ["screened", "exact"].map((h) =>
-        runStudy(stack, studyOf(study({ trials: 12_000, seed: 5, inclinationDeg: 80, tilts, headingEvaluation: h, requirements: [{ metric: "heading.maxAbsDeg", max: 10, yield: 0.9 }] }), stack)),
-      );
-    }],
-    ["high southern inclination, small errors", () => {
-      const stack = compassStack({ axisTol: { dist: "normal", tol: 0.05 } }, { axisTol: { dist: "normal", tol: 0.05 } });
-      return ["screened", "exact"].map((h) => runStudy(stack, studyOf(study({ trials: 9000, seed: 2, inclinationDeg: -75, headingEvaluation: h }), stack)));
-    }],
+    [
+      "the reference stack and study",
+      () => {
+        const stack = referenceStack();
+        const base = fixture("study-reference.json") as Record<string, unknown>;
+        return ["screened", "exact"].map((h) => runStudy(stack, studyOf({ ...base, headingEvaluation: h }, stack), { trials: 12_000 }));
+      },
+    ],
+    [
+      "large tilts, inclination 80 deg, errors of several degrees",
+      () => {
+        const stack = compassStack(
+          { axisTol: { dist: "normal", tol: 2.5 } },
+          { axisTol: { dist: "normal", tol: 2 }, tiltTol: { x: { dist: "normal", tol: 1.5 }, y: { dist: "uniform", tol: 1.5 } } },
+        );
+        const tilts = [
+          { pitchDeg: 0, rollDeg: 0 },
+          { pitchDeg: 70, rollDeg: 0 },
+          { pitchDeg: -70, rollDeg: 0 },
+          { pitchDeg: 0, rollDeg: 80 },
+          { pitchDeg: 45, rollDeg: -60 },
+        ];
+        return ["screened", "exact"].map((h) =>
+          runStudy(
+            stack,
+            studyOf(
+              study({
+                trials: 12_000,
+                seed: 5,
+                inclinationDeg: 80,
+                tilts,
+                headingEvaluation: h,
+                requirements: [{ metric: "heading.maxAbsDeg", max: 10, yield: 0.9 }],
+              }),
+              stack,
+            ),
+          ),
+        );
+      },
+    ],
+    [
+      "high southern inclination, small errors",
+      () => {
+        const stack = compassStack({ axisTol: { dist: "normal", tol: 0.05 } }, { axisTol: { dist: "normal", tol: 0.05 } });
+        return ["screened", "exact"].map((h) =>
+          runStudy(stack, studyOf(study({ trials: 9000, seed: 2, inclinationDeg: -75, headingEvaluation: h }), stack)),
+        );
+      },
+    ],
   ];
   for (const [name, run] of cases) {
     it(name, () => {

@@ -47,12 +47,13 @@ describe("bounded percentile store", () => {
     const normal = compileDist({ dist: "normal", tol: 3 });
     const density = {
       normal: (q: number) => 2 * jStat.normal.pdf(q, 0, 1), // |N(0,1)|
-      rayleigh: (q: number) => q * Math.exp(-q * q / 2),
+      rayleigh: (q: number) => q * Math.exp((-q * q) / 2),
     };
     for (const kind of ["normal", "rayleigh"] as const) {
       const h = metricStore();
       const abs = new Float64Array(n);
-      let mn = Infinity, mx = 0;
+      let mn = Infinity,
+        mx = 0;
       for (let i = 0; i < n; i++) {
         const x = sampleDist(normal, g.nextOpen01());
         const v = kind === "normal" ? x : Math.hypot(x, sampleDist(normal, g.nextOpen01()));
@@ -74,15 +75,21 @@ describe("bounded percentile store", () => {
   });
 
   it("merging stores adds counts exactly, in any order", () => {
-    const a = metricStore(), b = metricStore(), c = metricStore();
+    const a = metricStore(),
+      b = metricStore(),
+      c = metricStore();
     const g = blockStream(5, 1);
     for (let i = 0; i < 5000; i++) {
       const v = (g.nextOpen01() - 0.5) * 10;
       (i % 2 ? a : b).add(v);
       c.add(v);
     }
-    const ab = metricStore(); ab.merge(a); ab.merge(b);
-    const ba = metricStore(); ba.merge(b); ba.merge(a);
+    const ab = metricStore();
+    ab.merge(a);
+    ab.merge(b);
+    const ba = metricStore();
+    ba.merge(b);
+    ba.merge(a);
     expect(ab.counts).toEqual(c.counts);
     expect(ba.counts).toEqual(c.counts);
   });
@@ -94,13 +101,18 @@ describe("sampling and coverage intervals against JCGM 101:2008 (GUM Supplement 
     const ds = dists.map((d) => compileDist(d));
     const g = blockStream(2008, 0);
     const h = metricStore();
-    let s = 0, s2 = 0, mn = Infinity, mx = -Infinity;
+    let s = 0,
+      s2 = 0,
+      mn = Infinity,
+      mx = -Infinity;
     for (let i = 0; i < n; i++) {
       let y = 0;
       for (const d of ds) y += sampleDist(d, g.nextOpen01());
       h.add(y);
-      s += y; s2 += y * y;
-      mn = Math.min(mn, y); mx = Math.max(mx, y);
+      s += y;
+      s2 += y * y;
+      mn = Math.min(mn, y);
+      mx = Math.max(mx, y);
     }
     const u = Math.sqrt((s2 - (s * s) / n) / (n - 1));
     return { u, lo: h.quantileSigned(0.025, mn, mx), hi: h.quantileSigned(0.975, mn, mx), n };
@@ -131,7 +143,9 @@ describe("sampling and coverage intervals against JCGM 101:2008 (GUM Supplement 
   it("X4 rectangular with u = 10, the others normal u = 1: u(y) = 10.2, interval [-17.0, 17.0]", () => {
     // REFERENCES.md: JCGM 101:2008 section 9.2.4 (listed there as from memory): values to 0.1
     const r = additive([
-      { dist: "normal", tol: 3 }, { dist: "normal", tol: 3 }, { dist: "normal", tol: 3 },
+      { dist: "normal", tol: 3 },
+      { dist: "normal", tol: 3 },
+      { dist: "normal", tol: 3 },
       { dist: "uniform", tol: 10 * Math.sqrt(3) },
     ]);
     expect(Math.abs(r.u - 10.2)).toBeLessThan(0.05 + 4.5 * (10 / Math.sqrt(r.n)));
@@ -144,7 +158,8 @@ describe("sampling and coverage intervals against JCGM 101:2008 (GUM Supplement 
 
 describe("Latin hypercube and adaptive stopping", () => {
   it("each dimension of a Latin-hypercube block has exactly one point per stratum", () => {
-    const n = 1000, D = 7;
+    const n = 1000,
+      D = 7;
     const u = lhsUniforms(blockStream(4, 2), n, D);
     for (let k = 0; k < D; k++) {
       const seen = new Uint8Array(n);
@@ -158,7 +173,8 @@ describe("Latin hypercube and adaptive stopping", () => {
     const n = 40_000;
     const lhs = runStudy(st, studyOf(study({ trials: n, sampling: "lhs" }), st));
     const rnd = runStudy(st, studyOf(study({ trials: n }), st));
-    const a = lhs.metrics["acc.crossAxisPct.xy"], b = rnd.metrics["acc.crossAxisPct.xy"];
+    const a = lhs.metrics["acc.crossAxisPct.xy"],
+      b = rnd.metrics["acc.crossAxisPct.xy"];
     // true mean 0 by symmetry; random sampling's SE is s/√n, the hypercube's far smaller
     expect(Math.abs(b.mean)).toBeLessThan((4.5 * b.std) / Math.sqrt(n));
     expect(Math.abs(a.mean)).toBeLessThan((0.2 * a.std) / Math.sqrt(n));
@@ -177,7 +193,10 @@ describe("Latin hypercube and adaptive stopping", () => {
 
   it("an adaptive study stops when every tracked quantity is stable and reports the trials it used", () => {
     const st = compassStack({ axisTol: { dist: "normal", tol: 0.6 } }, { bondLine: { heightTol: { dist: "normal", tol: 4 } } });
-    const sd = studyOf(study({ trials: 400_000, adaptive: { significantDigits: 1 }, requirements: [{ metric: "heading.maxAbsDeg", max: 2, yield: 0.95 }] }), st);
+    const sd = studyOf(
+      study({ trials: 400_000, adaptive: { significantDigits: 1 }, requirements: [{ metric: "heading.maxAbsDeg", max: 2, yield: 0.95 }] }),
+      st,
+    );
     const r = runStudy(st, sd);
     const a = r.adaptive!;
     expect(a.converged).toBe(true);

@@ -28,7 +28,10 @@ describe("same seed, same numbers, whatever the number of threads", () => {
 
   it("adaptive stopping takes the same decision on threads as in-process", async () => {
     const st = compassStack({ axisTol: { dist: "normal", tol: 0.6 } }, { bondLine: { heightTol: { dist: "normal", tol: 4 } } });
-    const sd = studyOf(study({ trials: 200_000, adaptive: { significantDigits: 1 }, requirements: [{ metric: "heading.maxAbsDeg", max: 2, yield: 0.95 }] }), st);
+    const sd = studyOf(
+      study({ trials: 200_000, adaptive: { significantDigits: 1 }, requirements: [{ metric: "heading.maxAbsDeg", max: 2, yield: 0.95 }] }),
+      st,
+    );
     const threads = await runStudyOnThreads(st, sd, { threads: 2 });
     const inProc = runStudy(st, sd);
     expect(threads.adaptive!.runs).toBeGreaterThanOrEqual(2);
@@ -42,8 +45,12 @@ describe("same seed, same numbers, whatever the number of threads", () => {
     expect(seen.every((v, i) => i === 0 || v > seen[i - 1])).toBe(true);
     const ctl = new AbortController();
     const run = runStudyOnThreads(stack, baseStudy, {
-      trials: 2_000_000, threads: 2, signal: ctl.signal,
-      onProgress: (p) => { if (p.trialsDone >= 8192) ctl.abort(); },
+      trials: 2_000_000,
+      threads: 2,
+      signal: ctl.signal,
+      onProgress: (p) => {
+        if (p.trialsDone >= 8192) ctl.abort();
+      },
     });
     await expect(run).rejects.toBeInstanceOf(StudyAbortedError);
   });

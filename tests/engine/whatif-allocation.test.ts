@@ -28,7 +28,7 @@ function closedForm(A: number[], b: number[], k: number, S: number): number[] {
 
 /** An additive stack y = Σ c_j x_j of independent normals, x_j with ±T_j = 3σ_j: exact yield and percentiles. */
 function additive(c: number[]) {
-  const sigmaY = (T: number[]) => Math.sqrt(T.reduce((acc, t, j) => acc + (c[j] * t / 3) ** 2, 0));
+  const sigmaY = (T: number[]) => Math.sqrt(T.reduce((acc, t, j) => acc + ((c[j] * t) / 3) ** 2, 0));
   return {
     A: c.map((cj) => (cj / 3) ** 2),
     yieldAt: (T: number[], max: number) => 2 * jStat.normal.cdf(max / sigmaY(T), 0, 1) - 1,
@@ -38,9 +38,15 @@ function additive(c: number[]) {
 
 describe("least-cost allocation on the linearised model (Lagrange multipliers)", () => {
   it("one RSS condition, three sources, k = 2: the solver gives the closed form and nothing cheaper meets the condition", () => {
-    const A = [1, 0.25, 4], b = [2, 1, 0.5], k = 2, S = 1.2;
+    const A = [1, 0.25, 4],
+      b = [2, 1, 0.5],
+      k = 2,
+      S = 1.2;
     const want = closedForm(A, b, k, S);
-    const got = leastCost(A.map((a, j) => ({ id: `s${j}`, A: [a], cost: { a: 0.1, b: b[j], k }, min: 1e-6, max: 1e6 })), [S * S]);
+    const got = leastCost(
+      A.map((a, j) => ({ id: `s${j}`, A: [a], cost: { a: 0.1, b: b[j], k }, min: 1e-6, max: 1e6 })),
+      [S * S],
+    );
     want.forEach((t, j) => expect(got.T[j]).toBeCloseTo(t, 8));
     expect(A.reduce((acc, a, j) => acc + a * got.T[j] ** 2, 0)).toBeCloseTo(S * S, 10);
     // moving along the condition (tighten one, loosen another to keep Σ A T² = S²) costs more
@@ -54,8 +60,14 @@ describe("least-cost allocation on the linearised model (Lagrange multipliers)",
   });
 
   it("a dominant source takes most of the tightening: T_j ∝ (b_j/A_j)^(1/(k+2))", () => {
-    const A = [100, 1, 1], b = [1, 1, 1], k = 1, S = 2;
-    const got = leastCost(A.map((a, j) => ({ id: `s${j}`, A: [a], cost: { a: 0, b: b[j], k }, min: 1e-9, max: 1e9 })), [S * S]);
+    const A = [100, 1, 1],
+      b = [1, 1, 1],
+      k = 1,
+      S = 2;
+    const got = leastCost(
+      A.map((a, j) => ({ id: `s${j}`, A: [a], cost: { a: 0, b: b[j], k }, min: 1e-9, max: 1e9 })),
+      [S * S],
+    );
     expect(got.T[0] / got.T[1]).toBeCloseTo((1 / 100) ** (1 / 3), 8);
     expect(got.T[1]).toBeCloseTo(got.T[2], 10);
     // its share of the variance stays the largest: A_j T_j² ∝ A_j^(1/3) for k = 1
@@ -63,10 +75,16 @@ describe("least-cost allocation on the linearised model (Lagrange multipliers)",
   });
 
   it("a source held at its upper bound: the others share what is left of the budget, by the same closed form", () => {
-    const A = [1, 1, 1], b = [1, 1, 50], k = 2, S = 1;
+    const A = [1, 1, 1],
+      b = [1, 1, 50],
+      k = 2,
+      S = 1;
     const free = closedForm(A, b, k, S);
     const cap = free[2] * 0.6; // the expensive source would like to be wider than it may be
-    const got = leastCost(A.map((a, j) => ({ id: `s${j}`, A: [a], cost: { a: 0, b: b[j], k }, min: 1e-9, max: j === 2 ? cap : 1e9 })), [S * S]);
+    const got = leastCost(
+      A.map((a, j) => ({ id: `s${j}`, A: [a], cost: { a: 0, b: b[j], k }, min: 1e-9, max: j === 2 ? cap : 1e9 })),
+      [S * S],
+    );
     expect(got.T[2]).toBeCloseTo(cap, 12);
     const rest = closedForm(A.slice(0, 2), b.slice(0, 2), k, Math.sqrt(S * S - A[2] * cap * cap));
     expect(got.T[0]).toBeCloseTo(rest[0], 8);
@@ -90,9 +108,21 @@ describe("least-cost allocation on the linearised model (Lagrange multipliers)",
   });
 
   it("the verify-and-correct loop on an exact additive stack ends at the closed form for the probe yield", async () => {
-    const c = [2, 1, 0.5], b = [1, 2, 3], k = 2, max = 1, target = 0.99, trials = 100_000;
+    const c = [2, 1, 0.5],
+      b = [1, 2, 3],
+      k = 2,
+      max = 1,
+      target = 0.99,
+      trials = 100_000;
     const model = additive(c);
-    const sources: LoopSource[] = c.map((_, j) => ({ id: `s${j}`, current: 0.2, free: true, cost: { a: 0.05, b: b[j], k }, min: 1e-4, max: 10 }));
+    const sources: LoopSource[] = c.map((_, j) => ({
+      id: `s${j}`,
+      current: 0.2,
+      free: true,
+      cost: { a: 0.05, b: b[j], k },
+      min: 1e-4,
+      max: 10,
+    }));
     const out = await allocate({
       sources,
       requirements: [{ metric: "y", max, yield: target }],
@@ -100,7 +130,15 @@ describe("least-cost allocation on the linearised model (Lagrange multipliers)",
       // an exact model stands in for the Monte Carlo run: yields as a run of `trials` would report them
       verify: async (T, probes) => {
         const y = model.yieldAt(T, max);
-        return [{ predictedYield: y, ci: wilson(y * trials, trials), passes: y >= target, probeLimit: model.percentile(T, probes[0]), limitAtTarget: model.percentile(T, target) }];
+        return [
+          {
+            predictedYield: y,
+            ci: wilson(y * trials, trials),
+            passes: y >= target,
+            probeLimit: model.percentile(T, probes[0]),
+            limitAtTarget: model.percentile(T, target),
+          },
+        ];
       },
       trials,
     });

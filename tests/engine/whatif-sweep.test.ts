@@ -37,7 +37,8 @@ describe("sweeps", () => {
     // common random numbers: the same trials at every point, so each requirement fed by the
     // axis falls monotonically (no sampling noise between points)
     for (const k of [0, 1]) {
-      for (let i = 1; i < points.length; i++) expect(points[i].requirements[k].predictedYield).toBeLessThanOrEqual(points[i - 1].requirements[k].predictedYield);
+      for (let i = 1; i < points.length; i++)
+        expect(points[i].requirements[k].predictedYield).toBeLessThanOrEqual(points[i - 1].requirements[k].predictedYield);
       expect(points[3].requirements[k].predictedYield).toBeLessThan(points[0].requirements[k].predictedYield);
     }
   }, 60_000);
@@ -47,9 +48,24 @@ describe("sweeps", () => {
     // so max over headings ≈ |eps|·tan(I). eps ~ N(0, σ): the median of the max is 0.6745·σ·tan(I).
     const sigma = 0.1; // deg
     const stack = compassStack({}, { tiltTol: { x: { dist: "normal", tol: 3 * sigma } } });
-    const st = studyOf(study({ trials: 20_000, seed: 3, headingStepDeg: 5, tilts: [{ pitchDeg: 0, rollDeg: 0 }], requirements: [{ metric: "heading.maxAbsDeg", max: 0.2, yield: 0.5 }] }), stack);
+    const st = studyOf(
+      study({
+        trials: 20_000,
+        seed: 3,
+        headingStepDeg: 5,
+        tilts: [{ pitchDeg: 0, rollDeg: 0 }],
+        requirements: [{ metric: "heading.maxAbsDeg", max: 0.2, yield: 0.5 }],
+      }),
+      stack,
+    );
     const incl = [10, 30, 45, 60, 70, 80];
-    const { points, crossings: cr } = await runSweep({ stack, study: st, info: info(describeParameter(stack, st, "inclinationDeg")), values: incl, execute: inThread });
+    const { points, crossings: cr } = await runSweep({
+      stack,
+      study: st,
+      info: info(describeParameter(stack, st, "inclinationDeg")),
+      values: incl,
+      execute: inThread,
+    });
     const ratio = points.map((p) => p.requirements[0].limitAtTarget / Math.tan(p.value * DEG));
     // the same trials at each point: the ratio is flat to second order in eps (well under 1 %)
     for (const r of ratio) expect(Math.abs(r / ratio[0] - 1)).toBeLessThan(0.01);
@@ -57,7 +73,8 @@ describe("sweeps", () => {
     expect(ratio[0] / (normInv(0.75) * sigma)).toBeGreaterThan(0.97);
     expect(ratio[0] / (normInv(0.75) * sigma)).toBeLessThan(1.03);
     // yield at a fixed limit falls with the inclination
-    for (let i = 1; i < points.length; i++) expect(points[i].requirements[0].predictedYield).toBeLessThan(points[i - 1].requirements[0].predictedYield);
+    for (let i = 1; i < points.length; i++)
+      expect(points[i].requirements[0].predictedYield).toBeLessThan(points[i - 1].requirements[0].predictedYield);
     // crossing: P(|eps|·tan I <= 0.2) = 0.5 at tan I* = 0.2 / (0.6745 σ) -> I* = 71.4 deg
     const want = Math.atan(0.2 / (normInv(0.75) * sigma)) / DEG;
     expect(cr[0].value).not.toBeNull();
@@ -65,7 +82,12 @@ describe("sweeps", () => {
   }, 60_000);
 
   it("crossings: interpolated between the first pair of points on either side of the target, null when none", () => {
-    const pt = (value: number, y: number) => ({ value, requirements: [{ metric: "m", max: 1, yield: 0.99, predictedYield: y, ci: [y, y] as [number, number], passes: y >= 0.99, limitAtTarget: 0 }] });
+    const pt = (value: number, y: number) => ({
+      value,
+      requirements: [
+        { metric: "m", max: 1, yield: 0.99, predictedYield: y, ci: [y, y] as [number, number], passes: y >= 0.99, limitAtTarget: 0 },
+      ],
+    });
     expect(crossings([pt(1, 0.999), pt(2, 0.995), pt(3, 0.985)])[0].value).toBeCloseTo(2.5, 12);
     expect(crossings([pt(1, 0.999), pt(2, 0.995)])[0].value).toBeNull();
     expect(crossings([pt(1, 0.98), pt(2, 0.99), pt(3, 0.999)])[0].value).toBe(2);

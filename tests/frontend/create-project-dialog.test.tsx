@@ -76,7 +76,9 @@ describe("CreateProjectDialog", () => {
 
   it("sends the trimmed values and opens the new project", async () => {
     const fetchSpy = mockFetch(({ url, method }) =>
-      url === "/api/projects" && method === "POST" ? jsonResponse(201, PROJECT) : jsonResponse(404, { error: { code: "not_found", message: "x" } }),
+      url === "/api/projects" && method === "POST"
+        ? jsonResponse(201, PROJECT)
+        : jsonResponse(404, { error: { code: "not_found", message: "x" } }),
     );
     const { router } = open();
     fireEvent.change(nameInput(), { target: { value: "  Ridgeline watch module, rev C  " } });

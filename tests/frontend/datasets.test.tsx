@@ -94,10 +94,11 @@ describe("the data sets panel", () => {
     fireEvent.change(input, { target: { files: [new File(["x"], "bad.csv", { type: "text/csv" })] } });
     await waitFor(() => expect(screen.getByText(/“abc” is not a number\. \(2 problems/)).toBeTruthy());
     const problems = screen.getByRole("list", { name: "Problems in the file" });
-    expect(within(problems).getAllByRole("listitem").map((li) => li.textContent)).toEqual([
-      "Row 3, column B (tilt [deg]): “abc” is not a number",
-      "Row 5, column B (tilt [deg]): missing value",
-    ]);
+    expect(
+      within(problems)
+        .getAllByRole("listitem")
+        .map((li) => li.textContent),
+    ).toEqual(["Row 3, column B (tilt [deg]): “abc” is not a number", "Row 5, column B (tilt [deg]): missing value"]);
   });
 
   it("a reader gets no upload button", async () => {

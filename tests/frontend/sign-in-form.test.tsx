@@ -44,9 +44,7 @@ describe("SignInForm", () => {
   });
 
   it("calls back once the server accepts the password", async () => {
-    mockFetch(() =>
-      jsonResponse(200, { redirect: false, token: "t", user: { id: "u1", name: "Ezra", email: "engineer@example.com" } }),
-    );
+    mockFetch(() => jsonResponse(200, { redirect: false, token: "t", user: { id: "u1", name: "Ezra", email: "engineer@example.com" } }));
     const onSignedIn = vi.fn();
     renderWithApp(<SignInForm onSignedIn={onSignedIn} />);
     fill("engineer@example.com", "orthostack-demo");

@@ -66,7 +66,12 @@ function mount(doc: EditorDoc, problems = 0) {
 const probe = () => screen.getByTestId("probe");
 const edited = (tol: number): EditorDoc => ({
   ...saved,
-  stack: { ...saved.stack, elements: saved.stack.elements.map((e) => (e.id === "mag" ? { ...e, bondLine: { ...e.bondLine, heightTol: { dist: "normal", tol } } } : e)) },
+  stack: {
+    ...saved.stack,
+    elements: saved.stack.elements.map((e) =>
+      e.id === "mag" ? { ...e, bondLine: { ...e.bondLine, heightTol: { dist: "normal", tol } } } : e,
+    ),
+  },
 });
 
 describe("autosave of a draft", () => {
@@ -112,7 +117,11 @@ describe("autosave of a draft", () => {
   it("shows the server's refusal and keeps the edits in the browser copy", async () => {
     mockFetch(() =>
       jsonResponse(400, {
-        error: { code: "invalid_stack", message: "The stack file has a problem; nothing was stored.", fields: [{ path: "stack.elements[5].size.x", message: "too small" }] },
+        error: {
+          code: "invalid_stack",
+          message: "The stack file has a problem; nothing was stored.",
+          fields: [{ path: "stack.elements[5].size.x", message: "too small" }],
+        },
       }),
     );
     const m = mount(saved);

@@ -22,7 +22,17 @@ let latest: EditorDoc;
 let undoLatest: () => void;
 
 /** The editor's context over a real history, as the editor page builds it. */
-function Harness({ initial, children, readOnly = false, selected = "mag" }: { initial: EditorDoc; children: ReactNode; readOnly?: boolean; selected?: string }) {
+function Harness({
+  initial,
+  children,
+  readOnly = false,
+  selected = "mag",
+}: {
+  initial: EditorDoc;
+  children: ReactNode;
+  readOnly?: boolean;
+  selected?: string;
+}) {
   const { doc, update, setAt, undo } = useEditorHistory(initial);
   const [selectedId, select] = useState<string | null>(selected);
   const issues = useMemo(() => indexIssues(validateDoc(doc)), [doc]);
@@ -135,7 +145,11 @@ describe("the tolerance table", () => {
       </Harness>,
     );
     const table = screen.getByRole("table", { name: "Tolerance sources" });
-    const sourceIds = () => within(table).getAllByRole("row").slice(1).map((r) => r.querySelector(".font-mono")?.textContent?.split(" ·")[0]);
+    const sourceIds = () =>
+      within(table)
+        .getAllByRole("row")
+        .slice(1)
+        .map((r) => r.querySelector(".font-mono")?.textContent?.split(" ·")[0]);
     const before = sourceIds();
     fireEvent.click(within(table).getByRole("button", { name: /± Tolerance/ }));
     expect(within(table).getAllByRole("columnheader")[3].getAttribute("aria-sort")).toBe("ascending");
@@ -182,4 +196,3 @@ describe("the element tree", () => {
     expect(screen.getAllByRole("treeitem")).toHaveLength(6);
   });
 });
-

@@ -1,5 +1,13 @@
 import { describe, expect, it } from "vitest";
-import { canRedo, canUndo, COALESCE_MS, createHistory, HISTORY_LIMIT, historyReducer, type History } from "@frontend/features/stack-editor/lib/history";
+import {
+  canRedo,
+  canUndo,
+  COALESCE_MS,
+  createHistory,
+  HISTORY_LIMIT,
+  historyReducer,
+  type History,
+} from "@frontend/features/stack-editor/lib/history";
 
 type H = History<{ v: number }>;
 const edit = (h: H, v: number, key?: string, at = 0) => historyReducer(h, { type: "edit", next: { v }, key, at });

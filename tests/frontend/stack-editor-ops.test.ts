@@ -47,7 +47,10 @@ describe("the element tree", () => {
   });
 
   it("shows an element whose parent is missing at the top, marked", () => {
-    const s: StackFile = { ...stack, elements: [...stack.elements, { id: "stray", kind: "spacer", parent: "nowhere", size: { x: 1, y: 1, z: 0.1 } }] };
+    const s: StackFile = {
+      ...stack,
+      elements: [...stack.elements, { id: "stray", kind: "spacer", parent: "nowhere", size: { x: 1, y: 1, z: 0.1 } }],
+    };
     const stray = treeRows(s).find((r) => r.id === "stray")!;
     expect(stray.orphan).toBe(true);
     expect(stray.depth).toBe(0);
@@ -91,9 +94,17 @@ describe("the element tree", () => {
 
   it("reorders among siblings only", () => {
     let s = addElement(stack, "pkg", "spacer").stack;
-    expect(treeRows(s).filter((r) => r.parent === "pkg").map((r) => r.id)).toEqual(["asic", "spacer"]);
+    expect(
+      treeRows(s)
+        .filter((r) => r.parent === "pkg")
+        .map((r) => r.id),
+    ).toEqual(["asic", "spacer"]);
     s = reorderElement(s, "spacer", -1);
-    expect(treeRows(s).filter((r) => r.parent === "pkg").map((r) => r.id)).toEqual(["spacer", "asic"]);
+    expect(
+      treeRows(s)
+        .filter((r) => r.parent === "pkg")
+        .map((r) => r.id),
+    ).toEqual(["spacer", "asic"]);
     expect(reorderElement(s, "spacer", -1)).toBe(s);
     expect(reorderElement(s, "board", 1)).toBe(s);
   });

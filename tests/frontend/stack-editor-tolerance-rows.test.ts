@@ -30,13 +30,19 @@ describe("the tolerance table's rows", () => {
   });
 
   it("names the six axis angles g1..g6 when they are given one by one", () => {
-    const six = setAt(stack, ["elements", 5, "axisTol"], Array.from({ length: 6 }, (_, k) => ({ dist: "uniform", tol: 0.1 * (k + 1), stage: k === 0 ? "package" : undefined })));
+    const six = setAt(
+      stack,
+      ["elements", 5, "axisTol"],
+      Array.from({ length: 6 }, (_, k) => ({ dist: "uniform", tol: 0.1 * (k + 1), stage: k === 0 ? "package" : undefined })),
+    );
     const rows = toleranceRows(six).filter((r) => r.elementId === "mag" && r.sourceId.startsWith("mag.axis"));
     expect(rows.map((r) => r.sourceId)).toEqual(["mag.axis.g1", "mag.axis.g2", "mag.axis.g3", "mag.axis.g4", "mag.axis.g5", "mag.axis.g6"]);
     expect(rows.map((r) => r.stage)).toEqual(["package", "die", "die", "die", "die", "die"]);
     expect(rows[0].stageInherited).toBe(false);
     expect(rows[0].path).toEqual(["axisTol", 0]);
-    const engine = compileModel(six, STUDY).sources.filter((s) => s.id.startsWith("mag.axis")).map((s) => [s.id, s.stage]);
+    const engine = compileModel(six, STUDY)
+      .sources.filter((s) => s.id.startsWith("mag.axis"))
+      .map((s) => [s.id, s.stage]);
     expect(engine).toEqual(rows.map((r) => [r.sourceId, r.stage]));
   });
 

@@ -12,7 +12,22 @@ import { formatDuration, formatPpm, formatValue, formatYield, formatYieldRange }
 
 const stats = (p: Partial<MetricStats> & { v?: number }): MetricStats => {
   const v = p.v ?? 1;
-  return { mean: 0, std: v / 3, p50: v / 2, p95: v, p99: v * 1.2, p9973: v * 1.4, max: v * 2, unit: "%", signed: true, minValue: -2 * v, maxValue: 2 * v, interval95: [-v, v], shortest95: [-v, v], ...p } as MetricStats;
+  return {
+    mean: 0,
+    std: v / 3,
+    p50: v / 2,
+    p95: v,
+    p99: v * 1.2,
+    p9973: v * 1.4,
+    max: v * 2,
+    unit: "%",
+    signed: true,
+    minValue: -2 * v,
+    maxValue: 2 * v,
+    interval95: [-v, v],
+    shortest95: [-v, v],
+    ...p,
+  } as MetricStats;
 };
 
 describe("cross-axis matrix from the per-term metrics", () => {
@@ -65,7 +80,11 @@ describe("cross-axis matrix from the per-term metrics", () => {
 });
 
 describe("progress: pace and time left", () => {
-  const running = { status: "running" as const, startedAt: "2026-01-05T10:00:00.000Z", progress: { done: 250_000, total: 1_000_000, trialsPerSecond: 12_500 } };
+  const running = {
+    status: "running" as const,
+    startedAt: "2026-01-05T10:00:00.000Z",
+    progress: { done: 250_000, total: 1_000_000, trialsPerSecond: 12_500 },
+  };
 
   it("time left is the trials still to run at the current pace", () => {
     const v = progressView(running, Date.parse("2026-01-05T10:00:20.000Z"));
@@ -102,7 +121,13 @@ const contributors = (shares: [string, number, number | null][]): Contributors =
   linearTotal: 1,
   mcDesign: "squared",
   mcR2: 0.4,
-  sources: shares.map(([source, linearShare, mcShare]) => ({ source, linearShare, linearContribution: linearShare, mcShare, src2: mcShare })),
+  sources: shares.map(([source, linearShare, mcShare]) => ({
+    source,
+    linearShare,
+    linearContribution: linearShare,
+    mcShare,
+    src2: mcShare,
+  })),
 });
 
 describe("Pareto of contributors", () => {
@@ -186,7 +211,10 @@ describe("metric ids", () => {
     expect(metricLabel("gyro.crossAxisPct.zy")).toBe("gyro cross-axis z←y");
   });
   it("groups heading first, then sensors in stack order, then relative rotations and tilts", () => {
-    const groups = groupMetrics(["pkg.tiltDeg", "mag.crossAxisPct.xy", "accel~mag.relRotDeg", "accel.crossAxisTotalPct.x", "heading.rmsDeg", "heading.maxAbsDeg"], ["board", "pkg", "accel", "mag"]);
+    const groups = groupMetrics(
+      ["pkg.tiltDeg", "mag.crossAxisPct.xy", "accel~mag.relRotDeg", "accel.crossAxisTotalPct.x", "heading.rmsDeg", "heading.maxAbsDeg"],
+      ["board", "pkg", "accel", "mag"],
+    );
     expect(groups.map((g) => g.label)).toEqual(["Heading", "accel", "mag", "Relative rotation", "Tilt"]);
     expect(groups[0].ids).toEqual(["heading.maxAbsDeg", "heading.rmsDeg"]);
   });
@@ -225,17 +253,38 @@ describe("convergence rows", () => {
     expect(rows[0].band[0]).toBeLessThan(92);
     expect(rows[0].band[1]).toBeGreaterThan(92);
     expect(rows[1].band[1] - rows[1].band[0]).toBeLessThan(rows[0].band[1] - rows[0].band[0]);
-    expect(lateDrift([{ trials: 1, value: 1 }, { trials: 2, value: 2 }, { trials: 4, value: 2.1 }, { trials: 8, value: 2 }])).toBeCloseTo(5, 9);
+    expect(
+      lateDrift([
+        { trials: 1, value: 1 },
+        { trials: 2, value: 2 },
+        { trials: 4, value: 2.1 },
+        { trials: 8, value: 2 },
+      ]),
+    ).toBeCloseTo(5, 9);
   });
 });
 
 describe("comparing two results", () => {
   const req = (metric: string, predictedYield: number, ci: [number, number], passes: boolean) => ({
-    metric, max: 2, yield: 0.99, predictedYield, ci, ppmOut: (1 - predictedYield) * 1e6, passes, demonstrated: passes, limitAtTarget: 1,
+    metric,
+    max: 2,
+    yield: 0.99,
+    predictedYield,
+    ci,
+    ppmOut: (1 - predictedYield) * 1e6,
+    passes,
+    demonstrated: passes,
+    limitAtTarget: 1,
   });
   const base = { sources: [] as ResultFile["sources"] } as unknown as ResultFile;
-  const a = { ...base, requirements: [req("heading.maxAbsDeg", 0.95, [0.94, 0.96], false), req("mag.tiltDeg", 0.995, [0.993, 0.997], true)] } as ResultFile;
-  const b = { ...base, requirements: [req("heading.maxAbsDeg", 0.992, [0.991, 0.993], true), req("mag.tiltDeg", 0.996, [0.994, 0.998], true)] } as ResultFile;
+  const a = {
+    ...base,
+    requirements: [req("heading.maxAbsDeg", 0.95, [0.94, 0.96], false), req("mag.tiltDeg", 0.995, [0.993, 0.997], true)],
+  } as ResultFile;
+  const b = {
+    ...base,
+    requirements: [req("heading.maxAbsDeg", 0.992, [0.991, 0.993], true), req("mag.tiltDeg", 0.996, [0.994, 0.998], true)],
+  } as ResultFile;
 
   it("calls a yield change significant only when the intervals part", () => {
     const rows = requirementComparison(a, b);
@@ -255,7 +304,15 @@ describe("comparing two results", () => {
   });
 
   it("lists only the tolerances that changed", () => {
-    const src = (id: string, halfWidth: number) => ({ id, unit: "um" as const, stage: "package", draws: 4, sigma: halfWidth / 3, halfWidth, mean: 0 });
+    const src = (id: string, halfWidth: number) => ({
+      id,
+      unit: "um" as const,
+      stage: "package",
+      draws: 4,
+      sigma: halfWidth / 3,
+      halfWidth,
+      mean: 0,
+    });
     const ra = { ...base, sources: [src("mag.bondLine", 3), src("pkg.bow", 8)] } as ResultFile;
     const rb = { ...base, sources: [src("mag.bondLine", 1.5), src("pkg.bow", 8), src("mag.x", 20)] } as ResultFile;
     expect(sourceChanges(ra, rb).map((c) => c.id)).toEqual(["mag.bondLine", "mag.x"]);
@@ -263,16 +320,28 @@ describe("comparing two results", () => {
 
   it("marks the settings that differ", () => {
     const s = { format: "orthostack.study/1" as const, trials: 1000, seed: 7, inclinationDeg: 60 };
-    const rows = settingRows({ study: s, site: null, revisionNumber: 1 }, { study: { ...s, calibration: { after: "board" } }, site: null, revisionNumber: 2 });
+    const rows = settingRows(
+      { study: s, site: null, revisionNumber: 1 },
+      { study: { ...s, calibration: { after: "board" } }, site: null, revisionNumber: 2 },
+    );
     expect(rows.filter((r) => r.differs).map((r) => r.label)).toEqual(["Stack revision", "Calibration"]);
   });
 
   it("an as-built study of the same dip typed in shows no site difference; another dip does", () => {
     const s = { format: "orthostack.study/1" as const, trials: 1000, seed: 7, inclinationDeg: 64.25 };
-    const site = { site: { latitudeDeg: 48.1, longitudeDeg: 11.6, altitudeKm: 0.5, date: "2026-06-01" }, model: "WMM2025", inclinationDeg: 64.25, declinationDeg: 4, totalIntensityNt: 48000 } as never;
+    const site = {
+      site: { latitudeDeg: 48.1, longitudeDeg: 11.6, altitudeKm: 0.5, date: "2026-06-01" },
+      model: "WMM2025",
+      inclinationDeg: 64.25,
+      declinationDeg: 4,
+      totalIntensityNt: 48000,
+    } as never;
     const same = settingRows({ study: s, site, revisionNumber: 1 }, { study: s, site: null, revisionNumber: 1 });
     expect(same.filter((r) => r.differs).map((r) => r.label)).toEqual([]);
-    const other = settingRows({ study: s, site, revisionNumber: 1 }, { study: { ...s, inclinationDeg: 60 }, site: null, revisionNumber: 1 });
+    const other = settingRows(
+      { study: s, site, revisionNumber: 1 },
+      { study: { ...s, inclinationDeg: 60 }, site: null, revisionNumber: 1 },
+    );
     expect(other.filter((r) => r.differs).map((r) => r.label)).toEqual(["Field dip", "Site"]);
   });
 });
@@ -289,13 +358,41 @@ describe("recent pace", () => {
     ];
     expect(recentPace(samples, 11_000, 3_000)).toBe(12_000);
     const average = 36_000 / 11; // what the queue reports
-    const withRecent = progressView({ status: "running", startedAt: null, progress: { done: 36_000, total: 1_000_000, trialsPerSecond: average } }, 11_000, recentPace(samples, 11_000, 3_000));
+    const withRecent = progressView(
+      { status: "running", startedAt: null, progress: { done: 36_000, total: 1_000_000, trialsPerSecond: average } },
+      11_000,
+      recentPace(samples, 11_000, 3_000),
+    );
     expect(withRecent.secondsLeft).toBeCloseTo(964_000 / 12_000, 9);
   });
   it("says nothing until the samples span two seconds and show progress", () => {
-    expect(recentPace([{ at: 0, done: 0 }, { at: 1_000, done: 5_000 }], 1_000)).toBeNull();
-    expect(recentPace([{ at: 0, done: 5_000 }, { at: 3_000, done: 5_000 }], 3_000)).toBeNull();
-    expect(recentPace([{ at: 0, done: 0 }, { at: 30_000, done: 5_000 }], 30_000)).toBeNull(); // the first sample is too old
+    expect(
+      recentPace(
+        [
+          { at: 0, done: 0 },
+          { at: 1_000, done: 5_000 },
+        ],
+        1_000,
+      ),
+    ).toBeNull();
+    expect(
+      recentPace(
+        [
+          { at: 0, done: 5_000 },
+          { at: 3_000, done: 5_000 },
+        ],
+        3_000,
+      ),
+    ).toBeNull();
+    expect(
+      recentPace(
+        [
+          { at: 0, done: 0 },
+          { at: 30_000, done: 5_000 },
+        ],
+        30_000,
+      ),
+    ).toBeNull(); // the first sample is too old
   });
 });
 

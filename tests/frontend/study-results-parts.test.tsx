@@ -14,7 +14,12 @@ describe("StudyProgress", () => {
     const onCancel = vi.fn();
     render(
       <StudyProgress
-        study={{ number: 4, status: "running", startedAt: new Date(Date.now() - 30_000).toISOString(), progress: { done: 360_000, total: 1_000_000, trialsPerSecond: 12_000 } }}
+        study={{
+          number: 4,
+          status: "running",
+          startedAt: new Date(Date.now() - 30_000).toISOString(),
+          progress: { done: 360_000, total: 1_000_000, trialsPerSecond: 12_000 },
+        }}
         onCancel={onCancel}
       />,
     );
@@ -31,7 +36,11 @@ describe("StudyProgress", () => {
   });
 
   it("a queued study waits without a time", () => {
-    render(<StudyProgress study={{ number: 5, status: "queued", startedAt: null, progress: { done: 0, total: 20_000, trialsPerSecond: null } }} />);
+    render(
+      <StudyProgress
+        study={{ number: 5, status: "queued", startedAt: null, progress: { done: 0, total: 20_000, trialsPerSecond: null } }}
+      />,
+    );
     expect(screen.getByText("Waiting in the queue")).toBeTruthy();
     expect(screen.getByRole("progressbar").getAttribute("aria-valuetext")).toBe("queued");
     expect(screen.queryByRole("button", { name: "Cancel study" })).toBeNull();
@@ -50,12 +59,29 @@ const req = (metric: string, predictedYield: number, ci: [number, number], yield
   limitAtTarget: 2.54,
 });
 const stats = (unit: "deg" | "%", v = 1): MetricStats =>
-  ({ mean: 0, std: 1, p50: v / 2, p95: v, p99: v, p9973: v, max: v, unit, signed: unit === "%", minValue: -v, maxValue: v, interval95: [-v, v], shortest95: [-v, v] }) as MetricStats;
+  ({
+    mean: 0,
+    std: 1,
+    p50: v / 2,
+    p95: v,
+    p99: v,
+    p9973: v,
+    max: v,
+    unit,
+    signed: unit === "%",
+    minValue: -v,
+    maxValue: v,
+    interval95: [-v, v],
+    shortest95: [-v, v],
+  }) as MetricStats;
 
 describe("RequirementCards", () => {
   const result = {
     trials: 200_000,
-    requirements: [req("heading.maxAbsDeg", 0.92094, [0.91975, 0.92211], 0.99), req("gyro.crossAxisTotalPct.x", 0.99891, [0.99876, 0.99905], 0.9973)],
+    requirements: [
+      req("heading.maxAbsDeg", 0.92094, [0.91975, 0.92211], 0.99),
+      req("gyro.crossAxisTotalPct.x", 0.99891, [0.99876, 0.99905], 0.9973),
+    ],
     metrics: { "heading.maxAbsDeg": stats("deg"), "gyro.crossAxisTotalPct.x": stats("%") },
   } as unknown as ResultFile;
 
@@ -92,7 +118,10 @@ describe("CrossAxisTables", () => {
     const table = screen.getByRole("table", { name: "mag cross-axis at p99.73" });
     const rows = within(table).getAllByRole("row");
     expect(rows).toHaveLength(4);
-    const cells = (r: number) => within(rows[r]).getAllByRole("cell").map((c) => c.textContent);
+    const cells = (r: number) =>
+      within(rows[r])
+        .getAllByRole("cell")
+        .map((c) => c.textContent);
     expect(cells(1)).toEqual(["—∠ 1.3°", "3.30%", "1.50%"]);
     fireEvent.click(screen.getByRole("radio", { name: "p95" }));
     const at95 = screen.getByRole("table", { name: "mag cross-axis at p95" });

@@ -112,7 +112,14 @@ describe("the study settings form", () => {
     expect(String(post[0])).toBe(`/api/revisions/${REV}/studies`);
     const body = JSON.parse(String((post[1] as RequestInit).body));
     expect(body.site).toEqual({ latitudeDeg: 47.27, longitudeDeg: 11.39, altitudeKm: 0.6, date: "2026-06-01" });
-    expect(body.study).toMatchObject({ format: "orthostack.study/1", trials: 20000, seed: 5, inclinationDeg: 63.6232, headingStepDeg: 10, sampling: "random" });
+    expect(body.study).toMatchObject({
+      format: "orthostack.study/1",
+      trials: 20000,
+      seed: 5,
+      inclinationDeg: 63.6232,
+      headingStepDeg: 10,
+      sampling: "random",
+    });
     // The revision's requirements apply on the server.
     expect(body.study.requirements).toBeUndefined();
     expect(body.study.tilts).toHaveLength(5);
@@ -123,7 +130,11 @@ describe("the study settings form", () => {
       if (url === `/api/revisions/${REV}`) return jsonResponse(200, revision);
       if (method === "POST")
         return jsonResponse(400, {
-          error: { code: "invalid_study", message: "The study file has a problem; nothing was queued.", fields: [{ path: "study.headingStepDeg", message: "the sweep would have 36000 attitudes" }] },
+          error: {
+            code: "invalid_study",
+            message: "The study file has a problem; nothing was queued.",
+            fields: [{ path: "study.headingStepDeg", message: "the sweep would have 36000 attitudes" }],
+          },
         });
       return jsonResponse(404, { error: { code: "not_found", message: "no" } });
     });
@@ -145,7 +156,15 @@ describe("the study file the form makes", () => {
   const s = stack as unknown as StackFile;
 
   it("calibration with a residual, Latin hypercube and adaptive stopping", () => {
-    const v = { ...defaultFormValues(11), trials: "1000000", sampling: "lhs" as const, adaptive: true, calibrationAfter: "board" as const, residualTol: "0.05", residualSigmas: "2" };
+    const v = {
+      ...defaultFormValues(11),
+      trials: "1000000",
+      sampling: "lhs" as const,
+      adaptive: true,
+      calibrationAfter: "board" as const,
+      residualTol: "0.05",
+      residualSigmas: "2",
+    };
     const built = buildStudy(v, s);
     expect(built.ok).toBe(true);
     if (!built.ok) return;
@@ -165,7 +184,13 @@ describe("the study file the form makes", () => {
     const bad = buildStudy(v, s);
     expect(bad.ok).toBe(false);
     if (!bad.ok) expect(bad.errors["tilts.5.pitchDeg"]).toMatch(/strictly between -90 and 90/);
-    expect(issuesToErrors([{ path: "study.tilts[2].rollDeg", message: "x" }, { path: "site.date", message: "y" }, { path: "study.requirements[0].metric", message: "z" }])).toEqual({
+    expect(
+      issuesToErrors([
+        { path: "study.tilts[2].rollDeg", message: "x" },
+        { path: "site.date", message: "y" },
+        { path: "study.requirements[0].metric", message: "z" },
+      ]),
+    ).toEqual({
       "tilts.2.rollDeg": "x",
       date: "y",
       _form: "z",
@@ -173,8 +198,18 @@ describe("the study file the form makes", () => {
   });
 
   it("goes back from a stored study to the same file", () => {
-    const v = { ...defaultFormValues(77), trials: "50000", calibrationAfter: "package" as const, residualDist: "uniform" as const, residualTol: "0.1", headingStepDeg: "15" };
-    v.tilts = [{ pitchDeg: "0", rollDeg: "0" }, { pitchDeg: "20", rollDeg: "-10" }];
+    const v = {
+      ...defaultFormValues(77),
+      trials: "50000",
+      calibrationAfter: "package" as const,
+      residualDist: "uniform" as const,
+      residualTol: "0.1",
+      headingStepDeg: "15",
+    };
+    v.tilts = [
+      { pitchDeg: "0", rollDeg: "0" },
+      { pitchDeg: "20", rollDeg: "-10" },
+    ];
     const first = buildStudy(v, s);
     expect(first.ok).toBe(true);
     if (!first.ok) return;

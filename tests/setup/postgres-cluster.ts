@@ -68,12 +68,32 @@ export async function startCluster(): Promise<Cluster> {
     chmodSync(dir, 0o700);
   }
   const as = owner ? { uid: owner.uid, gid: owner.gid } : {};
-  execFileSync(join(bin, "initdb"), ["-D", data, "-U", "postgres", "--auth=trust", "-E", "UTF8", "--no-sync", "--locale=C"], { ...as, stdio: "ignore" });
+  execFileSync(join(bin, "initdb"), ["-D", data, "-U", "postgres", "--auth=trust", "-E", "UTF8", "--no-sync", "--locale=C"], {
+    ...as,
+    stdio: "ignore",
+  });
   const port = await freePort();
   let err = "";
   const child = spawn(
     join(bin, "postgres"),
-    ["-D", data, "-p", String(port), "-k", dir, "-c", "listen_addresses=127.0.0.1", "-c", "fsync=off", "-c", "synchronous_commit=off", "-c", "full_page_writes=off", "-c", "max_connections=300"],
+    [
+      "-D",
+      data,
+      "-p",
+      String(port),
+      "-k",
+      dir,
+      "-c",
+      "listen_addresses=127.0.0.1",
+      "-c",
+      "fsync=off",
+      "-c",
+      "synchronous_commit=off",
+      "-c",
+      "full_page_writes=off",
+      "-c",
+      "max_connections=300",
+    ],
     { ...as, stdio: ["ignore", "ignore", "pipe"] },
   );
   child.stderr?.on("data", (d: Buffer) => {

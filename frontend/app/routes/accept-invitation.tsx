@@ -31,8 +31,7 @@ export function AcceptInvitationRoute() {
       <p className="text-xs font-semibold text-ink/55">Invitation</p>
       <h1 className="mt-0.5 text-[22px] leading-7 font-extrabold tracking-[-0.015em] text-ink">Join {invitation.workspaceName}</h1>
       <p className="mt-1.5 mb-6 text-[13px] leading-6 text-ink/60">
-        You are invited as <RoleBadge role={invitation.role} className="mx-0.5 align-middle" />. Set your name and a password
-        to finish.
+        You are invited as <RoleBadge role={invitation.role} className="mx-0.5 align-middle" />. Set your name and a password to finish.
       </p>
       <AcceptInvitationForm token={token} invitation={invitation} onAccepted={() => navigate("/", { replace: true })} />
     </AuthFrame>

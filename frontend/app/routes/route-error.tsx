@@ -31,7 +31,9 @@ export function RouteError() {
       <p className="font-mono text-xs font-bold tracking-[0.2em] text-fail">ERROR</p>
       <h1 className="mt-2 text-[22px] leading-7 font-extrabold tracking-[-0.015em] text-ink">Something went wrong</h1>
       <p className="mt-2 text-[13px] text-ink/65">
-        {isApiError(error) && error.status === 0 ? error.message : "This page could not be shown. Your work is saved on the server; reloading usually helps."}
+        {isApiError(error) && error.status === 0
+          ? error.message
+          : "This page could not be shown. Your work is saved on the server; reloading usually helps."}
       </p>
       <div className="mt-6 flex gap-2">
         <button

@@ -56,7 +56,15 @@ function StackSection() {
         <path d="M308 106h60M308 103.2l60-1.7" strokeDasharray="3 3" />
         <path d="M362 92a20 20 0 0 1 0 16" markerEnd="url(#arrow)" color="rgba(247,245,240,0.55)" />
       </g>
-      <text x="372" y="88" fill="rgba(247,245,240,0.8)" fontSize="11" fontWeight="700" fontFamily="Manrope, sans-serif" style={{ fontVariantNumeric: "tabular-nums" }}>
+      <text
+        x="372"
+        y="88"
+        fill="rgba(247,245,240,0.8)"
+        fontSize="11"
+        fontWeight="700"
+        fontFamily="Manrope, sans-serif"
+        style={{ fontVariantNumeric: "tabular-nums" }}
+      >
         θ ≤ 0.30°
       </text>
       <g stroke="rgba(247,245,240,0.55)" strokeWidth="1">
@@ -64,7 +72,15 @@ function StackSection() {
         <path d="M36 172h8M36 136h8" />
         <path d="M40 146v24" markerStart="url(#arrow)" markerEnd="url(#arrow)" color="rgba(247,245,240,0.55)" />
       </g>
-      <text x="10" y="128" fill="rgba(247,245,240,0.8)" fontSize="11" fontWeight="700" fontFamily="Manrope, sans-serif" style={{ fontVariantNumeric: "tabular-nums" }}>
+      <text
+        x="10"
+        y="128"
+        fill="rgba(247,245,240,0.8)"
+        fontSize="11"
+        fontWeight="700"
+        fontFamily="Manrope, sans-serif"
+        style={{ fontVariantNumeric: "tabular-nums" }}
+      >
         180 ± 10 µm
       </text>
       <path d="M44 140h52" stroke="rgba(247,245,240,0.25)" strokeDasharray="2 3" />
@@ -92,8 +108,8 @@ export function AuthFrame({ children }: { children: ReactNode }) {
             Tolerance studies for stacked inertial-sensor packages.
           </h2>
           <p className="mt-3 max-w-md text-[14px] leading-6 text-paper/60">
-            One reviewed model of every bond line, tilt and placement, from die to board: predicted yield against the system
-            budget, and a written tolerance report for each supplier.
+            One reviewed model of every bond line, tilt and placement, from die to board: predicted yield against the system budget, and a
+            written tolerance report for each supplier.
           </p>
         </div>
         <p className="relative text-[11px] text-paper/35">

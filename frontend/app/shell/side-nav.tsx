@@ -14,7 +14,12 @@ export function navItemsFor(role: Role): NavItem[] {
   if (can(role, "projects.read")) items.push({ to: "/projects", label: "Projects", icon: <ProjectsIcon /> });
   if (can(role, "reports.read")) items.push({ to: "/reports", label: "Reports", icon: <ReportsIcon /> });
   if (can(role, "suppliers.read")) {
-    items.push({ to: "/suppliers", label: "Suppliers", icon: <SuppliersIcon />, note: can(role, "suppliers.write") ? undefined : "read only" });
+    items.push({
+      to: "/suppliers",
+      label: "Suppliers",
+      icon: <SuppliersIcon />,
+      note: can(role, "suppliers.write") ? undefined : "read only",
+    });
   }
   if (can(role, "members.manage")) items.push({ to: "/members", label: "Members", icon: <MembersIcon /> });
   if (can(role, "outbox.read")) items.push({ to: "/outbox", label: "Outbox", icon: <OutboxIcon /> });

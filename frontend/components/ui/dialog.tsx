@@ -3,7 +3,8 @@ import { createPortal } from "react-dom";
 import { cn } from "@frontend/lib/cn";
 import { CloseIcon } from "./icons";
 
-const FOCUSABLE = 'a[href], button:not([disabled]), input:not([disabled]), select:not([disabled]), textarea:not([disabled]), [tabindex]:not([tabindex="-1"])';
+const FOCUSABLE =
+  'a[href], button:not([disabled]), input:not([disabled]), select:not([disabled]), textarea:not([disabled]), [tabindex]:not([tabindex="-1"])';
 
 type DialogProps = {
   open: boolean;

@@ -59,7 +59,11 @@ export function Input({ invalid = false, compact = false, className, ...rest }: 
 type TextareaProps = TextareaHTMLAttributes<HTMLTextAreaElement> & { invalid?: boolean };
 export function Textarea({ invalid = false, className, ...rest }: TextareaProps) {
   return (
-    <textarea aria-invalid={invalid || undefined} className={controlClass(invalid, cn("py-2 text-[13px] leading-5", className))} {...rest} />
+    <textarea
+      aria-invalid={invalid || undefined}
+      className={controlClass(invalid, cn("py-2 text-[13px] leading-5", className))}
+      {...rest}
+    />
   );
 }
 
@@ -68,14 +72,7 @@ export function Select({ invalid = false, compact = false, className, children, 
   return (
     <select
       aria-invalid={invalid || undefined}
-      className={controlClass(
-        invalid,
-        cn(
-          heightClass(compact),
-          "select-chevron appearance-none pr-7",
-          className,
-        ),
-      )}
+      className={controlClass(invalid, cn(heightClass(compact), "select-chevron appearance-none pr-7", className))}
       {...rest}
     >
       {children}

@@ -21,14 +21,7 @@ export function Logo({ tone = "light", className }: { tone?: "light" | "dark"; c
   return (
     <span className={cn("inline-flex items-center gap-2.5", className)}>
       <LogoMark />
-      <span
-        className={cn(
-          "text-[15px] font-extrabold tracking-[-0.01em]",
-          tone === "light" ? "text-paper" : "text-ink",
-        )}
-      >
-        Orthostack
-      </span>
+      <span className={cn("text-[15px] font-extrabold tracking-[-0.01em]", tone === "light" ? "text-paper" : "text-ink")}>Orthostack</span>
     </span>
   );
 }

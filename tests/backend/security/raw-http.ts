@@ -13,7 +13,13 @@ export function rawRequest(
   const u = new URL(baseUrl);
   return new Promise((resolve, reject) => {
     const req = request(
-      { host: u.hostname, port: u.port, method, path, headers: { ...(opts.body !== undefined ? { "content-length": Buffer.byteLength(opts.body).toString() } : {}), ...opts.headers } },
+      {
+        host: u.hostname,
+        port: u.port,
+        method,
+        path,
+        headers: { ...(opts.body !== undefined ? { "content-length": Buffer.byteLength(opts.body).toString() } : {}), ...opts.headers },
+      },
       (res) => {
         const chunks: Buffer[] = [];
         res.on("data", (c: Buffer) => chunks.push(c));

@@ -26,7 +26,10 @@ afterAll(async () => t?.close());
 const projectCount = async (name: string) => (await t.handle.db.select().from(projects).where(eq(projects.name, name))).length;
 
 async function createProject(name: string, headers: Record<string, string>, body = JSON.stringify({ name })) {
-  return rawRequest(t.url, "POST", "/api/projects", { headers: { cookie: engineer, "content-type": "application/json", ...headers }, body });
+  return rawRequest(t.url, "POST", "/api/projects", {
+    headers: { cookie: engineer, "content-type": "application/json", ...headers },
+    body,
+  });
 }
 
 describe("writes only from the app's own origin", () => {
@@ -56,9 +59,15 @@ describe("writes only from the app's own origin", () => {
 
   it("signs in from the address the app was opened at, and never from a foreign one", async () => {
     const body = JSON.stringify({ email: "engineer@example.com", password: "orthostack-demo" });
-    const own = await rawRequest(t.url, "POST", "/api/auth/sign-in/email", { headers: { "content-type": "application/json", origin: t.url }, body });
+    const own = await rawRequest(t.url, "POST", "/api/auth/sign-in/email", {
+      headers: { "content-type": "application/json", origin: t.url },
+      body,
+    });
     expect(own.status).toBe(200);
-    const foreign = await rawRequest(t.url, "POST", "/api/auth/sign-in/email", { headers: { "content-type": "application/json", origin: "http://127.0.0.1:1" }, body });
+    const foreign = await rawRequest(t.url, "POST", "/api/auth/sign-in/email", {
+      headers: { "content-type": "application/json", origin: "http://127.0.0.1:1" },
+      body,
+    });
     expect(foreign.status).toBe(403);
     expect(foreign.headers["set-cookie"]).toBeUndefined();
   });
@@ -67,10 +76,19 @@ describe("writes only from the app's own origin", () => {
     const [project] = await t.handle.db.select().from(projects).limit(1);
     const [rev] = await t.handle.db
       .insert(stackRevisions)
-      .values({ workspaceId: project.workspaceId, projectId: project.id, number: 99, status: "in_review", stack: JSON.parse(JSON.stringify((await t.handle.db.select().from(stackRevisions).limit(1))[0].stack)) })
+      .values({
+        workspaceId: project.workspaceId,
+        projectId: project.id,
+        number: 99,
+        status: "in_review",
+        stack: JSON.parse(JSON.stringify((await t.handle.db.select().from(stackRevisions).limit(1))[0].stack)),
+      })
       .returning();
     const forged = { origin: "http://127.0.0.1:1", "sec-fetch-site": "same-site" };
-    const approve = await rawRequest(t.url, "POST", `/api/revisions/${rev.id}/approve`, { headers: { cookie: reviewer, "content-type": "application/x-www-form-urlencoded", ...forged }, body: "comment=ok" });
+    const approve = await rawRequest(t.url, "POST", `/api/revisions/${rev.id}/approve`, {
+      headers: { cookie: reviewer, "content-type": "application/x-www-form-urlencoded", ...forged },
+      body: "comment=ok",
+    });
     expect(approve.status).toBe(403);
     const del = await rawRequest(t.url, "DELETE", `/api/projects/${project.id}`, { headers: { cookie: engineer, ...forged } });
     expect(del.status).toBe(403);
@@ -90,7 +108,12 @@ describe("writes only from the app's own origin", () => {
     try {
       const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
       const ok = await rawRequest(url, "POST", "/api/projects", {
-        headers: { cookie: engineer, "content-type": "application/json", origin: "https://stack.example.com", "sec-fetch-site": "cross-site" },
+        headers: {
+          cookie: engineer,
+          "content-type": "application/json",
+          origin: "https://stack.example.com",
+          "sec-fetch-site": "cross-site",
+        },
         body: JSON.stringify({ name: "via-trusted" }),
       });
       expect(ok.status).toBe(201);
@@ -129,7 +152,10 @@ describe("request bodies only as JSON (multipart on upload routes)", () => {
 
   it("an upload route takes multipart only", async () => {
     const [project] = await t.handle.db.select().from(projects).limit(1);
-    const res = await rawRequest(t.url, "POST", `/api/projects/${project.id}/datasets`, { headers: { ...own(), "content-type": "application/json" }, body: "{}" });
+    const res = await rawRequest(t.url, "POST", `/api/projects/${project.id}/datasets`, {
+      headers: { ...own(), "content-type": "application/json" },
+      body: "{}",
+    });
     expect(res.status).toBe(415);
   });
 

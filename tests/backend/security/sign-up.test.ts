@@ -63,9 +63,14 @@ describe("sign-up is closed in better-auth itself", () => {
     }
     expect(await userCount(email)).toBe(0);
     const token = String(inv.body.link).split("/invite/")[1];
-    const accept = await t.call("POST", `/api/invitations/by-token/${token}/accept`, { body: { name: "Rightful Invitee", password: "invitee-password-1" } });
+    const accept = await t.call("POST", `/api/invitations/by-token/${token}/accept`, {
+      body: { name: "Rightful Invitee", password: "invitee-password-1" },
+    });
     expect(accept.status).toBe(200);
-    const cookie = accept.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    const cookie = accept.headers
+      .getSetCookie()
+      .map((c) => c.split(";")[0])
+      .join("; ");
     const me = await t.call("GET", "/api/me", { cookie });
     expect(me.status).toBe(200);
     expect(me.body.user.email).toBe(email);

@@ -22,7 +22,10 @@ export const compareRoute = (queryClient: QueryClient) => ({
     const id = IdSchema.safeParse(params.id);
     if (!id.success) throw notFound();
     const search = new URL(request.url).searchParams;
-    const sides = [search.get("a"), search.get("b")].map((v) => IdSchema.safeParse(v)).filter((r) => r.success).map((r) => r.data!);
+    const sides = [search.get("a"), search.get("b")]
+      .map((v) => IdSchema.safeParse(v))
+      .filter((r) => r.success)
+      .map((r) => r.data!);
     try {
       await Promise.all([
         requirePermission(queryClient, request, "projects.read"),

@@ -57,10 +57,13 @@ export function DatasetRoute() {
   const numeric = dataset.columns.filter((c) => c.kind === "number");
   const column = numeric.find((c) => c.key === params.get("column"))?.key ?? numeric.find((c) => c.mapping)?.key ?? numeric[0]?.key ?? "";
   const showColumn = (c: string) => {
-    setParams((p) => {
-      p.set("column", c);
-      return p;
-    }, { replace: true, preventScrollReset: true });
+    setParams(
+      (p) => {
+        p.set("column", c);
+        return p;
+      },
+      { replace: true, preventScrollReset: true },
+    );
     document.getElementById("capability")?.scrollIntoView({ behavior: "smooth", block: "start" });
   };
   const [dialog, setDialog] = useState<"as-built" | "delete" | null>(null);
@@ -86,7 +89,12 @@ export function DatasetRoute() {
             Download original
           </a>
           {canRun ? (
-            <Button variant="primary" onClick={() => setDialog("as-built")} disabled={!dataset.columns.some((c) => c.mapping)} title={dataset.columns.some((c) => c.mapping) ? undefined : "Map a column first"}>
+            <Button
+              variant="primary"
+              onClick={() => setDialog("as-built")}
+              disabled={!dataset.columns.some((c) => c.mapping)}
+              title={dataset.columns.some((c) => c.mapping) ? undefined : "Map a column first"}
+            >
               Run as built
             </Button>
           ) : null}
@@ -128,7 +136,11 @@ export function DatasetRoute() {
         </Panel>
         <div id="capability" className="scroll-mt-4">
           <Panel title="Capability" accent="var(--color-accel)" padded={false}>
-            {column ? <CapabilityView dataset={dataset} column={column} onColumn={showColumn} /> : <p className="p-4 text-[13px] text-ink/60">No measured column.</p>}
+            {column ? (
+              <CapabilityView dataset={dataset} column={column} onColumn={showColumn} />
+            ) : (
+              <p className="p-4 text-[13px] text-ink/60">No measured column.</p>
+            )}
           </Panel>
         </div>
         <Panel title="Preview" meta={`first ${dataset.preview.cells.length} rows`} padded={false}>
@@ -146,7 +158,10 @@ export function DatasetRoute() {
           error={remove.isError ? (isApiError(remove.error) ? remove.error.message : "It could not be deleted.") : null}
           onClose={() => setDialog(null)}
           onConfirm={() =>
-            remove.mutate({ id: dataset.id, projectId: project.id }, { onSuccess: () => navigate(`/projects/${project.id}`, { replace: true }) })
+            remove.mutate(
+              { id: dataset.id, projectId: project.id },
+              { onSuccess: () => navigate(`/projects/${project.id}`, { replace: true }) },
+            )
           }
         >
           The measurements and their mappings go. Studies already run with them keep their frozen copy.

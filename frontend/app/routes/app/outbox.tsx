@@ -85,7 +85,12 @@ function MessageRow({ m, open, onToggle }: { m: OutboxMessage; open: boolean; on
         </Td>
         <Td className="py-2 text-ink/85">{m.to.join(", ")}</Td>
         <Td className="py-2">
-          <button type="button" onClick={onToggle} aria-expanded={open} className="text-left font-semibold text-ink hover:text-gyro hover:underline">
+          <button
+            type="button"
+            onClick={onToggle}
+            aria-expanded={open}
+            className="text-left font-semibold text-ink hover:text-gyro hover:underline"
+          >
             {m.subject || "(no subject)"}
           </button>
           <p className="text-2xs text-ink/45">from {m.from}</p>
@@ -97,7 +102,11 @@ function MessageRow({ m, open, onToggle }: { m: OutboxMessage; open: boolean; on
             <ul className="space-y-0.5">
               {m.attachments.map((a) => (
                 <li key={a.index}>
-                  <a href={`/api/outbox/${m.id}/attachments/${a.index}`} download className="text-xs font-semibold text-gyro underline-offset-2 hover:underline">
+                  <a
+                    href={`/api/outbox/${m.id}/attachments/${a.index}`}
+                    download
+                    className="text-xs font-semibold text-gyro underline-offset-2 hover:underline"
+                  >
                     {a.fileName}
                   </a>{" "}
                   <span className="text-2xs text-ink/50 tabular-nums">{formatBytes(a.size)}</span>
@@ -113,7 +122,9 @@ function MessageRow({ m, open, onToggle }: { m: OutboxMessage; open: boolean; on
       {open ? (
         <tr className="border-b border-line/70 bg-paper/50">
           <td colSpan={5} className="px-3 py-3">
-            <pre className="max-h-80 overflow-auto font-sans text-[13px] leading-5 whitespace-pre-wrap text-ink/80">{m.text || "(no text part)"}</pre>
+            <pre className="max-h-80 overflow-auto font-sans text-[13px] leading-5 whitespace-pre-wrap text-ink/80">
+              {m.text || "(no text part)"}
+            </pre>
           </td>
         </tr>
       ) : null}

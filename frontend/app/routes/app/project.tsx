@@ -52,10 +52,7 @@ export function ProjectRoute() {
 
   return (
     <>
-      <Link
-        to="/projects"
-        className="mb-3 inline-flex items-center gap-1 text-xs font-semibold text-ink/55 hover:text-ink"
-      >
+      <Link to="/projects" className="mb-3 inline-flex items-center gap-1 text-xs font-semibold text-ink/55 hover:text-ink">
         <ChevronLeftIcon size={14} /> Projects
       </Link>
 

@@ -19,10 +19,7 @@ export const projectsLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
     const q = new URL(request.url).searchParams.get("q") ?? "";
-    await Promise.all([
-      requirePermission(queryClient, request, "projects.read"),
-      queryClient.ensureQueryData(projectsQueryOptions(q)),
-    ]);
+    await Promise.all([requirePermission(queryClient, request, "projects.read"), queryClient.ensureQueryData(projectsQueryOptions(q))]);
     return null;
   };
 

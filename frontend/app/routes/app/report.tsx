@@ -13,7 +13,12 @@ import { ReportDialogHost } from "@frontend/features/reports/components/report-d
 import { ReportHeader } from "@frontend/features/reports/components/report-header";
 import { ReportKeyFacts } from "@frontend/features/reports/components/report-key-facts";
 import { DraftNotice, SentNotice } from "@frontend/features/reports/components/report-notices";
-import { ReportDownloadsPanel, ReportFilesPanel, ReportHistoryPanel, ReportRecordPanel } from "@frontend/features/reports/components/report-side-panels";
+import {
+  ReportDownloadsPanel,
+  ReportFilesPanel,
+  ReportHistoryPanel,
+  ReportRecordPanel,
+} from "@frontend/features/reports/components/report-side-panels";
 import { RequirementsTable, TolerancesTable } from "@frontend/features/reports/components/report-tables";
 import { useReportActions } from "@frontend/features/reports/hooks/use-report-actions";
 import { isApiError } from "@frontend/lib/api-client";
@@ -28,7 +33,10 @@ export const reportLoader =
     const id = IdSchema.safeParse(params.id);
     if (!id.success) throw notFound();
     try {
-      await Promise.all([requirePermission(queryClient, request, "reports.read"), queryClient.ensureQueryData(reportQueryOptions(id.data))]);
+      await Promise.all([
+        requirePermission(queryClient, request, "reports.read"),
+        queryClient.ensureQueryData(reportQueryOptions(id.data)),
+      ]);
     } catch (error) {
       if (isApiError(error) && error.status === 404) throw notFound();
       throw error;
@@ -69,7 +77,10 @@ export function ReportRoute() {
           <ReportFilesPanel report={report} />
           <ReportRecordPanel report={report} asSupplier={asSupplier} />
           {!draft ? <ReportMeasurements reportId={report.id} canSend={can(me.role, "datasets.send")} /> : null}
-          <Panel title={asSupplier ? "Questions and notes" : "Comments"} meta={report.comments.length ? `${report.comments.length}` : undefined}>
+          <Panel
+            title={asSupplier ? "Questions and notes" : "Comments"}
+            meta={report.comments.length ? `${report.comments.length}` : undefined}
+          >
             <ReportComments reportId={report.id} comments={report.comments} asSupplier={asSupplier} released={!draft} />
           </Panel>
           <ReportHistoryPanel report={report} />

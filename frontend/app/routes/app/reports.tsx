@@ -53,7 +53,10 @@ export function ReportsRoute() {
                   type="button"
                   aria-pressed={status === f.value}
                   onClick={() => setStatus(f.value)}
-                  className={cn("h-7 rounded px-3 text-xs font-semibold", status === f.value ? "bg-ink text-paper" : "text-ink/65 hover:text-ink")}
+                  className={cn(
+                    "h-7 rounded px-3 text-xs font-semibold",
+                    status === f.value ? "bg-ink text-paper" : "text-ink/65 hover:text-ink",
+                  )}
                 >
                   {f.label}
                 </button>

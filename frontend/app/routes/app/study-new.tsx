@@ -60,8 +60,7 @@ export function StudyNewRoute() {
   const source = from.data && from.data.projectId === id ? from.data : null;
 
   const wanted = params.get("revision");
-  const initialRevision =
-    revisions.find((r) => r.id === wanted) ?? revisions.find((r) => r.status === "approved") ?? revisions[0] ?? null;
+  const initialRevision = revisions.find((r) => r.id === wanted) ?? revisions.find((r) => r.status === "approved") ?? revisions[0] ?? null;
 
   return (
     <>

@@ -82,7 +82,8 @@ export function StudyRoute() {
             {study.status === "finished" ? <VerdictBadge passes={study.passes} /> : null}
           </div>
           <p className="mt-1 text-[13px] text-ink/65 tabular-nums">
-            Stack revision {study.revisionNumber} · {formatCount(study.trials)} trials · seed {study.seed} · dip {formatDeg(study.study.inclinationDeg, 4)}
+            Stack revision {study.revisionNumber} · {formatCount(study.trials)} trials · seed {study.seed} · dip{" "}
+            {formatDeg(study.study.inclinationDeg, 4)}
             {study.site ? ` (WMM at ${study.site.site.date})` : ""} · calibration {study.study.calibration?.after ?? "none"} · started{" "}
             {formatDateTime(study.createdAt)} by {study.createdByName ?? "—"}
           </p>
@@ -127,7 +128,12 @@ export function StudyRoute() {
       ) : null}
 
       {active ? (
-        <Panel title="Progress" meta={study.status === "queued" ? "studies run one after another" : undefined} accent="var(--color-gyro)" className="mb-4">
+        <Panel
+          title="Progress"
+          meta={study.status === "queued" ? "studies run one after another" : undefined}
+          accent="var(--color-gyro)"
+          className="mb-4"
+        >
           <StudyProgress
             study={study}
             onCancel={canRun ? () => change.mutate({ id: study.id, action: "cancel" }) : undefined}

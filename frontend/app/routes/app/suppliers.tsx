@@ -16,10 +16,7 @@ import { requirePermission } from "../../route-guards";
 export const suppliersLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
-    await Promise.all([
-      requirePermission(queryClient, request, "suppliers.read"),
-      queryClient.ensureQueryData(suppliersQueryOptions()),
-    ]);
+    await Promise.all([requirePermission(queryClient, request, "suppliers.read"), queryClient.ensureQueryData(suppliersQueryOptions())]);
     return null;
   };
 

@@ -37,7 +37,9 @@ export function SignInForm({
   return (
     <form onSubmit={submit} noValidate aria-label="Sign in" className="space-y-4">
       {signIn.error ? (
-        <Alert title={isApiError(signIn.error) && signIn.error.status === 429 ? "Slow down" : "Could not sign in"}>{signIn.error.message}</Alert>
+        <Alert title={isApiError(signIn.error) && signIn.error.status === 429 ? "Slow down" : "Could not sign in"}>
+          {signIn.error.message}
+        </Alert>
       ) : null}
       <Field label="E-mail address" error={errors.email}>
         {({ id, describedBy, invalid }) => (

@@ -4,7 +4,17 @@ import { projectKeys } from "@frontend/features/projects";
 import { apiRequest } from "@frontend/lib/api-client";
 import { datasetKeys } from "./keys";
 
-export function uploadDataset({ projectId, file, lot, note }: { projectId: string; file: File; lot?: string; note?: string }): Promise<Dataset> {
+export function uploadDataset({
+  projectId,
+  file,
+  lot,
+  note,
+}: {
+  projectId: string;
+  file: File;
+  lot?: string;
+  note?: string;
+}): Promise<Dataset> {
   const form = new FormData();
   form.append("file", file, file.name);
   // the production lot and a note travel beside the file (both optional)

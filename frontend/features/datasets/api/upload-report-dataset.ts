@@ -4,7 +4,17 @@ import { apiRequest } from "@frontend/lib/api-client";
 import { datasetKeys } from "./keys";
 
 /** A supplier sends the measurements a released report asks for. */
-export function uploadReportDataset({ reportId, file, lot, note }: { reportId: string; file: File; lot?: string; note?: string }): Promise<Dataset> {
+export function uploadReportDataset({
+  reportId,
+  file,
+  lot,
+  note,
+}: {
+  reportId: string;
+  file: File;
+  lot?: string;
+  note?: string;
+}): Promise<Dataset> {
   const form = new FormData();
   form.append("file", file, file.name);
   // the production lot and a note travel beside the file (both optional)

@@ -29,7 +29,15 @@ export function AsBuiltDialog({ dataset, open, onClose }: { dataset: Dataset; op
   const onRev = design ? mapped.filter((c) => c.mapping!.revisionId === design.revisionId) : [];
   // a source measured as several columns is one item: its rows are drawn whole
   const items: Item[] = [
-    ...onRev.filter((c) => c.mapping!.part === null).map((c) => ({ key: c.key, source: c.mapping!.source, column: c.key, text: `from “${c.key}” (${c.summary?.n ?? 0} values)`, pooled: false })),
+    ...onRev
+      .filter((c) => c.mapping!.part === null)
+      .map((c) => ({
+        key: c.key,
+        source: c.mapping!.source,
+        column: c.key,
+        text: `from “${c.key}” (${c.summary?.n ?? 0} values)`,
+        pooled: false,
+      })),
     ...[...new Set(onRev.filter((c) => c.mapping!.part !== null).map((c) => c.mapping!.source))].map((src) => {
       const p = dataset.pooled.find((x) => x.source === src);
       const cols = p?.columns ?? [];
@@ -41,7 +49,12 @@ export function AsBuiltDialog({ dataset, open, onClose }: { dataset: Dataset; op
   ];
   const entries: AsBuiltEntry[] = items
     .filter((it) => choice(it.key).use)
-    .map((it) => ({ source: it.source, datasetId: dataset.id, ...(it.column ? { column: it.column } : {}), mode: it.pooled ? "resample" : choice(it.key).mode }));
+    .map((it) => ({
+      source: it.source,
+      datasetId: dataset.id,
+      ...(it.column ? { column: it.column } : {}),
+      mode: it.pooled ? "resample" : choice(it.key).mode,
+    }));
   const create = useCreateStudy();
   const queryClient = useQueryClient();
   const navigate = useNavigate();
@@ -68,7 +81,13 @@ export function AsBuiltDialog({ dataset, open, onClose }: { dataset: Dataset; op
   }
 
   const pending = loading || create.isPending;
-  const error = loadError ?? (create.isError ? (isApiError(create.error) ? [create.error.message, ...create.error.fields.map((f) => `${f.path}: ${f.message}`)].join(" ") : "The study could not be queued.") : null);
+  const error =
+    loadError ??
+    (create.isError
+      ? isApiError(create.error)
+        ? [create.error.message, ...create.error.fields.map((f) => `${f.path}: ${f.message}`)].join(" ")
+        : "The study could not be queued."
+      : null);
 
   return (
     <Dialog
@@ -95,7 +114,9 @@ export function AsBuiltDialog({ dataset, open, onClose }: { dataset: Dataset; op
           <Alert tone="info">Map at least one column to a tolerance source first.</Alert>
         ) : designs.length === 0 ? (
           <Alert tone="info">
-            {studies.isPending ? "Looking for studies…" : "No finished design study on the mapped revision yet: run one from the project's studies first."}
+            {studies.isPending
+              ? "Looking for studies…"
+              : "No finished design study on the mapped revision yet: run one from the project's studies first."}
           </Alert>
         ) : (
           <>

@@ -62,7 +62,12 @@ export function capabilityStatement(s: DatasetStatistics): string | null {
   const u = s.unit;
   const within = c.basis === "within lots";
   const head = `Over ${c.n} units, Cpk ${within ? "within lots" : "over all units"} reads ${formatIndex(c.cpk)}; with ${Math.round(c.confidence * 100)} % confidence the process is at least ${formatIndex(c.cpkLower)}`;
-  const ask = c.cpkLower >= CPK_TARGET ? `, so it holds the usual ${CPK_TARGET}` : c.cpk >= CPK_TARGET ? `, so ${c.n} units do not yet show the usual ${CPK_TARGET}` : `, short of the usual ${CPK_TARGET}`;
+  const ask =
+    c.cpkLower >= CPK_TARGET
+      ? `, so it holds the usual ${CPK_TARGET}`
+      : c.cpk >= CPK_TARGET
+        ? `, so ${c.n} units do not yet show the usual ${CPK_TARGET}`
+        : `, short of the usual ${CPK_TARGET}`;
   const overall = within ? ` Over all units together Ppk is ${formatIndex(c.ppk)}.` : "";
   const out = ` ${c.observedOut} of ${c.n} units lie outside ${formatMeasureUnit(c.lsl, u)} … ${formatMeasureUnit(c.usl, u)}; the fitted normal expects ${formatPpm(c.expectedPpm)} ppm.`;
   return `${head}${ask}.${overall}${out}`;
@@ -76,23 +81,35 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
   return (
     <>
       {statement ? (
-        <p aria-label="Capability statement" className={`rounded-lg border-l-4 bg-panel px-4 py-3 text-[14px] leading-relaxed text-ink ${holds ? "border-pass" : "border-fail"}`}>
+        <p
+          aria-label="Capability statement"
+          className={`rounded-lg border-l-4 bg-panel px-4 py-3 text-[14px] leading-relaxed text-ink ${holds ? "border-pass" : "border-fail"}`}
+        >
           {statement}
         </p>
       ) : (
         <p className="text-[13px] text-ink/65">
-          {s.tolerance ? "The tolerance is measured data itself: there are no limits to hold the units against." : "No tolerance to hold the units against: map the column to a source."}
+          {s.tolerance
+            ? "The tolerance is measured data itself: there are no limits to hold the units against."
+            : "No tolerance to hold the units against: map the column to a source."}
         </p>
       )}
       <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_290px]">
         <figure aria-label={`Tolerance window of ${s.column}`} className="min-w-0 rounded-lg border border-line bg-white/60 p-2">
           <ToleranceWindow s={s} />
           <figcaption className="px-2 pt-1 text-2xs text-ink/60">
-            The frame is the tolerance window{c ? "" : " (none: the column is not mapped to a ± tolerance)"}. Left: each unit in production order
-            {s.lotColumn ? `, lots from “${s.lotColumn}”` : ""}, with the individuals chart's centre line and control limits (dashed). Right: the same
-            values as a distribution with the fitted normal. Below: moving ranges of consecutive units.{" "}
-            {s.controlChart ? `Constants d₂ = ${s.controlChart.constants.d2}, D₄ = ${s.controlChart.constants.D4} (${s.controlChart.constants.source}). ` : ""}
-            {s.controlChart ? (s.controlChart.signals ? `${s.controlChart.signals} ${s.controlChart.signals === 1 ? "unit lies" : "units lie"} beyond a control limit: look for a drift or a step.` : "No unit beyond a control limit.") : ""}
+            The frame is the tolerance window{c ? "" : " (none: the column is not mapped to a ± tolerance)"}. Left: each unit in production
+            order
+            {s.lotColumn ? `, lots from “${s.lotColumn}”` : ""}, with the individuals chart's centre line and control limits (dashed).
+            Right: the same values as a distribution with the fitted normal. Below: moving ranges of consecutive units.{" "}
+            {s.controlChart
+              ? `Constants d₂ = ${s.controlChart.constants.d2}, D₄ = ${s.controlChart.constants.D4} (${s.controlChart.constants.source}). `
+              : ""}
+            {s.controlChart
+              ? s.controlChart.signals
+                ? `${s.controlChart.signals} ${s.controlChart.signals === 1 ? "unit lies" : "units lie"} beyond a control limit: look for a drift or a step.`
+                : "No unit beyond a control limit."
+              : ""}
           </figcaption>
         </figure>
         <div className="flex flex-col gap-3 text-[13px]">
@@ -107,7 +124,11 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
               {formatMeasure(s.summary.min)} … {formatMeasureUnit(s.summary.max, u)}
             </Stat>
             <Stat label="Tolerance">
-              {s.tolerance && s.tolerance.tol !== null ? `${s.tolerance.mean ? `${formatMeasure(s.tolerance.mean)} ` : ""}±${formatMeasureUnit(s.tolerance.tol, u)} ${s.tolerance.dist}` : s.tolerance ? "measured data" : "—"}
+              {s.tolerance && s.tolerance.tol !== null
+                ? `${s.tolerance.mean ? `${formatMeasure(s.tolerance.mean)} ` : ""}±${formatMeasureUnit(s.tolerance.tol, u)} ${s.tolerance.dist}`
+                : s.tolerance
+                  ? "measured data"
+                  : "—"}
             </Stat>
             <Stat label={`Cpk ${c?.basis === "within lots" ? "within lots" : ""}`}>{c ? formatIndex(c.cpk) : "—"}</Stat>
             <Stat label="Cpk, 95 % lower">{c ? formatIndex(c.cpkLower) : "—"}</Stat>
@@ -115,25 +136,33 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
             <Stat label="Ppk over all">{c ? formatIndex(c.ppk) : "—"}</Stat>
             <Stat label="Pp">{c ? formatIndex(c.pp) : "—"}</Stat>
             <Stat label="Out of tolerance">{c ? `${formatPpm(c.expectedPpm)} ppm · ${c.observedOut} of ${c.n}` : "—"}</Stat>
-            <Stat label="σ within / overall">{c ? `${c.sigmaWithin !== null ? formatMeasure(c.sigmaWithin, 3) : "—"} / ${formatMeasure(c.sigmaOverall, 3)}` : "—"}</Stat>
+            <Stat label="σ within / overall">
+              {c ? `${c.sigmaWithin !== null ? formatMeasure(c.sigmaWithin, 3) : "—"} / ${formatMeasure(c.sigmaOverall, 3)}` : "—"}
+            </Stat>
           </dl>
           {c ? (
             <p className="text-2xs text-ink/55">
               Lower bound: Bissell's normal approximation (1990), one-sided {Math.round(c.confidence * 100)} %.{" "}
-              {c.basis === "within lots" ? "Cp, Cpk use the pooled spread within lots; Pp, Ppk the spread of all units." : "Without lots of several units, Cp and Cpk are the overall indices (Pp, Ppk)."}
+              {c.basis === "within lots"
+                ? "Cp, Cpk use the pooled spread within lots; Pp, Ppk the spread of all units."
+                : "Without lots of several units, Cp and Cpk are the overall indices (Pp, Ppk)."}
             </p>
           ) : null}
           <section aria-label="Normality">
             <h3 className="text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">Normality</h3>
             {s.normality ? (
               <p className="mt-1">
-                <Badge tone={s.normality.normalAt5pct ? "pass" : "fail"}>{s.normality.normalAt5pct ? "consistent with normal" : "not normal"}</Badge>
+                <Badge tone={s.normality.normalAt5pct ? "pass" : "fail"}>
+                  {s.normality.normalAt5pct ? "consistent with normal" : "not normal"}
+                </Badge>
                 <span className="ml-2 text-ink/70 tabular-nums">
                   A* = {s.normality.a2Star.toFixed(3)}, p = {s.normality.pValue < 0.001 ? "< 0.001" : s.normality.pValue.toFixed(3)}
                 </span>
                 <span className="mt-1 block text-xs text-ink/55">
                   Anderson–Darling, D'Agostino and Stephens (1986).
-                  {s.normality.normalAt5pct ? "" : " The fitted normal, its ppm and the bound are then only a rough guide; the as-built study can resample the measurements instead."}
+                  {s.normality.normalAt5pct
+                    ? ""
+                    : " The fitted normal, its ppm and the bound are then only a rough guide; the as-built study can resample the measurements instead."}
                 </span>
               </p>
             ) : (

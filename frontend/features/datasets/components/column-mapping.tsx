@@ -33,7 +33,8 @@ function partFields(source: string, part: number | null): Pick<MappingInput, "su
 }
 
 /** A source offered as one column for all its draws, beside its parts (not the pooled tilt, not six separate axis tolerances). */
-const takesOneColumn = (s: StackSource) => !s.parts || s.id.endsWith(".bondLine") || (s.id.endsWith(".axis") && s.parts.every((p) => p.tolerance === s.parts![0].tolerance));
+const takesOneColumn = (s: StackSource) =>
+  !s.parts || s.id.endsWith(".bondLine") || (s.id.endsWith(".axis") && s.parts.every((p) => p.tolerance === s.parts![0].tolerance));
 
 /** The stack's design value of a source (bond-line thickness, position, yaw) in the column's unit: the nominal to take off. */
 function stackNominal(src: StackSource | undefined, unit: MeasureUnit | ""): string {
@@ -57,15 +58,7 @@ function toleranceText(s: StackSource): string {
  * Sources come from one stack revision of the project; only those of the column's kind
  * (heights in µm, angles in degrees) are offered.
  */
-export function ColumnMapping({
-  dataset,
-  canWrite,
-  onShow,
-}: {
-  dataset: Dataset;
-  canWrite: boolean;
-  onShow: (column: string) => void;
-}) {
+export function ColumnMapping({ dataset, canWrite, onShow }: { dataset: Dataset; canWrite: boolean; onShow: (column: string) => void }) {
   const revisions = useProjectRevisions(dataset.projectId);
   const numeric = useMemo(() => dataset.columns.filter((c) => c.kind === "number"), [dataset]);
   const mappedRev = numeric.find((c) => c.mapping)?.mapping?.revisionId;
@@ -80,7 +73,11 @@ export function ColumnMapping({
     const out: Record<string, Row> = {};
     for (const c of numeric) {
       const m = c.mapping && c.mapping.revisionId === rev ? c.mapping : null;
-      out[c.key] = { source: m ? (m.part !== null ? `${m.source}#${m.part}` : m.source) : "", unit: m?.unit ?? c.unit ?? "", nominal: m ? String(m.nominal) : "0" };
+      out[c.key] = {
+        source: m ? (m.part !== null ? `${m.source}#${m.part}` : m.source) : "",
+        unit: m?.unit ?? c.unit ?? "",
+        nominal: m ? String(m.nominal) : "0",
+      };
     }
     return out;
   }, [numeric, rev]);
@@ -91,19 +88,18 @@ export function ColumnMapping({
   const labels = dataset.columns.filter((c) => c.kind === "label");
 
   const changed = numeric.filter((c) => {
-    const a = rows[c.key], b = initial[c.key];
+    const a = rows[c.key],
+      b = initial[c.key];
     return a && b && (a.source !== b.source || (a.source && (a.unit !== b.unit || Number(a.nominal) !== Number(b.nominal))));
   });
-  const sent = changed.map(
-    (c): MappingInput => ({
-      column: c.key,
-      revisionId: rev,
-      source: rows[c.key].source ? splitChoice(rows[c.key].source).source : null,
-      ...(rows[c.key].source ? partFields(splitChoice(rows[c.key].source).source, splitChoice(rows[c.key].source).part) : {}),
-      ...(rows[c.key].source && rows[c.key].unit ? { unit: rows[c.key].unit as MeasureUnit } : {}),
-      ...(rows[c.key].source ? { nominal: Number(rows[c.key].nominal) || 0 } : {}),
-    }),
-  );
+  const sent = changed.map((c): MappingInput => ({
+    column: c.key,
+    revisionId: rev,
+    source: rows[c.key].source ? splitChoice(rows[c.key].source).source : null,
+    ...(rows[c.key].source ? partFields(splitChoice(rows[c.key].source).source, splitChoice(rows[c.key].source).part) : {}),
+    ...(rows[c.key].source && rows[c.key].unit ? { unit: rows[c.key].unit as MeasureUnit } : {}),
+    ...(rows[c.key].source ? { nominal: Number(rows[c.key].nominal) || 0 } : {}),
+  }));
   const errors = new Map<string, string>();
   if (update.isError && isApiError(update.error)) {
     for (const f of update.error.fields) {
@@ -122,7 +118,11 @@ export function ColumnMapping({
     setRows((r) => {
       const next = { ...r[key], ...patch };
       // choosing a source brings its design value from the stack, until the nominal is typed
-      if (patch.source !== undefined && !next.nominalEdited) next.nominal = stackNominal(sources.find((x) => x.id === splitChoice(next.source).source), next.unit);
+      if (patch.source !== undefined && !next.nominalEdited)
+        next.nominal = stackNominal(
+          sources.find((x) => x.id === splitChoice(next.source).source),
+          next.unit,
+        );
       return { ...r, [key]: next };
     });
 
@@ -131,7 +131,14 @@ export function ColumnMapping({
       <div className="flex flex-wrap items-center gap-3 border-b border-line px-4 py-2.5">
         <label className="flex items-center gap-2 text-xs font-semibold whitespace-nowrap text-ink/75">
           Sources of
-          <Select compact aria-label="Stack revision" value={rev} onChange={(e) => setRevisionId(e.target.value)} className="w-56" disabled={!list.length}>
+          <Select
+            compact
+            aria-label="Stack revision"
+            value={rev}
+            onChange={(e) => setRevisionId(e.target.value)}
+            className="w-56"
+            disabled={!list.length}
+          >
             {list.map((r) => (
               <option key={r.id} value={r.id}>
                 Revision {r.number} · {r.status.replace("_", " ")}
@@ -139,7 +146,9 @@ export function ColumnMapping({
             ))}
           </Select>
         </label>
-        {!list.length && !revisions.isPending ? <span className="text-xs text-ink/55">This project has no stack revision to map to yet.</span> : null}
+        {!list.length && !revisions.isPending ? (
+          <span className="text-xs text-ink/55">This project has no stack revision to map to yet.</span>
+        ) : null}
         {labels.length ? (
           <label className="flex items-center gap-2 text-xs font-semibold whitespace-nowrap text-ink/75">
             Lots from
@@ -193,7 +202,11 @@ export function ColumnMapping({
               <th scope="col" className={`${th} text-left`}>
                 Unit
               </th>
-              <th scope="col" className={`${th} text-left`} title="Subtracted from every value: the design value of an absolute measurement">
+              <th
+                scope="col"
+                className={`${th} text-left`}
+                title="Subtracted from every value: the design value of an absolute measurement"
+              >
                 Nominal
               </th>
               <th scope="col" className={th}>
@@ -220,11 +233,16 @@ export function ColumnMapping({
         </table>
       </div>
       {dataset.pooled.length ? (
-        <ul className="flex flex-col gap-1 border-t border-line px-4 py-2.5 text-xs text-ink/70" aria-label="Sources measured by several columns">
+        <ul
+          className="flex flex-col gap-1 border-t border-line px-4 py-2.5 text-xs text-ink/70"
+          aria-label="Sources measured by several columns"
+        >
           {dataset.pooled.map((p) => (
             <li key={`${p.revisionNumber}-${p.source}`}>
-              <span className="font-semibold text-ink">{p.source}</span> (rev {p.revisionNumber}) from {p.columns.length} of {p.parts} columns: {p.completeRows} complete rows
-              {p.dropped ? `, ${p.dropped} left out for a gap` : ""}.{p.missingParts.length ? ` Still to map: ${p.missingParts.join(", ")}.` : " Each as-built trial draws one unit's whole row."}
+              <span className="font-semibold text-ink">{p.source}</span> (rev {p.revisionNumber}) from {p.columns.length} of {p.parts}{" "}
+              columns: {p.completeRows} complete rows
+              {p.dropped ? `, ${p.dropped} left out for a gap` : ""}.
+              {p.missingParts.length ? ` Still to map: ${p.missingParts.join(", ")}.` : " Each as-built trial draws one unit's whole row."}
             </li>
           ))}
         </ul>
@@ -276,7 +294,14 @@ function MappingRow({
         <td className="num h-11 px-3">{c.summary ? formatMeasure(c.summary.std) : "—"}</td>
         <td className="h-11 px-3">
           {canWrite ? (
-            <Select compact aria-label={`Tolerance source for ${label}`} value={row.source} onChange={(e) => onChange({ source: e.target.value })} className="w-72" invalid={!!error}>
+            <Select
+              compact
+              aria-label={`Tolerance source for ${label}`}
+              value={row.source}
+              onChange={(e) => onChange({ source: e.target.value })}
+              className="w-72"
+              invalid={!!error}
+            >
               <option value="">Not mapped</option>
               {offered.flatMap((s) => [
                 ...(takesOneColumn(s)
@@ -301,7 +326,13 @@ function MappingRow({
         </td>
         <td className="h-11 px-3">
           {canWrite && !c.unit ? (
-            <Select compact aria-label={`Unit of ${label}`} value={row.unit} onChange={(e) => onChange({ unit: e.target.value as MeasureUnit | "" })} className="w-24">
+            <Select
+              compact
+              aria-label={`Unit of ${label}`}
+              value={row.unit}
+              onChange={(e) => onChange({ unit: e.target.value as MeasureUnit | "" })}
+              className="w-24"
+            >
               <option value="">unit…</option>
               {unitChoices.map((u) => (
                 <option key={u} value={u}>

@@ -13,7 +13,11 @@ export function DatasetPreview({ dataset }: { dataset: Dataset }) {
               Row
             </th>
             {columns.map((c) => (
-              <th key={c.key} scope="col" className={`h-8 px-3 text-2xs font-bold whitespace-nowrap text-ink/65 ${c.kind === "number" ? "text-right" : "text-left"}`}>
+              <th
+                key={c.key}
+                scope="col"
+                className={`h-8 px-3 text-2xs font-bold whitespace-nowrap text-ink/65 ${c.kind === "number" ? "text-right" : "text-left"}`}
+              >
                 <span className="mr-1 font-mono text-ink/35">{c.letter}</span>
                 {c.name}
                 {c.unit ? <span className="ml-1 font-semibold text-ink/45">[{unitText(c.unit)}]</span> : null}

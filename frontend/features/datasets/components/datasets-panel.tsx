@@ -56,8 +56,24 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
       actions={
         canWrite ? (
           <>
-            <Input compact aria-label="Lot of the upload" placeholder="Lot (optional)" value={lot} onChange={(e) => setLot(e.target.value)} className="w-32" maxLength={100} />
-            <Input compact aria-label="Note on the upload" placeholder="Note (optional)" value={note} onChange={(e) => setNote(e.target.value)} className="w-48" maxLength={2000} />
+            <Input
+              compact
+              aria-label="Lot of the upload"
+              placeholder="Lot (optional)"
+              value={lot}
+              onChange={(e) => setLot(e.target.value)}
+              className="w-32"
+              maxLength={100}
+            />
+            <Input
+              compact
+              aria-label="Note on the upload"
+              placeholder="Note (optional)"
+              value={note}
+              onChange={(e) => setNote(e.target.value)}
+              className="w-48"
+              maxLength={2000}
+            />
             <input
               ref={input}
               type="file"
@@ -67,7 +83,13 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
               onChange={onFile}
               tabIndex={-1}
             />
-            <Button size="sm" variant="primary" icon={<PlusIcon size={14} />} pending={uploadMutation.isPending} onClick={() => input.current?.click()}>
+            <Button
+              size="sm"
+              variant="primary"
+              icon={<PlusIcon size={14} />}
+              pending={uploadMutation.isPending}
+              onClick={() => input.current?.click()}
+            >
               Upload measurements
             </Button>
           </>
@@ -89,7 +111,9 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
           <Spinner /> Loading data sets…
         </p>
       ) : datasets.isError ? (
-        <p className="px-4 py-6 text-[13px] text-fail">{isApiError(datasets.error) ? datasets.error.message : "The data sets could not be loaded."}</p>
+        <p className="px-4 py-6 text-[13px] text-fail">
+          {isApiError(datasets.error) ? datasets.error.message : "The data sets could not be loaded."}
+        </p>
       ) : list.length === 0 ? (
         <EmptyState title="No measurements yet" className="py-8">
           Upload first-build measurements as CSV or an Excel workbook: one row per unit, one column per quantity, the unit in the header
@@ -100,7 +124,13 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
           <div className="flex items-center gap-2 border-b border-line px-3 py-1.5">
             <label className="flex items-center gap-2 text-xs font-semibold text-ink/70">
               Group
-              <Select compact aria-label="Group data sets by" value={groupBy} onChange={(e) => setGroupBy(e.target.value as GroupBy)} className="w-40">
+              <Select
+                compact
+                aria-label="Group data sets by"
+                value={groupBy}
+                onChange={(e) => setGroupBy(e.target.value as GroupBy)}
+                className="w-40"
+              >
                 <option value="none">newest first</option>
                 <option value="lot">by lot</option>
                 <option value="report">by report</option>
@@ -133,57 +163,64 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
                   ? [
                       <tr key={`group-${label}`} className="border-b border-line bg-paper/60" data-group={label}>
                         <th scope="rowgroup" colSpan={5} className="px-3 py-1 text-left text-xs font-bold text-ink/75">
-                          {label} <span className="font-normal text-ink/50">· {rows.length} {rows.length === 1 ? "file" : "files"}</span>
+                          {label}{" "}
+                          <span className="font-normal text-ink/50">
+                            · {rows.length} {rows.length === 1 ? "file" : "files"}
+                          </span>
                         </th>
                       </tr>,
                     ]
                   : []),
                 ...rows.map((d) => (
-                <tr key={d.id} className="border-b border-line/70 last:border-b-0 hover:bg-paper/60">
-                  <td className="h-10 max-w-[280px] px-3 py-1.5">
-                    <Link to={`/projects/${projectId}/datasets/${d.id}`} className="block truncate font-bold text-ink hover:text-accel hover:underline" title={d.name}>
-                      {d.name}
-                    </Link>
-                    <span className="text-2xs text-ink/50 uppercase">
-                      {d.fileType}
-                      {d.sheet ? ` · sheet ${d.sheet}` : ""} · {d.columnCount} columns
-                    </span>
-                    {d.lot ? <span className="ml-1.5 text-2xs font-semibold text-ink/70">lot {d.lot}</span> : null}
-                    {d.note ? (
-                      <span className="block truncate text-2xs text-ink/55" title={d.note}>
-                        {d.note}
+                  <tr key={d.id} className="border-b border-line/70 last:border-b-0 hover:bg-paper/60">
+                    <td className="h-10 max-w-[280px] px-3 py-1.5">
+                      <Link
+                        to={`/projects/${projectId}/datasets/${d.id}`}
+                        className="block truncate font-bold text-ink hover:text-accel hover:underline"
+                        title={d.name}
+                      >
+                        {d.name}
+                      </Link>
+                      <span className="text-2xs text-ink/50 uppercase">
+                        {d.fileType}
+                        {d.sheet ? ` · sheet ${d.sheet}` : ""} · {d.columnCount} columns
                       </span>
-                    ) : null}
-                  </td>
-                  <td className="num h-10 px-3">{formatCount(d.rows)}</td>
-                  <td className="h-10 px-3">
-                    {d.mappedColumns.length ? (
-                      <span className="flex flex-wrap gap-1">
-                        {d.mappedColumns.map((m) => (
-                          <Badge key={m.column} tone="accel">
-                            {m.source}
-                          </Badge>
-                        ))}
-                      </span>
-                    ) : (
-                      <span className="text-xs text-ink/45">not mapped</span>
-                    )}
-                  </td>
-                  <td className="h-10 px-3">
-                    <span className="font-semibold text-ink">{d.uploadedByName ?? "a removed member"}</span>
-                    {d.supplierName ? (
-                      <span className="ml-1.5 inline-flex items-center gap-1 align-middle">
-                        <Badge tone="substrate">{d.supplierName}</Badge>
-                        {d.report ? <span className="text-2xs text-ink/55">{reportNumber(d.report)}</span> : null}
-                      </span>
-                    ) : null}
-                  </td>
-                  <td className="num h-10 px-3 text-ink/70">
-                    <time dateTime={d.createdAt} title={formatDateTime(d.createdAt)}>
-                      {formatRelative(d.createdAt)}
-                    </time>
-                  </td>
-                </tr>
+                      {d.lot ? <span className="ml-1.5 text-2xs font-semibold text-ink/70">lot {d.lot}</span> : null}
+                      {d.note ? (
+                        <span className="block truncate text-2xs text-ink/55" title={d.note}>
+                          {d.note}
+                        </span>
+                      ) : null}
+                    </td>
+                    <td className="num h-10 px-3">{formatCount(d.rows)}</td>
+                    <td className="h-10 px-3">
+                      {d.mappedColumns.length ? (
+                        <span className="flex flex-wrap gap-1">
+                          {d.mappedColumns.map((m) => (
+                            <Badge key={m.column} tone="accel">
+                              {m.source}
+                            </Badge>
+                          ))}
+                        </span>
+                      ) : (
+                        <span className="text-xs text-ink/45">not mapped</span>
+                      )}
+                    </td>
+                    <td className="h-10 px-3">
+                      <span className="font-semibold text-ink">{d.uploadedByName ?? "a removed member"}</span>
+                      {d.supplierName ? (
+                        <span className="ml-1.5 inline-flex items-center gap-1 align-middle">
+                          <Badge tone="substrate">{d.supplierName}</Badge>
+                          {d.report ? <span className="text-2xs text-ink/55">{reportNumber(d.report)}</span> : null}
+                        </span>
+                      ) : null}
+                    </td>
+                    <td className="num h-10 px-3 text-ink/70">
+                      <time dateTime={d.createdAt} title={formatDateTime(d.createdAt)}>
+                        {formatRelative(d.createdAt)}
+                      </time>
+                    </td>
+                  </tr>
                 )),
               ])}
             </tbody>
@@ -199,7 +236,14 @@ type GroupBy = "none" | "lot" | "report";
 /** The data sets in groups (by the lot they were sent for, or by report), newest first within each. */
 function grouped(list: DatasetSummary[], by: GroupBy): { label: string | null; rows: DatasetSummary[] }[] {
   if (by === "none") return [{ label: null, rows: list }];
-  const key = (d: DatasetSummary) => (by === "lot" ? (d.lot ? `Lot ${d.lot}` : "No lot given") : d.report ? `${reportNumber(d.report)}${d.supplierName ? ` · ${d.supplierName}` : ""}` : "Not sent for a report");
+  const key = (d: DatasetSummary) =>
+    by === "lot"
+      ? d.lot
+        ? `Lot ${d.lot}`
+        : "No lot given"
+      : d.report
+        ? `${reportNumber(d.report)}${d.supplierName ? ` · ${d.supplierName}` : ""}`
+        : "Not sent for a report";
   const groups = new Map<string, DatasetSummary[]>();
   for (const d of list) groups.set(key(d), [...(groups.get(key(d)) ?? []), d]);
   return [...groups.entries()].map(([label, rows]) => ({ label, rows }));

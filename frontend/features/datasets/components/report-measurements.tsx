@@ -37,8 +37,22 @@ export function ReportMeasurements({ reportId, canSend }: { reportId: string; ca
       actions={
         canSend ? (
           <>
-            <input ref={input} type="file" accept=".csv,.txt,.tsv,.xlsx" className="sr-only" aria-label="Measurement file for this report (CSV or XLSX)" onChange={onFile} tabIndex={-1} />
-            <Button size="sm" variant="primary" icon={<PlusIcon size={14} />} pending={send.isPending} onClick={() => input.current?.click()}>
+            <input
+              ref={input}
+              type="file"
+              accept=".csv,.txt,.tsv,.xlsx"
+              className="sr-only"
+              aria-label="Measurement file for this report (CSV or XLSX)"
+              onChange={onFile}
+              tabIndex={-1}
+            />
+            <Button
+              size="sm"
+              variant="primary"
+              icon={<PlusIcon size={14} />}
+              pending={send.isPending}
+              onClick={() => input.current?.click()}
+            >
               Send measurements
             </Button>
           </>

@@ -5,7 +5,9 @@ import { niceTicks } from "../lib/ticks";
 
 /** Two alternating lot tones, so neighbouring lots read apart without a legend of colours. */
 const LOT_TONES = ["#0d9488", "#6366f1"];
-const W = 760, H = 300, MR_H = 70;
+const W = 760,
+  H = 300,
+  MR_H = 70;
 const PAD = { left: 56, right: 12, top: 12, bottom: 22 };
 const DIST_W = 130;
 const GAP = 14;
@@ -26,11 +28,14 @@ export function ToleranceWindow({ s }: { s: DatasetStatistics }) {
   const lo0 = Math.min(...values, c?.lsl ?? Infinity, chart?.x.lcl ?? Infinity, s.summary.min);
   const hi0 = Math.max(...values, c?.usl ?? -Infinity, chart?.x.ucl ?? -Infinity, s.summary.max);
   const span = hi0 - lo0 || Math.abs(hi0) || 1;
-  const lo = lo0 - span * 0.08, hi = hi0 + span * 0.08;
+  const lo = lo0 - span * 0.08,
+    hi = hi0 + span * 0.08;
   const plotH = H - PAD.top - PAD.bottom;
   const y = (v: number) => PAD.top + ((hi - v) / (hi - lo)) * plotH;
-  const runLeft = PAD.left, runRight = W - PAD.right - DIST_W - GAP;
-  const distLeft = runRight + GAP, distRight = W - PAD.right;
+  const runLeft = PAD.left,
+    runRight = W - PAD.right - DIST_W - GAP;
+  const distLeft = runRight + GAP,
+    distRight = W - PAD.right;
   const n = Math.max(points.length, 1);
   const x = (order: number) => runLeft + ((order - 0.5) / n) * (runRight - runLeft);
   const unit = unitText(s.unit);
@@ -60,12 +65,34 @@ export function ToleranceWindow({ s }: { s: DatasetStatistics }) {
   const my = (v: number) => H + 10 + (1 - v / mrTop) * (MR_H - 20);
 
   return (
-    <svg viewBox={`0 0 ${W} ${H + MR_H}`} className="h-auto w-full" role="img" aria-label={`Units of ${s.column} in production order inside the tolerance window`} data-chart="tolerance-window">
+    <svg
+      viewBox={`0 0 ${W} ${H + MR_H}`}
+      className="h-auto w-full"
+      role="img"
+      aria-label={`Units of ${s.column} in production order inside the tolerance window`}
+      data-chart="tolerance-window"
+    >
       {/* outside the window: shaded margins */}
       {c ? (
         <>
-          <rect x={runLeft} y={PAD.top} width={distRight - runLeft} height={Math.max(0, y(c.usl) - PAD.top)} fill={FAIL} fillOpacity={0.07} data-zone="above" />
-          <rect x={runLeft} y={y(c.lsl)} width={distRight - runLeft} height={Math.max(0, H - PAD.bottom - y(c.lsl))} fill={FAIL} fillOpacity={0.07} data-zone="below" />
+          <rect
+            x={runLeft}
+            y={PAD.top}
+            width={distRight - runLeft}
+            height={Math.max(0, y(c.usl) - PAD.top)}
+            fill={FAIL}
+            fillOpacity={0.07}
+            data-zone="above"
+          />
+          <rect
+            x={runLeft}
+            y={y(c.lsl)}
+            width={distRight - runLeft}
+            height={Math.max(0, H - PAD.bottom - y(c.lsl))}
+            fill={FAIL}
+            fillOpacity={0.07}
+            data-zone="below"
+          />
           <line x1={runLeft} x2={distRight} y1={y(c.usl)} y2={y(c.usl)} stroke={FAIL} strokeWidth={1.4} />
           <line x1={runLeft} x2={distRight} y1={y(c.lsl)} y2={y(c.lsl)} stroke={FAIL} strokeWidth={1.4} />
           <text x={distRight} y={y(c.usl) - 4} textAnchor="end" fontSize={10.5} fontWeight={700} fill={FAIL}>
@@ -76,7 +103,17 @@ export function ToleranceWindow({ s }: { s: DatasetStatistics }) {
           </text>
         </>
       ) : null}
-      {s.tolerance ? <line x1={runLeft} x2={distRight} y1={y(s.tolerance.mean)} y2={y(s.tolerance.mean)} stroke={PASS} strokeOpacity={0.7} strokeDasharray="2 3" /> : null}
+      {s.tolerance ? (
+        <line
+          x1={runLeft}
+          x2={distRight}
+          y1={y(s.tolerance.mean)}
+          y2={y(s.tolerance.mean)}
+          stroke={PASS}
+          strokeOpacity={0.7}
+          strokeDasharray="2 3"
+        />
+      ) : null}
       {/* value axis */}
       {niceTicks(lo, hi, 6).map((v) => (
         <g key={v}>
@@ -86,7 +123,15 @@ export function ToleranceWindow({ s }: { s: DatasetStatistics }) {
           </text>
         </g>
       ))}
-      <text x={12} y={PAD.top + plotH / 2} transform={`rotate(-90 12 ${PAD.top + plotH / 2})`} textAnchor="middle" fontSize={10.5} fill={INK} fillOpacity={0.6}>
+      <text
+        x={12}
+        y={PAD.top + plotH / 2}
+        transform={`rotate(-90 12 ${PAD.top + plotH / 2})`}
+        textAnchor="middle"
+        fontSize={10.5}
+        fill={INK}
+        fillOpacity={0.6}
+      >
         {s.source ?? s.column}
         {unit && unit !== "°" ? ` (${unit})` : ""}
       </text>
@@ -101,7 +146,16 @@ export function ToleranceWindow({ s }: { s: DatasetStatistics }) {
       ) : null}
       {lotStarts.map((l, i) => (
         <g key={`${l.lot}-${i}`}>
-          {i > 0 ? <line x1={x(l.order) - (runRight - runLeft) / n / 2} x2={x(l.order) - (runRight - runLeft) / n / 2} y1={PAD.top} y2={H - PAD.bottom} stroke={INK} strokeOpacity={0.25} /> : null}
+          {i > 0 ? (
+            <line
+              x1={x(l.order) - (runRight - runLeft) / n / 2}
+              x2={x(l.order) - (runRight - runLeft) / n / 2}
+              y1={PAD.top}
+              y2={H - PAD.bottom}
+              stroke={INK}
+              strokeOpacity={0.25}
+            />
+          ) : null}
           <text x={x(l.order) - (runRight - runLeft) / n / 2 + 3} y={H - PAD.bottom + 14} fontSize={10} fill={l.tone} fontWeight={700}>
             {l.lot}
           </text>
@@ -109,7 +163,15 @@ export function ToleranceWindow({ s }: { s: DatasetStatistics }) {
       ))}
       <polyline points={points.map((p) => `${x(p.order)},${y(p.x)}`).join(" ")} fill="none" stroke={INK} strokeOpacity={0.18} />
       {points.map((p) => (
-        <circle key={p.order} data-unit={p.order} cx={x(p.order)} cy={y(p.x)} r={p.outX ? 3.6 : 2.8} fill={p.outX ? FAIL : toneOf(p.order)} stroke={p.outX ? FAIL : "none"}>
+        <circle
+          key={p.order}
+          data-unit={p.order}
+          cx={x(p.order)}
+          cy={y(p.x)}
+          r={p.outX ? 3.6 : 2.8}
+          fill={p.outX ? FAIL : toneOf(p.order)}
+          stroke={p.outX ? FAIL : "none"}
+        >
           <title>{`unit ${p.order} (row ${p.row}${p.lot ? `, lot ${p.lot}` : ""}): ${tick(p.x)}`}</title>
         </circle>
       ))}
@@ -121,9 +183,25 @@ export function ToleranceWindow({ s }: { s: DatasetStatistics }) {
       {/* the distribution on its side */}
       <line x1={distLeft} x2={distLeft} y1={PAD.top} y2={H - PAD.bottom} stroke={INK} strokeOpacity={0.3} />
       {h.bins.map((b, i) => (
-        <rect key={i} x={distLeft} y={y(b.to)} width={dx(b.count) - distLeft} height={Math.max(0.5, y(b.from) - y(b.to))} fill={LOT_TONES[0]} fillOpacity={0.35} />
+        <rect
+          key={i}
+          x={distLeft}
+          y={y(b.to)}
+          width={dx(b.count) - distLeft}
+          height={Math.max(0.5, y(b.from) - y(b.to))}
+          fill={LOT_TONES[0]}
+          fillOpacity={0.35}
+        />
       ))}
-      {curve.length ? <polyline data-layer="fitted-normal" points={curve.map((p) => `${dx(p.y)},${y(p.x)}`).join(" ")} fill="none" stroke={INK} strokeWidth={1.4} /> : null}
+      {curve.length ? (
+        <polyline
+          data-layer="fitted-normal"
+          points={curve.map((p) => `${dx(p.y)},${y(p.x)}`).join(" ")}
+          fill="none"
+          stroke={INK}
+          strokeWidth={1.4}
+        />
+      ) : null}
       <text x={distLeft + 2} y={H - PAD.bottom + 14} fontSize={10} fill={INK} fillOpacity={0.55}>
         distribution
       </text>
@@ -133,12 +211,27 @@ export function ToleranceWindow({ s }: { s: DatasetStatistics }) {
           <text x={runLeft - 6} y={H + 14} textAnchor="end" fontSize={10} fill={INK} fillOpacity={0.6}>
             MR
           </text>
-          <line x1={runLeft} x2={runRight} y1={my(chart.mr.ucl)} y2={my(chart.mr.ucl)} stroke={INK} strokeOpacity={0.45} strokeDasharray="6 4" />
+          <line
+            x1={runLeft}
+            x2={runRight}
+            y1={my(chart.mr.ucl)}
+            y2={my(chart.mr.ucl)}
+            stroke={INK}
+            strokeOpacity={0.45}
+            strokeDasharray="6 4"
+          />
           <line x1={runLeft} x2={runRight} y1={my(chart.mr.centre)} y2={my(chart.mr.centre)} stroke={INK} strokeOpacity={0.55} />
           <line x1={runLeft} x2={runRight} y1={my(0)} y2={my(0)} stroke={INK} strokeOpacity={0.3} />
           <polyline points={mrPoints.map((p) => `${x(p.order)},${my(p.mr!)}`).join(" ")} fill="none" stroke={INK} strokeOpacity={0.35} />
           {mrPoints.map((p) => (
-            <circle key={p.order} cx={x(p.order)} cy={my(p.mr!)} r={p.outMr ? 3 : 2.2} fill={p.outMr ? FAIL : INK} fillOpacity={p.outMr ? 1 : 0.55} />
+            <circle
+              key={p.order}
+              cx={x(p.order)}
+              cy={my(p.mr!)}
+              r={p.outMr ? 3 : 2.2}
+              fill={p.outMr ? FAIL : INK}
+              fillOpacity={p.outMr ? 1 : 0.55}
+            />
           ))}
           <text x={runRight + 4} y={my(chart.mr.ucl) + 3.5} fontSize={9.5} fill={INK} fillOpacity={0.6}>
             {`UCL ${tick(chart.mr.ucl)}`}

@@ -26,10 +26,7 @@ export function AcceptInvitationForm({
     const parsed = parseForm(AcceptInvitationSchema, { name, password });
     if (!parsed.ok) return setErrors(parsed.errors);
     setErrors({});
-    accept.mutate(
-      { token, input: parsed.data },
-      { onSuccess: onAccepted, onError: (error) => setErrors(serverFieldErrors(error)) },
-    );
+    accept.mutate({ token, input: parsed.data }, { onSuccess: onAccepted, onError: (error) => setErrors(serverFieldErrors(error)) });
   }
 
   return (

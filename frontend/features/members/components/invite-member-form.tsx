@@ -72,7 +72,11 @@ export function InviteMemberForm({ suppliers }: { suppliers: Supplier[] }) {
           )}
         </Field>
         {role === "supplier" ? (
-          <Field label="Supplier company" error={errors.supplierId} hint={suppliers.length === 0 ? "Add a supplier company first." : undefined}>
+          <Field
+            label="Supplier company"
+            error={errors.supplierId}
+            hint={suppliers.length === 0 ? "Add a supplier company first." : undefined}
+          >
             {({ id, describedBy, invalid }) => (
               <Select
                 id={id}
@@ -100,8 +104,11 @@ export function InviteMemberForm({ suppliers }: { suppliers: Supplier[] }) {
         <div className="rounded-md border border-pass/25 bg-pass/[0.05] p-3" role="status" aria-label="Invitation created">
           <p className="text-[13px] font-bold text-pass">Invitation ready for {sent.email}</p>
           <p className="mt-0.5 text-xs text-ink/65">
-            {sent.mailed ? "The link below went out by e-mail; you can also pass it on yourself." : "The e-mail could not be sent. Send this link yourself."} It works once
-            and expires on {new Date(sent.expiresAt).toLocaleDateString("en-GB", { day: "2-digit", month: "short", year: "numeric" })}.
+            {sent.mailed
+              ? "The link below went out by e-mail; you can also pass it on yourself."
+              : "The e-mail could not be sent. Send this link yourself."}{" "}
+            It works once and expires on{" "}
+            {new Date(sent.expiresAt).toLocaleDateString("en-GB", { day: "2-digit", month: "short", year: "numeric" })}.
           </p>
           {sent.link ? (
             <div className="mt-2 flex items-center gap-2">

@@ -153,7 +153,13 @@ function SupplierRoleDialog({ member, suppliers, onClose }: { member: Member; su
       ) : (
         <Field label="Supplier company" error={error ?? undefined}>
           {({ id, describedBy, invalid }) => (
-            <Select id={id} value={supplierId} invalid={invalid} aria-describedby={describedBy} onChange={(e) => setSupplierId(e.target.value)}>
+            <Select
+              id={id}
+              value={supplierId}
+              invalid={invalid}
+              aria-describedby={describedBy}
+              onChange={(e) => setSupplierId(e.target.value)}
+            >
               <option value="">Choose…</option>
               {suppliers.map((s) => (
                 <option key={s.id} value={s.id}>
@@ -181,8 +187,8 @@ function RemoveMemberDialog({ member, onClose }: { member: Member; onClose: () =
       onConfirm={() => remove.mutate(member.id, { onSuccess: onClose })}
     >
       <p>
-        <strong className="font-bold text-ink">{member.name}</strong> ({member.email}) loses access to the workspace at once. Their
-        past activity stays on record. You can invite them again later.
+        <strong className="font-bold text-ink">{member.name}</strong> ({member.email}) loses access to the workspace at once. Their past
+        activity stays on record. You can invite them again later.
       </p>
     </ConfirmDialog>
   );

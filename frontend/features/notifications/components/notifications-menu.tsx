@@ -14,7 +14,13 @@ export function NotificationsMenu() {
   const unread = data?.unread ?? 0;
   return (
     <div className="relative">
-      <Button size="sm" variant="ghost" onClick={() => setOpen((o) => !o)} aria-expanded={open} aria-label={`Notifications, ${unread} unread`}>
+      <Button
+        size="sm"
+        variant="ghost"
+        onClick={() => setOpen((o) => !o)}
+        aria-expanded={open}
+        aria-label={`Notifications, ${unread} unread`}
+      >
         Notifications
         {unread ? (
           <span className="ml-1 rounded-full bg-mag px-1.5 text-[11px] font-extrabold text-white tabular-nums" data-testid="unread-count">
@@ -23,7 +29,11 @@ export function NotificationsMenu() {
         ) : null}
       </Button>
       {open ? (
-        <div role="dialog" aria-label="Notifications" className="absolute right-0 z-30 mt-2 w-96 overflow-hidden rounded-lg border border-line bg-panel shadow-lg">
+        <div
+          role="dialog"
+          aria-label="Notifications"
+          className="absolute right-0 z-30 mt-2 w-96 overflow-hidden rounded-lg border border-line bg-panel shadow-lg"
+        >
           <div className="flex items-center justify-between border-b border-line px-3 py-2">
             <p className="text-xs font-bold text-ink">What waits for you</p>
             {unread ? (
@@ -38,7 +48,10 @@ export function NotificationsMenu() {
                 <li key={n.id}>
                   <button
                     type="button"
-                    className={cn("block w-full px-3 py-2 text-left text-[13px] hover:bg-paper", n.readAt ? "text-ink/60" : "font-semibold text-ink")}
+                    className={cn(
+                      "block w-full px-3 py-2 text-left text-[13px] hover:bg-paper",
+                      n.readAt ? "text-ink/60" : "font-semibold text-ink",
+                    )}
                     onClick={() => {
                       setOpen(false);
                       if (!n.readAt) markRead.mutate([n.id]);

@@ -36,8 +36,8 @@ export function DeleteProjectDialog({
       }
     >
       <p>
-        <strong className="font-bold text-ink">{project.name}</strong> will be removed for everyone in the workspace, with its
-        stack revisions, studies, data sets and reports. This cannot be undone.
+        <strong className="font-bold text-ink">{project.name}</strong> will be removed for everyone in the workspace, with its stack
+        revisions, studies, data sets and reports. This cannot be undone.
       </p>
     </ConfirmDialog>
   );

@@ -28,7 +28,15 @@ type Props = {
  * Builds a supplier's report: a finished study on an approved revision, one of the companies
  * that own tolerances in it, the capability asked, and optionally the 3D view's PNG.
  */
-export function BuildReportDialog({ projectId, open, onClose, onBuilt, studyId: initialStudy, supplierId: initialSupplier, cpk: initialCpk }: Props) {
+export function BuildReportDialog({
+  projectId,
+  open,
+  onClose,
+  onBuilt,
+  studyId: initialStudy,
+  supplierId: initialSupplier,
+  cpk: initialCpk,
+}: Props) {
   const options = useReportOptions(projectId, open);
   const create = useCreateReport();
   const studies = useMemo(() => options.data?.studies ?? [], [options.data]);
@@ -49,7 +57,8 @@ export function BuildReportDialog({ projectId, open, onClose, onBuilt, studyId: 
     if (!study) return;
     if (!suppliers.some((s) => s.supplierId === supplierId)) {
       // the company holding the most tolerances is the likeliest one to report to
-      const free = [...suppliers].sort((a, b) => b.sources.length - a.sources.length).find((s) => s.latest?.status !== "draft") ?? suppliers[0];
+      const free =
+        [...suppliers].sort((a, b) => b.sources.length - a.sources.length).find((s) => s.latest?.status !== "draft") ?? suppliers[0];
       setSupplierId(free?.supplierId ?? "");
     }
   }, [study, suppliers, supplierId]);
@@ -75,7 +84,12 @@ export function BuildReportDialog({ projectId, open, onClose, onBuilt, studyId: 
 
   function submit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
-    const parsed = parseForm(CreateReportSchema, { supplierId, cpk: Number(cpk), note, ...(snapshot ? { snapshotPng: snapshot.url } : {}) });
+    const parsed = parseForm(CreateReportSchema, {
+      supplierId,
+      cpk: Number(cpk),
+      note,
+      ...(snapshot ? { snapshotPng: snapshot.url } : {}),
+    });
     if (!parsed.ok) return setErrors(parsed.errors);
     setErrors({});
     create.mutate({ studyId, body: parsed.data }, { onSuccess: onBuilt, onError: (e) => setErrors(serverFieldErrors(e)) });
@@ -112,7 +126,11 @@ export function BuildReportDialog({ projectId, open, onClose, onBuilt, studyId: 
       ) : eligible.length === 0 ? (
         <Alert tone="info" title="No study to build from yet">
           A report needs a finished study that ran on an approved stack revision.
-          {studies[0]?.blockedBy ? <span className="mt-1 block">Study {studies[0].number}: {studies[0].blockedBy}</span> : null}
+          {studies[0]?.blockedBy ? (
+            <span className="mt-1 block">
+              Study {studies[0].number}: {studies[0].blockedBy}
+            </span>
+          ) : null}
         </Alert>
       ) : (
         <div className="space-y-4">
@@ -123,7 +141,12 @@ export function BuildReportDialog({ projectId, open, onClose, onBuilt, studyId: 
                   <option key={s.id} value={s.id} disabled={s.blockedBy !== null}>
                     Study {s.number}
                     {s.label ? `: ${s.label}` : ""} (stack revision {s.revisionNumber}
-                    {s.blockedBy ? `, ${s.status === "finished" ? `revision ${s.revisionStatus.replace("_", " ")}` : s.status}` : s.finishedAt ? `, finished ${formatDate(s.finishedAt)}` : ""})
+                    {s.blockedBy
+                      ? `, ${s.status === "finished" ? `revision ${s.revisionStatus.replace("_", " ")}` : s.status}`
+                      : s.finishedAt
+                        ? `, finished ${formatDate(s.finishedAt)}`
+                        : ""}
+                    )
                   </option>
                 ))}
               </Select>
@@ -134,16 +157,27 @@ export function BuildReportDialog({ projectId, open, onClose, onBuilt, studyId: 
             <legend className="mb-1 text-xs font-semibold text-ink/80">Supplier</legend>
             {suppliers.length === 0 ? (
               <p className="rounded-md border border-dashed border-line px-3 py-3 text-[13px] text-ink/60">
-                No tolerance of this study's stack names a supplier company as its owner. Set the owners in the stack editor's tolerance table.
+                No tolerance of this study's stack names a supplier company as its owner. Set the owners in the stack editor's tolerance
+                table.
               </p>
             ) : (
               <div className="divide-y divide-line overflow-hidden rounded-md border border-line" role="radiogroup" aria-label="Supplier">
                 {suppliers.map((s) => (
                   <label
                     key={s.supplierId}
-                    className={cn("flex cursor-pointer items-start gap-2.5 px-3 py-2 text-[13px] hover:bg-paper/60", s.supplierId === supplierId && "bg-mag/[0.05]")}
+                    className={cn(
+                      "flex cursor-pointer items-start gap-2.5 px-3 py-2 text-[13px] hover:bg-paper/60",
+                      s.supplierId === supplierId && "bg-mag/[0.05]",
+                    )}
                   >
-                    <input type="radio" name="supplier" value={s.supplierId} checked={s.supplierId === supplierId} onChange={() => setSupplierId(s.supplierId)} className="mt-1 accent-[var(--color-mag)]" />
+                    <input
+                      type="radio"
+                      name="supplier"
+                      value={s.supplierId}
+                      checked={s.supplierId === supplierId}
+                      onChange={() => setSupplierId(s.supplierId)}
+                      className="mt-1 accent-[var(--color-mag)]"
+                    />
                     <span className="min-w-0 flex-1">
                       <span className="font-bold text-ink">{s.name}</span>
                       <span className="ml-2 text-xs text-ink/55">
@@ -166,15 +200,19 @@ export function BuildReportDialog({ projectId, open, onClose, onBuilt, studyId: 
             {draftInTheWay ? (
               <p className="mt-1.5 text-xs text-ink/65">
                 {draftInTheWay.code} revision {draftInTheWay.revision} for {chosen?.name} is still a draft.{" "}
-                <Link to={`/reports/${draftInTheWay.id}`} className="font-semibold text-gyro underline-offset-2 hover:underline" onClick={close}>
+                <Link
+                  to={`/reports/${draftInTheWay.id}`}
+                  className="font-semibold text-gyro underline-offset-2 hover:underline"
+                  onClick={close}
+                >
                   Open the draft
                 </Link>
               </p>
             ) : null}
             {study && study.unmatchedOwners.length ? (
               <p className="mt-1.5 text-xs text-ink/50">
-                Owners that name no company:{" "}
-                {study.unmatchedOwners.map((u) => `“${u.owner}” (${u.sources.length})`).join(", ")}. They are not in any supplier's report.
+                Owners that name no company: {study.unmatchedOwners.map((u) => `“${u.owner}” (${u.sources.length})`).join(", ")}. They are
+                not in any supplier's report.
               </p>
             ) : null}
           </fieldset>
@@ -182,17 +220,34 @@ export function BuildReportDialog({ projectId, open, onClose, onBuilt, studyId: 
           <div className="grid grid-cols-[140px_minmax(0,1fr)] gap-3">
             <Field label="Capability asked" aside="Cpk ≥" error={errors.cpk}>
               {({ id, describedBy, invalid }) => (
-                <Input id={id} aria-describedby={describedBy} invalid={invalid} inputMode="decimal" value={cpk} onChange={(e) => setCpk(e.target.value)} className="num" />
+                <Input
+                  id={id}
+                  aria-describedby={describedBy}
+                  invalid={invalid}
+                  inputMode="decimal"
+                  value={cpk}
+                  onChange={(e) => setCpk(e.target.value)}
+                  className="num"
+                />
               )}
             </Field>
             <p className="self-end pb-1.5 text-xs leading-4 text-ink/55">
-              For a tolerance ±T, a process centred on the target meets it with σ ≤ T / (3·Cpk). Where the study assumed a tighter process, the report asks for that.
+              For a tolerance ±T, a process centred on the target meets it with σ ≤ T / (3·Cpk). Where the study assumed a tighter process,
+              the report asks for that.
             </p>
           </div>
 
           <Field label="Note to the supplier" aside="optional" error={errors.note}>
             {({ id, describedBy, invalid }) => (
-              <Textarea id={id} aria-describedby={describedBy} invalid={invalid} rows={2} value={note} onChange={(e) => setNote(e.target.value)} placeholder="Printed under the assumptions, e.g. which line or lot this covers." />
+              <Textarea
+                id={id}
+                aria-describedby={describedBy}
+                invalid={invalid}
+                rows={2}
+                value={note}
+                onChange={(e) => setNote(e.target.value)}
+                placeholder="Printed under the assumptions, e.g. which line or lot this covers."
+              />
             )}
           </Field>
 
@@ -200,7 +255,11 @@ export function BuildReportDialog({ projectId, open, onClose, onBuilt, studyId: 
             label="3D snapshot"
             aside="optional, PNG"
             error={errors.snapshotPng || undefined}
-            hint={snapshot ? `${snapshot.name} will be printed on the cover.` : "Attach the PNG saved from the 3D view; without one the report draws a schematic side view."}
+            hint={
+              snapshot
+                ? `${snapshot.name} will be printed on the cover.`
+                : "Attach the PNG saved from the 3D view; without one the report draws a schematic side view."
+            }
           >
             {({ id, describedBy, invalid }) => (
               <input

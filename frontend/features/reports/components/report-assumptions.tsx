@@ -9,9 +9,16 @@ export function ReportAssumptions({ content: c, note }: { content: ReportContent
     <Panel title="Assumptions of the study" accent="var(--color-asic)">
       <dl className="grid gap-x-6 gap-y-2 text-[13px] sm:grid-cols-2">
         <Item label="Field inclination">
-          {c.study.inclinationDeg.toFixed(2)}°{c.study.site ? ` (${c.study.site.model}, ${c.study.site.latitudeDeg}°, ${c.study.site.longitudeDeg}°, ${c.study.site.date})` : ", as entered"}
+          {c.study.inclinationDeg.toFixed(2)}°
+          {c.study.site
+            ? ` (${c.study.site.model}, ${c.study.site.latitudeDeg}°, ${c.study.site.longitudeDeg}°, ${c.study.site.date})`
+            : ", as entered"}
         </Item>
-        <Item label="Calibration">{c.study.calibration.after === "none" ? "none" : `after ${c.study.calibration.after}, residual ${c.study.calibration.residual ?? "none"}`}</Item>
+        <Item label="Calibration">
+          {c.study.calibration.after === "none"
+            ? "none"
+            : `after ${c.study.calibration.after}, residual ${c.study.calibration.residual ?? "none"}`}
+        </Item>
         <Item label="Trials and seed">
           {formatCount(c.study.trials)} trials, seed {c.study.seed}
         </Item>

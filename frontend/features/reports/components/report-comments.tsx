@@ -15,7 +15,17 @@ const KIND: Record<string, { label: string; tone: BadgeTone } | undefined> = {
 };
 
 /** The conversation on a report: the supplier's questions, staff answers, release and acknowledgement notes. */
-export function ReportComments({ reportId, comments, asSupplier, released }: { reportId: string; comments: Comment[]; asSupplier: boolean; released: boolean }) {
+export function ReportComments({
+  reportId,
+  comments,
+  asSupplier,
+  released,
+}: {
+  reportId: string;
+  comments: Comment[];
+  asSupplier: boolean;
+  released: boolean;
+}) {
   const add = useAddReportComment();
   const [body, setBody] = useState("");
   const [error, setError] = useState<string | undefined>();
@@ -39,7 +49,10 @@ export function ReportComments({ reportId, comments, asSupplier, released }: { r
           const k = KIND[c.kind];
           return (
             <li key={c.id} className="flex gap-2.5">
-              <span className="mt-0.5 flex size-6 shrink-0 items-center justify-center rounded-full bg-ink/80 text-[9px] font-extrabold text-white" aria-hidden="true">
+              <span
+                className="mt-0.5 flex size-6 shrink-0 items-center justify-center rounded-full bg-ink/80 text-[9px] font-extrabold text-white"
+                aria-hidden="true"
+              >
                 {c.authorName ? initials(c.authorName) : "·"}
               </span>
               <div className="min-w-0 flex-1 text-[13px]">
@@ -63,7 +76,11 @@ export function ReportComments({ reportId, comments, asSupplier, released }: { r
           value={body}
           invalid={!!error}
           onChange={(e) => setBody(e.target.value)}
-          placeholder={asSupplier ? "Ask the engineer about a tolerance, a measurement or a date." : "Answer a question, or note something for the record."}
+          placeholder={
+            asSupplier
+              ? "Ask the engineer about a tolerance, a measurement or a date."
+              : "Answer a question, or note something for the record."
+          }
         />
         {error ? (
           <p role="alert" className="text-xs font-medium text-fail">
@@ -72,7 +89,11 @@ export function ReportComments({ reportId, comments, asSupplier, released }: { r
         ) : null}
         <div className="flex items-center justify-between gap-3">
           <p className="text-2xs leading-4 text-ink/50">
-            {asSupplier ? "The engineers of this project see your question." : released ? "The supplier sees what you write here." : "Internal: the supplier does not see comments on a draft."}
+            {asSupplier
+              ? "The engineers of this project see your question."
+              : released
+                ? "The supplier sees what you write here."
+                : "Internal: the supplier does not see comments on a draft."}
           </p>
           <Button type="submit" size="sm" pending={add.isPending}>
             {asSupplier ? "Ask a question" : "Comment"}

@@ -28,7 +28,9 @@ export function ReportDialogHost({
     case "edit":
       return <EditDraftDialog report={report} onClose={onClose} />;
     case "discard":
-      return <DiscardDialog report={report} onClose={onClose} onDiscarded={() => navigate(`/projects/${report.projectId}`, { replace: true })} />;
+      return (
+        <DiscardDialog report={report} onClose={onClose} onDiscarded={() => navigate(`/projects/${report.projectId}`, { replace: true })} />
+      );
     case "revise":
       return (
         <BuildReportDialog

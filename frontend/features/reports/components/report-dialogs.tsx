@@ -67,7 +67,16 @@ function NoteDialog({
       <div className="space-y-3">
         {children}
         <Field label={noteLabel} aside="optional">
-          {({ id, describedBy }) => <Textarea id={id} aria-describedby={describedBy} rows={3} value={note} onChange={(e) => setNote(e.target.value)} placeholder={placeholder} />}
+          {({ id, describedBy }) => (
+            <Textarea
+              id={id}
+              aria-describedby={describedBy}
+              rows={3}
+              value={note}
+              onChange={(e) => setNote(e.target.value)}
+              placeholder={placeholder}
+            />
+          )}
         </Field>
         {error ? <Alert>{error}</Alert> : null}
       </div>
@@ -82,8 +91,8 @@ export function ReleaseDialog({ report, onClose }: Base) {
       title={`Release ${reportTitle(report)}?`}
       description={
         <>
-          Its PDF, spreadsheet and CSV are made once now and kept exactly as they will be sent, each with a SHA-256 checksum. The
-          report is then frozen: a change makes revision {report.revision + 1}.
+          Its PDF, spreadsheet and CSV are made once now and kept exactly as they will be sent, each with a SHA-256 checksum. The report is
+          then frozen: a change makes revision {report.revision + 1}.
         </>
       }
       label="Release report"
@@ -97,7 +106,12 @@ export function ReleaseDialog({ report, onClose }: Base) {
   );
 }
 
-export function SendDialog({ report, contacts, onClose, onSent }: Base & { contacts: Array<{ name: string; email: string }> | null; onSent: (r: SendResult) => void }) {
+export function SendDialog({
+  report,
+  contacts,
+  onClose,
+  onSent,
+}: Base & { contacts: Array<{ name: string; email: string }> | null; onSent: (r: SendResult) => void }) {
   const send = useSendReport();
   return (
     <NoteDialog
@@ -196,15 +210,46 @@ export function EditDraftDialog({ report, onClose }: Base) {
     >
       <div className="space-y-4">
         <Field label="Capability asked" aside="Cpk ≥" error={errors.cpk}>
-          {({ id, describedBy, invalid }) => <Input id={id} aria-describedby={describedBy} invalid={invalid} inputMode="decimal" value={cpk} onChange={(e) => setCpk(e.target.value)} className="num w-32" />}
+          {({ id, describedBy, invalid }) => (
+            <Input
+              id={id}
+              aria-describedby={describedBy}
+              invalid={invalid}
+              inputMode="decimal"
+              value={cpk}
+              onChange={(e) => setCpk(e.target.value)}
+              className="num w-32"
+            />
+          )}
         </Field>
         <Field label="Note to the supplier" aside="optional" error={errors.note}>
-          {({ id, describedBy, invalid }) => <Textarea id={id} aria-describedby={describedBy} invalid={invalid} rows={2} value={note} onChange={(e) => setNote(e.target.value)} />}
+          {({ id, describedBy, invalid }) => (
+            <Textarea
+              id={id}
+              aria-describedby={describedBy}
+              invalid={invalid}
+              rows={2}
+              value={note}
+              onChange={(e) => setNote(e.target.value)}
+            />
+          )}
         </Field>
-        <Field label="3D snapshot" aside="PNG" error={errors.snapshotPng || undefined} hint={hasSnapshot ? "The cover shows this picture." : "The cover shows a schematic side view."}>
+        <Field
+          label="3D snapshot"
+          aside="PNG"
+          error={errors.snapshotPng || undefined}
+          hint={hasSnapshot ? "The cover shows this picture." : "The cover shows a schematic side view."}
+        >
           {({ id, describedBy }) => (
             <div className="flex items-center gap-2">
-              <input id={id} type="file" accept="image/png" aria-describedby={describedBy} onChange={(e) => void pick(e.target.files?.[0])} className="block min-w-0 flex-1 text-xs text-ink/70 file:mr-3 file:h-7.5 file:rounded-md file:border file:border-line file:bg-panel file:px-3 file:text-xs file:font-semibold file:text-ink" />
+              <input
+                id={id}
+                type="file"
+                accept="image/png"
+                aria-describedby={describedBy}
+                onChange={(e) => void pick(e.target.files?.[0])}
+                className="block min-w-0 flex-1 text-xs text-ink/70 file:mr-3 file:h-7.5 file:rounded-md file:border file:border-line file:bg-panel file:px-3 file:text-xs file:font-semibold file:text-ink"
+              />
               {hasSnapshot ? (
                 <Button size="sm" variant="ghost" onClick={() => setSnapshot(null)}>
                   Remove

@@ -25,7 +25,14 @@ function Fact({ label, children, tone }: { label: string; children: ReactNode; t
   return (
     <div className="bg-panel px-4 py-3">
       <dt className="text-[10px] font-bold tracking-[0.08em] text-ink/45 uppercase">{label}</dt>
-      <dd className={cn("mt-1 text-[15px] font-extrabold tabular-nums", tone === "pass" ? "text-pass" : tone === "fail" ? "text-fail" : "text-ink")}>{children}</dd>
+      <dd
+        className={cn(
+          "mt-1 text-[15px] font-extrabold tabular-nums",
+          tone === "pass" ? "text-pass" : tone === "fail" ? "text-fail" : "text-ink",
+        )}
+      >
+        {children}
+      </dd>
     </div>
   );
 }

@@ -23,7 +23,9 @@ export function SentNotice({ sent }: { sent: SendResult }) {
           Sent to {sent.sent.length} contact{sent.sent.length === 1 ? "" : "s"} with the PDF attached
         </p>
         <p className="text-ink/70">{sent.sent.map((s) => s.email).join(", ")}</p>
-        {sent.failed.length ? <p className="text-fail">Not delivered: {sent.failed.map((f) => `${f.email} (${f.error})`).join(", ")}</p> : null}
+        {sent.failed.length ? (
+          <p className="text-fail">Not delivered: {sent.failed.map((f) => `${f.email} (${f.error})`).join(", ")}</p>
+        ) : null}
       </div>
     </div>
   );

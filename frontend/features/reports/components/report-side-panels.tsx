@@ -63,16 +63,35 @@ export function ReportRecordPanel({ report, asSupplier }: { report: Report; asSu
   );
 }
 
-function RecordStep({ done, label, who, at, extra }: { done: boolean; label: string; who: string | null; at: string | null; extra?: string }) {
+function RecordStep({
+  done,
+  label,
+  who,
+  at,
+  extra,
+}: {
+  done: boolean;
+  label: string;
+  who: string | null;
+  at: string | null;
+  extra?: string;
+}) {
   return (
     <li className="flex gap-2.5">
-      <span className={cn("mt-1 size-2.5 shrink-0 rounded-full border-2", done ? "border-pass bg-pass" : "border-line bg-panel")} aria-hidden="true" />
+      <span
+        className={cn("mt-1 size-2.5 shrink-0 rounded-full border-2", done ? "border-pass bg-pass" : "border-line bg-panel")}
+        aria-hidden="true"
+      />
       <div className="min-w-0">
         <p className={cn("font-semibold", done ? "text-ink" : "text-ink/45")}>
           {label}
           {done && who ? <span className="font-normal text-ink/70"> by {who}</span> : null}
         </p>
-        {done && at ? <p className="text-xs text-ink/50 tabular-nums">{formatDateTime(at)}</p> : <p className="text-xs text-ink/40">not yet</p>}
+        {done && at ? (
+          <p className="text-xs text-ink/50 tabular-nums">{formatDateTime(at)}</p>
+        ) : (
+          <p className="text-xs text-ink/40">not yet</p>
+        )}
         {done && extra ? (
           <p className="truncate text-xs text-ink/50" title={extra}>
             {extra}
@@ -111,7 +130,8 @@ export function ReportDownloadsPanel({ report }: { report: Report }) {
         {report.downloads.map((d, i) => (
           <li key={i} className="flex justify-between gap-2 px-4 py-1.5">
             <span>
-              <span className={cn("font-semibold", d.role === "supplier" ? "text-mag" : "text-ink")}>{d.userName ?? "—"}</span> · {d.kind.toUpperCase()}
+              <span className={cn("font-semibold", d.role === "supplier" ? "text-mag" : "text-ink")}>{d.userName ?? "—"}</span> ·{" "}
+              {d.kind.toUpperCase()}
             </span>
             <span className="text-ink/50 tabular-nums">{formatDateTime(d.at)}</span>
           </li>

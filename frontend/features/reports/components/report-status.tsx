@@ -2,7 +2,13 @@ import type { ReportSummary } from "@shared/schemas/reports";
 import { Badge } from "@frontend/components/ui/badge";
 
 /** Draft or released, and acknowledged once the supplier has; superseded when a newer revision exists. */
-export function ReportStatus({ report, showLatest = true }: { report: Pick<ReportSummary, "status" | "acknowledgedAt" | "isLatest">; showLatest?: boolean }) {
+export function ReportStatus({
+  report,
+  showLatest = true,
+}: {
+  report: Pick<ReportSummary, "status" | "acknowledgedAt" | "isLatest">;
+  showLatest?: boolean;
+}) {
   return (
     <span className="inline-flex flex-wrap items-center gap-1">
       {report.status === "draft" ? (

@@ -36,7 +36,12 @@ export function TolerancesTable({ content }: { content: ReportContent }) {
                 <Td className="min-w-[150px] py-1.5 text-xs leading-4 text-ink/60">{t.quantity}</Td>
                 <Td numeric className="font-semibold">
                   {formatWritten(t.tol, t.unit, "±")}
-                  {t.mean ? <span className="block text-2xs font-normal text-ink/55">target {t.mean > 0 ? "+" : ""}{formatWritten(t.mean, t.unit)}</span> : null}
+                  {t.mean ? (
+                    <span className="block text-2xs font-normal text-ink/55">
+                      target {t.mean > 0 ? "+" : ""}
+                      {formatWritten(t.mean, t.unit)}
+                    </span>
+                  ) : null}
                 </Td>
                 <Td className="whitespace-nowrap text-ink/75">{distLabel(t.dist, t.sigmas)}</Td>
                 <Td className="text-ink/75">{t.stage}</Td>
@@ -44,15 +49,20 @@ export function TolerancesTable({ content }: { content: ReportContent }) {
                   {formatIndex(t.cpk)}
                   {t.raised ? <sup title="raised to what the study assumed">*</sup> : null}
                 </Td>
-                <Td numeric className="font-semibold">{formatNumberUnit(t.sigmaMax, t.unit)}</Td>
-                <Td numeric className="text-ink/60">{formatNumberUnit(t.sigmaModelled, t.unit)}</Td>
+                <Td numeric className="font-semibold">
+                  {formatNumberUnit(t.sigmaMax, t.unit)}
+                </Td>
+                <Td numeric className="text-ink/60">
+                  {formatNumberUnit(t.sigmaModelled, t.unit)}
+                </Td>
               </Tr>
             ))}
           </tbody>
         </Table>
       </div>
       <p className="border-t border-line px-4 py-2.5 text-xs text-ink/55">
-        Cpk = min(USL − x̄, x̄ − LSL) / 3s on production parts, with the window target ± tolerance. σ max is the largest spread of a centred process that meets it.
+        Cpk = min(USL − x̄, x̄ − LSL) / 3s on production parts, with the window target ± tolerance. σ max is the largest spread of a centred
+        process that meets it.
         {raised ? " * Raised to the capability the study assumed for this source." : ""}
       </p>
     </>
@@ -90,9 +100,7 @@ export function RequirementsTable({ content }: { content: ReportContent }) {
               <Td numeric>{formatFraction(r.yield)}</Td>
               <Td numeric>
                 <span className="font-semibold">{formatFraction(r.predictedYield)}</span>
-                <span className="block text-2xs text-ink/50">
-                  {formatYieldRange(r.ci[0], r.ci[1])}
-                </span>
+                <span className="block text-2xs text-ink/50">{formatYieldRange(r.ci[0], r.ci[1])}</span>
               </Td>
               <Td>
                 <Badge tone={r.passes ? "pass" : "fail"}>{r.passes ? "Pass" : "Fail"}</Badge>

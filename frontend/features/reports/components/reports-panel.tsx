@@ -58,7 +58,11 @@ export function ReportsPanel({ projectId, canWrite, className }: { projectId: st
                 </p>
               </div>
               <ReportStatus report={r} />
-              <time dateTime={r.releasedAt ?? r.createdAt} title={formatDateTime(r.releasedAt ?? r.createdAt)} className="w-20 shrink-0 text-right text-xs text-ink/50 tabular-nums">
+              <time
+                dateTime={r.releasedAt ?? r.createdAt}
+                title={formatDateTime(r.releasedAt ?? r.createdAt)}
+                className="w-20 shrink-0 text-right text-xs text-ink/50 tabular-nums"
+              >
                 {formatRelative(r.releasedAt ?? r.createdAt)}
               </time>
             </li>

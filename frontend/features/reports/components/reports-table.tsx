@@ -6,7 +6,15 @@ import { ReportStatus, reportTitle } from "./report-status";
 import { formatIndex } from "@shared/format";
 
 /** Every report the reader may see; the supplier's view leaves out what is internal (drafts, who built it). */
-export function ReportsTable({ reports, supplierView, showProject = true }: { reports: ReportSummary[]; supplierView: boolean; showProject?: boolean }) {
+export function ReportsTable({
+  reports,
+  supplierView,
+  showProject = true,
+}: {
+  reports: ReportSummary[];
+  supplierView: boolean;
+  showProject?: boolean;
+}) {
   return (
     <TableFrame>
       <Table aria-label="Reports">
@@ -57,7 +65,10 @@ export function ReportsTable({ reports, supplierView, showProject = true }: { re
                 </Td>
                 <Td numeric className="text-ink/70">
                   {r.acknowledgedAt ? (
-                    <time dateTime={r.acknowledgedAt} title={`${formatDateTime(r.acknowledgedAt)}${r.acknowledgedByName ? ` by ${r.acknowledgedByName}` : ""}`}>
+                    <time
+                      dateTime={r.acknowledgedAt}
+                      title={`${formatDateTime(r.acknowledgedAt)}${r.acknowledgedByName ? ` by ${r.acknowledgedByName}` : ""}`}
+                    >
                       {formatDate(r.acknowledgedAt)}
                     </time>
                   ) : (

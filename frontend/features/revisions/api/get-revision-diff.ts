@@ -8,6 +8,11 @@ export function useRevisionDiff(id: string, updatedAt: string, against?: string)
   return useQuery({
     // keyed on the revision's last change, so an edited draft shows its new changes
     queryKey: [...revisionKeys.detail(id), "diff", against ?? "previous", updatedAt],
-    queryFn: ({ signal }) => api.get(`/api/revisions/${encodeURIComponent(id)}/diff${against ? `?against=${encodeURIComponent(against)}` : ""}`, RevisionDiffSchema, signal),
+    queryFn: ({ signal }) =>
+      api.get(
+        `/api/revisions/${encodeURIComponent(id)}/diff${against ? `?against=${encodeURIComponent(against)}` : ""}`,
+        RevisionDiffSchema,
+        signal,
+      ),
   });
 }

@@ -18,7 +18,8 @@ export function RevisionChanges({ revisionId, updatedAt }: { revisionId: string;
   return (
     <section aria-label="What changed" className="text-[13px]">
       <p className="mb-1.5 text-xs font-bold text-ink/70">
-        What changed since revision {against.number}: {changes.length === 0 ? "nothing" : `${changes.length} change${changes.length === 1 ? "" : "s"}`}
+        What changed since revision {against.number}:{" "}
+        {changes.length === 0 ? "nothing" : `${changes.length} change${changes.length === 1 ? "" : "s"}`}
       </p>
       {changes.length ? (
         <ul className="max-h-64 divide-y divide-line/70 overflow-y-auto rounded-md border border-line">
@@ -26,8 +27,19 @@ export function RevisionChanges({ revisionId, updatedAt }: { revisionId: string;
             <li key={c.path} className="flex flex-wrap items-baseline justify-between gap-x-3 px-2.5 py-1.5">
               <span className="font-semibold text-ink">{c.label}</span>
               <span className="text-xs text-ink/70 tabular-nums">
-                <span className={cn("mr-1.5 font-bold uppercase", c.kind === "removed" ? "text-fail" : c.kind === "added" ? "text-pass" : "text-ink/50")}>{KIND_WORDS[c.kind]}</span>
-                {c.kind === "changed" ? `${show(c.before, c.unit)} → ${show(c.after, c.unit)}` : c.kind === "added" ? show(c.after, c.unit) : show(c.before, c.unit)}
+                <span
+                  className={cn(
+                    "mr-1.5 font-bold uppercase",
+                    c.kind === "removed" ? "text-fail" : c.kind === "added" ? "text-pass" : "text-ink/50",
+                  )}
+                >
+                  {KIND_WORDS[c.kind]}
+                </span>
+                {c.kind === "changed"
+                  ? `${show(c.before, c.unit)} → ${show(c.after, c.unit)}`
+                  : c.kind === "added"
+                    ? show(c.after, c.unit)
+                    : show(c.before, c.unit)}
               </span>
             </li>
           ))}

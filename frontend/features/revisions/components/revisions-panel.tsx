@@ -9,7 +9,14 @@ import { EmptyState } from "@frontend/components/ui/empty-state";
 import { PlusIcon } from "@frontend/components/ui/icons";
 import { Panel } from "@frontend/components/ui/panel";
 import { Spinner } from "@frontend/components/ui/spinner";
-import { ImportIssuesDialog, MAX_IMPORT_BYTES, readStackFileText, starterStack, withElementIds, type ImportIssue } from "@frontend/features/stack-files";
+import {
+  ImportIssuesDialog,
+  MAX_IMPORT_BYTES,
+  readStackFileText,
+  starterStack,
+  withElementIds,
+  type ImportIssue,
+} from "@frontend/features/stack-files";
 import { isApiError } from "@frontend/lib/api-client";
 import { formatDateTime, formatRelative } from "@frontend/lib/format";
 import { useCreateDraftFrom } from "../api/create-draft";
@@ -18,7 +25,16 @@ import { useRevisions } from "../api/get-revisions";
 import { RevisionStatusChip } from "./revision-status-chip";
 
 const StackIcon = () => (
-  <svg width="18" height="18" viewBox="0 0 16 16" fill="none" stroke="currentColor" strokeWidth="1.4" strokeLinejoin="round" aria-hidden="true">
+  <svg
+    width="18"
+    height="18"
+    viewBox="0 0 16 16"
+    fill="none"
+    stroke="currentColor"
+    strokeWidth="1.4"
+    strokeLinejoin="round"
+    aria-hidden="true"
+  >
     <rect x="1.5" y="11" width="13" height="2.5" rx="0.6" />
     <rect x="3.5" y="7.5" width="9" height="2.5" rx="0.6" />
     <rect x="5.5" y="4" width="5" height="2.5" rx="0.6" />
@@ -52,7 +68,12 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
           setRefused({
             fileName: file.name,
             message: e.message,
-            issues: isApiError(e) ? withElementIds(r.stack, e.fields.map((f) => ({ path: f.path.replace(/^stack\.?/, ""), message: f.message }))) : [],
+            issues: isApiError(e)
+              ? withElementIds(
+                  r.stack,
+                  e.fields.map((f) => ({ path: f.path.replace(/^stack\.?/, ""), message: f.message })),
+                )
+              : [],
           }),
       },
     );
@@ -83,7 +104,9 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
         variant="primary"
         icon={<PlusIcon />}
         pending={create.isPending}
-        onClick={() => create.mutate({ projectId, stack: starterStack(projectName), note: "New stack." }, { onSuccess: (rev) => open(rev.id) })}
+        onClick={() =>
+          create.mutate({ projectId, stack: starterStack(projectName), note: "New stack." }, { onSuccess: (rev) => open(rev.id) })
+        }
       >
         New stack
       </Button>
@@ -91,7 +114,14 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
   ) : null;
 
   return (
-    <Panel title="Stack revisions" accent="var(--color-asic)" meta={list.length ? String(list.length) : undefined} actions={actions} padded={false} className="md:col-span-2">
+    <Panel
+      title="Stack revisions"
+      accent="var(--color-asic)"
+      meta={list.length ? String(list.length) : undefined}
+      actions={actions}
+      padded={false}
+      className="md:col-span-2"
+    >
       {revisions.isPending ? (
         <div className="flex items-center gap-2 px-4 py-6 text-[13px] text-ink/55">
           <Spinner /> Loading revisions…
@@ -130,7 +160,11 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
               <tr key={r.id} className="border-b border-line/70 last:border-b-0 hover:bg-paper/60">
                 <td className="num h-11 px-4 font-extrabold text-ink">{r.number}</td>
                 <td className="max-w-0 px-3 py-1.5">
-                  <Link to={`/projects/${projectId}/revisions/${r.id}`} className="block truncate font-bold text-ink decoration-ink/30 underline-offset-2 hover:underline" aria-label={`Open revision ${r.number}`}>
+                  <Link
+                    to={`/projects/${projectId}/revisions/${r.id}`}
+                    className="block truncate font-bold text-ink decoration-ink/30 underline-offset-2 hover:underline"
+                    aria-label={`Open revision ${r.number}`}
+                  >
                     {r.name || <span className="text-ink/45">Untitled stack</span>}
                   </Link>
                   {r.note ? <p className="truncate text-xs text-ink/55">{r.note}</p> : null}
@@ -152,7 +186,9 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
                       {r.createdByName ?? "—"}
                       <br />
                       <time dateTime={r.updatedAt} title={formatDateTime(r.updatedAt)} className="text-ink/45">
-                        {r.status === "in_review" && r.submittedAt ? `submitted ${formatRelative(r.submittedAt)}` : `edited ${formatRelative(r.updatedAt)}`}
+                        {r.status === "in_review" && r.submittedAt
+                          ? `submitted ${formatRelative(r.submittedAt)}`
+                          : `edited ${formatRelative(r.updatedAt)}`}
                       </time>
                     </>
                   )}
@@ -169,7 +205,12 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
                       New draft from it
                     </Button>
                   ) : null}
-                  <Button size="sm" variant={r.status === "draft" && canWrite ? "primary" : "secondary"} onClick={() => open(r.id)} className="ml-1">
+                  <Button
+                    size="sm"
+                    variant={r.status === "draft" && canWrite ? "primary" : "secondary"}
+                    onClick={() => open(r.id)}
+                    className="ml-1"
+                  >
                     {r.status === "draft" && canWrite ? "Edit" : "Open"}
                   </Button>
                 </td>

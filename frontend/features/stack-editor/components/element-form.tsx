@@ -39,11 +39,19 @@ export function ElementForm({ index }: { index: number }) {
   const sensor = isSensorKind(el.kind);
   const stage = elementStage(el);
   const base = ["stack", "elements", index] as const;
-  const tolProps = (field: string, slotPath: (string | number)[], label: string, unit: "um" | "deg", suffix: string, inherited = stage) => ({
+  const tolProps = (
+    field: string,
+    slotPath: (string | number)[],
+    label: string,
+    unit: "um" | "deg",
+    suffix: string,
+    inherited = stage,
+  ) => ({
     label,
     path: [...base, ...slotPath],
     field,
-    tol: slotPath.reduce<unknown>((o, k) => (o && typeof o === "object" ? (o as Record<string, unknown>)[k as string] : undefined), el) as Tolerance | undefined,
+    tol: slotPath.reduce<unknown>((o, k) => (o && typeof o === "object" ? (o as Record<string, unknown>)[k as string] : undefined), el) as
+      Tolerance | undefined,
     unit,
     inheritedStage: inherited,
     issues: list,
@@ -115,7 +123,14 @@ function IdentitySection({ index, el, list }: { index: number; el: StackElement;
   const [idText, setIdText] = useState(el.id);
   useEffect(() => setIdText(el.id), [el.id]);
   const taken = doc.stack.elements.some((e, i) => i !== index && e.id === idText);
-  const idLocal = idText === "" ? "the id cannot be empty" : taken ? `another element already has the id "${idText}"` : !/^[A-Za-z0-9_-]+$/.test(idText) ? "an id may hold letters, digits, - and _ only" : null;
+  const idLocal =
+    idText === ""
+      ? "the id cannot be empty"
+      : taken
+        ? `another element already has the id "${idText}"`
+        : !/^[A-Za-z0-9_-]+$/.test(idText)
+          ? "an id may hold letters, digits, - and _ only"
+          : null;
   const applyId = () => {
     if (idLocal || idText === el.id) return;
     const from = el.id;
@@ -192,25 +207,37 @@ function IdentitySection({ index, el, list }: { index: number; el: StackElement;
             </SelectInput>
           )}
         </FieldShell>
-      <FieldShell label="Name" error={fieldError(list, "name")}>
-        {({ id, invalid }) => (
-          <TextInput
-            id={id}
-            invalid={invalid}
-            value={el.name ?? ""}
-            placeholder={isBoard ? "e.g. Main board, 8-layer FR-4" : "e.g. 3-axis magnetometer die, rev B"}
-            disabled={readOnly}
-            maxLength={200}
-            onChange={(e) => setAt(["stack", "elements", index, "name"], e.target.value === "" ? undefined : e.target.value, `name:${index}`)}
-          />
-        )}
-      </FieldShell>
+        <FieldShell label="Name" error={fieldError(list, "name")}>
+          {({ id, invalid }) => (
+            <TextInput
+              id={id}
+              invalid={invalid}
+              value={el.name ?? ""}
+              placeholder={isBoard ? "e.g. Main board, 8-layer FR-4" : "e.g. 3-axis magnetometer die, rev B"}
+              disabled={readOnly}
+              maxLength={200}
+              onChange={(e) =>
+                setAt(["stack", "elements", index, "name"], e.target.value === "" ? undefined : e.target.value, `name:${index}`)
+              }
+            />
+          )}
+        </FieldShell>
       </div>
     </Section>
   );
 }
 
-function GeometryField({ index, axis, label, list }: { index: number; axis: "x" | "y" | "z"; label: string; list: LocalIssue[] | undefined }) {
+function GeometryField({
+  index,
+  axis,
+  label,
+  list,
+}: {
+  index: number;
+  axis: "x" | "y" | "z";
+  label: string;
+  list: LocalIssue[] | undefined;
+}) {
   const { doc, setAt, readOnly } = useEditor();
   const el = doc.stack.elements[index];
   return (
@@ -238,7 +265,12 @@ function PlacementSection({ index, el, list }: { index: number; el: StackElement
           value={el.position?.x}
           disabled={readOnly}
           error={fieldError(list, "position.x")}
-          onChange={(v) => setAt(["stack", "elements", index, "position"], v === undefined && el.position?.y === undefined ? undefined : { x: v ?? 0, y: el.position?.y ?? 0 })}
+          onChange={(v) =>
+            setAt(
+              ["stack", "elements", index, "position"],
+              v === undefined && el.position?.y === undefined ? undefined : { x: v ?? 0, y: el.position?.y ?? 0 },
+            )
+          }
         />
         <NumberField
           label="Position y"
@@ -247,7 +279,12 @@ function PlacementSection({ index, el, list }: { index: number; el: StackElement
           value={el.position?.y}
           disabled={readOnly}
           error={fieldError(list, "position.y")}
-          onChange={(v) => setAt(["stack", "elements", index, "position"], v === undefined && el.position?.x === undefined ? undefined : { x: el.position?.x ?? 0, y: v ?? 0 })}
+          onChange={(v) =>
+            setAt(
+              ["stack", "elements", index, "position"],
+              v === undefined && el.position?.x === undefined ? undefined : { x: el.position?.x ?? 0, y: v ?? 0 },
+            )
+          }
         />
         <NumberField
           label="Nominal yaw"
@@ -264,12 +301,23 @@ function PlacementSection({ index, el, list }: { index: number; el: StackElement
   );
 }
 
-function BondLineSection({ index, el, list, tolProps }: { index: number; el: StackElement; list: LocalIssue[] | undefined; tolProps: TolProps }) {
+function BondLineSection({
+  index,
+  el,
+  list,
+  tolProps,
+}: {
+  index: number;
+  el: StackElement;
+  list: LocalIssue[] | undefined;
+  tolProps: TolProps;
+}) {
   const { setAt, readOnly } = useEditor();
   const supports = el.bondLine?.supports;
   const points = Array.isArray(supports) ? supports : null;
   const path = ["stack", "elements", index, "bondLine", "supports"];
-  const hx = (el.size?.x ?? 0) / 2, hy = (el.size?.y ?? 0) / 2;
+  const hx = (el.size?.x ?? 0) / 2,
+    hy = (el.size?.y ?? 0) / 2;
   const supportsErr = fieldError(list, "bondLine.supports");
   return (
     <Section title="Bond line" aside="support heights give the tilt">
@@ -322,20 +370,47 @@ function BondLineSection({ index, el, list, tolProps }: { index: number; el: Sta
             </thead>
             <tbody>
               {points.map((p, j) => {
-                const err = fieldError(list, `bondLine.supports[${j}]`) ?? fieldError(list, `bondLine.supports[${j}].x`) ?? fieldError(list, `bondLine.supports[${j}].y`);
+                const err =
+                  fieldError(list, `bondLine.supports[${j}]`) ??
+                  fieldError(list, `bondLine.supports[${j}].x`) ??
+                  fieldError(list, `bondLine.supports[${j}].y`);
                 return (
                   <tr key={j} className="border-b border-line/60 align-top last:border-b-0">
                     <td className="num px-2 py-1 text-left text-ink/50">{j + 1}</td>
                     <td className="px-1 py-1">
-                      <NumberInput aria-label={`Support ${j + 1} x`} unit="mm" value={p.x} invalid={!!err} disabled={readOnly} onChange={(v) => setAt([...path, j, "x"], v)} />
+                      <NumberInput
+                        aria-label={`Support ${j + 1} x`}
+                        unit="mm"
+                        value={p.x}
+                        invalid={!!err}
+                        disabled={readOnly}
+                        onChange={(v) => setAt([...path, j, "x"], v)}
+                      />
                     </td>
                     <td className="px-1 py-1">
-                      <NumberInput aria-label={`Support ${j + 1} y`} unit="mm" value={p.y} invalid={!!err} disabled={readOnly} onChange={(v) => setAt([...path, j, "y"], v)} />
+                      <NumberInput
+                        aria-label={`Support ${j + 1} y`}
+                        unit="mm"
+                        value={p.y}
+                        invalid={!!err}
+                        disabled={readOnly}
+                        onChange={(v) => setAt([...path, j, "y"], v)}
+                      />
                       {err ? <p className="mt-0.5 text-[11px] leading-4 text-fail">{sentence(err)}</p> : null}
                     </td>
                     <td className="px-1 py-1 text-right">
                       {readOnly ? null : (
-                        <IconButton label={`Remove support ${j + 1}`} variant="danger-ghost" className="size-6" onClick={() => setAt(path, points.filter((_, k) => k !== j))}>
+                        <IconButton
+                          label={`Remove support ${j + 1}`}
+                          variant="danger-ghost"
+                          className="size-6"
+                          onClick={() =>
+                            setAt(
+                              path,
+                              points.filter((_, k) => k !== j),
+                            )
+                          }
+                        >
                           <TrashIcon size={12} />
                         </IconButton>
                       )}
@@ -363,7 +438,17 @@ function BondLineSection({ index, el, list, tolProps }: { index: number; el: Sta
 
 const round2 = (v: number) => Math.round(v * 100) / 100;
 
-function AxisSection({ index, el, list, tolProps }: { index: number; el: StackElement; list: LocalIssue[] | undefined; tolProps: TolProps }) {
+function AxisSection({
+  index,
+  el,
+  list,
+  tolProps,
+}: {
+  index: number;
+  el: StackElement;
+  list: LocalIssue[] | undefined;
+  tolProps: TolProps;
+}) {
   const { setAt, readOnly } = useEditor();
   const six = Array.isArray(el.axisTol);
   const path = ["stack", "elements", index, "axisTol"];
@@ -386,7 +471,10 @@ function AxisSection({ index, el, list, tolProps }: { index: number; el: StackEl
               const cur = el.axisTol;
               if (o.v) {
                 const one: Tolerance = (cur && !Array.isArray(cur) ? cur : NEW_TOLERANCE) as Tolerance;
-                setAt(path, Array.from({ length: 6 }, () => ({ ...one })));
+                setAt(
+                  path,
+                  Array.from({ length: 6 }, () => ({ ...one })),
+                );
               } else {
                 setAt(path, Array.isArray(cur) ? { ...cur[0] } : cur);
               }

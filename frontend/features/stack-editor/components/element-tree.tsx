@@ -14,7 +14,17 @@ import { useEditor } from "./editor-context";
 import { SelectInput } from "./fields";
 
 const ArrowIcon = ({ dir }: { dir: "up" | "down" }) => (
-  <svg width="14" height="14" viewBox="0 0 16 16" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" aria-hidden="true">
+  <svg
+    width="14"
+    height="14"
+    viewBox="0 0 16 16"
+    fill="none"
+    stroke="currentColor"
+    strokeWidth="1.5"
+    strokeLinecap="round"
+    strokeLinejoin="round"
+    aria-hidden="true"
+  >
     {dir === "up" ? <path d="M8 13V3M4 7l4-4 4 4" /> : <path d="M8 3v10M4 9l4 4 4-4" />}
   </svg>
 );
@@ -93,7 +103,11 @@ export function ElementTree() {
                   style={{ left: 8 + (r.depth - 1) * 12 + 4 }}
                 />
               ) : null}
-              <span className="size-2.5 shrink-0 rounded-[2px] ring-1 ring-black/10" style={{ background: KIND_COLOR[r.kind] }} aria-hidden="true" />
+              <span
+                className="size-2.5 shrink-0 rounded-[2px] ring-1 ring-black/10"
+                style={{ background: KIND_COLOR[r.kind] }}
+                aria-hidden="true"
+              />
               <span className="max-w-[70%] shrink-0 truncate font-semibold">{r.id || "(no id)"}</span>
               <span className={cn("min-w-0 truncate text-[11px]", isSel ? "text-paper/60" : "text-ink/45")}>{KIND_SHORT[r.kind]}</span>
               {problems ? (
@@ -121,11 +135,22 @@ export function ElementTree() {
           </p>
           <div className="flex flex-wrap items-center gap-1">
             <div className="relative" ref={menuRef}>
-              <Button size="sm" variant="primary" icon={<PlusIcon />} aria-haspopup="menu" aria-expanded={menu} onClick={() => setMenu((m) => !m)}>
+              <Button
+                size="sm"
+                variant="primary"
+                icon={<PlusIcon />}
+                aria-haspopup="menu"
+                aria-expanded={menu}
+                onClick={() => setMenu((m) => !m)}
+              >
                 Add on {selected.id.length > 10 ? "it" : selected.id}
               </Button>
               {menu ? (
-                <div role="menu" aria-label={`Add on ${selected.id}`} className="absolute bottom-full left-0 z-20 mb-1 w-52 rounded-md border border-line bg-panel p-1 shadow-[0_12px_32px_-8px_rgba(23,33,43,0.35)]">
+                <div
+                  role="menu"
+                  aria-label={`Add on ${selected.id}`}
+                  className="absolute bottom-full left-0 z-20 mb-1 w-52 rounded-md border border-line bg-panel p-1 shadow-[0_12px_32px_-8px_rgba(23,33,43,0.35)]"
+                >
                   {ADDABLE_KINDS.map((k) => (
                     <button
                       key={k}
@@ -134,7 +159,11 @@ export function ElementTree() {
                       onClick={() => add(k)}
                       className="flex h-7.5 w-full items-center gap-2 rounded px-2 text-left text-xs font-semibold text-ink hover:bg-ink/[0.06]"
                     >
-                      <span className="size-2.5 rounded-[2px] ring-1 ring-black/10" style={{ background: KIND_COLOR[k] }} aria-hidden="true" />
+                      <span
+                        className="size-2.5 rounded-[2px] ring-1 ring-black/10"
+                        style={{ background: KIND_COLOR[k] }}
+                        aria-hidden="true"
+                      />
                       {KIND_NAME[k]}
                     </button>
                   ))}
@@ -143,7 +172,11 @@ export function ElementTree() {
             </div>
             {selected.parent !== null ? (
               <>
-                <IconButton label={`Move ${selected.id} up`} disabled={selected.siblingIndex === 0} onClick={() => update((d) => ({ ...d, stack: reorderElement(d.stack, selected.id, -1) }))}>
+                <IconButton
+                  label={`Move ${selected.id} up`}
+                  disabled={selected.siblingIndex === 0}
+                  onClick={() => update((d) => ({ ...d, stack: reorderElement(d.stack, selected.id, -1) }))}
+                >
                   <ArrowIcon dir="up" />
                 </IconButton>
                 <IconButton
@@ -169,7 +202,8 @@ export function ElementTree() {
           </div>
           {rows.length === 1 ? (
             <p className="mt-2 text-[11px] leading-4 text-ink/55">
-              Start with the package: <span className="font-semibold text-ink/75">Add on board → Substrate</span>, then put the ASIC and the sensor dies on it.
+              Start with the package: <span className="font-semibold text-ink/75">Add on board → Substrate</span>, then put the ASIC and the
+              sensor dies on it.
             </p>
           ) : null}
           {selected.parent !== null ? (

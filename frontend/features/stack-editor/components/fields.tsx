@@ -84,13 +84,7 @@ export function NumberInput({
           const p = parseNumberText(text);
           if (p.ok) setText(numberText(p.value));
         }}
-        className={cn(
-          BOX,
-          "w-full",
-          boxState(invalid || bad),
-          "num h-7 pl-2 text-xs",
-          unit ? (size === "sm" ? "pr-6" : "pr-8") : "pr-2",
-        )}
+        className={cn(BOX, "w-full", boxState(invalid || bad), "num h-7 pl-2 text-xs", unit ? (size === "sm" ? "pr-6" : "pr-8") : "pr-2")}
       />
       {unit ? (
         <span
@@ -112,7 +106,12 @@ type FieldShellProps = {
   error?: string;
   hint?: ReactNode;
   className?: string;
-  children: (ids: { id: string; describedBy: string | undefined; invalid: boolean; setLocalError: (m: string | null) => void }) => ReactNode;
+  children: (ids: {
+    id: string;
+    describedBy: string | undefined;
+    invalid: boolean;
+    setLocalError: (m: string | null) => void;
+  }) => ReactNode;
 };
 
 /** Label above, control, then the first of: the local typing error, the validator's message, a hint. */
@@ -156,11 +155,7 @@ export function NumberField({
   );
 }
 
-export function TextInput({
-  invalid = false,
-  className,
-  ...rest
-}: InputHTMLAttributes<HTMLInputElement> & { invalid?: boolean }) {
+export function TextInput({ invalid = false, className, ...rest }: InputHTMLAttributes<HTMLInputElement> & { invalid?: boolean }) {
   return (
     <input
       type="text"

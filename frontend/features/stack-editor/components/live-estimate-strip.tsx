@@ -12,7 +12,21 @@ import { LIVE_INCLINATION_DEG, LIVE_TRIALS } from "../lib/live-estimate";
 import { metricLabel } from "@shared/metrics";
 import { formatCount, formatMrad, formatNumber, formatYield } from "@shared/format";
 
-function Figure({ label, value, unit, sub, title, testId }: { label: string; value: string; unit: string; sub?: ReactNode; title?: string; testId?: string }) {
+function Figure({
+  label,
+  value,
+  unit,
+  sub,
+  title,
+  testId,
+}: {
+  label: string;
+  value: string;
+  unit: string;
+  sub?: ReactNode;
+  title?: string;
+  testId?: string;
+}) {
   return (
     <div className="min-w-0 px-4 py-2.5" title={title}>
       <p className="truncate text-[10.5px] font-bold tracking-[0.08em] text-ink/50 uppercase">{label}</p>
@@ -59,7 +73,10 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
           fixed seed · field inclination {LIVE_INCLINATION_DEG}° assumed · no calibration · run a study for figures to report
         </span>
         <span
-          className={cn("ml-auto inline-flex items-center gap-1.5 text-[11px] font-semibold", status === "error" || status === "paused" ? "text-[#a1461f]" : "text-ink/55")}
+          className={cn(
+            "ml-auto inline-flex items-center gap-1.5 text-[11px] font-semibold",
+            status === "error" || status === "paused" ? "text-[#a1461f]" : "text-ink/55",
+          )}
           role="status"
           data-testid="estimate-status"
         >
@@ -68,7 +85,12 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
         </span>
       </header>
       {summary ? (
-        <div className={cn("grid grid-cols-[repeat(3,minmax(0,1fr))_minmax(0,1.5fr)] divide-x divide-line transition-opacity", stale && "opacity-55")}>
+        <div
+          className={cn(
+            "grid grid-cols-[repeat(3,minmax(0,1fr))_minmax(0,1.5fr)] divide-x divide-line transition-opacity",
+            stale && "opacity-55",
+          )}
+        >
           {summary.heading ? (
             <Figure
               label="Heading error · p99"
@@ -77,7 +99,8 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
               testId="estimate-heading-p99"
               sub={
                 <>
-                  <span className="num">{formatMrad(summary.heading.p99)}</span> · p95 <span className="num">{formatNumber(summary.heading.p95)}°</span> · max{" "}
+                  <span className="num">{formatMrad(summary.heading.p99)}</span> · p95{" "}
+                  <span className="num">{formatNumber(summary.heading.p95)}°</span> · max{" "}
                   <span className="num">{formatNumber(summary.heading.max)}°</span>
                 </>
               }
@@ -119,7 +142,10 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
               ) : null}
             </p>
             {total ? (
-              <ul className={cn("mt-1 grid gap-x-4 gap-y-0.5", summary.requirements.length > 4 ? "grid-cols-2" : "grid-cols-1")} aria-label="Predicted yield per requirement">
+              <ul
+                className={cn("mt-1 grid gap-x-4 gap-y-0.5", summary.requirements.length > 4 ? "grid-cols-2" : "grid-cols-1")}
+                aria-label="Predicted yield per requirement"
+              >
                 {summary.requirements.map((r) => (
                   <li key={r.index} className="flex min-w-0 items-center gap-1.5 text-[11px]">
                     <span className={cn("size-1.5 shrink-0 rounded-full", r.passes ? "bg-pass" : "bg-fail")} aria-hidden="true" />

@@ -8,19 +8,43 @@ import { sentence } from "@frontend/lib/form";
 import type { IssueIndex } from "../lib/issues";
 import type { EditorDoc } from "../lib/stack-ops";
 
-export function ProblemList({ issues, doc, onSelect, saving }: { issues: IssueIndex; doc: EditorDoc; onSelect: (id: string) => void; saving: boolean }) {
+export function ProblemList({
+  issues,
+  doc,
+  onSelect,
+  saving,
+}: {
+  issues: IssueIndex;
+  doc: EditorDoc;
+  onSelect: (id: string) => void;
+  saving: boolean;
+}) {
   const [open, setOpen] = useState(true);
   const items: { where: string; field: string; message: string; id?: string }[] = [
     ...issues.general.map((g) => ({ where: "Stack", field: g.path, message: g.message })),
     ...[...issues.elements.entries()].flatMap(([i, list]) =>
-      list.map((x) => ({ where: doc.stack.elements[i]?.id ?? `element ${i + 1}`, field: x.field, message: x.message, id: doc.stack.elements[i]?.id })),
+      list.map((x) => ({
+        where: doc.stack.elements[i]?.id ?? `element ${i + 1}`,
+        field: x.field,
+        message: x.message,
+        id: doc.stack.elements[i]?.id,
+      })),
     ),
-    ...[...issues.requirements.entries()].flatMap(([i, list]) => list.map((x) => ({ where: `Requirement ${i + 1}`, field: x.field, message: x.message }))),
+    ...[...issues.requirements.entries()].flatMap(([i, list]) =>
+      list.map((x) => ({ where: `Requirement ${i + 1}`, field: x.field, message: x.message })),
+    ),
   ];
   return (
     <section aria-label="Problems" className="mb-3 rounded-lg border border-fail/30 bg-fail/[0.04]">
-      <button type="button" onClick={() => setOpen((o) => !o)} aria-expanded={open} className="flex w-full items-center gap-2 px-4 py-2 text-left">
-        <span className="flex h-5 min-w-5 items-center justify-center rounded-full bg-fail px-1.5 text-[11px] font-bold text-white">{issues.count}</span>
+      <button
+        type="button"
+        onClick={() => setOpen((o) => !o)}
+        aria-expanded={open}
+        className="flex w-full items-center gap-2 px-4 py-2 text-left"
+      >
+        <span className="flex h-5 min-w-5 items-center justify-center rounded-full bg-fail px-1.5 text-[11px] font-bold text-white">
+          {issues.count}
+        </span>
         <span className="text-[13px] font-bold text-fail">
           {saving
             ? issues.count === 1
@@ -35,7 +59,11 @@ export function ProblemList({ issues, doc, onSelect, saving }: { issues: IssueIn
           {items.slice(0, 12).map((p, k) => (
             <li key={k} className="flex min-w-0 items-baseline gap-2 text-xs">
               {p.id ? (
-                <button type="button" onClick={() => onSelect(p.id!)} className="shrink-0 font-bold text-ink underline decoration-ink/30 underline-offset-2 hover:decoration-ink">
+                <button
+                  type="button"
+                  onClick={() => onSelect(p.id!)}
+                  className="shrink-0 font-bold text-ink underline decoration-ink/30 underline-offset-2 hover:decoration-ink"
+                >
                   {p.where}
                 </button>
               ) : (

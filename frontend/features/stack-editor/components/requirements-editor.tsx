@@ -27,7 +27,8 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
 
   const addRequirement = () => {
     const used = new Set(reqs.map((r) => r.metric));
-    const first = options.find((o) => !used.has(o.id) && o.id === "heading.maxAbsDeg") ?? options.find((o) => !used.has(o.id)) ?? options[0];
+    const first =
+      options.find((o) => !used.has(o.id) && o.id === "heading.maxAbsDeg") ?? options.find((o) => !used.has(o.id)) ?? options[0];
     const next: Requirement = { metric: first?.id ?? "", max: first?.unit === "%" ? 2 : 1, yield: 0.9973 };
     update((d) => ({ ...d, requirements: [...d.requirements, next] }));
   };
@@ -38,7 +39,9 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
         <thead className="border-b border-line bg-paper/70">
           <tr className="text-[10.5px] font-bold tracking-[0.06em] text-ink/55 uppercase">
             <th className="h-8 w-[31%] px-3 text-left">Metric</th>
-            <th className="w-[14%] px-2 text-right" title="Upper limit on the absolute value">Limit</th>
+            <th className="w-[14%] px-2 text-right" title="Upper limit on the absolute value">
+              Limit
+            </th>
             <th className="w-[20%] px-2 text-right">Yield target</th>
             <th className="w-[29%] px-2 text-right">Estimate</th>
             <th className="w-[6%]" />
@@ -80,7 +83,9 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                     ))}
                   </SelectInput>
                   <p className="mt-0.5 truncate font-mono text-[10.5px] text-ink/45">{r.metric}</p>
-                  {messages.length ? <p className="mt-0.5 text-[11px] font-medium text-fail">{messages.map(sentence).join(" · ")}</p> : null}
+                  {messages.length ? (
+                    <p className="mt-0.5 text-[11px] font-medium text-fail">{messages.map(sentence).join(" · ")}</p>
+                  ) : null}
                 </td>
                 <td className="px-2 py-1.5">
                   <NumberInput
@@ -111,21 +116,28 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                 </td>
                 <td className="px-2 py-1.5 text-right">
                   {est ? (
-                    <div className={cn("inline-flex max-w-full flex-col items-end", estimateStale && "opacity-50")} aria-label={`Estimate for ${label}`}>
+                    <div
+                      className={cn("inline-flex max-w-full flex-col items-end", estimateStale && "opacity-50")}
+                      aria-label={`Estimate for ${label}`}
+                    >
                       <span className="inline-flex items-center gap-1.5">
-                        <span className={cn("num text-[13px] font-bold", est.passes ? "text-pass" : "text-fail")}>{formatYield(est.predictedYield)}</span>
+                        <span className={cn("num text-[13px] font-bold", est.passes ? "text-pass" : "text-fail")}>
+                          {formatYield(est.predictedYield)}
+                        </span>
                         <Badge tone={est.passes ? "pass" : "fail"}>{est.passes ? "Meets" : "Misses"}</Badge>
                       </span>
-                      <span className="num text-[10.5px] text-ink/45">
-                        95 % CI {formatYieldRange(est.ci[0], est.ci[1])}
-                      </span>
+                      <span className="num text-[10.5px] text-ink/45">95 % CI {formatYieldRange(est.ci[0], est.ci[1])}</span>
                       {est.drivers.length ? (
-                        <span className="mt-0.5 max-w-full truncate text-[10.5px] text-ink/55" title="Largest linearised contributors: share of the metric's variance (or mean square)">
+                        <span
+                          className="mt-0.5 max-w-full truncate text-[10.5px] text-ink/55"
+                          title="Largest linearised contributors: share of the metric's variance (or mean square)"
+                        >
                           driven by{" "}
                           {est.drivers.slice(0, 2).map((d, k) => (
                             <span key={d.source}>
                               {k > 0 ? " · " : ""}
-                              <span className="font-mono text-ink/75">{d.source}</span> <span className="num">{Math.round(d.share * 100)} %</span>
+                              <span className="font-mono text-ink/75">{d.source}</span>{" "}
+                              <span className="num">{Math.round(d.share * 100)} %</span>
                             </span>
                           ))}
                         </span>
@@ -156,7 +168,9 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
           <Button size="sm" icon={<PlusIcon />} onClick={addRequirement} disabled={options.length === 0}>
             Add requirement
           </Button>
-          {options.length === 0 ? <span className="ml-2 text-[11px] text-ink/50">Add an element on the board first: its metrics become available.</span> : null}
+          {options.length === 0 ? (
+            <span className="ml-2 text-[11px] text-ink/50">Add an element on the board first: its metrics become available.</span>
+          ) : null}
         </div>
       )}
     </div>

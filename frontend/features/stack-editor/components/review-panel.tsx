@@ -11,7 +11,14 @@ import { Button } from "@frontend/components/ui/button";
 import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Textarea } from "@frontend/components/ui/field";
 import { CheckIcon } from "@frontend/components/ui/icons";
-import { RevisionChanges, useAddRevisionComment, useApproveRevision, useCreateDraftFrom, useReturnRevision, useSubmitRevision } from "@frontend/features/revisions";
+import {
+  RevisionChanges,
+  useAddRevisionComment,
+  useApproveRevision,
+  useCreateDraftFrom,
+  useReturnRevision,
+  useSubmitRevision,
+} from "@frontend/features/revisions";
 import { cn } from "@frontend/lib/cn";
 import { sentence } from "@frontend/lib/form";
 import { formatDateTime, initials } from "@frontend/lib/format";
@@ -103,7 +110,12 @@ export function ReviewActions({
         </>
       ) : null}
       {revision.status !== "draft" && canWrite ? (
-        <Button size="sm" variant="primary" pending={draft.isPending} onClick={() => draft.mutate(revision.id, { onSuccess: (r) => onDraft(r.id) })}>
+        <Button
+          size="sm"
+          variant="primary"
+          pending={draft.isPending}
+          onClick={() => draft.mutate(revision.id, { onSuccess: (r) => onDraft(r.id) })}
+        >
           Start a new draft from this revision
         </Button>
       ) : null}
@@ -135,9 +147,21 @@ export function ReviewActions({
         <div className="mb-3">
           <RevisionChanges revisionId={revision.id} updatedAt={revision.updatedAt} />
         </div>
-        <Field label={dialog === "return" ? "Reason" : "Comment"} aside={dialog === "return" ? undefined : "optional"} error={commentError ?? undefined}>
+        <Field
+          label={dialog === "return" ? "Reason" : "Comment"}
+          aside={dialog === "return" ? undefined : "optional"}
+          error={commentError ?? undefined}
+        >
           {({ id, describedBy, invalid }) => (
-            <Textarea id={id} aria-describedby={describedBy} invalid={invalid} rows={4} value={comment} onChange={(e) => setComment(e.target.value)} maxLength={4000} />
+            <Textarea
+              id={id}
+              aria-describedby={describedBy}
+              invalid={invalid}
+              rows={4}
+              value={comment}
+              onChange={(e) => setComment(e.target.value)}
+              maxLength={4000}
+            />
           )}
         </Field>
         {reviewMutation.isError ? <Alert className="mt-3">{reviewMutation.error.message}</Alert> : null}
@@ -174,7 +198,9 @@ export function ReviewNotes({ revision }: { revision: Revision }) {
         <ol className="max-h-64 divide-y divide-line/70 overflow-y-auto" aria-label="Review notes">
           {revision.comments.map((c) => (
             <li key={c.id} className="flex gap-2.5 px-3.5 py-2.5">
-              <span className="flex size-6 shrink-0 items-center justify-center rounded-full bg-ink text-[9px] font-extrabold text-paper">{initials(c.authorName ?? "?")}</span>
+              <span className="flex size-6 shrink-0 items-center justify-center rounded-full bg-ink text-[9px] font-extrabold text-paper">
+                {initials(c.authorName ?? "?")}
+              </span>
               <div className="min-w-0 text-xs">
                 <p>
                   <span className="font-bold text-ink">{c.authorName ?? "Someone"}</span>{" "}
@@ -203,7 +229,15 @@ export function ReviewNotes({ revision }: { revision: Revision }) {
         }}
       >
         <div className="min-w-0 flex-1">
-          <Textarea aria-label="New note" rows={2} placeholder="Add a note for the engineer or the reviewer" value={body} onChange={(e) => setBody(e.target.value)} invalid={!!error} className="text-xs" />
+          <Textarea
+            aria-label="New note"
+            rows={2}
+            placeholder="Add a note for the engineer or the reviewer"
+            value={body}
+            onChange={(e) => setBody(e.target.value)}
+            invalid={!!error}
+            className="text-xs"
+          />
           {error || add.isError ? <p className="mt-1 text-[11px] text-fail">{sentence(error ?? add.error?.message ?? "")}</p> : null}
         </div>
         <Button size="sm" type="submit" pending={add.isPending}>

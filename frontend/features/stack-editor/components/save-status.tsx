@@ -30,8 +30,20 @@ export function SaveStatus({ state, saves, onRetry }: { state: SaveState; saves:
       break;
   }
   return (
-    <span role="status" aria-live="polite" data-testid="save-status" data-state={state.kind} data-saves={saves} className={cn("inline-flex max-w-[300px] items-center gap-1.5 px-1 text-xs font-semibold", tone)} title={text}>
-      {state.kind === "saving" ? <Spinner size={12} /> : state.kind === "saved" ? <span className="size-1.5 rounded-full bg-pass" aria-hidden="true" /> : null}
+    <span
+      role="status"
+      aria-live="polite"
+      data-testid="save-status"
+      data-state={state.kind}
+      data-saves={saves}
+      className={cn("inline-flex max-w-[300px] items-center gap-1.5 px-1 text-xs font-semibold", tone)}
+      title={text}
+    >
+      {state.kind === "saving" ? (
+        <Spinner size={12} />
+      ) : state.kind === "saved" ? (
+        <span className="size-1.5 rounded-full bg-pass" aria-hidden="true" />
+      ) : null}
       <span className="truncate">{text}</span>
       {state.kind === "error" && state.retryable ? (
         <button type="button" onClick={onRetry} className="shrink-0 text-gyro underline underline-offset-2 hover:text-ink">

@@ -47,21 +47,57 @@ function docOf(revision: Revision): EditorDoc {
 }
 
 const UndoIcon = () => (
-  <svg width="15" height="15" viewBox="0 0 16 16" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" aria-hidden="true">
+  <svg
+    width="15"
+    height="15"
+    viewBox="0 0 16 16"
+    fill="none"
+    stroke="currentColor"
+    strokeWidth="1.5"
+    strokeLinecap="round"
+    strokeLinejoin="round"
+    aria-hidden="true"
+  >
     <path d="M5.5 3 2.5 6l3 3" />
     <path d="M2.5 6h7a4 4 0 0 1 0 8H7" />
   </svg>
 );
 const RedoIcon = () => (
-  <svg width="15" height="15" viewBox="0 0 16 16" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" aria-hidden="true">
+  <svg
+    width="15"
+    height="15"
+    viewBox="0 0 16 16"
+    fill="none"
+    stroke="currentColor"
+    strokeWidth="1.5"
+    strokeLinecap="round"
+    strokeLinejoin="round"
+    aria-hidden="true"
+  >
     <path d="m10.5 3 3 3-3 3" />
     <path d="M13.5 6h-7a4 4 0 0 0 0 8H9" />
   </svg>
 );
 
-function Card({ title, meta, actions, children, className, bodyClassName }: { title: ReactNode; meta?: ReactNode; actions?: ReactNode; children: ReactNode; className?: string; bodyClassName?: string }) {
+function Card({
+  title,
+  meta,
+  actions,
+  children,
+  className,
+  bodyClassName,
+}: {
+  title: ReactNode;
+  meta?: ReactNode;
+  actions?: ReactNode;
+  children: ReactNode;
+  className?: string;
+  bodyClassName?: string;
+}) {
   return (
-    <section className={cn("flex min-h-0 flex-col rounded-lg border border-line bg-panel shadow-[0_1px_2px_rgba(23,33,43,0.04)]", className)}>
+    <section
+      className={cn("flex min-h-0 flex-col rounded-lg border border-line bg-panel shadow-[0_1px_2px_rgba(23,33,43,0.04)]", className)}
+    >
       <header className="flex min-h-10 shrink-0 items-center justify-between gap-2 border-b border-line px-3.5 py-1.5">
         <div className="flex min-w-0 items-baseline gap-2">
           <h2 className="text-[13px] font-bold text-ink">{title}</h2>
@@ -192,7 +228,9 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
 
       <div className="mb-3 flex flex-wrap items-center gap-x-4 gap-y-2">
         <div className="flex min-w-0 items-center gap-2.5">
-          <h1 className="text-[20px] leading-7 font-extrabold tracking-[-0.015em] whitespace-nowrap text-ink">Revision {revision.number}</h1>
+          <h1 className="text-[20px] leading-7 font-extrabold tracking-[-0.015em] whitespace-nowrap text-ink">
+            Revision {revision.number}
+          </h1>
           <RevisionStatusChip status={revision.status} />
         </div>
         <label className="flex min-w-0 flex-1 items-center gap-2">
@@ -210,17 +248,37 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
           {editable ? <SaveStatus state={autosave.state} saves={autosave.saves} onRetry={() => void autosave.retry()} /> : null}
           {editable ? (
             <div className="flex items-center rounded-md border border-line bg-panel">
-              <button type="button" onClick={undo} disabled={!canUndo(history)} aria-label="Undo" title="Undo (Ctrl+Z)" className="flex size-8 items-center justify-center rounded-l-md text-ink/70 hover:bg-ink/[0.05] hover:text-ink disabled:opacity-35">
+              <button
+                type="button"
+                onClick={undo}
+                disabled={!canUndo(history)}
+                aria-label="Undo"
+                title="Undo (Ctrl+Z)"
+                className="flex size-8 items-center justify-center rounded-l-md text-ink/70 hover:bg-ink/[0.05] hover:text-ink disabled:opacity-35"
+              >
                 <UndoIcon />
               </button>
               <span className="h-5 w-px bg-line" aria-hidden="true" />
-              <button type="button" onClick={redo} disabled={!canRedo(history)} aria-label="Redo" title="Redo (Ctrl+Shift+Z)" className="flex size-8 items-center justify-center rounded-r-md text-ink/70 hover:bg-ink/[0.05] hover:text-ink disabled:opacity-35">
+              <button
+                type="button"
+                onClick={redo}
+                disabled={!canRedo(history)}
+                aria-label="Redo"
+                title="Redo (Ctrl+Shift+Z)"
+                className="flex size-8 items-center justify-center rounded-r-md text-ink/70 hover:bg-ink/[0.05] hover:text-ink disabled:opacity-35"
+              >
                 <RedoIcon />
               </button>
             </div>
           ) : null}
           <StackFileActions revision={revision} readOnly={readOnly} />
-          <ReviewActions revision={revision} me={me} flush={autosave.flush} problems={problemCount} onDraft={(id) => navigate(`/projects/${project.id}/revisions/${id}`)} />
+          <ReviewActions
+            revision={revision}
+            me={me}
+            flush={autosave.flush}
+            problems={problemCount}
+            onDraft={(id) => navigate(`/projects/${project.id}/revisions/${id}`)}
+          />
         </div>
       </div>
 
@@ -284,12 +342,18 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
           <ElementTree />
         </Card>
         <Card title="Selected element" className="max-xl:max-h-[640px]" bodyClassName="overflow-y-auto">
-          {selectedEl >= 0 ? <ElementForm index={selectedEl} /> : <p className="p-4 text-[13px] text-ink/55">Select an element in the tree.</p>}
+          {selectedEl >= 0 ? (
+            <ElementForm index={selectedEl} />
+          ) : (
+            <p className="p-4 text-[13px] text-ink/55">Select an element in the tree.</p>
+          )}
         </Card>
         <div className="min-h-[480px] overflow-hidden rounded-lg border border-line bg-[#17212b]">
           <PanelErrorBoundary
             fallback={(error) => (
-              <div className="flex h-full items-center justify-center p-6 text-center text-[13px] text-paper/70">3D view unavailable: {error.message}</div>
+              <div className="flex h-full items-center justify-center p-6 text-center text-[13px] text-paper/70">
+                3D view unavailable: {error.message}
+              </div>
             )}
           >
             <Suspense
@@ -302,7 +366,12 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
               <StackViewer
                 stack={doc.stack}
                 study={estimate.basis?.study}
-                worstTrials={worstPicks?.map((w) => ({ metric: w.metric, trialIndex: w.trialIndex, value: w.value, unit: w.unit === "deg" ? "°" : "%" }))}
+                worstTrials={worstPicks?.map((w) => ({
+                  metric: w.metric,
+                  trialIndex: w.trialIndex,
+                  value: w.value,
+                  unit: w.unit === "deg" ? "°" : "%",
+                }))}
                 selectedId={selectedId}
                 onSelect={select}
                 className="h-full"
@@ -312,7 +381,11 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
         </div>
       </div>
 
-      <Card title="Tolerance sources" meta="every sampled deviation of the stack, in its unit; σ follows from the distribution" className="mt-3">
+      <Card
+        title="Tolerance sources"
+        meta="every sampled deviation of the stack, in its unit; σ follows from the distribution"
+        className="mt-3"
+      >
         <ToleranceTable />
       </Card>
 

@@ -1,16 +1,44 @@
 import { useRef, useState } from "react";
 import type { Revision } from "@shared/schemas/revisions";
 import { Button } from "@frontend/components/ui/button";
-import { downloadText, ImportIssuesDialog, MAX_IMPORT_BYTES, readStackFileText, stackFileName, stackFileText, type ImportIssue } from "@frontend/features/stack-files";
+import {
+  downloadText,
+  ImportIssuesDialog,
+  MAX_IMPORT_BYTES,
+  readStackFileText,
+  stackFileName,
+  stackFileText,
+  type ImportIssue,
+} from "@frontend/features/stack-files";
 import { useEditor } from "./editor-context";
 
 const ImportIcon = () => (
-  <svg width="14" height="14" viewBox="0 0 16 16" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" aria-hidden="true">
+  <svg
+    width="14"
+    height="14"
+    viewBox="0 0 16 16"
+    fill="none"
+    stroke="currentColor"
+    strokeWidth="1.5"
+    strokeLinecap="round"
+    strokeLinejoin="round"
+    aria-hidden="true"
+  >
     <path d="M8 2v8M5 7l3 3 3-3M2.5 11v2.5h11V11" />
   </svg>
 );
 const ExportIcon = () => (
-  <svg width="14" height="14" viewBox="0 0 16 16" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" aria-hidden="true">
+  <svg
+    width="14"
+    height="14"
+    viewBox="0 0 16 16"
+    fill="none"
+    stroke="currentColor"
+    strokeWidth="1.5"
+    strokeLinecap="round"
+    strokeLinejoin="round"
+    aria-hidden="true"
+  >
     <path d="M8 10V2M5 5l3-3 3 3M2.5 11v2.5h11V11" />
   </svg>
 );
@@ -52,12 +80,22 @@ export function StackFileActions({ revision, readOnly }: { revision: Revision; r
               if (f) void onFile(f);
             }}
           />
-          <Button size="sm" icon={<ImportIcon />} onClick={() => input.current?.click()} title="Replace this draft's stack with a stack file (undo restores it)">
+          <Button
+            size="sm"
+            icon={<ImportIcon />}
+            onClick={() => input.current?.click()}
+            title="Replace this draft's stack with a stack file (undo restores it)"
+          >
             Import
           </Button>
         </>
       )}
-      <Button size="sm" icon={<ExportIcon />} onClick={() => downloadText(stackFileText(doc.stack), stackFileName(doc.stack.name, revision.number))} title="Download the stack file shown here">
+      <Button
+        size="sm"
+        icon={<ExportIcon />}
+        onClick={() => downloadText(stackFileText(doc.stack), stackFileName(doc.stack.name, revision.number))}
+        title="Download the stack file shown here"
+      >
         Export
       </Button>
       {refused ? <ImportIssuesDialog open onClose={() => setRefused(null)} {...refused} /> : null}

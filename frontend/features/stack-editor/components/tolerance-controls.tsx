@@ -51,7 +51,14 @@ export function DistSelect({
   values?: number;
 }) {
   return (
-    <SelectInput id={id} aria-label={label} value={value} disabled={disabled} invalid={invalid} onChange={(e) => onChange(e.target.value as Tolerance["dist"])}>
+    <SelectInput
+      id={id}
+      aria-label={label}
+      value={value}
+      disabled={disabled}
+      invalid={invalid}
+      onChange={(e) => onChange(e.target.value as Tolerance["dist"])}
+    >
       <option value="normal">Normal</option>
       <option value="uniform">Uniform</option>
       <option value="triangular">Triangular</option>
@@ -251,7 +258,14 @@ export function ToleranceFields({
       <div className="grid grid-cols-[1.15fr_1fr_0.7fr_1fr] gap-1.5">
         <FieldShell label="Distribution" error={err("dist")}>
           {({ id, invalid }) => (
-            <DistSelect id={id} value={tol.dist} invalid={invalid} disabled={readOnly} values={tol.values?.length} onChange={(d) => setAt(path, withDist(tol, d))} />
+            <DistSelect
+              id={id}
+              value={tol.dist}
+              invalid={invalid}
+              disabled={readOnly}
+              values={tol.values?.length}
+              onChange={(d) => setAt(path, withDist(tol, d))}
+            />
           )}
         </FieldShell>
         <FieldShell label="± Tolerance" error={err("tol")}>
@@ -261,14 +275,34 @@ export function ToleranceFields({
                 from the data
               </p>
             ) : (
-              <NumberInput id={id} aria-describedby={describedBy} invalid={invalid} onLocalError={setLocalError} unit={u} value={tol.tol} disabled={readOnly} onChange={(v) => setAt([...path, "tol"], v, `${key}.tol`)} />
+              <NumberInput
+                id={id}
+                aria-describedby={describedBy}
+                invalid={invalid}
+                onLocalError={setLocalError}
+                unit={u}
+                value={tol.tol}
+                disabled={readOnly}
+                onChange={(v) => setAt([...path, "tol"], v, `${key}.tol`)}
+              />
             )
           }
         </FieldShell>
         <FieldShell label="Sigmas" error={err("sigmas")}>
           {({ id, describedBy, invalid, setLocalError }) =>
             tol.dist === "normal" ? (
-              <NumberInput id={id} aria-describedby={describedBy} invalid={invalid} onLocalError={setLocalError} unit="σ" size="sm" placeholder="3" value={tol.sigmas} disabled={readOnly} onChange={(v) => setAt([...path, "sigmas"], v, `${key}.sigmas`)} />
+              <NumberInput
+                id={id}
+                aria-describedby={describedBy}
+                invalid={invalid}
+                onLocalError={setLocalError}
+                unit="σ"
+                size="sm"
+                placeholder="3"
+                value={tol.sigmas}
+                disabled={readOnly}
+                onChange={(v) => setAt([...path, "sigmas"], v, `${key}.sigmas`)}
+              />
             ) : (
               <p className="flex h-7 items-center text-[11px] text-ink/40" id={id}>
                 —
@@ -278,19 +312,42 @@ export function ToleranceFields({
         </FieldShell>
         <FieldShell label="Mean shift" error={err("mean")}>
           {({ id, describedBy, invalid, setLocalError }) => (
-            <NumberInput id={id} aria-describedby={describedBy} invalid={invalid} onLocalError={setLocalError} unit={u} placeholder="0" value={tol.mean} disabled={readOnly} onChange={(v) => setAt([...path, "mean"], v, `${key}.mean`)} />
+            <NumberInput
+              id={id}
+              aria-describedby={describedBy}
+              invalid={invalid}
+              onLocalError={setLocalError}
+              unit={u}
+              placeholder="0"
+              value={tol.mean}
+              disabled={readOnly}
+              onChange={(v) => setAt([...path, "mean"], v, `${key}.mean`)}
+            />
           )}
         </FieldShell>
       </div>
       <div className="mt-1.5 grid grid-cols-[1fr_1.6fr] gap-1.5">
         <FieldShell label="Stage" error={err("stage")}>
           {({ id, invalid }) => (
-            <StageSelect id={id} invalid={invalid} value={tol.stage} inherited={inheritedStage} disabled={readOnly} onChange={(s) => setAt([...path, "stage"], s)} />
+            <StageSelect
+              id={id}
+              invalid={invalid}
+              value={tol.stage}
+              inherited={inheritedStage}
+              disabled={readOnly}
+              onChange={(s) => setAt([...path, "stage"], s)}
+            />
           )}
         </FieldShell>
         <FieldShell label="Owner" error={err("owner")}>
           {({ id }) => (
-            <OwnerPicker id={id} value={tol.owner} suppliers={suppliers} disabled={readOnly} onChange={(o) => setAt([...path, "owner"], o, `${key}.owner`)} />
+            <OwnerPicker
+              id={id}
+              value={tol.owner}
+              suppliers={suppliers}
+              disabled={readOnly}
+              onChange={(o) => setAt([...path, "owner"], o, `${key}.owner`)}
+            />
           )}
         </FieldShell>
       </div>

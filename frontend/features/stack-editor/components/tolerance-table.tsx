@@ -43,34 +43,43 @@ export function ToleranceTable() {
   const [owner, setOwner] = useState("*");
   const [sort, setSort] = useState<{ key: SortKey; dir: SortDir }>({ key: "element", dir: "asc" });
   const rows = useMemo(() => sortRows(filterRows(all, { text, stage, owner }), sort.key, sort.dir), [all, text, stage, owner, sort]);
-  const owners = useMemo(() => [...new Set(all.map((r) => r.tol.owner ?? ""))].sort((a, b) => (a === "" ? 1 : b === "" ? -1 : a.localeCompare(b))), [all]);
+  const owners = useMemo(
+    () => [...new Set(all.map((r) => r.tol.owner ?? ""))].sort((a, b) => (a === "" ? 1 : b === "" ? -1 : a.localeCompare(b))),
+    [all],
+  );
   const noOwner = all.filter((r) => !r.tol.owner).length;
 
   return (
     <div>
       <div className="flex flex-wrap items-center gap-2 border-b border-line px-3 py-2">
         <div className="w-64">
-          <TextInput type="search" aria-label="Filter tolerance sources" placeholder="Filter: source, element, owner…" value={text} onChange={(e) => setText(e.target.value)} />
+          <TextInput
+            type="search"
+            aria-label="Filter tolerance sources"
+            placeholder="Filter: source, element, owner…"
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+          />
         </div>
         <div className="w-36">
-        <SelectInput aria-label="Stage filter" value={stage} onChange={(e) => setStage(e.target.value)}>
-          <option value="">Every stage</option>
-          {["die", "package", "board", "product"].map((s) => (
-            <option key={s} value={s}>
-              {STAGE_LABEL[s]} stage
-            </option>
-          ))}
-        </SelectInput>
+          <SelectInput aria-label="Stage filter" value={stage} onChange={(e) => setStage(e.target.value)}>
+            <option value="">Every stage</option>
+            {["die", "package", "board", "product"].map((s) => (
+              <option key={s} value={s}>
+                {STAGE_LABEL[s]} stage
+              </option>
+            ))}
+          </SelectInput>
         </div>
         <div className="w-56">
-        <SelectInput aria-label="Owner filter" value={owner} onChange={(e) => setOwner(e.target.value)}>
-          <option value="*">Every owner</option>
-          {owners.map((o) => (
-            <option key={o || "(none)"} value={o}>
-              {o || "No owner yet"}
-            </option>
-          ))}
-        </SelectInput>
+          <SelectInput aria-label="Owner filter" value={owner} onChange={(e) => setOwner(e.target.value)}>
+            <option value="*">Every owner</option>
+            {owners.map((o) => (
+              <option key={o || "(none)"} value={o}>
+                {o || "No owner yet"}
+              </option>
+            ))}
+          </SelectInput>
         </div>
         <span className="ml-auto text-[11px] text-ink/50 tabular-nums">
           {rows.length === all.length ? `${all.length} sources` : `${rows.length} of ${all.length} sources`}
@@ -88,7 +97,11 @@ export function ToleranceTable() {
                     key={c.key}
                     scope="col"
                     aria-sort={active ? (sort.dir === "asc" ? "ascending" : "descending") : "none"}
-                    className={cn("h-8 px-2 text-[10.5px] font-bold tracking-[0.06em] whitespace-nowrap text-ink/55 uppercase", c.align === "right" ? "text-right" : "text-left", c.className)}
+                    className={cn(
+                      "h-8 px-2 text-[10.5px] font-bold tracking-[0.06em] whitespace-nowrap text-ink/55 uppercase",
+                      c.align === "right" ? "text-right" : "text-left",
+                      c.className,
+                    )}
                   >
                     <button
                       type="button"
@@ -140,10 +153,25 @@ function Row({ row: r, selected, onSelect }: { row: ToleranceRow; selected: bool
   const name = r.sourceId;
   return (
     <>
-      <tr className={cn("border-b border-line/60 align-middle", selected ? "bg-gyro/[0.04]" : "hover:bg-paper/60", all.length > 0 && "bg-fail/[0.03]")}>
+      <tr
+        className={cn(
+          "border-b border-line/60 align-middle",
+          selected ? "bg-gyro/[0.04]" : "hover:bg-paper/60",
+          all.length > 0 && "bg-fail/[0.03]",
+        )}
+      >
         <td className="px-2 py-1">
-          <button type="button" onClick={onSelect} className="inline-flex max-w-full items-center gap-1.5 font-semibold text-ink hover:underline" title={`Select ${r.elementId}`}>
-            <span className="size-2.5 shrink-0 rounded-[2px] ring-1 ring-black/10" style={{ background: KIND_COLOR[r.elementKind] }} aria-hidden="true" />
+          <button
+            type="button"
+            onClick={onSelect}
+            className="inline-flex max-w-full items-center gap-1.5 font-semibold text-ink hover:underline"
+            title={`Select ${r.elementId}`}
+          >
+            <span
+              className="size-2.5 shrink-0 rounded-[2px] ring-1 ring-black/10"
+              style={{ background: KIND_COLOR[r.elementKind] }}
+              aria-hidden="true"
+            />
             <span className="truncate">{r.elementId}</span>
           </button>
         </td>
@@ -155,34 +183,78 @@ function Row({ row: r, selected, onSelect }: { row: ToleranceRow; selected: bool
           </div>
         </td>
         <td className="px-2 py-1">
-          <DistSelect label={`${name} distribution`} value={r.tol.dist} values={r.tol.values?.length} disabled={readOnly} invalid={!!err("dist")} onChange={(d) => setAt(path, withDist(r.tol, d))} />
+          <DistSelect
+            label={`${name} distribution`}
+            value={r.tol.dist}
+            values={r.tol.values?.length}
+            disabled={readOnly}
+            invalid={!!err("dist")}
+            onChange={(d) => setAt(path, withDist(r.tol, d))}
+          />
         </td>
         <td className="px-2 py-1">
           {r.tol.dist === "data" ? (
             <span className="block text-right text-ink/45">data</span>
           ) : (
-            <NumberInput aria-label={`${name} tolerance`} unit={u} value={r.tol.tol} disabled={readOnly} invalid={!!err("tol")} onChange={(v) => setAt([...path, "tol"], v, `${key}.tol`)} />
+            <NumberInput
+              aria-label={`${name} tolerance`}
+              unit={u}
+              value={r.tol.tol}
+              disabled={readOnly}
+              invalid={!!err("tol")}
+              onChange={(v) => setAt([...path, "tol"], v, `${key}.tol`)}
+            />
           )}
         </td>
         <td className="px-2 py-1">
           {r.tol.dist === "normal" ? (
-            <NumberInput aria-label={`${name} sigmas`} unit="σ" size="sm" placeholder="3" value={r.tol.sigmas} disabled={readOnly} invalid={!!err("sigmas")} onChange={(v) => setAt([...path, "sigmas"], v, `${key}.sigmas`)} />
+            <NumberInput
+              aria-label={`${name} sigmas`}
+              unit="σ"
+              size="sm"
+              placeholder="3"
+              value={r.tol.sigmas}
+              disabled={readOnly}
+              invalid={!!err("sigmas")}
+              onChange={(v) => setAt([...path, "sigmas"], v, `${key}.sigmas`)}
+            />
           ) : (
             <span className="block text-right text-ink/35">—</span>
           )}
         </td>
         <td className="px-2 py-1">
-          <NumberInput aria-label={`${name} mean shift`} unit={u} placeholder="0" value={r.tol.mean} disabled={readOnly} invalid={!!err("mean")} onChange={(v) => setAt([...path, "mean"], v, `${key}.mean`)} />
+          <NumberInput
+            aria-label={`${name} mean shift`}
+            unit={u}
+            placeholder="0"
+            value={r.tol.mean}
+            disabled={readOnly}
+            invalid={!!err("mean")}
+            onChange={(v) => setAt([...path, "mean"], v, `${key}.mean`)}
+          />
         </td>
         <td className="num px-2 py-1 text-ink/60">
           {formatNumber(sigmaOf(r.tol))}
           <span className="ml-0.5 text-ink/40">{u}</span>
         </td>
         <td className="px-2 py-1">
-          <StageSelect label={`${name} stage`} value={r.tol.stage} inherited={inherited} disabled={readOnly} invalid={!!err("stage")} onChange={(s) => setAt([...path, "stage"], s)} />
+          <StageSelect
+            label={`${name} stage`}
+            value={r.tol.stage}
+            inherited={inherited}
+            disabled={readOnly}
+            invalid={!!err("stage")}
+            onChange={(s) => setAt([...path, "stage"], s)}
+          />
         </td>
         <td className="px-2 py-1">
-          <OwnerPicker label={`${name} owner`} value={r.tol.owner} suppliers={suppliers} disabled={readOnly} onChange={(o) => setAt([...path, "owner"], o, `${key}.owner`)} />
+          <OwnerPicker
+            label={`${name} owner`}
+            value={r.tol.owner}
+            suppliers={suppliers}
+            disabled={readOnly}
+            onChange={(o) => setAt([...path, "owner"], o, `${key}.owner`)}
+          />
         </td>
       </tr>
       {all.length ? (

@@ -12,9 +12,13 @@ function reducer(h: History<EditorDoc>, a: Action): History<EditorDoc> {
 /** The document with its undo history; edits are functions of the current document. */
 export function useEditorHistory(initial: EditorDoc) {
   const [history, dispatch] = useReducer(reducer, initial, createHistory);
-  const update = useCallback((fn: (doc: EditorDoc) => EditorDoc, key?: string) => dispatch({ type: "update", fn, key, at: Date.now() }), []);
+  const update = useCallback(
+    (fn: (doc: EditorDoc) => EditorDoc, key?: string) => dispatch({ type: "update", fn, key, at: Date.now() }),
+    [],
+  );
   const setAt = useCallback(
-    (path: Path, value: unknown, key?: string) => dispatch({ type: "update", fn: (d) => setPath(d, path, value), key: key ?? path.join("."), at: Date.now() }),
+    (path: Path, value: unknown, key?: string) =>
+      dispatch({ type: "update", fn: (d) => setPath(d, path, value), key: key ?? path.join("."), at: Date.now() }),
     [],
   );
   const undo = useCallback(() => dispatch({ type: "undo" }), []);

@@ -18,10 +18,7 @@ export interface History<T> {
 }
 
 export type HistoryAction<T> =
-  | { type: "edit"; next: T; key?: string; at?: number }
-  | { type: "undo" }
-  | { type: "redo" }
-  | { type: "reset"; present: T };
+  { type: "edit"; next: T; key?: string; at?: number } | { type: "undo" } | { type: "redo" } | { type: "reset"; present: T };
 
 export function createHistory<T>(present: T): History<T> {
   return { past: [], present, future: [], lastKey: null, lastAt: 0 };
@@ -36,7 +33,8 @@ export function historyReducer<T>(h: History<T>, action: HistoryAction<T>): Hist
       if (key !== null && key === h.lastKey && at - h.lastAt < COALESCE_MS) {
         return { ...h, present: action.next, future: [], lastAt: at };
       }
-      const past = h.past.length >= HISTORY_LIMIT ? [...h.past.slice(h.past.length - HISTORY_LIMIT + 1), h.present] : [...h.past, h.present];
+      const past =
+        h.past.length >= HISTORY_LIMIT ? [...h.past.slice(h.past.length - HISTORY_LIMIT + 1), h.present] : [...h.past, h.present];
       return { past, present: action.next, future: [], lastKey: key, lastAt: at };
     }
     case "undo": {

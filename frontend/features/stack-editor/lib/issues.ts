@@ -82,7 +82,10 @@ export function validateDoc(doc: EditorDoc, v: StackValidation = validateStackFi
     const parsed = RequirementSchema.safeParse(r);
     if (!parsed.success) {
       for (const issue of fromZodError(parsed.error)) {
-        issues.push({ path: issue.path ? `${formatPath(["requirements", i])}.${issue.path}` : formatPath(["requirements", i]), message: issue.message });
+        issues.push({
+          path: issue.path ? `${formatPath(["requirements", i])}.${issue.path}` : formatPath(["requirements", i]),
+          message: issue.message,
+        });
       }
     }
     if (ids && typeof r.metric === "string" && r.metric !== "" && !ids.has(r.metric)) {

@@ -124,12 +124,22 @@ export function summarize(result: ResultFile, live: LiveStudy): EstimateSummary 
     predictedYield: r.predictedYield,
     ci: r.ci,
     passes: r.passes,
-    drivers: drivers((result.contributors.find((c) => c.metric === r.metric)?.sources ?? []).map((x) => ({ source: x.source, share: x.linearShare }))),
+    drivers: drivers(
+      (result.contributors.find((c) => c.metric === r.metric)?.sources ?? []).map((x) => ({ source: x.source, share: x.linearShare })),
+    ),
   }));
-  return finish(result.trials, result.seed, heading ? { p95: heading.p95, p99: heading.p99, max: heading.max } : null, worstCrossAxis, worstRelRot, requirements, (metric) => {
-    const t = result.worstTrials[metric]?.[0];
-    return t ? { trial: t.trial, value: t.value } : null;
-  });
+  return finish(
+    result.trials,
+    result.seed,
+    heading ? { p95: heading.p95, p99: heading.p99, max: heading.max } : null,
+    worstCrossAxis,
+    worstRelRot,
+    requirements,
+    (metric) => {
+      const t = result.worstTrials[metric]?.[0];
+      return t ? { trial: t.trial, value: t.value } : null;
+    },
+  );
 }
 
 function finish(
@@ -175,7 +185,9 @@ export function estimate(stack: StackFile, live: LiveStudy): EstimateSummary {
   };
   const h = model.metricIndex.get("heading.maxAbsDeg");
   const heading = h === undefined ? null : { p95: pct(h, 0.95), p99: pct(h, 0.99), max: st.maxAbs[h] };
-  const lin = new Map(linearisedContributions(model, [...new Set(plan.requirements.map((r) => r.metric))]).map((l) => [l.metric, l] as const));
+  const lin = new Map(
+    linearisedContributions(model, [...new Set(plan.requirements.map((r) => r.metric))]).map((l) => [l.metric, l] as const),
+  );
   const requirements: EstimateRequirement[] = plan.requirements.map((r, i) => {
     const py = n > 0 ? st.pass[i] / n : NaN;
     return {
@@ -190,10 +202,18 @@ export function estimate(stack: StackFile, live: LiveStudy): EstimateSummary {
       drivers: drivers(lin.get(r.id)?.sources ?? []),
     };
   });
-  return finish(n, plan.seed, heading, largest((id) => id.includes(".crossAxisTotalPct.")), largest((id) => id.endsWith(".relRotDeg")), requirements, (metric) => {
-    const k = model.metricIndex.get(metric);
-    if (k === undefined) return null;
-    const t = st.worstTrial[k * st.worstK];
-    return t >= 0 ? { trial: t, value: st.worstVal[k * st.worstK] } : null;
-  });
+  return finish(
+    n,
+    plan.seed,
+    heading,
+    largest((id) => id.includes(".crossAxisTotalPct.")),
+    largest((id) => id.endsWith(".relRotDeg")),
+    requirements,
+    (metric) => {
+      const k = model.metricIndex.get(metric);
+      if (k === undefined) return null;
+      const t = st.worstTrial[k * st.worstK];
+      return t >= 0 ? { trial: t, value: st.worstVal[k * st.worstK] } : null;
+    },
+  );
 }

@@ -7,7 +7,10 @@
 export type ParsedNumber = { ok: true; value: number | undefined } | { ok: false };
 
 export function parseNumberText(text: string): ParsedNumber {
-  const t = text.trim().replace(/\u2212/g, "-").replace(",", ".");
+  const t = text
+    .trim()
+    .replace(/\u2212/g, "-")
+    .replace(",", ".");
   if (t === "") return { ok: true, value: undefined };
   if (!/^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t)) return { ok: false };
   const v = Number(t);

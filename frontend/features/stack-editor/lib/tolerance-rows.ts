@@ -41,7 +41,6 @@ export const SLOTS: SlotSpec[] = [
   { path: ["axisTol"], suffix: "axis", label: "Sensing-axis alignment", unit: "deg", applies: sensor },
 ];
 
-
 export interface ToleranceRow {
   /** MODEL.md source id, e.g. "mag.bondLine", "gyro.axis.g3" */
   sourceId: string;
@@ -162,7 +161,8 @@ export function sortRows(rows: ToleranceRow[], key: SortKey, dir: SortDir): Tole
   return rows
     .map((r, i) => ({ r, i }))
     .sort((a, b) => {
-      const va = sortValue(a.r, key), vb = sortValue(b.r, key);
+      const va = sortValue(a.r, key),
+        vb = sortValue(b.r, key);
       const c = typeof va === "number" && typeof vb === "number" ? va - vb : String(va).localeCompare(String(vb));
       return c !== 0 ? c * sign : a.i - b.i;
     })

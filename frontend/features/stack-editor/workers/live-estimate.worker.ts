@@ -11,8 +11,7 @@ import { estimate, liveStudy, type EstimateSummary } from "../lib/live-estimate"
 
 export type EstimateRequest = { runId: number; stack: unknown; requirements: Requirement[] };
 export type EstimateAnswer =
-  | { runId: number; type: "result"; summary: EstimateSummary; ms: number }
-  | { runId: number; type: "error"; message: string };
+  { runId: number; type: "result"; summary: EstimateSummary; ms: number } | { runId: number; type: "error"; message: string };
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 

@@ -4,9 +4,31 @@ import { Dialog } from "@frontend/components/ui/dialog";
 import { sentence } from "@frontend/lib/form";
 
 /** Why a stack file was refused: every problem with its path in the file. */
-export function ImportIssuesDialog({ open, onClose, fileName, message, issues }: { open: boolean; onClose: () => void; fileName: string; message: string; issues: ImportIssue[] }) {
+export function ImportIssuesDialog({
+  open,
+  onClose,
+  fileName,
+  message,
+  issues,
+}: {
+  open: boolean;
+  onClose: () => void;
+  fileName: string;
+  message: string;
+  issues: ImportIssue[];
+}) {
   return (
-    <Dialog open={open} onClose={onClose} title="This stack file cannot be imported" description={`${fileName}: ${message}`} footer={<Button onClick={onClose} data-autofocus>Close</Button>}>
+    <Dialog
+      open={open}
+      onClose={onClose}
+      title="This stack file cannot be imported"
+      description={`${fileName}: ${message}`}
+      footer={
+        <Button onClick={onClose} data-autofocus>
+          Close
+        </Button>
+      }
+    >
       {issues.length ? (
         <ul className="max-h-72 space-y-1.5 overflow-y-auto text-xs" aria-label="Problems in the file">
           {issues.slice(0, 50).map((i, k) => (

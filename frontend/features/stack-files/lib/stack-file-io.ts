@@ -9,7 +9,10 @@ export type ImportIssue = FieldIssue & { element?: string };
 export type ImportResult = { ok: true; stack: StackFile } | { ok: false; message: string; issues: ImportIssue[] };
 
 export function withElementIds(json: unknown, issues: FieldIssue[]): ImportIssue[] {
-  const els = json && typeof json === "object" && Array.isArray((json as { elements?: unknown }).elements) ? (json as { elements: unknown[] }).elements : [];
+  const els =
+    json && typeof json === "object" && Array.isArray((json as { elements?: unknown }).elements)
+      ? (json as { elements: unknown[] }).elements
+      : [];
   return issues.map((i) => {
     const m = /^(?:stack\.)?elements\[(\d+)\]/.exec(i.path);
     const el = m ? els[Number(m[1])] : undefined;
@@ -28,7 +31,12 @@ export function readStackFileText(text: string): ImportResult {
     return { ok: false, message: `The file is not JSON: ${error instanceof Error ? error.message : String(error)}`, issues: [] };
   }
   const v = validateStackFile(json);
-  if (!v.ok) return { ok: false, message: `The file has ${v.issues.length === 1 ? "a problem" : `${v.issues.length} problems`}; nothing was imported.`, issues: withElementIds(json, v.issues) };
+  if (!v.ok)
+    return {
+      ok: false,
+      message: `The file has ${v.issues.length === 1 ? "a problem" : `${v.issues.length} problems`}; nothing was imported.`,
+      issues: withElementIds(json, v.issues),
+    };
   return { ok: true, stack: v.stack };
 }
 
@@ -38,7 +46,11 @@ export function stackFileText(stack: StackFile): string {
 }
 
 export function stackFileName(name: string | undefined, revisionNumber: number): string {
-  const slug = (name ?? "").replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 80) || "stack";
+  const slug =
+    (name ?? "")
+      .replace(/[^\w.-]+/g, "-")
+      .replace(/^-+|-+$/g, "")
+      .slice(0, 80) || "stack";
   return `${slug}-rev${revisionNumber}.stack.json`;
 }
 

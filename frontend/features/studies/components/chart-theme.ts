@@ -15,7 +15,14 @@ export const axisTick = { fontSize: 10.5, fill: "rgba(23,33,43,0.62)", fontFamil
 export const axisLine = { stroke: LINE } as const;
 export const gridProps = { stroke: LINE, strokeOpacity: 0.65, strokeDasharray: "2 3" } as const;
 export const axisLabel = (value: string, angle = 0) =>
-  ({ value, angle, fontSize: 10.5, fill: "rgba(23,33,43,0.55)", fontWeight: 600, position: angle ? "insideLeft" : "insideBottom" }) as const;
+  ({
+    value,
+    angle,
+    fontSize: 10.5,
+    fill: "rgba(23,33,43,0.55)",
+    fontWeight: 600,
+    position: angle ? "insideLeft" : "insideBottom",
+  }) as const;
 export const tooltipStyle = {
   contentStyle: {
     background: PALETTE.panel,

@@ -13,7 +13,10 @@ import { formatNumber } from "@shared/format";
 export function PercentileTable({ ra, rb, elementOrder }: { ra: ResultFile; rb: ResultFile; elementOrder: string[] }) {
   const [scope, setScope] = useState<"requirements" | "changed" | "all">("requirements");
   const [pct, setPct] = useState<PercentileKey>("p9973");
-  const all = useMemo(() => groupMetrics([...new Set([...Object.keys(ra.metrics), ...Object.keys(rb.metrics)])], elementOrder).flatMap((g) => g.ids), [ra, rb, elementOrder]);
+  const all = useMemo(
+    () => groupMetrics([...new Set([...Object.keys(ra.metrics), ...Object.keys(rb.metrics)])], elementOrder).flatMap((g) => g.ids),
+    [ra, rb, elementOrder],
+  );
   const reqIds = [...new Set([...ra.requirements.map((r) => r.metric), ...rb.requirements.map((r) => r.metric)])];
   const ids =
     scope === "requirements"
@@ -34,7 +37,12 @@ export function PercentileTable({ ra, rb, elementOrder }: { ra: ResultFile; rb: 
             { value: "all", label: "All metrics" },
           ]}
         />
-        <SegmentedControl label="Change at percentile" value={pct} onChange={setPct} options={PERCENTILES.map((p) => ({ value: p.key, label: `Δ ${p.label}` }))} />
+        <SegmentedControl
+          label="Change at percentile"
+          value={pct}
+          onChange={setPct}
+          options={PERCENTILES.map((p) => ({ value: p.key, label: `Δ ${p.label}` }))}
+        />
       </div>
       <div className="max-h-[480px] overflow-auto rounded-md border border-line/80">
         <Table aria-label="Percentiles compared">
@@ -67,7 +75,12 @@ export function PercentileTable({ ra, rb, elementOrder }: { ra: ResultFile; rb: 
                   ))}
                   <Td numeric className={cn("h-8 text-xs", TONE_CLASS[tone])}>
                     {rel === null ? "—" : `${signed(rel, 2)} %`}
-                    {ma && mb ? <span className="ml-1 text-2xs font-normal opacity-75">({signed(mb[pct] - ma[pct], 2)}{unit})</span> : null}
+                    {ma && mb ? (
+                      <span className="ml-1 text-2xs font-normal opacity-75">
+                        ({signed(mb[pct] - ma[pct], 2)}
+                        {unit})
+                      </span>
+                    ) : null}
                   </Td>
                 </Tr>
               );

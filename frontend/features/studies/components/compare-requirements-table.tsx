@@ -62,7 +62,9 @@ export function RequirementsCompared({ ra, rb }: { ra: ResultFile; rb: ResultFil
                   </Td>
                   <Td numeric className={cn("text-xs", TONE_CLASS[tone])}>
                     {r.deltaPoints === null ? "—" : `${signed(r.deltaPoints, 3)} pts`}
-                    <div className="text-2xs font-normal opacity-80">{r.deltaPoints === null ? "" : r.significant ? "beyond sampling error" : "within sampling error"}</div>
+                    <div className="text-2xs font-normal opacity-80">
+                      {r.deltaPoints === null ? "" : r.significant ? "beyond sampling error" : "within sampling error"}
+                    </div>
                   </Td>
                   <Td numeric className="text-xs">
                     {r.a ? formatPpm(r.a.ppmOut) : "—"}
@@ -71,7 +73,8 @@ export function RequirementsCompared({ ra, rb }: { ra: ResultFile; rb: ResultFil
                     {r.b ? formatPpm(r.b.ppmOut) : "—"}
                   </Td>
                   <Td className="text-xs whitespace-nowrap">
-                    {r.a ? <VerdictBadge passes={r.a.passes} /> : "—"} <span className="text-ink/40">→</span> {r.b ? <VerdictBadge passes={r.b.passes} /> : "—"}
+                    {r.a ? <VerdictBadge passes={r.a.passes} /> : "—"} <span className="text-ink/40">→</span>{" "}
+                    {r.b ? <VerdictBadge passes={r.b.passes} /> : "—"}
                   </Td>
                 </Tr>
               );
@@ -88,9 +91,7 @@ function YieldCell({ r }: { r: ResultFile["requirements"][number] | null }) {
   return (
     <>
       <span className={cn("font-semibold", r.passes ? "text-pass" : "text-fail")}>{formatYield(r.predictedYield)}</span>
-      <div className="text-2xs text-ink/50">
-        {formatYieldRange(r.ci[0], r.ci[1])}
-      </div>
+      <div className="text-2xs text-ink/50">{formatYieldRange(r.ci[0], r.ci[1])}</div>
     </>
   );
 }

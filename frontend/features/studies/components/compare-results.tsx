@@ -11,7 +11,8 @@ import { StudyCautions } from "./study-cautions";
 
 /** Everything compared once both studies have a result. */
 export function CompareResults({ a, b, ra, rb }: { a: StudyDetail; b: StudyDetail; ra: ResultFile; rb: ResultFile }) {
-  const headingReq = ra.requirements.find((r) => r.metric === "heading.maxAbsDeg") ?? rb.requirements.find((r) => r.metric === "heading.maxAbsDeg");
+  const headingReq =
+    ra.requirements.find((r) => r.metric === "heading.maxAbsDeg") ?? rb.requirements.find((r) => r.metric === "heading.maxAbsDeg");
   return (
     <>
       <StudyCautions />

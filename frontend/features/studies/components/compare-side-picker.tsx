@@ -22,9 +22,16 @@ export function SidePicker({
 }) {
   const label = side.toUpperCase();
   return (
-    <section aria-label={`Study ${label}`} className="rounded-lg border border-line bg-panel px-4 py-3 shadow-[0_1px_2px_rgba(23,33,43,0.04)]">
+    <section
+      aria-label={`Study ${label}`}
+      className="rounded-lg border border-line bg-panel px-4 py-3 shadow-[0_1px_2px_rgba(23,33,43,0.04)]"
+    >
       <div className="flex items-center gap-3">
-        <span className="flex size-6 shrink-0 items-center justify-center rounded text-xs font-extrabold text-white" style={{ background: colour }} aria-hidden="true">
+        <span
+          className="flex size-6 shrink-0 items-center justify-center rounded text-xs font-extrabold text-white"
+          style={{ background: colour }}
+          aria-hidden="true"
+        >
           {label}
         </span>
         <div className="min-w-0 flex-1">
@@ -32,13 +39,14 @@ export function SidePicker({
             <option value="">Choose a study…</option>
             {studies.map((s) => (
               <option key={s.id} value={s.id} disabled={s.id === other}>
-                Study {s.number} · rev {s.revisionNumber} · {s.status === "finished" ? (s.passes === null ? "finished" : s.passes ? "pass" : "fail") : s.status}
+                Study {s.number} · rev {s.revisionNumber} ·{" "}
+                {s.status === "finished" ? (s.passes === null ? "finished" : s.passes ? "pass" : "fail") : s.status}
                 {s.label ? ` · ${s.label}` : ""}
               </option>
             ))}
           </Select>
         </div>
-        {study ? (study.status === "finished" ? <VerdictBadge passes={study.passes} /> : <StudyStatusBadge status={study.status} />) : null}
+        {study ? study.status === "finished" ? <VerdictBadge passes={study.passes} /> : <StudyStatusBadge status={study.status} /> : null}
       </div>
       {study && (study.status === "queued" || study.status === "running") ? (
         <div className="mt-3">

@@ -51,8 +51,12 @@ export function TopContributors({ ra, rb }: { ra: ResultFile; rb: ResultFile }) 
               return (
                 <Tr key={r.s}>
                   <Td className="h-8 font-mono text-xs">{r.s}</Td>
-                  <Td numeric className="h-8 text-xs">{formatPct(r.a, 3)}</Td>
-                  <Td numeric className="h-8 text-xs font-semibold">{formatPct(r.b, 3)}</Td>
+                  <Td numeric className="h-8 text-xs">
+                    {formatPct(r.a, 3)}
+                  </Td>
+                  <Td numeric className="h-8 text-xs font-semibold">
+                    {formatPct(r.b, 3)}
+                  </Td>
                   <Td numeric className={cn("h-8 text-xs", Math.abs(d) >= 5 ? "font-semibold text-ink" : "text-ink/50")}>
                     {signed(d, 2)} pts
                   </Td>

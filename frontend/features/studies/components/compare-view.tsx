@@ -39,7 +39,11 @@ export function CompareView({
           <Panel title="Settings" meta="rows that differ are marked">
             <SettingsTable a={a} b={b} />
           </Panel>
-          {ra && rb ? <CompareResults a={a} b={b} ra={ra} rb={rb} /> : <p className="text-[13px] text-ink/60">The comparison fills in when both studies have finished.</p>}
+          {ra && rb ? (
+            <CompareResults a={a} b={b} ra={ra} rb={rb} />
+          ) : (
+            <p className="text-[13px] text-ink/60">The comparison fills in when both studies have finished.</p>
+          )}
         </>
       ) : (
         <p className="rounded-lg border border-dashed border-line bg-panel px-4 py-6 text-center text-[13px] text-ink/60">

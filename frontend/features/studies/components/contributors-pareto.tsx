@@ -30,7 +30,9 @@ export function ContributorsPanel({
 }) {
   const c = result.contributors.find((x) => x.metric === metric) ?? result.contributors[0];
   if (!c) {
-    return <p className="py-6 text-center text-[13px] text-ink/55">Contributors are worked out for requirement metrics; this study has none.</p>;
+    return (
+      <p className="py-6 text-center text-[13px] text-ink/55">Contributors are worked out for requirement metrics; this study has none.</p>
+    );
   }
   const colourOf = (source: string) => {
     const head = source.startsWith("calibration.") ? source.slice(12) : source.split(".")[0];
@@ -99,7 +101,11 @@ function ParetoChart({
 }) {
   const few = sourcesToReach(rows, 80);
   return (
-    <figure className="min-w-0 rounded-md border border-line/80 bg-white/60 p-2" data-chart="pareto" aria-label={`Pareto of contributors, ${title}`}>
+    <figure
+      className="min-w-0 rounded-md border border-line/80 bg-white/60 p-2"
+      data-chart="pareto"
+      aria-label={`Pareto of contributors, ${title}`}
+    >
       <figcaption className="flex flex-wrap items-baseline justify-between gap-x-3 px-1">
         <span className="text-[12px] font-bold text-ink">{title}</span>
         <span className="text-2xs text-ink/55">{rows.length ? `${few} source${few === 1 ? "" : "s"} make 80 %` : ""}</span>
@@ -118,15 +124,35 @@ function ParetoChart({
             axisLine={axisLine}
             tickLine={false}
           />
-          <YAxis yAxisId="share" domain={[0, 100]} ticks={[0, 25, 50, 75, 100]} tick={axisTick} axisLine={axisLine} tickLine={false} width={38} tickFormatter={(v: number) => `${v} %`} />
-          <YAxis yAxisId="cum" orientation="right" domain={[0, 100]} ticks={[0, 80, 100]} tick={axisTick} axisLine={axisLine} tickLine={false} width={42} tickFormatter={(v: number) => `${v} %`} />
+          <YAxis
+            yAxisId="share"
+            domain={[0, 100]}
+            ticks={[0, 25, 50, 75, 100]}
+            tick={axisTick}
+            axisLine={axisLine}
+            tickLine={false}
+            width={38}
+            tickFormatter={(v: number) => `${v} %`}
+          />
+          <YAxis
+            yAxisId="cum"
+            orientation="right"
+            domain={[0, 100]}
+            ticks={[0, 80, 100]}
+            tick={axisTick}
+            axisLine={axisLine}
+            tickLine={false}
+            width={42}
+            tickFormatter={(v: number) => `${v} %`}
+          />
           <Tooltip
             {...tooltipStyle}
             cursor={{ fill: INK, fillOpacity: 0.05 }}
             formatter={(value, name, item) => {
               const r = item.payload as ParetoRow;
               if (name === "Running total") return [formatPct(Number(value), 3), name];
-              const other = r.otherShare === null ? "" : ` (${method === "linear" ? "Monte Carlo" : "linearised"} ${formatPct(r.otherShare, 2)})`;
+              const other =
+                r.otherShare === null ? "" : ` (${method === "linear" ? "Monte Carlo" : "linearised"} ${formatPct(r.otherShare, 2)})`;
               return [`${formatPct(Number(value), 3)}${other}`, "Share"];
             }}
           />
@@ -183,7 +209,11 @@ function SourcesTable({
             return (
               <Tr key={s.source}>
                 <Td className="h-8 font-mono text-xs">
-                  <span className="mr-1.5 inline-block size-2 rounded-sm align-middle" style={{ background: colourOf(s.source) }} aria-hidden="true" />
+                  <span
+                    className="mr-1.5 inline-block size-2 rounded-sm align-middle"
+                    style={{ background: colourOf(s.source) }}
+                    aria-hidden="true"
+                  />
                   {s.source}
                 </Td>
                 <Td className="h-8 text-xs text-ink/70">{src?.owner ?? "—"}</Td>

@@ -93,12 +93,31 @@ export function ConvergencePanel({ result, metric, onMetric }: { result: ResultF
             width={52}
             tickFormatter={(v: number) => `${formatNumber(v, 3)}${unit === "%" ? " %" : "°"}`}
           />
-          <Tooltip {...tooltipStyle} labelFormatter={(v) => `${formatCount(Number(v))} trials`} formatter={(v) => [formatValue(Number(v), unit), statLabel]} />
-          {last !== undefined && Number.isFinite(last) ? <ReferenceLine y={last} stroke={INK} strokeOpacity={0.35} strokeDasharray="3 3" /> : null}
-          {req && stat === "pAtCoverage" ? (
-            <ReferenceLine y={req.max} stroke={FAIL} strokeDasharray="5 3" ifOverflow="extendDomain" label={{ value: "limit", position: "insideTopRight", fontSize: 10.5, fill: FAIL, fontWeight: 700 }} />
+          <Tooltip
+            {...tooltipStyle}
+            labelFormatter={(v) => `${formatCount(Number(v))} trials`}
+            formatter={(v) => [formatValue(Number(v), unit), statLabel]}
+          />
+          {last !== undefined && Number.isFinite(last) ? (
+            <ReferenceLine y={last} stroke={INK} strokeOpacity={0.35} strokeDasharray="3 3" />
           ) : null}
-          <Line dataKey="value" stroke={SERIES_A} strokeWidth={1.75} dot={{ r: 3, fill: SERIES_A, strokeWidth: 0 }} isAnimationActive={false} name={statLabel} />
+          {req && stat === "pAtCoverage" ? (
+            <ReferenceLine
+              y={req.max}
+              stroke={FAIL}
+              strokeDasharray="5 3"
+              ifOverflow="extendDomain"
+              label={{ value: "limit", position: "insideTopRight", fontSize: 10.5, fill: FAIL, fontWeight: 700 }}
+            />
+          ) : null}
+          <Line
+            dataKey="value"
+            stroke={SERIES_A}
+            strokeWidth={1.75}
+            dot={{ r: 3, fill: SERIES_A, strokeWidth: 0 }}
+            isAnimationActive={false}
+            name={statLabel}
+          />
         </LineChart>
       </figure>
       {yields.length ? (
@@ -107,20 +126,53 @@ export function ConvergencePanel({ result, metric, onMetric }: { result: ResultF
           <ComposedChart responsive style={{ width: "100%", height: 150 }} data={yields} margin={{ top: 8, right: 14, bottom: 0, left: 4 }}>
             <CartesianGrid {...gridProps} />
             {xAxis}
-            <YAxis domain={yieldDomain} ticks={niceTicks(yieldDomain[0], yieldDomain[1], 4)} tick={axisTick} axisLine={axisLine} tickLine={false} width={52} tickFormatter={(v: number) => `${formatNumber(v, 4)}%`} />
+            <YAxis
+              domain={yieldDomain}
+              ticks={niceTicks(yieldDomain[0], yieldDomain[1], 4)}
+              tick={axisTick}
+              axisLine={axisLine}
+              tickLine={false}
+              width={52}
+              tickFormatter={(v: number) => `${formatNumber(v, 4)}%`}
+            />
             <Tooltip
               {...tooltipStyle}
               labelFormatter={(v) => `${formatCount(Number(v))} trials`}
-              formatter={(v, name) => [Array.isArray(v) ? `${formatYield(Number(v[0]) / 100)} – ${formatYield(Number(v[1]) / 100)}` : formatYield(Number(v) / 100), name]}
+              formatter={(v, name) => [
+                Array.isArray(v) ? `${formatYield(Number(v[0]) / 100)} – ${formatYield(Number(v[1]) / 100)}` : formatYield(Number(v) / 100),
+                name,
+              ]}
             />
-            <ReferenceLine y={req!.yield * 100} stroke={FAIL} strokeDasharray="5 3" ifOverflow="extendDomain" label={{ value: "target", position: "insideTopRight", fontSize: 10.5, fill: FAIL, fontWeight: 700 }} />
-            <Area dataKey="band" name="95 % interval" stroke="none" fill={SERIES_A} fillOpacity={0.18} isAnimationActive={false} activeDot={false} />
-            <Line dataKey="yield" name="Yield" stroke={SERIES_A} strokeWidth={1.75} dot={{ r: 2.5, fill: SERIES_A, strokeWidth: 0 }} isAnimationActive={false} />
+            <ReferenceLine
+              y={req!.yield * 100}
+              stroke={FAIL}
+              strokeDasharray="5 3"
+              ifOverflow="extendDomain"
+              label={{ value: "target", position: "insideTopRight", fontSize: 10.5, fill: FAIL, fontWeight: 700 }}
+            />
+            <Area
+              dataKey="band"
+              name="95 % interval"
+              stroke="none"
+              fill={SERIES_A}
+              fillOpacity={0.18}
+              isAnimationActive={false}
+              activeDot={false}
+            />
+            <Line
+              dataKey="yield"
+              name="Yield"
+              stroke={SERIES_A}
+              strokeWidth={1.75}
+              dot={{ r: 2.5, fill: SERIES_A, strokeWidth: 0 }}
+              isAnimationActive={false}
+            />
           </ComposedChart>
         </figure>
       ) : null}
       <p className="text-2xs text-ink/50">
-        Final {statLabel}: <span className="font-semibold text-ink">{last !== undefined ? formatValue(last, unit) : "—"}</span> after {formatCount(result.trials)} trials
+        Final {statLabel}: <span className="font-semibold text-ink">{last !== undefined ? formatValue(last, unit) : "—"}</span> after{" "}
+        {formatCount(result.trials)} trials
         {drift !== null ? `; it moved at most ${formatPct(drift, 2)} over the last half of the run` : ""}.
         {result.adaptive
           ? ` Adaptive stopping (${result.adaptive.method}, ${result.adaptive.significantDigits} significant digit${result.adaptive.significantDigits === 1 ? "" : "s"}): ${result.adaptive.converged ? "converged" : "not converged"} after ${result.adaptive.runs} runs of ${formatCount(result.adaptive.runTrials)}.`

@@ -42,15 +42,26 @@ export function CrossAxisTables({
         {matrices.map((m) => {
           const colour = SENSOR_COLOUR[kindOf(m.sensor) ?? ""] ?? "#64748b";
           return (
-            <table key={m.sensor} aria-label={`${m.sensor} cross-axis at ${percentileLabel(pct)}`} className="w-full border-collapse text-xs" data-chart="cross-axis">
+            <table
+              key={m.sensor}
+              aria-label={`${m.sensor} cross-axis at ${percentileLabel(pct)}`}
+              className="w-full border-collapse text-xs"
+              data-chart="cross-axis"
+            >
               <caption className="mb-1 text-left text-[12px] font-bold text-ink">
                 <span className="mr-1.5 inline-block size-2 rounded-full align-middle" style={{ background: colour }} aria-hidden="true" />
                 {m.sensor}
-                {kindOf(m.sensor) && kindOf(m.sensor) !== m.sensor ? <span className="ml-1.5 font-normal text-ink/45">{kindOf(m.sensor)}</span> : null}
+                {kindOf(m.sensor) && kindOf(m.sensor) !== m.sensor ? (
+                  <span className="ml-1.5 font-normal text-ink/45">{kindOf(m.sensor)}</span>
+                ) : null}
               </caption>
               <thead>
                 <tr>
-                  <th scope="col" className="w-5 text-left text-[10px] font-semibold text-ink/40" title="Row: the sensor's axis; column: the board axis it picks up">
+                  <th
+                    scope="col"
+                    className="w-5 text-left text-[10px] font-semibold text-ink/40"
+                    title="Row: the sensor's axis; column: the board axis it picks up"
+                  >
                     <span className="sr-only">sensor axis, board axis</span>
                   </th>
                   {AXES.map((j) => (
@@ -74,7 +85,9 @@ export function CrossAxisTables({
                           <td
                             key={j}
                             className="h-11 border border-line/70 bg-paper px-1 text-right align-middle text-ink/45"
-                            title={mis === null ? "100 % by definition" : `Axis misalignment of ${i}: ${formatDeg(mis)} (${formatMrad(mis)})`}
+                            title={
+                              mis === null ? "100 % by definition" : `Axis misalignment of ${i}: ${formatDeg(mis)} (${formatMrad(mis)})`
+                            }
                           >
                             <div className="leading-tight tabular-nums">—</div>
                             {mis !== null ? <div className="text-[10px] leading-tight tabular-nums">∠ {formatDeg(mis, 2)}</div> : null}
@@ -105,8 +118,8 @@ export function CrossAxisTables({
         })}
       </div>
       <p className="text-2xs text-ink/50">
-        Shading runs from 0 to the largest term of any sensor ({formatNumber(scale)} %). The diagonal shows the axis misalignment (∠) at
-        the same percentile. 1° of misalignment gives about 1.75 % cross-axis.
+        Shading runs from 0 to the largest term of any sensor ({formatNumber(scale)} %). The diagonal shows the axis misalignment (∠) at the
+        same percentile. 1° of misalignment gives about 1.75 % cross-axis.
       </p>
     </div>
   );

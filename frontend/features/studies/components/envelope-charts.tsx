@@ -56,7 +56,12 @@ export function EnvelopeCharts({ layers, limitDeg }: { layers: EnvelopeLayer[]; 
           <TiltChart
             key={t.key}
             tilt={t}
-            layers={perLayer.map((l) => ({ key: l.key, name: l.name, colour: l.colour, series: l.series.find((s) => s.key === t.key) ?? null }))}
+            layers={perLayer.map((l) => ({
+              key: l.key,
+              name: l.name,
+              colour: l.colour,
+              series: l.series.find((s) => s.key === t.key) ?? null,
+            }))}
             extent={extent}
             extremes={extremes}
             limitDeg={limitDeg}
@@ -128,7 +133,11 @@ function TiltChart({
   }, [layers]);
 
   return (
-    <figure className="min-w-0 rounded-md border border-line/80 bg-white/60 px-1 pt-1.5 pb-1" data-chart="envelope" aria-label={`Heading error envelope, ${tilt.label}`}>
+    <figure
+      className="min-w-0 rounded-md border border-line/80 bg-white/60 px-1 pt-1.5 pb-1"
+      data-chart="envelope"
+      aria-label={`Heading error envelope, ${tilt.label}`}
+    >
       <figcaption className="px-2 text-[11.5px] font-bold text-ink">{tilt.label}</figcaption>
       <ComposedChart responsive style={{ width: "100%", height: 170 }} data={data} margin={{ top: 6, right: 8, bottom: 0, left: 0 }}>
         <CartesianGrid {...gridProps} />
@@ -185,8 +194,28 @@ function TiltChart({
         ))}
         {extremes
           ? layers.flatMap((l) => [
-              <Line key={`${l.key}-min`} dataKey={`${l.key}_min`} name={`${layers.length > 1 ? `${l.name} ` : ""}min`} stroke={l.colour} strokeOpacity={0.7} strokeDasharray="3 3" strokeWidth={1} dot={false} isAnimationActive={false} />,
-              <Line key={`${l.key}-max`} dataKey={`${l.key}_max`} name={`${layers.length > 1 ? `${l.name} ` : ""}max`} stroke={l.colour} strokeOpacity={0.7} strokeDasharray="3 3" strokeWidth={1} dot={false} isAnimationActive={false} />,
+              <Line
+                key={`${l.key}-min`}
+                dataKey={`${l.key}_min`}
+                name={`${layers.length > 1 ? `${l.name} ` : ""}min`}
+                stroke={l.colour}
+                strokeOpacity={0.7}
+                strokeDasharray="3 3"
+                strokeWidth={1}
+                dot={false}
+                isAnimationActive={false}
+              />,
+              <Line
+                key={`${l.key}-max`}
+                dataKey={`${l.key}_max`}
+                name={`${layers.length > 1 ? `${l.name} ` : ""}max`}
+                stroke={l.colour}
+                strokeOpacity={0.7}
+                strokeDasharray="3 3"
+                strokeWidth={1}
+                dot={false}
+                isAnimationActive={false}
+              />,
             ])
           : null}
         {layers.map((l) => (

@@ -25,7 +25,11 @@ export function FieldFound({
   stale: boolean;
 }) {
   return (
-    <div aria-live="polite" aria-label="Field at the site" className={cn("rounded-md border px-3 py-2", state === "error" ? "border-fail/30 bg-fail/[0.05]" : "border-line bg-paper/70")}>
+    <div
+      aria-live="polite"
+      aria-label="Field at the site"
+      className={cn("rounded-md border px-3 py-2", state === "error" ? "border-fail/30 bg-fail/[0.05]" : "border-line bg-paper/70")}
+    >
       <div className="mb-1 flex items-center justify-between">
         <span className="text-2xs font-bold tracking-[0.06em] text-ink/50 uppercase">Field found</span>
         {data ? <Badge tone="mag">{data.model}</Badge> : null}
@@ -44,7 +48,8 @@ export function FieldFound({
         <dl className={cn("grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 text-xs", stale && "opacity-60")}>
           <dt className="text-ink/60">Inclination</dt>
           <dd className="num font-bold text-ink">
-            <span>{formatDeg(data.inclinationDeg, 5)}</span> <span className="font-normal text-ink/50">({formatMrad(data.inclinationDeg, 4)})</span>
+            <span>{formatDeg(data.inclinationDeg, 5)}</span>{" "}
+            <span className="font-normal text-ink/50">({formatMrad(data.inclinationDeg, 4)})</span>
           </dd>
           <dt className="text-ink/60">Declination</dt>
           <dd className="num">{formatDeg(data.declinationDeg, 4)}</dd>
@@ -57,4 +62,3 @@ export function FieldFound({
     </div>
   );
 }
-

@@ -30,7 +30,10 @@ export function HistogramPanel({
   const req = result.requirements.find((r) => r.metric === metric);
   const rows = useMemo(() => (h ? histogramRows(h, req?.max) : []), [h, req?.max]);
   const unit = stats?.unit ?? "deg";
-  const data = useMemo(() => rows.map((r) => ({ ...r, plotted: scale === "log" ? (r.count > 0 ? r.count : null) : r.count })), [rows, scale]);
+  const data = useMemo(
+    () => rows.map((r) => ({ ...r, plotted: scale === "log" ? (r.count > 0 ? r.count : null) : r.count })),
+    [rows, scale],
+  );
   // Exact, from the requirement's own count; the bins only show where those trials lie.
   const beyond = req ? Math.round((1 - req.predictedYield) * result.trials) : 0;
 
@@ -58,7 +61,13 @@ export function HistogramPanel({
       {h && stats ? (
         <>
           <figure data-chart="histogram" aria-label={`Histogram of ${metric}`} className="min-w-0">
-            <BarChart responsive style={{ width: "100%", height: 240 }} data={data} margin={{ top: 14, right: 12, bottom: 4, left: 4 }} barCategoryGap={0}>
+            <BarChart
+              responsive
+              style={{ width: "100%", height: 240 }}
+              data={data}
+              margin={{ top: 14, right: 12, bottom: 4, left: 4 }}
+              barCategoryGap={0}
+            >
               <CartesianGrid {...gridProps} vertical={false} />
               <XAxis
                 dataKey="x"
@@ -69,7 +78,13 @@ export function HistogramPanel({
                 axisLine={axisLine}
                 tickLine={false}
                 tickFormatter={(v: number) => `${formatNumber(v, 2)}${unit === "%" ? " %" : "°"}`}
-                label={{ value: h.abs ? `|value| (${unit === "%" ? "%" : "deg"})` : `value (${unit === "%" ? "%" : "deg"})`, position: "insideBottomRight", offset: -2, fontSize: 10.5, fill: "rgba(23,33,43,0.55)" }}
+                label={{
+                  value: h.abs ? `|value| (${unit === "%" ? "%" : "deg"})` : `value (${unit === "%" ? "%" : "deg"})`,
+                  position: "insideBottomRight",
+                  offset: -2,
+                  fontSize: 10.5,
+                  fill: "rgba(23,33,43,0.55)",
+                }}
                 height={30}
               />
               <YAxis
@@ -105,7 +120,13 @@ export function HistogramPanel({
                   stroke={FAIL}
                   strokeWidth={1.5}
                   strokeDasharray="5 3"
-                  label={{ value: `limit ${formatNumber(req.max)}${unit === "%" ? " %" : "°"}`, position: "insideTopRight", fontSize: 10.5, fill: FAIL, fontWeight: 700 }}
+                  label={{
+                    value: `limit ${formatNumber(req.max)}${unit === "%" ? " %" : "°"}`,
+                    position: "insideTopRight",
+                    fontSize: 10.5,
+                    fill: FAIL,
+                    fontWeight: 700,
+                  }}
                 />
               ) : null}
               {req && !h.abs ? <ReferenceLine x={-req.max} stroke={FAIL} strokeWidth={1.5} strokeDasharray="5 3" /> : null}
@@ -124,7 +145,12 @@ export function HistogramPanel({
             <Stat label="p95 |v|" value={stats.p95} unit={unit} />
             <Stat label="p99.73 |v|" value={stats.p9973} unit={unit} />
             <Stat label="Max |v|" value={stats.max} unit={unit} />
-            <Stat label="Past limit" text={req ? `${formatCount(beyond)} trials` : "no limit"} sub={req ? formatPct((100 * beyond) / result.trials, 2) : undefined} tone={req && beyond > 0 ? "fail" : undefined} />
+            <Stat
+              label="Past limit"
+              text={req ? `${formatCount(beyond)} trials` : "no limit"}
+              sub={req ? formatPct((100 * beyond) / result.trials, 2) : undefined}
+              tone={req && beyond > 0 ? "fail" : undefined}
+            />
           </dl>
         </>
       ) : (
@@ -134,7 +160,21 @@ export function HistogramPanel({
   );
 }
 
-function Stat({ label, value, unit, text, sub, tone }: { label: string; value?: number; unit?: "deg" | "%"; text?: string; sub?: string; tone?: "fail" }) {
+function Stat({
+  label,
+  value,
+  unit,
+  text,
+  sub,
+  tone,
+}: {
+  label: string;
+  value?: number;
+  unit?: "deg" | "%";
+  text?: string;
+  sub?: string;
+  tone?: "fail";
+}) {
   const main = text ?? (unit === "%" ? formatPct(value ?? NaN) : formatDeg(value ?? NaN));
   const below = sub ?? (unit === "deg" && value !== undefined ? formatMrad(value) : undefined);
   return (

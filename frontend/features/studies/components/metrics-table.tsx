@@ -28,7 +28,9 @@ export function MetricsTable({ result, elementOrder }: { result: ResultFile; ele
               <Th align="right">Unit</Th>
               <Th align="right">Mean</Th>
               <Th align="right">σ</Th>
-              <Th align="right" title="Shortest interval holding 95 % of the signed values (JCGM 101 5.3)">95 % interval</Th>
+              <Th align="right" title="Shortest interval holding 95 % of the signed values (JCGM 101 5.3)">
+                95 % interval
+              </Th>
               <Th align="right">p50</Th>
               <Th align="right">p95</Th>
               <Th align="right">p99</Th>
@@ -42,7 +44,11 @@ export function MetricsTable({ result, elementOrder }: { result: ResultFile; ele
             <tbody key={g.label}>
               {all ? (
                 <tr className="border-b border-line/70 bg-paper/70">
-                  <th colSpan={12} scope="colgroup" className="px-3 py-1 text-left text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
+                  <th
+                    colSpan={12}
+                    scope="colgroup"
+                    className="px-3 py-1 text-left text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase"
+                  >
                     {g.label}
                   </th>
                 </tr>
@@ -61,8 +67,12 @@ export function MetricsTable({ result, elementOrder }: { result: ResultFile; ele
                     <Td numeric className="h-8 text-xs text-ink/55">
                       {m.unit === "%" ? "%" : "deg"}
                     </Td>
-                    <Td numeric className="h-8 text-xs">{formatNumber(m.mean)}</Td>
-                    <Td numeric className="h-8 text-xs">{formatNumber(m.std)}</Td>
+                    <Td numeric className="h-8 text-xs">
+                      {formatNumber(m.mean)}
+                    </Td>
+                    <Td numeric className="h-8 text-xs">
+                      {formatNumber(m.std)}
+                    </Td>
                     <Td numeric className="h-8 text-xs text-ink/60">
                       {(() => {
                         // Written by engines from 1.0.0 on; older result files lack them.
@@ -71,13 +81,27 @@ export function MetricsTable({ result, elementOrder }: { result: ResultFile; ele
                         return iv ? `${formatNumber(iv[0])} … ${formatNumber(iv[1])}` : "—";
                       })()}
                     </Td>
-                    <Td numeric className="h-8 text-xs">{formatNumber(m.p50)}</Td>
-                    <Td numeric className={cn("h-8 text-xs", over(m.p95) && "text-fail")}>{formatNumber(m.p95)}</Td>
-                    <Td numeric className={cn("h-8 text-xs", over(m.p99) && "text-fail")}>{formatNumber(m.p99)}</Td>
-                    <Td numeric className={cn("h-8 text-xs font-semibold", over(m.p9973) && "text-fail")}>{formatNumber(m.p9973)}</Td>
-                    <Td numeric className="h-8 text-xs">{formatNumber(m.max)}</Td>
-                    <Td numeric className="h-8 text-xs text-ink/55">{m.unit === "deg" ? formatNumber(m.p9973 * MRAD_PER_DEG) : ""}</Td>
-                    <Td numeric className="h-8 text-xs text-ink/70">{limit !== undefined ? formatNumber(limit) : ""}</Td>
+                    <Td numeric className="h-8 text-xs">
+                      {formatNumber(m.p50)}
+                    </Td>
+                    <Td numeric className={cn("h-8 text-xs", over(m.p95) && "text-fail")}>
+                      {formatNumber(m.p95)}
+                    </Td>
+                    <Td numeric className={cn("h-8 text-xs", over(m.p99) && "text-fail")}>
+                      {formatNumber(m.p99)}
+                    </Td>
+                    <Td numeric className={cn("h-8 text-xs font-semibold", over(m.p9973) && "text-fail")}>
+                      {formatNumber(m.p9973)}
+                    </Td>
+                    <Td numeric className="h-8 text-xs">
+                      {formatNumber(m.max)}
+                    </Td>
+                    <Td numeric className="h-8 text-xs text-ink/55">
+                      {m.unit === "deg" ? formatNumber(m.p9973 * MRAD_PER_DEG) : ""}
+                    </Td>
+                    <Td numeric className="h-8 text-xs text-ink/70">
+                      {limit !== undefined ? formatNumber(limit) : ""}
+                    </Td>
                   </Tr>
                 );
               })}

@@ -102,9 +102,7 @@ function RequirementCard({
       </div>
       <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 px-4 pb-3 pl-5 text-xs">
         <dt className="text-ink/55">95 % interval</dt>
-        <dd className="num text-ink">
-          {formatYieldRange(r.ci[0], r.ci[1])}
-        </dd>
+        <dd className="num text-ink">{formatYieldRange(r.ci[0], r.ci[1])}</dd>
         <dt className="text-ink/55">Out of limit</dt>
         <dd className={cn("num font-semibold", r.passes ? "text-ink" : "text-fail")}>{formatPpm(r.ppmOut)}</dd>
         <dt className="text-ink/55">Allowed out</dt>

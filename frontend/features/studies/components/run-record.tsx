@@ -42,8 +42,8 @@ export function RunRecord({ study }: { study: StudyDetail }) {
       {study.site ? (
         <Row label="Site">
           <span className="tabular-nums">
-            {formatNumber(study.site.site.latitudeDeg, 5)}°, {formatNumber(study.site.site.longitudeDeg, 5)}°, {formatNumber(study.site.site.altitudeKm, 3)} km,{" "}
-            {study.site.site.date}
+            {formatNumber(study.site.site.latitudeDeg, 5)}°, {formatNumber(study.site.site.longitudeDeg, 5)}°,{" "}
+            {formatNumber(study.site.site.altitudeKm, 3)} km, {study.site.site.date}
           </span>
           <span className="block text-ink/55 tabular-nums">
             {study.site.model}: declination {formatDeg(study.site.declinationDeg, 4)}, field {formatCount(study.site.totalIntensityNt)} nT
@@ -52,8 +52,8 @@ export function RunRecord({ study }: { study: StudyDetail }) {
       ) : null}
       <Row label="Heading sweep">
         <span className="tabular-nums">
-          every {formatNumber(s.headingStepDeg ?? 10)}° at {tilts.map((t) => tiltLabel(t.pitchDeg, t.rollDeg).toLowerCase()).join(", ")} ({formatCount(attitudeCount(s))}{" "}
-          attitudes)
+          every {formatNumber(s.headingStepDeg ?? 10)}° at {tilts.map((t) => tiltLabel(t.pitchDeg, t.rollDeg).toLowerCase()).join(", ")} (
+          {formatCount(attitudeCount(s))} attitudes)
         </span>
       </Row>
       <Row label="Calibration">
@@ -80,7 +80,8 @@ export function RunRecord({ study }: { study: StudyDetail }) {
             <span className="font-mono">{r.engine}</span>
           </Row>
           <Row label="Method">
-            Yield interval: Wilson score, 95 %. Percentiles: {r.percentileStore.method} (≤ {formatNumber(r.percentileStore.maxRelativeBucketWidth * 100, 2)} % bucket width).
+            Yield interval: Wilson score, 95 %. Percentiles: {r.percentileStore.method} (≤{" "}
+            {formatNumber(r.percentileStore.maxRelativeBucketWidth * 100, 2)} % bucket width).
           </Row>
         </>
       ) : null}

@@ -7,14 +7,34 @@ import type { SettingsSectionProps } from "./settings-section-props";
 import { formatCount } from "@shared/format";
 
 /** The heading step, the compass's sensors (when the stack has several) and the table of tilts. */
-export function SettingsAttitudePanel({ v, set, errors, sensors, attitudes }: SettingsSectionProps & { sensors: { accel: string[]; mag: string[] }; attitudes: number | null }) {
+export function SettingsAttitudePanel({
+  v,
+  set,
+  errors,
+  sensors,
+  attitudes,
+}: SettingsSectionProps & { sensors: { accel: string[]; mag: string[] }; attitudes: number | null }) {
   return (
     <Panel title="Attitude sweep" meta="headings at each tilt, for the heading error" accent="var(--color-accel)">
       <div className="grid gap-4 md:grid-cols-[180px_minmax(0,440px)]">
         <div className="flex flex-col gap-3">
-          <Field label="Heading step" aside="deg" error={errors.headingStepDeg} hint={attitudes ? `${formatCount(attitudes)} attitudes per trial` : undefined}>
+          <Field
+            label="Heading step"
+            aside="deg"
+            error={errors.headingStepDeg}
+            hint={attitudes ? `${formatCount(attitudes)} attitudes per trial` : undefined}
+          >
             {({ id, describedBy, invalid }) => (
-              <Input id={id} compact inputMode="decimal" className="text-right tabular-nums" aria-describedby={describedBy} invalid={invalid} value={v.headingStepDeg} onChange={(e) => set("headingStepDeg", e.target.value)} />
+              <Input
+                id={id}
+                compact
+                inputMode="decimal"
+                className="text-right tabular-nums"
+                aria-describedby={describedBy}
+                invalid={invalid}
+                value={v.headingStepDeg}
+                onChange={(e) => set("headingStepDeg", e.target.value)}
+              />
             )}
           </Field>
           {sensors.accel.length > 1 || sensors.mag.length > 1 ? (
@@ -50,10 +70,24 @@ export function SettingsAttitudePanel({ v, set, errors, sensors, attitudes }: Se
           <div className="mb-1.5 flex items-center justify-between gap-2">
             <span className="text-xs font-semibold text-ink/80">Tilts (pitch, roll)</span>
             <div className="flex gap-1.5">
-              <Button size="sm" variant="ghost" onClick={() => set("tilts", DEFAULT_TILTS.map((t) => ({ pitchDeg: String(t.pitchDeg), rollDeg: String(t.rollDeg) })))}>
+              <Button
+                size="sm"
+                variant="ghost"
+                onClick={() =>
+                  set(
+                    "tilts",
+                    DEFAULT_TILTS.map((t) => ({ pitchDeg: String(t.pitchDeg), rollDeg: String(t.rollDeg) })),
+                  )
+                }
+              >
                 Reset to the five defaults
               </Button>
-              <Button size="sm" icon={<PlusIcon size={14} />} onClick={() => set("tilts", [...v.tilts, { pitchDeg: "0", rollDeg: "0" }])} disabled={v.tilts.length >= 200}>
+              <Button
+                size="sm"
+                icon={<PlusIcon size={14} />}
+                onClick={() => set("tilts", [...v.tilts, { pitchDeg: "0", rollDeg: "0" }])}
+                disabled={v.tilts.length >= 200}
+              >
                 Add tilt
               </Button>
             </div>
@@ -82,7 +116,12 @@ export function SettingsAttitudePanel({ v, set, errors, sensors, attitudes }: Se
                           invalid={!!errors[`tilts.${i}.${k}`]}
                           title={errors[`tilts.${i}.${k}`]}
                           value={t[k]}
-                          onChange={(e) => set("tilts", v.tilts.map((x, j) => (j === i ? { ...x, [k]: e.target.value } : x)))}
+                          onChange={(e) =>
+                            set(
+                              "tilts",
+                              v.tilts.map((x, j) => (j === i ? { ...x, [k]: e.target.value } : x)),
+                            )
+                          }
                         />
                       </td>
                     ))}
@@ -91,7 +130,12 @@ export function SettingsAttitudePanel({ v, set, errors, sensors, attitudes }: Se
                         type="button"
                         aria-label={`Remove tilt ${i + 1}`}
                         disabled={v.tilts.length <= 1}
-                        onClick={() => set("tilts", v.tilts.filter((_, j) => j !== i))}
+                        onClick={() =>
+                          set(
+                            "tilts",
+                            v.tilts.filter((_, j) => j !== i),
+                          )
+                        }
                         className="inline-flex size-6 items-center justify-center rounded text-ink/45 hover:bg-fail/[0.08] hover:text-fail disabled:opacity-30"
                       >
                         <TrashIcon size={13} />
@@ -104,7 +148,14 @@ export function SettingsAttitudePanel({ v, set, errors, sensors, attitudes }: Se
           </div>
           {errors.tilts || Object.keys(errors).find((k) => k.startsWith("tilts.")) ? (
             <p className="mt-1 text-xs font-medium text-fail" role="alert">
-              {errors.tilts ?? `Tilt ${Number(Object.keys(errors).find((k) => k.startsWith("tilts."))!.split(".")[1]) + 1}: ${errors[Object.keys(errors).find((k) => k.startsWith("tilts."))!]}`}
+              {errors.tilts ??
+                `Tilt ${
+                  Number(
+                    Object.keys(errors)
+                      .find((k) => k.startsWith("tilts."))!
+                      .split(".")[1],
+                  ) + 1
+                }: ${errors[Object.keys(errors).find((k) => k.startsWith("tilts."))!]}`}
             </p>
           ) : null}
         </div>

@@ -28,22 +28,55 @@ export function SettingsCalibrationPanel({ v, set, errors }: SettingsSectionProp
           <div className="grid gap-4 sm:grid-cols-3">
             <Field label="Residual distribution">
               {({ id }) => (
-                <Select id={id} compact value={v.residualDist} onChange={(e) => set("residualDist", e.target.value as StudyFormValues["residualDist"])}>
+                <Select
+                  id={id}
+                  compact
+                  value={v.residualDist}
+                  onChange={(e) => set("residualDist", e.target.value as StudyFormValues["residualDist"])}
+                >
                   <option value="normal">Normal</option>
                   <option value="uniform">Uniform</option>
                   <option value="triangular">Triangular</option>
                 </Select>
               )}
             </Field>
-            <Field label="Residual ±" aside="deg, per axis" error={errors.residualTol} hint={Number.isFinite(residualMrad) ? `± ${formatNumber(residualMrad)} mrad` : undefined}>
+            <Field
+              label="Residual ±"
+              aside="deg, per axis"
+              error={errors.residualTol}
+              hint={Number.isFinite(residualMrad) ? `± ${formatNumber(residualMrad)} mrad` : undefined}
+            >
               {({ id, describedBy, invalid }) => (
-                <Input id={id} compact inputMode="decimal" className="text-right tabular-nums" aria-describedby={describedBy} invalid={invalid} value={v.residualTol} onChange={(e) => set("residualTol", e.target.value)} />
+                <Input
+                  id={id}
+                  compact
+                  inputMode="decimal"
+                  className="text-right tabular-nums"
+                  aria-describedby={describedBy}
+                  invalid={invalid}
+                  value={v.residualTol}
+                  onChange={(e) => set("residualTol", e.target.value)}
+                />
               )}
             </Field>
             {v.residualDist === "normal" ? (
-              <Field label="± is" aside="σ" error={errors.residualSigmas} hint={`σ = ${formatNumber(Number(v.residualTol) / Number(v.residualSigmas || 3))}°`}>
+              <Field
+                label="± is"
+                aside="σ"
+                error={errors.residualSigmas}
+                hint={`σ = ${formatNumber(Number(v.residualTol) / Number(v.residualSigmas || 3))}°`}
+              >
                 {({ id, describedBy, invalid }) => (
-                  <Input id={id} compact inputMode="decimal" className="text-right tabular-nums" aria-describedby={describedBy} invalid={invalid} value={v.residualSigmas} onChange={(e) => set("residualSigmas", e.target.value)} />
+                  <Input
+                    id={id}
+                    compact
+                    inputMode="decimal"
+                    className="text-right tabular-nums"
+                    aria-describedby={describedBy}
+                    invalid={invalid}
+                    value={v.residualSigmas}
+                    onChange={(e) => set("residualSigmas", e.target.value)}
+                  />
                 )}
               </Field>
             ) : null}

@@ -67,7 +67,8 @@ export function SettingsRevisionPanel({
       </div>
       {currentRevision && currentRevision.status !== "approved" ? (
         <p className="mt-2 text-xs text-[#8a5a00]">
-          This revision is a {REVISION_STATUS[currentRevision.status]}: a study on it is fine for exploring, but reports need an approved revision.
+          This revision is a {REVISION_STATUS[currentRevision.status]}: a study on it is fine for exploring, but reports need an approved
+          revision.
         </p>
       ) : null}
       <div className="mt-3">

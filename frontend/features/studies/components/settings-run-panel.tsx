@@ -40,7 +40,13 @@ export function SettingsRunPanel({
         <dd className="num">{attitudes && trials > 0 ? formatCount(attitudes * trials) : "—"}</dd>
         <dt className="text-ink/55">Field dip</dt>
         <dd className="num">
-          {v.fieldFrom === "site" ? (fieldInclination !== null ? formatDeg(fieldInclination, 5) : "from the site") : Number.isFinite(Number(v.inclinationDeg)) ? formatDeg(Number(v.inclinationDeg), 5) : "—"}
+          {v.fieldFrom === "site"
+            ? fieldInclination !== null
+              ? formatDeg(fieldInclination, 5)
+              : "from the site"
+            : Number.isFinite(Number(v.inclinationDeg))
+              ? formatDeg(Number(v.inclinationDeg), 5)
+              : "—"}
         </dd>
         <dt className="text-ink/55">Requirements</dt>
         <dd className="num">{requirementCount}</dd>
@@ -48,7 +54,10 @@ export function SettingsRunPanel({
         <dd className="num">{estimate !== null ? `about ${formatDuration(estimate)}` : "—"}</dd>
       </dl>
       <p className="mt-2 text-2xs text-ink/50">
-        {estimate !== null ? "At the median pace of this project's finished studies; a finer sweep runs slower." : "The pace shows once the run starts."} Studies run one at a time; you can leave this page.
+        {estimate !== null
+          ? "At the median pace of this project's finished studies; a finer sweep runs slower."
+          : "The pace shows once the run starts."}{" "}
+        Studies run one at a time; you can leave this page.
       </p>
       {errors._form && serverError ? (
         <Alert className="mt-3">{errors._form}</Alert>

@@ -29,7 +29,8 @@ export function StackUpPanel({ result, elementOrder }: { result: ResultFile; ele
   }, [result.stackUp, elementOrder]);
   const [group, setGroup] = useState<string>(groups[0] ?? "");
   const rows = result.stackUp.filter((r) => parseMetric(r.metric).element === group);
-  if (!result.stackUp.length) return <p className="py-6 text-center text-[13px] text-ink/55">This stack has no signed metrics to stack up.</p>;
+  if (!result.stackUp.length)
+    return <p className="py-6 text-center text-[13px] text-ink/55">This stack has no signed metrics to stack up.</p>;
   const unit = result.metrics[rows[0]?.metric]?.unit ?? "%";
   const data = rows.map((r) => ({ ...r, term: parseMetric(r.metric).axis ?? r.metric }));
   const top = niceCeil(Math.max(0, ...rows.flatMap((r) => [r.worstCase, r.rss, r.mc3Sigma, r.mcP9973])) * 1.05);
@@ -43,11 +44,31 @@ export function StackUpPanel({ result, elementOrder }: { result: ResultFile; ele
         <SegmentedControl label="Stack-up sensor" value={group} onChange={setGroup} options={groups.map((g) => ({ value: g, label: g }))} />
       </div>
       <figure data-chart="stack-up" aria-label={`Stack-up of ${group}`} className="min-w-0">
-        <BarChart responsive style={{ width: "100%", height: 200 }} data={data} margin={{ top: 8, right: 8, bottom: 0, left: 0 }} barGap={1} barCategoryGap="18%">
+        <BarChart
+          responsive
+          style={{ width: "100%", height: 200 }}
+          data={data}
+          margin={{ top: 8, right: 8, bottom: 0, left: 0 }}
+          barGap={1}
+          barCategoryGap="18%"
+        >
           <CartesianGrid {...gridProps} vertical={false} />
           <XAxis dataKey="term" tick={axisTick} axisLine={axisLine} tickLine={false} height={20} />
-          <YAxis domain={[0, top]} ticks={niceTicks(0, top, 4)} tick={axisTick} axisLine={axisLine} tickLine={false} width={46} tickFormatter={(v: number) => `${formatNumber(v, 2)}${unit === "%" ? "%" : "°"}`} />
-          <Tooltip {...tooltipStyle} cursor={{ fill: INK, fillOpacity: 0.05 }} formatter={(v, name) => [formatValue(Number(v), unit), name]} labelFormatter={(t) => `${group}.crossAxisPct.${t}`} />
+          <YAxis
+            domain={[0, top]}
+            ticks={niceTicks(0, top, 4)}
+            tick={axisTick}
+            axisLine={axisLine}
+            tickLine={false}
+            width={46}
+            tickFormatter={(v: number) => `${formatNumber(v, 2)}${unit === "%" ? "%" : "°"}`}
+          />
+          <Tooltip
+            {...tooltipStyle}
+            cursor={{ fill: INK, fillOpacity: 0.05 }}
+            formatter={(v, name) => [formatValue(Number(v), unit), name]}
+            labelFormatter={(t) => `${group}.crossAxisPct.${t}`}
+          />
           <Legend iconType="square" iconSize={9} wrapperStyle={{ fontSize: 11, paddingTop: 2 }} />
           {SERIES.map((s) => (
             <Bar key={s.key} dataKey={s.key} name={s.name} fill={s.colour} fillOpacity={0.85} isAnimationActive={false} maxBarSize={16} />
@@ -73,20 +94,32 @@ export function StackUpPanel({ result, elementOrder }: { result: ResultFile; ele
                 <Td className="h-8 text-xs font-semibold" title={r.metric}>
                   {parseMetric(r.metric).axis}
                 </Td>
-                <Td numeric className="h-8 text-xs text-ink/60">{Math.abs(r.nominal) < 5e-5 ? "0" : formatNumber(r.nominal)}</Td>
-                <Td numeric className="h-8 text-xs">{formatNumber(r.worstCase)}</Td>
-                <Td numeric className="h-8 text-xs">{formatNumber(r.rss)}</Td>
-                <Td numeric className="h-8 text-xs">{formatNumber(r.linear3Sigma)}</Td>
-                <Td numeric className="h-8 text-xs">{formatNumber(r.mc3Sigma)}</Td>
-                <Td numeric className="h-8 text-xs font-semibold">{formatNumber(r.mcP9973)}</Td>
+                <Td numeric className="h-8 text-xs text-ink/60">
+                  {Math.abs(r.nominal) < 5e-5 ? "0" : formatNumber(r.nominal)}
+                </Td>
+                <Td numeric className="h-8 text-xs">
+                  {formatNumber(r.worstCase)}
+                </Td>
+                <Td numeric className="h-8 text-xs">
+                  {formatNumber(r.rss)}
+                </Td>
+                <Td numeric className="h-8 text-xs">
+                  {formatNumber(r.linear3Sigma)}
+                </Td>
+                <Td numeric className="h-8 text-xs">
+                  {formatNumber(r.mc3Sigma)}
+                </Td>
+                <Td numeric className="h-8 text-xs font-semibold">
+                  {formatNumber(r.mcP9973)}
+                </Td>
               </Tr>
             ))}
           </tbody>
         </Table>
       </div>
       <p className="text-2xs text-ink/50">
-        Worst case adds every slope × half-width; RSS takes their root-sum-square; “Lin. 3σ” uses the linearised σ and “MC” the sample. All in{" "}
-        {unit === "%" ? "%" : "deg"}, |nominal| included.
+        Worst case adds every slope × half-width; RSS takes their root-sum-square; “Lin. 3σ” uses the linearised σ and “MC” the sample. All
+        in {unit === "%" ? "%" : "deg"}, |nominal| included.
       </p>
     </div>
   );

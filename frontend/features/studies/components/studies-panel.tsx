@@ -13,8 +13,7 @@ import { formatCount } from "@shared/format";
 
 const SHOWN = 6;
 
-const linkButton =
-  "inline-flex h-7 items-center gap-1.5 rounded-md px-2.5 text-xs font-semibold whitespace-nowrap transition-colors";
+const linkButton = "inline-flex h-7 items-center gap-1.5 rounded-md px-2.5 text-xs font-semibold whitespace-nowrap transition-colors";
 
 /** The project's studies on its page: newest first, with progress while one runs. */
 export function StudiesPanel({ projectId, canRun, className }: { projectId: string; canRun: boolean; className?: string }) {
@@ -26,7 +25,9 @@ export function StudiesPanel({ projectId, canRun, className }: { projectId: stri
   const latest = list[0];
   const newHref = `/projects/${projectId}/studies/new${latest ? `?revision=${latest.revisionId}&from=${latest.id}` : ""}`;
   const compareHref =
-    finished.length >= 2 ? `/projects/${projectId}/compare?a=${finished[1].id}&b=${finished[0].id}` : `/projects/${projectId}/compare${finished[0] ? `?a=${finished[0].id}` : ""}`;
+    finished.length >= 2
+      ? `/projects/${projectId}/compare?a=${finished[1].id}&b=${finished[0].id}`
+      : `/projects/${projectId}/compare${finished[0] ? `?a=${finished[0].id}` : ""}`;
 
   return (
     <Panel
@@ -63,41 +64,45 @@ export function StudiesPanel({ projectId, canRun, className }: { projectId: stri
       ) : (
         <>
           <div className="overflow-x-auto">
-          <table className="w-full border-collapse text-[13px]" aria-label="Studies">
-            <thead className="border-b border-line bg-paper/70">
-              <tr>
-                <th scope="col" className="h-7 px-3 text-left text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
-                  Study
-                </th>
-                <th scope="col" className="h-7 px-3 text-right text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
-                  Rev
-                </th>
-                <th scope="col" className="h-7 px-3 text-right text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
-                  Trials
-                </th>
-                <th scope="col" className="h-7 px-3 text-right text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
-                  Seed
-                </th>
-                <th scope="col" className="h-7 px-3 text-left text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
-                  Status
-                </th>
-                <th scope="col" className="h-7 px-3 text-left text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
-                  Result
-                </th>
-                <th scope="col" className="h-7 px-3 text-right text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
-                  When
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {shown.map((s) => (
-                <StudyRow key={s.id} study={s} projectId={projectId} />
-              ))}
-            </tbody>
-          </table>
+            <table className="w-full border-collapse text-[13px]" aria-label="Studies">
+              <thead className="border-b border-line bg-paper/70">
+                <tr>
+                  <th scope="col" className="h-7 px-3 text-left text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
+                    Study
+                  </th>
+                  <th scope="col" className="h-7 px-3 text-right text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
+                    Rev
+                  </th>
+                  <th scope="col" className="h-7 px-3 text-right text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
+                    Trials
+                  </th>
+                  <th scope="col" className="h-7 px-3 text-right text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
+                    Seed
+                  </th>
+                  <th scope="col" className="h-7 px-3 text-left text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
+                    Status
+                  </th>
+                  <th scope="col" className="h-7 px-3 text-left text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
+                    Result
+                  </th>
+                  <th scope="col" className="h-7 px-3 text-right text-2xs font-bold tracking-[0.06em] text-ink/55 uppercase">
+                    When
+                  </th>
+                </tr>
+              </thead>
+              <tbody>
+                {shown.map((s) => (
+                  <StudyRow key={s.id} study={s} projectId={projectId} />
+                ))}
+              </tbody>
+            </table>
           </div>
           {list.length > SHOWN ? (
-            <button type="button" onClick={() => setAll((v) => !v)} className="w-full border-t border-line px-4 py-2 text-left text-xs font-semibold text-ink/60 hover:text-ink">
+            <button
+              type="button"
+              onClick={() => setAll((v) => !v)}
+              className="w-full border-t border-line px-4 py-2 text-left text-xs font-semibold text-ink/60 hover:text-ink"
+            >
               {all ? "Show the newest only" : `Show all ${list.length} studies`}
             </button>
           ) : null}
@@ -114,7 +119,10 @@ function StudyRow({ study: s, projectId }: { study: StudySummary; projectId: str
   return (
     <tr className="border-b border-line/70 last:border-b-0 hover:bg-paper/60">
       <td className="h-10 px-3 py-1.5">
-        <Link to={`/projects/${projectId}/studies/${s.id}`} className="font-bold whitespace-nowrap text-ink hover:text-gyro hover:underline">
+        <Link
+          to={`/projects/${projectId}/studies/${s.id}`}
+          className="font-bold whitespace-nowrap text-ink hover:text-gyro hover:underline"
+        >
           Study {s.number}
         </Link>
         {s.label ? (
@@ -128,7 +136,10 @@ function StudyRow({ study: s, projectId }: { study: StudySummary; projectId: str
       <td className="num px-3 text-xs text-ink/55">{s.seed}</td>
       <td className="px-3">
         {active ? (
-          <div className="flex items-center gap-2" aria-label={`Study ${s.number}: ${s.status === "queued" ? "queued" : `${Math.floor(pct)} % done`}`}>
+          <div
+            className="flex items-center gap-2"
+            aria-label={`Study ${s.number}: ${s.status === "queued" ? "queued" : `${Math.floor(pct)} % done`}`}
+          >
             <StudyStatusBadge status={s.status} />
             <span className="h-1.5 w-24 overflow-hidden rounded-full bg-line/70">
               <span className="block h-full rounded-full bg-gyro transition-[width] duration-700" style={{ width: `${pct}%` }} />
@@ -139,7 +150,17 @@ function StudyRow({ study: s, projectId }: { study: StudySummary; projectId: str
           <StudyStatusBadge status={s.status} />
         )}
       </td>
-      <td className="px-3">{s.status === "finished" ? (s.passes === null ? <span className="text-xs text-ink/45">no requirements</span> : <VerdictBadge passes={s.passes} />) : <span className="text-xs text-ink/35">—</span>}</td>
+      <td className="px-3">
+        {s.status === "finished" ? (
+          s.passes === null ? (
+            <span className="text-xs text-ink/45">no requirements</span>
+          ) : (
+            <VerdictBadge passes={s.passes} />
+          )
+        ) : (
+          <span className="text-xs text-ink/35">—</span>
+        )}
+      </td>
       <td className="num px-3 text-xs whitespace-nowrap text-ink/60">
         <time dateTime={when} title={formatDateTime(when)}>
           {formatRelative(when)}

@@ -10,8 +10,8 @@ export function StudyCautions({ className }: { className?: string }) {
       <AlertIcon className="mt-0.5 shrink-0 text-[#8a5a00]" />
       <p>
         <span className="font-bold text-ink">These are predictions</span> from a model of the tolerances entered; they do not replace
-        qualification of built parts. Heading accuracy that matters for safety must be confirmed by test under the applicable
-        standards, and a magnetic compass must not be the only means of navigation where a wrong heading can hurt someone.
+        qualification of built parts. Heading accuracy that matters for safety must be confirmed by test under the applicable standards, and
+        a magnetic compass must not be the only means of navigation where a wrong heading can hurt someone.
       </p>
     </aside>
   );

@@ -32,7 +32,10 @@ export function StudyProgress({
   const samples = useRef<ProgressSample[]>([]);
   const last = samples.current[samples.current.length - 1];
   if (study.status === "running" && (!last || last.done !== study.progress.done)) {
-    samples.current = [...samples.current.filter((p) => p.at >= Date.now() - 2 * PACE_WINDOW_MS && p.done <= study.progress.done), { at: Date.now(), done: study.progress.done }];
+    samples.current = [
+      ...samples.current.filter((p) => p.at >= Date.now() - 2 * PACE_WINDOW_MS && p.done <= study.progress.done),
+      { at: Date.now(), done: study.progress.done },
+    ];
   }
   const v = progressView(study, now, recentPace(samples.current, Date.now()));
   const finishing = study.status === "running" && v.total > 0 && v.done >= v.total;
@@ -67,7 +70,17 @@ export function StudyProgress({
           <ProgressFact label="Pace" value={queued ? "—" : formatRate(v.rate)} />
           <ProgressFact
             label="Time left"
-            value={queued ? "—" : finishing ? "writing the result…" : v.secondsLeft === null ? "estimating…" : v.secondsLeft < 1 ? "under a second" : `about ${formatDuration(v.secondsLeft)}`}
+            value={
+              queued
+                ? "—"
+                : finishing
+                  ? "writing the result…"
+                  : v.secondsLeft === null
+                    ? "estimating…"
+                    : v.secondsLeft < 1
+                      ? "under a second"
+                      : `about ${formatDuration(v.secondsLeft)}`
+            }
           />
           <ProgressFact label="Elapsed" value={formatDuration(v.elapsed)} />
         </dl>

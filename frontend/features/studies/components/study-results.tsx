@@ -31,18 +31,34 @@ export function StudyResults({ study, result }: { study: StudyDetail; result: Re
   const kinds = useMemo(() => new Map(elements.map((e) => [e.id, e.kind] as const)), [elements]);
   const kindOf = (id: string) => kinds.get(id);
 
-  const firstReq = result.requirements[0]?.metric ?? (result.metrics["heading.maxAbsDeg"] ? "heading.maxAbsDeg" : Object.keys(result.metrics)[0]);
+  const firstReq =
+    result.requirements[0]?.metric ?? (result.metrics["heading.maxAbsDeg"] ? "heading.maxAbsDeg" : Object.keys(result.metrics)[0]);
   const [focus, setFocus] = useState<string>(firstReq);
   // Each panel follows the focus when the metric is one it can show, and keeps its own otherwise.
   const [histMetric, setHistMetric] = useFollow(focus, (m) => m in result.histograms, firstReq);
-  const [contribMetric, setContribMetric] = useFollow(focus, (m) => result.contributors.some((c) => c.metric === m), result.contributors[0]?.metric ?? "");
-  const [convMetric, setConvMetric] = useFollow(focus, (m) => result.convergence.some((c) => c.metric === m), result.convergence[0]?.metric ?? "");
+  const [contribMetric, setContribMetric] = useFollow(
+    focus,
+    (m) => result.contributors.some((c) => c.metric === m),
+    result.contributors[0]?.metric ?? "",
+  );
+  const [convMetric, setConvMetric] = useFollow(
+    focus,
+    (m) => result.convergence.some((c) => c.metric === m),
+    result.convergence[0]?.metric ?? "",
+  );
   const [worstMetric, setWorstMetric] = useFollow(focus, (m) => (result.worstTrials[m]?.length ?? 0) > 0, firstReq);
 
   const [viewer, setViewer] = useState<{ trial: number | null; metric: string } | null>(null);
   const picks: WorstTrialPick[] = useMemo(() => {
-    const order = [...result.requirements.map((r) => r.metric), ...Object.keys(result.worstTrials).filter((k) => !result.requirements.some((r) => r.metric === k))];
-    return order.flatMap((m) => (result.worstTrials[m] ?? []).slice(0, 3).map((w) => ({ metric: m, trialIndex: w.trial, value: w.value, unit: result.metrics[m]?.unit === "%" ? "%" : "°" })));
+    const order = [
+      ...result.requirements.map((r) => r.metric),
+      ...Object.keys(result.worstTrials).filter((k) => !result.requirements.some((r) => r.metric === k)),
+    ];
+    return order.flatMap((m) =>
+      (result.worstTrials[m] ?? [])
+        .slice(0, 3)
+        .map((w) => ({ metric: m, trialIndex: w.trial, value: w.value, unit: result.metrics[m]?.unit === "%" ? "%" : "°" })),
+    );
   }, [result]);
   const headingReq = result.requirements.find((r) => r.metric === "heading.maxAbsDeg");
   const viewerCaption = (() => {
@@ -54,13 +70,21 @@ export function StudyResults({ study, result }: { study: StudyDetail; result: Re
   return (
     <div className="flex flex-col gap-4">
       <StudyCautions />
-      <Section id="requirements" title="Requirements" meta={`${result.requirements.filter((r) => r.passes).length} of ${result.requirements.length} met`} bare>
+      <Section
+        id="requirements"
+        title="Requirements"
+        meta={`${result.requirements.filter((r) => r.passes).length} of ${result.requirements.length} met`}
+        bare
+      >
         <RequirementCards result={result} selected={focus} onSelect={setFocus} />
       </Section>
 
       {result.envelope ? (
         <Section id="envelope" title="Heading-error envelope" meta="error against heading, for each tilt" accent="var(--color-mag)">
-          <EnvelopeCharts layers={[{ key: "a", name: `Study ${study.number}`, colour: SERIES_A, envelope: result.envelope }]} limitDeg={headingReq?.max} />
+          <EnvelopeCharts
+            layers={[{ key: "a", name: `Study ${study.number}`, colour: SERIES_A, envelope: result.envelope }]}
+            limitDeg={headingReq?.max}
+          />
         </Section>
       ) : null}
 

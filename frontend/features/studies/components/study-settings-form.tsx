@@ -77,7 +77,11 @@ export function StudySettingsForm({
   })();
   const trials = Number(v.trials.replace(/[\s,_]/g, ""));
   const estimate = useMemo(
-    () => estimateSeconds(trials, history.filter((s) => s.status === "finished").map((s) => s.progress.trialsPerSecond)),
+    () =>
+      estimateSeconds(
+        trials,
+        history.filter((s) => s.status === "finished").map((s) => s.progress.trialsPerSecond),
+      ),
     [trials, history],
   );
 
@@ -109,8 +113,8 @@ export function StudySettingsForm({
         {startedFrom ? (
           <p className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1 rounded-md border border-gyro/25 bg-gyro/[0.05] px-3 py-2 text-xs text-ink/75">
             <span>
-              Settings copied from <span className="font-semibold text-ink">{startedFrom}</span>, seed included: with the same seed, differences
-              between the two come from the changes, not from sampling.
+              Settings copied from <span className="font-semibold text-ink">{startedFrom}</span>, seed included: with the same seed,
+              differences between the two come from the changes, not from sampling.
             </span>
             {defaultsHref ? (
               <Link to={defaultsHref} className="font-semibold whitespace-nowrap text-gyro hover:underline">

@@ -69,7 +69,9 @@ export function WorstTrials({
         </Table>
         {list.length === 0 ? <p className="px-3 py-4 text-center text-xs text-ink/55">No trials kept for {metricLabel(metric)}.</p> : null}
       </div>
-      <p className="text-2xs text-ink/50">Trial numbers count from 0; the pose is regenerated from seed {result.seed}, so it is exactly the trial sampled.</p>
+      <p className="text-2xs text-ink/50">
+        Trial numbers count from 0; the pose is regenerated from seed {result.seed}, so it is exactly the trial sampled.
+      </p>
     </div>
   );
 }

@@ -27,16 +27,29 @@ function calibrationText(s: StudyFile): string {
 
 export function settingRows(a: Side, b: Side): SettingRow[] {
   const row = (label: string, f: (s: Side) => string): SettingRow => {
-    const va = f(a), vb = f(b);
+    const va = f(a),
+      vb = f(b);
     return { label, a: va, b: vb, differs: va !== vb };
   };
   const tilts = (s: StudyFile) =>
-    (s.tilts ?? [{ pitchDeg: 0, rollDeg: 0 }, { pitchDeg: 30, rollDeg: 0 }, { pitchDeg: -30, rollDeg: 0 }, { pitchDeg: 0, rollDeg: 30 }, { pitchDeg: 0, rollDeg: -30 }])
+    (
+      s.tilts ?? [
+        { pitchDeg: 0, rollDeg: 0 },
+        { pitchDeg: 30, rollDeg: 0 },
+        { pitchDeg: -30, rollDeg: 0 },
+        { pitchDeg: 0, rollDeg: 30 },
+        { pitchDeg: 0, rollDeg: -30 },
+      ]
+    )
       .map((t) => tiltLabel(t.pitchDeg, t.rollDeg).toLowerCase())
       .join(", ");
   return [
     row("Stack revision", (s) => String(s.revisionNumber)),
-    row("Trials", (s) => (s.trialsUsed !== undefined && s.trialsUsed !== s.study.trials ? `${formatCount(s.trialsUsed)} of ${formatCount(s.study.trials)}` : formatCount(s.study.trials))),
+    row("Trials", (s) =>
+      s.trialsUsed !== undefined && s.trialsUsed !== s.study.trials
+        ? `${formatCount(s.trialsUsed)} of ${formatCount(s.study.trials)}`
+        : formatCount(s.study.trials),
+    ),
     row("Seed", (s) => String(s.study.seed)),
     row("Sampling", (s) => `${s.study.sampling === "lhs" ? "Latin hypercube" : "random"}${s.study.adaptive ? ", adaptive" : ""}`),
     row("Field dip", (s) => formatDeg(s.study.inclinationDeg, 5)),
@@ -117,5 +130,14 @@ export function sourceChanges(a: ResultFile, b: ResultFile): SourceChange[] {
   const same = (x: number, y: number) => Math.abs(x - y) <= 1e-12 * Math.max(1, Math.abs(x), Math.abs(y));
   return ids
     .map((id) => ({ id, unit: (ma.get(id) ?? mb.get(id))!.unit, a: ma.get(id) ?? null, b: mb.get(id) ?? null }))
-    .filter(({ a: x, b: y }) => !x || !y || !same(x.sigma, y.sigma) || !same(x.halfWidth, y.halfWidth) || !same(x.mean, y.mean) || x.stage !== y.stage || x.draws !== y.draws);
+    .filter(
+      ({ a: x, b: y }) =>
+        !x ||
+        !y ||
+        !same(x.sigma, y.sigma) ||
+        !same(x.halfWidth, y.halfWidth) ||
+        !same(x.mean, y.mean) ||
+        x.stage !== y.stage ||
+        x.draws !== y.draws,
+    );
 }

@@ -1,7 +1,13 @@
 import { z } from "zod";
 import { api } from "@frontend/lib/api-client";
 
-const slug = (s: string) => s.normalize("NFKD").replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 60).toLowerCase() || "study";
+const slug = (s: string) =>
+  s
+    .normalize("NFKD")
+    .replace(/[^\w.-]+/g, "-")
+    .replace(/^-+|-+$/g, "")
+    .slice(0, 60)
+    .toLowerCase() || "study";
 
 /** The result file name: `<project>-study-<n>.result.json`. */
 export function resultFileName(projectName: string, studyNumber: number): string {

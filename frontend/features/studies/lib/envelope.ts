@@ -51,7 +51,8 @@ export function envelopeByTilt(env: Envelope): TiltSeries[] {
 export function envelopeExtent(series: TiltSeries[], withExtremes: boolean, limit?: number): number {
   let m = 0;
   for (const s of series)
-    for (const r of s.rows) m = Math.max(m, Math.abs(r.band[0]), Math.abs(r.band[1]), withExtremes ? Math.max(Math.abs(r.min), Math.abs(r.max)) : 0);
+    for (const r of s.rows)
+      m = Math.max(m, Math.abs(r.band[0]), Math.abs(r.band[1]), withExtremes ? Math.max(Math.abs(r.min), Math.abs(r.max)) : 0);
   if (limit !== undefined && Number.isFinite(limit)) m = Math.max(m, limit);
   return niceCeil(m * 1.08 || 1);
 }

@@ -36,6 +36,7 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
   const e = Math.pow(10, Math.floor(Math.log10(raw)));
   const step = [1, 2, 2.5, 5, 10].map((f) => f * e).find((s) => s >= raw) ?? 10 * e;
   const out: number[] = [];
-  for (let v = Math.ceil(lo / step - 1e-9) * step; v <= hi + 1e-9 * step; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : Number(v.toPrecision(12)));
+  for (let v = Math.ceil(lo / step - 1e-9) * step; v <= hi + 1e-9 * step; v += step)
+    out.push(Math.abs(v) < step * 1e-9 ? 0 : Number(v.toPrecision(12)));
   return out;
 }

@@ -112,7 +112,12 @@ function num(text: string): number | string | undefined {
 /** The site as typed, parsed; null while any part is missing or wrong. */
 export function siteOf(v: StudyFormValues): Site | null {
   if (v.fieldFrom !== "site") return null;
-  const r = SiteSchema.safeParse({ latitudeDeg: num(v.latitudeDeg), longitudeDeg: num(v.longitudeDeg), altitudeKm: num(v.altitudeKm) ?? 0, date: v.date });
+  const r = SiteSchema.safeParse({
+    latitudeDeg: num(v.latitudeDeg),
+    longitudeDeg: num(v.longitudeDeg),
+    altitudeKm: num(v.altitudeKm) ?? 0,
+    date: v.date,
+  });
   return r.success ? r.data : null;
 }
 
@@ -177,7 +182,8 @@ export function buildStudy(v: StudyFormValues, stack: StackFile | null, fieldInc
   if (v.calibrationAfter === "none") file.calibration = { after: "none" };
   else {
     const residual: Record<string, unknown> = { dist: v.residualDist, tol: num(v.residualTol) };
-    if (v.residualDist === "normal" && v.residualSigmas.trim() !== "" && num(v.residualSigmas) !== 3) residual.sigmas = num(v.residualSigmas);
+    if (v.residualDist === "normal" && v.residualSigmas.trim() !== "" && num(v.residualSigmas) !== 3)
+      residual.sigmas = num(v.residualSigmas);
     file.calibration = { after: v.calibrationAfter, residualDeg: residual };
   }
   if (v.adaptive) file.adaptive = { significantDigits: v.significantDigits === "1" ? 1 : 2 };
@@ -190,9 +196,16 @@ export function buildStudy(v: StudyFormValues, stack: StackFile | null, fieldInc
 
   let site: Site | undefined;
   if (v.fieldFrom === "site") {
-    const r = SiteSchema.safeParse({ latitudeDeg: num(v.latitudeDeg), longitudeDeg: num(v.longitudeDeg), altitudeKm: num(v.altitudeKm) ?? 0, date: v.date });
+    const r = SiteSchema.safeParse({
+      latitudeDeg: num(v.latitudeDeg),
+      longitudeDeg: num(v.longitudeDeg),
+      altitudeKm: num(v.altitudeKm) ?? 0,
+      date: v.date,
+    });
     if (r.success) site = r.data;
-    else for (const i of fromZodError(r.error)) errors[fieldOfPath(`site.${i.path}`)] ??= i.message === "this field is required" ? requiredSite(i.path) : i.message;
+    else
+      for (const i of fromZodError(r.error))
+        errors[fieldOfPath(`site.${i.path}`)] ??= i.message === "this field is required" ? requiredSite(i.path) : i.message;
   }
 
   const parsed = StudyFileObjectSchema.safeParse(file);
@@ -215,7 +228,10 @@ export function buildStudy(v: StudyFormValues, stack: StackFile | null, fieldInc
 }
 
 function requiredSite(path: string): string {
-  return { latitudeDeg: "latitude is required", longitudeDeg: "longitude is required", date: "date is required (YYYY-MM-DD)" }[path] ?? "this field is required";
+  return (
+    { latitudeDeg: "latitude is required", longitudeDeg: "longitude is required", date: "date is required (YYYY-MM-DD)" }[path] ??
+    "this field is required"
+  );
 }
 
 /** Attitudes swept per trial: headings per turn × tilts. */

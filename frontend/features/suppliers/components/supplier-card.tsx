@@ -123,10 +123,7 @@ export function SupplierCard({ supplier, canManage }: { supplier: Supplier; canM
           pending={removeContact.isPending}
           error={removeContact.error?.message}
           onConfirm={() =>
-            removeContact.mutate(
-              { supplierId: supplier.id, contactId: confirming.contactId },
-              { onSuccess: () => setConfirming(null) },
-            )
+            removeContact.mutate({ supplierId: supplier.id, contactId: confirming.contactId }, { onSuccess: () => setConfirming(null) })
           }
         >
           <p>
@@ -149,10 +146,7 @@ function AddContactForm({ supplierId, onDone }: { supplierId: string; onDone: ()
     const parsed = parseForm(CreateContactSchema, { name, email });
     if (!parsed.ok) return setErrors(parsed.errors);
     setErrors({});
-    create.mutate(
-      { supplierId, contact: parsed.data },
-      { onSuccess: onDone, onError: (error) => setErrors(serverFieldErrors(error)) },
-    );
+    create.mutate({ supplierId, contact: parsed.data }, { onSuccess: onDone, onError: (error) => setErrors(serverFieldErrors(error)) });
   }
 
   const first = errors.name ?? errors.email ?? errors._form;

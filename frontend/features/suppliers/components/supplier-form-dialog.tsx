@@ -41,9 +41,7 @@ export function SupplierFormDialog({ supplier, onClose }: { supplier?: Supplier;
       busy={pending}
       size="sm"
       title={supplier ? "Edit supplier company" : "Add a supplier company"}
-      description={
-        supplier ? undefined : "Tolerance sources are owned by supplier companies; each gets its own tolerance report."
-      }
+      description={supplier ? undefined : "Tolerance sources are owned by supplier companies; each gets its own tolerance report."}
       onSubmit={submit}
       formLabel={supplier ? "Edit supplier company" : "Add a supplier company"}
       footer={
@@ -74,7 +72,14 @@ export function SupplierFormDialog({ supplier, onClose }: { supplier?: Supplier;
         </Field>
         <Field label="What they supply" error={errors.kind}>
           {({ id, describedBy, invalid }) => (
-            <Select id={id} name="kind" value={kind} invalid={invalid} aria-describedby={describedBy} onChange={(e) => setKind(e.target.value)}>
+            <Select
+              id={id}
+              name="kind"
+              value={kind}
+              invalid={invalid}
+              aria-describedby={describedBy}
+              onChange={(e) => setKind(e.target.value)}
+            >
               {SupplierKindSchema.options.map((k) => (
                 <option key={k} value={k}>
                   {KIND_LABELS[k]}

@@ -11,13 +11,21 @@ export function BoardGrid({ stack, poseSet, materials }: { stack: StackFile; pos
   const footprint =
     bi < 0
       ? ""
-      : [stack.elements[bi].size.x, stack.elements[bi].size.y, poseSet.Pnom[3 * bi], poseSet.Pnom[3 * bi + 1], poseSet.Pnom[3 * bi + 2] + stack.elements[bi].size.z].join(",");
+      : [
+          stack.elements[bi].size.x,
+          stack.elements[bi].size.y,
+          poseSet.Pnom[3 * bi],
+          poseSet.Pnom[3 * bi + 1],
+          poseSet.Pnom[3 * bi + 2] + stack.elements[bi].size.z,
+        ].join(",");
   const geometries = useMemo(() => {
     if (!footprint) return null;
     const [sx, sy, cx, cy, top] = footprint.split(",").map(Number);
     const z = top + 0.002;
-    const hx = sx / 2, hy = sy / 2;
-    const minor: number[] = [], major: number[] = [];
+    const hx = sx / 2,
+      hy = sy / 2;
+    const minor: number[] = [],
+      major: number[] = [];
     for (let x = Math.ceil(cx - hx); x <= cx + hx + 1e-9; x++) (x % 5 === 0 ? major : minor).push(x, cy - hy, z, x, cy + hy, z);
     for (let y = Math.ceil(cy - hy); y <= cy + hy + 1e-9; y++) (y % 5 === 0 ? major : minor).push(cx - hx, y, z, cx + hx, y, z);
     const make = (a: number[]) => {
@@ -27,10 +35,13 @@ export function BoardGrid({ stack, poseSet, materials }: { stack: StackFile; pos
     };
     return { minor: make(minor), major: make(major) };
   }, [footprint]);
-  useEffect(() => () => {
-    geometries?.minor.dispose();
-    geometries?.major.dispose();
-  }, [geometries]);
+  useEffect(
+    () => () => {
+      geometries?.minor.dispose();
+      geometries?.major.dispose();
+    },
+    [geometries],
+  );
   if (!geometries) return null;
   return (
     <group>

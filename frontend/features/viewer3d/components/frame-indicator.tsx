@@ -30,7 +30,16 @@ function FrameIndicatorContent({ mainCamera }: { mainCamera: PerspectiveCamera }
       return { material: new SpriteMaterial({ map: t.texture, depthTest: false }), aspect: t.aspect };
     });
     const caption = labelTexture("B", "#f7f5f0", { pill: false, weight: 700 });
-    return { shaft, head, mats, labels, caption: { material: new SpriteMaterial({ map: caption.texture, depthTest: false, opacity: 0.7, transparent: true }), aspect: caption.aspect } };
+    return {
+      shaft,
+      head,
+      mats,
+      labels,
+      caption: {
+        material: new SpriteMaterial({ map: caption.texture, depthTest: false, opacity: 0.7, transparent: true }),
+        aspect: caption.aspect,
+      },
+    };
   }, []);
   useEffect(
     () => () => {
@@ -48,8 +57,16 @@ function FrameIndicatorContent({ mainCamera }: { mainCamera: PerspectiveCamera }
     group.current.quaternion.copy(q.copy(mainCamera.quaternion).invert());
   });
   const L = 30;
-  const dirs: [number, number, number][] = [[1, 0, 0], [0, 1, 0], [0, 0, 1]];
-  const rot: [number, number, number][] = [[0, Math.PI / 2, 0], [-Math.PI / 2, 0, 0], [0, 0, 0]];
+  const dirs: [number, number, number][] = [
+    [1, 0, 0],
+    [0, 1, 0],
+    [0, 0, 1],
+  ];
+  const rot: [number, number, number][] = [
+    [0, Math.PI / 2, 0],
+    [-Math.PI / 2, 0, 0],
+    [0, 0, 0],
+  ];
   return (
     <>
       <OrthographicCamera makeDefault position={[0, 0, 200]} />
@@ -63,7 +80,12 @@ function FrameIndicatorContent({ mainCamera }: { mainCamera: PerspectiveCamera }
             </group>
           ))}
           {dirs.map((d, a) => (
-            <sprite key={`l${a}`} material={items.labels[a].material} position={[d[0] * (L + 9), d[1] * (L + 9), d[2] * (L + 9)]} scale={[15 * items.labels[a].aspect, 15, 1]} />
+            <sprite
+              key={`l${a}`}
+              material={items.labels[a].material}
+              position={[d[0] * (L + 9), d[1] * (L + 9), d[2] * (L + 9)]}
+              scale={[15 * items.labels[a].aspect, 15, 1]}
+            />
           ))}
         </group>
       </group>

@@ -19,7 +19,18 @@ interface StackModelProps {
 }
 
 /** Boxes, edges, bond lines and section caps of every element. Rendered once per stack. */
-export const StackModel = memo(function StackModel({ stack, materials, geometry, showCaps, groupRefs, onHover, onSelect, plane, sectionOn, boardIndex }: StackModelProps) {
+export const StackModel = memo(function StackModel({
+  stack,
+  materials,
+  geometry,
+  showCaps,
+  groupRefs,
+  onHover,
+  onSelect,
+  plane,
+  sectionOn,
+  boardIndex,
+}: StackModelProps) {
   const pick = (e: ThreeEvent<PointerEvent | MouseEvent>) => {
     for (const hit of e.intersections) {
       const ud = hit.object.userData as { elementIndex?: number; part?: "body" | "bond" };
@@ -55,7 +66,12 @@ export const StackModel = memo(function StackModel({ stack, materials, geometry,
               groupRefs.current[i] = g;
             }}
           >
-            <mesh geometry={geometry.box} material={m.body} scale={[e.size.x, e.size.y, e.size.z]} userData={{ elementIndex: i, part: "body" }} />
+            <mesh
+              geometry={geometry.box}
+              material={m.body}
+              scale={[e.size.x, e.size.y, e.size.z]}
+              userData={{ elementIndex: i, part: "body" }}
+            />
             <lineSegments geometry={geometry.edges} material={m.edge} scale={[e.size.x, e.size.y, e.size.z]} raycast={noRaycast} />
             {showCaps && i !== boardIndex ? (
               <mesh geometry={geometry.box} material={m.cap} scale={[e.size.x, e.size.y, e.size.z]} raycast={noRaycast} />

@@ -40,7 +40,16 @@ export type StackViewerProps = {
   className?: string;
 };
 
-export default function StackViewer({ stack, study, worstTrials, trialIndex, onTrialChange, selectedId, onSelect, className }: StackViewerProps) {
+export default function StackViewer({
+  stack,
+  study,
+  worstTrials,
+  trialIndex,
+  onTrialChange,
+  selectedId,
+  onSelect,
+  className,
+}: StackViewerProps) {
   const pose = useViewerPose({ stack, study, worstTrials, trialIndex, onTrialChange });
   const { drawn, set, poseError, choiceKey, stackIssue } = pose;
   const settings = useViewSettings(drawn, set, pose.choice.kind);
@@ -72,11 +81,15 @@ export default function StackViewer({ stack, study, worstTrials, trialIndex, onT
   }, [setLegendOpen]);
   const tooltipRef = useRef<HTMLDivElement>(null);
   const handleHover = useCallback((info: HoverInfo | null) => {
-    setHover((h) => (info === null ? null : h && h.index === info.index && h.part === info.part ? h : { index: info.index, part: info.part }));
-    const el = tooltipRef.current, vp = viewportRef.current;
+    setHover((h) =>
+      info === null ? null : h && h.index === info.index && h.part === info.part ? h : { index: info.index, part: info.part },
+    );
+    const el = tooltipRef.current,
+      vp = viewportRef.current;
     if (info && el && vp) {
       const r = vp.getBoundingClientRect();
-      const x = info.clientX - r.left, y = info.clientY - r.top;
+      const x = info.clientX - r.left,
+        y = info.clientY - r.top;
       const flipX = x > r.width - 260;
       el.style.transform = `translate(${flipX ? x - 14 : x + 14}px, ${y + 14}px) translateX(${flipX ? "-100%" : "0"})`;
     }
@@ -161,9 +174,13 @@ export default function StackViewer({ stack, study, worstTrials, trialIndex, onT
           </div>
         )}
 
-
         <PoseCaption pose={pose} exaggeration={exaggeration} explode={explode} onView={settings.requestView} />
-        <ViewerLegend kinds={kindsPresent} showSensingAxes={hasSensors && showAxes} open={settings.legendOpen} onToggle={() => setLegendOpen((o) => !o)} />
+        <ViewerLegend
+          kinds={kindsPresent}
+          showSensingAxes={hasSensors && showAxes}
+          open={settings.legendOpen}
+          onToggle={() => setLegendOpen((o) => !o)}
+        />
 
         {/* hover tooltip */}
         <div

@@ -62,7 +62,8 @@ export interface ViewerSceneProps {
 // ---------------------------------------------------------------- scene
 
 export function ViewerScene(props: ViewerSceneProps) {
-  const { stack, poseSet, exaggeration, explode, section, showAxes, hoveredIndex, selectedIndex, view, onHover, onSelect, onApi, onFrame } = props;
+  const { stack, poseSet, exaggeration, explode, section, showAxes, hoveredIndex, selectedIndex, view, onHover, onSelect, onApi, onFrame } =
+    props;
   const gl = useThree((s) => s.gl);
   const camera = useThree((s) => s.camera) as PerspectiveCamera;
   const size = useThree((s) => s.size);
@@ -118,7 +119,8 @@ export function ViewerScene(props: ViewerSceneProps) {
       const kind = stack.elements[i]?.kind;
       if (!kind) return;
       const base = KIND_COLOUR[kind];
-      const selected = i === selectedIndex, hovered = i === hoveredIndex;
+      const selected = i === selectedIndex,
+        hovered = i === hoveredIndex;
       m.body.emissive.set(base);
       m.body.emissiveIntensity = selected ? 0.42 : hovered ? 0.3 : 0;
       m.edge.color.copy(selected ? new Color("#ffffff") : lighten(base, kind === "board" ? 0.25 : 0.45));
@@ -146,7 +148,10 @@ export function ViewerScene(props: ViewerSceneProps) {
         .flatMap((kind) =>
           AXIS_NAMES.map((name, a) => {
             const t = labelTexture(name, AXIS_COLOUR[a], { ring: KIND_COLOUR[kind as keyof typeof KIND_COLOUR] });
-            return { material: new SpriteMaterial({ map: t.texture, depthTest: false, depthWrite: false, sizeAttenuation: false }), aspect: t.aspect };
+            return {
+              material: new SpriteMaterial({ map: t.texture, depthTest: false, depthWrite: false, sizeAttenuation: false }),
+              aspect: t.aspect,
+            };
           }),
         ),
     [sensorKinds],
@@ -197,7 +202,16 @@ export function ViewerScene(props: ViewerSceneProps) {
 
   // ---- per-frame application (allocation-free): only when something changed
   const scratch = useMemo(
-    () => ({ m: new Matrix4(), q: new Quaternion(), o: new Vector3(), d: new Vector3(), s: new Vector3(), h: new Vector3(), z: new Vector3(0, 0, 1), bounds: emptyBounds() }),
+    () => ({
+      m: new Matrix4(),
+      q: new Quaternion(),
+      o: new Vector3(),
+      d: new Vector3(),
+      s: new Vector3(),
+      h: new Vector3(),
+      z: new Vector3(0, 0, 1),
+      bounds: emptyBounds(),
+    }),
     [],
   );
   const inPackage = useMemo(() => packageFilter(stack), [stack]);
@@ -206,12 +220,30 @@ export function ViewerScene(props: ViewerSceneProps) {
   useFrame(() => {
     if (applied.current === version.current) return;
     applied.current = version.current;
-    const R = shown.R, P = shown.P;
+    const R = shown.R,
+      P = shown.P;
     const { m, q, o, d, s, z, h } = scratch;
     groupRefs.current.forEach((g, i) => {
       if (!g) return;
       const r = 9 * i;
-      g.matrix.set(R[r], R[r + 1], R[r + 2], P[3 * i], R[r + 3], R[r + 4], R[r + 5], P[3 * i + 1], R[r + 6], R[r + 7], R[r + 8], P[3 * i + 2], 0, 0, 0, 1);
+      g.matrix.set(
+        R[r],
+        R[r + 1],
+        R[r + 2],
+        P[3 * i],
+        R[r + 3],
+        R[r + 4],
+        R[r + 5],
+        P[3 * i + 1],
+        R[r + 6],
+        R[r + 7],
+        R[r + 8],
+        P[3 * i + 2],
+        0,
+        0,
+        0,
+        1,
+      );
       g.matrixWorldNeedsUpdate = true;
     });
     // the selection box: the selected element's edges, a little larger, drawn on top
@@ -222,14 +254,38 @@ export function ViewerScene(props: ViewerSceneProps) {
       sel.visible = !!e && stack.elements[i]?.parent !== null;
       if (e) {
         const pad = 0.025 + 0.01 * Math.max(e.size.x, e.size.y);
-        const ax = e.size.x + 2 * pad, ay = e.size.y + 2 * pad, az = e.size.z + 2 * pad;
+        const ax = e.size.x + 2 * pad,
+          ay = e.size.y + 2 * pad,
+          az = e.size.z + 2 * pad;
         const r = 9 * i;
-        const px = P[3 * i] - R[r + 2] * pad, py = P[3 * i + 1] - R[r + 5] * pad, pz = P[3 * i + 2] - R[r + 8] * pad;
-        sel.matrix.set(R[r] * ax, R[r + 1] * ay, R[r + 2] * az, px, R[r + 3] * ax, R[r + 4] * ay, R[r + 5] * az, py, R[r + 6] * ax, R[r + 7] * ay, R[r + 8] * az, pz, 0, 0, 0, 1);
+        const px = P[3 * i] - R[r + 2] * pad,
+          py = P[3 * i + 1] - R[r + 5] * pad,
+          pz = P[3 * i + 2] - R[r + 8] * pad;
+        sel.matrix.set(
+          R[r] * ax,
+          R[r + 1] * ay,
+          R[r + 2] * az,
+          px,
+          R[r + 3] * ax,
+          R[r + 4] * ay,
+          R[r + 5] * az,
+          py,
+          R[r + 6] * ax,
+          R[r + 7] * ay,
+          R[r + 8] * az,
+          pz,
+          0,
+          0,
+          0,
+          1,
+        );
         sel.matrixWorldNeedsUpdate = true;
       }
     }
-    const shaft = shaftRef.current, head = headRef.current, ghostShaft = ghostShaftRef.current, ghostHead = ghostHeadRef.current;
+    const shaft = shaftRef.current,
+      head = headRef.current,
+      ghostShaft = ghostShaftRef.current,
+      ghostHead = ghostHeadRef.current;
     for (let si = 0; si < triads.sensors.length; si++) {
       const ei = triads.sensors[si];
       const e = stack.elements[ei];
@@ -246,7 +302,9 @@ export function ViewerScene(props: ViewerSceneProps) {
         m.compose(o, q, s.set(SHAFT_R, SHAFT_R, shaftLen));
         shaft?.setMatrixAt(k, m);
         ghostShaft?.setMatrixAt(k, m);
-        const hx = o.x + d.x * shaftLen, hy = o.y + d.y * shaftLen, hz = o.z + d.z * shaftLen;
+        const hx = o.x + d.x * shaftLen,
+          hy = o.y + d.y * shaftLen,
+          hz = o.z + d.z * shaftLen;
         m.compose(h.set(hx, hy, hz), q, s.set(HEAD_R, HEAD_R, HEAD_L));
         head?.setMatrixAt(k, m);
         ghostHead?.setMatrixAt(k, m);
@@ -267,13 +325,17 @@ export function ViewerScene(props: ViewerSceneProps) {
       if (sectionOn) {
         const b = shownBounds(stack, shown, inPackage, scratch.bounds);
         const pos = outlineGeometry.getAttribute("position") as BufferAttribute;
-        const v = section.value, pad = 0.25;
-        const z0 = b.min[2] - pad, z1 = b.max[2] + pad;
+        const v = section.value,
+          pad = 0.25;
+        const z0 = b.min[2] - pad,
+          z1 = b.max[2] + pad;
         // a rectangle in the plane, around the package (the fifth point closes it)
         const along = section.axis === "x" ? 1 : 0;
-        const u0 = b.min[along] - pad, u1 = b.max[along] + pad;
+        const u0 = b.min[along] - pad,
+          u1 = b.max[along] + pad;
         for (let k = 0; k < 5; k++) {
-          const u = k === 1 || k === 2 ? u1 : u0, z = k === 2 || k === 3 ? z1 : z0;
+          const u = k === 1 || k === 2 ? u1 : u0,
+            z = k === 2 || k === 3 ? z1 : z0;
           if (along === 1) pos.setXYZ(k, v, u, z);
           else pos.setXYZ(k, u, v, z);
         }
@@ -284,7 +346,14 @@ export function ViewerScene(props: ViewerSceneProps) {
   });
 
   // ---- camera: presets and framing
-  const rig = useRef({ active: false, t: 0, fromPos: new Vector3(), toPos: new Vector3(), fromTarget: new Vector3(), toTarget: new Vector3() });
+  const rig = useRef({
+    active: false,
+    t: 0,
+    fromPos: new Vector3(),
+    toPos: new Vector3(),
+    fromTarget: new Vector3(),
+    toTarget: new Vector3(),
+  });
   useEffect(() => {
     if (!controls) return;
     const b = view.preset === "board" ? boardBounds(stack, shown) : packageBounds(stack, shown);
@@ -293,7 +362,11 @@ export function ViewerScene(props: ViewerSceneProps) {
     const dl = Math.hypot(dir[0], dir[1], dir[2]);
     const r = rig.current;
     r.toTarget.set(fit.centre[0], fit.centre[1], fit.centre[2]);
-    r.toPos.set(fit.centre[0] + (dir[0] / dl) * fit.distance, fit.centre[1] + (dir[1] / dl) * fit.distance, fit.centre[2] + (dir[2] / dl) * fit.distance);
+    r.toPos.set(
+      fit.centre[0] + (dir[0] / dl) * fit.distance,
+      fit.centre[1] + (dir[1] / dl) * fit.distance,
+      fit.centre[2] + (dir[2] / dl) * fit.distance,
+    );
     if (view.instant) {
       camera.position.copy(r.toPos);
       controls.target.copy(r.toTarget);
@@ -356,27 +429,72 @@ export function ViewerScene(props: ViewerSceneProps) {
         boardIndex={boardIndex}
       />
       <group visible={showAxes}>
-        <instancedMesh key={`s${arrowCount}`} ref={shaftRef} args={[geometry.shaft, materials.arrow, Math.max(1, arrowCount)]} count={arrowCount} raycast={noRaycast} frustumCulled={false} />
-        <instancedMesh key={`h${arrowCount}`} ref={headRef} args={[geometry.head, materials.arrow, Math.max(1, arrowCount)]} count={arrowCount} raycast={noRaycast} frustumCulled={false} />
-        <instancedMesh key={`gs${arrowCount}`} ref={ghostShaftRef} args={[geometry.shaft, materials.ghost, Math.max(1, arrowCount)]} count={arrowCount} raycast={noRaycast} renderOrder={8} frustumCulled={false} />
-        <instancedMesh key={`gh${arrowCount}`} ref={ghostHeadRef} args={[geometry.head, materials.ghost, Math.max(1, arrowCount)]} count={arrowCount} raycast={noRaycast} renderOrder={8} frustumCulled={false} />
+        <instancedMesh
+          key={`s${arrowCount}`}
+          ref={shaftRef}
+          args={[geometry.shaft, materials.arrow, Math.max(1, arrowCount)]}
+          count={arrowCount}
+          raycast={noRaycast}
+          frustumCulled={false}
+        />
+        <instancedMesh
+          key={`h${arrowCount}`}
+          ref={headRef}
+          args={[geometry.head, materials.arrow, Math.max(1, arrowCount)]}
+          count={arrowCount}
+          raycast={noRaycast}
+          frustumCulled={false}
+        />
+        <instancedMesh
+          key={`gs${arrowCount}`}
+          ref={ghostShaftRef}
+          args={[geometry.shaft, materials.ghost, Math.max(1, arrowCount)]}
+          count={arrowCount}
+          raycast={noRaycast}
+          renderOrder={8}
+          frustumCulled={false}
+        />
+        <instancedMesh
+          key={`gh${arrowCount}`}
+          ref={ghostHeadRef}
+          args={[geometry.head, materials.ghost, Math.max(1, arrowCount)]}
+          count={arrowCount}
+          raycast={noRaycast}
+          renderOrder={8}
+          frustumCulled={false}
+        />
         <group ref={labelGroup}>
-        {Array.from({ length: arrowCount }, (_, k) => (
-          <sprite
-            key={k}
-            ref={(sp) => {
-              labelRefs.current[k] = sp;
-            }}
-            material={labelMaterials[k]?.material}
-            raycast={noRaycast}
-            renderOrder={10}
-            center={[0.5, 0.5]}
-          />
-        ))}
+          {Array.from({ length: arrowCount }, (_, k) => (
+            <sprite
+              key={k}
+              ref={(sp) => {
+                labelRefs.current[k] = sp;
+              }}
+              material={labelMaterials[k]?.material}
+              raycast={noRaycast}
+              renderOrder={10}
+              center={[0.5, 0.5]}
+            />
+          ))}
         </group>
       </group>
-      <lineSegments ref={selectionRef} geometry={geometry.edges} material={materials.selection} matrixAutoUpdate={false} visible={false} raycast={noRaycast} renderOrder={11} />
-      <lineLoop ref={outlineRef} geometry={outlineGeometry} material={materials.outline} raycast={noRaycast} renderOrder={9} visible={false} />
+      <lineSegments
+        ref={selectionRef}
+        geometry={geometry.edges}
+        material={materials.selection}
+        matrixAutoUpdate={false}
+        visible={false}
+        raycast={noRaycast}
+        renderOrder={11}
+      />
+      <lineLoop
+        ref={outlineRef}
+        geometry={outlineGeometry}
+        material={materials.outline}
+        raycast={noRaycast}
+        renderOrder={9}
+        visible={false}
+      />
       <OrbitControls makeDefault enableDamping={false} minDistance={0.3} maxDistance={600} zoomSpeed={0.9} />
       <FrameIndicator mainCamera={camera} />
     </>

@@ -31,7 +31,9 @@ export function useViewerPose({ stack, study, worstTrials, trialIndex, onTrialCh
   const lastGood = useRef<StackFile | null>(null);
   if (validation.ok) lastGood.current = validation.stack;
   const drawn = validation.ok ? validation.stack : lastGood.current;
-  const stackIssue = validation.ok ? null : `${validation.issues[0]?.path ? `${validation.issues[0].path}: ` : ""}${validation.issues[0]?.message ?? "invalid stack"}`;
+  const stackIssue = validation.ok
+    ? null
+    : `${validation.issues[0]?.path ? `${validation.issues[0].path}: ` : ""}${validation.issues[0]?.message ?? "invalid stack"}`;
 
   const vm = useMemo(() => {
     if (!drawn) return null;
@@ -55,7 +57,8 @@ export function useViewerPose({ stack, study, worstTrials, trialIndex, onTrialCh
     },
     [controlled, onTrialChange],
   );
-  const choice: PoseChoice = trial !== null && trial !== undefined ? { kind: "trial", index: trial } : meanPose ? { kind: "mean" } : { kind: "nominal" };
+  const choice: PoseChoice =
+    trial !== null && trial !== undefined ? { kind: "trial", index: trial } : meanPose ? { kind: "mean" } : { kind: "nominal" };
   const choiceKey = choice.kind === "trial" ? `trial:${choice.index}` : choice.kind;
 
   const { set, poseError } = useMemo(() => {

@@ -12,7 +12,8 @@ export interface SnapshotText {
 }
 
 export function composeSnapshot(source: HTMLCanvasElement, text: SnapshotText): string {
-  const w = source.width, h = source.height;
+  const w = source.width,
+    h = source.height;
   const scale = Math.max(1, w / 1100);
   const canvas = document.createElement("canvas");
   canvas.width = w;
@@ -42,7 +43,8 @@ export function composeSnapshot(source: HTMLCanvasElement, text: SnapshotText): 
     g.font = `600 ${fs}px ${LABEL_FONT}`;
     const sw = fs * 0.9;
     const widest = Math.max(...items.map((it) => g.measureText(it.label).width));
-    const boxW = widest + sw + fs * 2.2, boxH = items.length * lineH + fs * 0.9;
+    const boxW = widest + sw + fs * 2.2,
+      boxH = items.length * lineH + fs * 0.9;
     g.fillStyle = "rgba(15, 22, 29, 0.72)";
     g.fillRect(fs * 0.8, fs * 0.8, boxW, boxH);
     items.forEach((it, i) => {
@@ -69,5 +71,11 @@ export function downloadDataUrl(url: string, fileName: string): void {
 
 /** A file name from free text: letters, digits and dashes. */
 export function fileSlug(text: string): string {
-  return text.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 60) || "stack";
+  return (
+    text
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-+|-+$/g, "")
+      .slice(0, 60) || "stack"
+  );
 }

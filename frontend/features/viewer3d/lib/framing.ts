@@ -20,15 +20,20 @@ export function emptyBounds(): Bounds {
 export function shownBounds(stack: StackFile, shown: ShownPose, include: (index: number) => boolean, out: Bounds = emptyBounds()): Bounds {
   out.min[0] = out.min[1] = out.min[2] = Infinity;
   out.max[0] = out.max[1] = out.max[2] = -Infinity;
-  const R = shown.R, P = shown.P;
+  const R = shown.R,
+    P = shown.P;
   const els = stack.elements;
   for (let i = 0; i < els.length; i++) {
     const e = els[i];
     if (!include(i)) continue;
-    const hx = e.size.x / 2, hy = e.size.y / 2;
-    const z0 = -(e.bondLine?.thicknessUm ?? 0) * 1e-3, z1 = e.size.z;
+    const hx = e.size.x / 2,
+      hy = e.size.y / 2;
+    const z0 = -(e.bondLine?.thicknessUm ?? 0) * 1e-3,
+      z1 = e.size.z;
     for (let c = 0; c < 8; c++) {
-      const x = c & 1 ? hx : -hx, y = c & 2 ? hy : -hy, z = c & 4 ? z1 : z0;
+      const x = c & 1 ? hx : -hx,
+        y = c & 2 ? hy : -hy,
+        z = c & 4 ? z1 : z0;
       for (let r = 0; r < 3; r++) {
         const v = P[3 * i + r] + R[9 * i + 3 * r] * x + R[9 * i + 3 * r + 1] * y + R[9 * i + 3 * r + 2] * z;
         if (v < out.min[r]) out.min[r] = v;
@@ -71,7 +76,12 @@ export function presetDirection(preset: ViewPreset): [number, number, number] {
 }
 
 /** Distance at which a sphere around the bounds fills the narrower field of view. */
-export function fitDistance(b: Bounds, fovDeg: number, aspect: number, margin = 1.08): { centre: [number, number, number]; distance: number; radius: number } {
+export function fitDistance(
+  b: Bounds,
+  fovDeg: number,
+  aspect: number,
+  margin = 1.08,
+): { centre: [number, number, number]; distance: number; radius: number } {
   const centre: [number, number, number] = [(b.min[0] + b.max[0]) / 2, (b.min[1] + b.max[1]) / 2, (b.min[2] + b.max[2]) / 2];
   const radius = 0.5 * Math.hypot(b.max[0] - b.min[0], b.max[1] - b.min[1], b.max[2] - b.min[2]) || 1;
   const v = (fovDeg * Math.PI) / 180;

@@ -44,11 +44,23 @@ export function compileForViewer(stack: StackFile, study: StudyFile | undefined)
   }
   try {
     const prep = prepareStudy(stack, study);
-    return { model: prep.model, study: prep.study, hasStudy: true, plan: { mode: prep.plan.mode, seed: prep.plan.seed, trials: prep.plan.trials }, exact: true };
+    return {
+      model: prep.model,
+      study: prep.study,
+      hasStudy: true,
+      plan: { mode: prep.plan.mode, seed: prep.plan.seed, trials: prep.plan.trials },
+      exact: true,
+    };
   } catch {
     const loose: StudyFile = { ...study, heading: false, headingSensors: undefined, requirements: undefined, adaptive: undefined };
     const model = compileModel(stack, loose);
-    return { model, study: loose, hasStudy: true, plan: { mode: study.sampling ?? "random", seed: study.seed, trials: study.trials }, exact: false };
+    return {
+      model,
+      study: loose,
+      hasStudy: true,
+      plan: { mode: study.sampling ?? "random", seed: study.seed, trials: study.trials },
+      exact: false,
+    };
   }
 }
 
@@ -100,8 +112,11 @@ export function poseSet(vm: ViewerModel, stack: StackFile, draws: Float64Array):
   const parent = new Int32Array(n);
   stack.elements.forEach((e, i) => (parent[i] = e.parent === null ? -1 : index.get(e.parent)!));
   const order = Int32Array.from(m.elements.map((e) => e.fileIndex));
-  const R = new Float64Array(9 * n), Rnom = new Float64Array(9 * n);
-  const P = new Float64Array(3 * n), Pnom = new Float64Array(3 * n), L = new Float64Array(3 * n);
+  const R = new Float64Array(9 * n),
+    Rnom = new Float64Array(9 * n);
+  const P = new Float64Array(3 * n),
+    Pnom = new Float64Array(3 * n),
+    L = new Float64Array(3 * n);
   const U = new Float64Array(9 * n);
   const tiltDeg = new Float64Array(n);
   list.forEach((p, i) => {
@@ -115,15 +130,20 @@ export function poseSet(vm: ViewerModel, stack: StackFile, draws: Float64Array):
     if (q < 0) {
       L.set(P.subarray(3 * i, 3 * i + 3), 3 * i);
     } else {
-      const dx = P[3 * i] - P[3 * q], dy = P[3 * i + 1] - P[3 * q + 1], dz = P[3 * i + 2] - P[3 * q + 2];
+      const dx = P[3 * i] - P[3 * q],
+        dy = P[3 * i + 1] - P[3 * q + 1],
+        dz = P[3 * i + 2] - P[3 * q + 2];
       for (let r = 0; r < 3; r++) L[3 * i + r] = R[9 * q + r] * dx + R[9 * q + 3 + r] * dy + R[9 * q + 6 + r] * dz;
     }
     tiltDeg[i] = q < 0 ? 0 : zAxisAngle(R, Rnom, 9 * i) / DEG;
   }
   // sensing axes from the six alignment draws (MODEL.md section 4)
   for (const ce of m.elements) {
-    const i = ce.fileIndex, o = 9 * i;
-    U[o] = 1; U[o + 4] = 1; U[o + 8] = 1;
+    const i = ce.fileIndex,
+      o = 9 * i;
+    U[o] = 1;
+    U[o + 4] = 1;
+    U[o + 8] = 1;
     if (!isSensorKind(ce.kind) || ce.axisOff < 0) continue;
     const g = (k: number) => Math.tan(draws[ce.axisOff + k] * DEG);
     const rows = [
@@ -144,7 +164,13 @@ export function poseSet(vm: ViewerModel, stack: StackFile, draws: Float64Array):
     kinds: list.map((p) => p.kind as ElementKind),
     parent,
     order,
-    R, Rnom, P, Pnom, L, U, tiltDeg,
+    R,
+    Rnom,
+    P,
+    Pnom,
+    L,
+    U,
+    tiltDeg,
     metrics: s.metrics.slice(),
     metricIds: m.metrics.map((x) => x.id),
     metricUnits: m.metrics.map((x) => x.unit),

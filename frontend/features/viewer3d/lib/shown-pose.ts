@@ -28,19 +28,24 @@ export class ShownPose {
   }
 
   update(k: number, gap: number): void {
-    const s = this.set, R = this.R, P = this.P;
+    const s = this.set,
+      R = this.R,
+      P = this.P;
     for (let j = 0; j < s.order.length; j++) {
       const i = s.order[j];
       const q = s.parent[i];
       const o = 9 * i;
       exaggerateRotation(s.R, s.Rnom, o, k, R, o);
       if (q < 0) {
-        P[3 * i] = s.P[3 * i]; P[3 * i + 1] = s.P[3 * i + 1]; P[3 * i + 2] = s.P[3 * i + 2];
+        P[3 * i] = s.P[3 * i];
+        P[3 * i + 1] = s.P[3 * i + 1];
+        P[3 * i + 2] = s.P[3 * i + 2];
       } else {
-        const lx = s.L[3 * i], ly = s.L[3 * i + 1], lz = s.L[3 * i + 2] + gap;
+        const lx = s.L[3 * i],
+          ly = s.L[3 * i + 1],
+          lz = s.L[3 * i + 2] + gap;
         const po = 9 * q;
-        for (let r = 0; r < 3; r++)
-          P[3 * i + r] = P[3 * q + r] + R[po + 3 * r] * lx + R[po + 3 * r + 1] * ly + R[po + 3 * r + 2] * lz;
+        for (let r = 0; r < 3; r++) P[3 * i + r] = P[3 * q + r] + R[po + 3 * r] * lx + R[po + 3 * r + 1] * ly + R[po + 3 * r + 2] * lz;
       }
       // sensing axes: exaggerated in the die frame, then into B with the shown orientation
       const u = this.local;

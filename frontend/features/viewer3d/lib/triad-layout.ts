@@ -10,7 +10,8 @@ export interface TriadLayout {
 }
 
 export function triadLayout(stack: StackFile): TriadLayout {
-  const sensors: number[] = [], length: number[] = [];
+  const sensors: number[] = [],
+    length: number[] = [];
   stack.elements.forEach((e, i) => {
     if (!isSensorKind(e.kind)) return;
     sensors.push(i);
