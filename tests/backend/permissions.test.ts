@@ -47,7 +47,7 @@ describe("rights table", () => {
 
   it("keeps a supplier out of everything of the workspace but reports", () => {
     const supplierRights = ROLE_RIGHTS.supplier;
-    expect(supplierRights.every((r) => r.startsWith("reports.") || r === "datasets.send")).toBe(true);
+    expect(supplierRights.every((r) => r.startsWith("reports.") || r === "datasets.send" || r === "notifications.read")).toBe(true);
   });
 });
 
