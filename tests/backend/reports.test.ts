@@ -374,7 +374,7 @@ describe("supplier reports", () => {
 
     const outbox = await until(
       () => t.call("GET", "/api/outbox", { cookie: c.admin }),
-      (x) => x.body.messages.filter((m: { subject: string }) => m.subject.startsWith("TR-0001")).length === 2,
+      (x) => x.body.messages.filter((m: { subject: string }) => m.subject.startsWith("TR-0001 revision 1: tolerances")).length === 2,
     );
     expect(outbox.body.mode).toBe("catcher");
     const stored = r.body.report.files.find((f: { kind: string }) => f.kind === "pdf");

@@ -78,7 +78,7 @@ describe("stack revisions", () => {
     expect(patch.body.name).toBe("edited stack");
 
     expect((await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.reviewer, body: {} })).status).toBe(409);
-    expect((await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {} })).body.status).toBe("in_review");
+    expect((await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: { note: "tolerances for the first build" } })).body.status).toBe("in_review");
     const inReviewPatch = await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.engineer, body: { note: "x" } });
     expect(inReviewPatch.status).toBe(409);
     expect(inReviewPatch.body.error.code).toBe("revision_frozen");
@@ -97,7 +97,7 @@ describe("stack revisions", () => {
 
   it("a reviewer sends back with a comment, which is kept", async () => {
     const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
-    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {} });
+    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: { note: "tolerances for the first build" } });
     const noComment = await t.call("POST", `/api/revisions/${rev.id}/return`, { cookie: c.reviewer, body: {} });
     expect(noComment.status).toBe(400);
     expect(noComment.body.error.fields[0].path).toBe("comment");
@@ -119,7 +119,7 @@ describe("stack revisions", () => {
       403,
     );
     expect((await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.reviewer, body: { note: "x" } })).status).toBe(403);
-    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {} });
+    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: { note: "tolerances for the first build" } });
     expect((await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.engineer, body: {} })).status).toBe(403);
     for (const path of [`/api/revisions/${rev.id}`, `/api/projects/${projectId}/revisions`, `/api/revisions/${rev.id}/stack-file`]) {
       expect((await t.call("GET", path, { cookie: c.supplier })).status).toBe(403);
