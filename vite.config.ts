@@ -56,6 +56,8 @@ export default defineConfig({
           root: here("."),
           environment: "node",
           include: ["tests/backend/**/*.test.ts"],
+          // the role probes do not depend on the database driver; they run once, under PGlite
+          exclude: ["tests/backend/roles.test.ts"],
           globalSetup: ["tests/setup/postgres-global.ts"],
           testTimeout: 60_000,
           hookTimeout: 60_000,

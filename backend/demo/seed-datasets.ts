@@ -81,17 +81,15 @@ export const seedDemoDatasets: SeedStep = async (db, ctx) => {
   // its own transaction, so the activity list shows the upload before the mapping
   if (rev1) {
     await db.transaction(async (tx) => {
-      await tx
-        .insert(datasetMappings)
-        .values({
-          datasetId: id,
-          column: "yaw [mrad]",
-          revisionId: rev1.id,
-          source: "mag.yaw",
-          unit: "mrad",
-          nominal: 0,
-          updatedBy: ctx.userIds.engineer,
-        });
+      await tx.insert(datasetMappings).values({
+        datasetId: id,
+        column: "yaw [mrad]",
+        revisionId: rev1.id,
+        source: "mag.yaw",
+        unit: "mrad",
+        nominal: 0,
+        updatedBy: ctx.userIds.engineer,
+      });
       await recordActivity(tx, {
         workspaceId: ctx.workspaceId,
         projectId: ctx.projectId,

@@ -425,18 +425,16 @@ export async function updateMappings(db: Database, actor: Actor, id: string, inp
     for (const p of planned) {
       await tx.delete(datasetMappings).where(and(eq(datasetMappings.datasetId, id), eq(datasetMappings.column, p.column)));
       if (p.source === null) continue;
-      await tx
-        .insert(datasetMappings)
-        .values({
-          datasetId: id,
-          column: p.column,
-          revisionId: p.revisionId,
-          source: p.source,
-          part: p.part,
-          unit: p.unit,
-          nominal: p.nominal,
-          updatedBy: actor.userId,
-        });
+      await tx.insert(datasetMappings).values({
+        datasetId: id,
+        column: p.column,
+        revisionId: p.revisionId,
+        source: p.source,
+        part: p.part,
+        unit: p.unit,
+        nominal: p.nominal,
+        updatedBy: actor.userId,
+      });
     }
     const set = planned.filter((p) => p.source !== null);
     const cleared = planned.filter((p) => p.source === null);

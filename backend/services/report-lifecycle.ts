@@ -229,19 +229,17 @@ export async function releaseReport(db: Database, actor: Actor, id: string, comm
       .where(and(eq(reports.id, id), eq(reports.status, "draft")))
       .returning({ id: reports.id });
     if (!changed.length) throw conflict("The report was released meanwhile.", "report_frozen");
-    await tx
-      .insert(reportFiles)
-      .values(
-        rendered.map((f) => ({
-          reportId: id,
-          kind: f.kind,
-          fileName: fileName(row, f.kind),
-          contentType: FILE_TYPES[f.kind],
-          data: f.data,
-          size: f.data.length,
-          sha256: sha256(f.data),
-        })),
-      );
+    await tx.insert(reportFiles).values(
+      rendered.map((f) => ({
+        reportId: id,
+        kind: f.kind,
+        fileName: fileName(row, f.kind),
+        contentType: FILE_TYPES[f.kind],
+        data: f.data,
+        size: f.data.length,
+        sha256: sha256(f.data),
+      })),
+    );
     await tx.insert(comments).values({
       workspaceId: actor.workspaceId,
       projectId: row.projectId,
@@ -329,17 +327,15 @@ export async function returnReport(db: Database, actor: Actor, id: string, comme
   const row = await visibleRow(db, actor, id);
   assertDraft(row);
   await db.transaction(async (tx) => {
-    await tx
-      .insert(comments)
-      .values({
-        workspaceId: actor.workspaceId,
-        projectId: row.projectId,
-        targetType: "report",
-        targetId: id,
-        authorId: actor.userId,
-        kind: "returned",
-        body: comment,
-      });
+    await tx.insert(comments).values({
+      workspaceId: actor.workspaceId,
+      projectId: row.projectId,
+      targetType: "report",
+      targetId: id,
+      authorId: actor.userId,
+      kind: "returned",
+      body: comment,
+    });
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,
       projectId: row.projectId,

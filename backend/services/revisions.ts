@@ -239,16 +239,14 @@ export async function transitionRevision(
 export async function addRevisionComment(db: Database, actor: Actor, id: string, body: string) {
   const row = await getRevisionRow(db, actor.workspaceId, id);
   await db.transaction(async (tx) => {
-    await tx
-      .insert(comments)
-      .values({
-        workspaceId: actor.workspaceId,
-        projectId: row.projectId,
-        targetType: "revision",
-        targetId: id,
-        authorId: actor.userId,
-        body,
-      });
+    await tx.insert(comments).values({
+      workspaceId: actor.workspaceId,
+      projectId: row.projectId,
+      targetType: "revision",
+      targetId: id,
+      authorId: actor.userId,
+      body,
+    });
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,
       projectId: row.projectId,

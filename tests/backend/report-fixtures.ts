@@ -113,13 +113,11 @@ export async function insertFinishedStudy(
     .returning();
   if (studyStatus === "finished") {
     const result = resultFor(stack);
-    await db
-      .insert(studyResults)
-      .values({
-        studyId: study.id,
-        result: result as unknown as Record<string, unknown>,
-        passes: result.requirements.every((r) => r.passes),
-      });
+    await db.insert(studyResults).values({
+      studyId: study.id,
+      result: result as unknown as Record<string, unknown>,
+      passes: result.requirements.every((r) => r.passes),
+    });
   }
   return { projectId, revisionId: rev.id, studyId: study.id };
 }

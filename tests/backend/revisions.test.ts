@@ -78,7 +78,10 @@ describe("stack revisions", () => {
     expect(patch.body.name).toBe("edited stack");
 
     expect((await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.reviewer, body: {} })).status).toBe(409);
-    expect((await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: { note: "tolerances for the first build" } })).body.status).toBe("in_review");
+    expect(
+      (await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: { note: "tolerances for the first build" } }))
+        .body.status,
+    ).toBe("in_review");
     const inReviewPatch = await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.engineer, body: { note: "x" } });
     expect(inReviewPatch.status).toBe(409);
     expect(inReviewPatch.body.error.code).toBe("revision_frozen");
