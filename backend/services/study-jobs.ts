@@ -89,12 +89,18 @@ export async function openJobQueue(url: string, settings: JobQueueSettings, log:
   return boss;
 }
 
-function filesOf(row: { stack: unknown; study: unknown }): { stack: StackFile; study: StudyFile; prep: PreparedStudy } {
+/** The stored files, validated; the engine thread compiles them itself, so only the dispatcher and the merge prepare here. */
+function filesOf(row: { stack: unknown; study: unknown }): { stack: StackFile; study: StudyFile } {
   const stack = validateStackFile(row.stack);
   if (!stack.ok) throw new EngineInputError(`The stored stack is not valid: ${stack.issues[0]?.path} ${stack.issues[0]?.message}`);
   const study = validateStudy(row.study, stack.stack);
   if (!study.ok) throw new EngineInputError(`The stored study is not valid: ${study.issues[0]?.path} ${study.issues[0]?.message}`);
-  return { stack: stack.stack, study: study.study, prep: prepareStudy(stack.stack, study.study, {}) };
+  return { stack: stack.stack, study: study.study };
+}
+
+function preparedOf(row: { stack: unknown; study: unknown }): PreparedStudy {
+  const { stack, study } = filesOf(row);
+  return prepareStudy(stack, study, {});
 }
 
 /** A study that cannot run whoever tries: it fails, it is not retried. */
@@ -196,7 +202,7 @@ export class JobStudyQueue implements StudyScheduler {
       if (!claimed) continue;
       let prep: PreparedStudy;
       try {
-        prep = filesOf(claimed).prep;
+        prep = preparedOf(claimed);
       } catch (e) {
         await failStudy(this.db, claimed.id, e instanceof Error ? e.message : String(e));
         continue;
@@ -375,7 +381,7 @@ export class StudyJobWorker {
         .from(studyParts)
         .where(eq(studyParts.studyId, studyId))
         .orderBy(asc(studyParts.part));
-      const { prep } = filesOf(s);
+      const prep = preparedOf(s);
       const coord = newCoordinator(prep);
       const states: WorkerState[] = [];
       let lastBlock = 0;
