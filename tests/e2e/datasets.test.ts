@@ -73,7 +73,10 @@ describe("data sets", () => {
     const statList = page.locator('dl[aria-label="Column statistics"]');
     await statList.getByText("40", { exact: true }).waitFor();
     await statList.getByText(/±0\.4° normal/).waitFor();
-    const cpk = await statList.locator("div", { hasText: /^Cpk/ }).locator("dd").innerText();
+    const cpk = await statList
+      .locator("div", { hasText: /^Cpk\s*\d/ })
+      .locator("dd")
+      .innerText();
     expect(Number(cpk.split(/\s/)[0])).toBeGreaterThan(0.5);
     await page.locator('svg[data-chart="tolerance-window"]').waitFor();
     await page

@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import type { Dataset, DatasetColumn, MappingInput } from "@shared/schemas/datasets";
 import type { StackFile } from "@shared/schemas/stack-file";
 import { stackSources, type StackSource } from "@shared/datasets/sources";
@@ -82,7 +82,20 @@ export function ColumnMapping({ dataset, canWrite, onShow }: { dataset: Dataset;
     return out;
   }, [numeric, rev]);
   const [rows, setRows] = useState(initial);
-  useEffect(() => setRows(initial), [initial]);
+  // A refresh of the data set (a lot column chosen, a save) keeps the rows edited here and not yet
+  // saved; another revision starts from its own mapping.
+  const previous = useRef({ initial, rev });
+  useEffect(() => {
+    const before = previous.current;
+    previous.current = { initial, rev };
+    if (before.rev !== rev) return setRows(initial);
+    const same = (a: Row, b: Row) => a.source === b.source && a.unit === b.unit && a.nominal === b.nominal;
+    setRows((r) => {
+      const out: Record<string, Row> = {};
+      for (const [k, v] of Object.entries(initial)) out[k] = r[k] && before.initial[k] && !same(r[k], before.initial[k]) ? r[k] : v;
+      return out;
+    });
+  }, [initial, rev]);
   const update = useUpdateMappings();
   const lotUpdate = useUpdateDataset();
   const labels = dataset.columns.filter((c) => c.kind === "label");
