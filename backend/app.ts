@@ -1,10 +1,10 @@
 import express, { type Express } from "express";
-import helmet from "helmet";
 import { toNodeHandler } from "better-auth/node";
 import { CLIENT_IP_HEADER } from "./auth";
 import type { AppDeps } from "./deps";
 import { errorHandler, notFoundApi } from "./lib/errors";
 import { acceptBodies, sameOrigin } from "./middleware/request-guard";
+import { securityHeaders } from "./middleware/security-headers";
 import { requireSession } from "./middleware/session";
 import { datasetsRouter, UPLOAD_PATHS } from "./routes/datasets";
 import { meRouter } from "./routes/me";
@@ -37,23 +37,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   app.set("query parser", "simple");
   if (options.trustProxy) app.set("trust proxy", options.trustProxy);
 
-  app.use(
-    helmet({
-      contentSecurityPolicy: options.strictCsp
-        ? {
-            directives: {
-              "default-src": ["'self'"],
-              "script-src": ["'self'"],
-              "style-src": ["'self'", "'unsafe-inline'"],
-              "img-src": ["'self'", "data:", "blob:"],
-              "font-src": ["'self'", "data:"],
-              "worker-src": ["'self'", "blob:"],
-              "connect-src": ["'self'"],
-            },
-          }
-        : false,
-    }),
-  );
+  app.use(securityHeaders({ appUrl: deps.baseURL, strictCsp: options.strictCsp }));
 
   // The rate limiter of better-auth keys on this header; only the socket's peer (or, with
   // `trust proxy`, the proxy's forwarded address) may set it.
