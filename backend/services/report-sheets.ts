@@ -197,9 +197,19 @@ export async function renderReportXlsx(c: ReportContent, meta: ReportMeta): Prom
   return Buffer.from(out as ArrayBuffer);
 }
 
+/**
+ * Text a spreadsheet program would read as a formula (or, after a tab or carriage return, as
+ * the start of one) gets a leading apostrophe: names typed by people (project, stack, element,
+ * supplier, user) reach the CSV, and `=HYPERLINK(...)` or `@SUM(...)` there would run when the
+ * file is opened. The usual rule for CSV formula injection; numbers are never text here.
+ */
+export function inertText(s: string): string {
+  return /^[=+\-@\t\r]/.test(s) ? `'${s}` : s;
+}
+
 function csvCell(v: Cell): string {
   if (v === null || v === undefined) return "";
-  const s = typeof v === "number" ? (Number.isFinite(v) ? String(v) : "") : v;
+  const s = typeof v === "number" ? (Number.isFinite(v) ? String(v) : "") : inertText(v);
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
