@@ -20,11 +20,11 @@ import {
   listDatasets,
   listReportDatasets,
   updateDataset,
-  updateMappings,
   uploadDataset,
   uploadForReport,
 } from "../services/datasets";
 import { datasetStatistics } from "../services/dataset-statistics";
+import { updateMappings } from "../services/dataset-mappings";
 
 const upload = multer({
   storage: multer.memoryStorage(),
