@@ -11,13 +11,13 @@
  * The machine's load is printed with every figure: wall-clock figures mean little when other
  * processes share the cores, CPU-seconds mean more.
  */
-import { spawn, type ChildProcess } from "node:child_process";
-import { mkdtempSync, readFileSync, rmSync } from "node:fs";
-import { cpus, loadavg, tmpdir } from "node:os";
+import { readFileSync, rmSync } from "node:fs";
+import { cpus, loadavg } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import autocannon from "autocannon";
 import { EnginePool } from "../engine/pool";
+import { json, signIn, startServer } from "./bench-app";
 import { runStudy } from "@shared/engine/study";
 import { validateStackFile } from "@shared/schemas/stack-file";
 import { validateStudy } from "@shared/schemas/study-file";
@@ -84,48 +84,10 @@ async function engine() {
   }
 }
 
-async function startServer(): Promise<{ child: ChildProcess; url: string; dir: string }> {
-  const dir = mkdtempSync(join(tmpdir(), "orthostack-bench-"));
-  const child = spawn(join(root, "node_modules/.bin/tsx"), [join(root, "backend/cli/bench-server.ts")], {
-    cwd: root,
-    env: { ...process.env, DATA_DIR: dir, SEED_DEMO: "true", NODE_ENV: "production", MAIL_CATCHER_PORT: "0" },
-    stdio: ["ignore", "pipe", "inherit"],
-  });
-  const port = await new Promise<number>((resolve, reject) => {
-    let buf = "";
-    child.stdout!.on("data", (d: Buffer) => {
-      buf += d.toString();
-      const line = buf.split("\n").find((l) => l.startsWith("{"));
-      if (line) resolve(JSON.parse(line).port);
-    });
-    child.on("exit", (code) => reject(new Error(`bench server exited with ${code}`)));
-  });
-  return { child, url: `http://127.0.0.1:${port}`, dir };
-}
-
-async function json(url: string, init: RequestInit = {}, cookie = "") {
-  const r = await fetch(url, {
-    ...init,
-    headers: { "content-type": "application/json", origin: new URL(url).origin, cookie, ...(init.headers ?? {}) },
-  });
-  // eslint-disable-next-line @typescript-eslint/no-explicit-any -- a load script reading a few known fields
-  const body = (await r.json().catch(() => null)) as any;
-  return { status: r.status, body, headers: r.headers };
-}
-
 async function api() {
   const { child, url, dir } = await startServer();
   try {
-    const signIn = await fetch(`${url}/api/auth/sign-in/email`, {
-      method: "POST",
-      headers: { "content-type": "application/json", origin: url },
-      body: JSON.stringify({ email: "engineer@example.com", password: "orthostack-demo" }),
-    });
-    if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status}`);
-    const cookie = signIn.headers
-      .getSetCookie()
-      .map((c) => c.split(";")[0])
-      .join("; ");
+    const cookie = await signIn(url, "engineer@example.com");
     // let the demo study the seed queued finish first: "alone" means no study running
     for (let i = 0; i < 600; i++) {
       const projects = await json(`${url}/api/projects`, {}, cookie);

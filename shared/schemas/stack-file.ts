@@ -11,69 +11,8 @@ import { isSensorKind, SENSOR_KINDS, supportPoints } from "../engine/elements";
 
 export { isSensorKind, SENSOR_KINDS, supportPoints };
 
-// ---------------------------------------------------------------- field issues
-
-export interface FieldIssue {
-  path: string;
-  message: string;
-}
-
-/** ["elements", 2, "size", "x"] -> "elements[2].size.x"; the file itself is "". */
-export function formatPath(path: ReadonlyArray<PropertyKey>): string {
-  let out = "";
-  for (const k of path) {
-    if (typeof k === "number") out += `[${k}]`;
-    else out += out === "" ? String(k) : `.${String(k)}`;
-  }
-  return out;
-}
-
-function describe(v: unknown): string {
-  if (v === null) return "null";
-  if (Array.isArray(v)) return "a list";
-  if (typeof v === "string") return `the text ${JSON.stringify(v.length > 40 ? v.slice(0, 40) + "…" : v)}`;
-  if (typeof v === "object") return "an object";
-  return `${typeof v} ${String(v)}`;
-}
-
-const EXPECTED: Record<string, string> = {
-  number: "a number",
-  string: "a text",
-  object: "an object",
-  array: "a list",
-  boolean: "true or false",
-  null: "null",
-};
-
-/** One zod issue as field issues (unknown keys are reported one by one). */
-export function fromZodIssue(issue: z.core.$ZodIssue): FieldIssue[] {
-  const path = formatPath(issue.path);
-  if (issue.code === "unrecognized_keys") {
-    return issue.keys.map((k) => ({
-      path: formatPath([...issue.path, k]),
-      message: `unknown field "${k}": check the spelling (free-form data belongs in "meta")`,
-    }));
-  }
-  // zod's built-in texts start with "Invalid input"; our own messages are kept as written
-  if (issue.message.startsWith("Invalid input") || issue.message.startsWith("Invalid option")) {
-    const input = (issue as { input?: unknown }).input;
-    if (input === undefined) return [{ path, message: "this field is required" }];
-    if (issue.code === "invalid_type") {
-      return [{ path, message: `expected ${EXPECTED[issue.expected] ?? issue.expected}, got ${describe(input)}` }];
-    }
-    return [{ path, message: `${describe(input)} is not accepted here` }];
-  }
-  return [{ path, message: issue.message }];
-}
-
-export function fromZodError(err: z.ZodError): FieldIssue[] {
-  return err.issues.flatMap(fromZodIssue);
-}
-
-/** The error body of the API: `{"error":{"code","message","fields":[{path,message}]}}`. */
-export function toErrorBody(code: string, message: string, issues: FieldIssue[]) {
-  return { error: { code, message, fields: issues } };
-}
+export { dedupe, formatPath, fromZodError, fromZodIssue, isSizeIssue, toErrorBody, type FieldIssue } from "./field-issues";
+import { dedupe, describe, formatPath, fromZodError, isSizeIssue, type FieldIssue } from "./field-issues";
 
 // ---------------------------------------------------------------- building blocks
 
@@ -113,7 +52,18 @@ export const ElementStageSchema = stageEnum(ELEMENT_STAGES) as unknown as z.ZodE
   product: "product";
 }>;
 
-export const MetaSchema = z.record(z.string(), z.unknown());
+/** Free-form data stays small: it is stored and sent back with every read of the file. */
+export const MAX_META_CHARS = 20_000;
+export const MetaSchema = z.record(z.string(), z.unknown()).superRefine((m, ctx) => {
+  if (JSON.stringify(m).length > MAX_META_CHARS)
+    ctx.addIssue({
+      code: "too_big",
+      origin: "string",
+      maximum: MAX_META_CHARS,
+      inclusive: true,
+      message: `meta is limited to ${MAX_META_CHARS.toLocaleString("en-US")} characters of JSON`,
+    });
+});
 
 /**
  * A tolerance (MODEL.md section 8). ±tol is the half-width; for "normal", tol = sigmas·σ.
@@ -144,7 +94,7 @@ export const ToleranceSchema = z
         z
           .array(finite("a measured value"), { error: "each row must be a list of numbers" })
           .min(2, { error: "a row holds at least two values" })
-          .max(64),
+          .max(MAX_SUPPORTS, { error: `a row holds at most ${MAX_SUPPORTS} values` }),
         {
           error: "rows must be a list of rows",
         },
@@ -216,9 +166,11 @@ export const ElementSchema = z.strictObject({
   kind: z.enum(ELEMENT_KINDS, {
     error: (iss) => `unknown element kind ${JSON.stringify(iss.input)}: use ${ELEMENT_KINDS.map((k) => `"${k}"`).join(", ")}`,
   }),
-  parent: z.union([z.string(), z.null()], { error: "parent must be the id of another element, or null for the board" }),
-  name: z.string().max(200).optional(),
-  notes: z.string().max(5000).optional(),
+  parent: z.union([z.string().max(64, { error: "parent is an element id, at most 64 characters" }), z.null()], {
+    error: "parent must be the id of another element, or null for the board",
+  }),
+  name: z.string().max(200, { error: "a name is limited to 200 characters" }).optional(),
+  notes: z.string().max(5000, { error: "notes are limited to 5,000 characters" }).optional(),
   meta: MetaSchema.optional(),
   stage: ElementStageSchema.optional(),
   position: XYSchema.optional(),
@@ -241,8 +193,8 @@ export const ElementSchema = z.strictObject({
 /** The file's shape alone, without the checks across elements (extendable with `.extend`). */
 export const StackFileObjectSchema = z.strictObject({
   format: z.literal("orthostack.stack/1", { error: `format must be "orthostack.stack/1"` }),
-  name: z.string().max(200).optional(),
-  notes: z.string().max(5000).optional(),
+  name: z.string().max(200, { error: "a name is limited to 200 characters" }).optional(),
+  notes: z.string().max(5000, { error: "notes are limited to 5,000 characters" }).optional(),
   meta: MetaSchema.optional(),
   elements: z
     .array(ElementSchema, { error: "elements must be a list" })
@@ -338,29 +290,36 @@ export function checkStack(file: unknown, add: (issue: { path: (string | number)
     });
   }
 
-  // Cycles: follow the parents from each element; a walk that comes back is a cycle.
-  const reported = new Set<string>();
+  // Cycles: follow the parents from each element, marking every element a walk passes; a walk
+  // that meets its own marks has found a cycle, one that meets an earlier walk's marks stops
+  // there. Each element is walked once: linear in the number of elements.
+  const walkOf = new Map<string, number>();
   els.forEach((e, i) => {
     const start = idOf(e);
-    if (start === undefined) return;
-    const seen: string[] = [];
+    if (start === undefined || walkOf.has(start)) return;
+    const path: string[] = [];
     let cur: Loose | undefined = e;
-    while (cur && typeof cur.parent === "string") {
-      const cid: string = idOf(cur) ?? "";
-      if (seen.includes(cid)) {
-        const loop = seen.slice(seen.indexOf(cid));
-        const key = [...loop].sort().join(",");
-        if (!reported.has(key) && cid === start) {
-          reported.add(key);
+    while (cur) {
+      const cid = idOf(cur);
+      if (cid === undefined) break;
+      const mark = walkOf.get(cid);
+      if (mark !== undefined) {
+        if (mark === i) {
+          // told from the element of the loop that comes first in the file
+          const found = path.slice(path.indexOf(cid));
+          const k = found.reduce((best, id, j) => ((firstIndex.get(id) ?? 0) < (firstIndex.get(found[best]) ?? 0) ? j : best), 0);
+          const loop = [...found.slice(k), ...found.slice(0, k)];
           add({
-            path: ["elements", i, "parent"],
-            message: `cycle: ${[...loop, cid].map((s) => `"${s}"`).join(" sits on ")}; none of them rests on the board`,
+            path: ["elements", firstIndex.get(loop[0]) ?? i, "parent"],
+            message: `cycle: ${cycleWords(loop)}; none of them rests on the board`,
           });
         }
         break;
       }
-      seen.push(cid);
-      cur = cur.parent === cid ? undefined : byId.get(cur.parent);
+      walkOf.set(cid, i);
+      path.push(cid);
+      if (typeof cur.parent !== "string" || cur.parent === cid) break;
+      cur = byId.get(cur.parent);
     }
   });
 
@@ -412,6 +371,13 @@ export function checkStack(file: unknown, add: (issue: { path: (string | number)
   });
 }
 
+/** "a" sits on "b" sits on "a"; a long loop is shortened to its first and last links. */
+function cycleWords(loop: string[]): string {
+  const q = (s: string) => `"${s}"`;
+  if (loop.length <= 6) return [...loop, loop[0]].map(q).join(" sits on ");
+  return `${loop.slice(0, 3).map(q).join(" sits on ")} sits on … (${loop.length} elements) … sits on ${[...loop.slice(-2), loop[0]].map(q).join(" sits on ")}`;
+}
+
 /**
  * Measured rows belong to a source with several draws, one value per draw: the bond line
  * (one per support point), the tilt's `xy` (two) and a single axisTol (six). Anywhere else
@@ -459,16 +425,24 @@ function checkRows(e: Loose, i: number, add: (i: { path: (string | number)[]; me
       add({ path: ["elements", i, "placementTol", k, "rows"], message: "a placement tolerance takes values, not rows" });
 }
 
-/** Points on one line (within a relative tolerance of the footprint). */
+/**
+ * Points on one line (within a relative tolerance of the footprint). Linear: the line through
+ * the first point and the point farthest from it, and the largest triangle any other point
+ * makes with those two. Every point lies on one line exactly when that area is zero.
+ */
 function collinear(pts: { x: number; y: number }[], scale: number): boolean {
-  // Largest triangle area over all triples; small lists only (<= MAX_SUPPORTS, usually 3-8).
+  const a = pts[0];
+  let b = a;
+  let far = 0;
+  for (const p of pts) {
+    const d = (p.x - a.x) ** 2 + (p.y - a.y) ** 2;
+    if (d > far) [far, b] = [d, p];
+  }
   let best = 0;
-  for (let a = 0; a < pts.length; a++)
-    for (let b = a + 1; b < pts.length; b++)
-      for (let c = b + 1; c < pts.length; c++) {
-        const area = Math.abs((pts[b].x - pts[a].x) * (pts[c].y - pts[a].y) - (pts[c].x - pts[a].x) * (pts[b].y - pts[a].y));
-        if (area > best) best = area;
-      }
+  for (const c of pts) {
+    const area = Math.abs((b.x - a.x) * (c.y - a.y) - (c.x - a.x) * (b.y - a.y));
+    if (area > best) best = area;
+  }
   return best <= 1e-9 * scale * scale;
 }
 
@@ -483,17 +457,9 @@ export type StackValidation = { ok: true; stack: StackFile } | { ok: false; issu
 export function validateStackFile(json: unknown): StackValidation {
   const r = StackFileObjectSchema.safeParse(json);
   const issues: FieldIssue[] = r.success ? [] : fromZodError(r.error);
+  // past a size limit, the file is refused on its size: the checks across elements never see it
+  if (!r.success && r.error.issues.some(isSizeIssue)) return { ok: false, issues: dedupe(issues) };
   checkStack(json, (i) => issues.push({ path: formatPath(i.path), message: i.message }));
   if (r.success && issues.length === 0) return { ok: true, stack: r.data };
   return { ok: false, issues: dedupe(issues) };
-}
-
-export function dedupe(issues: FieldIssue[]): FieldIssue[] {
-  const seen = new Set<string>();
-  return issues.filter((i) => {
-    const k = `${i.path}\u0000${i.message}`;
-    if (seen.has(k)) return false;
-    seen.add(k);
-    return true;
-  });
 }

@@ -1,0 +1,106 @@
+/**
+ * npm run bench:bodies: what the largest request bodies cost the server. Starts the app as
+ * `npm run bench` does, then sends each body of tests/backend/security/large-bodies.ts (the
+ * largest the schema's limits admit, the checks across elements at their worst, and bodies just
+ * beyond the limits) several times as a PATCH of a draft revision, while another client asks
+ * GET /api/health every 20 ms. Prints each body's worst request time and the health latency
+ * meanwhile (aim: worst body < 500 ms, health < 100 ms), with the machine's load.
+ *
+ * Options: --repeat N (default 5).
+ */
+import { readFileSync, rmSync } from "node:fs";
+import { cpus, loadavg } from "node:os";
+import { json, signIn, startServer } from "./bench-app";
+import { revisionBodies } from "../../tests/backend/security/large-bodies";
+
+const out = (line: string) => process.stdout.write(line + "\n");
+const load = () =>
+  `load ${loadavg()
+    .map((l) => l.toFixed(2))
+    .join(" ")} on ${cpus().length} cores`;
+const repeat = Number(process.argv[process.argv.indexOf("--repeat") + 1]) || 5;
+const reference = JSON.parse(readFileSync(new URL("../../tests/fixtures/stack-reference.json", import.meta.url), "utf8"));
+
+/** GET /api/health every `everyMs` until stopped; the latencies seen. */
+function healthProbe(url: string, everyMs = 20) {
+  const seen: number[] = [];
+  let running = true;
+  const loop = (async () => {
+    while (running) {
+      const t0 = performance.now();
+      await fetch(`${url}/api/health`).then((r) => r.arrayBuffer());
+      seen.push(performance.now() - t0);
+      await new Promise((r) => setTimeout(r, everyMs));
+    }
+  })();
+  return {
+    stop: async () => {
+      running = false;
+      await loop;
+      return seen;
+    },
+  };
+}
+
+const ms = (v: number) => `${Math.round(v)} ms`;
+const pct = (xs: number[], p: number) => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(p * xs.length))] ?? 0;
+
+async function main() {
+  out(`Orthostack bench:bodies · Node ${process.version} · ${cpus().length} cores · ${load()} at start`);
+  const { child, url, dir } = await startServer();
+  try {
+    const cookie = await signIn(url, "engineer@example.com");
+    const p = await json(`${url}/api/projects`, { method: "POST", body: JSON.stringify({ name: "bench bodies" }) }, cookie);
+    if (p.status !== 201) throw new Error(`project not created: ${p.status}`);
+    const draft = async () => {
+      const r = await json(
+        `${url}/api/projects/${p.body.id}/revisions`,
+        { method: "POST", body: JSON.stringify({ stack: reference }) },
+        cookie,
+      );
+      if (r.status !== 201) throw new Error(`revision not created: ${r.status}`);
+      return r;
+    };
+    out(`PATCH /api/revisions/:id, each body ${repeat} times, GET /api/health every 20 ms meanwhile:`);
+    out(`${"body".padEnd(78)} ${"KiB".padStart(5)} status  worst   median   health p50 / max`);
+    let worstAll = 0;
+    const healthAll: number[] = [];
+    for (const c of revisionBodies(reference)) {
+      const text = JSON.stringify(c.body);
+      const times: number[] = [];
+      const statuses = new Set<number>();
+      const probe = healthProbe(url);
+      for (let i = 0; i < repeat; i++) {
+        const rev = await draft();
+        const etag = rev.headers.get("etag");
+        const body = typeof rev.body.version === "number" ? JSON.stringify({ ...(c.body as object), version: rev.body.version }) : text;
+        const t0 = performance.now();
+        const r = await json(
+          `${url}/api/revisions/${rev.body.id}`,
+          { method: "PATCH", body, headers: etag ? { "if-match": etag } : {} },
+          cookie,
+        );
+        times.push(performance.now() - t0);
+        statuses.add(r.status);
+      }
+      const health = await probe.stop();
+      healthAll.push(...health);
+      worstAll = Math.max(worstAll, ...times);
+      out(
+        `${c.label.padEnd(78)} ${String(Math.round(text.length / 1024)).padStart(5)} ${[...statuses].join("/").padStart(6)}  ${ms(Math.max(...times)).padStart(7)}  ${ms(pct(times, 0.5)).padStart(7)}   ${ms(pct(health, 0.5))} / ${ms(Math.max(...health))}`,
+      );
+    }
+    out(
+      `worst request ${ms(worstAll)}; /api/health p50 ${ms(pct(healthAll, 0.5))}, p99 ${ms(pct(healthAll, 0.99))}, max ${ms(Math.max(...healthAll))} (${healthAll.length} probes); ${load()} at end`,
+    );
+  } finally {
+    child.kill("SIGTERM");
+    await new Promise((r) => child.once("exit", r));
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+main().catch((e) => {
+  process.stderr.write(`bench:bodies failed: ${e instanceof Error ? e.stack : String(e)}\n`);
+  process.exit(1);
+});
