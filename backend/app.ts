@@ -14,6 +14,7 @@ import { projectsRouter } from "./routes/projects";
 import { publicRouter } from "./routes/public";
 import { reportsRouter } from "./routes/reports";
 import { revisionsRouter } from "./routes/revisions";
+import { stackHelpRouter } from "./routes/stack-help";
 import { studiesRouter } from "./routes/studies";
 import { suppliersRouter } from "./routes/suppliers";
 
@@ -64,6 +65,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   app.use("/api", suppliersRouter(deps));
   app.use("/api", membersRouter(deps));
   app.use("/api", revisionsRouter(deps));
+  app.use("/api", stackHelpRouter());
   app.use("/api", studiesRouter(deps));
   // Data sets and reports both own paths under /reports/:id/.
   app.use("/api", datasetsRouter(deps));

@@ -19,6 +19,8 @@ export const PALETTE = {
   board: "#2f4f3f",
   pass: "#15803d",
   fail: "#b91c1c",
+  /** a warning that does not block: geometry slips of a stack */
+  warn: "#b45309",
 } satisfies Record<string, string>;
 export type PaletteName = keyof typeof PALETTE;
 

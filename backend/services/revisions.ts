@@ -17,6 +17,8 @@ import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
 import { checkRequirements, checkStack } from "./stack-check";
+import { geometryWarnings } from "@shared/stack-geometry";
+import { validateStackFile } from "@shared/schemas/stack-file";
 
 const creator = alias(users, "creator");
 const approver = alias(users, "approver");
@@ -101,7 +103,19 @@ export async function getRevision(db: Database, workspaceId: string, id: string)
     .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, id)));
   const r = found(row, "The stack revision");
   const { requirements, ...summary } = r;
-  return { ...toSummary(summary), stack: r.stack, requirements, comments: await listComments(db, "revision", id) };
+  return {
+    ...toSummary(summary),
+    stack: r.stack,
+    requirements,
+    comments: await listComments(db, "revision", id),
+    warnings: warningsOf(r.stack),
+  };
+}
+
+/** Stored stacks were validated when saved; one that no longer validates has no warnings to give. */
+function warningsOf(stack: unknown) {
+  const v = validateStackFile(stack);
+  return v.ok ? geometryWarnings(v.stack) : [];
 }
 
 export async function createRevision(

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { IdSchema } from "./common";
 import { RequirementSchema, type Requirement } from "./study-file";
+import { GeometryWarningSchema } from "./stack-help";
 
 export const RevisionStatusSchema = z.enum(["draft", "in_review", "approved"]);
 export type RevisionStatus = z.infer<typeof RevisionStatusSchema>;
@@ -67,6 +68,8 @@ export const RevisionSchema = RevisionSummarySchema.extend({
   stack: z.record(z.string(), z.unknown()),
   requirements: RequirementsSchema,
   comments: z.array(CommentSchema),
+  /** geometry slips of the stack (overhang, overlap, clearance, body height); never block saving */
+  warnings: z.array(GeometryWarningSchema),
 });
 export type Revision = z.infer<typeof RevisionSchema>;
 export const RevisionListSchema = z.object({ revisions: z.array(RevisionSummarySchema) });

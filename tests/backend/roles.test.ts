@@ -337,6 +337,8 @@ export const ROUTES: Row[] = [
     allowed: STAFF,
     path: () => "/api/geomagnetic-field?latitudeDeg=52&longitudeDeg=-1&altitudeKm=0&date=2026-06-01",
   },
+  { route: "GET /api/typical-tolerances", allowed: STAFF },
+  { route: "GET /api/stack-templates", allowed: STAFF },
   {
     route: "GET /api/projects/:id/report-options",
     allowed: STAFF,

@@ -135,7 +135,7 @@ describe("the stack editor", () => {
     await dialog.getByRole("button", { name: "Create project" }).click();
     await page.getByRole("heading", { name: "Harbour compass module, rev A", level: 1 }).waitFor();
     await page.getByText("No stack yet").waitFor();
-    await page.getByRole("button", { name: "New stack" }).click();
+    await page.getByRole("button", { name: "New stack", exact: true }).click();
 
     // A board only; its size first.
     const tree = page.getByRole("tree", { name: "Elements" });
@@ -154,20 +154,20 @@ describe("the stack editor", () => {
     await tree.getByRole("treeitem", { name: /^pkg,/, selected: true }).waitFor();
     await page.getByLabel("Position x").fill("4");
     await page.getByLabel("Position y").fill("-2");
-    await page.getByRole("button", { name: "Add height of each support tolerance" }).click();
-    await page.getByRole("group", { name: "Height of each support tolerance" }).getByLabel("± Tolerance").fill("12");
+    // a new element starts with the typical tolerances of its place: solder stand-off ±15 µm here
+    const standOff = page.getByRole("group", { name: "Height of each support tolerance" });
+    await expect(standOff.getByLabel("± Tolerance").inputValue()).resolves.toBe("15");
+    await standOff.getByLabel("± Tolerance").fill("12");
 
     // An accelerometer and a magnetometer on it.
     await page.getByRole("button", { name: "Add on pkg" }).click();
     await page.getByRole("menuitem", { name: "Accelerometer die" }).click();
     await tree.getByRole("treeitem", { name: /^accel,/, selected: true }).waitFor();
-    await page.getByRole("button", { name: "Add axis alignment, each angle tolerance" }).click();
     await page.getByRole("group", { name: "Axis alignment, each angle tolerance" }).getByLabel("± Tolerance").fill("0.5");
     await tree.getByRole("treeitem", { name: /^pkg,/ }).click();
     await page.getByRole("button", { name: "Add on pkg" }).click();
     await page.getByRole("menuitem", { name: "Magnetometer die" }).click();
     await tree.getByRole("treeitem", { name: /^mag,/, selected: true }).waitFor();
-    await page.getByRole("button", { name: "Add height of each support tolerance" }).click();
     await page.getByRole("group", { name: "Height of each support tolerance" }).getByLabel("± Tolerance").fill("3");
 
     // Off its parent's footprint: the validator's message under the field, the tree marks it, nothing is saved.

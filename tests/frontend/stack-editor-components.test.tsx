@@ -1,7 +1,8 @@
 import { useMemo, useState, type ReactNode } from "react";
 import { act, cleanup, fireEvent, render, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import type { StackFile } from "@shared/schemas/stack-file";
+import { validateStackFile, type StackFile } from "@shared/schemas/stack-file";
+import { geometryWarnings } from "@shared/stack-geometry";
 import reference from "../fixtures/stack-reference.json" with { type: "json" };
 import { EditorContext, type EditorApi } from "@frontend/features/stack-editor/components/editor-context";
 import { ElementForm } from "@frontend/features/stack-editor/components/element-form";
@@ -38,7 +39,11 @@ function Harness({
   const issues = useMemo(() => indexIssues(validateDoc(doc)), [doc]);
   latest = doc;
   undoLatest = undo;
-  const api: EditorApi = { doc, readOnly, issues, update, setAt, selectedId, select, suppliers: SUPPLIERS };
+  const warnings = useMemo(() => {
+    const v = validateStackFile(doc.stack);
+    return indexIssues(v.ok ? geometryWarnings(v.stack) : []).elements;
+  }, [doc]);
+  const api: EditorApi = { doc, readOnly, issues, update, setAt, selectedId, select, suppliers: SUPPLIERS, warnings };
   return <EditorContext.Provider value={api}>{children}</EditorContext.Provider>;
 }
 
@@ -76,7 +81,8 @@ describe("the element form", () => {
     );
     expect(latest.stack.elements[magIndex].tiltTol).toBeUndefined();
     fireEvent.click(screen.getByRole("button", { name: "Add tilt about x tolerance" }));
-    expect(latest.stack.elements[magIndex].tiltTol).toEqual({ x: { dist: "normal", tol: 0 } });
+    // a new tolerance starts from the typical value of its place (a die on a die), never ±0
+    expect(latest.stack.elements[magIndex].tiltTol).toEqual({ x: { dist: "normal", tol: 0.1 } });
     const group = screen.getByRole("group", { name: "Tilt about x tolerance" });
     fireEvent.change(within(group).getByLabelText("± Tolerance"), { target: { value: "0.05" } });
     fireEvent.change(within(group).getByLabelText("Distribution"), { target: { value: "uniform" } });
@@ -84,6 +90,38 @@ describe("the element form", () => {
     expect(within(group).queryByLabelText("Sigmas")).toBeNull(); // sigmas belongs to normal tolerances only
     fireEvent.click(within(group).getByRole("button", { name: "Remove tilt about x tolerance" }));
     expect(latest.stack.elements[magIndex].tiltTol).toBeUndefined();
+  });
+
+  it("shows the typical range beside a tolerance and puts it back on request", () => {
+    render(
+      <Harness initial={doc()}>
+        <ElementForm index={magIndex} />
+      </Harness>,
+    );
+    // the reference magnetometer's axis alignment is ±0.6°; a magnetometer die is typically ±1°
+    const axis = screen.getByRole("group", { name: "Axis alignment, each angle tolerance" });
+    expect(within(axis).getByText("typical ±1°")).toBeTruthy();
+    const bond = screen.getByRole("group", { name: "Height of each support tolerance" });
+    expect(within(bond).getByText("typical ±5 µm")).toBeTruthy();
+    fireEvent.change(within(axis).getByLabelText("Mean shift"), { target: { value: "0.2" } });
+    fireEvent.click(within(axis).getByRole("button", { name: /Use the typical value for magnetometer sensing-axis alignment/ }));
+    expect(latest.stack.elements[magIndex].axisTol).toEqual({ dist: "normal", tol: 1 });
+    // once typical, the button goes
+    expect(within(axis).queryByRole("button", { name: /Use the typical value/ })).toBeNull();
+  });
+
+  it("shows a geometry warning next to the element it belongs to", () => {
+    const d = doc();
+    // the magnetometer (0.9 × 0.5 mm, turned 90°: 0.25 mm either side in x) moved to x = 0.4 on
+    // the 1.1 mm wide accelerometer reaches 0.65 mm, 0.1 mm past its 0.55 mm edge
+    d.stack.elements[magIndex].position = { x: 0.4, y: 0 };
+    render(
+      <Harness initial={d}>
+        <ElementForm index={magIndex} />
+      </Harness>,
+    );
+    const list = screen.getByRole("list", { name: "Geometry warnings of mag" });
+    expect(list.textContent).toMatch(/"mag" hangs 0\.1 mm past the edge of its parent "accel"/);
   });
 
   it("renames an element only when the new id is complete and free", () => {

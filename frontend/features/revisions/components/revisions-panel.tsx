@@ -23,6 +23,7 @@ import { useCreateDraftFrom } from "../api/create-draft";
 import { useCreateRevision } from "../api/create-revision";
 import { useRevisions } from "../api/get-revisions";
 import { RevisionStatusChip } from "./revision-status-chip";
+import { TemplateDialog } from "./template-dialog";
 
 const StackIcon = () => (
   <svg
@@ -48,6 +49,7 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
   const navigate = useNavigate();
   const input = useRef<HTMLInputElement>(null);
   const [refused, setRefused] = useState<{ fileName: string; message: string; issues: ImportIssue[] } | null>(null);
+  const [templatesOpen, setTemplatesOpen] = useState(false);
   const open = (id: string) => navigate(`/projects/${projectId}/revisions/${id}`);
 
   async function importFile(file: File) {
@@ -99,6 +101,9 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
       <Button size="sm" variant="ghost" onClick={() => input.current?.click()} disabled={create.isPending}>
         Import stack file…
       </Button>
+      <Button size="sm" variant="secondary" onClick={() => setTemplatesOpen(true)} disabled={create.isPending}>
+        New stack from a template…
+      </Button>
       <Button
         size="sm"
         variant="primary"
@@ -131,7 +136,7 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
       ) : list.length === 0 ? (
         <EmptyState icon={<StackIcon />} title="No stack yet" className="py-8">
           {canWrite
-            ? "Start from a board and add the substrate, ASIC and dies in the editor, or import a stack file."
+            ? "Start from a template with typical tolerances, from a bare board, or import a stack file."
             : "An engineer has not entered this project's stack yet."}
         </EmptyState>
       ) : (
@@ -222,6 +227,29 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
       {create.isError && !refused ? <p className="border-t border-line px-4 py-2 text-xs text-fail">{create.error.message}</p> : null}
       {draft.isError ? <p className="border-t border-line px-4 py-2 text-xs text-fail">{draft.error.message}</p> : null}
       {refused ? <ImportIssuesDialog open onClose={() => setRefused(null)} {...refused} /> : null}
+      {canWrite ? (
+        <TemplateDialog
+          open={templatesOpen}
+          onClose={() => setTemplatesOpen(false)}
+          pending={create.isPending}
+          onChoose={(t) =>
+            create.mutate(
+              {
+                projectId,
+                stack: { ...t.stack, name: projectName },
+                requirements: t.requirements,
+                note: `New stack from the template "${t.name}".`,
+              },
+              {
+                onSuccess: (rev) => {
+                  setTemplatesOpen(false);
+                  open(rev.id);
+                },
+              },
+            )
+          }
+        />
+      ) : null}
     </Panel>
   );
 }

@@ -3,7 +3,7 @@
  * the tree, the form, the tables and the estimate stay in step without prop chains.
  */
 import { createContext, useContext } from "react";
-import type { IssueIndex } from "../lib/issues";
+import type { IssueIndex, LocalIssue } from "../lib/issues";
 import type { EditorDoc, Path } from "../lib/stack-ops";
 
 export interface EditorApi {
@@ -18,6 +18,8 @@ export interface EditorApi {
   select: (id: string | null) => void;
   /** names of the workspace's supplier companies, for tolerance owners */
   suppliers: string[];
+  /** geometry warnings (overhang, overlap, clearance, body height) by element index; they do not block saving */
+  warnings: Map<number, LocalIssue[]>;
 }
 
 export const EditorContext = createContext<EditorApi | null>(null);

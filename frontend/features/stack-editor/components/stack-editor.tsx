@@ -9,6 +9,7 @@ import { Link, useBlocker, useNavigate } from "react-router";
 import type { Me, Project } from "@shared/schemas/api";
 import type { Revision } from "@shared/schemas/revisions";
 import { validateStackFile, type StackFile } from "@shared/schemas/stack-file";
+import { geometryWarnings } from "@shared/stack-geometry";
 import type { Requirement } from "@shared/schemas/study-file";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
@@ -155,9 +156,13 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
     if (selectedIndex < 0 && doc.stack.elements.length) setSelectedId(doc.stack.elements[0].id);
   }, [selectedIndex, doc.stack.elements]);
 
+  const slips = useMemo(() => (stackValidation.ok ? geometryWarnings(stackValidation.stack) : []), [stackValidation]);
+  const warnings = useMemo(() => indexIssues(slips).elements, [slips]);
+  const flaggedIds = useMemo(() => [...warnings.keys()].flatMap((i) => doc.stack.elements[i]?.id ?? []), [warnings, doc.stack]);
+
   const api: EditorApi = useMemo(
-    () => ({ doc, readOnly, issues, update, setAt, selectedId, select, suppliers }),
-    [doc, readOnly, issues, update, setAt, selectedId, select, suppliers],
+    () => ({ doc, readOnly, issues, update, setAt, selectedId, select, suppliers, warnings }),
+    [doc, readOnly, issues, update, setAt, selectedId, select, suppliers, warnings],
   );
 
   // Ctrl+Z, Ctrl+Shift+Z and Ctrl+Y act on the document, also from inside a field.
@@ -374,6 +379,7 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
                 }))}
                 selectedId={selectedId}
                 onSelect={select}
+                flaggedIds={flaggedIds}
                 className="h-full"
               />
             </Suspense>

@@ -15,7 +15,8 @@ import type { Path } from "../lib/stack-ops";
 import { sigmaOf, type ToleranceUnit } from "../lib/tolerance-rows";
 import { useEditor } from "./editor-context";
 import { FieldShell, NumberInput, SelectInput, TextInput } from "./fields";
-import { formatNumber, unitText } from "@shared/format";
+import { formatNumber, formatPlain, unitText } from "@shared/format";
+import { toleranceFrom, type TypicalTolerance } from "@shared/typical-tolerances";
 
 export const DIST_LABEL: Record<Tolerance["dist"], string> = {
   normal: "Normal",
@@ -178,8 +179,37 @@ export function OwnerPicker({
   );
 }
 
-/** The default of a new tolerance: normal, ±0 until the engineer types the real value. */
+/**
+ * The start of a new tolerance where no typical value is known (typical-tolerances.ts has
+ * one for every slot of the form); the engineer types the real value.
+ */
 export const NEW_TOLERANCE: Tolerance = { dist: "normal", tol: 0 };
+
+/** "typical ±5 µm (normal)", the hint beside a tolerance. */
+export function typicalText(t: TypicalTolerance): string {
+  return `typical ±${formatPlain(t.tol)}${t.unit === "deg" ? "°" : ` ${unitText(t.unit)}`}${t.dist === "normal" ? "" : ` (${t.dist})`}`;
+}
+
+function TypicalHint({ typical, tol, onUse }: { typical: TypicalTolerance; tol: Tolerance | undefined; onUse?: () => void }) {
+  const same = tol !== undefined && tol.dist === typical.dist && tol.tol === typical.tol;
+  return (
+    <span className="inline-flex items-center gap-1">
+      <span className="text-[10.5px] text-ink/50" title={`${typical.label}: ${typical.note} (${typical.basis})`}>
+        {typicalText(typical)}
+      </span>
+      {onUse && tol !== undefined && !same ? (
+        <button
+          type="button"
+          onClick={onUse}
+          className="rounded px-1 text-[10.5px] font-semibold text-gyro hover:bg-gyro/[0.07]"
+          aria-label={`Use the typical value for ${typical.label.toLowerCase()}`}
+        >
+          Use typical
+        </button>
+      ) : null}
+    </span>
+  );
+}
 
 /**
  * One tolerance slot of the element form. Absent means zero (MODEL.md section 9);
@@ -194,6 +224,7 @@ export function ToleranceFields({
   inheritedStage,
   issues,
   sourceId,
+  typical,
 }: {
   label: string;
   /** document path of the tolerance */
@@ -205,8 +236,18 @@ export function ToleranceFields({
   inheritedStage: string;
   issues: LocalIssue[] | undefined;
   sourceId: string;
+  /** the typical value of this slot: shown beside it, and where a new tolerance starts */
+  typical?: TypicalTolerance;
 }) {
   const { setAt, readOnly, suppliers } = useEditor();
+  // keeps the stage and owner already chosen; takes the typical distribution and half-width
+  const applyTypical = typical
+    ? () => {
+        const { sigmas: _s, values: _v, rows: _r, mean: _m, ...keep } = tol ?? { dist: typical.dist };
+        void [_s, _v, _r, _m];
+        setAt(path, { ...keep, ...toleranceFrom(typical) });
+      }
+    : undefined;
   const u = unitText(unit);
   const key = path.join(".");
   const err = (sub: string) => fieldError(issues, `${field}.${sub}`);
@@ -219,13 +260,18 @@ export function ToleranceFields({
         <div className="min-w-0">
           <span className="text-xs font-semibold text-ink/70">{label}</span>
           <span className="ml-2 font-mono text-[10.5px] text-ink/40">{sourceId}</span>
+          {typical ? (
+            <span className="ml-2">
+              <TypicalHint typical={typical} tol={undefined} />
+            </span>
+          ) : null}
         </div>
         {readOnly ? (
           <span className="text-[11px] text-ink/45">None (zero)</span>
         ) : (
           <button
             type="button"
-            onClick={() => setAt(path, NEW_TOLERANCE)}
+            onClick={() => setAt(path, typical ? toleranceFrom(typical) : NEW_TOLERANCE)}
             className="inline-flex h-6 items-center gap-1 rounded px-1.5 text-[11px] font-semibold text-gyro hover:bg-gyro/[0.07]"
             aria-label={`Add ${label.toLowerCase()} tolerance`}
           >
@@ -245,6 +291,7 @@ export function ToleranceFields({
           <span className="ml-2 font-mono text-[10.5px] text-ink/40">{sourceId}</span>
         </div>
         <div className="flex items-center gap-1.5">
+          {typical ? <TypicalHint typical={typical} tol={tol} onUse={readOnly ? undefined : applyTypical} /> : null}
           <span className="num text-[11px] text-ink/45" title="One standard deviation of this source">
             σ = {formatNumber(sigma)} {u}
           </span>

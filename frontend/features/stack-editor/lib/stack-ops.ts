@@ -5,6 +5,7 @@
  * history can keep the old one.
  */
 import type { ElementKind, StackElement, StackFile } from "@shared/schemas/stack-file";
+import { toleranceFrom, typicalForSlot } from "@shared/typical-tolerances";
 import type { Requirement } from "@shared/schemas/study-file";
 
 /** What the editor edits and saves: the stack file and the revision's requirements. */
@@ -137,6 +138,12 @@ export function newElement(stack: StackFile, parentId: string, kind: ElementKind
   const s = NEW_SIZE[kind];
   const fit = (v: number, p: number | undefined) => (p && p > 0 ? Math.min(v, Math.max(0.05, round(p * 0.8, 0.05))) : v);
   const size = { x: +fit(s.x, parent?.size?.x).toFixed(2), y: +fit(s.y, parent?.size?.y).toFixed(2), z: s.z };
+  // the sources that turn the element start from their typical values, never from zero
+  const typical = (slot: string[]) => {
+    const t = typicalForSlot({ kind, parent: parentId }, slot, parent?.kind);
+    return t ? toleranceFrom(t) : undefined;
+  };
+  const axis = typical(["axisTol"]);
   return {
     id: uniqueId(stack, kind),
     kind,
@@ -144,7 +151,9 @@ export function newElement(stack: StackFile, parentId: string, kind: ElementKind
     ...(kind === "substrate" && parent?.kind === "board" ? { stage: "board" as const } : {}),
     position: { x: 0, y: 0 },
     size,
-    bondLine: { thicknessUm: kind === "substrate" ? 60 : 20 },
+    bondLine: { thicknessUm: kind === "substrate" ? 60 : 20, heightTol: typical(["bondLine", "heightTol"]) },
+    placementTol: { yawDeg: typical(["placementTol", "yawDeg"]) },
+    ...(axis ? { axisTol: axis } : {}),
   };
 }
 

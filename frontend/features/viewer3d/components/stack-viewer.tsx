@@ -37,6 +37,8 @@ export type StackViewerProps = {
   onTrialChange?: (trialIndex: number | null) => void;
   selectedId?: string | null;
   onSelect?: (id: string) => void;
+  /** elements with a geometry warning (ids): outlined in the warning colour */
+  flaggedIds?: readonly string[];
   className?: string;
 };
 
@@ -48,6 +50,7 @@ export default function StackViewer({
   onTrialChange,
   selectedId,
   onSelect,
+  flaggedIds,
   className,
 }: StackViewerProps) {
   const pose = useViewerPose({ stack, study, worstTrials, trialIndex, onTrialChange });
@@ -63,6 +66,19 @@ export default function StackViewer({
   const [ownSelected, setOwnSelected] = useState<string | null>(null);
   const selected = selectedId !== undefined ? selectedId : ownSelected;
   const selectedIndex = selected ? ids.indexOf(selected) : -1;
+  const flaggedKey = (flaggedIds ?? []).join("|");
+  const flagged = useMemo(
+    () =>
+      new Set(
+        flaggedKey
+          ? flaggedKey
+              .split("|")
+              .map((id) => ids.indexOf(id))
+              .filter((i) => i >= 0)
+          : [],
+      ),
+    [flaggedKey, ids],
+  );
   const handleSelect = useCallback(
     (index: number) => {
       const id = ids[index];
@@ -161,6 +177,7 @@ export default function StackViewer({
               showAxes={showAxes}
               hoveredIndex={hover?.index ?? null}
               selectedIndex={selectedIndex >= 0 ? selectedIndex : null}
+              flagged={flagged}
               view={view}
               onHover={handleHover}
               onSelect={handleSelect}
@@ -181,6 +198,16 @@ export default function StackViewer({
           open={settings.legendOpen}
           onToggle={() => setLegendOpen((o) => !o)}
         />
+
+        {flagged.size ? (
+          <p
+            data-testid="viewer-geometry-warnings"
+            className="absolute right-2 bottom-2 z-[5] max-w-[60%] rounded bg-[#0f161d]/85 px-2 py-1 text-[11px] text-paper/90"
+          >
+            <span className="mr-1 inline-block size-2 rounded-full bg-warn align-middle" aria-hidden="true" />
+            Geometry warning on {[...flagged].map((i) => ids[i]).join(", ")}: outlined in amber
+          </p>
+        ) : null}
 
         {/* hover tooltip */}
         <div

@@ -31,7 +31,8 @@ import { boardBounds, emptyBounds, fitDistance, packageBounds, packageFilter, pr
 import { labelTexture } from "../lib/label-texture";
 import { AXIS_COLOUR, AXIS_NAMES, KIND_COLOUR } from "../lib/palette";
 import type { PoseSet } from "../lib/poses";
-import { clippedMaterials, disposeMaterials, lighten, makeMaterials, useSharedGeometry } from "../lib/scene-materials";
+import { useElementHighlight } from "../hooks/use-element-highlight";
+import { clippedMaterials, disposeMaterials, makeMaterials, useSharedGeometry } from "../lib/scene-materials";
 import { FOV, type HoverInfo, noRaycast, type SceneApi, type SectionState, type ViewRequest } from "../lib/scene-types";
 import { ShownPose } from "../lib/shown-pose";
 import { HEAD_L, HEAD_R, SHAFT_R, triadLayout } from "../lib/triad-layout";
@@ -51,6 +52,8 @@ export interface ViewerSceneProps {
   showAxes: boolean;
   hoveredIndex: number | null;
   selectedIndex: number | null;
+  /** elements with a geometry warning: their outline is drawn in the warning colour */
+  flagged: ReadonlySet<number>;
   view: ViewRequest;
   onHover: (info: HoverInfo | null) => void;
   onSelect: (index: number) => void;
@@ -62,8 +65,8 @@ export interface ViewerSceneProps {
 // ---------------------------------------------------------------- scene
 
 export function ViewerScene(props: ViewerSceneProps) {
-  const { stack, poseSet, exaggeration, explode, section, showAxes, hoveredIndex, selectedIndex, view, onHover, onSelect, onApi, onFrame } =
-    props;
+  const { stack, poseSet, exaggeration, explode, section, showAxes, hoveredIndex, selectedIndex, flagged, view } = props;
+  const { onHover, onSelect, onApi, onFrame } = props;
   const gl = useThree((s) => s.gl);
   const camera = useThree((s) => s.camera) as PerspectiveCamera;
   const size = useThree((s) => s.size);
@@ -113,22 +116,8 @@ export function ViewerScene(props: ViewerSceneProps) {
     // eslint-disable-next-line react-hooks/exhaustive-deps -- see the line above
   }, [gl, materials, plane, sectionOn, invalidate]);
 
-  // ---- hover and selection highlight
-  useLayoutEffect(() => {
-    materials.elements.forEach((m, i) => {
-      const kind = stack.elements[i]?.kind;
-      if (!kind) return;
-      const base = KIND_COLOUR[kind];
-      const selected = i === selectedIndex,
-        hovered = i === hoveredIndex;
-      m.body.emissive.set(base);
-      m.body.emissiveIntensity = selected ? 0.42 : hovered ? 0.3 : 0;
-      m.edge.color.copy(selected ? new Color("#ffffff") : lighten(base, kind === "board" ? 0.25 : 0.45));
-      m.edge.opacity = selected ? 1 : kind === "board" ? 0.55 : 0.9;
-    });
-    version.current++;
-    invalidate();
-  }, [materials, stack, hoveredIndex, selectedIndex, invalidate]);
+  // ---- hover, selection and geometry-warning highlight
+  useElementHighlight(materials, stack, hoveredIndex, selectedIndex, flagged, version, invalidate);
 
   // ---- sensing-axis arrows (instanced: three per sensor, solid and see-through)
   const triads = useMemo(() => triadLayout(stack), [stack]);
