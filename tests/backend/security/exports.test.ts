@@ -93,7 +93,7 @@ beforeAll(async () => {
   const released = await t.call("POST", `/api/reports/${reportId}/release`, { cookie: c.reviewer, body: { comment: "ok" } });
   expect(released.status, JSON.stringify(released.body)).toBe(200);
   csv = (await download(`/api/reports/${reportId}/csv`)).toString("utf8").slice(1);
-});
+}, 180_000); // a study result and a released report's three files are made here
 afterAll(async () => t?.close());
 
 const fact = (rows: string[][], key: string) => rows.find((r) => r[0] === key)?.[1];
