@@ -17,6 +17,7 @@ import { revisionsRouter } from "./routes/revisions";
 import { stackHelpRouter } from "./routes/stack-help";
 import { studiesRouter } from "./routes/studies";
 import { suppliersRouter } from "./routes/suppliers";
+import { whatIfRouter } from "./routes/what-if";
 
 export const JSON_LIMIT = "2mb";
 
@@ -67,6 +68,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   app.use("/api", revisionsRouter(deps));
   app.use("/api", stackHelpRouter());
   app.use("/api", studiesRouter(deps));
+  app.use("/api", whatIfRouter(deps));
   // Data sets and reports both own paths under /reports/:id/.
   app.use("/api", datasetsRouter(deps));
   app.use("/api", reportsRouter(deps));

@@ -4,6 +4,7 @@ import type { Database } from "./db/client";
 import type { MailService } from "./services/mail";
 import type { EnginePool } from "./engine/pool";
 import type { StudyScheduler } from "./services/study-queue";
+import type { WhatIfQueue } from "./services/what-if-queue";
 
 /** Writes a line of the server's log; an error goes with the message it explains. */
 export type Log = (message: string, err?: unknown) => void;
@@ -30,6 +31,8 @@ export type AppDeps = {
   queueStatus?: () => Promise<QueueStatus>;
   /** The warm engine worker threads, created at start and stopped at shutdown; the queue runs on it. */
   enginePool: EnginePool;
+  /** Sweeps and allocations (issue 12): queued beside the studies, run on the same pool. */
+  whatIfQueue: WhatIfQueue;
 };
 
 export const systemClock: Clock = () => new Date();

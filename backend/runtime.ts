@@ -15,6 +15,7 @@ import { StudyQueue, type StudyRunner, type StudyScheduler } from "./services/st
 import { jobSettingsOf, startServerMode } from "./services/server-mode";
 import { engineRunner } from "./services/study-runner";
 import { ENGINE_NICE, EnginePool } from "./engine/pool";
+import { poolExecutor, WhatIfQueue, type WhatIfExecutorFactory } from "./services/what-if-queue";
 
 /** Something that starts with the server and stops with it; stopped in reverse order. */
 export type Lifecycle = { name: string; start?: () => Promise<void> | void; stop?: () => Promise<void> | void };
@@ -37,6 +38,8 @@ export type RuntimeParts = {
   mail: MailSettings | MailService | null;
   /** Runs the queue's studies; default the engine pool below (tests may pass their own). */
   runner?: StudyRunner;
+  /** Runs the what-if queue's studies; default the engine pool (tests may pass their own). */
+  whatIfExecutor?: WhatIfExecutorFactory;
   /** Worker threads of the engine pool; default one per core. */
   engineThreads?: number;
   seedSteps: readonly SeedStep[] | null;
@@ -57,6 +60,7 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
   // Warm worker threads for every study; niced, so the request thread keeps answering while they work.
   const enginePool = new EnginePool({ threads: parts.engineThreads, nice: ENGINE_NICE, log });
   const studyQueue = parts.serverMode?.studyQueue ?? new StudyQueue(handle.db, parts.runner ?? engineRunner(enginePool), log);
+  const whatIfQueue = new WhatIfQueue(handle.db, parts.whatIfExecutor ?? poolExecutor(enginePool), log);
   const deps: AppDeps = {
     db: handle.db,
     auth: parts.auth,
@@ -66,6 +70,7 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
     mail,
     studyQueue,
     enginePool,
+    whatIfQueue,
     queueStatus: parts.serverMode?.queueStatus,
   };
   const lifecycle: Lifecycle[] = [
@@ -74,6 +79,7 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
     { name: "engine pool", stop: () => enginePool.stop() },
     { name: "job queue", stop: parts.serverMode ? () => parts.serverMode!.stop() : undefined },
     { name: "study queue", start: () => studyQueue.start(), stop: () => studyQueue.stop() },
+    { name: "what-if queue", start: () => whatIfQueue.start(), stop: () => whatIfQueue.stop() },
   ];
   return { deps, handle, seedSteps: parts.seedSteps, lifecycle };
 }

@@ -15,6 +15,8 @@ export const RIGHTS = [
   "revisions.comment",
   "revisions.review",
   "studies.run",
+  /** sweeps and tolerance allocations on a revision (issue 12) */
+  "whatif.run",
   "datasets.write",
   /** measurements sent against a released report (staff who write, and its supplier) */
   "datasets.send",
@@ -54,6 +56,7 @@ export const ROLE_RIGHTS: Record<Role, readonly Right[]> = {
     "revisions.write",
     "revisions.review",
     "studies.run",
+    "whatif.run",
     "datasets.write",
     "datasets.send",
     "suppliers.write",
@@ -62,7 +65,16 @@ export const ROLE_RIGHTS: Record<Role, readonly Right[]> = {
     "reports.write",
     "reports.release",
   ],
-  engineer: [...STAFF_READ, "projects.write", "revisions.write", "studies.run", "datasets.write", "datasets.send", "reports.write"],
+  engineer: [
+    ...STAFF_READ,
+    "projects.write",
+    "revisions.write",
+    "studies.run",
+    "whatif.run",
+    "datasets.write",
+    "datasets.send",
+    "reports.write",
+  ],
   reviewer: [...STAFF_READ, "revisions.review", "reports.release"],
   supplier: ["notifications.read", "reports.read", "reports.comment", "reports.inbox", "reports.acknowledge", "datasets.send"],
 };

@@ -16,6 +16,9 @@ import { wilson } from "../engine/stats";
 import { costAt, type CostModel } from "./cost";
 import { leastCost } from "./least-cost";
 
+/** The first extra budget cut for a requirement a round left short of being shown (then doubled). */
+const STALL_CUT = 0.005;
+
 export type LoopSource = { id: string; current: number; free: boolean; cost: CostModel; min: number; max: number };
 export type LoopRequirement = { metric: string; max: number; yield: number };
 export type VerifiedRequirement = {
@@ -114,6 +117,7 @@ export async function allocate(input: LoopInput): Promise<LoopResult> {
   let chosen: Round | null = null;
   let feasible = true;
   let allAtUpperBound = false;
+  const short = requirements.map(() => 0);
   for (let round = 1; round <= maxRounds; round++) {
     const lc = leastCost(
       sources.map((s, j) => ({
@@ -136,9 +140,16 @@ export async function allocate(input: LoopInput): Promise<LoopResult> {
     if (r.demonstrated && (!chosen || r.cost < chosen.cost)) chosen = r;
     if (r.demonstrated && (r.closest >= closeShare || allAtUpperBound)) break;
     if (!feasible && !r.demonstrated) break;
-    // correct the budgets with the ratio measured at this proposal
+    // correct the budgets with the ratio measured at this proposal; a requirement still not
+    // shown gets a small extra cut that doubles each round it stays short: with common random
+    // numbers the ratio alone can stall a hair above the limit, where a tiny change of the
+    // tolerances moves no trial across it
     A = input.linearise(T);
-    budgets = budgetsFrom(A, T, r, requirements, spread);
+    budgets = budgetsFrom(A, T, r, requirements, spread).map((b, k) => {
+      if (r.requirements[k].ci[0] >= requirements[k].yield) return b;
+      short[k]++;
+      return b * (1 - Math.min(0.2, STALL_CUT * 2 ** (short[k] - 1)));
+    });
   }
   return { current, rounds, chosen, feasible, allAtUpperBound };
 }

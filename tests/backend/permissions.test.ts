@@ -34,6 +34,7 @@ describe("rights table", () => {
     ["revisions.write", ["admin", "engineer"]],
     ["revisions.review", ["admin", "reviewer"]],
     ["studies.run", ["admin", "engineer"]],
+    ["whatif.run", ["admin", "engineer"]],
     ["reports.release", ["admin", "reviewer"]],
     ["reports.acknowledge", ["supplier"]],
     ["members.manage", ["admin"]],

@@ -19,6 +19,7 @@ import {
   supplierContacts,
   suppliers,
   users,
+  whatIfRuns,
 } from "@backend/db/schema";
 import type { Role } from "@shared/schemas/common";
 import { startTestApp, type TestApp } from "./harness";
@@ -104,6 +105,34 @@ async function freshStudy(c: Ctx, status: "queued" | "failed" | "finished" = "qu
     })
     .returning();
   return s.id;
+}
+/** A finished what-if run (a sweep with no points, or a verified allocation that tightens mag.axis). */
+async function freshWhatIf(c: Ctx, kind: "sweep" | "allocation") {
+  const revisionId = await freshRevision(c);
+  const [rev] = await c.t.handle.db.select().from(stackRevisions).where(eq(stackRevisions.id, revisionId));
+  const cost = { a: 0.1, b: 0.05, k: 2 };
+  const source = { source: "mag.axis", unit: "deg", free: true, current: 0.6, proposed: 0.5, cost, min: 0.06, max: 1.8 };
+  const result =
+    kind === "sweep"
+      ? { points: [], crossings: [] }
+      : {
+          verified: true,
+          trials: STUDY.trials,
+          seed: STUDY.seed,
+          message: "fixture",
+          method: "fixture",
+          sources: [{ ...source, costCurrent: 0.24, costProposed: 0.3, atBound: null, noInfluence: false }],
+          requirements: [],
+          rounds: [],
+          totalCostCurrent: 0.24,
+          totalCostProposed: 0.3,
+        };
+  const input = kind === "sweep" ? { study: STUDY, parameter: "mag.axis", values: [0.3, 0.6] } : { study: STUDY };
+  const [w] = await c.t.handle.db
+    .insert(whatIfRuns)
+    .values({ workspaceId: c.workspaceId, projectId: rev.projectId, revisionId, kind, status: "finished", input, stack: REFERENCE, result })
+    .returning();
+  return w.id;
 }
 async function freshInvitation(c: Ctx) {
   const [i] = await c.t.handle.db
@@ -332,6 +361,26 @@ export const ROUTES: Row[] = [
   { route: "GET /api/studies/:id", allowed: STAFF, path: async (c) => `/api/studies/${await freshStudy(c)}` },
   { route: "POST /api/studies/:id/cancel", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c)}/cancel` },
   { route: "POST /api/studies/:id/rerun", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c, "failed")}/rerun` },
+  {
+    route: "POST /api/revisions/:id/sweeps",
+    allowed: WRITERS,
+    path: async (c) => `/api/revisions/${await freshRevision(c)}/sweeps`,
+    body: () => ({ study: STUDY, parameter: "mag.axis", values: [0.3, 0.6] }),
+  },
+  { route: "GET /api/sweeps/:id", allowed: STAFF, path: async (c) => `/api/sweeps/${await freshWhatIf(c, "sweep")}` },
+  {
+    route: "POST /api/revisions/:id/allocations",
+    allowed: WRITERS,
+    path: async (c) => `/api/revisions/${await freshRevision(c)}/allocations`,
+    body: () => ({ study: STUDY, free: ["mag.axis"] }),
+  },
+  { route: "GET /api/allocations/:id", allowed: STAFF, path: async (c) => `/api/allocations/${await freshWhatIf(c, "allocation")}` },
+  {
+    route: "POST /api/allocations/:id/apply",
+    allowed: WRITERS,
+    path: async (c) => `/api/allocations/${await freshWhatIf(c, "allocation")}/apply`,
+  },
+  { route: "GET /api/inclination-grid", allowed: STAFF, path: () => "/api/inclination-grid?date=2026-06-01&stepDeg=10" },
   {
     route: "GET /api/geomagnetic-field",
     allowed: STAFF,

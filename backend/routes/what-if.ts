@@ -1,0 +1,47 @@
+import { Router } from "express";
+import { IdParamsSchema } from "@shared/schemas/common";
+import { CreateAllocationSchema, CreateSweepSchema, InclinationGridQuerySchema } from "@shared/schemas/what-if";
+import type { AppDeps } from "../deps";
+import { parse } from "../lib/validate";
+import { actorOf, allow } from "../middleware/session";
+import { inclinationGrid } from "../services/geomagnetic";
+import { applyAllocation, createAllocation, createSweep, getAllocation, getSweep } from "../services/what-if";
+
+/** Sweeps, allocations and the inclination map (issue 12). */
+export function whatIfRouter({ db, whatIfQueue }: AppDeps) {
+  const r = Router();
+
+  r.post("/revisions/:id/sweeps", allow("whatif.run"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const input = parse(CreateSweepSchema, req);
+    res.status(202).json(await createSweep(db, whatIfQueue, actorOf(req), id, input));
+  });
+
+  r.get("/sweeps/:id", allow("projects.read"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.json(await getSweep(db, actorOf(req).workspaceId, id));
+  });
+
+  r.post("/revisions/:id/allocations", allow("whatif.run"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const input = parse(CreateAllocationSchema, req);
+    res.status(202).json(await createAllocation(db, whatIfQueue, actorOf(req), id, input));
+  });
+
+  r.get("/allocations/:id", allow("projects.read"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.json(await getAllocation(db, actorOf(req).workspaceId, id));
+  });
+
+  r.post("/allocations/:id/apply", allow("revisions.write"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.status(201).json(await applyAllocation(db, actorOf(req), id));
+  });
+
+  r.get("/inclination-grid", allow("projects.read"), (req, res) => {
+    const { date, stepDeg } = parse(InclinationGridQuerySchema, req, "query");
+    res.json(inclinationGrid(date, stepDeg));
+  });
+
+  return r;
+}

@@ -1,0 +1,269 @@
+/**
+ * What-if runs (issue 12): queue a sweep or an allocation on a revision, read it back, and make
+ * a draft revision from an allocation's verified proposal.
+ */
+import { and, eq, sql } from "drizzle-orm";
+import type { Actor } from "../middleware/session";
+import type { Database } from "../db/client";
+import { stackRevisions, whatIfRuns } from "../db/schema";
+import { badRequest, conflict, found, type FieldError } from "../lib/errors";
+import { recordActivity } from "./activity";
+import { assertProjectOpen } from "./project-records";
+import { getRevision, getRevisionRow } from "./revisions";
+import type { WhatIfQueue } from "./what-if-queue";
+import { validateStudy, type StudyFile } from "@shared/schemas/study-file";
+import type { StackFile } from "@shared/schemas/stack-file";
+import type { Allocation, CreateAllocation, CreateSweep, Sweep } from "@shared/schemas/what-if";
+import { stackSources } from "@shared/datasets/sources";
+import { describeParameter, withTolerances } from "@shared/whatif/parameters";
+import { crossings, sweepValues, type SweepPoint } from "@shared/whatif/sweep";
+import { DEFAULT_BOUND_FACTORS, type AllocationOutcome } from "@shared/whatif/allocation";
+import { formatCount, formatNumberUnit } from "@shared/format";
+
+/** Rounds an allocation may take (the current stack's run comes first): the progress total. */
+const ALLOCATION_ROUNDS = 6;
+
+type Revision = Awaited<ReturnType<typeof getRevisionRow>>;
+
+/** The study file as an ordinary study would freeze it: the revision's requirements when it names none. */
+function checkedStudy(revision: Revision, body: Record<string, unknown>): StudyFile {
+  const file: Record<string, unknown> = { ...body };
+  delete file.site;
+  if (file.requirements === undefined && revision.requirements.length) file.requirements = revision.requirements;
+  const v = validateStudy(file, revision.stack);
+  if (!v.ok) {
+    throw badRequest(
+      `The study file has ${v.issues.length === 1 ? "a problem" : `${v.issues.length} problems`}; nothing was queued.`,
+      v.issues.map((i) => ({ path: i.path ? `study.${i.path}` : "study", message: i.message })),
+      "invalid_study",
+    );
+  }
+  if (!v.study.requirements?.length)
+    throw badRequest("A what-if run needs requirements to measure against.", [
+      { path: "study.requirements", message: "give at least one requirement (or set them on the revision)" },
+    ]);
+  return v.study;
+}
+
+async function queueRun(
+  db: Database,
+  actor: Actor,
+  revision: Revision,
+  kind: "sweep" | "allocation",
+  input: Record<string, unknown>,
+  total: number,
+  summary: string,
+) {
+  return db.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(whatIfRuns)
+      .values({
+        workspaceId: actor.workspaceId,
+        projectId: revision.projectId,
+        revisionId: revision.id,
+        kind,
+        input,
+        stack: revision.stack,
+        progressTotal: total,
+        createdBy: actor.userId,
+      })
+      .returning({ id: whatIfRuns.id });
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId: revision.projectId,
+      actorId: actor.userId,
+      action: `whatif.${kind}.queued`,
+      summary,
+      data: { runId: row.id, revisionId: revision.id },
+    });
+    return row.id;
+  });
+}
+
+export async function createSweep(db: Database, queue: WhatIfQueue, actor: Actor, revisionId: string, input: CreateSweep) {
+  const revision = await getRevisionRow(db, actor.workspaceId, revisionId);
+  await assertProjectOpen(db, actor.workspaceId, revision.projectId);
+  const study = checkedStudy(revision, input.study);
+  const info = describeParameter(revision.stack, study, input.parameter);
+  if ("error" in info) throw badRequest("The sweep parameter cannot be swept.", [{ path: "parameter", message: info.error }]);
+  const positive = info.kind !== "inclination";
+  const fields: FieldError[] = input.values.flatMap((v, i) =>
+    positive && !(v > 0)
+      ? [{ path: `values.${i}`, message: "a tolerance must be greater than 0" }]
+      : v < info.min || v > info.max
+        ? [{ path: `values.${i}`, message: `must be between ${info.min} and ${info.max}` }]
+        : [],
+  );
+  if (fields.length) throw badRequest("A sweep value is out of range.", fields);
+  const values = sweepValues(input.values);
+  const id = await queueRun(
+    db,
+    actor,
+    revision,
+    "sweep",
+    { study, parameter: input.parameter, values },
+    values.length * study.trials,
+    `queued a sweep of ${input.parameter} over ${values.length} values on stack revision ${revision.number} (${formatCount(study.trials)} trials each, seed ${study.seed})`,
+  );
+  queue.kick();
+  return { id };
+}
+
+export async function createAllocation(db: Database, queue: WhatIfQueue, actor: Actor, revisionId: string, input: CreateAllocation) {
+  const revision = await getRevisionRow(db, actor.workspaceId, revisionId);
+  await assertProjectOpen(db, actor.workspaceId, revision.projectId);
+  const study = checkedStudy(revision, input.study);
+  const sources = new Map(
+    stackSources(revision.stack)
+      .filter((s) => s.tolerance.dist !== "data" && (s.tolerance.tol ?? 0) > 0)
+      .map((s) => [s.id, s.tolerance.tol!]),
+  );
+  const unknown = (id: string) => `the stack has no tolerance source "${id}" with a ± half-width`;
+  const fields: FieldError[] = [
+    ...(input.free ?? []).flatMap((id, i) => (sources.has(id) ? [] : [{ path: `free.${i}`, message: unknown(id) }])),
+    ...Object.keys(input.costs ?? {}).flatMap((id) => (sources.has(id) ? [] : [{ path: `costs.${id}`, message: unknown(id) }])),
+    ...Object.entries(input.bounds ?? {}).flatMap(([id, b]) => {
+      const T = sources.get(id);
+      if (T === undefined) return [{ path: `bounds.${id}`, message: unknown(id) }];
+      const min = b.min ?? T * DEFAULT_BOUND_FACTORS.min,
+        max = b.max ?? T * DEFAULT_BOUND_FACTORS.max;
+      return min < max ? [] : [{ path: `bounds.${id}`, message: `min (${min}) must be below max (${max})` }];
+    }),
+  ];
+  if (fields.length) throw badRequest("The allocation names something the stack does not have.", fields);
+  const id = await queueRun(
+    db,
+    actor,
+    revision,
+    "allocation",
+    { study, free: input.free, costs: input.costs, bounds: input.bounds },
+    (ALLOCATION_ROUNDS + 1) * study.trials,
+    `queued a tolerance allocation on stack revision ${revision.number} (${input.free ? `${input.free.length} free sources` : "every source free"}, ${formatCount(study.trials)} trials per verifying run, seed ${study.seed})`,
+  );
+  queue.kick();
+  return { id };
+}
+
+async function runRow(db: Database, workspaceId: string, id: string, kind: "sweep" | "allocation") {
+  const [row] = await db
+    .select({ run: whatIfRuns, revisionNumber: stackRevisions.number })
+    .from(whatIfRuns)
+    .innerJoin(stackRevisions, eq(stackRevisions.id, whatIfRuns.revisionId))
+    .where(and(eq(whatIfRuns.workspaceId, workspaceId), eq(whatIfRuns.id, id), eq(whatIfRuns.kind, kind)));
+  return found(row, kind === "sweep" ? "The sweep" : "The allocation");
+}
+
+function base(row: Awaited<ReturnType<typeof runRow>>) {
+  const r = row.run;
+  const study = (r.input as { study: StudyFile }).study;
+  return {
+    id: r.id,
+    projectId: r.projectId,
+    revisionId: r.revisionId,
+    revisionNumber: row.revisionNumber,
+    status: r.status,
+    progress: { done: r.progressDone, total: r.progressTotal },
+    error: r.error,
+    trials: study.trials,
+    seed: study.seed,
+    createdAt: r.createdAt.toISOString(),
+    finishedAt: r.finishedAt ? r.finishedAt.toISOString() : null,
+  };
+}
+
+export async function getSweep(db: Database, workspaceId: string, id: string): Promise<Sweep> {
+  const row = await runRow(db, workspaceId, id, "sweep");
+  const input = row.run.input as { study: StudyFile; parameter: string; values: number[] };
+  const info = describeParameter(row.run.stack as StackFile, input.study, input.parameter);
+  const points = ((row.run.result?.points ?? []) as SweepPoint[]).map((p) => ({
+    value: p.value,
+    requirements: p.requirements.map((r) => ({ ...r, limitAtTarget: Number.isFinite(r.limitAtTarget) ? r.limitAtTarget : null })),
+  }));
+  return {
+    ...base(row),
+    parameter: input.parameter,
+    parameterKind: "error" in info ? "source" : info.kind,
+    unit: "error" in info ? "um" : info.unit,
+    current: "error" in info ? NaN : info.current,
+    values: input.values,
+    points,
+    // from the points so far: a running sweep shows the crossings it has already passed
+    crossings: crossings(points as SweepPoint[]),
+  };
+}
+
+export async function getAllocation(db: Database, workspaceId: string, id: string): Promise<Allocation> {
+  const row = await runRow(db, workspaceId, id, "allocation");
+  const out = row.run.result as AllocationOutcome | null;
+  const num = (v: number | null | undefined) => (typeof v === "number" && Number.isFinite(v) ? v : null);
+  return {
+    ...base(row),
+    verified: out ? out.verified : null,
+    message: out?.message ?? null,
+    method: out?.method ?? null,
+    sources: out?.sources ?? [],
+    requirements: (out?.requirements ?? []).map((r) => ({
+      ...r,
+      limitAtTarget: num(r.limitAtTarget),
+      current: { ...r.current, limitAtTarget: num(r.current.limitAtTarget) },
+    })),
+    totalCostCurrent: num(out?.totalCostCurrent),
+    totalCostProposed: num(out?.totalCostProposed),
+    rounds: (out?.rounds ?? []).map((r) => ({ ...r, closestShare: num(r.closestShare) ?? 0, minLowerMargin: num(r.minLowerMargin) ?? 0 })),
+    appliedRevisionId: row.run.appliedRevisionId,
+  };
+}
+
+/** A new draft revision with the proposal's tolerances (the run's frozen stack, the revision's requirements). */
+export async function applyAllocation(db: Database, actor: Actor, id: string) {
+  const row = await runRow(db, actor.workspaceId, id, "allocation");
+  const run = row.run;
+  if (run.status !== "finished") throw conflict(`The allocation is ${run.status}; only a finished one can be applied.`, "invalid_state");
+  if (run.appliedRevisionId) throw conflict("A draft was already made from this allocation.", "already_applied");
+  const out = run.result as unknown as AllocationOutcome;
+  if (!out.verified)
+    throw conflict("This proposal was not verified by Monte Carlo; change the bounds or costs and run it again.", "not_verified");
+  const revision = await getRevisionRow(db, actor.workspaceId, run.revisionId);
+  await assertProjectOpen(db, actor.workspaceId, run.projectId);
+  const changed = out.sources.filter((s) => s.proposed !== s.current);
+  const stack = withTolerances(run.stack as StackFile, Object.fromEntries(changed.map((s) => [s.source, s.proposed])));
+  const changes = changed.map((s) => `${s.source} ±${formatNumberUnit(s.current, s.unit)} → ±${formatNumberUnit(s.proposed, s.unit)}`);
+  const note =
+    `Tolerances proposed by the least-cost allocation on revision ${row.revisionNumber}, verified by Monte Carlo ` +
+    `(${formatCount(out.trials)} trials, seed ${out.seed}): ${changes.length ? changes.join("; ") : "no change"}.`;
+  const newId = await db.transaction(async (tx) => {
+    const [{ next }] = await tx
+      .select({ next: sql<number>`coalesce(max(${stackRevisions.number}), 0)::int + 1` })
+      .from(stackRevisions)
+      .where(eq(stackRevisions.projectId, run.projectId));
+    const [rev] = await tx
+      .insert(stackRevisions)
+      .values({
+        workspaceId: actor.workspaceId,
+        projectId: run.projectId,
+        number: next,
+        stack,
+        requirements: revision.requirements,
+        note,
+        basedOnId: revision.id,
+        createdBy: actor.userId,
+      })
+      .returning({ id: stackRevisions.id });
+    const claimed = await tx
+      .update(whatIfRuns)
+      .set({ appliedRevisionId: rev.id })
+      .where(and(eq(whatIfRuns.id, run.id), sql`${whatIfRuns.appliedRevisionId} is null`))
+      .returning({ id: whatIfRuns.id });
+    if (!claimed.length) throw conflict("A draft was already made from this allocation.", "already_applied");
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId: run.projectId,
+      actorId: actor.userId,
+      action: "revision.created",
+      summary: `started stack revision ${next} from a tolerance allocation on revision ${row.revisionNumber} (${changed.length} tolerances changed)`,
+      data: { revisionId: rev.id, runId: run.id },
+    });
+    return rev.id;
+  });
+  return getRevision(db, actor.workspaceId, newId);
+}
