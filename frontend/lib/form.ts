@@ -1,11 +1,14 @@
 import type { z } from "zod";
+import { readableMessage } from "@shared/field-labels";
 import { isApiError } from "./api-client";
 
 export type FieldErrors = Record<string, string>;
 
 /** Messages from the shared schemas may start in lower case ("must be a valid e-mail address"). */
 export function sentence(message: string): string {
-  return message.charAt(0).toUpperCase() + message.slice(1);
+  // the file's keys, element paths and unit words become the words a person reads
+  const m = readableMessage(message);
+  return m.charAt(0).toUpperCase() + m.slice(1);
 }
 
 /** First message per top-level field of a failed zod parse. */

@@ -40,6 +40,7 @@ function revisionBody(doc: EditorDoc) {
     stack: doc.stack,
     requirements: doc.requirements,
     comments: [],
+    warnings: [],
   };
 }
 

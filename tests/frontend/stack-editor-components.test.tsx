@@ -61,7 +61,7 @@ describe("the element form", () => {
     expect(length.value).toBe("0.9");
     fireEvent.change(length, { target: { value: "0" } });
     expect(latest.stack.elements[magIndex].size.x).toBe(0);
-    expect(screen.getByText("The length size.x (mm) must be greater than 0")).toBeTruthy();
+    expect(screen.getByText("The length x (mm) must be greater than 0")).toBeTruthy();
     expect(length.getAttribute("aria-invalid")).toBe("true");
 
     // Text that is not a number yet stays in the box and is not sent on.

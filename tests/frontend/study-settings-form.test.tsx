@@ -34,7 +34,7 @@ const summary = {
   submittedAt: null,
   approvedAt: null,
 };
-const revision = { ...summary, stack, requirements: REQUIREMENTS, comments: [] };
+const revision = { ...summary, stack, requirements: REQUIREMENTS, comments: [], warnings: [] };
 const field = {
   site: { latitudeDeg: 47.27, longitudeDeg: 11.39, altitudeKm: 0.6, date: "2026-06-01" },
   model: "WMM-2025",

@@ -60,6 +60,59 @@ export function NumberInput({
   }, [value]);
 
   return (
+    <NumberBox
+      id={id}
+      text={text}
+      disabled={disabled}
+      placeholder={placeholder}
+      invalid={invalid || bad}
+      unit={unit}
+      size={size}
+      className={className}
+      {...aria}
+      onText={(t) => {
+        setText(t);
+        const p = parseNumberText(t);
+        setBad(!p.ok);
+        onLocalError?.(p.ok ? null : "Enter a number");
+        if (p.ok && p.value !== value) onChange(p.value);
+      }}
+      onBlur={() => {
+        const p = parseNumberText(text);
+        if (p.ok) setText(numberText(p.value));
+      }}
+    />
+  );
+}
+
+/** The text box of a number with its unit inside: what NumberInput and the yield box draw. */
+export function NumberBox({
+  text,
+  onText,
+  onBlur,
+  unit,
+  placeholder,
+  disabled,
+  invalid,
+  id,
+  className,
+  size = "md",
+  ...aria
+}: {
+  text: string;
+  onText: (text: string) => void;
+  onBlur: () => void;
+  unit?: string;
+  placeholder?: string;
+  disabled?: boolean;
+  invalid: boolean;
+  id?: string;
+  className?: string;
+  size?: "sm" | "md";
+  "aria-label"?: string;
+  "aria-describedby"?: string;
+}) {
+  return (
     <div className={cn("relative", className)}>
       <input
         id={id}
@@ -70,21 +123,11 @@ export function NumberInput({
         value={text}
         disabled={disabled}
         placeholder={placeholder}
-        aria-invalid={invalid || bad || undefined}
+        aria-invalid={invalid || undefined}
         {...aria}
-        onChange={(e) => {
-          const t = e.target.value;
-          setText(t);
-          const p = parseNumberText(t);
-          setBad(!p.ok);
-          onLocalError?.(p.ok ? null : "Enter a number");
-          if (p.ok && p.value !== value) onChange(p.value);
-        }}
-        onBlur={() => {
-          const p = parseNumberText(text);
-          if (p.ok) setText(numberText(p.value));
-        }}
-        className={cn(BOX, "w-full", boxState(invalid || bad), "num h-7 pl-2 text-xs", unit ? (size === "sm" ? "pr-6" : "pr-8") : "pr-2")}
+        onChange={(e) => onText(e.target.value)}
+        onBlur={onBlur}
+        className={cn(BOX, "w-full", boxState(invalid), "num h-7 pl-2 text-xs", unit ? (size === "sm" ? "pr-6" : "pr-8") : "pr-2")}
       />
       {unit ? (
         <span

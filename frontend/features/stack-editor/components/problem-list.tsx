@@ -3,6 +3,7 @@
  * selects the element it belongs to.
  */
 import { useState } from "react";
+import { fieldLabel, pathLabel } from "@shared/field-labels";
 import { cn } from "@frontend/lib/cn";
 import { sentence } from "@frontend/lib/form";
 import type { IssueIndex } from "../lib/issues";
@@ -20,18 +21,23 @@ export function ProblemList({
   saving: boolean;
 }) {
   const [open, setOpen] = useState(true);
+  // places in words ("bond-line thickness (µm)"), never the file's paths
   const items: { where: string; field: string; message: string; id?: string }[] = [
-    ...issues.general.map((g) => ({ where: "Stack", field: g.path, message: g.message })),
+    ...issues.general.map((g) => ({ where: "Stack", field: g.path ? pathLabel(g.path, doc.stack) : "", message: g.message })),
     ...[...issues.elements.entries()].flatMap(([i, list]) =>
       list.map((x) => ({
         where: doc.stack.elements[i]?.id ?? `element ${i + 1}`,
-        field: x.field,
+        field: x.field ? fieldLabel(x.field) : "",
         message: x.message,
         id: doc.stack.elements[i]?.id,
       })),
     ),
     ...[...issues.requirements.entries()].flatMap(([i, list]) =>
-      list.map((x) => ({ where: `Requirement ${i + 1}`, field: x.field, message: x.message })),
+      list.map((x) => ({
+        where: `Requirement ${i + 1}`,
+        field: x.field ? pathLabel(`requirements[${i}].${x.field}`).split(": ")[1] : "",
+        message: x.message,
+      })),
     ),
   ];
   return (
@@ -69,7 +75,7 @@ export function ProblemList({
               ) : (
                 <span className="shrink-0 font-bold text-ink">{p.where}</span>
               )}
-              {p.field ? <span className={cn("shrink-0 font-mono text-[10.5px] text-ink/50")}>{p.field}</span> : null}
+              {p.field ? <span className={cn("shrink-0 text-[11px] text-ink/60")}>{p.field}</span> : null}
               <span className="min-w-0 text-fail">{sentence(p.message)}</span>
             </li>
           ))}

@@ -16,6 +16,7 @@ import { metricLabel, metricUnit } from "@shared/metrics";
 import { metricOptions } from "../lib/metrics";
 import { useEditor } from "./editor-context";
 import { NumberInput, SelectInput } from "./fields";
+import { YieldInput } from "./yield-input";
 import { formatMrad, formatPpm, formatYield, formatYieldRange, unitText } from "@shared/format";
 
 export function RequirementsEditor({ estimate, estimateStale }: { estimate: EstimateSummary | null; estimateStale: boolean }) {
@@ -42,7 +43,9 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
             <th className="w-[14%] px-2 text-right" title="Upper limit on the absolute value">
               Limit
             </th>
-            <th className="w-[20%] px-2 text-right">Yield target</th>
+            <th className="w-[20%] px-2 text-right" title="In %: 99.73 means 99.73 % of units within the limit">
+              Yield target (%)
+            </th>
             <th className="w-[29%] px-2 text-right">Estimate</th>
             <th className="w-[6%]" />
           </tr>
@@ -101,7 +104,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                   ) : null}
                 </td>
                 <td className="px-2 py-1.5">
-                  <NumberInput
+                  <YieldInput
                     aria-label={`Requirement ${i + 1} yield target`}
                     value={r.yield}
                     disabled={readOnly}
@@ -109,9 +112,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                     onChange={(v) => setAt(["requirements", i, "yield"], v, `req:${i}:yield`)}
                   />
                   {Number.isFinite(r.yield) && r.yield > 0 && r.yield < 1 ? (
-                    <p className="num mt-0.5 text-[10.5px] text-ink/45">
-                      {formatYield(r.yield)} · {formatPpm((1 - r.yield) * 1e6)} out
-                    </p>
+                    <p className="num mt-0.5 text-[10.5px] text-ink/45">{formatPpm((1 - r.yield) * 1e6)} out</p>
                   ) : null}
                 </td>
                 <td className="px-2 py-1.5 text-right">

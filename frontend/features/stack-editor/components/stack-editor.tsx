@@ -4,7 +4,7 @@
  * requirements below. Drafts save themselves; approved and in-review revisions open
  * read-only.
  */
-import { lazy, Suspense, useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from "react";
+import { lazy, Suspense, useCallback, useEffect, useMemo, useRef, useState, type ReactNode, type Ref } from "react";
 import { Link, useBlocker, useNavigate } from "react-router";
 import type { Me, Project } from "@shared/schemas/api";
 import type { Revision } from "@shared/schemas/revisions";
@@ -87,6 +87,7 @@ function Card({
   children,
   className,
   bodyClassName,
+  bodyRef,
 }: {
   title: ReactNode;
   meta?: ReactNode;
@@ -94,6 +95,7 @@ function Card({
   children: ReactNode;
   className?: string;
   bodyClassName?: string;
+  bodyRef?: Ref<HTMLDivElement>;
 }) {
   return (
     <section
@@ -106,7 +108,9 @@ function Card({
         </div>
         {actions ? <div className="flex shrink-0 items-center gap-1">{actions}</div> : null}
       </header>
-      <div className={cn("min-h-0 flex-1", bodyClassName)}>{children}</div>
+      <div ref={bodyRef} className={cn("min-h-0 flex-1", bodyClassName)}>
+        {children}
+      </div>
     </section>
   );
 }
@@ -218,6 +222,11 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
   }, [mustWarn]);
 
   const selectedEl = selectedIndex >= 0 ? selectedIndex : -1;
+  // another element: its form starts at the top, not where the last one was scrolled to
+  const formBody = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (formBody.current) formBody.current.scrollTop = 0;
+  }, [selectedId]);
   const worstPicks = estimate.summary && !estimate.stale ? estimate.summary.worst : undefined;
   const problemCount = issues.count;
 
@@ -346,7 +355,7 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
         <Card title="Elements" meta={`${doc.stack.elements.length}`} className="max-xl:h-[360px]">
           <ElementTree />
         </Card>
-        <Card title="Selected element" className="max-xl:max-h-[640px]" bodyClassName="overflow-y-auto">
+        <Card title="Selected element" className="max-xl:max-h-[640px]" bodyClassName="overflow-y-auto" bodyRef={formBody}>
           {selectedEl >= 0 ? (
             <ElementForm index={selectedEl} />
           ) : (

@@ -2,8 +2,16 @@ import type { ImportIssue } from "../lib/stack-file-io";
 import { Button } from "@frontend/components/ui/button";
 import { Dialog } from "@frontend/components/ui/dialog";
 import { sentence } from "@frontend/lib/form";
+import { pathLabel } from "@shared/field-labels";
 
-/** Why a stack file was refused: every problem with its path in the file. */
+/** The place in words: the element is named beside it, so only the field follows. */
+function placeOf(i: ImportIssue): string {
+  if (!i.path) return "the file";
+  const label = pathLabel(i.path);
+  return i.element && label.includes(": ") ? label.slice(label.indexOf(": ") + 2) : i.element ? "the element" : label;
+}
+
+/** Why a stack file was refused: every problem with its place in the file, in words. */
 export function ImportIssuesDialog({
   open,
   onClose,
@@ -34,7 +42,7 @@ export function ImportIssuesDialog({
           {issues.slice(0, 50).map((i, k) => (
             <li key={k} className="rounded border border-line bg-paper/60 px-2 py-1.5">
               {i.element ? <span className="mr-2 text-[11px] font-bold text-ink">{i.element}</span> : null}
-              <span className="font-mono text-[11px] text-ink/60">{i.path || "(the file)"}</span>
+              <span className="text-[11px] text-ink/60">{placeOf(i)}</span>
               <p className="mt-0.5 text-fail">{sentence(i.message)}</p>
             </li>
           ))}
