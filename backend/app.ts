@@ -4,6 +4,7 @@ import { CLIENT_IP_HEADER } from "./auth";
 import type { AppDeps } from "./deps";
 import { errorHandler, notFoundApi } from "./lib/errors";
 import { acceptBodies, sameOrigin } from "./middleware/request-guard";
+import { refuseUnsafeInput, verifyJsonDepth } from "./middleware/json-guard";
 import { securityHeaders } from "./middleware/security-headers";
 import { requireSession } from "./middleware/session";
 import { datasetsRouter, UPLOAD_PATHS } from "./routes/datasets";
@@ -58,7 +59,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
 
   app.all("/api/auth/{*splat}", toNodeHandler(deps.auth));
 
-  app.use("/api", express.json({ limit: JSON_LIMIT }));
+  app.use("/api", express.json({ limit: JSON_LIMIT, verify: verifyJsonDepth }), refuseUnsafeInput);
   app.use("/api", publicRouter(deps));
   app.use("/api", requireSession(deps.auth, deps.db));
   app.use("/api", meRouter());

@@ -24,12 +24,17 @@ const reference = JSON.parse(readFileSync(new URL("../../tests/fixtures/stack-re
 /** GET /api/health every `everyMs` until stopped; the latencies seen. */
 function healthProbe(url: string, everyMs = 20) {
   const seen: number[] = [];
+  let failed = 0;
   let running = true;
   const loop = (async () => {
     while (running) {
       const t0 = performance.now();
-      await fetch(`${url}/api/health`).then((r) => r.arrayBuffer());
-      seen.push(performance.now() - t0);
+      // a refused or reset connection counts as a failed probe, not the end of the run
+      const ok = await fetch(`${url}/api/health`)
+        .then((r) => r.arrayBuffer().then(() => r.ok))
+        .catch(() => false);
+      if (ok) seen.push(performance.now() - t0);
+      else failed++;
       await new Promise((r) => setTimeout(r, everyMs));
     }
   })();
@@ -37,7 +42,7 @@ function healthProbe(url: string, everyMs = 20) {
     stop: async () => {
       running = false;
       await loop;
-      return seen;
+      return { seen, failed };
     },
   };
 }
@@ -65,6 +70,7 @@ async function main() {
     out(`${"body".padEnd(78)} ${"KiB".padStart(5)} status  worst   median   health p50 / max`);
     let worstAll = 0;
     const healthAll: number[] = [];
+    let healthFailed = 0;
     for (const c of revisionBodies(reference)) {
       const text = JSON.stringify(c.body);
       const times: number[] = [];
@@ -83,7 +89,8 @@ async function main() {
         times.push(performance.now() - t0);
         statuses.add(r.status);
       }
-      const health = await probe.stop();
+      const { seen: health, failed } = await probe.stop();
+      healthFailed += failed;
       healthAll.push(...health);
       worstAll = Math.max(worstAll, ...times);
       out(
@@ -91,7 +98,7 @@ async function main() {
       );
     }
     out(
-      `worst request ${ms(worstAll)}; /api/health p50 ${ms(pct(healthAll, 0.5))}, p99 ${ms(pct(healthAll, 0.99))}, max ${ms(Math.max(...healthAll))} (${healthAll.length} probes); ${load()} at end`,
+      `worst request ${ms(worstAll)}; /api/health p50 ${ms(pct(healthAll, 0.5))}, p99 ${ms(pct(healthAll, 0.99))}, max ${ms(Math.max(...healthAll))} (${healthAll.length} probes, ${healthFailed} failed); ${load()} at end`,
     );
   } finally {
     child.kill("SIGTERM");

@@ -4,23 +4,20 @@
  * it was found in (the header is the file's first non-blank row; rows count as a
  * spreadsheet shows them, from 1).
  */
-import { Readable } from "node:stream";
-import ExcelJS from "exceljs";
 import { DATASET_MAX_COLUMNS, DATASET_MAX_ROWS, DATASET_PREVIEW_ROWS } from "@shared/schemas/datasets";
 import { parseHeader, type MeasureUnit } from "@shared/datasets/units";
 import { summarize } from "@shared/datasets/statistics";
-import { badRequest, HttpError, type FieldError } from "../lib/errors";
+import { badRequest, type HttpError, type FieldError } from "../lib/errors";
+import { readXlsx } from "./dataset-xlsx";
 import { formatCount } from "@shared/format";
 
-/** Refuse a workbook whose parts unpack to more than this (a small zip can hold a huge sheet). */
-const MAX_XLSX_UNPACKED = 120 * 1024 * 1024;
 /** How many problems one refusal lists; the message names the first. */
 const MAX_LISTED = 20;
 
-type CellKind = "empty" | "number" | "text" | "date" | "bool" | "error" | "formula";
-type Cell = { kind: CellKind; text: string; value: number | null };
-type RawRow = { row: number; cells: Cell[] };
-type RawTable = { fileType: "csv" | "xlsx"; sheet: string | null; rows: RawRow[] };
+export type CellKind = "empty" | "number" | "text" | "date" | "bool" | "error" | "formula";
+export type Cell = { kind: CellKind; text: string; value: number | null };
+export type RawRow = { row: number; cells: Cell[] };
+export type RawTable = { fileType: "csv" | "xlsx"; sheet: string | null; rows: RawRow[] };
 
 export type ParsedColumn = {
   key: string;
@@ -42,7 +39,7 @@ export type ParsedDataset = {
   preview: { rowNumbers: number[]; cells: string[][] };
 };
 
-const EMPTY: Cell = { kind: "empty", text: "", value: null };
+export const EMPTY: Cell = { kind: "empty", text: "", value: null };
 
 /** What metrology exports write for "no value": a gap in a measured column, not an error. */
 export const MISSING_MARKERS = ["NA", "N/A", "n/a", "-", "null"] as const;
@@ -62,7 +59,7 @@ export function columnLetter(index: number): string {
 
 const where = (row: number, col: number, header?: string) => `Row ${row}, column ${columnLetter(col)}${header ? ` (${header})` : ""}`;
 
-const invalid = (message: string, fields?: FieldError[], code = "invalid_file") => badRequest(message, fields, code);
+export const invalid = (message: string, fields?: FieldError[], code = "invalid_file") => badRequest(message, fields, code);
 
 /** One message naming the first problem, every problem (up to a limit) in `fields`. */
 function refuse(problems: { at: string; message: string }[]): HttpError {
@@ -209,108 +206,21 @@ function readCsv(buf: Buffer): RawTable {
   return { fileType: "csv", sheet: null, rows };
 }
 
-// ---------------------------------------------------------------- XLSX
-
-/** Sum of the unpacked sizes in a zip's central directory; null if it cannot be read. */
-function zipUnpackedSize(buf: Buffer): number | null {
-  const min = Math.max(0, buf.length - 22 - 0xffff);
-  for (let p = buf.length - 22; p >= min; p--) {
-    if (buf.readUInt32LE(p) !== 0x06054b50) continue;
-    const count = buf.readUInt16LE(p + 10);
-    let q = buf.readUInt32LE(p + 16);
-    let total = 0;
-    for (let k = 0; k < count; k++) {
-      if (q + 46 > buf.length || buf.readUInt32LE(q) !== 0x02014b50) return null;
-      const size = buf.readUInt32LE(q + 24);
-      if (size === 0xffffffff) return null;
-      total += size;
-      q += 46 + buf.readUInt16LE(q + 28) + buf.readUInt16LE(q + 30) + buf.readUInt16LE(q + 32);
-    }
-    return total;
-  }
-  return null;
+/** Cells holding a NUL character (PostgreSQL stores none in text): the first few, by row and column. */
+function nulCells(rows: RawRow[]): { at: string; message: string }[] {
+  const out: { at: string; message: string }[] = [];
+  for (const r of rows)
+    for (let k = 0; k < r.cells.length && out.length <= MAX_LISTED; k++)
+      if (r.cells[k].text.includes("\u0000")) out.push({ at: where(r.row, k), message: "the cell holds a NUL character (\\u0000)" });
+  return out;
 }
 
-function cellOf(v: ExcelJS.CellValue): Cell {
-  if (v === null || v === undefined) return EMPTY;
-  if (typeof v === "number")
-    return Number.isFinite(v) ? { kind: "number", text: String(v), value: v } : { kind: "error", text: String(v), value: null };
-  if (typeof v === "string") {
-    const t = v.trim();
-    if (t === "") return EMPTY;
-    const n = parseNumber(t);
-    return n === null ? { kind: "text", text: t, value: null } : { kind: "number", text: t, value: n };
-  }
-  if (typeof v === "boolean") return { kind: "bool", text: v ? "TRUE" : "FALSE", value: null };
-  if (v instanceof Date) return { kind: "date", text: Number.isNaN(v.getTime()) ? "" : v.toISOString().slice(0, 10), value: null };
-  if (typeof v === "object") {
-    if ("error" in v && v.error) return { kind: "error", text: String(v.error), value: null };
-    if ("formula" in v || "sharedFormula" in v) {
-      const r = (v as { result?: ExcelJS.CellValue }).result;
-      if (r !== undefined && r !== null) return cellOf(r as ExcelJS.CellValue);
-      // a formula whose result was not saved with it, or an error result the reader drops
-      const f = (v as { formula?: string }).formula;
-      return { kind: "formula", text: f ? `=${f}` : "a formula", value: null };
-    }
-    if ("richText" in v && Array.isArray(v.richText)) return cellOf(v.richText.map((p) => p.text).join(""));
-    if ("text" in v) return cellOf(String((v as { text: unknown }).text));
-  }
-  return { kind: "text", text: String(v), value: null };
-}
+export const tooManyColumns = (col: number) =>
+  invalid(
+    `The file has values in column ${columnLetter(col - 1)}; at most ${DATASET_MAX_COLUMNS} columns are accepted. Nothing was stored.`,
+  );
 
-type StreamCell = { value: ExcelJS.CellValue };
-type StreamRow = { number: number; eachCell: (opts: { includeEmpty: boolean }, fn: (cell: StreamCell, col: number) => void) => void };
-type StreamSheet = AsyncIterable<StreamRow> & { name: string };
-
-/**
- * Streams the workbook (exceljs' reader keeps one row at a time, about a tenth of the memory
- * of loading it whole) and stops at the first sheet that holds rows.
- */
-async function readXlsx(buf: Buffer): Promise<RawTable> {
-  const unpacked = zipUnpackedSize(buf);
-  if (unpacked === null) throw invalid("The file could not be read as an Excel workbook (.xlsx). Nothing was stored.");
-  if (unpacked > MAX_XLSX_UNPACKED) {
-    throw invalid(
-      `The workbook unpacks to ${Math.round(unpacked / 1048576)} MB, more than the ${MAX_XLSX_UNPACKED / 1048576} MB accepted. Nothing was stored.`,
-    );
-  }
-  const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(buf), {
-    sharedStrings: "cache",
-    hyperlinks: "ignore",
-    styles: "cache",
-    worksheets: "emit",
-    entries: "emit",
-  });
-  const rows: RawRow[] = [];
-  let sheet: string | null = null;
-  let sheets = 0;
-  try {
-    for await (const ws of reader as unknown as AsyncIterable<StreamSheet>) {
-      sheets++;
-      for await (const r of ws) {
-        const cells: Cell[] = [];
-        r.eachCell({ includeEmpty: true }, (c, col) => {
-          cells[col - 1] = cellOf(c.value);
-        });
-        for (let k = 0; k < cells.length; k++) cells[k] ??= EMPTY;
-        if (!cells.some((c) => c.kind !== "empty")) continue;
-        rows.push({ row: r.number, cells });
-        if (rows.length > DATASET_MAX_ROWS + 1) throw tooManyRows();
-      }
-      if (rows.length) {
-        sheet = ws.name;
-        break;
-      }
-    }
-  } catch (err) {
-    if (err instanceof HttpError) throw err;
-    throw invalid("The file could not be read as an Excel workbook (.xlsx). Nothing was stored.");
-  }
-  if (sheets === 0) throw invalid("The workbook has no worksheet. Nothing was stored.", undefined, "empty_file");
-  return { fileType: "xlsx", sheet, rows };
-}
-
-const tooManyRows = () =>
+export const tooManyRows = () =>
   invalid(
     `The file has more than ${formatCount(DATASET_MAX_ROWS)} data rows, the most one data set may hold. Nothing was stored.`,
     undefined,
@@ -372,6 +282,8 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
       undefined,
       "empty_file",
     );
+  const nul = nulCells(nonBlank);
+  if (nul.length) throw refuse(nul);
   const [headerRow, ...dataRows] = nonBlank;
   if (dataRows.length > DATASET_MAX_ROWS) throw tooManyRows();
   const hr = headerRow.row;
@@ -409,6 +321,10 @@ export async function readMeasurementFile(name: string, buf: Buffer): Promise<Pa
       continue;
     }
     const key = h.text.trim();
+    if (key === "__proto__" || parseHeader(key).name === "__proto__") {
+      problems.push({ at: where(hr, k, key), message: "“__proto__” cannot name a column: rename it" });
+      continue;
+    }
     const prev = seen.get(key.toLowerCase());
     if (prev !== undefined) {
       problems.push({ at: where(hr, k, key), message: `the header “${key}” is already used by column ${columnLetter(prev)}` });

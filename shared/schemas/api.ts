@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { IdSchema, RoleSchema } from "./common";
+import { IdSchema, RoleSchema, text } from "./common";
 
 export * from "./common";
 
@@ -10,13 +10,13 @@ const trimmedName = (what: string) =>
     .trim()
     .min(1, { message: `${what} must not be empty` })
     .max(NAME_MAX, { message: `${what} must be at most ${NAME_MAX} characters` });
-const email = z.string({ message: "e-mail address is required" }).trim().toLowerCase().email({ message: "must be a valid e-mail address" });
+const email = text({ message: "e-mail address is required" }).trim().toLowerCase().email({ message: "must be a valid e-mail address" });
 
 // ---- me -------------------------------------------------------------------
 export const MeSchema = z.object({
-  user: z.object({ id: z.string(), name: z.string(), email: z.string() }),
+  user: z.object({ id: text(), name: text(), email: text() }),
   role: RoleSchema,
-  workspace: z.object({ id: IdSchema, name: z.string() }),
+  workspace: z.object({ id: IdSchema, name: text() }),
   supplierId: IdSchema.nullable(),
 });
 export type Me = z.infer<typeof MeSchema>;
@@ -24,21 +24,21 @@ export type Me = z.infer<typeof MeSchema>;
 // ---- projects ---------------------------------------------------------------
 export const ProjectSchema = z.object({
   id: IdSchema,
-  name: z.string(),
-  description: z.string(),
-  ownerId: z.string().nullable(),
-  ownerName: z.string().nullable(),
-  createdAt: z.string(),
-  updatedAt: z.string(),
+  name: text(),
+  description: text(),
+  ownerId: text().nullable(),
+  ownerName: text().nullable(),
+  createdAt: text(),
+  updatedAt: text(),
   /** Set when archived: read-only, hidden from the default list. */
-  archivedAt: z.string().nullable(),
-  lastStudy: z.object({ id: IdSchema, status: z.string(), passes: z.boolean().nullable(), finishedAt: z.string().nullable() }).nullable(),
+  archivedAt: text().nullable(),
+  lastStudy: z.object({ id: IdSchema, status: text(), passes: z.boolean().nullable(), finishedAt: text().nullable() }).nullable(),
 });
 export type Project = z.infer<typeof ProjectSchema>;
 export const ProjectListSchema = z.object({ projects: z.array(ProjectSchema) });
 
 export const ProjectListQuerySchema = z.object({
-  q: z.string().trim().max(NAME_MAX).optional(),
+  q: text().trim().max(NAME_MAX).optional(),
   /** Archived projects are left out unless asked for: "only" them, or "all". */
   archived: z.enum(["only", "all"], { message: "archived must be only or all" }).optional(),
 });
@@ -51,25 +51,25 @@ export const DeleteProjectQuerySchema = z.object({
 });
 export const CreateProjectSchema = z.object({
   name: trimmedName("Project name"),
-  description: z.string().trim().max(2000, { message: "description must be at most 2000 characters" }).default(""),
+  description: text().trim().max(2000, { message: "description must be at most 2000 characters" }).default(""),
 });
 export type CreateProject = z.infer<typeof CreateProjectSchema>;
 export const UpdateProjectSchema = z
   .object({
     name: trimmedName("Project name").optional(),
-    description: z.string().trim().max(2000, { message: "description must be at most 2000 characters" }).optional(),
+    description: text().trim().max(2000, { message: "description must be at most 2000 characters" }).optional(),
   })
   .refine((v) => v.name !== undefined || v.description !== undefined, { message: "give a name or a description to change" });
 export type UpdateProject = z.infer<typeof UpdateProjectSchema>;
 
 // ---- suppliers --------------------------------------------------------------
-export const SupplierContactSchema = z.object({ id: IdSchema, name: z.string(), email: z.string() });
+export const SupplierContactSchema = z.object({ id: IdSchema, name: text(), email: text() });
 export const SupplierSchema = z.object({
   id: IdSchema,
-  name: z.string(),
-  kind: z.string(),
+  name: text(),
+  kind: text(),
   contacts: z.array(SupplierContactSchema),
-  createdAt: z.string(),
+  createdAt: text(),
 });
 export type Supplier = z.infer<typeof SupplierSchema>;
 export const SupplierListSchema = z.object({ suppliers: z.array(SupplierSchema) });
@@ -89,13 +89,13 @@ export const CreateContactSchema = z.object({ name: trimmedName("Contact name"),
 // ---- members and invitations ------------------------------------------------
 export const MemberSchema = z.object({
   id: IdSchema,
-  userId: z.string(),
-  name: z.string(),
-  email: z.string(),
+  userId: text(),
+  name: text(),
+  email: text(),
   role: RoleSchema,
   supplierId: IdSchema.nullable(),
-  supplierName: z.string().nullable(),
-  createdAt: z.string(),
+  supplierName: text().nullable(),
+  createdAt: text(),
 });
 export type Member = z.infer<typeof MemberSchema>;
 export const MemberListSchema = z.object({ members: z.array(MemberSchema) });
@@ -103,13 +103,13 @@ export const UpdateMemberSchema = z.object({ role: RoleSchema, supplierId: IdSch
 
 export const InvitationSchema = z.object({
   id: IdSchema,
-  email: z.string(),
+  email: text(),
   role: RoleSchema,
   supplierId: IdSchema.nullable(),
   status: z.enum(["pending", "accepted", "revoked"]),
-  link: z.string().nullable(),
-  createdAt: z.string(),
-  expiresAt: z.string(),
+  link: text().nullable(),
+  createdAt: text(),
+  expiresAt: text(),
   /** only when just created: whether the link went out by e-mail (the link above stays valid either way) */
   mailed: z.boolean().optional(),
 });
@@ -121,8 +121,8 @@ export const CreateInvitationSchema = z
     message: "a supplier user must belong to a supplier company",
     path: ["supplierId"],
   });
-export const InvitationTokenParamsSchema = z.object({ token: z.string().min(20).max(200) });
-export const InvitationPreviewSchema = z.object({ email: z.string(), role: RoleSchema, workspaceName: z.string() });
+export const InvitationTokenParamsSchema = z.object({ token: text().min(20).max(200) });
+export const InvitationPreviewSchema = z.object({ email: text(), role: RoleSchema, workspaceName: text() });
 export const AcceptInvitationSchema = z.object({
   name: trimmedName("Your name"),
   password: z
@@ -135,9 +135,9 @@ export const AcceptInvitationSchema = z.object({
 export const ActivitySchema = z.object({
   id: IdSchema,
   projectId: IdSchema.nullable(),
-  actorName: z.string().nullable(),
-  action: z.string(),
-  summary: z.string(),
-  createdAt: z.string(),
+  actorName: text().nullable(),
+  action: text(),
+  summary: text(),
+  createdAt: text(),
 });
 export const ActivityListSchema = z.object({ activity: z.array(ActivitySchema) });

@@ -16,3 +16,34 @@ export const ApiErrorSchema = z.object({
   }),
 });
 export type ApiError = z.infer<typeof ApiErrorSchema>;
+
+// ---- text, dates and numbers from outside ----------------------------------------
+
+/**
+ * Every text field of a body, file or query: a NUL character (U+0000) is refused by name,
+ * since PostgreSQL stores no NUL in text or jsonb (the database error was a 500 before).
+ */
+export const text = (params?: Parameters<typeof z.string>[0]) =>
+  z.string(params).refine((s) => !s.includes("\u0000"), { message: "must not contain NUL characters (\\u0000)" });
+
+/** A calendar date written YYYY-MM-DD that exists: 2026-02-30 is refused, not moved to March. */
+export const isoDate = (what = "date") =>
+  text({ message: `${what} is required (YYYY-MM-DD)` })
+    .regex(/^\d{4}-\d{2}-\d{2}$/, { message: `${what} must be written YYYY-MM-DD` })
+    .refine(
+      (d) => {
+        const t = Date.parse(`${d}T00:00:00Z`);
+        return !Number.isNaN(t) && new Date(t).toISOString().slice(0, 10) === d;
+      },
+      { message: `${what} is not a real calendar date` },
+    );
+
+/**
+ * A number in a query string: "?altitudeKm=" is refused like any other text that is not a
+ * number (coercion would read the empty text as 0).
+ */
+export const queryNumber = (what: string, limits: (n: z.ZodNumber) => z.ZodNumber = (n) => n) =>
+  z.preprocess(
+    (v) => (typeof v === "string" ? (v.trim() === "" ? Number.NaN : Number(v)) : v),
+    limits(z.number({ message: `${what} must be a number` })),
+  );

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { MEASURE_UNITS } from "../datasets/units";
-import { IdSchema } from "./common";
+import { IdSchema, text } from "./common";
 
 /** Limits of an uploaded measurement file. */
 export const DATASET_MAX_BYTES = 5 * 1024 * 1024;
@@ -24,26 +24,26 @@ const ColumnSummarySchema = z.object({
 export const ColumnMappingSchema = z.object({
   revisionId: IdSchema,
   revisionNumber: z.number().int(),
-  source: z.string(),
+  source: text(),
   /** for a pooled source: which support point or component this column is (0-based), and its name */
   part: z.number().int().nullable(),
-  partLabel: z.string().nullable(),
+  partLabel: text().nullable(),
   /** the column's unit; the values are converted to the source's unit (um or deg) */
   unit: MeasureUnitSchema,
   sourceUnit: z.enum(["um", "deg"]),
   /** subtracted from every value (column unit) before conversion: the design value of an absolute measurement */
   nominal: z.number(),
-  updatedByName: z.string().nullable(),
-  updatedAt: z.string(),
+  updatedByName: text().nullable(),
+  updatedAt: text(),
 });
 export type ColumnMapping = z.infer<typeof ColumnMappingSchema>;
 
 export const DatasetColumnSchema = z.object({
   /** the header exactly as in the file; unique within the data set */
-  key: z.string(),
-  name: z.string(),
+  key: text(),
+  name: text(),
   /** spreadsheet letter of the column in the file: A, B, … */
-  letter: z.string(),
+  letter: text(),
   unit: MeasureUnitSchema.nullable(),
   kind: z.enum(["number", "label"]),
   summary: ColumnSummarySchema.nullable(),
@@ -54,23 +54,23 @@ export type DatasetColumn = z.infer<typeof DatasetColumnSchema>;
 export const DatasetSummarySchema = z.object({
   id: IdSchema,
   projectId: IdSchema,
-  name: z.string(),
+  name: text(),
   fileType: DatasetFileTypeSchema,
-  sheet: z.string().nullable(),
+  sheet: text().nullable(),
   sizeBytes: z.number().int(),
   rows: z.number().int(),
   columnCount: z.number().int(),
-  mappedColumns: z.array(z.object({ column: z.string(), source: z.string() })),
-  uploadedByName: z.string().nullable(),
-  uploadedByRole: z.string(),
-  supplierName: z.string().nullable(),
+  mappedColumns: z.array(z.object({ column: text(), source: text() })),
+  uploadedByName: text().nullable(),
+  uploadedByRole: text(),
+  supplierName: text().nullable(),
   report: z.object({ id: IdSchema, number: z.number().int(), revision: z.number().int() }).nullable(),
   /** the production lot the sender gave for the whole file, and the sender's note */
-  lot: z.string().nullable(),
-  note: z.string().nullable(),
+  lot: text().nullable(),
+  note: text().nullable(),
   /** a label column marked as each row's lot (or date) */
-  lotColumn: z.string().nullable(),
-  createdAt: z.string(),
+  lotColumn: text().nullable(),
+  createdAt: text(),
 });
 export type DatasetSummary = z.infer<typeof DatasetSummarySchema>;
 export const DatasetListSchema = z.object({ datasets: z.array(DatasetSummarySchema) });
@@ -80,27 +80,27 @@ export const DatasetSchema = DatasetSummarySchema.extend({
   /** each source measured by several columns: the rows where all of them have a value are used */
   pooled: z.array(
     z.object({
-      source: z.string(),
+      source: text(),
       revisionNumber: z.number().int(),
-      columns: z.array(z.string()),
+      columns: z.array(text()),
       /** parts of the source with no column yet (the as-built study needs all) */
-      missingParts: z.array(z.string()),
+      missingParts: z.array(text()),
       parts: z.number().int(),
       completeRows: z.number().int(),
       dropped: z.number().int(),
     }),
   ),
   /** the first rows as written in the file, with their row numbers in the file */
-  preview: z.object({ rowNumbers: z.array(z.number().int()), cells: z.array(z.array(z.string())) }),
-  sha256: z.string(),
+  preview: z.object({ rowNumbers: z.array(z.number().int()), cells: z.array(z.array(text())) }),
+  sha256: text(),
 });
 export type Dataset = z.infer<typeof DatasetSchema>;
 
 export const MappingInputSchema = z.object({
-  column: z.string({ message: "column is required" }).min(1, { message: "column is required" }),
+  column: text({ message: "column is required" }).min(1, { message: "column is required" }),
   revisionId: IdSchema,
   /** a source id of the revision's stack, e.g. "mag.yaw"; null removes the mapping */
-  source: z.string().min(1, { message: "source must not be empty" }).max(200).nullable(),
+  source: text().min(1, { message: "source must not be empty" }).max(200).nullable(),
   /** a bond line's support point (0-based, in MODEL.md's corner order) for one of several height columns */
   support: z.number({ message: "support must be a number" }).int({ message: "support must be a whole number" }).min(0).max(63).optional(),
   /** a tilt's component (x, y) or an axis angle (g1..g6) for one of several columns of one source */
@@ -119,30 +119,30 @@ export type UpdateMappings = z.infer<typeof UpdateMappingsSchema>;
 
 /** Fields sent beside the file of an upload. */
 export const UploadFieldsSchema = z.object({
-  lot: z.string().trim().max(100, { message: "the lot is limited to 100 characters" }).optional(),
-  note: z.string().trim().max(2000, { message: "the note is limited to 2,000 characters" }).optional(),
+  lot: text().trim().max(100, { message: "the lot is limited to 100 characters" }).optional(),
+  note: text().trim().max(2000, { message: "the note is limited to 2,000 characters" }).optional(),
 });
 export type UploadFields = z.infer<typeof UploadFieldsSchema>;
 
 export const UpdateDatasetSchema = z.object({
   /** a label column naming each row's lot (or date); null: the rows have no lots */
-  lotColumn: z.string({ message: "lotColumn must be a column's header or null" }).min(1).nullable(),
+  lotColumn: text({ message: "lotColumn must be a column's header or null" }).min(1).nullable(),
 });
 export type UpdateDataset = z.infer<typeof UpdateDatasetSchema>;
 
 export const StatisticsQuerySchema = z.object({
-  column: z.string({ message: "name the column: ?column=…" }).min(1, { message: "name the column: ?column=…" }),
+  column: text({ message: "name the column: ?column=…" }).min(1, { message: "name the column: ?column=…" }),
 });
 
 export const DatasetStatisticsSchema = z.object({
-  column: z.string(),
+  column: text(),
   /** unit of every number below: the source's unit when mapped, else the column's own (or none) */
-  unit: z.string().nullable(),
+  unit: text().nullable(),
   /** `text` says what happened in words: "value − 10 µm nominal, mm → µm (× 1000)" */
-  converted: z.object({ from: MeasureUnitSchema, factor: z.number(), nominal: z.number(), text: z.string() }).nullable(),
-  source: z.string().nullable(),
+  converted: z.object({ from: MeasureUnitSchema, factor: z.number(), nominal: z.number(), text: text() }).nullable(),
+  source: text().nullable(),
   part: z.number().int().nullable(),
-  partLabel: z.string().nullable(),
+  partLabel: text().nullable(),
   summary: z.object({
     n: z.number().int(),
     missing: z.number().int(),
@@ -157,9 +157,9 @@ export const DatasetStatisticsSchema = z.object({
   normality: z
     .object({ method: z.literal("anderson-darling"), a2: z.number(), a2Star: z.number(), pValue: z.number(), normalAt5pct: z.boolean() })
     .nullable(),
-  normalityNote: z.string().nullable(),
+  normalityNote: text().nullable(),
   tolerance: z
-    .object({ dist: z.string(), tol: z.number().nullable(), sigmas: z.number().nullable(), mean: z.number(), sigma: z.number().nullable() })
+    .object({ dist: text(), tol: z.number().nullable(), sigmas: z.number().nullable(), mean: z.number(), sigma: z.number().nullable() })
     .nullable(),
   capability: z
     .object({
@@ -184,10 +184,10 @@ export const DatasetStatisticsSchema = z.object({
     })
     .nullable(),
   /** the lot column used, and statistics per lot in file order */
-  lotColumn: z.string().nullable(),
+  lotColumn: text().nullable(),
   lots: z.array(
     z.object({
-      lot: z.string(),
+      lot: text(),
       n: z.number().int(),
       mean: z.number(),
       std: z.number(),
@@ -199,13 +199,13 @@ export const DatasetStatisticsSchema = z.object({
   /** Shewhart individuals and moving-range chart in production (file) order */
   controlChart: z
     .object({
-      method: z.string(),
-      constants: z.object({ d2: z.number(), D3: z.number(), D4: z.number(), source: z.string() }),
+      method: text(),
+      constants: z.object({ d2: z.number(), D3: z.number(), D4: z.number(), source: text() }),
       points: z.array(
         z.object({
           order: z.number().int(),
           row: z.number().int(),
-          lot: z.string().nullable(),
+          lot: text().nullable(),
           x: z.number(),
           mr: z.number().nullable(),
           outX: z.boolean(),
@@ -219,7 +219,7 @@ export const DatasetStatisticsSchema = z.object({
     })
     .nullable(),
   outliers: z.object({
-    rule: z.string(),
+    rule: text(),
     /** row numbers are the file's own (the header is row 1) */
     values: z.array(z.object({ row: z.number().int(), value: z.number(), score: z.number() })),
   }),
@@ -233,19 +233,19 @@ export type DatasetStatistics = z.infer<typeof DatasetStatisticsSchema>;
 
 /** One tolerance source of a study replaced by a measured column (the "as built" study). */
 export const AsBuiltEntrySchema = z.object({
-  source: z.string({ message: "source is required" }).min(1, { message: "source is required" }).max(200),
+  source: text({ message: "source is required" }).min(1, { message: "source is required" }).max(200),
   datasetId: IdSchema,
   /** needed only where the source has one column in the data set; a pooled source takes all of its mapped columns */
-  column: z.string({ message: "column must be a header" }).min(1, { message: "column must not be empty" }).optional(),
+  column: text({ message: "column must be a header" }).min(1, { message: "column must not be empty" }).optional(),
   mode: z.enum(["resample", "normal"], { message: 'mode must be "resample" or "normal"' }),
 });
 export type AsBuiltEntry = z.infer<typeof AsBuiltEntrySchema>;
 
 /** What a study records of each replaced source. */
 export const AsBuiltRecordSchema = AsBuiltEntrySchema.extend({
-  datasetName: z.string(),
+  datasetName: text(),
   /** the columns used, in part order for a pooled source */
-  columns: z.array(z.string()).default([]),
+  columns: z.array(text()).default([]),
   /** rows left out because a column of the row had a gap */
   dropped: z.number().int().default(0),
   n: z.number().int(),
@@ -254,6 +254,6 @@ export const AsBuiltRecordSchema = AsBuiltEntrySchema.extend({
   std: z.number(),
   unit: z.enum(["um", "deg"]),
   /** the design tolerance the data replaced */
-  replaced: z.record(z.string(), z.unknown()),
+  replaced: z.record(text(), z.unknown()),
 });
 export type AsBuiltRecord = z.infer<typeof AsBuiltRecordSchema>;

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { IdSchema } from "./common";
+import { IdSchema, text } from "./common";
 
 /** What a notification is about; each person can turn the e-mail of each kind off. */
 export const NOTIFICATION_KINDS = [
@@ -34,11 +34,11 @@ export const NOTIFICATION_KIND_LABELS: Record<NotificationKind, string> = {
 export const NotificationSchema = z.object({
   id: IdSchema,
   kind: NotificationKindSchema,
-  title: z.string(),
-  link: z.string(),
+  title: text(),
+  link: text(),
   projectId: IdSchema.nullable(),
-  createdAt: z.string(),
-  readAt: z.string().nullable(),
+  createdAt: text(),
+  readAt: text().nullable(),
 });
 export type Notification = z.infer<typeof NotificationSchema>;
 export const NotificationListSchema = z.object({ notifications: z.array(NotificationSchema), unread: z.number().int() });
@@ -48,7 +48,7 @@ export type NotificationList = z.infer<typeof NotificationListSchema>;
 export const MarkReadSchema = z.object({ ids: z.array(IdSchema).max(500, { message: "at most 500 ids" }).optional() });
 
 export const NotificationSettingsSchema = z.object({
-  kinds: z.array(z.object({ kind: NotificationKindSchema, label: z.string(), email: z.boolean() })),
+  kinds: z.array(z.object({ kind: NotificationKindSchema, label: text(), email: z.boolean() })),
 });
 export type NotificationSettings = z.infer<typeof NotificationSettingsSchema>;
 export const UpdateNotificationSettingsSchema = z.object({

@@ -4,7 +4,7 @@
  */
 import { z } from "zod";
 import { DEFAULT_CPK, MAX_CPK, MIN_CPK } from "../reports/capability";
-import { IdSchema } from "./common";
+import { IdSchema, text } from "./common";
 import { EnvelopeSchema } from "./result-file";
 import { CommentSchema } from "./revisions";
 
@@ -33,7 +33,7 @@ export const PngDataUrlSchema = z
   });
 
 const overrides = z
-  .record(z.string().min(1).max(140), cpk("a capability override"), { message: "cpkOverrides must map source ids to a Cpk" })
+  .record(text().min(1).max(140), cpk("a capability override"), { message: "cpkOverrides must map source ids to a Cpk" })
   .refine((o) => Object.keys(o).length <= 500, { message: "at most 500 overrides" });
 
 const note = z
@@ -78,34 +78,34 @@ export const AcknowledgeReportSchema = z.object({ comment: shortText("comment").
 
 // ---- the frozen content -----------------------------------------------------------
 export const ReportToleranceSchema = z.object({
-  source: z.string(),
-  elementId: z.string(),
-  elementName: z.string(),
-  elementKind: z.string(),
-  quantity: z.string(),
+  source: text(),
+  elementId: text(),
+  elementName: text(),
+  elementKind: text(),
+  quantity: text(),
   unit: z.enum(["um", "deg"]),
-  stage: z.string(),
+  stage: text(),
   dist: z.enum(["normal", "uniform", "triangular", "data"]),
   /** ± half-width; null for a measured data set */
   tol: z.number().nullable(),
   sigmas: z.number().nullable(),
   mean: z.number(),
   draws: z.number().int(),
-  owner: z.string(),
+  owner: text(),
   cpk: z.number(),
   cpkChosen: z.number(),
   raised: z.boolean(),
   sigmaMax: z.number().nullable(),
   sigmaModelled: z.number().nullable(),
   /** the requirements this source contributes to, with its share there */
-  feeds: z.array(z.object({ metric: z.string(), share: z.number() })),
+  feeds: z.array(z.object({ metric: text(), share: z.number() })),
 });
 export type ReportTolerance = z.infer<typeof ReportToleranceSchema>;
 
 export const ReportRequirementSchema = z.object({
-  metric: z.string(),
-  description: z.string(),
-  unit: z.string(),
+  metric: text(),
+  description: text(),
+  unit: text(),
   max: z.number(),
   yield: z.number(),
   predictedYield: z.number(),
@@ -120,65 +120,63 @@ export const ReportRequirementSchema = z.object({
 export type ReportRequirement = z.infer<typeof ReportRequirementSchema>;
 
 export const ReportContributorChartSchema = z.object({
-  metric: z.string(),
-  description: z.string(),
+  metric: text(),
+  description: text(),
   basis: z.enum(["variance", "meanSquare"]),
-  bars: z.array(z.object({ source: z.string(), share: z.number(), ours: z.boolean() })),
+  bars: z.array(z.object({ source: text(), share: z.number(), ours: z.boolean() })),
   /** what the sources not drawn add up to */
   restShare: z.number(),
 });
 
 export const ReportStackElementSchema = z.object({
-  id: z.string(),
-  name: z.string(),
-  kind: z.string(),
-  parent: z.string().nullable(),
+  id: text(),
+  name: text(),
+  kind: text(),
+  parent: text().nullable(),
   size: z.object({ x: z.number(), y: z.number(), z: z.number() }),
   position: z.object({ x: z.number(), y: z.number() }),
   yawDeg: z.number(),
   bondThicknessUm: z.number(),
   /** this supplier's sources on the element */
-  sources: z.array(z.string()),
+  sources: z.array(text()),
 });
 
 export const ReportContentSchema = z.object({
   format: z.literal("orthostack.report/1"),
-  builtAt: z.string(),
-  project: z.object({ id: IdSchema, name: z.string() }),
+  builtAt: text(),
+  project: z.object({ id: IdSchema, name: text() }),
   revision: z.object({
     id: IdSchema,
     number: z.number().int(),
-    name: z.string(),
-    approvedAt: z.string().nullable(),
-    approvedByName: z.string().nullable(),
+    name: text(),
+    approvedAt: text().nullable(),
+    approvedByName: text().nullable(),
   }),
   study: z.object({
     id: IdSchema,
     number: z.number().int(),
-    label: z.string(),
-    finishedAt: z.string().nullable(),
+    label: text(),
+    finishedAt: text().nullable(),
     trials: z.number().int(),
     seed: z.number(),
-    engine: z.string(),
-    sampling: z.string(),
+    engine: text(),
+    sampling: text(),
     inclinationDeg: z.number(),
-    site: z
-      .object({ latitudeDeg: z.number(), longitudeDeg: z.number(), altitudeKm: z.number(), date: z.string(), model: z.string() })
-      .nullable(),
-    calibration: z.object({ after: z.string(), residual: z.string().nullable() }),
+    site: z.object({ latitudeDeg: z.number(), longitudeDeg: z.number(), altitudeKm: z.number(), date: text(), model: text() }).nullable(),
+    calibration: z.object({ after: text(), residual: text().nullable() }),
     headingStepDeg: z.number(),
     tilts: z.array(z.object({ pitchDeg: z.number(), rollDeg: z.number() })),
     passes: z.boolean().nullable(),
   }),
-  supplier: z.object({ id: IdSchema, name: z.string(), kind: z.string() }),
-  capability: z.object({ cpk: z.number(), overrides: z.record(z.string(), z.number()) }),
+  supplier: z.object({ id: IdSchema, name: text(), kind: text() }),
+  capability: z.object({ cpk: z.number(), overrides: z.record(text(), z.number()) }),
   tolerances: z.array(ReportToleranceSchema),
   requirements: z.array(ReportRequirementSchema),
   contributors: z.array(ReportContributorChartSchema),
   envelope: EnvelopeSchema.nullable(),
   headingLimit: z.number().nullable(),
   stack: z.array(ReportStackElementSchema),
-  cautions: z.array(z.string()),
+  cautions: z.array(text()),
 });
 export type ReportContent = z.infer<typeof ReportContentSchema>;
 
@@ -186,14 +184,14 @@ export type ReportContent = z.infer<typeof ReportContentSchema>;
 export const ReportSummarySchema = z.object({
   id: IdSchema,
   /** "TR-0007" */
-  code: z.string(),
+  code: text(),
   number: z.number().int(),
   revision: z.number().int(),
   status: ReportStatusSchema,
   projectId: IdSchema,
-  projectName: z.string(),
+  projectName: text(),
   supplierId: IdSchema.nullable(),
-  supplierName: z.string(),
+  supplierName: text(),
   studyId: IdSchema.nullable(),
   studyNumber: z.number().int(),
   stackRevisionNumber: z.number().int(),
@@ -201,36 +199,36 @@ export const ReportSummarySchema = z.object({
   cpk: z.number(),
   /** false when a later revision of the same report exists */
   isLatest: z.boolean(),
-  createdAt: z.string(),
-  createdByName: z.string().nullable(),
-  releasedAt: z.string().nullable(),
-  releasedByName: z.string().nullable(),
-  acknowledgedAt: z.string().nullable(),
-  acknowledgedByName: z.string().nullable(),
-  lastSentAt: z.string().nullable(),
+  createdAt: text(),
+  createdByName: text().nullable(),
+  releasedAt: text().nullable(),
+  releasedByName: text().nullable(),
+  acknowledgedAt: text().nullable(),
+  acknowledgedByName: text().nullable(),
+  lastSentAt: text().nullable(),
 });
 export type ReportSummary = z.infer<typeof ReportSummarySchema>;
 export const ReportListSchema = z.object({ reports: z.array(ReportSummarySchema) });
 
 export const ReportFileInfoSchema = z.object({
   kind: ReportFileKindSchema,
-  fileName: z.string(),
+  fileName: text(),
   size: z.number().int(),
-  sha256: z.string(),
-  createdAt: z.string(),
+  sha256: text(),
+  createdAt: text(),
 });
 export const ReportSendSchema = z.object({
   id: IdSchema,
-  sentAt: z.string(),
-  sentByName: z.string().nullable(),
-  recipients: z.array(z.object({ name: z.string(), email: z.string() })),
-  message: z.string(),
+  sentAt: text(),
+  sentByName: text().nullable(),
+  recipients: z.array(z.object({ name: text(), email: text() })),
+  message: text(),
 });
-export const ReportDownloadSchema = z.object({ at: z.string(), userName: z.string().nullable(), role: z.string(), kind: z.string() });
+export const ReportDownloadSchema = z.object({ at: text(), userName: text().nullable(), role: text(), kind: text() });
 
 export const ReportSchema = ReportSummarySchema.extend({
-  capability: z.object({ cpk: z.number(), overrides: z.record(z.string(), z.number()) }),
-  note: z.string(),
+  capability: z.object({ cpk: z.number(), overrides: z.record(text(), z.number()) }),
+  note: text(),
   hasSnapshot: z.boolean(),
   content: ReportContentSchema,
   /** stored files of a released report (empty for a draft) */
@@ -244,49 +242,49 @@ export const ReportSchema = ReportSummarySchema.extend({
       id: IdSchema,
       revision: z.number().int(),
       status: ReportStatusSchema,
-      createdAt: z.string(),
-      releasedAt: z.string().nullable(),
+      createdAt: text(),
+      releasedAt: text().nullable(),
     }),
   ),
   /** where the supplier's people open it */
-  link: z.string(),
+  link: text(),
 });
 export type Report = z.infer<typeof ReportSchema>;
 
 export const SendResultSchema = z.object({
   report: ReportSchema,
-  sent: z.array(z.object({ name: z.string(), email: z.string() })),
+  sent: z.array(z.object({ name: text(), email: text() })),
   /** contacts the mail server refused, with its reason */
-  failed: z.array(z.object({ name: z.string(), email: z.string(), error: z.string() })),
+  failed: z.array(z.object({ name: text(), email: text(), error: text() })),
 });
 export type SendResult = z.infer<typeof SendResultSchema>;
 
 // ---- building: what a project offers ---------------------------------------------------
 export const ReportOptionSupplierSchema = z.object({
   supplierId: IdSchema,
-  name: z.string(),
-  kind: z.string(),
-  sources: z.array(z.string()),
+  name: text(),
+  kind: text(),
+  sources: z.array(text()),
   contacts: z.number().int(),
   /** the newest revision of this supplier's report on the project, if any */
-  latest: z.object({ id: IdSchema, code: z.string(), revision: z.number().int(), status: ReportStatusSchema }).nullable(),
+  latest: z.object({ id: IdSchema, code: text(), revision: z.number().int(), status: ReportStatusSchema }).nullable(),
 });
 export const ReportOptionStudySchema = z.object({
   id: IdSchema,
   number: z.number().int(),
-  label: z.string(),
-  status: z.string(),
+  label: text(),
+  status: text(),
   revisionId: IdSchema,
   revisionNumber: z.number().int(),
-  revisionStatus: z.string(),
-  finishedAt: z.string().nullable(),
+  revisionStatus: text(),
+  finishedAt: text().nullable(),
   passes: z.boolean().nullable(),
   /** null when a report can be built from this study; otherwise why not */
-  blockedBy: z.string().nullable(),
+  blockedBy: text().nullable(),
   suppliers: z.array(ReportOptionSupplierSchema),
   /** owner texts that name no supplier company (in-house steps, typos) */
-  unmatchedOwners: z.array(z.object({ owner: z.string(), sources: z.array(z.string()) })),
-  unowned: z.array(z.string()),
+  unmatchedOwners: z.array(z.object({ owner: text(), sources: z.array(text()) })),
+  unowned: z.array(text()),
 });
 export const ReportOptionsSchema = z.object({ studies: z.array(ReportOptionStudySchema) });
 export type ReportOptions = z.infer<typeof ReportOptionsSchema>;
@@ -294,19 +292,19 @@ export type ReportOptions = z.infer<typeof ReportOptionsSchema>;
 // ---- outbox -------------------------------------------------------------------------
 export const OutboxMessageSchema = z.object({
   id: IdSchema,
-  from: z.string(),
-  to: z.array(z.string()),
-  subject: z.string(),
-  receivedAt: z.string(),
+  from: text(),
+  to: z.array(text()),
+  subject: text(),
+  receivedAt: text(),
   size: z.number().int(),
-  text: z.string(),
-  attachments: z.array(z.object({ index: z.number().int(), fileName: z.string(), contentType: z.string(), size: z.number().int() })),
+  text: text(),
+  attachments: z.array(z.object({ index: z.number().int(), fileName: text(), contentType: text(), size: z.number().int() })),
 });
 export type OutboxMessage = z.infer<typeof OutboxMessageSchema>;
 export const OutboxSchema = z.object({
   /** "catcher": mail stays on this machine and shows here; "smtp": it leaves through a server */
   mode: z.enum(["catcher", "smtp", "off"]),
-  address: z.string().nullable(),
+  address: text().nullable(),
   messages: z.array(OutboxMessageSchema),
 });
 export const OutboxAttachmentParamsSchema = z.object({

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { IdSchema } from "./common";
+import { IdSchema, text } from "./common";
 import { RequirementSchema, type Requirement } from "./study-file";
 import { GeometryWarningSchema } from "./stack-help";
 
@@ -13,13 +13,13 @@ export const RequirementsSchema = z.array(RequirementSchema).max(200, { message:
 export const CreateRevisionSchema = z.object({
   stack: z.unknown().refine((v) => v !== undefined, { message: "stack is required" }),
   requirements: RequirementsSchema.optional(),
-  note: z.string().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
+  note: text().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
 });
 export const UpdateRevisionSchema = z
   .object({
     stack: z.unknown().optional(),
     requirements: RequirementsSchema.optional(),
-    note: z.string().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
+    note: text().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
   })
   .refine((v) => v.stack !== undefined || v.requirements !== undefined || v.note !== undefined, {
     message: "give a stack, requirements or a note to change",
@@ -41,10 +41,10 @@ export const CommentBodySchema = z.object({
 
 export const CommentSchema = z.object({
   id: IdSchema,
-  authorName: z.string().nullable(),
-  kind: z.string(),
-  body: z.string(),
-  createdAt: z.string(),
+  authorName: text().nullable(),
+  kind: text(),
+  body: text(),
+  createdAt: text(),
 });
 export type Comment = z.infer<typeof CommentSchema>;
 
@@ -53,19 +53,19 @@ export const RevisionSummarySchema = z.object({
   projectId: IdSchema,
   number: z.number().int(),
   status: RevisionStatusSchema,
-  name: z.string(),
-  note: z.string(),
+  name: text(),
+  note: text(),
   basedOnId: IdSchema.nullable(),
-  createdByName: z.string().nullable(),
-  approvedByName: z.string().nullable(),
-  createdAt: z.string(),
-  updatedAt: z.string(),
-  submittedAt: z.string().nullable(),
-  approvedAt: z.string().nullable(),
+  createdByName: text().nullable(),
+  approvedByName: text().nullable(),
+  createdAt: text(),
+  updatedAt: text(),
+  submittedAt: text().nullable(),
+  approvedAt: text().nullable(),
 });
 export type RevisionSummary = z.infer<typeof RevisionSummarySchema>;
 export const RevisionSchema = RevisionSummarySchema.extend({
-  stack: z.record(z.string(), z.unknown()),
+  stack: z.record(text(), z.unknown()),
   requirements: RequirementsSchema,
   comments: z.array(CommentSchema),
   /** geometry slips of the stack (overhang, overlap, clearance, body height); never block saving */
@@ -76,14 +76,14 @@ export const RevisionListSchema = z.object({ revisions: z.array(RevisionSummaryS
 
 /** `GET /api/revisions/:id/diff[?against=:otherId]`: what changed, in words and units. */
 export const RevisionDiffQuerySchema = z.object({ against: IdSchema.optional() });
-const DiffValueSchema = z.union([z.string(), z.number(), z.boolean(), z.null()]);
+const DiffValueSchema = z.union([text(), z.number(), z.boolean(), z.null()]);
 export const StackChangeSchema = z.object({
-  path: z.string(),
-  label: z.string(),
+  path: text(),
+  label: text(),
   kind: z.enum(["added", "removed", "changed"]),
   before: DiffValueSchema,
   after: DiffValueSchema,
-  unit: z.string().nullable(),
+  unit: text().nullable(),
 });
 export const RevisionDiffSchema = z.object({
   /** The revision compared with; null for a project's first revision (nothing to compare). */
@@ -93,5 +93,5 @@ export const RevisionDiffSchema = z.object({
 export type RevisionDiff = z.infer<typeof RevisionDiffSchema>;
 /** Submitting: the note says what changed and why; asked for on every revision after the first. */
 export const SubmitRevisionSchema = z.object({
-  note: z.string().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
+  note: text().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
 });

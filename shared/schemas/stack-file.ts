@@ -7,6 +7,7 @@
  * packaging engineer understands, so the API can pass them on as field errors.
  */
 import { z } from "zod";
+import { text } from "./common";
 import { isSensorKind, SENSOR_KINDS, supportPoints } from "../engine/elements";
 
 export { isSensorKind, SENSOR_KINDS, supportPoints };
@@ -54,7 +55,7 @@ export const ElementStageSchema = stageEnum(ELEMENT_STAGES) as unknown as z.ZodE
 
 /** Free-form data stays small: it is stored and sent back with every read of the file. */
 export const MAX_META_CHARS = 20_000;
-export const MetaSchema = z.record(z.string(), z.unknown()).superRefine((m, ctx) => {
+export const MetaSchema = z.record(text(), z.unknown()).superRefine((m, ctx) => {
   if (JSON.stringify(m).length > MAX_META_CHARS)
     ctx.addIssue({
       code: "too_big",
@@ -103,7 +104,7 @@ export const ToleranceSchema = z
       .max(MAX_DATA_VALUES, { error: `measured rows may hold at most ${MAX_DATA_VALUES} units` })
       .optional(),
     stage: StageSchema.optional(),
-    owner: z.string().max(200, { error: "owner is limited to 200 characters" }).optional(),
+    owner: text().max(200, { error: "owner is limited to 200 characters" }).optional(),
   })
   .superRefine((t, ctx) => {
     if (t.dist === "data") {
@@ -166,11 +167,11 @@ export const ElementSchema = z.strictObject({
   kind: z.enum(ELEMENT_KINDS, {
     error: (iss) => `unknown element kind ${JSON.stringify(iss.input)}: use ${ELEMENT_KINDS.map((k) => `"${k}"`).join(", ")}`,
   }),
-  parent: z.union([z.string().max(64, { error: "parent is an element id, at most 64 characters" }), z.null()], {
+  parent: z.union([text().max(64, { error: "parent is an element id, at most 64 characters" }), z.null()], {
     error: "parent must be the id of another element, or null for the board",
   }),
-  name: z.string().max(200, { error: "a name is limited to 200 characters" }).optional(),
-  notes: z.string().max(5000, { error: "notes are limited to 5,000 characters" }).optional(),
+  name: text().max(200, { error: "a name is limited to 200 characters" }).optional(),
+  notes: text().max(5000, { error: "notes are limited to 5,000 characters" }).optional(),
   meta: MetaSchema.optional(),
   stage: ElementStageSchema.optional(),
   position: XYSchema.optional(),
@@ -193,8 +194,8 @@ export const ElementSchema = z.strictObject({
 /** The file's shape alone, without the checks across elements (extendable with `.extend`). */
 export const StackFileObjectSchema = z.strictObject({
   format: z.literal("orthostack.stack/1", { error: `format must be "orthostack.stack/1"` }),
-  name: z.string().max(200, { error: "a name is limited to 200 characters" }).optional(),
-  notes: z.string().max(5000, { error: "notes are limited to 5,000 characters" }).optional(),
+  name: text().max(200, { error: "a name is limited to 200 characters" }).optional(),
+  notes: text().max(5000, { error: "notes are limited to 5,000 characters" }).optional(),
   meta: MetaSchema.optional(),
   elements: z
     .array(ElementSchema, { error: "elements must be a list" })

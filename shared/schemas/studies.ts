@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { IdSchema } from "./common";
+import { IdSchema, text } from "./common";
 import { AsBuiltEntrySchema, AsBuiltRecordSchema } from "./datasets";
 import { FieldAtSiteSchema, SiteSchema } from "./site";
 
@@ -11,9 +11,9 @@ export type StudyStatus = z.infer<typeof StudyStatusSchema>;
  * engine's validator), optionally a site whose WMM inclination replaces `inclinationDeg`.
  */
 export const CreateStudySchema = z.object({
-  study: z.record(z.string(), z.unknown(), { message: "study must be a study file (an object)" }),
+  study: z.record(text(), z.unknown(), { message: "study must be a study file (an object)" }),
   site: SiteSchema.optional(),
-  label: z.string().trim().max(120, { message: "label must be at most 120 characters" }).optional(),
+  label: text().trim().max(120, { message: "label must be at most 120 characters" }).optional(),
   /** As built: tolerance sources replaced by measured data sets in the frozen stack (issue 7). */
   asBuilt: z
     .array(AsBuiltEntrySchema, { message: "asBuilt must be a list" })
@@ -28,28 +28,28 @@ export const StudySummarySchema = z.object({
   revisionId: IdSchema,
   revisionNumber: z.number().int(),
   number: z.number().int(),
-  label: z.string(),
+  label: text(),
   status: StudyStatusSchema,
   progress: z.object({ done: z.number().int(), total: z.number().int(), trialsPerSecond: z.number().nullable() }),
   trials: z.number().int(),
   seed: z.number(),
   passes: z.boolean().nullable(),
-  error: z.string().nullable(),
-  createdByName: z.string().nullable(),
-  createdAt: z.string(),
-  startedAt: z.string().nullable(),
-  finishedAt: z.string().nullable(),
+  error: text().nullable(),
+  createdByName: text().nullable(),
+  createdAt: text(),
+  startedAt: text().nullable(),
+  finishedAt: text().nullable(),
   /** The sources replaced by measured data (an "as built" study); empty for a design study. */
   asBuilt: z.array(AsBuiltRecordSchema.omit({ replaced: true })),
 });
 export type StudySummary = z.infer<typeof StudySummarySchema>;
 
 export const StudySchema = StudySummarySchema.extend({
-  study: z.record(z.string(), z.unknown()),
-  stack: z.record(z.string(), z.unknown()),
+  study: z.record(text(), z.unknown()),
+  stack: z.record(text(), z.unknown()),
   site: FieldAtSiteSchema.nullable(),
   /** The result file (MODEL.md §11) with its plot data, once finished. */
-  result: z.record(z.string(), z.unknown()).nullable(),
+  result: z.record(text(), z.unknown()).nullable(),
 });
 export type Study = z.infer<typeof StudySchema>;
 export const StudyListSchema = z.object({ studies: z.array(StudySummarySchema) });

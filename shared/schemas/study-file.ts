@@ -6,6 +6,7 @@
  * engine accepts it and ignores it.
  */
 import { z } from "zod";
+import { text } from "./common";
 import { headingPair, metricIds } from "../engine/compile";
 import { type FieldIssue, type StackFile, dedupe, formatPath, fromZodError, isSensorKind, MetaSchema, ToleranceSchema } from "./stack-file";
 
@@ -25,12 +26,12 @@ export const TiltSchema = z.strictObject({
 });
 
 export const RequirementSchema = z.strictObject({
-  metric: z.string({ error: 'a requirement names a metric id, e.g. "heading.maxAbsDeg"' }).min(1),
+  metric: text({ error: 'a requirement names a metric id, e.g. "heading.maxAbsDeg"' }).min(1),
   max: num("the limit max").gt(0, { error: "the limit max is an upper bound on |value| and must be greater than 0" }),
   yield: num("the yield target")
     .gt(0, { error: "the yield target is a fraction between 0 and 1 (e.g. 0.9973)" })
     .lt(1, { error: "the yield target must be below 1: a yield of exactly 1 cannot be shown by sampling" }),
-  name: z.string().max(200).optional(),
+  name: text().max(200).optional(),
 });
 
 export const CalibrationSchema = z.strictObject({
@@ -44,7 +45,7 @@ export const AdaptiveSchema = z.strictObject({
   /** significant digits of u(y) that must be stable (JCGM 101 7.9: 1 or 2) */
   significantDigits: z.union([z.literal(1), z.literal(2)], { error: "significantDigits must be 1 or 2" }).optional(),
   /** metrics to stabilise; default: the requirement metrics (or heading.maxAbsDeg / the first metric) */
-  metrics: z.array(z.string()).min(1).max(20).optional(),
+  metrics: z.array(text()).min(1).max(20).optional(),
   /** coverage probability p for metrics that carry no requirement; default 0.95 */
   coverage: num("coverage").gt(0).lt(1, { error: "coverage must lie between 0 and 1" }).optional(),
 });
@@ -52,8 +53,8 @@ export const AdaptiveSchema = z.strictObject({
 /** The file's shape alone (extendable with `.extend`). */
 export const StudyFileObjectSchema = z.strictObject({
   format: z.literal("orthostack.study/1", { error: `format must be "orthostack.study/1"` }),
-  name: z.string().max(200).optional(),
-  notes: z.string().max(5000).optional(),
+  name: text().max(200).optional(),
+  notes: text().max(5000).optional(),
   meta: MetaSchema.optional(),
   trials: z
     .number({ error: (iss) => (iss.input === undefined ? "trials is required" : "trials must be a whole number") })
@@ -77,7 +78,7 @@ export const StudyFileObjectSchema = z.strictObject({
   requirements: z.array(RequirementSchema).max(200).optional(),
   sampling: z.enum(["random", "lhs"], { error: `sampling must be "random" or "lhs" (Latin hypercube)` }).optional(),
   adaptive: AdaptiveSchema.optional(),
-  headingSensors: z.strictObject({ accel: z.string(), mag: z.string() }).optional(),
+  headingSensors: z.strictObject({ accel: text(), mag: text() }).optional(),
   /** false switches the compass sweep off; true insists on it */
   heading: z.boolean().optional(),
   /**
