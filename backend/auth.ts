@@ -1,4 +1,6 @@
 import { betterAuth } from "better-auth";
+import { APIError, createAuthMiddleware } from "better-auth/api";
+import { AccountUpdateSchema } from "@shared/schemas/api";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import type { Database } from "./db/client";
 import { accounts, sessions, users, verifications } from "./db/schema";
@@ -33,7 +35,15 @@ export function createAuth({ db, baseURL, secret, trustedOrigins = [], signInPer
     }),
     // Sign-up is off in better-auth itself, whatever spelling of the path a request uses; accounts
     // are made on the server by createAccount (backend/lib/accounts.ts) when an invitation is accepted.
-    emailAndPassword: { enabled: true, disableSignUp: true, minPasswordLength: 10, maxPasswordLength: 128 },
+    // A reset link (sent by an admin, backend/services/password-reset.ts) ends every session.
+    emailAndPassword: {
+      enabled: true,
+      disableSignUp: true,
+      minPasswordLength: 10,
+      maxPasswordLength: 128,
+      revokeSessionsOnPasswordReset: true,
+    },
+    hooks: { before: accountRules },
     session: { expiresIn: 60 * 60 * 24 * 7, updateAge: 60 * 60 * 24 },
     rateLimit: {
       enabled: true,
@@ -50,3 +60,22 @@ export function createAuth({ db, baseURL, secret, trustedOrigins = [], signInPer
 }
 
 export type Auth = ReturnType<typeof createAuth>;
+
+/**
+ * Rules better-auth's own routes keep, whatever the client sends: a password change always ends
+ * the person's other sessions, and a name set through update-user is limited like every name.
+ */
+const accountRules = createAuthMiddleware(async (ctx) => {
+  if (ctx.path === "/change-password") {
+    return { context: { ...ctx, body: { ...ctx.body, revokeOtherSessions: true } } };
+  }
+  if (ctx.path === "/update-user") {
+    const parsed = AccountUpdateSchema.safeParse(ctx.body ?? {});
+    if (!parsed.success) {
+      const issue = parsed.error.issues[0];
+      const field = issue?.path.join(".") || "body";
+      throw new APIError("BAD_REQUEST", { code: "invalid_input", message: `${field}: ${issue?.message ?? "not accepted"}` });
+    }
+    return { context: { ...ctx, body: parsed.data } };
+  }
+});

@@ -3,6 +3,7 @@ import { CreateInvitationSchema, IdParamsSchema, UpdateMemberSchema } from "@sha
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
+import { sendResetLink } from "../services/password-reset";
 import { createInvitation, listInvitations, listMembers, removeMember, revokeInvitation, updateMember } from "../services/members";
 
 export function membersRouter(deps: AppDeps) {
@@ -22,8 +23,13 @@ export function membersRouter(deps: AppDeps) {
 
   r.delete("/members/:id", admin, async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    await removeMember(db, actorOf(req), id);
+    await removeMember(db, deps.auth, actorOf(req), id);
     res.status(204).end();
+  });
+
+  r.post("/members/:id/reset-link", admin, async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.status(201).json(await sendResetLink(db, deps.auth, actorOf(req), id, deps));
   });
 
   r.get("/invitations", admin, async (req, res) => {

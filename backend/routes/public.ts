@@ -1,11 +1,13 @@
 import { Router } from "express";
+import { rateLimit } from "express-rate-limit";
 import { AcceptInvitationSchema, InvitationTokenParamsSchema } from "@shared/schemas/api";
 import type { AppDeps } from "../deps";
+import { HttpError } from "../lib/errors";
 import { parse } from "../lib/validate";
 import { acceptInvitation, previewInvitation } from "../services/members";
 
 /** Routes that need no session: health and the invitation hand-shake. */
-export function publicRouter({ db, auth, clock, queueStatus }: AppDeps) {
+export function publicRouter({ db, auth, clock, queueStatus }: AppDeps, acceptPerMinute = 10) {
   const r = Router();
 
   // Server mode adds the job queue: its depth and the worker processes seen in the last minute.
@@ -18,7 +20,18 @@ export function publicRouter({ db, auth, clock, queueStatus }: AppDeps) {
     res.json(await previewInvitation(db, token, clock));
   });
 
-  r.post("/invitations/by-token/:token/accept", async (req, res) => {
+  // Accepting guesses nothing a token does not already allow, but each try hashes a password:
+  // a few per minute per client address is plenty for a person and useless for a flood.
+  const acceptLimit = rateLimit({
+    windowMs: 60_000,
+    limit: acceptPerMinute,
+    standardHeaders: "draft-8",
+    legacyHeaders: false,
+    handler: (_req, _res, next) =>
+      next(new HttpError(429, "rate_limited", "Too many tries to accept an invitation. Wait a minute and try again.")),
+  });
+
+  r.post("/invitations/by-token/:token/accept", acceptLimit, async (req, res) => {
     const { token } = parse(InvitationTokenParamsSchema, req, "params");
     const input = parse(AcceptInvitationSchema, req);
     const headers = await acceptInvitation(db, auth, clock, token, input);

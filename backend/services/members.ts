@@ -8,7 +8,7 @@ import type { AppDeps, Clock } from "../deps";
 import { invitations, members, suppliers, users, workspaces } from "../db/schema";
 import { badRequest, conflict, found, HttpError } from "../lib/errors";
 import type { Actor } from "../middleware/session";
-import { createAccount } from "../lib/accounts";
+import { createAccount, endSessions, renewAccount } from "../lib/accounts";
 import { mailInvitation } from "./invitation-mail";
 
 const INVITATION_DAYS = 7;
@@ -71,13 +71,30 @@ export async function updateMember(db: Database, actor: Actor, id: string, input
   return getMember(db, actor.workspaceId, id);
 }
 
-export async function removeMember(db: Database, actor: Actor, id: string) {
+/**
+ * Removes a member and ends their sessions at once. The account itself stays (their name is on
+ * revisions, comments and activity), with no workspace: it can sign in to nothing, and an admin
+ * may invite the address again later.
+ */
+export async function removeMember(db: Database, auth: Auth, actor: Actor, id: string) {
   const member = await getMember(db, actor.workspaceId, id);
   if (member.userId === actor.userId) throw conflict("You cannot remove yourself.", "self_removal");
   if (member.role === "admin" && (await adminCount(db, actor.workspaceId, id)) === 0) {
     throw conflict("The workspace must keep at least one admin.", "last_admin");
   }
   await db.delete(members).where(eq(members.id, id));
+  await endSessions(auth, member.userId);
+}
+
+/** The account of an address and whether it belongs to a workspace (an account without one was removed). */
+async function accountOf(db: Database, email: string) {
+  const [row] = await db
+    .select({ id: users.id, memberId: members.id })
+    .from(users)
+    .leftJoin(members, eq(members.userId, users.id))
+    .where(eq(users.email, email.toLowerCase()))
+    .limit(1);
+  return row ? { id: row.id, isMember: row.memberId !== null } : null;
 }
 
 // ---- invitations ------------------------------------------------------------------
@@ -114,8 +131,8 @@ export async function createInvitation(
   { baseURL, mail, clock }: InvitationDeps,
 ) {
   await assertSupplierInWorkspace(db, actor.workspaceId, input.supplierId);
-  const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, input.email));
-  if (existing) throw conflict(`${input.email} already has an account.`, "already_member");
+  const existing = await accountOf(db, input.email);
+  if (existing?.isMember) throw conflict(`${input.email} already has an account.`, "already_member");
   const token = randomBytes(24).toString("base64url");
   const [row] = await db.transaction(async (tx) => {
     // A newer invitation replaces any pending one for the same address.
@@ -173,9 +190,12 @@ export async function previewInvitation(db: Database, token: string, clock: Cloc
  */
 export async function acceptInvitation(db: Database, auth: Auth, clock: Clock, token: string, input: { name: string; password: string }) {
   const { invitation } = await pendingByToken(db, token, clock());
-  const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, invitation.email));
-  if (existing) throw conflict(`${invitation.email} already has an account.`, "already_member");
-  const user = await createAccount(auth, { email: invitation.email, password: input.password, name: input.name });
+  const existing = await accountOf(db, invitation.email);
+  if (existing?.isMember) throw conflict(`${invitation.email} already has an account.`, "already_member");
+  // A removed member invited again keeps their account (and its history) with the new name and password.
+  const user = existing
+    ? (await renewAccount(auth, existing.id, input), { id: existing.id })
+    : await createAccount(auth, { email: invitation.email, password: input.password, name: input.name });
   try {
     await db.transaction(async (tx) => {
       // Only one accept may use the token: a second concurrent one finds it no longer pending.
@@ -194,7 +214,7 @@ export async function acceptInvitation(db: Database, auth: Auth, clock: Clock, t
       });
     });
   } catch (e) {
-    await db.delete(users).where(eq(users.id, user.id));
+    if (!existing) await db.delete(users).where(eq(users.id, user.id));
     throw e;
   }
   const response = await auth.api.signInEmail({ body: { email: invitation.email, password: input.password }, asResponse: true });

@@ -14,6 +14,8 @@ import { SuppliersRoute, suppliersLoader } from "./routes/app/suppliers";
 import { NotFoundRoute } from "./routes/not-found";
 import { InvitationError, RootError, RouteError } from "./routes/route-error";
 import { SignInRoute, signInLoader } from "./routes/sign-in";
+import { ResetPasswordRoute } from "./routes/reset-password";
+import { AccountRoute } from "./routes/app/account";
 import { NavigationProgress } from "./shell/navigation-progress";
 import { BootScreen } from "./shell/boot-screen";
 
@@ -34,6 +36,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
       hydrateFallbackElement: <BootScreen />,
       children: [
         { path: "/sign-in", loader: signInLoader(queryClient), element: <SignInRoute /> },
+        { path: "/reset-password", element: <ResetPasswordRoute /> },
         {
           path: "/invite/:token",
           loader: acceptInvitationLoader(queryClient),
@@ -69,6 +72,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
                 { path: "reports", loader: reportsLoader(queryClient), element: <ReportsRoute /> },
                 { path: "reports/:id", loader: reportLoader(queryClient), element: <ReportRoute /> },
                 { path: "outbox", loader: outboxLoader(queryClient), element: <OutboxRoute /> },
+                { path: "account", element: <AccountRoute /> },
                 { path: "*", element: <NotFoundRoute /> },
               ],
             },

@@ -123,13 +123,31 @@ export const CreateInvitationSchema = z
   });
 export const InvitationTokenParamsSchema = z.object({ token: text().min(20).max(200) });
 export const InvitationPreviewSchema = z.object({ email: text(), role: RoleSchema, workspaceName: text() });
+const newPassword = z
+  .string({ message: "password is required" })
+  .min(10, { message: "password must be at least 10 characters" })
+  .max(128, { message: "password must be at most 128 characters" });
+
+/** What a signed-in person may change of their own account through the auth routes: the name only. */
+export const AccountUpdateSchema = z.object({ name: trimmedName("Your name") }).strict();
+
 export const AcceptInvitationSchema = z.object({
   name: trimmedName("Your name"),
-  password: z
-    .string({ message: "password is required" })
-    .min(10, { message: "password must be at least 10 characters" })
-    .max(128, { message: "password must be at most 128 characters" }),
+  password: newPassword,
 });
+
+/** Changing one's own password (better-auth's change-password; the server ends the other sessions). */
+export const ChangePasswordSchema = z.object({
+  currentPassword: z.string({ message: "current password is required" }).min(1, { message: "current password is required" }).max(128),
+  newPassword,
+});
+
+/** Setting a password from a reset link an admin sent. */
+export const ResetPasswordSchema = z.object({ newPassword });
+
+/** What an admin's "send a reset link" answers: whether the mail went, and until when the link works. */
+export const ResetLinkSentSchema = z.object({ mailed: z.boolean(), expiresAt: z.string() });
+export type ResetLinkSent = z.infer<typeof ResetLinkSentSchema>;
 
 // ---- activity ---------------------------------------------------------------
 export const ActivitySchema = z.object({

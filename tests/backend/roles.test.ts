@@ -309,6 +309,7 @@ export const ROUTES: Row[] = [
     body: () => ({ role: "reviewer" }),
   },
   { route: "DELETE /api/members/:id", allowed: ADMIN, path: async (c) => `/api/members/${await freshMember(c)}` },
+  { route: "POST /api/members/:id/reset-link", allowed: ADMIN, path: async (c) => `/api/members/${await freshMember(c)}/reset-link` },
   { route: "GET /api/invitations", allowed: ADMIN },
   { route: "POST /api/invitations", allowed: ADMIN, body: () => ({ email: `${uniq()}@new.example`, role: "engineer" }) },
   { route: "DELETE /api/invitations/:id", allowed: ADMIN, path: async (c) => `/api/invitations/${(await freshInvitation(c)).id}` },

@@ -46,6 +46,7 @@ export function SignInRoute() {
         defaultPassword={prefill ? DEMO_PASSWORD : ""}
         onSignedIn={() => navigate(next ?? "/", { replace: true })}
       />
+      <p className="mt-3 text-xs text-ink/55">Forgot your password? Your workspace admin can send you a link to set a new one.</p>
 
       <section aria-labelledby="demo-heading" className="mt-8 rounded-lg border border-line bg-panel">
         <header className="flex items-baseline justify-between border-b border-line px-3.5 py-2">

@@ -1,4 +1,4 @@
-import { useNavigate } from "react-router";
+import { Link, useNavigate } from "react-router";
 import { useQueryClient } from "@tanstack/react-query";
 import type { Me } from "@shared/schemas/api";
 import { Button } from "@frontend/components/ui/button";
@@ -39,7 +39,12 @@ export function TopBar({ me }: { me: Me }) {
       <div className="flex items-center gap-3">
         {signOut.isError ? <span className="text-xs text-fail">{signOut.error.message}</span> : null}
         <NotificationsMenu />
-        <div className="flex items-center gap-2.5" aria-label="Signed in as">
+        <Link
+          to="/account"
+          className="flex items-center gap-2.5 rounded-md hover:bg-ink/[0.04]"
+          aria-label="Signed in as (your account)"
+          title="Your account"
+        >
           <span className="flex size-7.5 items-center justify-center rounded-full bg-ink text-[10px] font-extrabold text-paper">
             {initials(me.user.name)}
           </span>
@@ -50,7 +55,7 @@ export function TopBar({ me }: { me: Me }) {
             <p className="text-[11px] text-ink/55">{me.user.email}</p>
           </div>
           <RoleBadge role={me.role} />
-        </div>
+        </Link>
         <span className="h-6 w-px bg-line" aria-hidden="true" />
         <Button size="sm" variant="ghost" icon={<SignOutIcon />} onClick={handleSignOut} pending={signOut.isPending}>
           Sign out

@@ -9,10 +9,11 @@ import { Field, Select } from "@frontend/components/ui/field";
 import { TrashIcon } from "@frontend/components/ui/icons";
 import { RoleBadge } from "@frontend/components/ui/role-badge";
 import { Table, TableFrame, Td, Th, THead, Tr } from "@frontend/components/ui/table";
-import { formatDate, initials } from "@frontend/lib/format";
+import { formatDate, formatDateTime, initials } from "@frontend/lib/format";
 import { ROLE_LABELS } from "@frontend/lib/permissions";
 import { useDeleteMember } from "../api/delete-member";
 import { useUpdateMember } from "../api/update-member";
+import { useSendResetLink } from "../api/send-reset-link";
 
 type Props = { members: Member[]; suppliers: Supplier[]; currentUserId: string };
 
@@ -20,6 +21,8 @@ export function MembersTable({ members, suppliers, currentUserId }: Props) {
   const update = useUpdateMember();
   const [supplierFor, setSupplierFor] = useState<Member | null>(null);
   const [removing, setRemoving] = useState<Member | null>(null);
+  const [resetting, setResetting] = useState<Member | null>(null);
+  const [rowNote, setRowNote] = useState<{ id: string; message: string } | null>(null);
   const [rowError, setRowError] = useState<{ id: string; message: string } | null>(null);
 
   function changeRole(member: Member, role: Role) {
@@ -43,7 +46,7 @@ export function MembersTable({ members, suppliers, currentUserId }: Props) {
               <Th className="w-44">Role</Th>
               <Th>Supplier company</Th>
               <Th align="right">Joined</Th>
-              <Th className="w-12">
+              <Th className="w-52">
                 <span className="sr-only">Actions</span>
               </Th>
             </tr>
@@ -68,6 +71,7 @@ export function MembersTable({ members, suppliers, currentUserId }: Props) {
                       </div>
                     </div>
                     {rowError?.id === member.id ? <p className="mt-1 text-xs font-medium text-fail">{rowError.message}</p> : null}
+                    {rowNote?.id === member.id ? <p className="mt-1 text-xs font-medium text-pass">{rowNote.message}</p> : null}
                   </Td>
                   <Td>
                     {self ? (
@@ -95,9 +99,14 @@ export function MembersTable({ members, suppliers, currentUserId }: Props) {
                   </Td>
                   <Td className="text-right">
                     {self ? null : (
-                      <IconButton label={`Remove ${member.name}`} variant="danger-ghost" onClick={() => setRemoving(member)}>
-                        <TrashIcon />
-                      </IconButton>
+                      <div className="flex items-center justify-end gap-1">
+                        <Button size="sm" variant="ghost" onClick={() => setResetting(member)}>
+                          Send reset link
+                        </Button>
+                        <IconButton label={`Remove ${member.name}`} variant="danger-ghost" onClick={() => setRemoving(member)}>
+                          <TrashIcon />
+                        </IconButton>
+                      </div>
                     )}
                   </Td>
                 </Tr>
@@ -110,6 +119,17 @@ export function MembersTable({ members, suppliers, currentUserId }: Props) {
         <SupplierRoleDialog key={supplierFor.id} member={supplierFor} suppliers={suppliers} onClose={() => setSupplierFor(null)} />
       ) : null}
       {removing ? <RemoveMemberDialog key={removing.id} member={removing} onClose={() => setRemoving(null)} /> : null}
+      {resetting ? (
+        <ResetLinkDialog
+          key={resetting.id}
+          member={resetting}
+          onClose={() => setResetting(null)}
+          onSent={(message) => {
+            setRowNote({ id: resetting.id, message });
+            setResetting(null);
+          }}
+        />
+      ) : null}
     </>
   );
 }
@@ -189,6 +209,35 @@ function RemoveMemberDialog({ member, onClose }: { member: Member; onClose: () =
       <p>
         <strong className="font-bold text-ink">{member.name}</strong> ({member.email}) loses access to the workspace at once. Their past
         activity stays on record. You can invite them again later.
+      </p>
+    </ConfirmDialog>
+  );
+}
+
+function ResetLinkDialog({ member, onClose, onSent }: { member: Member; onClose: () => void; onSent: (message: string) => void }) {
+  const send = useSendResetLink();
+  return (
+    <ConfirmDialog
+      open
+      onClose={onClose}
+      title="Send a link to set a new password?"
+      confirmLabel="Send the link"
+      pending={send.isPending}
+      error={send.error?.message}
+      onConfirm={() =>
+        send.mutate(member.id, {
+          onSuccess: (sent) =>
+            onSent(
+              sent.mailed
+                ? `Reset link sent to ${member.email}; it works once, until ${formatDateTime(sent.expiresAt)}.`
+                : "The mail could not be sent; check the mail settings and try again.",
+            ),
+        })
+      }
+    >
+      <p>
+        <strong className="font-bold text-ink">{member.name}</strong> receives a link at {member.email} to choose a new password. Using it
+        signs them out everywhere. Only they receive the link.
       </p>
     </ConfirmDialog>
   );
