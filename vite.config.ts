@@ -25,6 +25,10 @@ export default defineConfig({
   },
   test: {
     root: here("."),
+    // Vitest's default on 2 cores is one worker (cores - 1), which runs every file one after the
+    // other. The browser files (one at a time, fileParallelism false below) mostly wait on their
+    // own server and chromium processes, so a second worker runs the other projects beside them.
+    maxWorkers: 2,
     projects: [
       {
         resolve: { alias },

@@ -54,9 +54,10 @@ export async function startServer(): Promise<RunningServer> {
     env[key] = value;
   }
   let log = "";
-  const child = spawn("npx", ["tsx", "backend/server.ts"], {
+  // node with tsx's loader, as `npm start` runs it, without npx and tsx's own wrapper process.
+  const child = spawn(process.execPath, ["--import", "tsx", "backend/server.ts"], {
     cwd: ROOT,
-    // Own process group, so stopping it also stops the node process npx starts.
+    // Own process group, so stopping it also stops anything the server starts.
     detached: true,
     stdio: ["ignore", "pipe", "pipe"],
     env: {
