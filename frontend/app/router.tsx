@@ -61,6 +61,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
                   lazy: () => import("./routes/app/study-new").then((m) => m.studyNewRoute(queryClient)),
                 },
                 { path: "projects/:id/studies/:studyId", lazy: () => import("./routes/app/study").then((m) => m.studyRoute(queryClient)) },
+                { path: "projects/:id/what-if", lazy: () => import("./routes/app/what-if").then((m) => m.whatIfRoute(queryClient)) },
                 { path: "projects/:id/compare", lazy: () => import("./routes/app/compare").then((m) => m.compareRoute(queryClient)) },
                 {
                   path: "projects/:id/datasets/:datasetId",

@@ -100,6 +100,12 @@ export function StudyRoute() {
           >
             Compare
           </Link>
+          <Link
+            to={`/projects/${project.id}/what-if?study=${study.id}`}
+            className="inline-flex h-8.5 items-center rounded-md border border-line bg-panel px-3.5 text-[13px] font-semibold text-ink hover:border-ink/30 hover:bg-white"
+          >
+            What if…
+          </Link>
           {canRun ? (
             <Link
               to={`/projects/${project.id}/studies/new?revision=${study.revisionId}&from=${study.id}`}

@@ -1,0 +1,145 @@
+import { useMemo, useState, type FormEvent } from "react";
+import { stackSources } from "@shared/datasets/sources";
+import type { StackFile } from "@shared/schemas/stack-file";
+import type { StudyFile } from "@shared/schemas/study-file";
+import { CALIBRATION_RESIDUAL, INCLINATION } from "@shared/whatif/parameters";
+import { formatCount, formatNumberUnit } from "@shared/format";
+import { Alert } from "@frontend/components/ui/alert";
+import { Button } from "@frontend/components/ui/button";
+import { Field, Input, Select } from "@frontend/components/ui/field";
+import { Panel } from "@frontend/components/ui/panel";
+import { isApiError } from "@frontend/lib/api-client";
+import { useCreateSweep, useSweep } from "../api/what-if";
+import { defaultSourceValues, evenValues, parseValues } from "../lib/values";
+import { RunProgress } from "./run-progress";
+import { SweepChart } from "./sweep-chart";
+
+export type ParameterOption = { id: string; label: string; unit: "um" | "deg"; current: number };
+
+/** What a sweep may vary on this stack and study. */
+export function parameterOptions(stack: StackFile, study: StudyFile): ParameterOption[] {
+  const out: ParameterOption[] = stackSources(stack)
+    .filter((s) => s.tolerance.dist !== "data" && (s.tolerance.tol ?? 0) > 0)
+    .map((s) => ({ id: s.id, label: `${s.id} (±, ${s.unit === "um" ? "µm" : "°"})`, unit: s.unit, current: s.tolerance.tol! }));
+  out.push({ id: INCLINATION, label: "Field inclination (°)", unit: "deg", current: study.inclinationDeg });
+  const r = study.calibration?.residualDeg;
+  if (study.calibration && study.calibration.after !== "none" && r && r.dist !== "data" && r.tol)
+    out.push({ id: CALIBRATION_RESIDUAL, label: "Calibration residual (±, °)", unit: "deg", current: r.tol });
+  return out;
+}
+
+function defaultValues(p: ParameterOption): number[] {
+  return p.id === INCLINATION ? evenValues(0, 80, 9) : defaultSourceValues(p.current);
+}
+
+/** Sweep one parameter: the form, the run's progress, then one chart per requirement. */
+export function SweepPanel({
+  revisionId,
+  stack,
+  study,
+  canRun,
+  runId,
+  onRun,
+}: {
+  revisionId: string;
+  stack: StackFile;
+  study: StudyFile;
+  canRun: boolean;
+  runId: string | null;
+  onRun: (id: string) => void;
+}) {
+  const options = useMemo(() => parameterOptions(stack, study), [stack, study]);
+  const [parameter, setParameter] = useState(options[0]?.id ?? INCLINATION);
+  const option = options.find((o) => o.id === parameter) ?? options[0];
+  const [text, setText] = useState(() => defaultValues(option).join(", "));
+  const [trials, setTrials] = useState(String(Math.min(study.trials, 20_000)));
+  const [formError, setFormError] = useState<string | null>(null);
+  const create = useCreateSweep();
+  const sweep = useSweep(runId);
+
+  const choose = (id: string) => {
+    setParameter(id);
+    const o = options.find((x) => x.id === id);
+    if (o) setText(defaultValues(o).join(", "));
+  };
+  const submit = (e: FormEvent) => {
+    e.preventDefault();
+    const parsed = parseValues(text);
+    if ("error" in parsed) return setFormError(parsed.error);
+    const n = Number(trials);
+    if (!Number.isInteger(n) || n < 1000) return setFormError("trials must be a whole number of at least 1,000");
+    setFormError(null);
+    create.mutate(
+      { revisionId, body: { study: { ...study, trials: n } as Record<string, unknown>, parameter, values: parsed.values } },
+      { onSuccess: (r) => onRun(r.id) },
+    );
+  };
+  const fieldErrors = isApiError(create.error) ? create.error.fields : undefined;
+  const s = sweep.data;
+
+  return (
+    <div className="flex flex-col gap-4">
+      {canRun ? (
+        <Panel title="Sweep a parameter" meta={`every point runs with seed ${study.seed}: the same trials, only the parameter differs`}>
+          <form onSubmit={submit} className="grid gap-3 sm:grid-cols-[minmax(0,1.2fr)_minmax(0,2fr)_8rem_auto] sm:items-end">
+            <Field label="Parameter" hint={option ? `today ${formatNumberUnit(option.current, option.unit, 4)}` : undefined}>
+              {({ id }) => (
+                <Select id={id} value={parameter} onChange={(e) => choose(e.target.value)}>
+                  {options.map((o) => (
+                    <option key={o.id} value={o.id}>
+                      {o.label}
+                    </option>
+                  ))}
+                </Select>
+              )}
+            </Field>
+            <Field
+              label="Values"
+              hint="up to 25, separated by commas"
+              error={formError ?? fieldErrors?.find((f) => f.path.startsWith("values"))?.message}
+            >
+              {({ id, invalid }) => <Input id={id} invalid={invalid} value={text} onChange={(e) => setText(e.target.value)} />}
+            </Field>
+            <Field label="Trials per point">
+              {({ id }) => <Input id={id} inputMode="numeric" value={trials} onChange={(e) => setTrials(e.target.value)} />}
+            </Field>
+            <Button type="submit" variant="primary" pending={create.isPending}>
+              Run the sweep
+            </Button>
+          </form>
+          {create.error ? (
+            <Alert className="mt-3" title="The sweep was not started">
+              {create.error.message} {fieldErrors?.map((f) => `${f.path}: ${f.message}`).join("; ")}
+            </Alert>
+          ) : null}
+        </Panel>
+      ) : null}
+
+      {s ? (
+        <Panel
+          title={`Sweep of ${s.parameter}`}
+          meta={`${s.values.length} points · ${formatCount(s.trials)} trials each · seed ${s.seed}`}
+          accent="var(--color-gyro)"
+        >
+          {s.status === "queued" || s.status === "running" ? (
+            <RunProgress label="Sweep" status={s.status} done={s.progress.done} total={s.progress.total} />
+          ) : null}
+          {s.status === "failed" || s.status === "interrupted" ? (
+            <Alert title="The sweep stopped">{s.error ?? "No message was recorded."}</Alert>
+          ) : null}
+          {s.status === "finished" ? (
+            <p className="text-[13px] text-ink/65">
+              All {s.points.length} points done; the marked point is today&apos;s value, whose yields equal an ordinary study with seed{" "}
+              {s.seed}.
+            </p>
+          ) : null}
+          <div className="mt-2 grid gap-5 lg:grid-cols-2">
+            {(s.points[0]?.requirements ?? []).map((r, k) => (
+              <SweepChart key={r.metric} sweep={s} k={k} parameterLabel={options.find((o) => o.id === s.parameter)?.label ?? s.parameter} />
+            ))}
+          </div>
+        </Panel>
+      ) : null}
+    </div>
+  );
+}
