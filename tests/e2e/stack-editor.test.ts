@@ -178,7 +178,8 @@ describe("the stack editor", () => {
       .waitFor();
     await page.getByRole("region", { name: "Problems" }).getByText("mag", { exact: true }).waitFor();
     await tree.getByRole("treeitem", { name: /^mag, magnetometer, 1 problem/ }).waitFor();
-    await page.getByText("Not saved: 1 problem to fix").waitFor();
+    // the status follows the autosave tick, which waits for the edit to settle
+    await page.getByText("Not saved: 1 problem to fix").waitFor({ timeout: 30_000 });
     await screenshot(page, "editor-new-stack-error");
 
     // Leaving now warns, because the server does not have the last edits.
