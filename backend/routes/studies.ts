@@ -1,12 +1,13 @@
 import { Router } from "express";
 import { IdParamsSchema } from "@shared/schemas/common";
 import { SiteSchema } from "@shared/schemas/site";
-import { CreateStudySchema } from "@shared/schemas/studies";
+import { CreateStudySchema, StudyExportQuerySchema } from "@shared/schemas/studies";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
 import { fieldAtSite } from "../services/geomagnetic";
 import { cancelStudy, createStudy, getStudy, listStudies, rerunStudy } from "../services/studies";
+import { studyCsv, studyXlsx } from "../services/study-export";
 
 export function studiesRouter({ db, studyQueue }: AppDeps) {
   const r = Router();
@@ -25,6 +26,16 @@ export function studiesRouter({ db, studyQueue }: AppDeps) {
   r.get("/studies/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json(await getStudy(db, actorOf(req).workspaceId, id));
+  });
+
+  r.get("/studies/:id/export", allow("projects.read"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    const { format } = parse(StudyExportQuerySchema, req, "query");
+    const study = await getStudy(db, actorOf(req).workspaceId, id);
+    const body = format === "xlsx" ? await studyXlsx(study) : studyCsv(study);
+    res.setHeader("content-disposition", `attachment; filename="study-${study.number}-results.${format}"`);
+    res.type(format === "xlsx" ? "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet" : "text/csv; charset=utf-8");
+    res.send(body);
   });
 
   r.post("/studies/:id/cancel", allow("studies.run"), async (req, res) => {

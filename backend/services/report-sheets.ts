@@ -5,7 +5,7 @@ import type { ReportMeta } from "./report-pdf";
 import { fmtDate } from "./report-format";
 import { distLabel } from "@shared/reports/format";
 
-type Cell = string | number | null;
+export type Cell = string | number | null;
 type Table = { title: string; header: string[]; rows: Cell[][]; numFmt?: Record<number, string> };
 
 const unitText = (u: "um" | "deg") => (u === "deg" ? "deg" : "um");
@@ -207,7 +207,7 @@ export function inertText(s: string): string {
   return /^[=+\-@\t\r]/.test(s) ? `'${s}` : s;
 }
 
-function csvCell(v: Cell): string {
+export function csvCell(v: Cell): string {
   if (v === null || v === undefined) return "";
   const s = typeof v === "number" ? (Number.isFinite(v) ? String(v) : "") : inertText(v);
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;

@@ -55,3 +55,8 @@ export type Study = z.infer<typeof StudySchema>;
 export const StudyListSchema = z.object({ studies: z.array(StudySummarySchema) });
 
 export const CompareQuerySchema = z.object({ a: IdSchema, b: IdSchema });
+
+/** `GET /api/studies/:id/export?format=csv|xlsx` */
+export const StudyExportQuerySchema = z.object({
+  format: z.enum(["csv", "xlsx"], { message: 'format must be "csv" or "xlsx"' }),
+});

@@ -360,6 +360,12 @@ export const ROUTES: Row[] = [
     body: () => ({ study: STUDY }),
   },
   { route: "GET /api/studies/:id", allowed: STAFF, path: async (c) => `/api/studies/${await freshStudy(c)}` },
+  {
+    route: "GET /api/studies/:id/export",
+    allowed: STAFF,
+    path: async (c) =>
+      `/api/studies/${(await insertFinishedStudy(c.t.handle.db, { workspaceId: c.workspaceId })).studyId}/export?format=csv`,
+  },
   { route: "POST /api/studies/:id/cancel", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c)}/cancel` },
   { route: "POST /api/studies/:id/rerun", allowed: WRITERS, path: async (c) => `/api/studies/${await freshStudy(c, "failed")}/rerun` },
   {

@@ -90,9 +90,21 @@ export function StudyRoute() {
         </div>
         <div className="flex flex-wrap gap-2">
           {result ? (
-            <Button pending={downloading} onClick={download}>
-              Download result (JSON)
-            </Button>
+            <>
+              {(["xlsx", "csv"] as const).map((format) => (
+                <a
+                  key={format}
+                  href={`/api/studies/${encodeURIComponent(study.id)}/export?format=${format}`}
+                  download
+                  className="inline-flex h-8.5 items-center rounded-md border border-line bg-panel px-3.5 text-[13px] font-semibold text-ink hover:border-ink/30 hover:bg-white"
+                >
+                  {format === "xlsx" ? "Download spreadsheet (XLSX)" : "Download tables (CSV)"}
+                </a>
+              ))}
+              <Button pending={downloading} onClick={download}>
+                Download result (JSON)
+              </Button>
+            </>
           ) : null}
           <Link
             to={`/projects/${project.id}/compare?a=${study.id}`}
