@@ -90,6 +90,16 @@ export function formatMrad(deg: number | null | undefined, significant = 3): str
   return deg !== null && deg !== undefined && Number.isFinite(deg) ? `${formatNumber(deg * MRAD_PER_DEG, significant)} mrad` : DASH;
 }
 
+/**
+ * An axis tick of a signed quantity: "+0.25°", "−0.25°", "0°" (a true minus sign, and a plus
+ * so the two sides of zero read apart at a glance).
+ */
+export function formatSignedTick(v: number, unit: "deg" | "%", significant = 3): string {
+  if (!Number.isFinite(v)) return DASH;
+  const sign = v > 0 ? "+" : v < 0 ? "−" : "";
+  return `${sign}${attachUnit(formatNumber(Math.abs(v), significant), unit)}`;
+}
+
 /** A value already in percent (cross-axis): "1.83 %". */
 export function formatPct(pct: number | null | undefined, significant = 3): string {
   return attachUnit(formatNumber(pct, significant), "%");

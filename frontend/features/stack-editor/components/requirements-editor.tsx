@@ -17,7 +17,7 @@ import { metricOptions } from "../lib/metrics";
 import { useEditor } from "./editor-context";
 import { NumberInput, SelectInput } from "./fields";
 import { YieldInput } from "./yield-input";
-import { formatMrad, formatPpm, formatYield, formatYieldRange, unitText } from "@shared/format";
+import { formatMrad, formatPpm, formatShare, formatYield, formatYieldRange, unitText } from "@shared/format";
 
 export function RequirementsEditor({ estimate, estimateStale }: { estimate: EstimateSummary | null; estimateStale: boolean }) {
   const { doc, issues, readOnly, setAt, update } = useEditor();
@@ -137,8 +137,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                           {est.drivers.slice(0, 2).map((d, k) => (
                             <span key={d.source}>
                               {k > 0 ? " · " : ""}
-                              <span className="font-mono text-ink/75">{d.source}</span>{" "}
-                              <span className="num">{Math.round(d.share * 100)} %</span>
+                              <span className="font-mono text-ink/75">{d.source}</span> <span className="num">{formatShare(d.share)}</span>
                             </span>
                           ))}
                         </span>

@@ -35,3 +35,12 @@ export const tooltipStyle = {
   labelStyle: { color: INK, fontWeight: 700, marginBottom: 2 },
   itemStyle: { padding: 0 },
 } as const;
+
+/**
+ * Width of a vertical axis that holds its longest tick label whole (signs included): about
+ * 0.62 em per character of Manrope at the tick size, plus the tick gap.
+ */
+export function axisWidthFor(labels: string[], min = 30): number {
+  const longest = Math.max(0, ...labels.map((l) => l.length));
+  return Math.max(min, Math.ceil(longest * axisTick.fontSize * 0.62 + 10));
+}

@@ -18,7 +18,7 @@ export function CompareResults({ a, b, ra, rb }: { a: StudyDetail; b: StudyDetai
       <StudyCautions />
       <RequirementsCompared ra={ra} rb={rb} />
 
-      <Panel title="Key percentiles" meta="of |value|; lower is better">
+      <Panel title="Key percentiles" meta="of the absolute value; lower is better">
         <PercentileTable ra={ra} rb={rb} elementOrder={((a.stack.elements ?? []) as { id: string }[]).map((e) => e.id)} />
       </Panel>
 

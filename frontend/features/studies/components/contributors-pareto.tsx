@@ -3,10 +3,11 @@ import { Bar, CartesianGrid, Cell, ComposedChart, Line, Tooltip, XAxis, YAxis } 
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { metricLabel } from "@shared/metrics";
+import { mcShares, type McShare } from "../lib/mc-significance";
 import { paretoRows, sourcesToReach, type ContributorMethod, type ParetoRow } from "../lib/pareto";
 import { axisLine, axisTick, gridProps, INK, SENSOR_COLOUR, tooltipStyle } from "./chart-theme";
 import { MetricSelect } from "./metric-select";
-import { formatNumber, formatPct } from "@shared/format";
+import { formatNumber, formatPct, formatShare } from "@shared/format";
 
 type Contributors = ResultFile["contributors"][number];
 
@@ -39,6 +40,10 @@ export function ContributorsPanel({
     return SENSOR_COLOUR[kindOf(head) ?? ""] ?? "#64748b";
   };
   const basis = c.basis === "variance" ? "variance" : "mean square";
+  const draws = new Map(result.sources.map((x) => [x.id, x.draws] as const));
+  const mc = mcShares(c, result.trials, (id) => draws.get(id) ?? 1);
+  const significant = new Set([...mc.values()].filter((x) => x.significant).map((x) => x.source));
+  const dropped = c.sources.filter((x) => (x.mcShare ?? 0) > 0 && !significant.has(x.source)).length;
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center justify-between gap-2">
@@ -68,20 +73,23 @@ export function ContributorsPanel({
           note={
             c.mcR2 === null
               ? "Not enough trials for the regression"
-              : `SRC² of ${c.mcDesign === "squared" ? "the squared metric on squared deviations" : "the metric on the draws"}; R² = ${formatNumber(c.mcR2, 2)}`
+              : `SRC² of ${c.mcDesign === "squared" ? "the squared metric on squared deviations" : "the metric on the draws"}; sources whose share is not told apart from zero at 95 % are left out${dropped ? ` (${dropped})` : ""}`
           }
-          rows={paretoRows(c, "mc")}
+          rows={paretoRows(c, "mc", undefined, significant)}
           method="mc"
           colourOf={colourOf}
         />
       </div>
-      {c.mcR2 !== null && c.mcR2 < 0.6 ? (
+      {c.mcR2 !== null ? (
         <p className="text-2xs text-ink/55">
-          The regression explains {formatPct(100 * c.mcR2, 2)} of the sample's spread: the metric is far from linear in its sources (a
-          maximum over attitudes, a magnitude), so read its ranking rather than its exact shares.
+          R² = {formatNumber(c.mcR2, 2)}: the regression on the sources explains {formatPct(100 * c.mcR2, 2)} of the metric&apos;s spread in
+          this sample.{" "}
+          {c.mcR2 < 0.6
+            ? "The metric is far from linear in its sources (a maximum over attitudes, a magnitude), so read its ranking rather than its exact shares."
+            : "The rest is what a straight-line fit cannot follow (curvature, interactions) and sampling noise."}
         </p>
       ) : null}
-      <SourcesTable contributors={c} sources={result.sources} colourOf={colourOf} />
+      <SourcesTable contributors={c} sources={result.sources} colourOf={colourOf} mc={mc} />
     </div>
   );
 }
@@ -150,10 +158,10 @@ function ParetoChart({
             cursor={{ fill: INK, fillOpacity: 0.05 }}
             formatter={(value, name, item) => {
               const r = item.payload as ParetoRow;
-              if (name === "Running total") return [formatPct(Number(value), 3), name];
+              if (name === "Running total") return [formatShare(Number(value) / 100), name];
               const other =
-                r.otherShare === null ? "" : ` (${method === "linear" ? "Monte Carlo" : "linearised"} ${formatPct(r.otherShare, 2)})`;
-              return [`${formatPct(Number(value), 3)}${other}`, "Share"];
+                r.otherShare === null ? "" : ` (${method === "linear" ? "Monte Carlo" : "linearised"} ${formatShare(r.otherShare / 100)})`;
+              return [`${formatShare(Number(value) / 100)}${other}`, "Share"];
             }}
           />
           <Bar yAxisId="share" dataKey="share" name="Share" isAnimationActive={false} maxBarSize={34}>
@@ -182,13 +190,16 @@ function SourcesTable({
   contributors,
   sources,
   colourOf,
+  mc,
 }: {
   contributors: Contributors;
   sources: ResultFile["sources"];
   colourOf: (source: string) => string;
+  mc: Map<string, McShare>;
 }) {
   const info = useMemo(() => new Map(sources.map((s) => [s.id, s] as const)), [sources]);
-  const rows = contributors.sources.filter((s) => s.linearShare > 0 || (s.mcShare ?? 0) > 0);
+  // a source with no linearised effect and no share told apart from zero moves nothing
+  const rows = contributors.sources.filter((s) => s.linearShare > 0 || mc.get(s.source)?.significant);
   return (
     <div className="max-h-72 overflow-y-auto rounded-md border border-line/80">
       <Table aria-label="Tolerance sources">
@@ -222,10 +233,10 @@ function SourcesTable({
                   {src ? `${src.mean ? `${formatNumber(src.mean)} ` : ""}± ${formatNumber(src.halfWidth)} ${unit}` : "—"}
                 </Td>
                 <Td numeric className="h-8 text-xs font-semibold">
-                  {formatPct(100 * s.linearShare, 3)}
+                  {formatShare(s.linearShare)}
                 </Td>
                 <Td numeric className="h-8 text-xs">
-                  {s.mcShare === null ? "—" : formatPct(100 * s.mcShare, 3)}
+                  <McCell share={mc.get(s.source)} regression={s.mcShare !== null} />
                 </Td>
               </Tr>
             );
@@ -233,5 +244,20 @@ function SourcesTable({
         </tbody>
       </Table>
     </div>
+  );
+}
+
+/** A Monte Carlo share with its 95 % interval, or why there is none. */
+function McCell({ share, regression }: { share: McShare | undefined; regression: boolean }) {
+  if (!regression) return <>—</>;
+  if (!share) return <span className="text-ink/45">no effect</span>;
+  if (!share.significant) return <span className="text-ink/45">not told from 0</span>;
+  return (
+    <span title="Share of the regression and its 95 % interval">
+      {formatShare(share.share)}
+      <span className="ml-1 text-2xs text-ink/50">
+        ({formatShare(share.lo)} – {formatShare(share.hi)})
+      </span>
+    </span>
   );
 }

@@ -81,7 +81,7 @@ export function ConvergencePanel({ result, metric, onMetric }: { result: ResultF
         </div>
       </div>
       <figure data-chart="convergence" aria-label={`Convergence of ${tracked.metric}`} className="min-w-0">
-        <figcaption className="text-[11.5px] font-bold text-ink">{statLabel} of |value|</figcaption>
+        <figcaption className="text-[11.5px] font-bold text-ink">{statLabel} of the absolute value</figcaption>
         <LineChart responsive style={{ width: "100%", height: 170 }} data={data} margin={{ top: 8, right: 14, bottom: 0, left: 4 }}>
           <CartesianGrid {...gridProps} />
           {xAxis}

@@ -2,9 +2,9 @@ import { useMemo, useState } from "react";
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceLine, Tooltip, XAxis, YAxis } from "recharts";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { envelopeByTilt, envelopeExtent, type TiltSeries } from "../lib/envelope";
-import { axisLine, axisTick, FAIL, gridProps, INK, tooltipStyle } from "./chart-theme";
+import { axisLine, axisTick, axisWidthFor, FAIL, gridProps, INK, tooltipStyle } from "./chart-theme";
 import { SegmentedControl } from "./segmented-control";
-import { formatDeg, formatMrad, formatNumber } from "@shared/format";
+import { formatDeg, formatMrad, formatSignedTick } from "@shared/format";
 
 type Envelope = NonNullable<ResultFile["envelope"]>;
 
@@ -132,6 +132,10 @@ function TiltChart({
     return [...rows.values()].sort((a, b) => (a.headingDeg as number) - (b.headingDeg as number));
   }, [layers]);
 
+  // signed ticks held whole: the axis is as wide as its longest label ("−0.125°")
+  const yTicks = [-extent, -extent / 2, 0, extent / 2, extent];
+  const yLabel = (v: number) => formatSignedTick(v, "deg");
+
   return (
     <figure
       className="min-w-0 rounded-md border border-line/80 bg-white/60 px-1 pt-1.5 pb-1"
@@ -154,12 +158,12 @@ function TiltChart({
         />
         <YAxis
           domain={[-extent, extent]}
-          ticks={[-extent, -extent / 2, 0, extent / 2, extent]}
+          ticks={yTicks}
           tick={axisTick}
           axisLine={axisLine}
           tickLine={false}
-          width={showYLabel ? 40 : 34}
-          tickFormatter={(v: number) => `${v > 0 ? "+" : v < 0 ? "−" : ""}${formatNumber(Math.abs(v), 3)}°`}
+          width={axisWidthFor(yTicks.map(yLabel), showYLabel ? 40 : 34)}
+          tickFormatter={yLabel}
           allowDataOverflow
         />
         <ReferenceLine y={0} stroke={INK} strokeOpacity={0.35} />

@@ -79,7 +79,7 @@ export function HistogramPanel({
                 tickLine={false}
                 tickFormatter={(v: number) => `${formatNumber(v, 2)}${unit === "%" ? " %" : "°"}`}
                 label={{
-                  value: h.abs ? `|value| (${unit === "%" ? "%" : "deg"})` : `value (${unit === "%" ? "%" : "deg"})`,
+                  value: h.abs ? `absolute value (${unit === "%" ? "%" : "°"})` : `value (${unit === "%" ? "%" : "°"})`,
                   position: "insideBottomRight",
                   offset: -2,
                   fontSize: 10.5,
@@ -142,9 +142,9 @@ export function HistogramPanel({
           <dl className="grid grid-cols-3 gap-x-4 gap-y-1 border-t border-line/80 pt-2 text-xs sm:grid-cols-6">
             <Stat label="Mean" value={stats.mean} unit={unit} />
             <Stat label="Std dev" value={stats.std} unit={unit} />
-            <Stat label="p95 |v|" value={stats.p95} unit={unit} />
-            <Stat label="p99.73 |v|" value={stats.p9973} unit={unit} />
-            <Stat label="Max |v|" value={stats.max} unit={unit} />
+            <Stat label="p95, absolute" value={stats.p95} unit={unit} />
+            <Stat label="p99.73, absolute" value={stats.p9973} unit={unit} />
+            <Stat label="Max, absolute" value={stats.max} unit={unit} />
             <Stat
               label="Past limit"
               text={req ? `${formatCount(beyond)} trials` : "no limit"}

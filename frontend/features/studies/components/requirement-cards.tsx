@@ -107,7 +107,7 @@ function RequirementCard({
         <dd className={cn("num font-semibold", r.passes ? "text-ink" : "text-fail")}>{formatPpm(r.ppmOut)}</dd>
         <dt className="text-ink/55">Allowed out</dt>
         <dd className="num text-ink/70">{formatPpm(allowedPpm)}</dd>
-        <dt className="text-ink/55">Limit |value|</dt>
+        <dt className="text-ink/55">Limit on the absolute value</dt>
         <dd className="num text-ink">
           ≤ <Limit value={r.max} unit={unit} />
         </dd>

@@ -83,7 +83,7 @@ export function SettingsRevisionPanel({
               <THead>
                 <tr>
                   <Th>Metric</Th>
-                  <Th align="right">Limit |value|</Th>
+                  <Th align="right">Limit, absolute value</Th>
                   <Th align="right">Yield target</Th>
                   <Th align="right">Allowed out</Th>
                 </tr>

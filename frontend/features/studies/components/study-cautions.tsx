@@ -16,3 +16,22 @@ export function StudyCautions({ className }: { className?: string }) {
     </aside>
   );
 }
+
+/** What a calibration does and does not correct, in words, beside the results. */
+export function CalibrationNote({ after }: { after: "none" | "package" | "board" }) {
+  return (
+    <p data-testid="calibration-note" className="rounded-md border border-line bg-panel px-3 py-2 text-xs leading-[18px] text-ink/75">
+      {after === "none" ? (
+        <>
+          <span className="font-bold text-ink">No calibration in this study:</span> every figure is the part as built.
+        </>
+      ) : (
+        <>
+          <span className="font-bold text-ink">Calibrated after the {after} stage:</span> the calibration corrects the cross-axis terms of
+          each sensor and with them the compass heading, down to its residual. It does not straighten anything: the geometric tilt of each
+          die and the relative rotation between dies stay as built.
+        </>
+      )}
+    </p>
+  );
+}

@@ -12,7 +12,7 @@ import { MetricsTable } from "./metrics-table";
 import { RequirementCards } from "./requirement-cards";
 import { RunRecord } from "./run-record";
 import { StackUpPanel } from "./stack-up-panel";
-import { StudyCautions } from "./study-cautions";
+import { CalibrationNote, StudyCautions } from "./study-cautions";
 import { TrialViewerSheet, type WorstTrialPick } from "./trial-viewer-sheet";
 import { WorstTrials } from "./worst-trials";
 import { SERIES_A } from "./chart-theme";
@@ -70,6 +70,7 @@ export function StudyResults({ study, result }: { study: StudyDetail; result: Re
   return (
     <div className="flex flex-col gap-4">
       <StudyCautions />
+      <CalibrationNote after={result.calibration} />
       <Section
         id="requirements"
         title="Requirements"
@@ -149,7 +150,7 @@ export function StudyResults({ study, result }: { study: StudyDetail; result: Re
         </Section>
       </div>
 
-      <Section id="metrics" title="Metrics" meta="key percentiles of |value|">
+      <Section id="metrics" title="Metrics" meta="key percentiles of the absolute value">
         <MetricsTable result={result} elementOrder={elementOrder} />
       </Section>
 

@@ -24,11 +24,18 @@ export interface ParetoRow {
 /** Sources below this share (%) are folded into one "others" bar, so the chart stays legible. */
 export const FOLD_BELOW_PCT = 0.5;
 
-export function paretoRows(c: Contributors, method: ContributorMethod, foldBelowPct = FOLD_BELOW_PCT): ParetoRow[] {
+/** `keep`: only these sources (the Monte Carlo shares that stand out from the noise). */
+export function paretoRows(
+  c: Contributors,
+  method: ContributorMethod,
+  foldBelowPct = FOLD_BELOW_PCT,
+  keep?: ReadonlySet<string>,
+): ParetoRow[] {
   const share = (s: Contributors["sources"][number], m: ContributorMethod) => (m === "linear" ? s.linearShare : s.mcShare);
   if (method === "mc" && c.sources.every((s) => s.mcShare === null)) return [];
   const other: ContributorMethod = method === "linear" ? "mc" : "linear";
   const ranked = c.sources
+    .filter((s) => !keep || keep.has(s.source))
     .map((s) => ({ source: s.source, share: 100 * (share(s, method) ?? 0), other: share(s, other) }))
     .filter((s) => s.share > 0)
     .sort((a, b) => b.share - a.share || a.source.localeCompare(b.source));
