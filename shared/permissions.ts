@@ -23,6 +23,8 @@ export const RIGHTS = [
   "suppliers.read",
   "suppliers.write",
   "members.manage",
+  /** workspace-wide settings, such as the work budget of one study */
+  "workspace.settings",
   "outbox.read",
   /** staff: the workspace's reports; a supplier: its company's released ones (service check) */
   "reports.read",
@@ -61,6 +63,7 @@ export const ROLE_RIGHTS: Record<Role, readonly Right[]> = {
     "datasets.send",
     "suppliers.write",
     "members.manage",
+    "workspace.settings",
     "outbox.read",
     "reports.write",
     "reports.release",

@@ -1,13 +1,14 @@
 import { Router } from "express";
 import { IdParamsSchema } from "@shared/schemas/common";
 import { SiteSchema } from "@shared/schemas/site";
-import { CreateStudySchema, StudyExportQuerySchema } from "@shared/schemas/studies";
+import { CreateStudySchema, StudyExportQuerySchema, UpdateStudyBudgetSchema } from "@shared/schemas/studies";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
 import { fieldAtSite } from "../services/geomagnetic";
 import { cancelStudy, createStudy, getStudy, listStudies, rerunStudy } from "../services/studies";
 import { studyCsv, studyXlsx } from "../services/study-export";
+import { getStudyBudget, setStudyBudget } from "../services/study-budget";
 
 export function studiesRouter({ db, studyQueue }: AppDeps) {
   const r = Router();
@@ -46,6 +47,15 @@ export function studiesRouter({ db, studyQueue }: AppDeps) {
   r.post("/studies/:id/rerun", allow("studies.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.status(202).json(await rerunStudy(db, studyQueue, actorOf(req), id));
+  });
+
+  r.get("/workspace/study-budget", allow("studies.run"), async (req, res) => {
+    res.json(await getStudyBudget(db, actorOf(req).workspaceId));
+  });
+
+  r.patch("/workspace/study-budget", allow("workspace.settings"), async (req, res) => {
+    const { budget } = parse(UpdateStudyBudgetSchema, req);
+    res.json(await setStudyBudget(db, actorOf(req), budget));
   });
 
   r.get("/geomagnetic-field", allow("projects.read"), (req, res) => {

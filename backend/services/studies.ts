@@ -2,12 +2,14 @@ import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import type { Project } from "@shared/schemas/api";
 import type { AsBuiltRecord } from "@shared/schemas/datasets";
 import type { CreateStudy, Study, StudySummary } from "@shared/schemas/studies";
-import { validateStudy } from "@shared/schemas/study-file";
+import { validateStudy, type StudyFile } from "@shared/schemas/study-file";
+import type { StackFile } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
 import { projects, stackRevisions, studies, studyResults, users } from "../db/schema";
 import { badRequest, conflict, found } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
+import { assertWithinBudget } from "./study-budget";
 import { applyAsBuilt, asBuiltLabel } from "./as-built";
 import { fieldAtSite } from "./geomagnetic";
 import { assertProjectOpen } from "./project-records";
@@ -124,6 +126,7 @@ export async function createStudy(db: Database, queue: StudyScheduler, actor: Ac
       "invalid_study",
     );
   }
+  await assertWithinBudget(db, actor.workspaceId, v.study, stack);
   const id = await db.transaction(async (tx) => {
     const [{ next }] = await tx
       .select({ next: sql<number>`coalesce(max(${studies.number}), 0)::int + 1` })
@@ -182,6 +185,8 @@ export async function rerunStudy(db: Database, queue: StudyScheduler, actor: Act
   if (!["interrupted", "failed", "cancelled"].includes(s.status)) {
     throw conflict(`Study ${s.number} is ${s.status}; only an interrupted, failed or cancelled study can be run again.`, "invalid_state");
   }
+  // the budget may have been lowered since it first ran
+  await assertWithinBudget(db, actor.workspaceId, s.study as unknown as StudyFile, s.stack as unknown as StackFile);
   await db.transaction(async (tx) => {
     await tx.delete(studyResults).where(eq(studyResults.studyId, id));
     await tx

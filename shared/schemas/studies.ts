@@ -60,3 +60,36 @@ export const CompareQuerySchema = z.object({ a: IdSchema, b: IdSchema });
 export const StudyExportQuerySchema = z.object({
   format: z.enum(["csv", "xlsx"], { message: 'format must be "csv" or "xlsx"' }),
 });
+
+// ---- the work budget: how much one study may ask of the shared engine --------------
+
+/**
+ * A study's work is its trials times the attitudes of its compass sweep (one when no sweep
+ * runs): the engine's time grows with both. The default lets the reference study (180
+ * attitudes) run 10^7 trials; an admin can raise it for the workspace up to the most the
+ * study file admits (10^7 trials × 20,000 attitudes).
+ */
+export const DEFAULT_STUDY_WORK_BUDGET = 2_000_000_000;
+export const MAX_STUDY_WORK_BUDGET = 200_000_000_000;
+export const MIN_STUDY_WORK_BUDGET = 1_000_000;
+
+export const StudyBudgetSchema = z.object({
+  budget: z.number(),
+  defaultBudget: z.number(),
+  maxBudget: z.number(),
+  /**
+   * Work (trial-attitudes) per second, the median over the workspace's recent finished
+   * studies as this server ran them; null until one has finished.
+   */
+  workPerSecond: z.number().nullable(),
+  measuredStudies: z.number().int(),
+});
+export type StudyBudget = z.infer<typeof StudyBudgetSchema>;
+
+export const UpdateStudyBudgetSchema = z.object({
+  budget: z
+    .number({ message: "budget must be a number of trial-attitudes" })
+    .int({ message: "budget must be a whole number" })
+    .min(MIN_STUDY_WORK_BUDGET, { message: `budget is at least ${MIN_STUDY_WORK_BUDGET.toLocaleString("en-US")}` })
+    .max(MAX_STUDY_WORK_BUDGET, { message: `budget is at most ${MAX_STUDY_WORK_BUDGET.toLocaleString("en-US")}` }),
+});

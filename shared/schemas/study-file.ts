@@ -155,8 +155,7 @@ export function checkStudyAgainstStack(study: StudyFile, stack: StackFile): Fiel
     if (!ids.has(m)) add(["adaptive", "metrics", i], `the stack has no metric "${m}"${hint(m)}`);
   });
 
-  const nPsi = Math.ceil(360 / (study.headingStepDeg ?? 10) - 1e-9);
-  const nAtt = nPsi * (study.tilts?.length ?? 5);
+  const nAtt = sweepAttitudes(study);
   if (nAtt > MAX_ATTITUDES)
     add(
       ["headingStepDeg"],
@@ -166,6 +165,22 @@ export function checkStudyAgainstStack(study: StudyFile, stack: StackFile): Fiel
     add(["calibration", "residualDeg"], `a calibration residual needs a calibration stage: set "after" to "package" or "board"`);
   }
   return issues;
+}
+
+/** Attitudes of the compass sweep for each trial: headings × tilts. */
+export function sweepAttitudes(study: Pick<StudyFile, "headingStepDeg" | "tilts">): number {
+  return Math.ceil(360 / (study.headingStepDeg ?? 10) - 1e-9) * (study.tilts?.length ?? 5);
+}
+
+/**
+ * The work a study asks of the engine: trials × the sweep's attitudes, or trials alone when no
+ * sweep runs (heading off, or no accelerometer and magnetometer). Without the stack, a sweep is
+ * assumed unless the study switches heading off.
+ */
+export function studyWork(study: StudyFile, stack?: StackFile): { attitudes: number; work: number } {
+  const sweeps = study.heading !== false && (stack ? study.headingSensors !== undefined || headingPair(stack, study) !== null : true);
+  const attitudes = sweeps ? sweepAttitudes(study) : 1;
+  return { attitudes, work: study.trials * attitudes };
 }
 
 /** Validate a parsed JSON value as a study of the given (already validated) stack. */

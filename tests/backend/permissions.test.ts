@@ -38,6 +38,7 @@ describe("rights table", () => {
     ["reports.release", ["admin", "reviewer"]],
     ["reports.acknowledge", ["supplier"]],
     ["members.manage", ["admin"]],
+    ["workspace.settings", ["admin"]],
     ["suppliers.write", ["admin"]],
     ["outbox.read", ["admin"]],
     ["reports.read", ["admin", "engineer", "reviewer", "supplier"]],

@@ -359,6 +359,9 @@ export const ROUTES: Row[] = [
     path: async (c) => `/api/revisions/${await freshRevision(c)}/studies`,
     body: () => ({ study: STUDY }),
   },
+  { route: "GET /api/workspace/study-budget", allowed: WRITERS },
+  // the default again, so the other rows' studies stay within it
+  { route: "PATCH /api/workspace/study-budget", allowed: ADMIN, body: () => ({ budget: 2_000_000_000 }) },
   { route: "GET /api/studies/:id", allowed: STAFF, path: async (c) => `/api/studies/${await freshStudy(c)}` },
   {
     route: "GET /api/studies/:id/export",

@@ -106,10 +106,13 @@ describe("progress: pace and time left", () => {
     expect(v.secondsLeft).toBe(0);
   });
 
-  it("estimates a new study from the median pace of finished ones", () => {
-    expect(estimateSeconds(1_000_000, [10_000, null, 20_000, 5_000])).toBe(100);
-    expect(estimateSeconds(1_000_000, [10_000, 20_000])).toBeCloseTo(1e6 / 15_000, 9);
-    expect(estimateSeconds(1_000_000, [null])).toBeNull();
+  it("estimates a new study from its work (trials × attitudes) at the measured work pace", () => {
+    // 10^6 trials × 180 attitudes at 2·10^6 trial-attitudes per second
+    expect(estimateSeconds(1_000_000 * 180, 2_000_000)).toBe(90);
+    // the same trials at a 0.1° step (18,000 attitudes) take a hundred times as long
+    expect(estimateSeconds(1_000_000 * 18_000, 2_000_000)).toBe(9_000);
+    expect(estimateSeconds(1_000_000, null)).toBeNull();
+    expect(estimateSeconds(0, 2_000_000)).toBeNull();
   });
 });
 

@@ -63,13 +63,16 @@ const queued = {
   asBuilt: [],
 };
 
-function renderForm(onStarted = vi.fn()) {
+// the workspace's budget and the pace of its finished studies: 1.8·10^6 compass evaluations per second
+const BUDGET = { budget: 2e9, defaultBudget: 2e9, maxBudget: 2e11, workPerSecond: 1_800_000, measuredStudies: 3 };
+
+function renderForm(onStarted = vi.fn(), canSetBudget = false) {
   renderWithApp(
     <StudySettingsForm
       revisions={[summary]}
       initialRevisionId={REV}
       initialValues={{ ...defaultFormValues(5), trials: "20000" }}
-      history={[{ ...queued, status: "finished", progress: { done: 1, total: 1, trialsPerSecond: 10_000 } }]}
+      canSetBudget={canSetBudget}
       onStarted={onStarted}
     />,
   );
@@ -80,6 +83,7 @@ describe("the study settings form", () => {
   it("shows the revision's requirements and, for a site, the field the WMM finds; the site goes to the server", async () => {
     const calls = mockFetch(({ url, method }) => {
       if (url === `/api/revisions/${REV}`) return jsonResponse(200, revision);
+      if (url === "/api/workspace/study-budget") return jsonResponse(200, BUDGET);
       if (url.startsWith("/api/geomagnetic-field?")) return jsonResponse(200, field);
       if (method === "POST") return jsonResponse(202, queued);
       return jsonResponse(404, { error: { code: "not_found", message: "no" } });
@@ -90,8 +94,8 @@ describe("the study settings form", () => {
     expect(within(reqTable).getByText("heading.maxAbsDeg")).toBeTruthy();
     expect(within(reqTable).getByText("≤ 2.00° (34.9 mrad)")).toBeTruthy();
     expect(within(reqTable).getByText("99.73 %")).toBeTruthy();
-    // 20,000 trials at the project's 10,000 trials/s
-    expect(screen.getByText("about 2 s")).toBeTruthy();
+    // 20,000 trials × 180 attitudes at the workspace's 1.8·10^6 per second
+    expect(await screen.findByText("about 2 s")).toBeTruthy();
 
     fireEvent.click(screen.getByText("From a site (WMM2025)"));
     fireEvent.change(screen.getByLabelText("Latitude"), { target: { value: "47.27" } });
@@ -128,6 +132,7 @@ describe("the study settings form", () => {
   it("stops a bad value in the browser, and puts the server's field messages next to the fields", async () => {
     const calls = mockFetch(({ url, method }) => {
       if (url === `/api/revisions/${REV}`) return jsonResponse(200, revision);
+      if (url === "/api/workspace/study-budget") return jsonResponse(200, BUDGET);
       if (method === "POST")
         return jsonResponse(400, {
           error: {
@@ -149,6 +154,45 @@ describe("the study settings form", () => {
     fireEvent.change(screen.getByLabelText("Trials"), { target: { value: "20,000" } });
     fireEvent.click(screen.getByText("Start study"));
     expect(await screen.findByText("The sweep would have 36000 attitudes")).toBeTruthy();
+  }, 20_000);
+});
+
+describe("the work budget in the study settings", () => {
+  it("warns before queueing a study past the budget, the time it would take included; an admin can raise it there", async () => {
+    const calls = mockFetch(({ url, method, body }) => {
+      if (url === `/api/revisions/${REV}`) return jsonResponse(200, revision);
+      if (url === "/api/workspace/study-budget")
+        return jsonResponse(200, method === "PATCH" ? { ...BUDGET, budget: (body as { budget: number }).budget } : BUDGET);
+      return jsonResponse(404, { error: { code: "not_found", message: "no" } });
+    });
+    renderForm(vi.fn(), true);
+    await screen.findByRole("table", { name: "Requirements of the revision" });
+    // 10^7 trials at a 0.1° step: 3,600 headings × 5 tilts
+    fireEvent.change(screen.getByLabelText("Trials"), { target: { value: "10000000" } });
+    fireEvent.change(screen.getByLabelText(/Heading step/), { target: { value: "0.1" } });
+    expect(await screen.findByText(/asks for 180,000,000,000 compass evaluations, more than the 2,000,000,000/)).toBeTruthy();
+    // 1.8·10^11 at 1.8·10^6 per second: 10^5 s
+    expect(screen.getByText("about 27 h 46 min")).toBeTruthy();
+
+    fireEvent.click(screen.getByText("Set"));
+    await waitFor(() => expect(calls.mock.calls.some((c) => (c[1] as RequestInit | undefined)?.method === "PATCH")).toBe(true));
+    const patch = calls.mock.calls.find((c) => (c[1] as RequestInit | undefined)?.method === "PATCH")!;
+    expect(JSON.parse(String((patch[1] as RequestInit).body))).toEqual({ budget: 180_000_000_000 });
+    await waitFor(() => expect(screen.queryByText(/more than the 2,000,000,000/)).toBeNull());
+  }, 20_000);
+
+  it("a person who may not set it is told to ask an admin, and sees no control", async () => {
+    mockFetch(({ url }) => {
+      if (url === `/api/revisions/${REV}`) return jsonResponse(200, revision);
+      if (url === "/api/workspace/study-budget") return jsonResponse(200, BUDGET);
+      return jsonResponse(404, { error: { code: "not_found", message: "no" } });
+    });
+    renderForm();
+    await screen.findByRole("table", { name: "Requirements of the revision" });
+    fireEvent.change(screen.getByLabelText("Trials"), { target: { value: "10000000" } });
+    fireEvent.change(screen.getByLabelText(/Heading step/), { target: { value: "0.1" } });
+    expect(await screen.findByText(/ask an admin to raise the budget/)).toBeTruthy();
+    expect(screen.queryByText("Set")).toBeNull();
   }, 20_000);
 });
 

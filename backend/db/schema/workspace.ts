@@ -1,6 +1,6 @@
 /** The workspace, its members, suppliers and their contacts, invitations, projects and activity. */
 import { relations, sql } from "drizzle-orm";
-import { boolean, index, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { bigint, boolean, index, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { version, timestamps } from "./columns";
 import { users } from "./auth";
 
@@ -10,6 +10,8 @@ export const workspaces = pgTable("workspaces", {
   name: text("name").notNull(),
   /** Set on the workspace the seed creates; the seed never writes into any other. */
   isDemo: boolean("is_demo").default(false).notNull(),
+  /** Most work (trials × attitudes) one study may ask for; null: the product's default (shared/schemas/studies). */
+  studyWorkBudget: bigint("study_work_budget", { mode: "number" }),
   ...timestamps,
 });
 

@@ -14,6 +14,8 @@ import { StudySettingsForm } from "@frontend/features/studies/components/study-s
 import { defaultFormValues, formValuesFromStudy } from "@frontend/features/studies/lib/study-form";
 import { isApiError } from "@frontend/lib/api-client";
 import { requirePermission } from "../../route-guards";
+import { useMe } from "@frontend/features/auth/api/get-me";
+import { can } from "@frontend/lib/permissions";
 
 const notFound = () => data({ message: "This project does not exist, or it was deleted." }, { status: 404 });
 
@@ -47,6 +49,7 @@ export function StudyNewRoute() {
   const { id = "" } = useParams();
   const [params] = useSearchParams();
   const navigate = useNavigate();
+  const me = useMe();
   const { data: project } = useProject(id);
   const { data: revisions } = useSuspenseQuery(projectRevisionsQueryOptions(id));
   const { data: studies } = useSuspenseQuery(studiesQueryOptions(id));
@@ -82,7 +85,7 @@ export function StudyNewRoute() {
           initialValues={source ? formValuesFromStudy(source.study, source.site, "") : defaultFormValues()}
           startedFrom={source ? `study ${source.number}${source.label ? ` (${source.label})` : ""}` : undefined}
           defaultsHref={source ? `/projects/${project.id}/studies/new?revision=${initialRevision.id}&from=none` : undefined}
-          history={studies}
+          canSetBudget={can(me.role, "workspace.settings")}
           onStarted={(s) => navigate(`/projects/${project.id}/studies/${s.id}`)}
         />
       )}

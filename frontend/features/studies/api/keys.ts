@@ -8,4 +8,5 @@ export const studyKeys = {
   revisions: (projectId: string) => [...studyKeys.all, "revisions", projectId] as const,
   revision: (id: string) => [...studyKeys.all, "revision", id] as const,
   field: (site: Record<string, unknown>) => [...studyKeys.all, "geomagnetic-field", site] as const,
+  budget: () => [...studyKeys.all, "work-budget"] as const,
 };

@@ -6,6 +6,7 @@ import type { StudySummary } from "@shared/schemas/studies";
 import { isApiError } from "@frontend/lib/api-client";
 import { useCreateStudy } from "../api/create-study";
 import { useGeomagneticField } from "../api/get-geomagnetic-field";
+import { useStudyBudget } from "../api/study-budget";
 import { useRevision } from "../api/get-revision";
 import { estimateSeconds } from "../lib/progress";
 import { attitudeCount, buildStudy, issuesToErrors, siteOf, type FormErrors, type StudyFormValues } from "../lib/study-form";
@@ -36,7 +37,7 @@ export function StudySettingsForm({
   initialValues,
   startedFrom,
   defaultsHref,
-  history,
+  canSetBudget = false,
   onStarted,
 }: {
   revisions: RevisionSummary[];
@@ -46,8 +47,8 @@ export function StudySettingsForm({
   startedFrom?: string;
   /** where "Start from the defaults" leads, when the settings were copied */
   defaultsHref?: string;
-  /** the project's studies, for the time estimate */
-  history: StudySummary[];
+  /** whether this person may raise the workspace's work budget (admins) */
+  canSetBudget?: boolean;
   onStarted: (study: StudySummary) => void;
 }) {
   const [revisionId, setRevisionId] = useState(initialRevisionId);
@@ -76,14 +77,9 @@ export function StudySettingsForm({
     return step > 0 ? attitudeCount({ headingStepDeg: step, tilts: v.tilts.map(() => ({ pitchDeg: 0, rollDeg: 0 })) }) : null;
   })();
   const trials = Number(v.trials.replace(/[\s,_]/g, ""));
-  const estimate = useMemo(
-    () =>
-      estimateSeconds(
-        trials,
-        history.filter((s) => s.status === "finished").map((s) => s.progress.trialsPerSecond),
-      ),
-    [trials, history],
-  );
+  const budget = useStudyBudget();
+  const work = attitudes && trials > 0 ? attitudes * trials : null;
+  const estimate = work !== null ? estimateSeconds(work, budget.data?.workPerSecond) : null;
 
   function submit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -149,6 +145,9 @@ export function StudySettingsForm({
           fieldInclination={fieldInclination}
           requirementCount={requirements.length}
           estimate={estimate}
+          work={work}
+          budget={budget.data ?? null}
+          canSetBudget={canSetBudget}
           serverError={create.isError}
           pending={create.isPending}
           ready={!!revision.data}

@@ -55,13 +55,12 @@ export function recentPace(samples: ProgressSample[], now: number, windowMs = PA
 }
 
 /**
- * A first guess at how long a study will take: its trials at the median pace of the
- * project's finished studies. The sweep's size changes the pace, so this is a rough guide.
+ * How long a study will take: its work (trials × attitudes of the sweep) at the pace this
+ * server showed on the workspace's recent finished studies, measured in the same unit (work
+ * per second of run time). Trials alone would mislead: a 0.1° heading step is a hundred times
+ * the work of a 10° one at the same trials. Null until a study has finished here.
  */
-export function estimateSeconds(trials: number, rates: (number | null)[]): number | null {
-  const known = rates.filter((r): r is number => r !== null && Number.isFinite(r) && r > 0).sort((a, b) => a - b);
-  if (!known.length || !(trials > 0)) return null;
-  const mid = known.length / 2;
-  const median = known.length % 2 ? known[Math.floor(mid)] : (known[mid - 1] + known[mid]) / 2;
-  return trials / median;
+export function estimateSeconds(work: number, workPerSecond: number | null | undefined): number | null {
+  if (!(work > 0) || !workPerSecond || !Number.isFinite(workPerSecond) || workPerSecond <= 0) return null;
+  return work / workPerSecond;
 }

@@ -1,0 +1,1 @@
+ALTER TABLE "workspaces" ADD COLUMN "study_work_budget" bigint;
