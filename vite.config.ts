@@ -48,7 +48,7 @@ export default defineConfig({
           environment: "node",
           include: ["tests/backend/**/*.test.ts"],
           testTimeout: 60_000,
-          hookTimeout: 60_000,
+          hookTimeout: 120_000,
         },
       },
       {
@@ -64,7 +64,7 @@ export default defineConfig({
           exclude: ["tests/backend/roles.test.ts"],
           globalSetup: ["tests/setup/postgres-global.ts"],
           testTimeout: 60_000,
-          hookTimeout: 60_000,
+          hookTimeout: 120_000,
         },
       },
       {

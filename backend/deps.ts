@@ -16,6 +16,8 @@ export type Clock = () => Date;
  * (`backend/runtime.ts`); tests build their own with an in-memory database. Nothing the
  * routes or services use comes from a module-global registry.
  */
+import type { StorageGuard } from "./lib/storage";
+
 export type AppDeps = {
   db: Database;
   auth: Auth;
@@ -33,6 +35,10 @@ export type AppDeps = {
   enginePool: EnginePool;
   /** Sweeps and allocations (issue 12): queued beside the studies, run on the same pool. */
   whatIfQueue: WhatIfQueue;
+  /** Room on disk and the workspace quota, checked before large writes (507 when short). */
+  storage: StorageGuard;
+  /** Measurement uploads one supplier company may send per hour. */
+  supplierUploadsPerHour: number;
 };
 
 export const systemClock: Clock = () => new Date();

@@ -3,7 +3,9 @@
  * study queue, the demo seed steps, and what starts and stops with the process. `server.ts`
  * uses `createRuntime(env)`; tests call `assembleRuntime` with their own parts.
  */
+import { tmpdir } from "node:os";
 import { createAuth } from "./auth";
+import { storageGuard, storageSettingsOf, type StorageGuard } from "./lib/storage";
 import { openDatabase, type DatabaseHandle } from "./db/client";
 import { DEMO_SEED_STEPS } from "./demo/steps";
 import { systemClock, type AppDeps, type Clock, type Log } from "./deps";
@@ -45,6 +47,9 @@ export type RuntimeParts = {
   seedSteps: readonly SeedStep[] | null;
   /** Whether closing the runtime closes the database too (tests may reopen it). */
   ownsDatabase?: boolean;
+  /** Room on disk and the workspace quota; default: the temporary folder, nothing reserved, 2 GB per workspace. */
+  storage?: StorageGuard;
+  supplierUploadsPerHour?: number;
   /** Server mode: the job queue takes the place of the in-process study queue. */
   serverMode?: { studyQueue: StudyScheduler; queueStatus: AppDeps["queueStatus"]; stop: () => Promise<void> };
 };
@@ -72,6 +77,8 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
     enginePool,
     whatIfQueue,
     queueStatus: parts.serverMode?.queueStatus,
+    storage: parts.storage ?? storageGuard({ paths: [tmpdir()], reserveBytes: 0, workspaceQuotaBytes: 2048 * 1024 * 1024 }),
+    supplierUploadsPerHour: parts.supplierUploadsPerHour ?? 30,
   };
   const lifecycle: Lifecycle[] = [
     { name: "database", stop: parts.ownsDatabase === false ? undefined : () => handle.close() },
@@ -112,6 +119,8 @@ export async function createRuntime(env: Env, log: Log): Promise<Runtime> {
     log,
     serverMode,
     mail: mailSettingsOf(env),
+    storage: storageGuard(storageSettingsOf(env)),
+    supplierUploadsPerHour: env.SUPPLIER_UPLOADS_PER_HOUR,
     engineThreads: env.STUDY_THREADS,
     seedSteps: env.SEED_DEMO ? DEMO_SEED_STEPS : null,
   });

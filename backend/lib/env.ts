@@ -30,6 +30,12 @@ const EnvSchema = z.object({
   /** Express's `trust proxy` behind a reverse proxy (e.g. "loopback" or "1"): scheme, host and client address then come from X-Forwarded-*. */
   TRUST_PROXY: z.string().min(1).optional(),
   BETTER_AUTH_SECRET: z.string().min(32, "BETTER_AUTH_SECRET must be at least 32 characters").optional(),
+  /** Free disk space (MB) the server always leaves: a write that would go below it answers 507. */
+  MIN_FREE_DISK_MB: z.coerce.number().int().min(0).max(1_000_000).default(256),
+  /** What one workspace may keep in uploaded data sets and report files (MB). */
+  WORKSPACE_QUOTA_MB: z.coerce.number().int().min(1).max(10_000_000).default(2048),
+  /** Measurement uploads one supplier company may send per hour. */
+  SUPPLIER_UPLOADS_PER_HOUR: z.coerce.number().int().min(1).max(10_000).default(30),
   /** Sign-in attempts allowed per client address per minute. */
   SIGN_IN_PER_MINUTE: z.coerce.number().int().min(1).max(10000).default(10),
   /** Worker threads of the engine pool (shared by every running study); default: one per core. */

@@ -39,6 +39,15 @@ export const notFoundApi: RequestHandler = (req) => {
   throw new HttpError(404, "not_found", `No API route ${req.method} ${req.path}.`);
 };
 
+export const DISK_FULL_MESSAGE =
+  "The server's disk is nearly full, so nothing was stored. Ask your administrator to free space; no restart is needed afterwards.";
+
+/** A write that failed because the disk (or the user's disk quota) is full. */
+export function isDiskFull(err: unknown): boolean {
+  const code = (err as { code?: unknown } | null)?.code;
+  return code === "ENOSPC" || code === "EDQUOT";
+}
+
 /** The one error middleware: every failure leaves as the same JSON shape, never with internals. */
 export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
   return (err, _req, res, _next) => {
@@ -61,6 +70,13 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
     }
     if (e?.type === "entity.too.large") {
       res.status(413).json({ error: { code: "too_large", message: "The request body is too large." } });
+      return;
+    }
+    // A write that met a full disk is an answer, not a 500: the server keeps serving, and the
+    // same write succeeds once space is freed.
+    if (isDiskFull(err)) {
+      log(err);
+      res.status(507).json({ error: { code: "insufficient_storage", message: DISK_FULL_MESSAGE } });
       return;
     }
     const status = e?.status ?? e?.statusCode;

@@ -44,6 +44,9 @@ export type TestAppOptions = {
   /** Server mode: a job-queue scheduler and its status, in place of the in-process queue. */
   scheduler?: StudyScheduler;
   queueStatus?: AppDeps["queueStatus"];
+  /** Room on disk and the workspace quota (tests inject a full disk); the runtime's default otherwise. */
+  storage?: AppDeps["storage"];
+  supplierUploadsPerHour?: number;
 };
 
 // The seed queues the demo study; most tests want the queue to themselves.
@@ -73,6 +76,8 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
     engineThreads: 2,
     seedSteps: opts.seed === false ? null : opts.keepDemoStudy ? DEMO_SEED_STEPS : [...DEMO_SEED_STEPS, cancelQueuedStudies],
     ownsDatabase: !opts.handle,
+    storage: opts.storage,
+    supplierUploadsPerHour: opts.supplierUploadsPerHour,
     serverMode: opts.scheduler ? { studyQueue: opts.scheduler, queueStatus: opts.queueStatus, stop: async () => undefined } : undefined,
   });
   const { deps } = runtime;
