@@ -193,3 +193,21 @@ export function formatWritten(v: number | null | undefined, unit: string | null 
   if (v === null || v === undefined || !Number.isFinite(v)) return DASH;
   return `${prefix}${attachUnit(formatPlain(v), unit)}`;
 }
+
+/**
+ * A value rounded to a fixed step (a drawing's or a file's stated resolution), with a true
+ * minus sign: (−0.3, 0.001) → "−0.300", (15, 0.1) → "15.0".
+ */
+export function formatFixed(v: number | null | undefined, step: number): string {
+  if (v === null || v === undefined || !Number.isFinite(v)) return DASH;
+  const decimals = Math.max(0, Math.round(-Math.log10(step)));
+  const s = roundTo(v, step).toFixed(decimals);
+  return /^-0(\.0*)?$/.test(s) ? s.slice(1) : s.replace(/^-/, "−");
+}
+
+/** v rounded to a multiple of step, without floating-point tails (for files read by machines). */
+export function roundTo(v: number, step: number): number {
+  const decimals = Math.max(0, Math.round(-Math.log10(step)));
+  const r = Number((Math.round(v / step) * step).toFixed(decimals));
+  return Object.is(r, -0) ? 0 : r;
+}

@@ -203,6 +203,27 @@ export function text(
   return w;
 }
 
+/**
+ * A word wider than the line in pieces that fit, broken after a dot, dash, underscore or
+ * slash where one falls in the piece (source ids such as "accel.bondLine"), else anywhere:
+ * names wrap, they are never cut off.
+ */
+function breakWord(doc: Doc, word: string, style: TextStyle, width: number): string[] {
+  if (width <= 0 || measure(doc, word, style) <= width) return [word];
+  const out: string[] = [];
+  let rest = word;
+  while (rest && measure(doc, rest, style) > width) {
+    let n = 1;
+    while (n < rest.length && measure(doc, rest.slice(0, n + 1), style) <= width) n++;
+    const soft = Math.max(...[".", "-", "_", "/"].map((ch) => rest.lastIndexOf(ch, n - 1)));
+    const at = soft > 0 ? soft + 1 : n;
+    out.push(rest.slice(0, at));
+    rest = rest.slice(at);
+  }
+  if (rest) out.push(rest);
+  return out;
+}
+
 /** Word-wrapped text; returns its height. Blank lines in `value` separate paragraphs. */
 export function paragraph(
   doc: Doc,
@@ -227,7 +248,7 @@ export function paragraph(
       line = [];
       lw = 0;
     };
-    for (const word of words) {
+    for (const word of words.flatMap((w) => breakWord(doc, w, style, width))) {
       const ww = measure(doc, word, style);
       if (line.length && lw + space + ww > width) flush();
       lw += (line.length ? space : 0) + ww;

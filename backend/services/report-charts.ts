@@ -1,6 +1,6 @@
 /** The report's figures drawn as vector graphics: contributors, heading envelope, stack side view. */
 import type { ReportContent } from "@shared/schemas/reports";
-import { box, COLOURS, FAINT, INK, LINE, MUTED, rule, text, type Doc } from "./pdf-draw";
+import { box, COLOURS, FAINT, INK, LINE, MUTED, paragraph, rule, text, type Doc } from "./pdf-draw";
 import { formatNumber, formatShare } from "@shared/format";
 
 export const OURS = COLOURS.mag;
@@ -8,47 +8,66 @@ const OTHERS = "#b9c0c9";
 
 type Chart = ReportContent["contributors"][number];
 
-export const contributorChartHeight = (c: Chart) => 30 + (c.bars.length + (c.restShare > 0.0005 ? 1 : 0)) * 15 + 8;
+const LABEL_W = 118;
+const VALUE_W = 44;
+const TITLE = { size: 8.5, weight: "bold" as const, lineHeight: 10.5 };
+const METRIC = { size: 7.5, color: FAINT, lineHeight: 9 };
+const BAR_LABEL = { size: 7.5, lineHeight: 9 };
+
+type BarRow = { label: string; share: number; ours: boolean; rest: boolean; h: number };
+
+/** The chart's rows with their heights: a long source id wraps onto more lines rather than being cut. */
+function chartRows(doc: Doc, c: Chart): BarRow[] {
+  const rows = c.bars.map((b) => ({ label: b.source, share: b.share, ours: b.ours, rest: false }));
+  if (c.restShare > 0.0005) rows.push({ label: "all other sources", share: c.restShare, ours: false, rest: true });
+  return rows.map((r) => ({ ...r, h: Math.max(15, paragraph(doc, r.label, 0, 0, LABEL_W - 8, BAR_LABEL, false) + 6) }));
+}
+
+function chartTitleHeight(doc: Doc, c: Chart, w: number) {
+  return paragraph(doc, c.description, 0, 0, w, TITLE, false) + paragraph(doc, c.metric, 0, 0, w, METRIC, false) + 4;
+}
+
+export const contributorChartHeight = (doc: Doc, c: Chart, w: number) =>
+  chartTitleHeight(doc, c, w) + chartRows(doc, c).reduce((a, r) => a + r.h, 0) + 15 + 8;
 
 /** Horizontal bars: each source's share of the metric's spread, this supplier's in colour. */
 export function contributorChart(doc: Doc, c: Chart, x: number, y: number, w: number) {
-  text(doc, c.description, x, y, { size: 8.5, weight: "bold", width: w - 120 });
-  text(doc, c.metric, x + w - 200, y + 0.5, { size: 7.5, color: FAINT, width: 200, align: "right" });
-  const labelW = 118;
-  const valueW = 44;
+  const th = paragraph(doc, c.description, x, y, w, TITLE);
+  paragraph(doc, c.metric, x, y + th, w, METRIC);
+  const labelW = LABEL_W;
+  const valueW = VALUE_W;
   const barX = x + labelW;
   const barW = w - labelW - valueW;
+  const rows = chartRows(doc, c);
+  const rowsH = rows.reduce((a, r) => a + r.h, 0);
   const top = Math.max(...c.bars.map((b) => b.share), c.restShare, 0.01);
   // a round end of scale, so the grid reads 10, 20, 30, 40 %
   const max = [0.05, 0.1, 0.2, 0.4, 0.6, 0.8, 1].find((m) => m >= top - 1e-9) ?? 1;
-  let cy = y + 18;
+  let cy = y + chartTitleHeight(doc, c, w);
   // quarter grid lines so a bar's length reads without its number
   for (const f of [0, 0.25, 0.5, 0.75, 1]) {
     const gx = barX + barW * f;
     doc
       .save()
       .moveTo(gx, cy - 2)
-      .lineTo(gx, cy + (c.bars.length + 1) * 15)
+      .lineTo(gx, cy + rowsH + 15)
       .lineWidth(0.4)
       .strokeColor(f === 0 ? "#a9a293" : "#ebe7de")
       .stroke()
       .restore();
     if (f > 0)
-      text(doc, `${Math.round(max * f * 100)} %`, gx - 20, cy + (c.bars.length + 1) * 15 + 1, {
+      text(doc, `${Math.round(max * f * 100)} %`, gx - 20, cy + rowsH + 16, {
         size: 6,
         color: FAINT,
         width: 40,
         align: "center",
       });
   }
-  const rows = [...c.bars.map((b) => ({ label: b.source, share: b.share, ours: b.ours, rest: false }))];
-  if (c.restShare > 0.0005) rows.push({ label: "all other sources", share: c.restShare, ours: false, rest: true });
   for (const b of rows) {
-    text(doc, b.label, x, cy + 1.5, {
-      size: 7.5,
+    paragraph(doc, b.label, x, cy + 1.5, labelW - 8, {
+      ...BAR_LABEL,
       weight: b.ours ? "bold" : "regular",
       color: b.rest ? FAINT : b.ours ? INK : MUTED,
-      width: labelW - 8,
     });
     const bw = Math.max(0.8, (b.share / max) * barW);
     box(doc, barX, cy + 1, bw, 9.5, { fill: b.ours ? OURS : b.rest ? "#e3dfd5" : OTHERS, radius: 1.2 });
@@ -59,7 +78,7 @@ export function contributorChart(doc: Doc, c: Chart, x: number, y: number, w: nu
       align: "right",
       color: b.ours ? INK : MUTED,
     });
-    cy += 15;
+    cy += b.h;
   }
 }
 
@@ -314,7 +333,13 @@ export function sideView(doc: Doc, stack: El[], x: number, y: number, w: number,
   const lx = x + drawW + 10;
   for (const l of labels) {
     const ly = Math.max(l.yMid - 4, lastY);
-    lastY = ly + (l.p.e.sources.length ? 18 : 11);
+    const ours = l.p.e.sources.length > 0;
+    const head = `${l.p.e.id}  ·  ${l.p.e.kind}, ${formatNumber(l.p.e.size.z * 1000, 3)} µm`;
+    const mine = l.p.e.sources.map((s) => s.slice(l.p.e.id.length + 1)).join(", ");
+    const headStyle = { size: 6.8, weight: ours ? ("bold" as const) : ("regular" as const), color: ours ? INK : MUTED, lineHeight: 8.5 };
+    const mineStyle = { size: 6.2, color: OURS, lineHeight: 8 };
+    const hh = paragraph(doc, head, 0, 0, labelW - 6, headStyle, false);
+    lastY = ly + hh + (ours ? paragraph(doc, mine, 0, 0, labelW - 6, mineStyle, false) : 0) + 2.5;
     doc
       .save()
       .moveTo(X(l.p.x1) + 1, l.yMid)
@@ -323,19 +348,8 @@ export function sideView(doc: Doc, stack: El[], x: number, y: number, w: number,
       .strokeColor("#a9a293")
       .stroke()
       .restore();
-    const ours = l.p.e.sources.length > 0;
-    text(doc, `${l.p.e.id}  ·  ${l.p.e.kind}, ${formatNumber(l.p.e.size.z * 1000, 3)} µm`, lx, ly, {
-      size: 6.8,
-      weight: ours ? "bold" : "regular",
-      color: ours ? INK : MUTED,
-      width: labelW - 6,
-    });
-    if (ours)
-      text(doc, l.p.e.sources.map((s) => s.slice(l.p.e.id.length + 1)).join(", "), lx, ly + 8.5, {
-        size: 6.2,
-        color: OURS,
-        width: labelW - 6,
-      });
+    paragraph(doc, head, lx, ly, labelW - 6, headStyle);
+    if (ours) paragraph(doc, mine, lx, ly + hh, labelW - 6, mineStyle);
   }
   const ptPerMm = 72 / 25.4;
   const scale = `scale about ${formatNumber(sx / ptPerMm, 2)} : 1 across; heights a further ${formatNumber(sz / sx, 2)}× exaggerated`;

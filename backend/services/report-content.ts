@@ -237,6 +237,7 @@ export function buildReportContent(input: ReportInputs, builtAt = new Date()): R
       position: e.position ?? { x: 0, y: 0 },
       yawDeg: e.yawDeg ?? 0,
       bondThicknessUm: e.bondLine?.thicknessUm ?? 0,
+      ...(Array.isArray(e.bondLine?.supports) ? { supports: e.bondLine.supports } : {}),
       sources: byElement.get(e.id) ?? [],
     })),
     cautions: [...REPORT_CAUTIONS],

@@ -1,14 +1,37 @@
-/** The report's tables as a spreadsheet (exceljs) and as CSV: the same rows as the PDF, with numbers kept as numbers. */
+/**
+ * The report's tables as a spreadsheet (exceljs) and as CSV: the same rows as the PDF, numbers
+ * kept as numbers, rounded to the resolution each header states beside its unit.
+ */
 import ExcelJS from "exceljs";
 import type { ReportContent } from "@shared/schemas/reports";
 import type { ReportMeta } from "./report-pdf";
 import { fmtDate } from "./report-format";
 import { distLabel } from "@shared/reports/format";
+import { formatFixed, roundTo } from "@shared/format";
+import {
+  describeSupports,
+  FRACTION_RESOLUTION,
+  positionReference,
+  REPORT_RESOLUTION,
+  SIGMA_RESOLUTION,
+  sourceNominal,
+} from "@shared/reports/nominals";
+import { MEASUREMENT_SAMPLE, measurementSteps } from "@shared/reports/measurement-plan";
+import { placeStack } from "./report-pdf-drawing";
 
 export type Cell = string | number | null;
-type Table = { title: string; header: string[]; rows: Cell[][]; numFmt?: Record<number, string> };
+type Table = { title: string; header: string[]; rows: Cell[][] };
 
-const unitText = (u: "um" | "deg") => (u === "deg" ? "deg" : "um");
+/** The spreadsheet shows every digit of the resolution a header states ("… (um, to 0.1)" → 0.0). */
+function formatOf(header: string): string | undefined {
+  const m = /to ([0-9.]+)\)$/.exec(header);
+  if (!m) return undefined;
+  const decimals = m[1].split(".")[1]?.length ?? 0;
+  return decimals ? `0.${"0".repeat(decimals)}` : "0";
+}
+
+const res = (step: number) => `to ${formatFixed(step, step)}`;
+const round = (v: number | null, step: number) => (v === null || !Number.isFinite(v) ? null : roundTo(v, step));
 
 function facts(c: ReportContent, meta: ReportMeta): Array<[string, Cell]> {
   return [
@@ -25,52 +48,151 @@ function facts(c: ReportContent, meta: ReportMeta): Array<[string, Cell]> {
     ["Study", c.study.number],
     ["Study label", c.study.label],
     ["Capability asked (Cpk)", c.capability.cpk],
+    [
+      "Targets",
+      c.requirements.every((r) => r.passes)
+        ? "every requirement of the study is predicted to meet its target"
+        : `the study misses ${c.requirements.filter((r) => !r.passes).length} of ${c.requirements.length} targets`,
+    ],
+    [
+      "Resolution",
+      `numbers rounded as stated in each header: dimensions in mm to ${REPORT_RESOLUTION.mm}, small heights in um to ${REPORT_RESOLUTION.um}, angles in deg to ${REPORT_RESOLUTION.deg}`,
+    ],
     ["Link", meta.link],
   ];
 }
 
-function tolerancesTable(c: ReportContent): Table {
+/** The supplier's tolerances in one unit, each with its nominal and datum, limits absolute. */
+function tolerancesTable(c: ReportContent, unit: "um" | "deg"): Table {
+  const r = REPORT_RESOLUTION[unit];
+  const sr = SIGMA_RESOLUTION[unit];
+  const h = (name: string, step: number = r) => `${name} (${unit}, ${res(step)})`;
   return {
-    title: "Tolerances",
+    title: `Tolerances ${unit}`,
     header: [
       "Source",
       "Element",
       "Element kind",
       "Quantity",
-      "Unit",
-      "Tolerance (±)",
-      "Target (mean)",
-      "Lower limit",
-      "Upper limit",
+      "Datum",
+      h("Nominal"),
+      h("Target offset"),
+      h("Tolerance ±"),
+      h("Lower limit"),
+      h("Upper limit"),
       "Distribution",
       "Sigmas",
       "Stage",
-      "Cpk asked",
+      `Cpk asked (${res(FRACTION_RESOLUTION.cpk)})`,
       "Cpk raised to study",
-      "Sigma max",
-      "Sigma modelled",
+      h("Sigma max", sr),
+      h("Sigma modelled", sr),
       "Draws",
     ],
-    rows: c.tolerances.map((t) => [
-      t.source,
-      t.elementName,
-      t.elementKind,
-      t.quantity,
-      unitText(t.unit),
-      t.tol,
-      t.mean,
-      t.tol === null ? null : t.mean - t.tol,
-      t.tol === null ? null : t.mean + t.tol,
-      distLabel(t.dist, t.sigmas),
-      t.sigmas,
-      t.stage,
-      Number(t.cpk.toFixed(4)),
-      t.raised ? "yes" : "no",
-      t.sigmaMax,
-      t.sigmaModelled,
-      t.draws,
-    ]),
-    numFmt: { 12: "0.00", 14: "0.0000", 15: "0.0000" },
+    rows: c.tolerances
+      .filter((t) => t.unit === unit)
+      .map((t) => {
+        const n = sourceNominal(t, c.stack);
+        return [
+          t.source,
+          t.elementName,
+          t.elementKind,
+          t.quantity,
+          n.datum,
+          round(n.nominal, r),
+          round(t.mean, r),
+          round(t.tol, r),
+          t.tol === null ? null : round(n.nominal + t.mean - t.tol, r),
+          t.tol === null ? null : round(n.nominal + t.mean + t.tol, r),
+          distLabel(t.dist, t.sigmas),
+          t.sigmas,
+          t.stage,
+          round(t.cpk, FRACTION_RESOLUTION.cpk),
+          t.raised ? "yes" : "no",
+          round(t.sigmaMax, sr),
+          round(t.sigmaModelled, sr),
+          t.draws,
+        ];
+      }),
+  };
+}
+
+/** Every element's nominal dimensions, where it sits and what it rests on. */
+function elementsTable(c: ReportContent): Table {
+  const m = REPORT_RESOLUTION.mm;
+  const placed = new Map(placeStack(c.stack).map((p) => [p.e.id, p]));
+  return {
+    title: "Elements",
+    header: [
+      "Element",
+      "Name",
+      "Kind",
+      "Parent",
+      `Size x (mm, ${res(m)})`,
+      `Size y (mm, ${res(m)})`,
+      `Thickness z (mm, ${res(m)})`,
+      `Position x on parent (mm, ${res(m)})`,
+      `Position y on parent (mm, ${res(m)})`,
+      "Position reference point",
+      `Yaw (deg, ${res(REPORT_RESOLUTION.deg)})`,
+      `Bond-line thickness (um, ${res(REPORT_RESOLUTION.um)})`,
+      "Support points (mm from the element's centre)",
+      `Bottom above board top (mm, ${res(m)})`,
+      `Top above board top (mm, ${res(m)})`,
+      "Sources held by this supplier",
+    ],
+    rows: c.stack.map((e) => {
+      const parent = c.stack.find((p) => p.id === e.parent);
+      const p = placed.get(e.id);
+      return [
+        e.id,
+        e.name,
+        e.kind,
+        e.parent ?? "",
+        round(e.size.x, m),
+        round(e.size.y, m),
+        round(e.size.z, m),
+        e.parent ? round(e.position.x, m) : null,
+        e.parent ? round(e.position.y, m) : null,
+        e.parent ? positionReference(parent?.name ?? e.parent) : "reference frame",
+        e.parent ? round(e.yawDeg, REPORT_RESOLUTION.deg) : null,
+        e.parent ? round(e.bondThicknessUm, REPORT_RESOLUTION.um) : null,
+        e.parent ? describeSupports(e) : "",
+        p ? round(p.z0, m) : null,
+        p ? round(p.z1, m) : null,
+        e.sources.join(" "),
+      ];
+    }),
+  };
+}
+
+function planTable(c: ReportContent): Table {
+  return {
+    title: "Measurement plan",
+    header: [
+      "Source",
+      "What to measure, on which units",
+      "Unit",
+      "Resolution (in Unit)",
+      "Readings per unit",
+      "Units to measure",
+      "Lower limit (in Unit, to Resolution)",
+      "Upper limit (in Unit, to Resolution)",
+    ],
+    rows: measurementSteps(c).map((s) => {
+      const t = s.tolerance;
+      const centre = sourceNominal(t, c.stack).nominal + t.mean;
+      return [
+        t.source,
+        s.what,
+        s.unit,
+        s.resolution,
+        s.readingsPerUnit,
+        MEASUREMENT_SAMPLE.units,
+        t.tol === null ? null : round(centre - t.tol, s.resolution),
+        t.tol === null ? null : round(centre + t.tol, s.resolution),
+      ];
+    }),
   };
 }
 
@@ -82,14 +204,14 @@ function requirementsTable(c: ReportContent): Table {
       "Metric",
       "Description",
       "Unit",
-      "Limit",
-      "Yield target",
-      "Predicted yield",
-      "CI low (95 %)",
-      "CI high (95 %)",
-      "ppm out",
+      `Limit (in Unit, ${res(0.001)})`,
+      `Yield target (fraction, ${res(FRACTION_RESOLUTION.yield)})`,
+      `Predicted yield (fraction, ${res(FRACTION_RESOLUTION.yield)})`,
+      `CI low (95 %, fraction, ${res(FRACTION_RESOLUTION.yield)})`,
+      `CI high (95 %, fraction, ${res(FRACTION_RESOLUTION.yield)})`,
+      "ppm out (to 1)",
       "Result",
-      "Share from this supplier",
+      `Share from this supplier (fraction, ${res(FRACTION_RESOLUTION.share)})`,
       "Fed by this supplier",
     ],
     rows: c.requirements.map((r, i) => [
@@ -97,26 +219,27 @@ function requirementsTable(c: ReportContent): Table {
       r.metric,
       r.description,
       r.unit === "%" ? "%" : "deg",
-      r.max,
-      r.yield,
-      r.predictedYield,
-      r.ci[0],
-      r.ci[1],
+      round(r.max, 0.001),
+      round(r.yield, FRACTION_RESOLUTION.yield),
+      round(r.predictedYield, FRACTION_RESOLUTION.yield),
+      round(r.ci[0], FRACTION_RESOLUTION.yield),
+      round(r.ci[1], FRACTION_RESOLUTION.yield),
       Math.round(r.ppmOut),
       r.passes ? "pass" : "fail",
-      r.supplierShare,
+      round(r.supplierShare, FRACTION_RESOLUTION.share),
       r.fed ? "yes" : "no",
     ]),
-    numFmt: { 5: "0.00%", 6: "0.00%", 7: "0.00%", 8: "0.00%", 11: "0.0%" },
   };
 }
 
 function sharesTable(c: ReportContent): Table {
   return {
     title: "Shares",
-    header: ["Source", ...c.requirements.map((r, i) => `R${i + 1} ${r.metric}`)],
-    rows: c.tolerances.map((t) => [t.source, ...c.requirements.map((r) => t.feeds.find((f) => f.metric === r.metric)?.share ?? 0)]),
-    numFmt: Object.fromEntries(c.requirements.map((_r, i) => [i + 1, "0.0%"])),
+    header: ["Source", ...c.requirements.map((r, i) => `R${i + 1} ${r.metric} (fraction, ${res(FRACTION_RESOLUTION.share)})`)],
+    rows: c.tolerances.map((t) => [
+      t.source,
+      ...c.requirements.map((r) => round(t.feeds.find((f) => f.metric === r.metric)?.share ?? 0, FRACTION_RESOLUTION.share)),
+    ]),
   };
 }
 
@@ -145,7 +268,8 @@ function assumptionsTable(c: ReportContent): Table {
 }
 
 function tables(c: ReportContent): Table[] {
-  return [tolerancesTable(c), requirementsTable(c), sharesTable(c), assumptionsTable(c)];
+  const byUnit = (["um", "deg"] as const).map((u) => tolerancesTable(c, u)).filter((t) => t.rows.length > 0);
+  return [...byUnit, elementsTable(c), planTable(c), requirementsTable(c), sharesTable(c), assumptionsTable(c)];
 }
 
 const HEADER_FILL = { type: "pattern" as const, pattern: "solid" as const, fgColor: { argb: "FFF7F5F0" } };
@@ -189,7 +313,7 @@ export async function renderReportXlsx(c: ReportContent, meta: ReportMeta): Prom
       const col = ws.getColumn(i + 1);
       const longest = Math.max(h.length, ...t.rows.map((r) => String(r[i] ?? "").length));
       col.width = Math.min(60, Math.max(9, longest + 2));
-      const fmt = t.numFmt?.[i];
+      const fmt = formatOf(h);
       if (fmt) col.numFmt = fmt;
     });
   }

@@ -137,6 +137,8 @@ export const ReportStackElementSchema = z.object({
   position: z.object({ x: z.number(), y: z.number() }),
   yawDeg: z.number(),
   bondThicknessUm: z.number(),
+  /** support points in the element's frame (mm); absent in reports built before they were kept: the four corners */
+  supports: z.array(z.object({ x: z.number(), y: z.number() })).optional(),
   /** this supplier's sources on the element */
   sources: z.array(text()),
 });

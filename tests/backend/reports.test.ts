@@ -327,6 +327,42 @@ describe("supplier reports", () => {
     expect(text).not.toMatch(/pkg\.bow\s+pkg/);
   });
 
+  it("the PDF gives each source its nominal and datum, a drawing to a stated scale with the stack's dimensions, and a measurement plan", async () => {
+    const stack = ownedStack();
+    const el = (id: string) => stack.elements.find((e) => e.id === id)!;
+    const text = pdfText((await download(t, `/api/reports/${reportId}/pdf`, c.engineer)).data);
+    const flat = squash(text);
+    // nominals beside the tolerances, from the stack file: bond-line thickness and yaw
+    const gyroRow = flat.slice(flat.indexOf("gyro.bondLine"), flat.indexOf("gyro.yaw"));
+    expect(gyroRow).toContain(`${el("gyro").bondLine!.thicknessUm!.toFixed(1)} µm`);
+    expect(gyroRow).toContain("datum: asic's top face");
+    const magYaw = flat.slice(flat.indexOf("mag.yaw"));
+    expect(magYaw).toContain(`${el("mag").yawDeg!.toFixed(3)}°`);
+    // the drawing: every die's size and position on its parent, the bond lines, the scale stated
+    expect(flat).toContain("Dimensions of the stack");
+    for (const id of ["pkg", "asic", "gyro", "accel", "mag"]) {
+      const e = el(id);
+      expect(flat).toContain(`${e.size.x.toFixed(3)} × ${e.size.y.toFixed(3)} × ${e.size.z.toFixed(3)}`);
+      const pos = (v: number) => v.toFixed(3).replace("-", "−");
+      expect(flat).toContain(`x ${pos(e.position!.x)}, y ${pos(e.position!.y)} mm from ${e.parent}'s centre`);
+      expect(flat).toContain(`${id} ${e.size.z.toFixed(3)} mm thick on ${e.bondLine!.thicknessUm!.toFixed(1)} µm bond line`);
+    }
+    // the top of the stack is the sum of every thickness and bond line from the board up
+    const top = ["pkg", "asic", "gyro", "accel", "mag"].reduce((z, id) => z + el(id).size.z + el(id).bondLine!.thicknessUm! / 1000, 0);
+    expect(flat).toContain(`top at ${top.toFixed(3)} mm`);
+    expect(flat).toMatch(/Top view, looking down on the board · scale \d+:1/);
+    expect(flat).toMatch(/Side section along x, looking along \+y · scale \d+:1/);
+    // the measurement plan: sample size, the window from nominal ± tolerance, how to send it back
+    expect(flat).toContain("Measurement plan");
+    expect(flat).toContain("125 production units");
+    const gyroBond = el("gyro").bondLine!;
+    const lo = (gyroBond.thicknessUm! - gyroBond.heightTol!.tol!).toFixed(1);
+    const hi = (gyroBond.thicknessUm! + gyroBond.heightTol!.tol!).toFixed(1);
+    expect(flat).toContain(`${lo} – ${hi} µm`);
+    expect(flat).toContain("How to send it back");
+    expect(flat).toContain("with the lot number and a note");
+  });
+
   it("the spreadsheet and the CSV read back with the same numbers", async () => {
     const report = (await t.call("GET", `/api/reports/${reportId}`, { cookie: c.engineer })).body;
     const xlsx = await download(t, `/api/reports/${reportId}/xlsx`, c.engineer);
@@ -334,33 +370,60 @@ describe("supplier reports", () => {
     expect(sha(xlsx.data)).toBe(report.files.find((f: { kind: string }) => f.kind === "xlsx").sha256);
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(xlsx.data as unknown as ArrayBuffer);
-    const ws = wb.getWorksheet("Tolerances")!;
+    // one sheet per unit, the unit and the resolution in every numeric header, limits from the nominal
+    const um = report.content.tolerances.filter((x: { unit: string }) => x.unit === "um");
+    const ws = wb.getWorksheet("Tolerances um")!;
     const header = (ws.getRow(1).values as unknown[]).slice(1);
-    const col = (name: string) => header.indexOf(name) + 1;
-    report.content.tolerances.forEach((tol: { source: string; tol: number; sigmaMax: number; cpk: number }, i: number) => {
+    const col = (name: string) => {
+      expect(header, name).toContain(name);
+      return header.indexOf(name) + 1;
+    };
+    const stack = ownedStack();
+    um.forEach((tol: { source: string; elementId: string; tol: number; sigmaMax: number; cpk: number }, i: number) => {
       const row = ws.getRow(i + 2);
+      const thickness = stack.elements.find((e) => e.id === tol.elementId)!.bondLine!.thicknessUm!;
       expect(row.getCell(col("Source")).value).toBe(tol.source);
-      expect(row.getCell(col("Tolerance (±)")).value).toBe(tol.tol);
-      expect(row.getCell(col("Sigma max")).value).toBe(tol.sigmaMax);
-      expect(row.getCell(col("Cpk asked")).value).toBeCloseTo(tol.cpk, 4);
+      expect(row.getCell(col("Nominal (um, to 0.1)")).value).toBe(thickness);
+      expect(row.getCell(col("Tolerance ± (um, to 0.1)")).value).toBe(tol.tol);
+      expect(row.getCell(col("Lower limit (um, to 0.1)")).value).toBe(thickness - tol.tol);
+      expect(row.getCell(col("Upper limit (um, to 0.1)")).value).toBe(thickness + tol.tol);
+      expect(row.getCell(col("Sigma max (um, to 0.01)")).value).toBe(Math.round(tol.sigmaMax * 100) / 100);
+      expect(row.getCell(col("Cpk asked (to 0.01)")).value).toBeCloseTo(tol.cpk, 2);
+      expect(String(row.getCell(col("Datum")).value)).toMatch(/top face, under .*'s supports at the four corners/);
     });
+    expect(ws.getColumn(col("Nominal (um, to 0.1)")).numFmt).toBe("0.0");
+    const deg = wb.getWorksheet("Tolerances deg")!;
+    const magYaw = (deg.getSheetValues() as unknown[][]).find((r) => r?.[1] === "mag.yaw")!;
+    const degHeader = (deg.getRow(1).values as unknown[]).slice(1);
+    expect(magYaw[degHeader.indexOf("Nominal (deg, to 0.001)") + 1]).toBe(stack.elements.find((e) => e.id === "mag")!.yawDeg);
+    const elements = wb.getWorksheet("Elements")!;
+    const elHeader = (elements.getRow(1).values as unknown[]).slice(1);
+    const gyroRow = (elements.getSheetValues() as unknown[][]).find((r) => r?.[1] === "gyro")!;
+    const gyro = stack.elements.find((e) => e.id === "gyro")!;
+    expect(gyroRow[elHeader.indexOf("Size x (mm, to 0.001)") + 1]).toBe(gyro.size.x);
+    expect(gyroRow[elHeader.indexOf("Position x on parent (mm, to 0.001)") + 1]).toBe(gyro.position!.x);
+    expect(gyroRow[elHeader.indexOf("Bond-line thickness (um, to 0.1)") + 1]).toBe(gyro.bondLine!.thicknessUm);
+    expect(wb.getWorksheet("Measurement plan")).toBeTruthy();
     const req = wb.getWorksheet("Requirements")!;
     report.content.requirements.forEach((r: { metric: string; predictedYield: number }, i: number) => {
       expect(req.getRow(i + 2).getCell(2).value).toBe(r.metric);
-      expect(req.getRow(i + 2).getCell(7).value).toBe(r.predictedYield);
+      expect(req.getRow(i + 2).getCell(7).value).toBeCloseTo(r.predictedYield, 6);
     });
 
     const csv = (await download(t, `/api/reports/${reportId}/csv`, c.engineer)).data.toString("utf8");
     expect(csv.charCodeAt(0)).toBe(0xfeff);
     const rows = parseCsv(csv.slice(1));
-    const start = rows.findIndex((r) => r.length === 1 && r[0] === "Tolerances");
+    const start = rows.findIndex((r) => r.length === 1 && r[0] === "Tolerances um");
     const head = rows[start + 1];
-    for (const [i, tol] of report.content.tolerances.entries()) {
+    for (const [i, tol] of um.entries()) {
       const cells = rows[start + 2 + i];
       expect(cells[head.indexOf("Source")]).toBe(tol.source);
-      expect(Number(cells[head.indexOf("Tolerance (±)")])).toBe(tol.tol);
-      expect(Number(cells[head.indexOf("Sigma max")])).toBe(tol.sigmaMax);
+      expect(Number(cells[head.indexOf("Tolerance ± (um, to 0.1)")])).toBe(tol.tol);
+      expect(Number(cells[head.indexOf("Sigma max (um, to 0.01)")])).toBe(Math.round(tol.sigmaMax * 100) / 100);
+      // rounded as stated: no more decimals than the header's resolution
+      for (const k of head.keys()) if (/\(um, to 0\.1\)/.test(head[k]) && cells[k]) expect(cells[k]).toMatch(/^-?\d+(\.\d)?$/);
     }
+    expect(rows.find((r) => r[0] === "Resolution")?.[1]).toContain("dimensions in mm to 0.001");
     expect(csv).toContain(REPORT_CAUTIONS[1]);
   });
 
