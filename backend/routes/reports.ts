@@ -92,8 +92,8 @@ export function reportsRouter(deps: AppDeps) {
 
   r.post("/reports/:id/send", allow("reports.send"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    const { message } = parse(SendReportSchema, req);
-    const result = await sendReport(db, mail, actorOf(req), id, message, baseURL);
+    const choice = parse(SendReportSchema, req);
+    const result = await sendReport(db, mail, actorOf(req), id, choice, baseURL);
     await notifyReport(deps, actorOf(req), id, "sent");
     res.json(result);
   });

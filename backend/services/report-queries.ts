@@ -26,6 +26,7 @@ import { found, notFound } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { reportBlocker } from "./report-content";
 import { listComments } from "./revisions";
+import { metricLabel } from "@shared/metrics";
 import { reportCode } from "@shared/reports/format";
 
 const creator = alias(users, "report_creator");
@@ -148,6 +149,7 @@ export async function getReport(db: Database, actor: Actor, id: string, baseURL:
             sentByName: users.name,
             recipients: reportSends.recipients,
             message: reportSends.message,
+            attachments: reportSends.attachments,
           })
           .from(reportSends)
           .leftJoin(users, eq(users.id, reportSends.sentBy))
@@ -200,6 +202,7 @@ export async function getReport(db: Database, actor: Actor, id: string, baseURL:
       sentByName: s.sentByName,
       recipients: s.recipients,
       message: s.message,
+      attachments: s.attachments,
     })),
     downloads: downloads.map((d) => ({ at: d.createdAt.toISOString(), userName: d.userName, role: d.role, kind: d.kind })),
     comments: shownComments,
@@ -236,6 +239,11 @@ export async function reportOptions(db: Database, actor: Actor, projectId: strin
       revisionStack: stackRevisions.stack,
       hasResult: sql<boolean>`${studyResults.studyId} is not null`,
       passes: studyResults.passes,
+      missed: sql<Array<{
+        metric: string;
+        yield: number;
+        predictedYield: number;
+      }> | null>`(select jsonb_agg(jsonb_build_object('metric', r->>'metric', 'yield', (r->>'yield')::float8, 'predictedYield', (r->>'predictedYield')::float8)) from jsonb_array_elements(${studyResults.result}->'requirements') r where (r->>'passes')::boolean = false)`,
     })
     .from(studies)
     .innerJoin(stackRevisions, eq(stackRevisions.id, studies.revisionId))
@@ -282,6 +290,7 @@ export async function reportOptions(db: Database, actor: Actor, projectId: strin
         revisionStatus: s.revisionStatus,
         finishedAt: iso(s.finishedAt),
         passes: s.passes,
+        missed: (s.missed ?? []).map((m) => ({ ...m, label: metricLabel(m.metric) })),
         blockedBy: reportBlocker(
           { status: s.status, number: s.number, stack: s.stack as unknown as Record<string, unknown>, result: s.hasResult ? {} : null },
           { number: s.revisionNumber, status: s.revisionStatus, stack: s.revisionStack },

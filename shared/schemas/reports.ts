@@ -73,7 +73,33 @@ const shortText = (what: string) =>
     .trim()
     .max(NOTE_MAX, { message: `${what} must be at most ${NOTE_MAX} characters` });
 export const ReleaseReportSchema = z.object({ comment: shortText("comment").optional() });
-export const SendReportSchema = z.object({ message: shortText("message").optional() });
+/** Most addresses a send may copy in. */
+export const MAX_CC = 10;
+const ccAddress = text({ message: "each CC must be an e-mail address" })
+  .trim()
+  .toLowerCase()
+  .email({ message: "must be a valid e-mail address" });
+export const SendReportSchema = z.object({
+  message: shortText("message").optional(),
+  /** the supplier's contacts who receive it; left out: every contact */
+  contactIds: z
+    .array(IdSchema, { message: "contactIds must be a list of contact ids" })
+    .min(1, { message: "choose at least one of the supplier's contacts" })
+    .max(200)
+    .optional(),
+  /** further addresses that get a copy (a colleague, the supplier's quality inbox) */
+  cc: z
+    .array(ccAddress, { message: "cc must be a list of e-mail addresses" })
+    .max(MAX_CC, { message: `at most ${MAX_CC} CC addresses` })
+    .default([]),
+  /** the released files attached to the mail; the link is always there */
+  attachments: z
+    .array(ReportFileKindSchema, { message: "attachments must be a list of pdf, xlsx and csv" })
+    .max(3)
+    .refine((a) => new Set(a).size === a.length, { message: "name each attachment once" })
+    .default(["pdf"]),
+});
+export type SendReport = z.input<typeof SendReportSchema>;
 export const AcknowledgeReportSchema = z.object({ comment: shortText("comment").optional() });
 
 // ---- the frozen content -----------------------------------------------------------
@@ -223,8 +249,10 @@ export const ReportSendSchema = z.object({
   id: IdSchema,
   sentAt: text(),
   sentByName: text().nullable(),
-  recipients: z.array(z.object({ name: text(), email: text() })),
+  /** `cc` marks an address copied in beside the supplier's contacts */
+  recipients: z.array(z.object({ name: text(), email: text(), cc: z.boolean().optional() })),
   message: text(),
+  attachments: z.array(ReportFileKindSchema),
 });
 export const ReportDownloadSchema = z.object({ at: text(), userName: text().nullable(), role: text(), kind: text() });
 
@@ -255,7 +283,7 @@ export type Report = z.infer<typeof ReportSchema>;
 
 export const SendResultSchema = z.object({
   report: ReportSchema,
-  sent: z.array(z.object({ name: text(), email: text() })),
+  sent: z.array(z.object({ name: text(), email: text(), cc: z.boolean().optional() })),
   /** contacts the mail server refused, with its reason */
   failed: z.array(z.object({ name: text(), email: text(), error: text() })),
 });
@@ -281,6 +309,8 @@ export const ReportOptionStudySchema = z.object({
   revisionStatus: text(),
   finishedAt: text().nullable(),
   passes: z.boolean().nullable(),
+  /** the requirements the study predicts to miss their yield target */
+  missed: z.array(z.object({ metric: text(), label: text(), yield: z.number(), predictedYield: z.number() })),
   /** null when a report can be built from this study; otherwise why not */
   blockedBy: text().nullable(),
   suppliers: z.array(ReportOptionSupplierSchema),

@@ -233,6 +233,11 @@ describe("supplier reports", () => {
       latest: { code: r.body.code, status: "draft" },
     });
     expect(s.unmatchedOwners.map((u: { owner: string }) => u.owner)).toContain("Sensor die fab (in-house)");
+    // the build dialog says which targets the study misses, from its result
+    const failing = resultFor(stack).requirements.filter((x) => !x.passes);
+    expect(s.missed.map((m: { metric: string }) => m.metric)).toEqual(failing.map((x) => x.metric));
+    expect(s.missed[0]).toMatchObject({ yield: failing[0].yield, predictedYield: failing[0].predictedYield });
+    expect(s.missed[0].label).not.toBe(failing[0].metric);
   });
 
   it("changes a draft, and a tolerance the study sampled tighter raises the capability asked", async () => {
@@ -452,6 +457,60 @@ describe("supplier reports", () => {
     const att = await download(t, `/api/outbox/${msg.id}/attachments/0`, c.admin);
     expect(sha(att.data)).toBe(stored.sha256);
     expect((await download(t, `/api/outbox/${msg.id}/attachments/3`, c.admin)).status).toBe(404);
+  });
+
+  it("the engineer chooses which contacts receive it, copies in an address and picks the attachments; bad choices are named by field", async () => {
+    const supplier = (await t.call("GET", "/api/suppliers", { cookie: c.engineer })).body.suppliers.find(
+      (s: { id: string }) => s.id === larkfieldId,
+    );
+    const priya = supplier.contacts.find((x: { email: string }) => x.email === "quality@larkfield.example");
+    const bad = await t.call("POST", `/api/reports/${reportId}/send`, {
+      cookie: c.engineer,
+      body: { contactIds: [priya.id, "00000000-0000-4000-8000-000000000000"], cc: ["not-an-address"], attachments: ["pdf", "docx"] },
+    });
+    expect(bad.status).toBe(400);
+    const paths = bad.body.error.fields.map((f: { path: string }) => f.path);
+    expect(paths).toEqual(expect.arrayContaining(["cc[0]", "attachments[1]"]));
+    const stranger = await t.call("POST", `/api/reports/${reportId}/send`, {
+      cookie: c.engineer,
+      body: { contactIds: [priya.id, "00000000-0000-4000-8000-000000000000"] },
+    });
+    expect(stranger.status).toBe(400);
+    expect(stranger.body.error.fields).toEqual([{ path: "contactIds[1]", message: "not a contact of Larkfield Assembly" }]);
+    expect((await t.call("POST", `/api/reports/${reportId}/send`, { cookie: c.engineer, body: { contactIds: [] } })).status).toBe(400);
+
+    const r = await t.call("POST", `/api/reports/${reportId}/send`, {
+      cookie: c.engineer,
+      body: { contactIds: [priya.id], cc: ["Buyer@Example.com", "quality@larkfield.example"], attachments: ["xlsx", "csv"] },
+    });
+    expect(r.status, JSON.stringify(r.body)).toBe(200);
+    // the contact once, the CC once (an address already among the contacts is not copied twice), lower-cased
+    expect(r.body.sent).toEqual([
+      { name: "Priya Anand", email: "quality@larkfield.example" },
+      { name: "buyer@example.com", email: "buyer@example.com", cc: true },
+    ]);
+    expect(r.body.report.sends[0].attachments).toEqual(["xlsx", "csv"]);
+    const files = r.body.report.files as Array<{ kind: string; fileName: string; size: number }>;
+    const subjects = (m: { subject: string }) => m.subject.includes("TR-0001 revision 1: tolerances");
+    const outbox = await until(
+      () => t.call("GET", "/api/outbox", { cookie: c.admin }),
+      (x) => x.body.messages.filter(subjects).length === 4,
+    );
+    const mine = outbox.body.messages.filter(subjects).slice(0, 2);
+    const copy = mine.find((m: { to: string[] }) => m.to.includes("buyer@example.com"));
+    const toPriya = mine.find((m: { to: string[] }) => m.to.includes("quality@larkfield.example"));
+    expect(copy.subject.startsWith("Copy: ")).toBe(true);
+    expect(copy.text).toContain("A copy of the message sent to Priya Anand at Larkfield Assembly.");
+    expect(toPriya.text).toContain("The spreadsheet and the CSV are attached.");
+    for (const m of [copy, toPriya])
+      expect(m.attachments.map((a: { fileName: string; size: number }) => [a.fileName, a.size])).toEqual(
+        ["xlsx", "csv"].map((k) => {
+          const f = files.find((x) => x.kind === k)!;
+          return [f.fileName, f.size];
+        }),
+      );
+    // the other contact got nothing this time
+    expect(mine.some((m: { to: string[] }) => m.to.includes("supplier@example.com"))).toBe(false);
   });
 
   it("a draft cannot be sent", async () => {

@@ -79,8 +79,10 @@ export const reportSends = pgTable(
       .notNull()
       .references(() => reports.id, { onDelete: "cascade" }),
     sentBy: text("sent_by").references(() => users.id, { onDelete: "set null" }),
-    recipients: jsonb("recipients").$type<Array<{ name: string; email: string }>>().notNull(),
+    recipients: jsonb("recipients").$type<Array<{ name: string; email: string; cc?: boolean }>>().notNull(),
     message: text("message").notNull().default(""),
+    /** the released files attached to the mail */
+    attachments: jsonb("attachments").$type<Array<"pdf" | "xlsx" | "csv">>().notNull().default(["pdf"]),
     createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
   },
   (t) => [index("report_sends_report_idx").on(t.reportId)],

@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { SendResultSchema, type SendResult } from "@shared/schemas/reports";
+import { SendResultSchema, type SendReport, type SendResult } from "@shared/schemas/reports";
 import { api } from "@frontend/lib/api-client";
 import { refreshAfter } from "./invalidate";
 import { reportKeys } from "./keys";
 
-export function sendReport({ id, message }: { id: string; message?: string }): Promise<SendResult> {
-  return api.post(`/api/reports/${encodeURIComponent(id)}/send`, message ? { message } : {}, SendResultSchema);
+export function sendReport({ id, body }: { id: string; body: SendReport }): Promise<SendResult> {
+  return api.post(`/api/reports/${encodeURIComponent(id)}/send`, body, SendResultSchema);
 }
 
 export function useSendReport() {

@@ -9,6 +9,7 @@ import { Field, Input, Select, Textarea } from "@frontend/components/ui/field";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { cn } from "@frontend/lib/cn";
 import { formatDate } from "@frontend/lib/format";
+import { formatFraction } from "@shared/format";
 import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
 import { useCreateReport } from "../api/create-report";
 import { useReportOptions } from "../api/get-report-options";
@@ -152,6 +153,19 @@ export function BuildReportDialog({
               </Select>
             )}
           </Field>
+
+          {study && study.missed.length ? (
+            <Alert title={`Study ${study.number} misses ${study.missed.length === 1 ? "a target" : `${study.missed.length} targets`}`}>
+              <ul className="mt-1 list-disc pl-4">
+                {study.missed.map((m) => (
+                  <li key={m.metric}>
+                    {m.label}: {formatFraction(m.predictedYield)} predicted against {formatFraction(m.yield)}
+                  </li>
+                ))}
+              </ul>
+              <span className="mt-1 block">The report can still be built; its cover says so to the supplier.</span>
+            </Alert>
+          ) : null}
 
           <fieldset className="min-w-0">
             <legend className="mb-1 text-xs font-semibold text-ink/80">Supplier</legend>

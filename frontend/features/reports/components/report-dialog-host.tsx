@@ -3,7 +3,8 @@ import type { Report, SendResult } from "@shared/schemas/reports";
 import { useSuppliers } from "@frontend/features/suppliers";
 import type { ReportDialogKind } from "../hooks/use-report-actions";
 import { BuildReportDialog } from "./build-report-dialog";
-import { AcknowledgeDialog, DiscardDialog, EditDraftDialog, ReleaseDialog, SendDialog } from "./report-dialogs";
+import { AcknowledgeDialog, DiscardDialog, EditDraftDialog, ReleaseDialog, ReturnDialog } from "./report-dialogs";
+import { SendDialog } from "./send-report-dialog";
 
 /** Shows the one report dialog that is open, if any. */
 export function ReportDialogHost({
@@ -21,6 +22,8 @@ export function ReportDialogHost({
   switch (dialog) {
     case "release":
       return <ReleaseDialog report={report} onClose={onClose} />;
+    case "return":
+      return <ReturnDialog report={report} onClose={onClose} />;
     case "send":
       return <SendDialogWithContacts report={report} onClose={onClose} onSent={onSent} />;
     case "acknowledge":

@@ -1,5 +1,5 @@
 import { useState, type FormEvent, type ReactNode } from "react";
-import { UpdateReportSchema, type Report, type SendResult } from "@shared/schemas/reports";
+import { UpdateReportSchema, type Report } from "@shared/schemas/reports";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
@@ -9,20 +9,21 @@ import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/fo
 import { useAcknowledgeReport } from "../api/acknowledge-report";
 import { useDeleteReport } from "../api/delete-report";
 import { useReleaseReport } from "../api/release-report";
-import { useSendReport } from "../api/send-report";
+import { useReturnReport } from "../api/return-report";
 import { useUpdateReport } from "../api/update-report";
 import { readPng } from "../lib/files";
 import { reportTitle } from "./report-status";
 
 type Base = { report: Report; onClose: () => void };
 
-/** A dialog with an optional note and one action button; shared by release, send and acknowledge. */
+/** A dialog with a note and one action button; shared by release, send back and acknowledge. */
 function NoteDialog({
   title,
   description,
   children,
   label,
   noteLabel,
+  required = false,
   placeholder,
   pending,
   error,
@@ -34,6 +35,8 @@ function NoteDialog({
   children?: ReactNode;
   label: string;
   noteLabel: string;
+  /** the note must be given (sending back says why) */
+  required?: boolean;
   placeholder: string;
   pending: boolean;
   error?: string;
@@ -58,7 +61,7 @@ function NoteDialog({
           <Button variant="secondary" onClick={onClose} disabled={pending}>
             Cancel
           </Button>
-          <Button type="submit" variant="primary" pending={pending}>
+          <Button type="submit" variant="primary" pending={pending} disabled={required && note.trim() === ""}>
             {label}
           </Button>
         </>
@@ -66,7 +69,7 @@ function NoteDialog({
     >
       <div className="space-y-3">
         {children}
-        <Field label={noteLabel} aside="optional">
+        <Field label={noteLabel} aside={required ? undefined : "optional"}>
           {({ id, describedBy }) => (
             <Textarea
               id={id}
@@ -106,38 +109,23 @@ export function ReleaseDialog({ report, onClose }: Base) {
   );
 }
 
-export function SendDialog({
-  report,
-  contacts,
-  onClose,
-  onSent,
-}: Base & { contacts: Array<{ name: string; email: string }> | null; onSent: (r: SendResult) => void }) {
-  const send = useSendReport();
+export function ReturnDialog({ report, onClose }: Base) {
+  const ret = useReturnReport();
   return (
     <NoteDialog
-      title={`Send ${reportTitle(report)} to ${report.supplierName}`}
-      description="Each contact receives a message with the link to this page and the released PDF attached."
-      label="Send report"
-      noteLabel="Message"
-      placeholder="A line for the supplier, e.g. when you need the acknowledgement."
-      pending={send.isPending}
-      error={send.error?.message}
+      title={`Send the draft of ${reportTitle(report)} back?`}
+      description={
+        <>The engineer is told, with your comment. The draft stays as it is until they change it; nothing goes to {report.supplierName}.</>
+      }
+      label="Send back"
+      noteLabel="What needs to change"
+      required
+      placeholder="e.g. ask Cpk 1.67 for the bond lines; the 3D snapshot is of an older revision."
+      pending={ret.isPending}
+      error={ret.error?.message}
       onClose={onClose}
-      onConfirm={(message) => send.mutate({ id: report.id, message: message || undefined }, { onSuccess: (r) => (onSent(r), onClose()) })}
-    >
-      {contacts === null ? null : contacts.length === 0 ? (
-        <Alert>{report.supplierName} has no contacts. An admin adds them on the Suppliers page.</Alert>
-      ) : (
-        <ul className="rounded-md border border-line bg-paper/50 px-3 py-2 text-[13px]" aria-label="Recipients">
-          {contacts.map((c) => (
-            <li key={c.email} className="flex justify-between gap-3 py-0.5">
-              <span className="font-semibold text-ink">{c.name}</span>
-              <span className="text-ink/60">{c.email}</span>
-            </li>
-          ))}
-        </ul>
-      )}
-    </NoteDialog>
+      onConfirm={(comment) => ret.mutate({ id: report.id, comment }, { onSuccess: onClose })}
+    />
   );
 }
 

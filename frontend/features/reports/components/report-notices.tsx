@@ -15,14 +15,22 @@ export function DraftNotice({ asSupplier }: { asSupplier: boolean }) {
 
 /** Who received the report just sent, and who did not. */
 export function SentNotice({ sent }: { sent: SendResult }) {
+  const contacts = sent.sent.filter((s) => !s.cc);
+  const copies = sent.sent.filter((s) => s.cc);
+  const files = sent.report.sends[0]?.attachments ?? ["pdf"];
+  const names: Record<string, string> = { pdf: "PDF", xlsx: "spreadsheet", csv: "CSV" };
+  const attached = files.length
+    ? `with the ${files.map((f) => names[f] ?? f).join(files.length === 2 ? " and " : ", ")} attached`
+    : "with the link only";
   return (
     <div role="status" className="mb-4 flex gap-2.5 rounded-md border border-pass/25 bg-pass/[0.06] px-3 py-2.5 text-[13px]">
       <CheckIcon className="mt-0.5 shrink-0 text-pass" />
       <div>
         <p className="font-semibold text-ink">
-          Sent to {sent.sent.length} contact{sent.sent.length === 1 ? "" : "s"} with the PDF attached
+          Sent to {contacts.length} contact{contacts.length === 1 ? "" : "s"} {attached}
+          {copies.length ? `, a copy to ${copies.length}` : ""}
         </p>
-        <p className="text-ink/70">{sent.sent.map((s) => s.email).join(", ")}</p>
+        <p className="text-ink/70">{sent.sent.map((s) => (s.cc ? `cc ${s.email}` : s.email)).join(", ")}</p>
         {sent.failed.length ? (
           <p className="text-fail">Not delivered: {sent.failed.map((f) => `${f.email} (${f.error})`).join(", ")}</p>
         ) : null}

@@ -46,7 +46,13 @@ export function ReportRecordPanel({ report, asSupplier }: { report: Report; asSu
             label="Sent"
             who={lastSend?.sentByName ?? null}
             at={lastSend?.sentAt ?? null}
-            extra={lastSend ? lastSend.recipients.map((r) => r.email).join(", ") : undefined}
+            extra={
+              lastSend
+                ? `${lastSend.recipients.map((r) => (r.cc ? `cc ${r.email}` : r.email)).join(", ")}${
+                    lastSend.attachments.length ? ` · ${lastSend.attachments.join(", ")}` : " · link only"
+                  }`
+                : undefined
+            }
           />
         )}
         <RecordStep done={!!report.acknowledgedAt} label="Acknowledged" who={report.acknowledgedByName} at={report.acknowledgedAt} />

@@ -5,7 +5,7 @@ import { Button } from "@frontend/components/ui/button";
 import { MailIcon, PencilIcon, PlusIcon, TrashIcon } from "@frontend/components/ui/icons";
 import { can } from "@frontend/lib/permissions";
 
-export type ReportDialogKind = "release" | "send" | "acknowledge" | "edit" | "discard" | "revise";
+export type ReportDialogKind = "release" | "return" | "send" | "acknowledge" | "edit" | "discard" | "revise";
 
 /**
  * The buttons a person may press on this report (by role and by the report's state), and which
@@ -28,6 +28,9 @@ export function useReportActions(report: Report, role: Role) {
   }
   if (draft && can(role, "reports.release")) {
     actions.push(
+      <Button key="return" onClick={open("return")}>
+        Send back
+      </Button>,
       <Button key="release" variant="primary" onClick={open("release")}>
         Release
       </Button>,

@@ -1,0 +1,1 @@
+ALTER TABLE "report_sends" ADD COLUMN "attachments" jsonb DEFAULT '["pdf"]'::jsonb NOT NULL;
