@@ -9,6 +9,7 @@ import { securityHeaders } from "./middleware/security-headers";
 import { requireSession } from "./middleware/session";
 import { datasetsRouter, UPLOAD_PATHS } from "./routes/datasets";
 import { meRouter } from "./routes/me";
+import { statusRouter } from "./routes/status";
 import { notificationsRouter } from "./routes/notifications";
 import { membersRouter } from "./routes/members";
 import { projectsRouter } from "./routes/projects";
@@ -63,6 +64,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   app.use("/api", publicRouter(deps));
   app.use("/api", requireSession(deps.auth, deps.db));
   app.use("/api", meRouter());
+  app.use("/api", statusRouter(deps));
   app.use("/api", projectsRouter(deps));
   app.use("/api", suppliersRouter(deps));
   app.use("/api", membersRouter(deps));

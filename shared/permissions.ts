@@ -37,6 +37,8 @@ export const RIGHTS = [
   "reports.acknowledge",
   /** one's own notifications and their e-mail settings */
   "notifications.read",
+  /** the server's status page: where studies run, the job queue and its workers */
+  "status.read",
 ] as const;
 export type Right = (typeof RIGHTS)[number];
 
@@ -67,6 +69,7 @@ export const ROLE_RIGHTS: Record<Role, readonly Right[]> = {
     "outbox.read",
     "reports.write",
     "reports.release",
+    "status.read",
   ],
   engineer: [
     ...STAFF_READ,

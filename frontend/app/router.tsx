@@ -16,6 +16,7 @@ import { InvitationError, RootError, RouteError } from "./routes/route-error";
 import { SignInRoute, signInLoader } from "./routes/sign-in";
 import { ResetPasswordRoute } from "./routes/reset-password";
 import { AccountRoute } from "./routes/app/account";
+import { StatusRoute, statusLoader } from "./routes/app/status";
 import { NavigationProgress } from "./shell/navigation-progress";
 import { BootScreen } from "./shell/boot-screen";
 
@@ -74,6 +75,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
                 { path: "reports/:id", loader: reportLoader(queryClient), element: <ReportRoute /> },
                 { path: "outbox", loader: outboxLoader(queryClient), element: <OutboxRoute /> },
                 { path: "account", element: <AccountRoute /> },
+                { path: "status", loader: statusLoader(queryClient), element: <StatusRoute /> },
                 { path: "*", element: <NotFoundRoute /> },
               ],
             },

@@ -302,6 +302,7 @@ export const ROUTES: Row[] = [
     path: async (c) => `/api/suppliers/${c.supplierId}/contacts/${await freshContact(c)}`,
   },
   { route: "GET /api/members", allowed: ADMIN },
+  { route: "GET /api/status", allowed: ADMIN },
   {
     route: "PATCH /api/members/:id",
     allowed: ADMIN,

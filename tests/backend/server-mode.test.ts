@@ -107,6 +107,10 @@ describe.skipIf(!testPostgresUrl())("server mode: studies through the job queue"
     const health = await t.call("GET", "/api/health");
     expect(health.body.queue.depth).toBe(0);
     expect(health.body.queue.workers.map((w: { id: string }) => w.id).sort()).toEqual(workers.map((w) => w.id).sort());
+    // the admin's status page shows the same queue and workers
+    const status = await t.call("GET", "/api/status", { cookie: await t.signIn("admin@example.com") });
+    expect(status.status).toBe(200);
+    expect(status.body.queue.workers.map((w: { id: string }) => w.id).sort()).toEqual(workers.map((w) => w.id).sort());
     for (const w of workers.splice(0)) await w.stop();
   });
 

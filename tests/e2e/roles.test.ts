@@ -5,7 +5,12 @@ import { setupE2E, unexpectedProblems } from "./support/setup";
 const e2e = setupE2E();
 
 const DEMO = [
-  { email: "admin@example.com", role: "Admin", start: "/projects", nav: ["Projects", "Reports", "Suppliers", "Members", "Outbox"] },
+  {
+    email: "admin@example.com",
+    role: "Admin",
+    start: "/projects",
+    nav: ["Projects", "Reports", "Suppliers", "Members", "Outbox", "Server status"],
+  },
   { email: "engineer@example.com", role: "Engineer", start: "/projects", nav: ["Projects", "Reports", "Suppliers"] },
   { email: "reviewer@example.com", role: "Reviewer", start: "/projects", nav: ["Projects", "Reports", "Suppliers"] },
   { email: "supplier@example.com", role: "Supplier", start: "/reports", nav: ["Reports"] },

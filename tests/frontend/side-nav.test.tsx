@@ -17,7 +17,7 @@ function labels(role: Role): string[] {
 
 describe("SideNav", () => {
   it.each<[Role, string[]]>([
-    ["admin", ["/projects", "/reports", "/suppliers", "/members", "/outbox"]],
+    ["admin", ["/projects", "/reports", "/suppliers", "/members", "/outbox", "/status"]],
     ["engineer", ["/projects", "/reports", "/suppliers"]],
     ["reviewer", ["/projects", "/reports", "/suppliers"]],
     ["supplier", ["/reports"]],

@@ -2,7 +2,7 @@ import type { ReactNode } from "react";
 import { NavLink } from "react-router";
 import type { Role } from "@shared/schemas/common";
 import { Logo } from "@frontend/components/ui/logo";
-import { MembersIcon, OutboxIcon, ProjectsIcon, ReportsIcon, SuppliersIcon } from "@frontend/components/ui/icons";
+import { MembersIcon, OutboxIcon, ProjectsIcon, ReportsIcon, StatusIcon, SuppliersIcon } from "@frontend/components/ui/icons";
 import { cn } from "@frontend/lib/cn";
 import { can } from "@frontend/lib/permissions";
 
@@ -23,6 +23,7 @@ export function navItemsFor(role: Role): NavItem[] {
   }
   if (can(role, "members.manage")) items.push({ to: "/members", label: "Members", icon: <MembersIcon /> });
   if (can(role, "outbox.read")) items.push({ to: "/outbox", label: "Outbox", icon: <OutboxIcon /> });
+  if (can(role, "status.read")) items.push({ to: "/status", label: "Server status", icon: <StatusIcon /> });
   return items;
 }
 

@@ -123,3 +123,9 @@ export const MailIcon = (p: IconProps) => (
     <path d="m2.25 4 5.75 4.5L13.75 4" />
   </Icon>
 );
+
+export const StatusIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M1.5 8.5h3l1.5-4 3 8 1.5-4h4" />
+  </Icon>
+);

@@ -1,0 +1,25 @@
+import { z } from "zod";
+
+/** One worker process of the job queue (server mode), as last seen. */
+export const QueueWorkerSchema = z.object({
+  id: z.string(),
+  host: z.string(),
+  pid: z.number().int(),
+  threads: z.number().int(),
+  jobsDone: z.number().int(),
+  startedAt: z.string(),
+  seenAt: z.string(),
+});
+
+/**
+ * What the admin's status page shows: where studies run and how busy that is. `queue` is null on
+ * one machine (studies run in the server's own worker threads); with DATABASE_URL it is the job
+ * queue's depth and the worker processes seen in the last minute.
+ */
+export const ServerStatusSchema = z.object({
+  startedAt: z.string(),
+  studies: z.object({ queued: z.number().int(), running: z.number().int() }),
+  engine: z.object({ threads: z.number().int(), activeStudies: z.number().int() }),
+  queue: z.object({ depth: z.number().int(), active: z.number().int(), workers: z.array(QueueWorkerSchema) }).nullable(),
+});
+export type ServerStatus = z.infer<typeof ServerStatusSchema>;
