@@ -11,6 +11,8 @@ export class HttpError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: FieldError[],
+    /** a record's current version, on a 409 `conflict` (backend/lib/versions.ts) */
+    readonly version?: number,
   ) {
     super(message);
   }
@@ -53,7 +55,12 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (err instanceof HttpError) {
       res.status(err.status).json({
-        error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) },
+        error: {
+          code: err.code,
+          message: err.message,
+          ...(err.fields ? { fields: err.fields } : {}),
+          ...(err.version !== undefined ? { version: err.version } : {}),
+        },
       });
       return;
     }

@@ -15,6 +15,7 @@ import type { StorageGuard } from "../lib/storage";
 import { assertQuota } from "../services/storage-usage";
 import { badRequest, HttpError } from "../lib/errors";
 import { parse } from "../lib/validate";
+import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
 import { notifyReport } from "../services/review-notifications";
 import {
@@ -127,12 +128,12 @@ export function datasetsRouter(deps: AppDeps) {
     const { id } = parse(IdParamsSchema, req, "params");
     const fields = parse(UploadFieldsSchema, req);
     await quota(actorOf(req).workspaceId, req.file);
-    res.status(201).json(await uploadDataset(db, actorOf(req), id, req.file, fields));
+    sendVersioned(res, await uploadDataset(db, actorOf(req), id, req.file, fields), 201);
   });
 
   r.get("/datasets/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await getDataset(db, actorOf(req).workspaceId, id));
+    sendVersioned(res, await getDataset(db, actorOf(req).workspaceId, id));
   });
 
   r.delete("/datasets/:id", allow("datasets.write"), async (req, res) => {
@@ -144,13 +145,13 @@ export function datasetsRouter(deps: AppDeps) {
   r.patch("/datasets/:id", allow("datasets.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateDatasetSchema, req);
-    res.json(await updateDataset(db, actorOf(req), id, input));
+    sendVersioned(res, await updateDataset(db, actorOf(req), id, input, sentVersion(req)));
   });
 
   r.patch("/datasets/:id/mappings", allow("datasets.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateMappingsSchema, req);
-    res.json(await updateMappings(db, actorOf(req), id, input));
+    sendVersioned(res, await updateMappings(db, actorOf(req), id, input, sentVersion(req)));
   });
 
   r.get("/datasets/:id/statistics", allow("projects.read"), async (req, res) => {

@@ -8,6 +8,7 @@ import {
 } from "@shared/schemas/api";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
+import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
 import { listProjectActivity } from "../services/activity";
 import { deleteProjectGuarded, setArchived } from "../services/project-records";
@@ -23,18 +24,18 @@ export function projectsRouter({ db }: AppDeps) {
 
   r.post("/projects", allow("projects.write"), async (req, res) => {
     const input = parse(CreateProjectSchema, req);
-    res.status(201).json(await createProject(db, actorOf(req), input));
+    sendVersioned(res, await createProject(db, actorOf(req), input), 201);
   });
 
   r.get("/projects/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await getProject(db, actorOf(req).workspaceId, id));
+    sendVersioned(res, await getProject(db, actorOf(req).workspaceId, id));
   });
 
   r.patch("/projects/:id", allow("projects.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateProjectSchema, req);
-    res.json(await updateProject(db, actorOf(req), id, input));
+    sendVersioned(res, await updateProject(db, actorOf(req), id, input, sentVersion(req)));
   });
 
   r.delete("/projects/:id", allow("projects.write"), async (req, res) => {
@@ -46,14 +47,14 @@ export function projectsRouter({ db }: AppDeps) {
 
   r.post("/projects/:id/archive", allow("projects.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    await setArchived(db, actorOf(req), id, true);
-    res.json(await getProject(db, actorOf(req).workspaceId, id));
+    await setArchived(db, actorOf(req), id, true, sentVersion(req));
+    sendVersioned(res, await getProject(db, actorOf(req).workspaceId, id));
   });
 
   r.post("/projects/:id/restore", allow("projects.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    await setArchived(db, actorOf(req), id, false);
-    res.json(await getProject(db, actorOf(req).workspaceId, id));
+    await setArchived(db, actorOf(req), id, false, sentVersion(req));
+    sendVersioned(res, await getProject(db, actorOf(req).workspaceId, id));
   });
 
   r.get("/projects/:id/activity", allow("projects.read"), async (req, res) => {

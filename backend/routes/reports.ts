@@ -13,6 +13,7 @@ import {
 import { CommentBodySchema, ReturnRevisionSchema } from "@shared/schemas/revisions";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
+import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
 import { notifyReport } from "../services/review-notifications";
 import { listOutbox, outboxAttachment } from "../services/outbox";
@@ -49,7 +50,7 @@ export function reportsRouter(deps: AppDeps) {
     const input = parse(CreateReportSchema, req);
     const report = await createReport(db, actorOf(req), id, input, baseURL);
     await notifyReport(deps, actorOf(req), report.id, "ready");
-    res.status(201).json(report);
+    sendVersioned(res, report, 201);
   });
 
   r.get("/reports", allow("reports.read"), async (req, res) => {
@@ -59,13 +60,13 @@ export function reportsRouter(deps: AppDeps) {
 
   r.get("/reports/:id", allow("reports.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await getReport(db, actorOf(req), id, baseURL));
+    sendVersioned(res, await getReport(db, actorOf(req), id, baseURL));
   });
 
   r.patch("/reports/:id", allow("reports.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateReportSchema, req);
-    res.json(await updateReport(db, actorOf(req), id, input, baseURL));
+    sendVersioned(res, await updateReport(db, actorOf(req), id, input, baseURL, sentVersion(req)));
   });
 
   r.delete("/reports/:id", allow("reports.write"), async (req, res) => {
@@ -77,17 +78,17 @@ export function reportsRouter(deps: AppDeps) {
   r.post("/reports/:id/release", allow("reports.release"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(ReleaseReportSchema, req);
-    const report = await releaseReport(db, actorOf(req), id, comment, baseURL);
+    const report = await releaseReport(db, actorOf(req), id, comment, baseURL, sentVersion(req));
     await notifyReport(deps, actorOf(req), id, "released", comment);
-    res.json(report);
+    sendVersioned(res, report);
   });
 
   r.post("/reports/:id/return", allow("reports.release"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(ReturnRevisionSchema, req);
-    const report = await returnReport(db, actorOf(req), id, comment, baseURL);
+    const report = await returnReport(db, actorOf(req), id, comment, baseURL, sentVersion(req));
     await notifyReport(deps, actorOf(req), id, "returned", comment);
-    res.json(report);
+    sendVersioned(res, report);
   });
 
   r.post("/reports/:id/send", allow("reports.send"), async (req, res) => {
@@ -101,9 +102,9 @@ export function reportsRouter(deps: AppDeps) {
   r.post("/reports/:id/acknowledge", allow("reports.acknowledge"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(AcknowledgeReportSchema, req);
-    const report = await acknowledgeReport(db, actorOf(req), id, comment, baseURL);
+    const report = await acknowledgeReport(db, actorOf(req), id, comment, baseURL, sentVersion(req));
     await notifyReport(deps, actorOf(req), id, "acknowledged", comment);
-    res.json(report);
+    sendVersioned(res, report);
   });
 
   r.post("/reports/:id/comments", allow("reports.comment"), async (req, res) => {

@@ -1,5 +1,6 @@
 import { Router } from "express";
 import {
+  ApproveRevisionSchema,
   CommentBodySchema,
   CreateRevisionSchema,
   ReturnRevisionSchema,
@@ -10,6 +11,7 @@ import {
 import { IdParamsSchema } from "@shared/schemas/common";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
+import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
 import { notifyRevision } from "../services/review-notifications";
 import {
@@ -41,47 +43,47 @@ export function revisionsRouter(deps: AppDeps) {
   r.post("/projects/:id/revisions", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateRevisionSchema, req);
-    res.status(201).json(await createRevision(db, actorOf(req), id, input));
+    sendVersioned(res, await createRevision(db, actorOf(req), id, input), 201);
   });
 
   r.get("/revisions/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await getRevision(db, actorOf(req).workspaceId, id));
+    sendVersioned(res, await getRevision(db, actorOf(req).workspaceId, id));
   });
 
   r.patch("/revisions/:id", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateRevisionSchema, req);
-    res.json(await updateRevision(db, actorOf(req), id, input));
+    sendVersioned(res, await updateRevision(db, actorOf(req), id, input, sentVersion(req)));
   });
 
   r.post("/revisions/:id/drafts", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.status(201).json(await draftFrom(db, actorOf(req), id));
+    sendVersioned(res, await draftFrom(db, actorOf(req), id), 201);
   });
 
   r.post("/revisions/:id/submit", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { note } = parse(SubmitRevisionSchema, req);
-    const revision = await transitionRevision(db, actorOf(req), id, "submit", undefined, note);
+    const revision = await transitionRevision(db, actorOf(req), id, "submit", sentVersion(req), undefined, note);
     await notifyRevision(deps, actorOf(req), id, "submit");
-    res.json(revision);
+    sendVersioned(res, revision);
   });
 
   r.post("/revisions/:id/approve", allow("revisions.review"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    const body = req.body && typeof req.body === "object" && "comment" in req.body ? parse(ReturnRevisionSchema, req) : undefined;
-    const revision = await transitionRevision(db, actorOf(req), id, "approve", body?.comment);
-    await notifyRevision(deps, actorOf(req), id, "approve", body?.comment);
-    res.json(revision);
+    const { comment } = parse(ApproveRevisionSchema, req);
+    const revision = await transitionRevision(db, actorOf(req), id, "approve", sentVersion(req), comment || undefined);
+    await notifyRevision(deps, actorOf(req), id, "approve", comment || undefined);
+    sendVersioned(res, revision);
   });
 
   r.post("/revisions/:id/return", allow("revisions.review"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(ReturnRevisionSchema, req);
-    const revision = await transitionRevision(db, actorOf(req), id, "return", comment);
+    const revision = await transitionRevision(db, actorOf(req), id, "return", sentVersion(req), comment);
     await notifyRevision(deps, actorOf(req), id, "return", comment);
-    res.json(revision);
+    sendVersioned(res, revision);
   });
 
   r.post("/revisions/:id/comments", allow("revisions.comment"), async (req, res) => {

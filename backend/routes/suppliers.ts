@@ -3,6 +3,7 @@ import { z } from "zod";
 import { CreateContactSchema, CreateSupplierSchema, IdParamsSchema, IdSchema, UpdateSupplierSchema } from "@shared/schemas/api";
 import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
+import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
 import {
   addContact,
@@ -25,18 +26,18 @@ export function suppliersRouter({ db }: AppDeps) {
 
   r.get("/suppliers/:id", allow("suppliers.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await getSupplier(db, actorOf(req).workspaceId, id));
+    sendVersioned(res, await getSupplier(db, actorOf(req).workspaceId, id));
   });
 
   r.post("/suppliers", allow("suppliers.write"), async (req, res) => {
     const input = parse(CreateSupplierSchema, req);
-    res.status(201).json(await createSupplier(db, actorOf(req).workspaceId, input));
+    sendVersioned(res, await createSupplier(db, actorOf(req).workspaceId, input), 201);
   });
 
   r.patch("/suppliers/:id", allow("suppliers.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateSupplierSchema, req);
-    res.json(await updateSupplier(db, actorOf(req).workspaceId, id, input));
+    sendVersioned(res, await updateSupplier(db, actorOf(req).workspaceId, id, input, sentVersion(req)));
   });
 
   r.delete("/suppliers/:id", allow("suppliers.write"), async (req, res) => {
@@ -48,12 +49,12 @@ export function suppliersRouter({ db }: AppDeps) {
   r.post("/suppliers/:id/contacts", allow("suppliers.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateContactSchema, req);
-    res.status(201).json(await addContact(db, actorOf(req).workspaceId, id, input));
+    res.status(201).json(await addContact(db, actorOf(req).workspaceId, id, input, sentVersion(req)));
   });
 
   r.delete("/suppliers/:id/contacts/:contactId", allow("suppliers.write"), async (req, res) => {
     const { id, contactId } = parse(ContactParamsSchema, req, "params");
-    await removeContact(db, actorOf(req).workspaceId, id, contactId);
+    await removeContact(db, actorOf(req).workspaceId, id, contactId, sentVersion(req));
     res.status(204).end();
   });
 

@@ -6,8 +6,9 @@ import { conversionFactor, type MeasureUnit } from "@shared/datasets/units";
 import { unitText } from "@shared/format";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
-import { datasetMappings, stackRevisions } from "../db/schema";
+import { datasetMappings, datasets, stackRevisions } from "../db/schema";
 import { badRequest } from "../lib/errors";
+import { requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import type { ParsedColumn } from "./dataset-files";
@@ -15,8 +16,15 @@ import type { ParsedColumn } from "./dataset-files";
 import { datasetRow, getDataset } from "./datasets";
 
 /** Sets or clears the tolerance source of each listed column; the others keep theirs. */
-export async function updateMappings(db: Database, actor: Actor, id: string, input: UpdateMappings): Promise<Dataset> {
+export async function updateMappings(
+  db: Database,
+  actor: Actor,
+  id: string,
+  input: UpdateMappings,
+  sent: number | undefined,
+): Promise<Dataset> {
   const ds = await datasetRow(db, actor.workspaceId, id);
+  const expected = requireVersion(`The data set “${ds.name}”`, ds.version, sent);
   const columns = ds.columns as unknown as ParsedColumn[];
   const revisionIds = [...new Set(input.mappings.map((m) => m.revisionId))];
   const revs = await db
@@ -107,6 +115,7 @@ export async function updateMappings(db: Database, actor: Actor, id: string, inp
     );
 
   await db.transaction(async (tx) => {
+    await writeVersioned(tx, datasets, id, expected, `The data set “${ds.name}”`);
     for (const p of planned) {
       await tx.delete(datasetMappings).where(and(eq(datasetMappings.datasetId, id), eq(datasetMappings.column, p.column)));
       if (p.source === null) continue;

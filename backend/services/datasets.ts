@@ -8,6 +8,7 @@ import type { StackFile } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
 import { datasetMappings, datasets, projects, reports, stackRevisions, suppliers, users } from "../db/schema";
 import { badRequest, conflict, found } from "../lib/errors";
+import { requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
@@ -35,6 +36,7 @@ const summaryColumns = {
   note: datasets.note,
   lotColumn: datasets.lotColumn,
   createdAt: datasets.createdAt,
+  version: datasets.version,
 };
 
 function baseQuery(db: Database) {
@@ -101,6 +103,7 @@ function toSummary(r: SummaryRow, maps: MappingRow[]): DatasetSummary {
     note: r.note,
     lotColumn: r.lotColumn,
     createdAt: r.createdAt.toISOString(),
+    version: r.version,
   };
 }
 
@@ -330,8 +333,15 @@ export async function datasetRow(db: Database, workspaceId: string, id: string) 
 }
 
 /** Marks (or clears) the label column that names each row's lot or date. */
-export async function updateDataset(db: Database, actor: Actor, id: string, input: UpdateDataset): Promise<Dataset> {
+export async function updateDataset(
+  db: Database,
+  actor: Actor,
+  id: string,
+  input: UpdateDataset,
+  sent: number | undefined,
+): Promise<Dataset> {
   const ds = await datasetRow(db, actor.workspaceId, id);
+  const expected = requireVersion(`The data set “${ds.name}”`, ds.version, sent);
   const columns = ds.columns as unknown as ParsedColumn[];
   if (input.lotColumn !== null) {
     const c = columns.find((x) => x.key === input.lotColumn);
@@ -349,7 +359,7 @@ export async function updateDataset(db: Database, actor: Actor, id: string, inpu
       );
   }
   await db.transaction(async (tx) => {
-    await tx.update(datasets).set({ lotColumn: input.lotColumn }).where(eq(datasets.id, id));
+    await writeVersioned(tx, datasets, id, expected, `The data set “${ds.name}”`, { lotColumn: input.lotColumn });
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,
       projectId: ds.projectId,

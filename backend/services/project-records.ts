@@ -8,6 +8,7 @@ import { and, eq, isNotNull, sql } from "drizzle-orm";
 import type { Database } from "../db/client";
 import { projects, reports, stackRevisions } from "../db/schema";
 import { badRequest, conflict, found } from "../lib/errors";
+import { assertVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 
@@ -94,17 +95,15 @@ export async function deleteProjectGuarded(db: Database, actor: Actor, id: strin
   });
 }
 
-/** Archives (read-only, out of the default list) or restores a project. */
-export async function setArchived(db: Database, actor: Actor, id: string, archived: boolean): Promise<void> {
+/** Archives (read-only, out of the default list) or restores a project; checked against `expected` when the client sent it. */
+export async function setArchived(db: Database, actor: Actor, id: string, archived: boolean, expected?: number): Promise<void> {
   const project = await projectRow(db, actor.workspaceId, id);
+  assertVersion(`The project “${project.name}”`, project.version, expected);
   if (archived === (project.archivedAt !== null)) {
     throw conflict(`“${project.name}” is ${archived ? "already archived" : "not archived"}.`, "invalid_state");
   }
   await db.transaction(async (tx) => {
-    await tx
-      .update(projects)
-      .set({ archivedAt: archived ? new Date() : null })
-      .where(and(eq(projects.workspaceId, actor.workspaceId), eq(projects.id, id)));
+    await writeVersioned(tx, projects, id, expected, `The project “${project.name}”`, { archivedAt: archived ? new Date() : null });
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,
       projectId: id,

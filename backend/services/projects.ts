@@ -3,6 +3,7 @@ import type { CreateProject, Project, UpdateProject } from "@shared/schemas/api"
 import type { Database } from "../db/client";
 import { projects, users } from "../db/schema";
 import { found } from "../lib/errors";
+import { requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
@@ -19,6 +20,7 @@ const projectColumns = {
   createdAt: projects.createdAt,
   updatedAt: projects.updatedAt,
   archivedAt: projects.archivedAt,
+  version: projects.version,
 };
 
 type Row = {
@@ -30,6 +32,7 @@ type Row = {
   createdAt: Date;
   updatedAt: Date;
   archivedAt: Date | null;
+  version: number;
 };
 
 async function toProjects(db: Database, rows: Row[]): Promise<Project[]> {
@@ -92,17 +95,21 @@ export async function createProject(db: Database, actor: Actor, input: CreatePro
   return getProject(db, actor.workspaceId, id);
 }
 
-export async function updateProject(db: Database, actor: Actor, id: string, input: UpdateProject): Promise<Project> {
+export async function updateProject(
+  db: Database,
+  actor: Actor,
+  id: string,
+  input: UpdateProject,
+  sent: number | undefined,
+): Promise<Project> {
   const before = await getProject(db, actor.workspaceId, id);
+  const expected = requireVersion(`The project “${before.name}”`, before.version, sent);
   await assertProjectOpen(db, actor.workspaceId, id);
   await db.transaction(async (tx) => {
-    await tx
-      .update(projects)
-      .set({
-        ...(input.name !== undefined ? { name: input.name } : {}),
-        ...(input.description !== undefined ? { description: input.description } : {}),
-      })
-      .where(and(eq(projects.workspaceId, actor.workspaceId), eq(projects.id, id)));
+    await writeVersioned(tx, projects, id, expected, `The project “${before.name}”`, {
+      ...(input.name !== undefined ? { name: input.name } : {}),
+      ...(input.description !== undefined ? { description: input.description } : {}),
+    });
     if (input.name !== undefined && input.name !== before.name) {
       await recordActivity(tx, {
         workspaceId: actor.workspaceId,

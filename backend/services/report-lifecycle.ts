@@ -9,6 +9,7 @@ import type { CreateReport, Report, ReportContent, UpdateReport } from "@shared/
 import type { Database } from "../db/client";
 import { comments, projects, reportFiles, reports, stackRevisions, users } from "../db/schema";
 import { badRequest, conflict, found, HttpError } from "../lib/errors";
+import { requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
@@ -146,6 +147,8 @@ export async function createReport(db: Database, actor: Actor, studyId: string, 
   return getReport(db, actor, id, baseURL);
 }
 
+const titleOf = (row: ReportRow) => `${reportCode(row.number)} revision ${row.revision}`;
+
 function assertDraft(row: ReportRow) {
   if (row.status !== "draft") {
     throw conflict(
@@ -155,8 +158,9 @@ function assertDraft(row: ReportRow) {
   }
 }
 
-export async function updateReport(db: Database, actor: Actor, id: string, input: UpdateReport, baseURL: string) {
+export async function updateReport(db: Database, actor: Actor, id: string, input: UpdateReport, baseURL: string, sent: number | undefined) {
   const row = await visibleRow(db, actor, id);
+  const expected = requireVersion(titleOf(row), row.version, sent);
   assertDraft(row);
   if (!row.studyId || !row.supplierId)
     throw conflict("The study or the supplier of this draft was deleted. Discard it and build a new one.", "not_reportable");
@@ -165,12 +169,15 @@ export async function updateReport(db: Database, actor: Actor, id: string, input
   const snapshot =
     input.snapshotPng === undefined ? row.snapshotPng : input.snapshotPng === null ? null : decodeSnapshot(input.snapshotPng);
   await db.transaction(async (tx) => {
-    const changed = await tx
-      .update(reports)
-      .set({ capability, content: content as unknown as Record<string, unknown>, note: input.note ?? row.note, snapshotPng: snapshot })
-      .where(and(eq(reports.id, id), eq(reports.status, "draft")))
-      .returning({ id: reports.id });
-    if (!changed.length) throw conflict("The report was released meanwhile; reload it.", "report_frozen");
+    await writeVersioned(
+      tx,
+      reports,
+      id,
+      expected,
+      titleOf(row),
+      { capability, content: content as unknown as Record<string, unknown>, note: input.note ?? row.note, snapshotPng: snapshot },
+      { where: eq(reports.status, "draft"), otherwise: () => conflict("The report was released meanwhile; reload it.", "report_frozen") },
+    );
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,
       projectId: row.projectId,
@@ -204,8 +211,16 @@ export async function deleteReport(db: Database, actor: Actor, id: string) {
   });
 }
 
-export async function releaseReport(db: Database, actor: Actor, id: string, comment: string | undefined, baseURL: string) {
+export async function releaseReport(
+  db: Database,
+  actor: Actor,
+  id: string,
+  comment: string | undefined,
+  baseURL: string,
+  sent: number | undefined,
+) {
   const row = await visibleRow(db, actor, id);
+  const expected = requireVersion(titleOf(row), row.version, sent);
   assertDraft(row);
   const c = row.content as unknown as ReportContent;
   if (row.revisionId) {
@@ -223,12 +238,15 @@ export async function releaseReport(db: Database, actor: Actor, id: string, comm
     (["pdf", "xlsx", "csv"] as const).map(async (kind) => ({ kind, data: await render(row, meta, kind) })),
   );
   await db.transaction(async (tx) => {
-    const changed = await tx
-      .update(reports)
-      .set({ status: "released", releasedAt, releasedBy: actor.userId })
-      .where(and(eq(reports.id, id), eq(reports.status, "draft")))
-      .returning({ id: reports.id });
-    if (!changed.length) throw conflict("The report was released meanwhile.", "report_frozen");
+    await writeVersioned(
+      tx,
+      reports,
+      id,
+      expected,
+      titleOf(row),
+      { status: "released", releasedAt, releasedBy: actor.userId },
+      { where: eq(reports.status, "draft"), otherwise: () => conflict("The report was released meanwhile.", "report_frozen") },
+    );
     await tx.insert(reportFiles).values(
       rendered.map((f) => ({
         reportId: id,
@@ -261,18 +279,32 @@ export async function releaseReport(db: Database, actor: Actor, id: string, comm
   return getReport(db, actor, id, baseURL);
 }
 
-export async function acknowledgeReport(db: Database, actor: Actor, id: string, comment: string | undefined, baseURL: string) {
+export async function acknowledgeReport(
+  db: Database,
+  actor: Actor,
+  id: string,
+  comment: string | undefined,
+  baseURL: string,
+  sent: number | undefined,
+) {
   const row = await visibleRow(db, actor, id);
+  const expected = requireVersion(titleOf(row), row.version, sent);
   if (row.acknowledgedAt)
     throw conflict(`${reportCode(row.number)} revision ${row.revision} is already acknowledged.`, "already_acknowledged");
   const c = row.content as unknown as ReportContent;
   await db.transaction(async (tx) => {
-    const changed = await tx
-      .update(reports)
-      .set({ acknowledgedAt: new Date(), acknowledgedBy: actor.userId })
-      .where(and(eq(reports.id, id), eq(reports.status, "released"), sql`${reports.acknowledgedAt} is null`))
-      .returning({ id: reports.id });
-    if (!changed.length) throw conflict("The report was acknowledged meanwhile.", "already_acknowledged");
+    await writeVersioned(
+      tx,
+      reports,
+      id,
+      expected,
+      titleOf(row),
+      { acknowledgedAt: new Date(), acknowledgedBy: actor.userId },
+      {
+        where: and(eq(reports.status, "released"), sql`${reports.acknowledgedAt} is null`),
+        otherwise: () => conflict("The report was acknowledged meanwhile.", "already_acknowledged"),
+      },
+    );
     await tx.insert(comments).values({
       workspaceId: actor.workspaceId,
       projectId: row.projectId,
@@ -323,10 +355,24 @@ export async function addReportComment(db: Database, actor: Actor, id: string, b
 }
 
 /** A reviewer sends a draft back with what must change; it stays a draft, the comment is kept. */
-export async function returnReport(db: Database, actor: Actor, id: string, comment: string, baseURL: string) {
+export async function returnReport(db: Database, actor: Actor, id: string, comment: string, baseURL: string, sent: number | undefined) {
   const row = await visibleRow(db, actor, id);
+  const expected = requireVersion(titleOf(row), row.version, sent);
   assertDraft(row);
   await db.transaction(async (tx) => {
+    // sending back is a change of the draft: an engineer's edit made on the version before it is stale
+    await writeVersioned(
+      tx,
+      reports,
+      id,
+      expected,
+      titleOf(row),
+      {},
+      {
+        where: eq(reports.status, "draft"),
+        otherwise: () => conflict("The report was released meanwhile.", "report_frozen"),
+      },
+    );
     await tx.insert(comments).values({
       workspaceId: actor.workspaceId,
       projectId: row.projectId,

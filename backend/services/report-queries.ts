@@ -84,6 +84,7 @@ function toSummary(r: SummaryRecord): ReportSummary {
     number: r.row.number,
     revision: r.row.revision,
     status: r.row.status,
+    version: r.row.version,
     projectId: r.row.projectId,
     projectName: r.projectName,
     supplierId: r.row.supplierId,

@@ -13,6 +13,7 @@ import type {
 import type { Database } from "../db/client";
 import { comments, projects, stackRevisions, users } from "../db/schema";
 import { badRequest, conflict, found } from "../lib/errors";
+import { requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
@@ -28,6 +29,7 @@ const summaryColumns = {
   projectId: stackRevisions.projectId,
   number: stackRevisions.number,
   status: stackRevisions.status,
+  version: stackRevisions.version,
   stack: stackRevisions.stack,
   note: stackRevisions.note,
   basedOnId: stackRevisions.basedOnId,
@@ -161,8 +163,16 @@ export async function createRevision(
   return getRevision(db, actor.workspaceId, id);
 }
 
-export async function updateRevision(db: Database, actor: Actor, id: string, input: z.infer<typeof UpdateRevisionSchema>) {
+/** Changes a draft made on version `sent` (none: 428; a stale one: 409 `conflict`, nothing lost). */
+export async function updateRevision(
+  db: Database,
+  actor: Actor,
+  id: string,
+  input: z.infer<typeof UpdateRevisionSchema>,
+  sent: number | undefined,
+) {
   const row = await getRevisionRow(db, actor.workspaceId, id);
+  const expected = requireVersion(`Stack revision ${row.number}`, row.version, sent);
   await assertProjectOpen(db, actor.workspaceId, row.projectId);
   if (row.status !== "draft") {
     throw conflict(
@@ -175,10 +185,20 @@ export async function updateRevision(db: Database, actor: Actor, id: string, inp
   const stack = input.stack !== undefined ? checkStack(input.stack) : row.stack;
   const requirements = input.requirements ?? row.requirements;
   checkRequirements(stack, requirements);
-  await db
-    .update(stackRevisions)
-    .set({ stack, requirements, ...(input.note !== undefined ? { note: input.note } : {}) })
-    .where(and(eq(stackRevisions.id, id), eq(stackRevisions.status, "draft")));
+  await db.transaction((tx) =>
+    writeVersioned(
+      tx,
+      stackRevisions,
+      id,
+      expected,
+      `Stack revision ${row.number}`,
+      { stack, requirements, ...(input.note !== undefined ? { note: input.note } : {}) },
+      {
+        where: eq(stackRevisions.status, "draft"),
+        otherwise: () => conflict("This revision left its draft state meanwhile; reload it.", "revision_frozen"),
+      },
+    ),
+  );
   return getRevision(db, actor.workspaceId, id);
 }
 
@@ -196,11 +216,13 @@ export async function transitionRevision(
   actor: Actor,
   id: string,
   kind: keyof typeof TRANSITIONS,
+  sent: number | undefined,
   comment?: string,
   note?: string,
 ) {
   const t = TRANSITIONS[kind];
   const row = await getRevisionRow(db, actor.workspaceId, id);
+  const expected = requireVersion(`Stack revision ${row.number}`, row.version, sent);
   await assertProjectOpen(db, actor.workspaceId, row.projectId);
   if (row.status !== t.from) {
     throw conflict(
@@ -217,16 +239,22 @@ export async function transitionRevision(
   }
   const now = new Date();
   await db.transaction(async (tx) => {
-    const changed = await tx
-      .update(stackRevisions)
-      .set({
+    await writeVersioned(
+      tx,
+      stackRevisions,
+      id,
+      expected,
+      `Stack revision ${row.number}`,
+      {
         status: t.to,
         ...(kind === "submit" ? { submittedAt: now, submittedBy: actor.userId, note: finalNote } : {}),
         ...(kind === "approve" ? { approvedAt: now, approvedBy: actor.userId } : {}),
-      })
-      .where(and(eq(stackRevisions.id, id), eq(stackRevisions.status, t.from)))
-      .returning({ id: stackRevisions.id });
-    if (!changed.length) throw conflict("The revision changed meanwhile; reload and try again.", "invalid_state");
+      },
+      {
+        where: eq(stackRevisions.status, t.from),
+        otherwise: () => conflict("The revision changed meanwhile; reload and try again.", "invalid_state"),
+      },
+    );
     if (comment || kind !== "submit") {
       await tx.insert(comments).values({
         workspaceId: actor.workspaceId,

@@ -4,6 +4,7 @@ import type { CreateContactSchema, CreateSupplierSchema, Supplier, UpdateSupplie
 import type { Database } from "../db/client";
 import { supplierContacts, suppliers } from "../db/schema";
 import { conflict, found } from "../lib/errors";
+import { assertVersion, requireVersion, writeVersioned } from "../lib/versions";
 
 const isUniqueViolation = (e: unknown) => {
   const err = e as { code?: string; cause?: { code?: string } };
@@ -25,6 +26,7 @@ export async function listSuppliers(db: Database, workspaceId: string, onlyId?: 
     name: s.name,
     kind: s.kind,
     createdAt: s.createdAt.toISOString(),
+    version: s.version,
     contacts: contacts.filter((c) => c.supplierId === s.id).map((c) => ({ id: c.id, name: c.name, email: c.email })),
   }));
 }
@@ -44,13 +46,17 @@ export async function createSupplier(db: Database, workspaceId: string, input: z
   }
 }
 
-export async function updateSupplier(db: Database, workspaceId: string, id: string, input: z.infer<typeof UpdateSupplierSchema>) {
-  await getSupplier(db, workspaceId, id);
+export async function updateSupplier(
+  db: Database,
+  workspaceId: string,
+  id: string,
+  { version: _sent, ...input }: z.infer<typeof UpdateSupplierSchema>,
+  sent: number | undefined,
+) {
+  const before = await getSupplier(db, workspaceId, id);
+  const expected = requireVersion(`The supplier “${before.name}”`, before.version, sent);
   try {
-    await db
-      .update(suppliers)
-      .set(input)
-      .where(and(eq(suppliers.workspaceId, workspaceId), eq(suppliers.id, id)));
+    await db.transaction((tx) => writeVersioned(tx, suppliers, id, expected, `The supplier “${before.name}”`, input));
   } catch (e) {
     if (isUniqueViolation(e)) throw conflict(`A supplier named “${input.name}” already exists.`, "duplicate_supplier");
     throw e;
@@ -63,10 +69,22 @@ export async function deleteSupplier(db: Database, workspaceId: string, id: stri
   await db.delete(suppliers).where(and(eq(suppliers.workspaceId, workspaceId), eq(suppliers.id, id)));
 }
 
-export async function addContact(db: Database, workspaceId: string, supplierId: string, input: z.infer<typeof CreateContactSchema>) {
-  await getSupplier(db, workspaceId, supplierId);
+/** A contact belongs to its supplier's record: adding or removing one counts as a change of it (`expected` checked when sent). */
+export async function addContact(
+  db: Database,
+  workspaceId: string,
+  supplierId: string,
+  input: z.infer<typeof CreateContactSchema>,
+  expected?: number,
+) {
+  const s = await getSupplier(db, workspaceId, supplierId);
+  assertVersion(`The supplier “${s.name}”`, s.version, expected);
   try {
-    const [row] = await db.insert(supplierContacts).values({ supplierId, name: input.name, email: input.email }).returning();
+    const row = await db.transaction(async (tx) => {
+      const [c] = await tx.insert(supplierContacts).values({ supplierId, name: input.name, email: input.email }).returning();
+      await writeVersioned(tx, suppliers, supplierId, expected, `The supplier “${s.name}”`);
+      return c;
+    });
     return { id: row.id, name: row.name, email: row.email };
   } catch (e) {
     if (isUniqueViolation(e)) throw conflict(`${input.email} is already a contact of this supplier.`, "duplicate_contact");
@@ -74,11 +92,15 @@ export async function addContact(db: Database, workspaceId: string, supplierId: 
   }
 }
 
-export async function removeContact(db: Database, workspaceId: string, supplierId: string, contactId: string) {
-  await getSupplier(db, workspaceId, supplierId);
-  const deleted = await db
-    .delete(supplierContacts)
-    .where(and(eq(supplierContacts.supplierId, supplierId), eq(supplierContacts.id, contactId)))
-    .returning({ id: supplierContacts.id });
-  found(deleted[0], "The contact");
+export async function removeContact(db: Database, workspaceId: string, supplierId: string, contactId: string, expected?: number) {
+  const s = await getSupplier(db, workspaceId, supplierId);
+  assertVersion(`The supplier “${s.name}”`, s.version, expected);
+  await db.transaction(async (tx) => {
+    const deleted = await tx
+      .delete(supplierContacts)
+      .where(and(eq(supplierContacts.supplierId, supplierId), eq(supplierContacts.id, contactId)))
+      .returning({ id: supplierContacts.id });
+    found(deleted[0], "The contact");
+    await writeVersioned(tx, suppliers, supplierId, expected, `The supplier “${s.name}”`);
+  });
 }

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { IdSchema, RoleSchema, text } from "./common";
+import { IdSchema, RoleSchema, text, VersionBodySchema, VersionSchema } from "./common";
 
 export * from "./common";
 
@@ -32,6 +32,7 @@ export const ProjectSchema = z.object({
   updatedAt: text(),
   /** Set when archived: read-only, hidden from the default list. */
   archivedAt: text().nullable(),
+  version: VersionSchema,
   lastStudy: z.object({ id: IdSchema, status: text(), passes: z.boolean().nullable(), finishedAt: text().nullable() }).nullable(),
 });
 export type Project = z.infer<typeof ProjectSchema>;
@@ -58,6 +59,7 @@ export const UpdateProjectSchema = z
   .object({
     name: trimmedName("Project name").optional(),
     description: text().trim().max(2000, { message: "description must be at most 2000 characters" }).optional(),
+    ...VersionBodySchema.shape,
   })
   .refine((v) => v.name !== undefined || v.description !== undefined, { message: "give a name or a description to change" });
 export type UpdateProject = z.infer<typeof UpdateProjectSchema>;
@@ -70,6 +72,7 @@ export const SupplierSchema = z.object({
   kind: text(),
   contacts: z.array(SupplierContactSchema),
   createdAt: text(),
+  version: VersionSchema,
 });
 export type Supplier = z.infer<typeof SupplierSchema>;
 export const SupplierListSchema = z.object({ suppliers: z.array(SupplierSchema) });
@@ -83,6 +86,7 @@ export const CreateSupplierSchema = z.object({
 export const UpdateSupplierSchema = z.object({
   name: trimmedName("Supplier name").optional(),
   kind: SupplierKindSchema.optional(),
+  ...VersionBodySchema.shape,
 });
 export const CreateContactSchema = z.object({ name: trimmedName("Contact name"), email });
 

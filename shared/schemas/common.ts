@@ -13,6 +13,8 @@ export const ApiErrorSchema = z.object({
     code: z.string(),
     message: z.string(),
     fields: z.array(z.object({ path: z.string(), message: z.string() })).optional(),
+    /** on a 409 `conflict`: the record's current version (someone else changed it meanwhile) */
+    version: z.number().int().optional(),
   }),
 });
 export type ApiError = z.infer<typeof ApiErrorSchema>;
@@ -47,3 +49,29 @@ export const queryNumber = (what: string, limits: (n: z.ZodNumber) => z.ZodNumbe
     (v) => (typeof v === "string" ? (v.trim() === "" ? Number.NaN : Number(v)) : v),
     limits(z.number({ message: `${what} must be a number` })),
   );
+
+// ---- versions of shared records (docs/decisions/034-record-versions.md) -----------------------
+
+/** The edit counter of a record people share: 1 when made, one more with every change. */
+export const VersionSchema = z
+  .number({ message: "version must be a whole number" })
+  .int({ message: "version must be a whole number" })
+  .min(1, { message: "version starts at 1" })
+  .max(2_147_483_647, { message: "version is too large" });
+
+/** The version a change is based on, sent in the body instead of an If-Match header. */
+export const VersionBodySchema = z.object({ version: VersionSchema.optional() });
+
+/**
+ * An If-Match header naming one version: the ETag `"3"` as sent (a weak `W/"3"` and a bare 3 too).
+ * A list of tags or `*` names no single version and is refused.
+ */
+export const IfMatchSchema = z
+  .string()
+  .trim()
+  .regex(/^(?:W\/)?"?[1-9][0-9]{0,9}"?$/, { message: 'If-Match must be one version as sent in the ETag, e.g. "3"' })
+  .transform((s) => Number(s.replace(/^W\//, "").replace(/"/g, "")))
+  .pipe(VersionSchema);
+
+/** The ETag of a record at a version; the client sends it back as If-Match. */
+export const versionTag = (version: number) => `"${version}"`;

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { MEASURE_UNITS } from "../datasets/units";
-import { IdSchema, text } from "./common";
+import { IdSchema, text, VersionBodySchema, VersionSchema } from "./common";
 
 /** Limits of an uploaded measurement file. */
 export const DATASET_MAX_BYTES = 5 * 1024 * 1024;
@@ -71,6 +71,8 @@ export const DatasetSummarySchema = z.object({
   /** a label column marked as each row's lot (or date) */
   lotColumn: text().nullable(),
   createdAt: text(),
+  /** one counter for the data set's lot column and its column mappings */
+  version: VersionSchema,
 });
 export type DatasetSummary = z.infer<typeof DatasetSummarySchema>;
 export const DatasetListSchema = z.object({ datasets: z.array(DatasetSummarySchema) });
@@ -114,6 +116,7 @@ export const UpdateMappingsSchema = z.object({
     .array(MappingInputSchema, { message: "mappings must be a list" })
     .min(1, { message: "give at least one mapping" })
     .max(DATASET_MAX_COLUMNS),
+  ...VersionBodySchema.shape,
 });
 export type UpdateMappings = z.infer<typeof UpdateMappingsSchema>;
 
@@ -127,6 +130,7 @@ export type UploadFields = z.infer<typeof UploadFieldsSchema>;
 export const UpdateDatasetSchema = z.object({
   /** a label column naming each row's lot (or date); null: the rows have no lots */
   lotColumn: text({ message: "lotColumn must be a column's header or null" }).min(1).nullable(),
+  ...VersionBodySchema.shape,
 });
 export type UpdateDataset = z.infer<typeof UpdateDatasetSchema>;
 

@@ -4,7 +4,7 @@
  */
 import { z } from "zod";
 import { DEFAULT_CPK, MAX_CPK, MIN_CPK } from "../reports/capability";
-import { IdSchema, text } from "./common";
+import { IdSchema, text, VersionBodySchema, VersionSchema } from "./common";
 import { EnvelopeSchema } from "./result-file";
 import { CommentSchema } from "./revisions";
 
@@ -57,8 +57,11 @@ export const UpdateReportSchema = z
     note: note.optional(),
     /** null removes the snapshot (the PDF then draws the schematic side view) */
     snapshotPng: PngDataUrlSchema.nullable().optional(),
+    ...VersionBodySchema.shape,
   })
-  .refine((v) => Object.values(v).some((x) => x !== undefined), { message: "give cpk, cpkOverrides, note or snapshotPng to change" });
+  .refine(({ version: _v, ...v }) => Object.values(v).some((x) => x !== undefined), {
+    message: "give cpk, cpkOverrides, note or snapshotPng to change",
+  });
 export type UpdateReport = z.infer<typeof UpdateReportSchema>;
 
 export const ReportListQuerySchema = z.object({
@@ -72,7 +75,7 @@ const shortText = (what: string) =>
     .string({ message: `${what} must be text` })
     .trim()
     .max(NOTE_MAX, { message: `${what} must be at most ${NOTE_MAX} characters` });
-export const ReleaseReportSchema = z.object({ comment: shortText("comment").optional() });
+export const ReleaseReportSchema = z.object({ comment: shortText("comment").optional(), ...VersionBodySchema.shape });
 /** Most addresses a send may copy in. */
 export const MAX_CC = 10;
 const ccAddress = text({ message: "each CC must be an e-mail address" })
@@ -100,7 +103,7 @@ export const SendReportSchema = z.object({
     .default(["pdf"]),
 });
 export type SendReport = z.input<typeof SendReportSchema>;
-export const AcknowledgeReportSchema = z.object({ comment: shortText("comment").optional() });
+export const AcknowledgeReportSchema = z.object({ comment: shortText("comment").optional(), ...VersionBodySchema.shape });
 
 // ---- the frozen content -----------------------------------------------------------
 export const ReportToleranceSchema = z.object({
@@ -216,6 +219,7 @@ export const ReportSummarySchema = z.object({
   number: z.number().int(),
   revision: z.number().int(),
   status: ReportStatusSchema,
+  version: VersionSchema,
   projectId: IdSchema,
   projectName: text(),
   supplierId: IdSchema.nullable(),

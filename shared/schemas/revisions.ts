@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { IdSchema, text } from "./common";
+import { IdSchema, text, VersionBodySchema, VersionSchema } from "./common";
 import { RequirementSchema, type Requirement } from "./study-file";
 import { GeometryWarningSchema } from "./stack-help";
 
@@ -20,6 +20,7 @@ export const UpdateRevisionSchema = z
     stack: z.unknown().optional(),
     requirements: RequirementsSchema.optional(),
     note: text().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
+    ...VersionBodySchema.shape,
   })
   .refine((v) => v.stack !== undefined || v.requirements !== undefined || v.note !== undefined, {
     message: "give a stack, requirements or a note to change",
@@ -30,6 +31,12 @@ export const ReturnRevisionSchema = z.object({
     .trim()
     .min(1, { message: "say why the revision goes back" })
     .max(4000, { message: "comment must be at most 4000 characters" }),
+  ...VersionBodySchema.shape,
+});
+/** Approving: an optional comment beside the approval. */
+export const ApproveRevisionSchema = z.object({
+  comment: text().trim().max(4000, { message: "comment must be at most 4000 characters" }).optional(),
+  ...VersionBodySchema.shape,
 });
 export const CommentBodySchema = z.object({
   body: z
@@ -53,6 +60,7 @@ export const RevisionSummarySchema = z.object({
   projectId: IdSchema,
   number: z.number().int(),
   status: RevisionStatusSchema,
+  version: VersionSchema,
   name: text(),
   note: text(),
   basedOnId: IdSchema.nullable(),
@@ -94,4 +102,5 @@ export type RevisionDiff = z.infer<typeof RevisionDiffSchema>;
 /** Submitting: the note says what changed and why; asked for on every revision after the first. */
 export const SubmitRevisionSchema = z.object({
   note: text().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
+  ...VersionBodySchema.shape,
 });

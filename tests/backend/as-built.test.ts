@@ -55,6 +55,7 @@ it("runs as built beside the design: the replaced sources are frozen in the stud
 
   const mapped = await t.call("PATCH", `/api/datasets/${ds.id}/mappings`, {
     cookie: eng,
+    headers: { "if-match": up.headers.get("etag")! },
     body: {
       mappings: [
         { column: "mag yaw [mrad]", revisionId: rev.body.id, source: "mag.yaw" },

@@ -130,6 +130,7 @@ describe("a corner-height file from the line", () => {
   it("four columns map in one step to the bond line's supports, the nominal taken from the stack", async () => {
     const res = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${datasetId}`, eng),
       body: { mappings: [0, 1, 2, 3].map((k) => ({ column: `h${k} [um]`, revisionId, source: "mag.bondLine", support: k })) },
     });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
@@ -153,6 +154,7 @@ describe("a corner-height file from the line", () => {
     const before = await t.handle.db.select().from(datasetMappings).where(eq(datasetMappings.datasetId, datasetId));
     const twice = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${datasetId}`, eng),
       body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.bondLine", support: 0 }] },
     });
     expect(twice.status).toBe(400);
@@ -162,16 +164,19 @@ describe("a corner-height file from the line", () => {
     });
     const mixed = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${datasetId}`, eng),
       body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.bondLine" }] },
     });
     expect(mixed.status).toBe(400);
     const far = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${datasetId}`, eng),
       body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.bondLine", support: 4 }] },
     });
     expect(far.body.error.fields[0].message).toBe("mag.bondLine rests on 4 support points, numbered 0 to 3");
     const tilt = await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${datasetId}`, eng),
       body: { mappings: [{ column: "h3 [um]", revisionId, source: "mag.yaw", component: "x" }] },
     });
     expect(tilt.body.error.fields[0].message).toBe("mag.yaw is one quantity: leave out component");
@@ -179,10 +184,18 @@ describe("a corner-height file from the line", () => {
   });
 
   it("statistics of a corner: gaps counted, real conversion wording, lots, Cpk with its lower bound, control chart", async () => {
-    const lots = await t.call("PATCH", `/api/datasets/${datasetId}`, { cookie: eng, body: { lotColumn: "lot" } });
+    const lots = await t.call("PATCH", `/api/datasets/${datasetId}`, {
+      cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${datasetId}`, eng),
+      body: { lotColumn: "lot" },
+    });
     expect(lots.status).toBe(200);
     expect(lots.body.lotColumn).toBe("lot");
-    const notLabel = await t.call("PATCH", `/api/datasets/${datasetId}`, { cookie: eng, body: { lotColumn: "h0 [um]" } });
+    const notLabel = await t.call("PATCH", `/api/datasets/${datasetId}`, {
+      cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${datasetId}`, eng),
+      body: { lotColumn: "h0 [um]" },
+    });
     expect(notLabel.status).toBe(400);
     const s = (await t.call("GET", `/api/datasets/${datasetId}/statistics?column=${encodeURIComponent("h0 [um]")}`, { cookie: eng })).body;
     expect([s.summary.n, s.summary.missing]).toEqual([38, 2]);
@@ -205,6 +218,7 @@ describe("a corner-height file from the line", () => {
     const mm = await upload(`/api/projects/${projectId}/datasets`, eng, "mm.csv", "unit,height [mm]\nA,0.0112\nB,0.0104\nC,0.0098\n");
     await t.call("PATCH", `/api/datasets/${mm.body.id}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${mm.body.id}`, eng),
       body: { mappings: [{ column: "height [mm]", revisionId, source: "mag.bondLine" }] },
     });
     const sm = (await t.call("GET", `/api/datasets/${mm.body.id}/statistics?column=${encodeURIComponent("height [mm]")}`, { cookie: eng }))
@@ -252,6 +266,7 @@ describe("a corner-height file from the line", () => {
     // a pooled source with a corner unmapped is refused by name
     await t.call("PATCH", `/api/datasets/${datasetId}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${datasetId}`, eng),
       body: { mappings: [{ column: "h3 [um]", revisionId, source: null }] },
     });
     const partial = await t.call("POST", `/api/revisions/${revisionId}/studies`, {

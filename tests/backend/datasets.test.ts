@@ -407,6 +407,7 @@ describe("mapping and statistics", () => {
   it("maps a column to a source of a revision, in its header's unit", async () => {
     const res = await t.call("PATCH", `/api/datasets/${id}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${id}`, eng),
       body: {
         mappings: [
           { column: "yaw [mrad]", revisionId, source: "mag.yaw" },
@@ -438,6 +439,7 @@ describe("mapping and statistics", () => {
     const otherRev = await t.call("POST", `/api/projects/${other.body.id}/revisions`, { cookie: eng, body: { stack: REFERENCE } });
     const res = await t.call("PATCH", `/api/datasets/${id}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${id}`, eng),
       body: {
         mappings: [
           { column: "tilt [deg]", revisionId, source: "mag.nothing" },
@@ -468,6 +470,7 @@ describe("mapping and statistics", () => {
     expect(up.body.columns[1]).toMatchObject({ key: "tilt", unit: null, kind: "number" });
     const bad = await t.call("PATCH", `/api/datasets/${up.body.id}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${up.body.id}`, eng),
       body: { mappings: [{ column: "tilt", revisionId, source: "mag.yaw" }] },
     });
     expect(bad.body.error.fields).toEqual([
@@ -475,6 +478,7 @@ describe("mapping and statistics", () => {
     ]);
     const ok = await t.call("PATCH", `/api/datasets/${up.body.id}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${up.body.id}`, eng),
       body: { mappings: [{ column: "tilt", revisionId, source: "mag.yaw", unit: "arcmin" }] },
     });
     expect(ok.status).toBe(200);
@@ -526,6 +530,7 @@ describe("mapping and statistics", () => {
   it("clearing a mapping, and deleting a data set", async () => {
     const res = await t.call("PATCH", `/api/datasets/${id}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${id}`, eng),
       body: { mappings: [{ column: "height [um]", revisionId, source: null }] },
     });
     expect(res.body.columns.find((c: any) => c.key === "height [um]").mapping).toBeNull();
@@ -616,6 +621,7 @@ describe("as-built study requests that cannot run are refused before anything is
     id = res.body.id;
     await t.call("PATCH", `/api/datasets/${id}/mappings`, {
       cookie: eng,
+      headers: await t.ifMatch(`/api/datasets/${id}`, eng),
       body: { mappings: [{ column: "yaw [mrad]", revisionId, source: "mag.yaw" }] },
     });
     study = { ...JSON.parse(readFileSync(new URL("../fixtures/study-reference.json", import.meta.url), "utf8")), trials: 1000 };

@@ -115,7 +115,11 @@ describe("projects", () => {
     expect(c.status).toBe(201);
     expect(c.body.ownerName).toBe("Ezra Lindqvist");
     const id = c.body.id;
-    const r = await t.call("PATCH", `/api/projects/${id}`, { cookie: cookies.engineer, body: { name: "Cycling computer IMU, rev B" } });
+    const r = await t.call("PATCH", `/api/projects/${id}`, {
+      cookie: cookies.engineer,
+      body: { name: "Cycling computer IMU, rev B" },
+      headers: { "if-match": c.headers.get("etag")! },
+    });
     expect(r.status).toBe(200);
     expect(r.body.name).toBe("Cycling computer IMU, rev B");
     const act = await t.call("GET", `/api/projects/${id}/activity`, { cookie: cookies.reviewer });

@@ -25,6 +25,11 @@ export type TestApp = {
     path: string,
     opts?: { cookie?: string; body?: unknown; raw?: string; headers?: Record<string, string> },
   ) => Promise<{ status: number; body: any; headers: Headers }>;
+  /**
+   * Reads a shared record (GET `path`) and returns its ETag as an If-Match header, the way a
+   * client sends back the version it last read with a change (backend/lib/versions.ts).
+   */
+  ifMatch: (path: string, cookie: string) => Promise<{ "if-match": string }>;
   close: () => Promise<void>;
   /** Stops like a crash: the server goes, the running study is dropped without a word to the database. */
   crash: () => Promise<void>;
@@ -124,12 +129,20 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
       .join("; ");
   };
 
+  const ifMatch: TestApp["ifMatch"] = async (path, cookie) => {
+    const res = await call("GET", path, { cookie });
+    const tag = res.headers.get("etag");
+    if (res.status !== 200 || !tag) throw new Error(`no version for ${path}: ${res.status} ${JSON.stringify(res.body)}`);
+    return { "if-match": tag };
+  };
+
   return {
     url,
     deps,
     handle,
     signIn,
     call,
+    ifMatch,
     crash: async () => {
       studyQueue.abandon?.();
       await deps.enginePool.stop();

@@ -39,7 +39,8 @@ describe("revision notifications", () => {
     const [p] = await t.handle.db.insert(projects).values({ workspaceId, name: "Notified project" }).returning();
     const rev = (await t.call("POST", `/api/projects/${p.id}/revisions`, { cookie: c.engineer, body: { stack: REFERENCE } })).body;
     const beforeEngineer = (await list("engineer")).unread;
-    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {} });
+    const revVersion = () => t.ifMatch(`/api/revisions/${rev.id}`, c.engineer);
+    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {}, headers: await revVersion() });
 
     const waiting = await latest("reviewer");
     expect(waiting).toMatchObject({
@@ -52,15 +53,19 @@ describe("revision notifications", () => {
     expect((await list("engineer")).unread).toBe(beforeEngineer); // not told of their own act
     expect((await list("admin")).notifications.some((n) => n.link.includes(rev.id))).toBe(false);
 
-    await t.call("POST", `/api/revisions/${rev.id}/return`, { cookie: c.reviewer, body: { comment: "Use the film's tolerance." } });
+    await t.call("POST", `/api/revisions/${rev.id}/return`, {
+      cookie: c.reviewer,
+      body: { comment: "Use the film's tolerance." },
+      headers: await revVersion(),
+    });
     const back = await latest("engineer");
     expect(back).toMatchObject({ kind: "revision.returned", title: "Revision 1 of “Notified project” was sent back" });
     const [mail] = await mailsTo("engineer@example.com", back.title);
     expect(mail.text).toContain("Use the film's tolerance.");
     expect(mail.text).toContain(`/projects/${p.id}/revisions/${rev.id}`);
 
-    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {} });
-    await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.reviewer, body: {} });
+    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {}, headers: await revVersion() });
+    await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.reviewer, body: {}, headers: await revVersion() });
     const ok = await latest("engineer");
     expect(ok).toMatchObject({ kind: "revision.approved", title: "Revision 1 of “Notified project” was approved" });
     expect(await mailsTo("engineer@example.com", ok.title)).toHaveLength(1);
@@ -97,13 +102,18 @@ describe("report notifications", () => {
     });
     expect(await mailsTo("reviewer@example.com", ready.title)).toHaveLength(1);
 
-    await t.call("POST", `/api/reports/${id}/return`, { cookie: c.reviewer, body: { comment: "Ask Cpk 1.67 on the mag yaw." } });
+    const reportVersion = () => t.ifMatch(`/api/reports/${id}`, c.reviewer);
+    await t.call("POST", `/api/reports/${id}/return`, {
+      cookie: c.reviewer,
+      body: { comment: "Ask Cpk 1.67 on the mag yaw." },
+      headers: await reportVersion(),
+    });
     expect(await latest("engineer")).toMatchObject({ kind: "report.returned", title: `${title} for Larkfield Assembly was sent back` });
     const report = await t.call("GET", `/api/reports/${id}`, { cookie: c.engineer });
     expect(report.body.status).toBe("draft");
     expect(report.body.comments.at(-1)).toMatchObject({ kind: "returned", body: "Ask Cpk 1.67 on the mag yaw." });
 
-    await t.call("POST", `/api/reports/${id}/release`, { cookie: c.reviewer, body: {} });
+    await t.call("POST", `/api/reports/${id}/release`, { cookie: c.reviewer, body: {}, headers: await reportVersion() });
     const released = await latest("engineer");
     expect(released).toMatchObject({ kind: "report.released" });
     expect(await mailsTo("engineer@example.com", released.title)).toHaveLength(0); // opted out
@@ -121,7 +131,7 @@ describe("report notifications", () => {
     expect(q).toMatchObject({ kind: "report.question", title: `Larkfield Assembly asked a question on ${title}` });
     expect((await mailsTo("engineer@example.com", q.title))[0].text).toContain("Which side is the datum?");
 
-    await t.call("POST", `/api/reports/${id}/acknowledge`, { cookie: c.supplier, body: {} });
+    await t.call("POST", `/api/reports/${id}/acknowledge`, { cookie: c.supplier, body: {}, headers: await reportVersion() });
     expect(await latest("engineer")).toMatchObject({ kind: "report.acknowledged", title: `Larkfield Assembly acknowledged ${title}` });
 
     const boundary = "----n11";

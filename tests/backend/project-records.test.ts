@@ -126,7 +126,11 @@ describe("archiving a project", () => {
     expect(await names("")).toContain(DEMO_PROJECT);
     expect((await t.call("GET", "/api/projects?archived=some", { cookie: cookie.reviewer })).body.error.fields[0].path).toBe("archived");
 
-    const rename = await t.call("PATCH", `/api/projects/${p.id}`, { cookie: cookie.engineer, body: { name: "changed" } });
+    const rename = await t.call("PATCH", `/api/projects/${p.id}`, {
+      cookie: cookie.engineer,
+      body: { name: "changed" },
+      headers: { "if-match": archived.headers.get("etag")! },
+    });
     expect(rename.status).toBe(409);
     expect(rename.body.error.code).toBe("project_archived");
     const revise = await t.call("POST", `/api/projects/${p.id}/revisions`, { cookie: cookie.engineer, body: { stack: REFERENCE } });

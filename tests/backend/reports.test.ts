@@ -256,6 +256,7 @@ describe("supplier reports", () => {
     const p = await t.call("PATCH", `/api/reports/${r.body.id}`, {
       cookie: c.engineer,
       body: { cpk: 1.67, cpkOverrides: { "asic.yaw": 2.0 }, snapshotPng: null, note: "Line 2" },
+      headers: { "if-match": r.headers.get("etag")! },
     });
     expect(p.status).toBe(200);
     expect(p.body).toMatchObject({
@@ -293,6 +294,7 @@ describe("supplier reports", () => {
     const r = await t.call("POST", `/api/reports/${reportId}/release`, {
       cookie: c.reviewer,
       body: { comment: "Checked against the approved revision." },
+      headers: await t.ifMatch(`/api/reports/${reportId}`, c.reviewer),
     });
     expect(r.status, JSON.stringify(r.body)).toBe(200);
     expect(r.body).toMatchObject({ status: "released", releasedByName: "Rana Haddad" });
@@ -308,12 +310,13 @@ describe("supplier reports", () => {
     expect(second.data.equals(first.data)).toBe(true);
     expect(first.headers.get("content-disposition")).toContain("TR-0001-r1-Larkfield-Assembly.pdf");
 
-    expect((await t.call("POST", `/api/reports/${reportId}/release`, { cookie: c.reviewer, body: {} })).body.error.code).toBe(
-      "report_frozen",
-    );
-    expect((await t.call("PATCH", `/api/reports/${reportId}`, { cookie: c.engineer, body: { cpk: 2 } })).body.error.code).toBe(
-      "report_frozen",
-    );
+    const current = await t.ifMatch(`/api/reports/${reportId}`, c.engineer);
+    expect(
+      (await t.call("POST", `/api/reports/${reportId}/release`, { cookie: c.reviewer, body: {}, headers: current })).body.error.code,
+    ).toBe("report_frozen");
+    expect(
+      (await t.call("PATCH", `/api/reports/${reportId}`, { cookie: c.engineer, body: { cpk: 2 }, headers: current })).body.error.code,
+    ).toBe("report_frozen");
     expect((await t.call("DELETE", `/api/reports/${reportId}`, { cookie: c.engineer })).status).toBe(409);
   });
 
@@ -557,12 +560,18 @@ describe("supplier reports", () => {
     const ack = await t.call("POST", `/api/reports/${reportId}/acknowledge`, {
       cookie: c.supplier,
       body: { comment: "Line 2 holds these." },
+      headers: await t.ifMatch(`/api/reports/${reportId}`, c.supplier),
     });
     expect(ack.status).toBe(200);
     expect(ack.body.acknowledgedByName).toBe("Sam Whitcombe");
     expect(Date.parse(ack.body.acknowledgedAt)).toBeGreaterThan(Date.now() - 60_000);
-    const twice = await t.call("POST", `/api/reports/${reportId}/acknowledge`, { cookie: c.supplier, body: {} });
+    const twice = await t.call("POST", `/api/reports/${reportId}/acknowledge`, {
+      cookie: c.supplier,
+      body: {},
+      headers: await t.ifMatch(`/api/reports/${reportId}`, c.supplier),
+    });
     expect(twice.status).toBe(409);
+    expect(twice.body.error.code).toBe("already_acknowledged");
 
     const staff = await t.call("GET", `/api/reports/${reportId}`, { cookie: c.engineer });
     expect(staff.body.downloads.some((d: { role: string; kind: string }) => d.role === "supplier" && d.kind === "pdf")).toBe(true);

@@ -143,12 +143,14 @@ describe("GET /api/revisions/:id/diff", () => {
       .update(stackRevisions)
       .set({ note: "" })
       .where(and(eq(stackRevisions.id, rev2)));
-    const none = await t.call("POST", `/api/revisions/${rev2}/submit`, { cookie: cookie.engineer, body: {} });
+    const version = await t.ifMatch(`/api/revisions/${rev2}`, cookie.engineer);
+    const none = await t.call("POST", `/api/revisions/${rev2}/submit`, { cookie: cookie.engineer, body: {}, headers: version });
     expect(none.status).toBe(400);
     expect(none.body.error.fields[0].path).toBe("note");
     const ok = await t.call("POST", `/api/revisions/${rev2}/submit`, {
       cookie: cookie.engineer,
       body: { note: "Film attach under the mag: thinner spread." },
+      headers: version,
     });
     expect(ok.status).toBe(200);
     expect(ok.body).toMatchObject({ status: "in_review", note: "Film attach under the mag: thinner spread." });

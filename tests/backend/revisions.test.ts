@@ -18,6 +18,9 @@ beforeAll(async () => {
 });
 afterAll(() => t?.close());
 
+/** The revision's current version as If-Match, read the way a client reads it before a change. */
+const current = (id: string) => t.ifMatch(`/api/revisions/${id}`, c.engineer);
+
 const revisionCount = async () =>
   (
     await t.handle.db
@@ -73,23 +76,50 @@ describe("stack revisions", () => {
     const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
     const edited = structuredClone(reference);
     edited.name = "edited stack";
-    const patch = await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.engineer, body: { stack: edited } });
+    const patch = await t.call("PATCH", `/api/revisions/${rev.id}`, {
+      cookie: c.engineer,
+      body: { stack: edited },
+      headers: await current(rev.id),
+    });
     expect(patch.status).toBe(200);
     expect(patch.body.name).toBe("edited stack");
 
-    expect((await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.reviewer, body: {} })).status).toBe(409);
+    const draftApproval = await t.call("POST", `/api/revisions/${rev.id}/approve`, {
+      cookie: c.reviewer,
+      body: {},
+      headers: await current(rev.id),
+    });
+    expect(draftApproval.status).toBe(409);
+    expect(draftApproval.body.error.code).toBe("invalid_state");
     expect(
-      (await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: { note: "tolerances for the first build" } }))
-        .body.status,
+      (
+        await t.call("POST", `/api/revisions/${rev.id}/submit`, {
+          cookie: c.engineer,
+          body: { note: "tolerances for the first build" },
+          headers: await current(rev.id),
+        })
+      ).body.status,
     ).toBe("in_review");
-    const inReviewPatch = await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.engineer, body: { note: "x" } });
+    const inReviewPatch = await t.call("PATCH", `/api/revisions/${rev.id}`, {
+      cookie: c.engineer,
+      body: { note: "x" },
+      headers: await current(rev.id),
+    });
     expect(inReviewPatch.status).toBe(409);
     expect(inReviewPatch.body.error.code).toBe("revision_frozen");
 
-    const approved = await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.reviewer, body: {} });
+    const approved = await t.call("POST", `/api/revisions/${rev.id}/approve`, {
+      cookie: c.reviewer,
+      body: {},
+      headers: await current(rev.id),
+    });
     expect(approved.body.status).toBe("approved");
     expect(approved.body.approvedByName).toBe("Rana Haddad");
-    const frozen = await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.engineer, body: { stack: reference } });
+    const frozen = await t.call("PATCH", `/api/revisions/${rev.id}`, {
+      cookie: c.engineer,
+      body: { stack: reference },
+      headers: await current(rev.id),
+    });
     expect(frozen.status).toBe(409);
     expect(frozen.body.error.message).toMatch(/approved and frozen/);
 
@@ -100,13 +130,21 @@ describe("stack revisions", () => {
 
   it("a reviewer sends back with a comment, which is kept", async () => {
     const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
-    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: { note: "tolerances for the first build" } });
-    const noComment = await t.call("POST", `/api/revisions/${rev.id}/return`, { cookie: c.reviewer, body: {} });
+    await t.call("POST", `/api/revisions/${rev.id}/submit`, {
+      cookie: c.engineer,
+      body: { note: "tolerances for the first build", version: 1 },
+    });
+    const noComment = await t.call("POST", `/api/revisions/${rev.id}/return`, {
+      cookie: c.reviewer,
+      body: {},
+      headers: await current(rev.id),
+    });
     expect(noComment.status).toBe(400);
     expect(noComment.body.error.fields[0].path).toBe("comment");
     const back = await t.call("POST", `/api/revisions/${rev.id}/return`, {
       cookie: c.reviewer,
       body: { comment: "Mag bond line: use the film's tolerance." },
+      headers: await current(rev.id),
     });
     expect(back.body.status).toBe("draft");
     expect(back.body.comments).toEqual([
@@ -121,9 +159,17 @@ describe("stack revisions", () => {
     expect((await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.reviewer, body: { stack: reference } })).status).toBe(
       403,
     );
-    expect((await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.reviewer, body: { note: "x" } })).status).toBe(403);
-    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: { note: "tolerances for the first build" } });
-    expect((await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.engineer, body: {} })).status).toBe(403);
+    expect(
+      (await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.reviewer, body: { note: "x" }, headers: await current(rev.id) }))
+        .status,
+    ).toBe(403);
+    await t.call("POST", `/api/revisions/${rev.id}/submit`, {
+      cookie: c.engineer,
+      body: { note: "tolerances for the first build", version: 1 },
+    });
+    expect(
+      (await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.engineer, body: {}, headers: await current(rev.id) })).status,
+    ).toBe(403);
     for (const path of [`/api/revisions/${rev.id}`, `/api/projects/${projectId}/revisions`, `/api/revisions/${rev.id}/stack-file`]) {
       expect((await t.call("GET", path, { cookie: c.supplier })).status).toBe(403);
     }

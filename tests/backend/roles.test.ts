@@ -48,6 +48,8 @@ type Row = {
   body?: (c: Ctx) => unknown;
   /** A multipart upload of one file in the field "file", instead of a JSON body. */
   upload?: { name: string; content: string };
+  /** The version the change is based on, sent as If-Match (a fresh record is at 1; backend/lib/versions.ts). */
+  version?: number;
 };
 
 let counter = 0;
@@ -209,7 +211,11 @@ async function freshReport(c: Ctx, status: "draft" | "released" = "draft") {
   const r = await c.t.call("POST", `/api/studies/${f.studyId}/reports`, { cookie: cookies.engineer, body: { supplierId: c.supplierId } });
   if (r.status !== 201) throw new Error(`report fixture: ${JSON.stringify(r.body)}`);
   if (status === "released") {
-    const rel = await c.t.call("POST", `/api/reports/${r.body.id}/release`, { cookie: cookies.reviewer, body: {} });
+    const rel = await c.t.call("POST", `/api/reports/${r.body.id}/release`, {
+      cookie: cookies.reviewer,
+      body: {},
+      headers: { "if-match": r.headers.get("etag")! },
+    });
     if (rel.status !== 200) throw new Error(`report fixture release: ${JSON.stringify(rel.body)}`);
   }
   return r.body.id as string;
@@ -275,6 +281,7 @@ export const ROUTES: Row[] = [
     allowed: WRITERS,
     path: async (c) => `/api/projects/${await freshProject(c)}`,
     body: () => ({ name: `renamed ${uniq()}` }),
+    version: 1,
   },
   { route: "DELETE /api/projects/:id", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}` },
   { route: "POST /api/projects/:id/archive", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}/archive` },
@@ -288,6 +295,7 @@ export const ROUTES: Row[] = [
     allowed: ADMIN,
     path: async (c) => `/api/suppliers/${await freshSupplier(c)}`,
     body: () => ({ kind: "board" }),
+    version: 1,
   },
   { route: "DELETE /api/suppliers/:id", allowed: ADMIN, path: async (c) => `/api/suppliers/${await freshSupplier(c)}` },
   {
@@ -327,23 +335,31 @@ export const ROUTES: Row[] = [
     allowed: WRITERS,
     path: async (c) => `/api/revisions/${await freshRevision(c)}`,
     body: () => ({ note: "changed" }),
+    version: 1,
   },
   {
     route: "POST /api/revisions/:id/drafts",
     allowed: WRITERS,
     path: async (c) => `/api/revisions/${await freshRevision(c, "approved")}/drafts`,
   },
-  { route: "POST /api/revisions/:id/submit", allowed: WRITERS, path: async (c) => `/api/revisions/${await freshRevision(c)}/submit` },
+  {
+    route: "POST /api/revisions/:id/submit",
+    allowed: WRITERS,
+    path: async (c) => `/api/revisions/${await freshRevision(c)}/submit`,
+    version: 1,
+  },
   {
     route: "POST /api/revisions/:id/approve",
     allowed: REVIEWERS,
     path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/approve`,
+    version: 1,
   },
   {
     route: "POST /api/revisions/:id/return",
     allowed: REVIEWERS,
     path: async (c) => `/api/revisions/${await freshRevision(c, "in_review")}/return`,
     body: () => ({ comment: "please fix" }),
+    version: 1,
   },
   {
     route: "POST /api/revisions/:id/comments",
@@ -417,20 +433,28 @@ export const ROUTES: Row[] = [
     allowed: WRITERS,
     path: async (c) => `/api/reports/${await freshReport(c)}`,
     body: () => ({ note: "changed" }),
+    version: 1,
   },
   { route: "DELETE /api/reports/:id", allowed: WRITERS, path: async (c) => `/api/reports/${await freshReport(c)}` },
-  { route: "POST /api/reports/:id/release", allowed: REVIEWERS, path: async (c) => `/api/reports/${await freshReport(c)}/release` },
+  {
+    route: "POST /api/reports/:id/release",
+    allowed: REVIEWERS,
+    path: async (c) => `/api/reports/${await freshReport(c)}/release`,
+    version: 1,
+  },
   {
     route: "POST /api/reports/:id/return",
     allowed: REVIEWERS,
     path: async (c) => `/api/reports/${await freshReport(c)}/return`,
     body: () => ({ comment: "Ask Cpk 1.67 on the mag yaw." }),
+    version: 1,
   },
   { route: "POST /api/reports/:id/send", allowed: STAFF, path: async (c) => `/api/reports/${await releasedReport(c)}/send` },
   {
     route: "POST /api/reports/:id/acknowledge",
     allowed: ["supplier"],
     path: async (c) => `/api/reports/${await freshReport(c, "released")}/acknowledge`,
+    version: 2,
   },
   {
     route: "POST /api/reports/:id/comments",
@@ -461,12 +485,14 @@ export const ROUTES: Row[] = [
     allowed: WRITERS,
     path: async (c) => `/api/datasets/${await freshDataset(c)}`,
     body: () => ({ lotColumn: null }),
+    version: 1,
   },
   {
     route: "PATCH /api/datasets/:id/mappings",
     allowed: WRITERS,
     path: async (c) => `/api/datasets/${await freshDataset(c)}/mappings`,
     body: () => ({ mappings: [{ column: "yaw [deg]", revisionId: lastDatasetRevision, source: "mag.yaw" }] }),
+    version: 1,
   },
   {
     route: "GET /api/datasets/:id/statistics",
@@ -520,7 +546,7 @@ describe("role table", () => {
         const cookie = who === "nobody" ? undefined : cookies[who];
         const res = row.upload
           ? await t.call(method, path, { cookie, ...multipart(row.upload) })
-          : await t.call(method, path, { cookie, body });
+          : await t.call(method, path, { cookie, body, headers: row.version ? { "if-match": `"${row.version}"` } : undefined });
         if (expected === "allowed") {
           expect(res.status, JSON.stringify(res.body)).toBeLessThan(400);
         } else {
