@@ -1,5 +1,5 @@
 import type { z } from "zod";
-import { ApiErrorSchema } from "@shared/schemas/common";
+import { ApiErrorSchema, versionTag } from "@shared/schemas/common";
 
 export type FieldError = { path: string; message: string };
 
@@ -11,13 +11,16 @@ export class ApiError extends Error {
   readonly status: number;
   readonly code: string;
   readonly fields: FieldError[];
+  /** On a 409 `conflict`: the record's current version (someone else changed it meanwhile). */
+  readonly version: number | undefined;
 
-  constructor(status: number, code: string, message: string, fields: FieldError[] = []) {
+  constructor(status: number, code: string, message: string, fields: FieldError[] = [], version?: number) {
     super(message);
     this.name = "ApiError";
     this.status = status;
     this.code = code;
     this.fields = fields;
+    this.version = version;
   }
 
   /** The message for one form field, if the server sent one. */
@@ -36,6 +39,7 @@ const FALLBACK_MESSAGES: Record<number, string> = {
   403: "Your role does not allow this.",
   404: "This item does not exist or was removed.",
   409: "This conflicts with the current state. Reload and try again.",
+  428: "The change did not say which version it was made on. Reload and try again.",
   429: "Too many attempts. Wait a minute and try again.",
 };
 
@@ -48,8 +52,8 @@ async function toApiError(response: Response): Promise<ApiError> {
   }
   const parsed = ApiErrorSchema.safeParse(body);
   if (parsed.success) {
-    const { code, message, fields } = parsed.data.error;
-    return new ApiError(response.status, code, message, fields ?? []);
+    const { code, message, fields, version } = parsed.data.error;
+    return new ApiError(response.status, code, message, fields ?? [], version);
   }
   const message =
     FALLBACK_MESSAGES[response.status] ??
@@ -61,6 +65,8 @@ type RequestOptions = {
   method?: "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
   body?: unknown;
   signal?: AbortSignal;
+  /** The version of a shared record this change was made on, sent as If-Match (backend/lib/versions.ts). */
+  version?: number;
 };
 
 /**
@@ -71,7 +77,7 @@ type RequestOptions = {
 export async function apiRequest<S extends z.ZodType>(path: string, schema: S, options?: RequestOptions): Promise<z.infer<S>>;
 export async function apiRequest(path: string, schema: null, options?: RequestOptions): Promise<void>;
 export async function apiRequest(path: string, schema: z.ZodType | null, options: RequestOptions = {}): Promise<unknown> {
-  const { method = "GET", body, signal } = options;
+  const { method = "GET", body, signal, version } = options;
   // A FormData body (a file upload) goes as multipart; the browser writes its boundary.
   const form = typeof FormData !== "undefined" && body instanceof FormData;
   let response: Response;
@@ -83,6 +89,7 @@ export async function apiRequest(path: string, schema: z.ZodType | null, options
       headers: {
         Accept: "application/json",
         ...(body !== undefined && !form ? { "Content-Type": "application/json" } : {}),
+        ...(version !== undefined ? { "If-Match": versionTag(version) } : {}),
       },
       body: form ? (body as FormData) : body !== undefined ? JSON.stringify(body) : undefined,
     });
@@ -109,8 +116,11 @@ export async function apiRequest(path: string, schema: z.ZodType | null, options
 
 export const api = {
   get: <S extends z.ZodType>(path: string, schema: S, signal?: AbortSignal) => apiRequest(path, schema, { signal }),
-  post: <S extends z.ZodType>(path: string, body: unknown, schema: S) => apiRequest(path, schema, { method: "POST", body }),
-  patch: <S extends z.ZodType>(path: string, body: unknown, schema: S) => apiRequest(path, schema, { method: "PATCH", body }),
+  /** `version`: the version of the shared record the change was made on (If-Match). */
+  post: <S extends z.ZodType>(path: string, body: unknown, schema: S, version?: number) =>
+    apiRequest(path, schema, { method: "POST", body, version }),
+  patch: <S extends z.ZodType>(path: string, body: unknown, schema: S, version?: number) =>
+    apiRequest(path, schema, { method: "PATCH", body, version }),
   delete: (path: string) => apiRequest(path, null, { method: "DELETE" }),
 };
 

@@ -12,6 +12,7 @@ const PROJECT = {
   createdAt: "2026-01-05T10:00:00.000Z",
   updatedAt: "2026-01-05T10:00:00.000Z",
   archivedAt: null,
+  version: 1,
   lastStudy: null,
 };
 

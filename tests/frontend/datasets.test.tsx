@@ -24,6 +24,7 @@ const DATASET = {
   lot: null,
   note: null,
   lotColumn: null,
+  version: 1,
   createdAt: new Date().toISOString(),
 };
 

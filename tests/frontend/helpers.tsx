@@ -17,12 +17,19 @@ export function jsonResponse(status: number, body: unknown): Response {
  * Replaces fetch for one test; `handler` gets the path, method and parsed body of
  * each call. Returns the spy so a test can check what was (not) sent.
  */
-export function mockFetch(handler: (call: { url: string; method: string; body: unknown }) => Response | Promise<Response>) {
+export function mockFetch(
+  handler: (call: { url: string; method: string; body: unknown; headers: Headers }) => Response | Promise<Response>,
+) {
   return vi.spyOn(globalThis, "fetch").mockImplementation(async (input, init) => {
     const request = input instanceof Request ? input : new Request(new URL(String(input), "http://localhost:3000"), init);
     const url = new URL(request.url);
     const text = await request.clone().text();
-    return handler({ url: url.pathname + url.search, method: request.method, body: text ? JSON.parse(text) : undefined });
+    return handler({
+      url: url.pathname + url.search,
+      method: request.method,
+      body: text ? JSON.parse(text) : undefined,
+      headers: request.headers,
+    });
   });
 }
 

@@ -1,5 +1,5 @@
 import { QueryClientProvider } from "@tanstack/react-query";
-import { cleanup, render, screen, waitFor } from "@testing-library/react";
+import { cleanup, fireEvent, render, screen, waitFor } from "@testing-library/react";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import type { StackFile } from "@shared/schemas/stack-file";
 import reference from "../fixtures/stack-reference.json" with { type: "json" };
@@ -22,12 +22,13 @@ const REV_ID = "6a0b3c1e-8a55-4d7e-9a51-3f0c6f1d2e70";
 const PROJECT_ID = "0b6f2c1e-8a55-4d7e-9a51-3f0c6f1d2e77";
 const saved: EditorDoc = { stack: reference as unknown as StackFile, requirements: [] };
 
-function revisionBody(doc: EditorDoc) {
+function revisionBody(doc: EditorDoc, version = 4) {
   return {
     id: REV_ID,
     projectId: PROJECT_ID,
     number: 2,
     status: "draft",
+    version,
     name: doc.stack.name ?? "",
     note: "",
     basedOnId: null,
@@ -44,20 +45,36 @@ function revisionBody(doc: EditorDoc) {
   };
 }
 
-function Probe({ doc, problems }: { doc: EditorDoc; problems: number }) {
-  const a = useAutosave({ revisionId: REV_ID, doc, savedDoc: saved, enabled: true, problems, updatedAt: "2026-01-05T10:00:00.000Z" });
+/** The draft as loaded was at version 3. */
+function Probe({ doc, problems, theirs }: { doc: EditorDoc; problems: number; theirs?: { doc: EditorDoc; version: number } }) {
+  const a = useAutosave({
+    revisionId: REV_ID,
+    doc,
+    savedDoc: saved,
+    enabled: true,
+    problems,
+    updatedAt: "2026-01-05T10:00:00.000Z",
+    version: 3,
+  });
   return (
-    <p data-testid="probe" data-kind={a.state.kind} data-dirty={String(a.dirty)} data-saves={a.saves}>
-      {a.state.kind === "error" ? a.state.message : a.state.kind}
-    </p>
+    <>
+      <p data-testid="probe" data-kind={a.state.kind} data-dirty={String(a.dirty)} data-saves={a.saves} data-version={a.version()}>
+        {a.state.kind === "error" || a.state.kind === "conflict" ? a.state.message : a.state.kind}
+      </p>
+      {theirs ? (
+        <button type="button" onClick={() => a.rebase(theirs.doc, theirs.version)}>
+          rebase
+        </button>
+      ) : null}
+    </>
   );
 }
 
-function mount(doc: EditorDoc, problems = 0) {
+function mount(doc: EditorDoc, problems = 0, theirs?: { doc: EditorDoc; version: number }) {
   const client = createQueryClient();
   const ui = (d: EditorDoc, p: number) => (
     <QueryClientProvider client={client}>
-      <Probe doc={d} problems={p} />
+      <Probe doc={d} problems={p} theirs={theirs} />
     </QueryClientProvider>
   );
   const r = render(ui(doc, problems));
@@ -85,10 +102,10 @@ describe("autosave of a draft", () => {
   });
 
   it("saves the stack and requirements after a pause, once", async () => {
-    const calls: { method: string; url: string; body: unknown }[] = [];
+    const calls: { method: string; url: string; body: unknown; ifMatch: string | null }[] = [];
     mockFetch((c) => {
-      calls.push(c);
-      return jsonResponse(200, revisionBody(c.body as EditorDoc));
+      calls.push({ ...c, ifMatch: c.headers.get("if-match") });
+      return jsonResponse(200, revisionBody(c.body as EditorDoc, 3 + calls.length));
     });
     const m = mount(saved);
     const doc = edited(7);
@@ -99,9 +116,51 @@ describe("autosave of a draft", () => {
     expect(calls).toHaveLength(1);
     expect(calls[0]).toMatchObject({ method: "PATCH", url: `/api/revisions/${REV_ID}` });
     expect(calls[0].body).toEqual({ stack: doc.stack, requirements: doc.requirements });
+    // made on the version loaded; the next save goes on from the version the server answered
+    expect(calls[0].ifMatch).toBe('"3"');
+    expect(probe().dataset.version).toBe("4");
     expect(probe().dataset.saves).toBe("1");
     expect(probe().dataset.dirty).toBe("false");
     expect(readBackup(REV_ID)).toBeNull();
+    m.rerender(edited(8));
+    await waitFor(() => expect(probe().dataset.saves).toBe("2"), { timeout: 5000 });
+    expect(calls[1].ifMatch).toBe('"4"');
+  });
+
+  it("stops on a conflict, keeps the edits, and after a rebase saves them on the server's version", async () => {
+    const calls: { ifMatch: string | null; body: unknown }[] = [];
+    let answer: "conflict" | "ok" = "conflict";
+    mockFetch((c) => {
+      calls.push({ ifMatch: c.headers.get("if-match"), body: c.body });
+      if (answer === "conflict") {
+        return jsonResponse(409, {
+          error: { code: "conflict", message: "Stack revision 2 was changed by someone else since you loaded it.", version: 5 },
+        });
+      }
+      return jsonResponse(200, revisionBody(c.body as EditorDoc, 6));
+    });
+    const theirs = edited(4);
+    const m = mount(saved, 0, { doc: theirs, version: 5 });
+    const mine = edited(9);
+    m.rerender(mine);
+    await waitFor(() => expect(probe().dataset.kind).toBe("conflict"), { timeout: 5000 });
+    expect(probe().textContent).toMatch(/changed by someone else/);
+    expect(probe().dataset.dirty).toBe("true");
+    expect(readBackup(REV_ID)?.doc).toEqual(mine);
+    // more edits are kept but not sent, and the conflict stays on screen
+    const more = edited(10);
+    m.rerender(more);
+    await new Promise((r) => setTimeout(r, 1100));
+    expect(calls).toHaveLength(1);
+    expect(probe().dataset.kind).toBe("conflict");
+
+    answer = "ok";
+    fireEvent.click(screen.getByRole("button", { name: "rebase" }));
+    await waitFor(() => expect(probe().dataset.saves).toBe("1"), { timeout: 5000 });
+    expect(calls).toHaveLength(2);
+    expect(calls[1].ifMatch).toBe('"5"');
+    expect(calls[1].body).toEqual({ stack: more.stack, requirements: more.requirements });
+    expect(probe().dataset.version).toBe("6");
   });
 
   it("keeps a document with problems in this browser and does not send it", async () => {

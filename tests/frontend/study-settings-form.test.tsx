@@ -27,6 +27,7 @@ const summary = {
   name: "Ridgeline 9-axis module",
   note: "Baseline",
   basedOnId: null,
+  version: 1,
   createdByName: "Ezra Lindqvist",
   approvedByName: "Rana Haddad",
   createdAt: "2026-01-05T10:00:00.000Z",

@@ -2,6 +2,7 @@
 export { useAddRevisionComment } from "./api/add-revision-comment";
 export { useApproveRevision } from "./api/approve-revision";
 export { useCreateDraftFrom } from "./api/create-draft";
+export { useLatestRevision } from "./api/get-latest-revision";
 export { useReturnRevision } from "./api/return-revision";
 export { useSubmitRevision } from "./api/submit-revision";
 export { useUpdateRevision, type UpdateRevisionInput } from "./api/update-revision";

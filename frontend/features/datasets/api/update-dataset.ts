@@ -4,8 +4,8 @@ import { api } from "@frontend/lib/api-client";
 import { datasetKeys } from "./keys";
 
 /** Marks (or clears) the column that names each row's lot. */
-export function updateDataset({ id, body }: { id: string; body: UpdateDataset }): Promise<Dataset> {
-  return api.patch(`/api/datasets/${encodeURIComponent(id)}`, body, DatasetSchema);
+export function updateDataset({ id, version, body }: { id: string; version: number; body: UpdateDataset }): Promise<Dataset> {
+  return api.patch(`/api/datasets/${encodeURIComponent(id)}`, body, DatasetSchema, version);
 }
 
 export function useUpdateDataset() {

@@ -4,8 +4,8 @@ import { projectKeys } from "@frontend/features/projects";
 import { api } from "@frontend/lib/api-client";
 import { datasetKeys } from "./keys";
 
-export function updateMappings({ id, body }: { id: string; body: UpdateMappings }): Promise<Dataset> {
-  return api.patch(`/api/datasets/${encodeURIComponent(id)}/mappings`, body, DatasetSchema);
+export function updateMappings({ id, version, body }: { id: string; version: number; body: UpdateMappings }): Promise<Dataset> {
+  return api.patch(`/api/datasets/${encodeURIComponent(id)}/mappings`, body, DatasetSchema, version);
 }
 
 export function useUpdateMappings() {

@@ -124,7 +124,7 @@ export function ColumnMapping({ dataset, canWrite, onShow }: { dataset: Dataset;
 
   function save() {
     if (!sent.length) return;
-    update.mutate({ id: dataset.id, body: { mappings: sent } });
+    update.mutate({ id: dataset.id, version: dataset.version, body: { mappings: sent } });
   }
 
   const set = (key: string, patch: Partial<Row>) =>
@@ -170,7 +170,7 @@ export function ColumnMapping({ dataset, canWrite, onShow }: { dataset: Dataset;
               aria-label="Lot column"
               value={dataset.lotColumn ?? ""}
               disabled={!canWrite || lotUpdate.isPending}
-              onChange={(e) => lotUpdate.mutate({ id: dataset.id, body: { lotColumn: e.target.value || null } })}
+              onChange={(e) => lotUpdate.mutate({ id: dataset.id, version: dataset.version, body: { lotColumn: e.target.value || null } })}
               className="w-40"
             >
               <option value="">{dataset.lot ? `the upload (lot ${dataset.lot})` : "no lots"}</option>
@@ -191,6 +191,11 @@ export function ColumnMapping({ dataset, canWrite, onShow }: { dataset: Dataset;
       {update.isError && errors.size === 0 ? (
         <div className="px-4 pt-3">
           <Alert>{isApiError(update.error) ? update.error.message : "The mapping could not be saved."}</Alert>
+        </div>
+      ) : null}
+      {lotUpdate.isError ? (
+        <div className="px-4 pt-3">
+          <Alert>{isApiError(lotUpdate.error) ? lotUpdate.error.message : "The lot column could not be saved."}</Alert>
         </div>
       ) : null}
       <div className="overflow-x-auto">

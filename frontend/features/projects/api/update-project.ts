@@ -3,8 +3,8 @@ import { ProjectSchema, type Project, type UpdateProject } from "@shared/schemas
 import { api } from "@frontend/lib/api-client";
 import { projectKeys } from "./keys";
 
-export function updateProject({ id, changes }: { id: string; changes: UpdateProject }): Promise<Project> {
-  return api.patch(`/api/projects/${encodeURIComponent(id)}`, changes, ProjectSchema);
+export function updateProject({ id, version, changes }: { id: string; version: number; changes: UpdateProject }): Promise<Project> {
+  return api.patch(`/api/projects/${encodeURIComponent(id)}`, changes, ProjectSchema, version);
 }
 
 export function useUpdateProject() {

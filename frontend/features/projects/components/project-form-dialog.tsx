@@ -132,7 +132,10 @@ export function EditProjectDialog({ project, open, onClose }: { project: Project
     const parsed = parseForm(UpdateProjectSchema, changes);
     if (!parsed.ok) return setErrors(parsed.errors);
     setErrors({});
-    update.mutate({ id: project.id, changes: parsed.data }, { onSuccess: close, onError: (error) => setErrors(serverFieldErrors(error)) });
+    update.mutate(
+      { id: project.id, version: project.version, changes: parsed.data },
+      { onSuccess: close, onError: (error) => setErrors(serverFieldErrors(error)) },
+    );
   }
 
   return (

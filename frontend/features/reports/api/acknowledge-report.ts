@@ -3,8 +3,8 @@ import { ReportSchema, type Report } from "@shared/schemas/reports";
 import { api } from "@frontend/lib/api-client";
 import { reportKeys } from "./keys";
 
-export function acknowledgeReport({ id, comment }: { id: string; comment?: string }): Promise<Report> {
-  return api.post(`/api/reports/${encodeURIComponent(id)}/acknowledge`, comment ? { comment } : {}, ReportSchema);
+export function acknowledgeReport({ id, version, comment }: { id: string; version: number; comment?: string }): Promise<Report> {
+  return api.post(`/api/reports/${encodeURIComponent(id)}/acknowledge`, comment ? { comment } : {}, ReportSchema, version);
 }
 
 /** The supplier's acknowledgement (a supplier has no project activity to refresh). */

@@ -4,8 +4,8 @@ import { api } from "@frontend/lib/api-client";
 import { refreshAfter } from "./invalidate";
 import { reportKeys } from "./keys";
 
-export function releaseReport({ id, comment }: { id: string; comment?: string }): Promise<Report> {
-  return api.post(`/api/reports/${encodeURIComponent(id)}/release`, comment ? { comment } : {}, ReportSchema);
+export function releaseReport({ id, version, comment }: { id: string; version: number; comment?: string }): Promise<Report> {
+  return api.post(`/api/reports/${encodeURIComponent(id)}/release`, comment ? { comment } : {}, ReportSchema, version);
 }
 
 export function useReleaseReport() {

@@ -5,8 +5,16 @@ import { api } from "@frontend/lib/api-client";
 import { refreshAfter } from "./invalidate";
 import { reportKeys } from "./keys";
 
-export function updateReport({ id, changes }: { id: string; changes: z.input<typeof UpdateReportSchema> }): Promise<Report> {
-  return api.patch(`/api/reports/${encodeURIComponent(id)}`, changes, ReportSchema);
+export function updateReport({
+  id,
+  version,
+  changes,
+}: {
+  id: string;
+  version: number;
+  changes: z.input<typeof UpdateReportSchema>;
+}): Promise<Report> {
+  return api.patch(`/api/reports/${encodeURIComponent(id)}`, changes, ReportSchema, version);
 }
 
 export function useUpdateReport() {

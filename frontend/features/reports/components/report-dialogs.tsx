@@ -104,7 +104,9 @@ export function ReleaseDialog({ report, onClose }: Base) {
       pending={release.isPending}
       error={release.error?.message}
       onClose={onClose}
-      onConfirm={(comment) => release.mutate({ id: report.id, comment: comment || undefined }, { onSuccess: onClose })}
+      onConfirm={(comment) =>
+        release.mutate({ id: report.id, version: report.version, comment: comment || undefined }, { onSuccess: onClose })
+      }
     />
   );
 }
@@ -146,7 +148,7 @@ export function AcknowledgeDialog({ report, onClose }: Base) {
       pending={ack.isPending}
       error={ack.error?.message}
       onClose={onClose}
-      onConfirm={(comment) => ack.mutate({ id: report.id, comment: comment || undefined }, { onSuccess: onClose })}
+      onConfirm={(comment) => ack.mutate({ id: report.id, version: report.version, comment: comment || undefined }, { onSuccess: onClose })}
     />
   );
 }
@@ -172,7 +174,10 @@ export function EditDraftDialog({ report, onClose }: Base) {
     e.preventDefault();
     const parsed = parseForm(UpdateReportSchema, { cpk: Number(cpk), note, ...(snapshot !== undefined ? { snapshotPng: snapshot } : {}) });
     if (!parsed.ok) return setErrors(parsed.errors);
-    update.mutate({ id: report.id, changes: parsed.data }, { onSuccess: onClose, onError: (err) => setErrors(serverFieldErrors(err)) });
+    update.mutate(
+      { id: report.id, version: report.version, changes: parsed.data },
+      { onSuccess: onClose, onError: (err) => setErrors(serverFieldErrors(err)) },
+    );
   }
 
   const hasSnapshot = snapshot === undefined ? report.hasSnapshot : snapshot !== null;

@@ -4,8 +4,8 @@ import { api } from "@frontend/lib/api-client";
 import { onRevisionChanged } from "./on-revision-changed";
 
 /** Sends an in-review revision back to draft, with the reviewer's reason. */
-export function returnRevision({ id, comment }: { id: string; comment: string }): Promise<Revision> {
-  return api.post(`/api/revisions/${encodeURIComponent(id)}/return`, { comment }, RevisionSchema);
+export function returnRevision({ id, version, comment }: { id: string; version: number; comment: string }): Promise<Revision> {
+  return api.post(`/api/revisions/${encodeURIComponent(id)}/return`, { comment }, RevisionSchema, version);
 }
 
 export function useReturnRevision() {

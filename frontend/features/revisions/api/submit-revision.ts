@@ -3,8 +3,8 @@ import { RevisionSchema, type Revision } from "@shared/schemas/revisions";
 import { api } from "@frontend/lib/api-client";
 import { onRevisionChanged } from "./on-revision-changed";
 
-export function submitRevision(id: string): Promise<Revision> {
-  return api.post(`/api/revisions/${encodeURIComponent(id)}/submit`, undefined, RevisionSchema);
+export function submitRevision({ id, version }: { id: string; version: number }): Promise<Revision> {
+  return api.post(`/api/revisions/${encodeURIComponent(id)}/submit`, undefined, RevisionSchema, version);
 }
 
 export function useSubmitRevision() {

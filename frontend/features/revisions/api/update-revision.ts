@@ -4,10 +4,11 @@ import { RevisionSchema, type Revision, type UpdateRevisionSchema } from "@share
 import { api } from "@frontend/lib/api-client";
 import { revisionKeys } from "./keys";
 
-export type UpdateRevisionInput = { id: string; changes: z.input<typeof UpdateRevisionSchema> };
+/** `version`: the version the changes were made on; a stale one is refused with a 409 `conflict`. */
+export type UpdateRevisionInput = { id: string; version: number; changes: z.input<typeof UpdateRevisionSchema> };
 
-export function updateRevision({ id, changes }: UpdateRevisionInput): Promise<Revision> {
-  return api.patch(`/api/revisions/${encodeURIComponent(id)}`, changes, RevisionSchema);
+export function updateRevision({ id, version, changes }: UpdateRevisionInput): Promise<Revision> {
+  return api.patch(`/api/revisions/${encodeURIComponent(id)}`, changes, RevisionSchema, version);
 }
 
 /** The editor's autosave. The answer goes into the cache; the editor keeps its own document. */

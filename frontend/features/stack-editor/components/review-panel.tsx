@@ -28,12 +28,18 @@ export function ReviewActions({
   revision,
   me,
   flush,
+  version,
+  onMoved,
   problems,
   onDraft,
 }: {
   revision: Revision;
   me: Me;
   flush: () => Promise<boolean>;
+  /** the version of the revision as this page shows it (a change made meanwhile by someone else is a conflict) */
+  version: () => number;
+  /** our own action moved the revision to a new version (its content unchanged) */
+  onMoved: (revision: Revision) => void;
   problems: number;
   onDraft: (id: string) => void;
 }) {
@@ -61,12 +67,16 @@ export function ReviewActions({
       setDialog("submit-error");
       return;
     }
-    submit.mutate(revision.id, {
-      onError: (e) => {
-        setSubmitError(e.message);
-        setDialog("submit-error");
+    submit.mutate(
+      { id: revision.id, version: version() },
+      {
+        onSuccess: onMoved,
+        onError: (e) => {
+          setSubmitError(e.message);
+          setDialog("submit-error");
+        },
       },
-    });
+    );
   }
 
   function onReview(event: FormEvent) {
@@ -77,9 +87,15 @@ export function ReviewActions({
         setCommentError(parsed.error.issues[0]?.message ?? "say why the revision goes back");
         return;
       }
-      sendBack.mutate({ id: revision.id, comment: parsed.data.comment }, { onSuccess: () => setDialog(null) });
+      sendBack.mutate(
+        { id: revision.id, version: version(), comment: parsed.data.comment },
+        { onSuccess: (r) => (onMoved(r), setDialog(null)) },
+      );
     } else {
-      approve.mutate({ id: revision.id, comment: comment.trim() || undefined }, { onSuccess: () => setDialog(null) });
+      approve.mutate(
+        { id: revision.id, version: version(), comment: comment.trim() || undefined },
+        { onSuccess: (r) => (onMoved(r), setDialog(null)) },
+      );
     }
   }
 

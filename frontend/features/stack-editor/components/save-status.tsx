@@ -28,6 +28,10 @@ export function SaveStatus({ state, saves, onRetry }: { state: SaveState; saves:
       text = `Not saved: ${state.message}`;
       tone = "text-fail";
       break;
+    case "conflict":
+      text = "Not saved: changed by someone else";
+      tone = "text-fail";
+      break;
   }
   return (
     <span

@@ -17,7 +17,8 @@ import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
 import { ChevronLeftIcon } from "@frontend/components/ui/icons";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { useSuppliers } from "@frontend/features/suppliers";
-import { RevisionStatusChip } from "@frontend/features/revisions";
+import { RevisionStatusChip, useLatestRevision } from "@frontend/features/revisions";
+import { isApiError } from "@frontend/lib/api-client";
 import { cn } from "@frontend/lib/cn";
 import { formatDateTime } from "@frontend/lib/format";
 import { can } from "@frontend/lib/permissions";
@@ -27,7 +28,9 @@ import { useLiveEstimate } from "../hooks/use-live-estimate";
 import { clearBackup, readBackup, type Backup } from "../lib/backup";
 import { canRedo, canUndo } from "../lib/history";
 import { fromServerFields, indexIssues, validateDoc } from "../lib/issues";
+import { reapply } from "../lib/reapply";
 import type { EditorDoc } from "../lib/stack-ops";
+import { ConflictNotice, ReappliedNotice, type Reapplied } from "./conflict-notice";
 import { EditorContext, type EditorApi } from "./editor-context";
 import { ElementForm } from "./element-form";
 import { ElementTree } from "./element-tree";
@@ -117,7 +120,7 @@ function Card({
 
 export function StackEditor({ revision, project, me }: { revision: Revision; project: Pick<Project, "id" | "name">; me: Me }) {
   const initial = useMemo(() => docOf(revision), [revision.id]); // eslint-disable-line react-hooks/exhaustive-deps
-  const { history, doc, update, setAt, undo, redo } = useEditorHistory(initial);
+  const { history, doc, update, setAt, undo, redo, reset } = useEditorHistory(initial);
   const canWrite = can(me.role, "revisions.write");
   const editable = revision.status === "draft" && canWrite;
   const readOnly = !editable;
@@ -143,8 +146,52 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
     enabled: editable,
     problems: localIssues.length,
     updatedAt: revision.updatedAt,
+    version: useMemo(() => revision.version, [revision.id]), // eslint-disable-line react-hooks/exhaustive-deps
   });
   const saveState = autosave.state;
+
+  // Someone else saved the draft meanwhile: reload it and lay this engineer's edits over it, or drop them.
+  const latestRevision = useLatestRevision();
+  const [resolving, setResolving] = useState<"reapply" | "discard" | null>(null);
+  const [resolveError, setResolveError] = useState<string | null>(null);
+  const [reapplied, setReapplied] = useState<Reapplied | null>(null);
+  const { rebase, serverDoc } = autosave;
+  const resolveConflict = useCallback(
+    async (keep: boolean) => {
+      setResolving(keep ? "reapply" : "discard");
+      setResolveError(null);
+      try {
+        const fresh = await latestRevision(revision.id);
+        if (fresh.status !== "draft") {
+          setResolveError(
+            `Revision ${fresh.number} is no longer a draft, so it cannot take your edits. They stay in this browser: start a new draft and restore them there.`,
+          );
+          return;
+        }
+        const theirs = docOf(fresh);
+        const base = serverDoc();
+        rebase(theirs, fresh.version);
+        // their version first, so undo shows it without these edits
+        reset(theirs);
+        if (keep) {
+          const overlaps: string[] = [];
+          update((mine) => {
+            const merged = reapply(base, mine, theirs);
+            overlaps.splice(0, overlaps.length, ...merged.overlaps);
+            return merged.doc;
+          }, "reapply");
+          setReapplied({ version: fresh.version, overlaps });
+        } else {
+          clearBackup(revision.id);
+        }
+      } catch (e) {
+        setResolveError(isApiError(e) ? e.message : "The draft could not be loaded. Try again.");
+      } finally {
+        setResolving(null);
+      }
+    },
+    [latestRevision, rebase, reset, revision.id, serverDoc, update],
+  );
   const issues = useMemo(() => {
     const serverIssues = saveState.kind === "error" ? fromServerFields(saveState.fields) : [];
     return indexIssues([...localIssues, ...serverIssues.filter((s) => !localIssues.some((l) => l.path === s.path))]);
@@ -290,6 +337,8 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
             revision={revision}
             me={me}
             flush={autosave.flush}
+            version={autosave.version}
+            onMoved={(moved) => rebase(serverDoc(), moved.version)}
             problems={problemCount}
             onDraft={(id) => navigate(`/projects/${project.id}/revisions/${id}`)}
           />
@@ -314,6 +363,18 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
           Engineers edit drafts. You can read it and leave review notes; approval comes once it is submitted.
         </Alert>
       ) : null}
+
+      {editable && saveState.kind === "conflict" ? (
+        <ConflictNotice
+          message={saveState.message}
+          version={saveState.version}
+          pending={resolving}
+          error={resolveError}
+          onReapply={() => void resolveConflict(true)}
+          onDiscard={() => void resolveConflict(false)}
+        />
+      ) : null}
+      {reapplied && saveState.kind !== "conflict" ? <ReappliedNotice reapplied={reapplied} onClose={() => setReapplied(null)} /> : null}
 
       {backup ? (
         <Alert tone="info" className="mb-3" title="Unsaved edits were found in this browser">

@@ -3,6 +3,10 @@
  * and again at once if the document changed while a save was on its way. A document the
  * validator refuses is not sent (the server would refuse it too); the editor shows its
  * problems instead. A copy of unsaved work is kept in this browser until the server has it.
+ *
+ * Every save names the version of the draft it was made on. When someone else saved the draft
+ * meanwhile, the server refuses (409 `conflict`): saving stops, the edits stay, and the editor
+ * offers to reload the draft and reapply them (`rebase`) or to drop them.
  */
 import { useCallback, useEffect, useRef, useState } from "react";
 import { isApiError } from "@frontend/lib/api-client";
@@ -18,7 +22,9 @@ export type SaveState =
   | { kind: "pending" }
   | { kind: "saving" }
   | { kind: "invalid"; count: number }
-  | { kind: "error"; message: string; fields: { path: string; message: string }[]; retryable: boolean };
+  | { kind: "error"; message: string; fields: { path: string; message: string }[]; retryable: boolean }
+  /** someone else saved the draft since it was loaded: `version` is theirs */
+  | { kind: "conflict"; message: string; version: number | undefined };
 
 export function useAutosave({
   revisionId,
@@ -27,6 +33,7 @@ export function useAutosave({
   enabled,
   problems,
   updatedAt,
+  version: loadedVersion,
 }: {
   revisionId: string;
   doc: EditorDoc;
@@ -36,6 +43,8 @@ export function useAutosave({
   /** problems the validator found in `doc` */
   problems: number;
   updatedAt: string;
+  /** the version of the draft as loaded; each save sends the version it was made on */
+  version: number;
 }) {
   const mutation = useUpdateRevision();
   const mutate = mutation.mutateAsync;
@@ -48,6 +57,9 @@ export function useAutosave({
   // Only a copy written in this visit is ours to drop when the document is back to saved.
   const wroteBackup = useRef(false);
   const saves = useRef(0);
+  const version = useRef(loadedVersion);
+  // bumped by `rebase`, so the save schedule looks at the document again
+  const [base, setBase] = useState(0);
   const [state, setState] = useState<SaveState>(() => ({ kind: "saved", at: new Date(updatedAt), saves: 0 }));
   const [dirty, setDirty] = useState(false);
 
@@ -62,7 +74,12 @@ export function useAutosave({
     setState({ kind: "saving" });
     const run = (async () => {
       try {
-        await mutate({ id: revisionId, changes: { stack: sending.stack, requirements: sending.requirements } });
+        const revision = await mutate({
+          id: revisionId,
+          version: version.current,
+          changes: { stack: sending.stack, requirements: sending.requirements },
+        });
+        version.current = revision.version;
         saved.current = sending;
         saves.current++;
         if (current.current === sending) {
@@ -74,6 +91,10 @@ export function useAutosave({
       } catch (error) {
         const e = isApiError(error) ? error : null;
         if (e?.code === "revision_frozen" || e?.status === 409) frozen.current = true;
+        if (e?.code === "conflict") {
+          setState({ kind: "conflict", message: e.message, version: e.version });
+          return false;
+        }
         const retryable = !frozen.current && (!e || e.status === 0 || e.status >= 500);
         setState({ kind: "error", message: e?.message ?? "The draft could not be saved.", fields: e?.fields ?? [], retryable });
         // A lost connection or a server hiccup: try again by itself (the browser copy holds the edits meanwhile).
@@ -102,13 +123,18 @@ export function useAutosave({
     setDirty(isDirty);
     if (!isDirty) {
       if (wroteBackup.current) clearBackup(revisionId);
-      setState((s) => (s.kind === "saved" ? s : { kind: "saved", at: s.kind === "error" ? null : new Date(), saves: saves.current }));
+      // a conflict stays on screen until it is resolved (rebase): the server's draft is not ours
+      setState((s) =>
+        s.kind === "saved" || s.kind === "conflict"
+          ? s
+          : { kind: "saved", at: s.kind === "error" ? null : new Date(), saves: saves.current },
+      );
       return;
     }
     writeBackup(revisionId, { doc, basedOn: updatedAt, at: new Date().toISOString() });
     wroteBackup.current = true;
     if (problems > 0) {
-      setState({ kind: "invalid", count: problems });
+      setState((s) => (s.kind === "conflict" ? s : { kind: "invalid", count: problems }));
       return;
     }
     if (frozen.current) return;
@@ -117,7 +143,7 @@ export function useAutosave({
     return () => {
       if (timer.current) window.clearTimeout(timer.current);
     };
-  }, [doc, enabled, problems, revisionId, save, updatedAt]);
+  }, [doc, enabled, problems, revisionId, save, updatedAt, base]);
 
   /** Save now (before submitting, before leaving); resolves true when the server has it all. */
   const flush = useCallback(async () => {
@@ -127,5 +153,30 @@ export function useAutosave({
     return save();
   }, [problems, save]);
 
-  return { state, dirty, flush, retry: save, saves: state.kind === "saved" ? state.saves : saves.current };
+  /**
+   * The draft as the server has it now (`doc` at `at`), after a conflict or after an action of
+   * our own (submit) moved its version: saves go on from there; what differs is saved next.
+   */
+  const rebase = useCallback((doc: EditorDoc, at: number) => {
+    saved.current = doc;
+    version.current = at;
+    frozen.current = false;
+    setState({ kind: "saved", at: new Date(), saves: saves.current });
+    setBase((n) => n + 1);
+  }, []);
+  /** The version the next change of this draft is made on. */
+  const currentVersion = useCallback(() => version.current, []);
+  /** The document the server has, as far as this page knows. */
+  const serverDoc = useCallback(() => saved.current, []);
+
+  return {
+    state,
+    dirty,
+    flush,
+    retry: save,
+    rebase,
+    version: currentVersion,
+    serverDoc,
+    saves: state.kind === "saved" ? state.saves : saves.current,
+  };
 }

@@ -6,8 +6,8 @@ import { supplierKeys } from "./keys";
 
 export type UpdateSupplier = z.infer<typeof UpdateSupplierSchema>;
 
-export function updateSupplier({ id, changes }: { id: string; changes: UpdateSupplier }): Promise<Supplier> {
-  return api.patch(`/api/suppliers/${encodeURIComponent(id)}`, changes, SupplierSchema);
+export function updateSupplier({ id, version, changes }: { id: string; version: number; changes: UpdateSupplier }): Promise<Supplier> {
+  return api.patch(`/api/suppliers/${encodeURIComponent(id)}`, changes, SupplierSchema, version);
 }
 
 export function useUpdateSupplier() {

@@ -25,7 +25,7 @@ export function SupplierFormDialog({ supplier, onClose }: { supplier?: Supplier;
       const parsed = parseForm(UpdateSupplierSchema, { name, kind });
       if (!parsed.ok) return setErrors(parsed.errors);
       setErrors({});
-      update.mutate({ id: supplier.id, changes: parsed.data }, { onSuccess: onClose, onError });
+      update.mutate({ id: supplier.id, version: supplier.version, changes: parsed.data }, { onSuccess: onClose, onError });
     } else {
       const parsed = parseForm(CreateSupplierSchema, { name, kind });
       if (!parsed.ok) return setErrors(parsed.errors);
