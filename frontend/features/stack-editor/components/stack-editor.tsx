@@ -156,6 +156,9 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
   const [resolveError, setResolveError] = useState<string | null>(null);
   const [reapplied, setReapplied] = useState<Reapplied | null>(null);
   const { rebase, serverDoc } = autosave;
+  // the document at the moment the reload comes back (edits made while it travelled included)
+  const docRef = useRef(doc);
+  docRef.current = doc;
   const resolveConflict = useCallback(
     async (keep: boolean) => {
       setResolving(keep ? "reapply" : "discard");
@@ -169,18 +172,13 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
           return;
         }
         const theirs = docOf(fresh);
-        const base = serverDoc();
+        const merged = keep ? reapply(serverDoc(), docRef.current, theirs) : null;
         rebase(theirs, fresh.version);
         // their version first, so undo shows it without these edits
         reset(theirs);
-        if (keep) {
-          const overlaps: string[] = [];
-          update((mine) => {
-            const merged = reapply(base, mine, theirs);
-            overlaps.splice(0, overlaps.length, ...merged.overlaps);
-            return merged.doc;
-          }, "reapply");
-          setReapplied({ version: fresh.version, overlaps });
+        if (merged) {
+          update(() => merged.doc, "reapply");
+          setReapplied({ version: fresh.version, overlaps: merged.overlaps });
         } else {
           clearBackup(revision.id);
         }
