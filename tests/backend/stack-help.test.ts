@@ -233,7 +233,11 @@ describe("geometry warnings", () => {
     stack.elements[3].size = { x: 0.5, y: 0.5, z: 0.2 };
     stack.elements[2].position = { x: -0.45, y: -0.45 };
     stack.elements[2].size = { x: 0.8, y: 0.8, z: 0.2 };
-    const patched = await t.call("PATCH", `/api/revisions/${r.body.id}`, { cookie: engineer, body: { stack } });
+    const patched = await t.call("PATCH", `/api/revisions/${r.body.id}`, {
+      cookie: engineer,
+      body: { stack },
+      headers: { "if-match": r.headers.get("etag")! },
+    });
     expect(patched.status).toBe(200);
     expect(patched.body.warnings).toEqual([]);
   });

@@ -91,7 +91,11 @@ describe("JSON nested too deep", () => {
     const r = await send("POST", "/api/projects", JSON.stringify({ name: "[[[[".repeat(20), description: "{".repeat(500) }));
     expect(r.status, r.body).toBe(201);
     const meta = { a: { b: { c: { d: { e: [[[["deep enough"]]]] } } } } };
-    const s = await t.call("PATCH", `/api/revisions/${revisionId}`, { cookie: engineer, body: { stack: { ...reference, meta } } });
+    const s = await t.call("PATCH", `/api/revisions/${revisionId}`, {
+      cookie: engineer,
+      body: { stack: { ...reference, meta } },
+      headers: await t.ifMatch(`/api/revisions/${revisionId}`, engineer),
+    });
     expect(s.status, JSON.stringify(s.body)).toBe(200);
   });
 });

@@ -90,7 +90,11 @@ beforeAll(async () => {
   });
   expect(draft.status, JSON.stringify(draft.body)).toBe(201);
   reportId = draft.body.id;
-  const released = await t.call("POST", `/api/reports/${reportId}/release`, { cookie: c.reviewer, body: { comment: "ok" } });
+  const released = await t.call("POST", `/api/reports/${reportId}/release`, {
+    cookie: c.reviewer,
+    body: { comment: "ok" },
+    headers: { "if-match": draft.headers.get("etag")! },
+  });
   expect(released.status, JSON.stringify(released.body)).toBe(200);
   csv = (await download(`/api/reports/${reportId}/csv`)).toString("utf8").slice(1);
 }, 180_000); // a study result and a released report's three files are made here
