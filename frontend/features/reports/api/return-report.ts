@@ -5,8 +5,8 @@ import { refreshAfter } from "./invalidate";
 import { reportKeys } from "./keys";
 
 /** A reviewer sends a draft back to its engineer with a comment (it stays a draft). */
-export function returnReport({ id, comment }: { id: string; comment: string }): Promise<Report> {
-  return api.post(`/api/reports/${encodeURIComponent(id)}/return`, { comment }, ReportSchema);
+export function returnReport({ id, version, comment }: { id: string; version: number; comment: string }): Promise<Report> {
+  return api.post(`/api/reports/${encodeURIComponent(id)}/return`, { comment }, ReportSchema, version);
 }
 
 export function useReturnReport() {

@@ -126,7 +126,7 @@ export function ReturnDialog({ report, onClose }: Base) {
       pending={ret.isPending}
       error={ret.error?.message}
       onClose={onClose}
-      onConfirm={(comment) => ret.mutate({ id: report.id, comment }, { onSuccess: onClose })}
+      onConfirm={(comment) => ret.mutate({ id: report.id, version: report.version, comment }, { onSuccess: onClose })}
     />
   );
 }
