@@ -7,6 +7,7 @@ import { acceptBodies, sameOrigin } from "./middleware/request-guard";
 import { refuseUnsafeInput, verifyJsonDepth } from "./middleware/json-guard";
 import { securityHeaders } from "./middleware/security-headers";
 import { requireSession } from "./middleware/session";
+import { SessionCache } from "./middleware/session-cache";
 import { datasetsRouter, UPLOAD_PATHS } from "./routes/datasets";
 import { meRouter } from "./routes/me";
 import { statusRouter } from "./routes/status";
@@ -32,6 +33,11 @@ export type AppOptions = {
   trustedOrigins?: string[];
   /** Express's `trust proxy` (TRUST_PROXY): then the scheme, host and client address come from the proxy's headers. */
   trustProxy?: string;
+  /**
+   * How long a resolved session cookie is reused in this process (SessionCache); 0 turns the cache
+   * off, as server mode must (several app processes). Default 30 s.
+   */
+  sessionCacheSeconds?: number;
 };
 
 /** Builds the Express app from its dependencies; `server.ts` listens, tests do not need to. */
@@ -58,11 +64,15 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   );
   app.use("/api", acceptBodies("application/json"));
 
+  // Before better-auth's routes: a sign-out or password change must empty the session cache too.
+  const sessionCache = (options.sessionCacheSeconds ?? 30) > 0 ? new SessionCache((options.sessionCacheSeconds ?? 30) * 1000) : undefined;
+  if (sessionCache) app.use(sessionCache.clearOnWrites());
+
   app.all("/api/auth/{*splat}", toNodeHandler(deps.auth));
 
   app.use("/api", express.json({ limit: JSON_LIMIT, verify: verifyJsonDepth }), refuseUnsafeInput);
   app.use("/api", publicRouter(deps));
-  app.use("/api", requireSession(deps.auth, deps.db));
+  app.use("/api", requireSession(deps.auth, deps.db, sessionCache));
   app.use("/api", meRouter());
   app.use("/api", statusRouter(deps));
   app.use("/api", projectsRouter(deps));

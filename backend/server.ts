@@ -19,6 +19,8 @@ const app = createApp(deps, {
   strictCsp: !dev,
   trustedOrigins: env.TRUSTED_ORIGINS,
   trustProxy: env.TRUST_PROXY,
+  // several app processes may share a PostgreSQL server: a write in one must reach the others' checks
+  sessionCacheSeconds: runtime.handle.kind === "postgres" ? 0 : 30,
   mountClient: dev ? (a) => void (devApp = a) : mountStaticClient,
 });
 if (devApp) await mountDevClient(devApp);

@@ -16,7 +16,11 @@ const log = createLog({
 });
 const runtime = await createRuntime(env, log);
 await startRuntime(runtime);
-const app = createApp(runtime.deps, { trustedOrigins: env.TRUSTED_ORIGINS });
+const app = createApp(runtime.deps, {
+  trustedOrigins: env.TRUSTED_ORIGINS,
+  // as server.ts: no in-process session cache when several processes may share the database
+  sessionCacheSeconds: runtime.handle.kind === "postgres" ? 0 : 30,
+});
 const server = app.listen(0, "127.0.0.1", () => {
   const a = server.address();
   process.stdout.write(JSON.stringify({ port: typeof a === "object" && a ? a.port : 0 }) + "\n");

@@ -7,7 +7,7 @@
  *   API:    GET /api/projects with 50 signed-in clients (autocannon), alone and while a long
  *           study runs: reads per second, p99 latency, failed requests.
  *
- * Options: --quick (10^4 and 10^5 only, no 10^7), --no-api, --api-seconds N (default 10).
+ * Options: --quick (10^4 and 10^5 only, no 10^7), --no-api, --api-only, --api-seconds N (default 10).
  * The machine's load is printed with every figure: wall-clock figures mean little when other
  * processes share the cores, CPU-seconds mean more.
  */
@@ -138,7 +138,7 @@ async function api() {
 
 async function main() {
   out(`Orthostack bench · Node ${process.version} · ${cpus().length} cores (${cpus()[0]?.model ?? "?"}) · ${load()} at start`);
-  await engine();
+  if (!args.includes("--api-only")) await engine();
   if (!args.includes("--no-api")) await api();
 }
 

@@ -7,6 +7,7 @@ import type { Auth } from "../auth";
 import type { Database } from "../db/client";
 import { members, workspaces } from "../db/schema";
 import { forbidden, unauthorized } from "../lib/errors";
+import type { SessionCache } from "./session-cache";
 
 export type Actor = {
   userId: string;
@@ -28,9 +29,19 @@ declare global {
   }
 }
 
-/** Resolves the session cookie to a workspace member; 401 without one. */
-export function requireSession(auth: Auth, db: Database): RequestHandler {
+/**
+ * Resolves the session cookie to a workspace member; 401 without one. With a cache, a cookie
+ * resolved a moment ago is answered from it (see SessionCache for why that stays exact).
+ */
+export function requireSession(auth: Auth, db: Database, cache?: SessionCache): RequestHandler {
   return async (req: Request, _res: Response, next: NextFunction) => {
+    const key = req.headers.cookie;
+    const cached = cache && key ? cache.get(key) : undefined;
+    if (cached) {
+      req.actor = cached;
+      return next();
+    }
+    const generation = cache?.generation ?? 0;
     const session = await auth.api.getSession({ headers: fromNodeHeaders(req.headers) });
     if (!session) throw unauthorized();
     const [row] = await db
@@ -51,6 +62,7 @@ export function requireSession(auth: Auth, db: Database): RequestHandler {
       workspaceName: row.workspaceName,
       supplierId: row.member.supplierId,
     };
+    if (cache && key) cache.set(key, req.actor, session.session.expiresAt, generation);
     next();
   };
 }

@@ -75,7 +75,8 @@ export const datasetMappings = pgTable(
     updatedBy: text("updated_by").references(() => users.id, { onDelete: "set null" }),
     updatedAt: timestamp("updated_at", { withTimezone: true }).defaultNow().notNull(),
   },
-  (t) => [primaryKey({ columns: [t.datasetId, t.column] })],
+  // the revision side: deleting a revision cascades here, and would otherwise scan every mapping
+  (t) => [primaryKey({ columns: [t.datasetId, t.column] }), index("dataset_mappings_revision_idx").on(t.revisionId)],
 );
 
 // ---- what-if runs (issue 12): sweeps and tolerance allocations ------------------------

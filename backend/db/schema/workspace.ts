@@ -101,7 +101,8 @@ export const projects = pgTable(
     version: version(),
     ...timestamps,
   },
-  (t) => [index("projects_workspace_idx").on(t.workspaceId)],
+  // the projects list: one workspace's projects in name order, read from the index
+  (t) => [index("projects_workspace_name_idx").on(t.workspaceId, t.name)],
 );
 
 export const activities = pgTable(
