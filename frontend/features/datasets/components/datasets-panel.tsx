@@ -176,7 +176,7 @@ export function DatasetsPanel({ projectId, canWrite, className }: { projectId: s
                     <td className="h-10 max-w-[280px] px-3 py-1.5">
                       <Link
                         to={`/projects/${projectId}/datasets/${d.id}`}
-                        className="block truncate font-bold text-ink hover:text-accel hover:underline"
+                        className="block font-bold break-all text-ink hover:text-accel hover:underline"
                         title={d.name}
                       >
                         {d.name}

@@ -38,7 +38,7 @@ export function ProjectsTable({ projects, canWrite }: { projects: Project[]; can
                   <Link to={`/projects/${project.id}`} className="font-bold text-ink decoration-ink/30 underline-offset-2 hover:underline">
                     {project.name}
                   </Link>
-                  {project.description ? <p className="mt-0.5 line-clamp-1 max-w-xl text-xs text-ink/55">{project.description}</p> : null}
+                  {project.description ? <p className="mt-0.5 max-w-xl text-xs text-ink/55">{project.description}</p> : null}
                 </Td>
                 <Td className="whitespace-nowrap text-ink/80">{project.ownerName ?? <span className="text-ink/40">—</span>}</Td>
                 <Td numeric className="text-ink/70">

@@ -53,7 +53,7 @@ export function ReportsPanel({ projectId, canWrite, className }: { projectId: st
                 <Link to={`/reports/${r.id}`} className="text-[13px] font-bold text-ink hover:text-gyro hover:underline">
                   {reportTitle(r)}
                 </Link>
-                <p className="truncate text-xs text-ink/55">
+                <p className="text-xs text-ink/55">
                   {r.supplierName} · {r.toleranceCount} tolerances · Cpk ≥ {formatIndex(r.cpk)} · study {r.studyNumber}
                 </p>
               </div>

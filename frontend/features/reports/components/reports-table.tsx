@@ -46,7 +46,7 @@ export function ReportsTable({
                 {supplierView ? null : <Td className="font-semibold text-ink/85">{r.supplierName}</Td>}
                 {showProject ? (
                   <Td className="max-w-[280px]">
-                    <span className="line-clamp-1 text-ink/80">{r.projectName}</span>
+                    <span className="text-ink/80">{r.projectName}</span>
                   </Td>
                 ) : null}
                 <Td numeric>{r.toleranceCount}</Td>

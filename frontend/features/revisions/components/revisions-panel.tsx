@@ -167,12 +167,12 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
                 <td className="max-w-0 px-3 py-1.5">
                   <Link
                     to={`/projects/${projectId}/revisions/${r.id}`}
-                    className="block truncate font-bold text-ink decoration-ink/30 underline-offset-2 hover:underline"
+                    className="block font-bold break-words text-ink decoration-ink/30 underline-offset-2 hover:underline"
                     aria-label={`Open revision ${r.number}`}
                   >
                     {r.name || <span className="text-ink/45">Untitled stack</span>}
                   </Link>
-                  {r.note ? <p className="truncate text-xs text-ink/55">{r.note}</p> : null}
+                  {r.note ? <p className="text-xs break-words text-ink/55">{r.note}</p> : null}
                 </td>
                 <td className="px-3">
                   <RevisionStatusChip status={r.status} />

@@ -220,7 +220,13 @@ export function SelectInput({
   return (
     <select
       aria-invalid={invalid || undefined}
-      className={cn(BOX, width(className), boxState(invalid), "select-chevron h-7 appearance-none pr-6 pl-2 text-xs", className)}
+      className={cn(
+        BOX,
+        width(className),
+        boxState(invalid),
+        "select-chevron h-7 min-w-max appearance-none pr-6 pl-2 text-xs field-sizing-content",
+        className,
+      )}
       {...rest}
     >
       {children}

@@ -29,14 +29,14 @@ function Figure({
 }) {
   return (
     <div className="min-w-0 px-4 py-2.5" title={title}>
-      <p className="truncate text-[10.5px] font-bold tracking-[0.08em] text-ink/50 uppercase">{label}</p>
+      <p className="text-[10.5px] font-bold tracking-[0.08em] text-ink/50 uppercase">{label}</p>
       <p className={cn("mt-0.5 flex items-baseline whitespace-nowrap", unit === "°" ? "gap-0" : "gap-1")}>
         <span className="num text-[20px] leading-6 font-extrabold tracking-[-0.01em] text-ink" data-testid={testId}>
           {value}
         </span>
         <span className="text-[13px] font-bold text-ink/55">{unit}</span>
       </p>
-      {sub ? <p className="mt-0.5 truncate text-[11px] text-ink/55">{sub}</p> : null}
+      {sub ? <p className="mt-0.5 text-[11px] break-all text-ink/55">{sub}</p> : null}
     </div>
   );
 }
@@ -149,7 +149,7 @@ export function LiveEstimateStrip({ estimate, problems }: { estimate: EstimateSt
                 {summary.requirements.map((r) => (
                   <li key={r.index} className="flex min-w-0 items-center gap-1.5 text-[11px]">
                     <span className={cn("size-1.5 shrink-0 rounded-full", r.passes ? "bg-pass" : "bg-fail")} aria-hidden="true" />
-                    <span className="min-w-0 flex-1 truncate font-mono text-[10.5px] text-ink/70" title={metricLabel(r.metric)}>
+                    <span className="min-w-0 flex-1 font-mono text-[10.5px] break-all text-ink/70" title={metricLabel(r.metric)}>
                       {r.metric}
                     </span>
                     <span className={cn("num font-bold", r.passes ? "text-pass" : "text-fail")}>{formatYield(r.predictedYield)}</span>

@@ -85,7 +85,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                       </optgroup>
                     ))}
                   </SelectInput>
-                  <p className="mt-0.5 truncate font-mono text-[10.5px] text-ink/45">{r.metric}</p>
+                  <p className="mt-0.5 font-mono text-[10.5px] break-all text-ink/45">{r.metric}</p>
                   {messages.length ? (
                     <p className="mt-0.5 text-[11px] font-medium text-fail">{messages.map(sentence).join(" · ")}</p>
                   ) : null}
@@ -130,7 +130,7 @@ export function RequirementsEditor({ estimate, estimateStale }: { estimate: Esti
                       <span className="num text-[10.5px] text-ink/45">95 % CI {formatYieldRange(est.ci[0], est.ci[1])}</span>
                       {est.drivers.length ? (
                         <span
-                          className="mt-0.5 max-w-full truncate text-[10.5px] text-ink/55"
+                          className="mt-0.5 max-w-full text-right text-[10.5px] text-ink/55"
                           title="Largest linearised contributors: share of the metric's variance (or mean square)"
                         >
                           driven by{" "}

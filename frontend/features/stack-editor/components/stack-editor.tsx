@@ -292,7 +292,7 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
           </h1>
           <RevisionStatusChip status={revision.status} />
         </div>
-        <label className="flex min-w-0 flex-1 items-center gap-2">
+        <label className="flex min-w-[min(100%,28rem)] flex-1 items-center gap-2">
           <span className="shrink-0 text-[11px] font-semibold text-ink/55">Stack name</span>
           <TextInput
             value={doc.stack.name ?? ""}
@@ -463,7 +463,7 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
         <ToleranceTable />
       </Card>
 
-      <div className="mt-3 grid gap-3 lg:grid-cols-[minmax(0,2.3fr)_minmax(0,1fr)]">
+      <div className="mt-3 grid gap-3 2xl:grid-cols-[minmax(0,2.3fr)_minmax(0,1fr)]">
         <Card title="Requirements" meta="from the system budget; predicted yield from the live estimate">
           <RequirementsEditor estimate={estimate.summary} estimateStale={estimate.stale} />
         </Card>

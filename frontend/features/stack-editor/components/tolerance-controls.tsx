@@ -172,7 +172,7 @@ export function OwnerPicker({
           maxLength={200}
           disabled={disabled}
           onChange={(e) => onChange(e.target.value === "" ? undefined : e.target.value)}
-          className="min-w-0 flex-1"
+          className="min-w-40 flex-1 field-sizing-content"
         />
       ) : null}
     </div>
@@ -286,7 +286,7 @@ export function ToleranceFields({
     <fieldset className="rounded-md border border-line bg-paper/40 px-2.5 pt-1.5 pb-2" aria-label={`${label} tolerance`}>
       <legend className="sr-only">{label}</legend>
       <div className="mb-1 flex items-center justify-between gap-2">
-        <div className="min-w-0 truncate">
+        <div className="min-w-0">
           <span className="text-xs font-bold text-ink/80">{label}</span>
           <span className="ml-2 font-mono text-[10.5px] text-ink/40">{sourceId}</span>
         </div>

@@ -82,7 +82,7 @@ function RequirementCard({
           <p className="truncate text-[13px] font-bold text-ink" title={metricLabel(r.metric)}>
             {metricLabel(r.metric)}
           </p>
-          <p className="truncate font-mono text-2xs text-ink/50">{r.metric}</p>
+          <p className="font-mono text-2xs break-all text-ink/50">{r.metric}</p>
         </div>
         <Badge tone={tone} dot>
           {r.passes ? "Pass" : "Fail"}

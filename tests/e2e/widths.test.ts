@@ -1,0 +1,234 @@
+/**
+ * Every main page at three laptop widths (1024, 1280, 1440 px): a screenshot of each into
+ * tests/e2e/.artifacts/ and a check, in the page, that no text is cut off by a box that hides
+ * its overflow. One browser context; the window is resized between widths.
+ *
+ * What counts as cut off (see `clippedText` below):
+ * - a text node whose drawn box reaches past an ancestor that hides overflow (overflow hidden
+ *   or clip, or an <svg> root, which clips by default), up to the nearest scrolling box (text
+ *   inside a scroll area can be scrolled to, so the search stops there);
+ * - a select whose chosen option is wider than the select's text area, an input whose value
+ *   is wider than the input;
+ * - the main area wider than the window (the page would scroll sideways).
+ * Intentional truncation is allowed only when the whole text can still be read: an element
+ * between the text and the clipping box carries a `title` (or `aria-label`) holding the text.
+ * Visually hidden text for screen readers (a 1 px clipped box) is not drawn and is skipped.
+ */
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
+import { screenshot as viewportShot, signInAs } from "./support/browser";
+import { setupE2E, unexpectedProblems } from "./support/setup";
+
+const e2e = setupE2E();
+
+const WIDTHS = [1024, 1280, 1440] as const;
+const HEIGHT = 900;
+
+/** Runs in the page: a list of readable descriptions of text that is cut off. */
+function clippedText(): string[] {
+  const found: string[] = [];
+  const SLACK = 1.5; // sub-pixel rounding of text boxes
+  const label = (el: Element) => {
+    const cls = typeof el.className === "string" ? el.className.split(/\s+/).slice(0, 4).join(".") : "";
+    return `<${el.tagName.toLowerCase()}${cls ? "." + cls : ""}>`;
+  };
+  const hidden = (el: Element) => {
+    const r = el.getBoundingClientRect();
+    return r.width <= 1 && r.height <= 1;
+  };
+  /** An element from `from` up to and including `to` whose title or aria-label holds the text. */
+  const titled = (from: Element, to: Element, text: string) => {
+    const want = text.replace(/\s+/g, " ").trim();
+    for (let el: Element | null = from; el; el = el.parentElement) {
+      for (const attr of ["title", "aria-label"]) {
+        const v = el.getAttribute(attr)?.replace(/\s+/g, " ").trim();
+        if (v && v.includes(want)) return true;
+      }
+      if (el === to) break;
+    }
+    return false;
+  };
+
+  // 1. text nodes against the boxes that clip them
+  const walker = document.createTreeWalker(document.body, NodeFilter.SHOW_TEXT);
+  const range = document.createRange();
+  for (let node = walker.nextNode(); node; node = walker.nextNode()) {
+    const text = node.textContent ?? "";
+    if (!text.trim()) continue;
+    const parent = node.parentElement;
+    if (!parent || parent.closest("script, style, noscript, option, title")) continue;
+    const style = getComputedStyle(parent);
+    if (style.visibility === "hidden" || style.display === "none") continue;
+    range.selectNodeContents(node);
+    const box = range.getBoundingClientRect();
+    if (box.width === 0 || box.height === 0) continue;
+    for (let anc: Element | null = parent; anc && anc !== document.documentElement; anc = anc.parentElement) {
+      const s = getComputedStyle(anc);
+      if (hidden(anc)) break; // screen-reader-only text
+      const scrolls = [s.overflowX, s.overflowY].some((o) => o === "auto" || o === "scroll");
+      const clipsX = s.overflowX === "hidden" || s.overflowX === "clip" || (anc.tagName === "svg" && s.overflowX !== "visible");
+      const clipsY = s.overflowY === "hidden" || s.overflowY === "clip" || (anc.tagName === "svg" && s.overflowY !== "visible");
+      if (clipsX || clipsY) {
+        const r = anc.getBoundingClientRect();
+        const over = Math.max(
+          clipsX ? r.left - box.left : 0,
+          clipsX ? box.right - r.right : 0,
+          clipsY ? r.top - box.top : 0,
+          clipsY ? box.bottom - r.bottom : 0,
+        );
+        if (over > SLACK && !titled(parent, anc, text)) {
+          found.push(`"${text.trim().slice(0, 60)}" in ${label(parent)} cut by ${label(anc)} by ${Math.round(over)} px`);
+          break;
+        }
+      }
+      if (scrolls) break;
+    }
+  }
+
+  // 2. form controls: the chosen option of a select, the value of an input
+  const canvas = document.createElement("canvas").getContext("2d")!;
+  for (const select of document.querySelectorAll("select")) {
+    if (hidden(select) || select.multiple || select.size > 1) continue;
+    const chosen = select.selectedOptions[0]?.text ?? "";
+    if (!chosen.trim()) continue;
+    const s = getComputedStyle(select);
+    canvas.font = `${s.fontStyle} ${s.fontWeight} ${s.fontSize} ${s.fontFamily}`;
+    const need = canvas.measureText(chosen).width;
+    // the text area: the inner width less the padding (the right padding holds the arrow)
+    const room = select.clientWidth - parseFloat(s.paddingLeft) - parseFloat(s.paddingRight);
+    if (need > room + SLACK && !titled(select, select, chosen)) {
+      found.push(`select "${chosen.slice(0, 60)}" needs ${Math.round(need)} px, has ${Math.round(room)} px`);
+    }
+  }
+  for (const input of document.querySelectorAll<HTMLInputElement>("input[type=text], input[type=number], input:not([type])")) {
+    if (hidden(input) || !input.value) continue;
+    if (input.scrollWidth > input.clientWidth + SLACK && !titled(input, input, input.value)) {
+      found.push(
+        `input "${input.value.slice(0, 60)}" (${input.name || input.id || input.getAttribute("aria-label")}) overflows by ${input.scrollWidth - input.clientWidth} px`,
+      );
+    }
+  }
+
+  // 3. the page itself must not scroll sideways
+  const main = document.querySelector("main");
+  for (const el of [document.documentElement, main]) {
+    if (el && el.scrollWidth > el.clientWidth + SLACK)
+      found.push(`${label(el)} is ${el.scrollWidth - el.clientWidth} px wider than the window`);
+  }
+  return found;
+}
+
+type Visit = { name: string; path: string; ready: (page: Page) => Promise<void> };
+
+async function api<T>(page: Page, method: string, path: string, body?: unknown): Promise<T> {
+  return page.evaluate(
+    async ([m, p, b]) => {
+      const res = await fetch(p as string, {
+        method: m as string,
+        headers: b === undefined ? {} : { "content-type": "application/json" },
+        body: b === undefined ? undefined : JSON.stringify(b),
+      });
+      if (!res.ok) throw new Error(`${m} ${p}: ${res.status} ${await res.text()}`);
+      return res.json();
+    },
+    [method, path, body] as const,
+  ) as Promise<T>;
+}
+
+async function demoIds(page: Page) {
+  const { projects } = await api<{ projects: Array<{ id: string; name: string }> }>(page, "GET", "/api/projects");
+  const project = projects.find((p) => /Ridgeline/.test(p.name))!;
+  const { revisions } = await api<{ revisions: Array<{ id: string; status: string }> }>(
+    page,
+    "GET",
+    `/api/projects/${project.id}/revisions`,
+  );
+  const draft = revisions.find((r) => r.status === "draft")!;
+  const end = Date.now() + 150_000;
+  let studyId = "";
+  while (!studyId) {
+    const { studies } = await api<{ studies: Array<{ id: string; status: string }> }>(page, "GET", `/api/projects/${project.id}/studies`);
+    studyId = studies.find((s) => s.status === "finished")?.id ?? "";
+    if (!studyId && Date.now() > end) throw new Error("the demo study did not finish");
+    if (!studyId) await page.waitForTimeout(1000);
+  }
+  const { suppliers } = await api<{ suppliers: Array<{ id: string; name: string }> }>(page, "GET", "/api/suppliers");
+  const larkfield = suppliers.find((s) => s.name === "Larkfield Assembly")!;
+  const report = await api<{ id: string }>(page, "POST", `/api/studies/${studyId}/reports`, { supplierId: larkfield.id });
+  return { projectId: project.id, draftId: draft.id, studyId, reportId: report.id };
+}
+
+/** The whole of <main> in the picture: the app scrolls inside it, so the window grows for the shot. */
+async function screenshot(page: Page, name: string) {
+  const size = page.viewportSize()!;
+  const height = await page.evaluate(() => document.querySelector("main")?.scrollHeight ?? 0);
+  if (height + 60 > size.height) {
+    await page.setViewportSize({ width: size.width, height: Math.min(height + 60, 6000) });
+    await page.waitForTimeout(400); // charts re-measure their boxes
+  }
+  await viewportShot(page, name);
+  await page.setViewportSize(size);
+}
+
+describe("pages at 1024, 1280 and 1440 px", () => {
+  it("show every name whole at each width", async () => {
+    const { page, problems } = await e2e.session();
+    await signInAs(page, "engineer@example.com");
+    const ids = await demoIds(page);
+
+    const visits: Visit[] = [
+      { name: "projects", path: "/projects", ready: (p) => p.getByRole("table", { name: "Projects" }).waitFor() },
+      {
+        name: "project",
+        path: `/projects/${ids.projectId}`,
+        ready: (p) => p.getByRole("table", { name: "Stack revisions" }).waitFor(),
+      },
+      {
+        name: "stack-editor",
+        path: `/projects/${ids.projectId}/revisions/${ids.draftId}`,
+        ready: async (p) => {
+          await p.getByRole("tree", { name: "Elements" }).waitFor();
+          await p.waitForFunction(
+            () => /^Updated in/.test(document.querySelector('[data-testid="estimate-status"]')?.textContent?.trim() ?? ""),
+            undefined,
+            {
+              timeout: 30_000,
+            },
+          );
+          await p.locator("canvas").first().waitFor({ timeout: 30_000 });
+        },
+      },
+      {
+        name: "study",
+        path: `/projects/${ids.projectId}/studies/${ids.studyId}`,
+        ready: (p) => p.getByRole("list", { name: "Requirements" }).waitFor({ timeout: 30_000 }),
+      },
+      {
+        name: "reports",
+        path: "/reports",
+        ready: (p) =>
+          p
+            .getByRole("link", { name: /TR-0001/ })
+            .first()
+            .waitFor(),
+      },
+      { name: "report", path: `/reports/${ids.reportId}`, ready: (p) => p.getByRole("heading", { name: "TR-0001 revision 1" }).waitFor() },
+    ];
+
+    const failures: string[] = [];
+    for (const visit of visits) {
+      await page.setViewportSize({ width: WIDTHS[0], height: HEIGHT });
+      await page.goto(visit.path);
+      await visit.ready(page);
+      for (const width of WIDTHS) {
+        await page.setViewportSize({ width, height: HEIGHT });
+        await page.evaluate(() => document.fonts.ready);
+        await page.waitForTimeout(300); // resize observers (charts, the 3D view) settle
+        for (const f of new Set(await page.evaluate(clippedText))) failures.push(`${visit.name} @ ${width}: ${f}`);
+        await screenshot(page, `width-${visit.name}-${width}`);
+      }
+    }
+    expect(failures).toEqual([]);
+    expect(unexpectedProblems(problems)).toEqual([]);
+  }, 300_000); // the demo study may still be running at the start; 6 pages × 3 widths with pictures
+});
