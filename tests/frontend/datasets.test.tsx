@@ -2,6 +2,7 @@ import { describe, expect, it, vi, afterEach } from "vitest";
 import { cleanup, fireEvent, screen, waitFor, within } from "@testing-library/react";
 import { uploadDataset } from "@frontend/features/datasets/api/upload-dataset";
 import { DatasetsPanel } from "@frontend/features/datasets/components/datasets-panel";
+import { ReportMeasurements } from "@frontend/features/datasets/components/report-measurements";
 import { failOnConsoleError, jsonResponse, renderWithApp } from "./helpers";
 import { niceTicks } from "@frontend/features/datasets/lib/ticks";
 import { formatMeasure, formatMeasureUnit, formatPpm } from "@shared/format";
@@ -107,5 +108,46 @@ describe("the data sets panel", () => {
     renderWithApp(<DatasetsPanel projectId={PROJECT} canWrite={false} />);
     await screen.findByText("No measurements yet");
     expect(screen.queryByRole("button", { name: "Upload measurements" })).toBeNull();
+  });
+});
+
+describe("measurements sent for a report", () => {
+  failOnConsoleError();
+  const REPORT = DATASET.report.id;
+
+  it("sends the lot and the note with the file, and lists the uploads by lot with their notes", async () => {
+    const sent: FormData[] = [];
+    const uploads = [
+      { ...DATASET, id: "44444444-4444-4444-8444-444444444441", name: "lot-a-1.csv", lot: "A-17", note: "first 40 units" },
+      { ...DATASET, id: "44444444-4444-4444-8444-444444444442", name: "loose.csv" },
+      { ...DATASET, id: "44444444-4444-4444-8444-444444444443", name: "lot-a-2.csv", lot: "A-17", note: null },
+    ];
+    vi.spyOn(globalThis, "fetch").mockImplementation(async (input, init) => {
+      if ((init?.method ?? "GET") === "POST") {
+        sent.push(init!.body as FormData);
+        return jsonResponse(201, { ...DATASET, name: "lot-b.csv", lot: "B-02", note: "after rework" });
+      }
+      return jsonResponse(200, { datasets: uploads });
+    });
+    const { container } = renderWithApp(<ReportMeasurements reportId={REPORT} canSend />);
+
+    const lotA = await screen.findByRole("list", { name: "Measurements sent for this report, Lot A-17" });
+    expect(
+      within(lotA)
+        .getAllByRole("listitem")
+        .map((li) => li.querySelector("span")?.textContent),
+    ).toEqual(["lot-a-1.csv", "lot-a-2.csv"]);
+    expect(within(lotA).getByText("first 40 units")).toBeTruthy();
+    const none = screen.getByRole("list", { name: "Measurements sent for this report, No lot given" });
+    expect(within(none).getByText("loose.csv")).toBeTruthy();
+
+    fireEvent.change(screen.getByLabelText("Lot of the measured units"), { target: { value: " B-02 " } });
+    fireEvent.change(screen.getByLabelText("Note for the engineer"), { target: { value: "after rework" } });
+    const file = container.querySelector('input[type="file"]') as HTMLInputElement;
+    fireEvent.change(file, { target: { files: [new File(["v [um]\n1\n"], "lot-b.csv", { type: "text/csv" })] } });
+    await waitFor(() => expect(sent).toHaveLength(1));
+    expect(sent[0].get("lot")).toBe("B-02");
+    expect(sent[0].get("note")).toBe("after rework");
+    expect(sent[0].get("file")).toBeInstanceOf(File);
   });
 });

@@ -1,7 +1,8 @@
-import { useRef, type ChangeEvent } from "react";
+import { useRef, useState, type ChangeEvent } from "react";
 import { DATASET_MAX_BYTES } from "@shared/schemas/datasets";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
+import { Input } from "@frontend/components/ui/field";
 import { PlusIcon } from "@frontend/components/ui/icons";
 import { Panel } from "@frontend/components/ui/panel";
 import { Spinner } from "@frontend/components/ui/spinner";
@@ -19,13 +20,15 @@ export function ReportMeasurements({ reportId, canSend }: { reportId: string; ca
   const list = useReportDatasets(reportId);
   const send = useUploadReportDataset();
   const input = useRef<HTMLInputElement>(null);
+  const [lot, setLot] = useState("");
+  const [note, setNote] = useState("");
 
   function onFile(e: ChangeEvent<HTMLInputElement>) {
     const file = e.target.files?.[0];
     e.target.value = "";
     if (!file) return;
     send.reset();
-    send.mutate({ reportId, file });
+    send.mutate({ reportId, file, lot, note }, { onSuccess: () => setNote("") });
   }
 
   const rows = list.data ?? [];
@@ -37,6 +40,24 @@ export function ReportMeasurements({ reportId, canSend }: { reportId: string; ca
       actions={
         canSend ? (
           <>
+            <Input
+              compact
+              aria-label="Lot of the measured units"
+              placeholder="Lot (optional)"
+              value={lot}
+              onChange={(e) => setLot(e.target.value)}
+              className="w-32"
+              maxLength={100}
+            />
+            <Input
+              compact
+              aria-label="Note for the engineer"
+              placeholder="Note (optional)"
+              value={note}
+              onChange={(e) => setNote(e.target.value)}
+              className="w-48"
+              maxLength={2000}
+            />
             <input
               ref={input}
               type="file"
@@ -79,18 +100,39 @@ export function ReportMeasurements({ reportId, canSend }: { reportId: string; ca
         ) : rows.length === 0 ? (
           <p className="text-[13px] text-ink/55">Nothing sent yet.</p>
         ) : (
-          <ul className="flex flex-col divide-y divide-line/70 text-[13px]" aria-label="Measurements sent for this report">
-            {rows.map((d) => (
-              <li key={d.id} className="flex flex-wrap items-baseline justify-between gap-2 py-1.5">
-                <span className="font-semibold text-ink">{d.name}</span>
-                <span className="text-xs text-ink/60 tabular-nums">
-                  {formatCount(d.rows)} rows · {d.uploadedByName ?? "a removed member"} · {formatDateTime(d.createdAt)}
-                </span>
-              </li>
+          <div className="flex flex-col gap-2">
+            {byLot(rows).map(([group, items]) => (
+              <section key={group} aria-label={group}>
+                <h4 className="text-2xs font-bold tracking-[0.08em] text-ink/50 uppercase">{group}</h4>
+                <ul
+                  className="flex flex-col divide-y divide-line/70 text-[13px]"
+                  aria-label={`Measurements sent for this report, ${group}`}
+                >
+                  {items.map((d) => (
+                    <li key={d.id} className="flex flex-wrap items-baseline justify-between gap-x-2 py-1.5">
+                      <span className="font-semibold break-all text-ink">{d.name}</span>
+                      <span className="text-xs text-ink/60 tabular-nums">
+                        {formatCount(d.rows)} rows · {d.uploadedByName ?? "a removed member"} · {formatDateTime(d.createdAt)}
+                      </span>
+                      {d.note ? <p className="w-full text-xs break-words text-ink/70">{d.note}</p> : null}
+                    </li>
+                  ))}
+                </ul>
+              </section>
             ))}
-          </ul>
+          </div>
         )}
       </div>
     </Panel>
   );
+}
+
+/** The uploads by the lot they were sent for (in order of first appearance), those without a lot last. */
+function byLot<T extends { lot: string | null }>(rows: T[]): Array<[string, T[]]> {
+  const groups = new Map<string, T[]>();
+  for (const d of rows) {
+    const key = d.lot ? `Lot ${d.lot}` : "No lot given";
+    groups.set(key, [...(groups.get(key) ?? []), d]);
+  }
+  return [...groups].sort(([a], [b]) => Number(a === "No lot given") - Number(b === "No lot given"));
 }
