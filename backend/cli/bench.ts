@@ -103,7 +103,7 @@ async function api() {
       const r = await autocannon({ url: `${url}/api/projects`, connections: 50, duration: apiSeconds, headers: { cookie } });
       const failed = r.errors + r.timeouts + r.non2xx;
       out(
-        `${label.padEnd(34)} ${fmt(r.requests.average).padStart(7)} reads/s   p99 ${String(r.latency.p99).padStart(5)} ms   failed ${failed}   (${fmt(r.requests.total)} requests, ${load()})`,
+        `${label.padEnd(34)} ${fmt(r.requests.average).padStart(7)} reads/s   p99 ${String(r.latency.p99).padStart(5)} ms   failed ${failed} (errors ${r.errors}, timeouts ${r.timeouts}, non-2xx ${r.non2xx})   (${fmt(r.requests.total)} requests, ${load()})`,
       );
       return r.requests.average;
     };
