@@ -4,6 +4,7 @@ import { buildClientIfNeeded, mountDevClient, mountStaticClient } from "./client
 import { parseEnv } from "./lib/env";
 import { consoleSink, createLog } from "./lib/log";
 import { createRuntime, startRuntime, stopRuntime } from "./runtime";
+import { keepConnectionsLonger } from "./lib/http-server";
 
 const env = parseEnv();
 const log = createLog(consoleSink);
@@ -25,11 +26,13 @@ const app = createApp(deps, {
 });
 if (devApp) await mountDevClient(devApp);
 
-const server = app.listen(env.PORT, env.HOST, () => {
-  log(
-    `serving on ${deps.baseURL} (data ${runtime.handle.kind === "postgres" ? "in the PostgreSQL server of DATABASE_URL" : `in ${env.DATA_DIR}`})`,
-  );
-});
+const server = keepConnectionsLonger(
+  app.listen(env.PORT, env.HOST, () => {
+    log(
+      `serving on ${deps.baseURL} (data ${runtime.handle.kind === "postgres" ? "in the PostgreSQL server of DATABASE_URL" : `in ${env.DATA_DIR}`})`,
+    );
+  }),
+);
 
 let stopping = false;
 const stop = async () => {

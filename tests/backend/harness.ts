@@ -9,6 +9,7 @@ import { studies } from "@backend/db/schema";
 import { DEMO_SEED_STEPS } from "@backend/demo/steps";
 import type { AppDeps, Clock } from "@backend/deps";
 import { mailSettings } from "@backend/lib/env";
+import { keepConnectionsLonger } from "@backend/lib/http-server";
 import { assembleRuntime, startRuntime, stopRuntime } from "@backend/runtime";
 import { DEMO_PASSWORD, type SeedStep } from "@backend/seed";
 import type { StudyRunner, StudyScheduler } from "@backend/services/study-queue";
@@ -90,7 +91,7 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
   await startRuntime(runtime);
   const app = createApp(deps);
   const server: Server = await new Promise((resolve) => {
-    const s = app.listen(0, "127.0.0.1", () => resolve(s));
+    const s = keepConnectionsLonger(app.listen(0, "127.0.0.1", () => resolve(s)));
   });
   const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
 
