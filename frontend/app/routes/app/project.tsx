@@ -92,7 +92,7 @@ export function ProjectRoute() {
         </Fact>
       </dl>
 
-      <div className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_320px]">
+      <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_320px]">
         <div className="grid content-start gap-4 md:grid-cols-2">
           <RevisionsPanel projectId={project.id} projectName={project.name} canWrite={can(me.role, "revisions.write")} />
           <StudiesPanel projectId={project.id} canRun={can(me.role, "studies.run")} />
