@@ -5,7 +5,7 @@ import type { CreateInvitationSchema, Invitation, Member, Role, UpdateMemberSche
 import type { Auth } from "../auth";
 import type { Database } from "../db/client";
 import type { AppDeps, Clock } from "../deps";
-import { invitations, members, suppliers, users, workspaces } from "../db/schema";
+import { invitations, members, supplierContacts, suppliers, users, workspaces } from "../db/schema";
 import { badRequest, conflict, found, HttpError } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { createAccount, endSessions, renewAccount } from "../lib/accounts";
@@ -212,6 +212,20 @@ export async function acceptInvitation(db: Database, auth: Auth, clock: Clock, t
         role: invitation.role,
         supplierId: invitation.supplierId,
       });
+      // An invited supplier user is one of the company's contacts: reports are sent to them.
+      if (invitation.supplierId) {
+        const [known] = await tx
+          .select({ id: supplierContacts.id })
+          .from(supplierContacts)
+          .where(
+            and(
+              eq(supplierContacts.supplierId, invitation.supplierId),
+              sql`lower(${supplierContacts.email}) = ${invitation.email.toLowerCase()}`,
+            ),
+          );
+        if (!known)
+          await tx.insert(supplierContacts).values({ supplierId: invitation.supplierId, name: input.name, email: invitation.email });
+      }
     });
   } catch (e) {
     if (!existing) await db.delete(users).where(eq(users.id, user.id));

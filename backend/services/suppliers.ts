@@ -2,7 +2,7 @@ import { and, asc, eq, inArray } from "drizzle-orm";
 import type { z } from "zod";
 import type { CreateContactSchema, CreateSupplierSchema, Supplier, UpdateSupplierSchema } from "@shared/schemas/api";
 import type { Database } from "../db/client";
-import { supplierContacts, suppliers } from "../db/schema";
+import { members, supplierContacts, suppliers, users } from "../db/schema";
 import { conflict, found } from "../lib/errors";
 import { assertVersion, requireVersion, writeVersioned } from "../lib/versions";
 
@@ -21,13 +21,24 @@ export async function listSuppliers(db: Database, workspaceId: string, onlyId?: 
   const contacts = ids.length
     ? await db.select().from(supplierContacts).where(inArray(supplierContacts.supplierId, ids)).orderBy(asc(supplierContacts.name))
     : [];
+  // which contacts can sign in: a supplier member of this workspace, of the same company, with the same address
+  const accounts = ids.length
+    ? await db
+        .select({ supplierId: members.supplierId, email: users.email })
+        .from(members)
+        .innerJoin(users, eq(users.id, members.userId))
+        .where(and(eq(members.workspaceId, workspaceId), inArray(members.supplierId, ids)))
+    : [];
+  const withAccount = new Set(accounts.map((a) => `${a.supplierId}|${a.email.toLowerCase()}`));
   return rows.map((s) => ({
     id: s.id,
     name: s.name,
     kind: s.kind,
     createdAt: s.createdAt.toISOString(),
     version: s.version,
-    contacts: contacts.filter((c) => c.supplierId === s.id).map((c) => ({ id: c.id, name: c.name, email: c.email })),
+    contacts: contacts
+      .filter((c) => c.supplierId === s.id)
+      .map((c) => ({ id: c.id, name: c.name, email: c.email, hasAccount: withAccount.has(`${s.id}|${c.email.toLowerCase()}`) })),
   }));
 }
 

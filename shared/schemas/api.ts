@@ -65,7 +65,12 @@ export const UpdateProjectSchema = z
 export type UpdateProject = z.infer<typeof UpdateProjectSchema>;
 
 // ---- suppliers --------------------------------------------------------------
-export const SupplierContactSchema = z.object({ id: IdSchema, name: text(), email: text() });
+export const SupplierContactSchema = z.object({
+  id: IdSchema,
+  name: text(),
+  email: text(),
+  /** the contact can sign in (a supplier member with this address) */ hasAccount: z.boolean(),
+});
 export const SupplierSchema = z.object({
   id: IdSchema,
   name: text(),

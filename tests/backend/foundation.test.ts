@@ -192,6 +192,35 @@ describe("invitations", () => {
     expect(dup.status).toBe(409);
   });
 
+  it("an invited supplier user becomes a contact of their company, and the admin sees which contacts can sign in", async () => {
+    const supplier = (await t.call("GET", "/api/suppliers", { cookie: cookies.admin })).body.suppliers[0];
+    const before = supplier.contacts.length;
+    const inv = await t.call("POST", "/api/invitations", {
+      cookie: cookies.admin,
+      body: { email: "Line.Lead@Supplier.example", role: "supplier", supplierId: supplier.id },
+    });
+    expect(inv.status).toBe(201);
+    const token = inv.body.link.split("/invite/")[1];
+    const acc = await t.call("POST", `/api/invitations/by-token/${token}/accept`, {
+      body: { name: "Line Lead", password: "a-long-enough-password" },
+    });
+    expect(acc.status).toBe(200);
+    const after = (await t.call("GET", `/api/suppliers/${supplier.id}`, { cookie: cookies.admin })).body;
+    expect(after.contacts).toHaveLength(before + 1);
+    expect(after.contacts.find((c: { email: string }) => c.email === "line.lead@supplier.example")).toMatchObject({
+      name: "Line Lead",
+      hasAccount: true,
+    });
+    // a contact typed in by the admin has no account until someone signs up with that address
+    const added = await t.call("POST", `/api/suppliers/${supplier.id}/contacts`, {
+      cookie: cookies.admin,
+      body: { name: "Quality inbox", email: "quality.inbox@supplier.example" },
+    });
+    expect(added.status).toBeLessThan(300);
+    const listed = (await t.call("GET", `/api/suppliers/${supplier.id}`, { cookie: cookies.admin })).body.contacts;
+    expect(listed.find((c: { email: string }) => c.email === "quality.inbox@supplier.example").hasAccount).toBe(false);
+  });
+
   it("a revoked invitation cannot be used", async () => {
     const inv = await t.call("POST", "/api/invitations", { cookie: cookies.admin, body: { email: "gone@example.com", role: "engineer" } });
     expect((await t.call("DELETE", `/api/invitations/${inv.body.id}`, { cookie: cookies.admin })).status).toBe(204);
@@ -220,7 +249,7 @@ describe("members and suppliers", () => {
     });
     expect(c.status).toBe(201);
     const got = await t.call("GET", `/api/suppliers/${s.body.id}`, { cookie: cookies.engineer });
-    expect(got.body.contacts).toEqual([{ id: c.body.id, name: "Io", email: "io@brackwater.example" }]);
+    expect(got.body.contacts).toEqual([{ id: c.body.id, name: "Io", email: "io@brackwater.example", hasAccount: false }]);
     const bad = await t.call("POST", "/api/suppliers", { cookie: cookies.admin, body: { name: "Y", kind: "bakery" } });
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields[0].path).toBe("kind");

@@ -64,6 +64,16 @@ export function SupplierCard({ supplier, canManage }: { supplier: Supplier; canM
                   {contact.email}
                 </a>
               </div>
+              <span
+                className={
+                  contact.hasAccount
+                    ? "shrink-0 rounded-full bg-pass/10 px-2 py-0.5 text-[11px] font-semibold text-pass"
+                    : "shrink-0 text-[11px] text-ink/45"
+                }
+                title={contact.hasAccount ? "Signs in to Orthostack as a supplier user" : "Receives reports by mail; no account"}
+              >
+                {contact.hasAccount ? "has an account" : "mail only"}
+              </span>
               {canManage ? (
                 <IconButton
                   label={`Remove ${contact.name}`}
