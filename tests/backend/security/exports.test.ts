@@ -9,6 +9,7 @@ import ExcelJS from "exceljs";
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { projects } from "@backend/db/schema";
+import { csvCell, inertText } from "@backend/services/report-sheets";
 import { startTestApp, type TestApp } from "../harness";
 import { insertFinishedStudy, ownedStack, LARKFIELD } from "../report-fixtures";
 
@@ -109,8 +110,10 @@ describe("the report CSV neutralises formulas", () => {
     expect(fact(rows, "Supplier")).toBe(`'${NAMES.supplier}`);
     expect(fact(rows, "Stack name")).toBe(`'${NAMES.stack}`);
     expect(fact(rows, "Prepared by")).toBe(`'${NAMES.engineer}`);
-    expect(fact(rows, "Released by")).toBe(`'${NAMES.reviewer}`);
-    const start = rows.findIndex((r) => r.length === 1 && r[0] === "Tolerances");
+    // names set through the auth routes are trimmed first (a leading CR never reaches the file);
+    // what remains still starts a formula and is neutralised
+    expect(fact(rows, "Released by")).toBe(`'${NAMES.reviewer.trim()}`);
+    const start = rows.findIndex((r) => r.length === 1 && r[0].startsWith("Tolerances"));
     const head = rows[start + 1];
     const gyro = rows.slice(start + 2).find((r) => r[0] === "gyro.bondLine")!;
     expect(gyro[head.indexOf("Element")]).toBe(`'${NAMES.element}`);
@@ -120,17 +123,30 @@ describe("the report CSV neutralises formulas", () => {
 
   it("numbers stay numbers, negative ones too", () => {
     const rows = parseCsv(csv);
-    const start = rows.findIndex((r) => r.length === 1 && r[0] === "Tolerances");
-    const head = rows[start + 1];
-    const end = rows.findIndex((r, i) => i > start && r.length === 1 && r[0] === "");
-    const body = rows.slice(start + 2, end);
-    expect(body.length).toBeGreaterThan(0);
-    const lower = body.map((r) => r[head.indexOf("Lower limit")]);
+    // each tolerance table (one per unit) under its title, up to the blank line
+    const lower: string[] = [];
+    rows.forEach((r, start) => {
+      if (r.length !== 1 || !r[0].startsWith("Tolerances")) return;
+      const head = rows[start + 1];
+      const at = head.findIndex((h) => h.startsWith("Lower limit"));
+      expect(at, head.join(",")).toBeGreaterThanOrEqual(0);
+      const end = rows.findIndex((x, k) => k > start && x.length === 1 && x[0] === "");
+      lower.push(...rows.slice(start + 2, end).map((x) => x[at]));
+    });
+    expect(lower.length).toBeGreaterThan(0);
     expect(lower.some((v) => v.startsWith("-"))).toBe(true);
     for (const v of lower) expect(Number.isFinite(Number(v))).toBe(true);
     expect(fact(rows, "Stack revision")).toBe("1");
     // the only cells starting with "-" are numbers
     for (const r of rows) for (const cell of r) if (cell.startsWith("-")) expect(Number.isFinite(Number(cell))).toBe(true);
+  });
+
+  it("a cell starting with a tab or a carriage return is neutralised too, and stays one quoted CSV field", () => {
+    expect(inertText("\r=2*3")).toBe("'\r=2*3");
+    expect(inertText("\t=1+2")).toBe("'\t=1+2");
+    expect(csvCell("\r=2*3")).toBe(`"'\r=2*3"`);
+    expect(csvCell(-2.5)).toBe("-2.5");
+    expect(inertText("plain name")).toBe("plain name");
   });
 
   it("the workbook keeps each name as a text cell, never a formula", async () => {
@@ -142,7 +158,7 @@ describe("the report CSV neutralises formulas", () => {
         row.eachCell((cell) => {
           expect(cell.type).not.toBe(ExcelJS.ValueType.Formula);
           expect(cell.formula).toBeUndefined();
-          if (Object.values(NAMES).includes(String(cell.value))) {
+          if (Object.values(NAMES).some((n) => n === String(cell.value) || n.trim() === String(cell.value))) {
             expect(cell.type).toBe(ExcelJS.ValueType.String);
             names++;
           }
