@@ -26,7 +26,8 @@ export default defineConfig({
   test: {
     root: here("."),
     // Vitest's default on 2 cores is one worker (cores - 1), which runs every file one after the
-    // other; the browser files mostly wait on their own server and chromium processes.
+    // other. The browser files (one at a time, fileParallelism false below) mostly wait on their
+    // own server and chromium processes, so a second worker runs the other projects beside them.
     maxWorkers: 2,
     projects: [
       {
@@ -85,9 +86,7 @@ export default defineConfig({
           include: ["tests/e2e/**/*.test.ts"],
           testTimeout: 120_000,
           hookTimeout: 180_000,
-          // Browser files share the two workers with every other project (each file has its own
-          // server on a free port, its own data folder and its own chromium), so the run is not a
-          // long single-file tail after the rest.
+          fileParallelism: false,
         },
       },
     ],
