@@ -26,8 +26,9 @@ export default defineConfig({
   test: {
     root: here("."),
     // Vitest's default on 2 cores is one worker (cores - 1), which runs every file one after the
-    // other. The browser files (one at a time, fileParallelism false below) mostly wait on their
-    // own server and chromium processes, so a second worker runs the other projects beside them.
+    // other. Two workers run the engine, backend and client files side by side; the browser files
+    // (fileParallelism false below) then run one at a time, as vitest puts them in a group of their
+    // own after the rest: two of them at once on 2 cores made their timeouts miss.
     maxWorkers: 2,
     projects: [
       {
