@@ -96,7 +96,13 @@ export async function addContact(
       await writeVersioned(tx, suppliers, supplierId, expected, `The supplier “${s.name}”`);
       return c;
     });
-    return { id: row.id, name: row.name, email: row.email };
+    // a supplier user of this company may already sign in with this address
+    const [account] = await db
+      .select({ id: users.id })
+      .from(members)
+      .innerJoin(users, eq(users.id, members.userId))
+      .where(and(eq(members.workspaceId, workspaceId), eq(members.supplierId, supplierId), eq(users.email, row.email.toLowerCase())));
+    return { id: row.id, name: row.name, email: row.email, hasAccount: account !== undefined };
   } catch (e) {
     if (isUniqueViolation(e)) throw conflict(`${input.email} is already a contact of this supplier.`, "duplicate_contact");
     throw e;
