@@ -15,7 +15,7 @@ import { outboxMessages } from "@backend/db/schema";
 import { REPORT_CAUTIONS } from "@shared/reports/cautions";
 import { createAccount } from "@backend/lib/accounts";
 import { startTestApp, type TestApp } from "./harness";
-import { insertFinishedStudy, LARKFIELD, ownedStack, resultFor } from "./report-fixtures";
+import { insertFinishedStudy, LARKFIELD, ownedStack, parseCsv, resultFor } from "./report-fixtures";
 
 const LARKFIELD_SOURCES = [
   "asic.bondLine",
@@ -62,36 +62,6 @@ function png(w: number, h: number, rgb: [number, number, number]): string {
     chunk("IEND", Buffer.alloc(0)),
   ]);
   return `data:image/png;base64,${file.toString("base64")}`;
-}
-
-/** RFC 4180 rows (quoted fields may hold commas, quotes and line breaks). */
-function parseCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let cell = "";
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const ch = text[i];
-    if (quoted) {
-      if (ch === '"' && text[i + 1] === '"') {
-        cell += '"';
-        i++;
-      } else if (ch === '"') quoted = false;
-      else cell += ch;
-    } else if (ch === '"') quoted = true;
-    else if (ch === ",") {
-      row.push(cell);
-      cell = "";
-    } else if (ch === "\r" && text[i + 1] === "\n") {
-      row.push(cell);
-      rows.push(row);
-      row = [];
-      cell = "";
-      i++;
-    } else cell += ch;
-  }
-  if (cell || row.length) rows.push([...row, cell]);
-  return rows;
 }
 
 async function download(t: TestApp, path: string, cookie: string) {

