@@ -224,6 +224,43 @@ describe("the element tree", () => {
     expect(latest.stack.elements.some((e) => e.id === "spacer")).toBe(false);
   });
 
+  it("marks each element that has a geometry warning, and only those, as the stack changes", () => {
+    const d = doc();
+    // mag moved to x = 0.4 on accel hangs 0.1 mm past its edge (see the element form's test above)
+    d.stack.elements[magIndex].position = { x: 0.4, y: 0 };
+    render(
+      <Harness initial={d} selected="asic">
+        <ElementTree />
+      </Harness>,
+    );
+    const marked = () =>
+      screen
+        .getAllByRole("treeitem")
+        .filter((li) => li.getAttribute("data-geometry-warnings"))
+        .map((li) => li.getAttribute("data-id"))
+        .sort();
+    // the reference ASIC (2.4 mm wide at x = 0.25 on the 3 mm package) keeps only 0.05 mm to the edge
+    expect(marked()).toEqual(["asic", "mag"]);
+    expect(screen.getByTestId("geometry-mark-asic").getAttribute("title")).toMatch(/"asic" is 0\.05 mm from the edge of "pkg"/);
+    const mag = screen.getByRole("treeitem", { name: /^mag, .*, 1 geometry warning$/ });
+    expect(within(mag).getByTestId("geometry-mark-mag").getAttribute("title")).toMatch(
+      /"mag" hangs 0\.1 mm past the edge of its parent "accel"/,
+    );
+    expect(screen.getByRole("treeitem", { name: /^gyro, / }).getAttribute("aria-label")).not.toMatch(/geometry/);
+
+    // a spacer added on the ASIC lands on the gyro's place (the gyro spans x -1.1 to 0.5 mm):
+    // both are marked, each with the overlap named from its side
+    fireEvent.click(screen.getByRole("button", { name: "Add on asic" }));
+    fireEvent.click(screen.getByRole("menuitem", { name: "Spacer" }));
+    expect(marked()).toEqual(["asic", "gyro", "mag", "spacer"]);
+    expect(screen.getByTestId("geometry-mark-gyro").getAttribute("title")).toMatch(/the footprint of "gyro" overlaps "spacer"/);
+    expect(screen.getByTestId("geometry-mark-spacer").getAttribute("title")).toMatch(/the footprint of "spacer" overlaps "gyro"/);
+
+    // removing it again clears both marks
+    fireEvent.click(screen.getByRole("button", { name: "Remove spacer" }));
+    expect(marked()).toEqual(["asic", "mag"]);
+  });
+
   it("offers no changes when read only", () => {
     render(
       <Harness initial={doc()} readOnly selected="asic">

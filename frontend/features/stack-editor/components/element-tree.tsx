@@ -30,7 +30,7 @@ const ArrowIcon = ({ dir }: { dir: "up" | "down" }) => (
 );
 
 export function ElementTree() {
-  const { doc, issues, selectedId, select, update, readOnly } = useEditor();
+  const { doc, issues, selectedId, select, update, readOnly, warnings } = useEditor();
   const rows = useMemo(() => treeRows(doc.stack), [doc.stack]);
   const selected = rows.find((r) => r.id === selectedId) ?? null;
   const listRef = useRef<HTMLUListElement>(null);
@@ -73,6 +73,9 @@ export function ElementTree() {
       <ul ref={listRef} role="tree" aria-label="Elements" className="min-h-0 flex-1 overflow-y-auto py-1.5" onKeyDown={onKey}>
         {rows.map((r) => {
           const problems = issues.elements.get(r.index)?.length ?? 0;
+          // geometry warnings never block saving: marked apart from problems, in the warning colour
+          const slips = warnings.get(r.index) ?? [];
+          const slipText = slips.map((w) => w.message).join("\n");
           const isSel = r.id === selectedId;
           return (
             <li
@@ -80,7 +83,11 @@ export function ElementTree() {
               role="treeitem"
               aria-level={r.depth + 1}
               aria-selected={isSel}
-              aria-label={`${r.id}, ${KIND_SHORT[r.kind] ?? r.kind}${problems ? `, ${problems} problem${problems === 1 ? "" : "s"}` : ""}`}
+              aria-label={`${r.id}, ${KIND_SHORT[r.kind] ?? r.kind}${problems ? `, ${problems} problem${problems === 1 ? "" : "s"}` : ""}${
+                slips.length ? `, ${slips.length} geometry warning${slips.length === 1 ? "" : "s"}` : ""
+              }`}
+              aria-description={slips.length ? slipText : undefined}
+              data-geometry-warnings={slips.length || undefined}
               data-id={r.id}
               tabIndex={isSel || (!selectedId && r.depth === 0) ? 0 : -1}
               onClick={() => select(r.id)}
@@ -110,10 +117,27 @@ export function ElementTree() {
               />
               <span className="max-w-[70%] shrink-0 truncate font-semibold">{r.id || "(no id)"}</span>
               <span className={cn("min-w-0 truncate text-[11px]", isSel ? "text-paper/60" : "text-ink/45")}>{KIND_SHORT[r.kind]}</span>
+              {slips.length ? (
+                <span
+                  className={cn(
+                    "ml-auto flex h-4 shrink-0 items-center gap-0.5 rounded-full px-1 text-[10px] font-bold",
+                    isSel ? "bg-paper text-warn" : "bg-warn/15 text-warn",
+                  )}
+                  title={slipText}
+                  aria-hidden="true"
+                  data-testid={`geometry-mark-${r.id}`}
+                >
+                  <svg width="10" height="10" viewBox="0 0 16 16" fill="currentColor" aria-hidden="true">
+                    <path d="M8 1.5 15 14.5H1Z" />
+                  </svg>
+                  {slips.length}
+                </span>
+              ) : null}
               {problems ? (
                 <span
                   className={cn(
-                    "ml-auto flex h-4 min-w-4 items-center justify-center rounded-full px-1 text-[10px] font-bold",
+                    "flex h-4 min-w-4 items-center justify-center rounded-full px-1 text-[10px] font-bold",
+                    slips.length ? "" : "ml-auto",
                     isSel ? "bg-paper text-fail" : "bg-fail text-white",
                   )}
                   title={`${problems} problem${problems === 1 ? "" : "s"}`}
@@ -122,7 +146,7 @@ export function ElementTree() {
                   {problems}
                 </span>
               ) : r.orphan ? (
-                <span className="ml-auto text-[10px] font-bold text-fail">no parent</span>
+                <span className={cn("text-[10px] font-bold text-fail", slips.length ? "" : "ml-auto")}>no parent</span>
               ) : null}
             </li>
           );
