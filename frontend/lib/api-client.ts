@@ -121,6 +121,7 @@ export const api = {
     apiRequest(path, schema, { method: "POST", body, version }),
   patch: <S extends z.ZodType>(path: string, body: unknown, schema: S, version?: number) =>
     apiRequest(path, schema, { method: "PATCH", body, version }),
+  put: <S extends z.ZodType>(path: string, body: unknown, schema: S) => apiRequest(path, schema, { method: "PUT", body }),
   delete: (path: string) => apiRequest(path, null, { method: "DELETE" }),
 };
 

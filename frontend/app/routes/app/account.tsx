@@ -2,8 +2,9 @@ import { PageHeader } from "@frontend/components/ui/page-header";
 import { Panel } from "@frontend/components/ui/panel";
 import { useMe } from "@frontend/features/auth/api/get-me";
 import { ChangePasswordForm, NameForm } from "@frontend/features/auth/components/password-forms";
+import { NotificationMailSettings } from "@frontend/features/notifications";
 
-/** The signed-in person's own account: their name and password. Every role has it. */
+/** The signed-in person's own account: their name, password and which notifications reach them by e-mail. Every role has it. */
 export function AccountRoute() {
   const me = useMe();
   return (
@@ -15,6 +16,9 @@ export function AccountRoute() {
         </Panel>
         <Panel title="Password">
           <ChangePasswordForm />
+        </Panel>
+        <Panel title="Notifications by e-mail" className="lg:col-span-2">
+          <NotificationMailSettings role={me.role} />
         </Panel>
       </div>
     </>
