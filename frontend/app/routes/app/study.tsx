@@ -15,7 +15,7 @@ import { StudyStatusBadge, VerdictBadge } from "@frontend/features/studies/compo
 import { StudyProgress } from "@frontend/features/studies/components/study-progress";
 import { RunRecord } from "@frontend/features/studies/components/run-record";
 import { StudyResults } from "@frontend/features/studies/components/study-results";
-import { downloadResultFile } from "@frontend/features/studies/lib/download";
+import { downloadResultFile, studyFileBase } from "@frontend/features/studies/lib/download";
 import { isApiError } from "@frontend/lib/api-client";
 import { formatDateTime } from "@frontend/lib/format";
 import { can } from "@frontend/lib/permissions";
@@ -177,7 +177,7 @@ export function StudyRoute() {
       ) : null}
 
       {result ? (
-        <StudyResults study={study} result={result} />
+        <StudyResults study={study} result={result} fileBase={studyFileBase(project.name, study.number)} />
       ) : (
         <Panel title="Settings" meta="frozen when the study was queued" className="max-w-3xl">
           <RunRecord study={study} />

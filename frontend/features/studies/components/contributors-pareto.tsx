@@ -1,5 +1,6 @@
 import { useMemo } from "react";
 import { Bar, CartesianGrid, Cell, ComposedChart, Line, Tooltip, XAxis, YAxis } from "recharts";
+import { ChartDownload } from "@frontend/components/ui/chart-download";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { metricLabel } from "@shared/metrics";
@@ -67,6 +68,7 @@ export function ContributorsPanel({
           rows={paretoRows(c, "linear")}
           method="linear"
           colourOf={colourOf}
+          metric={c.metric}
         />
         <ParetoChart
           title="Monte Carlo regression"
@@ -78,6 +80,7 @@ export function ContributorsPanel({
           rows={paretoRows(c, "mc", undefined, significant)}
           method="mc"
           colourOf={colourOf}
+          metric={c.metric}
         />
       </div>
       {c.mcR2 !== null ? (
@@ -100,8 +103,10 @@ function ParetoChart({
   rows,
   method,
   colourOf,
+  metric,
 }: {
   title: string;
+  metric: string;
   note: string;
   rows: ParetoRow[];
   method: ContributorMethod;
@@ -116,7 +121,15 @@ function ParetoChart({
     >
       <figcaption className="flex flex-wrap items-baseline justify-between gap-x-3 px-1">
         <span className="text-[12px] font-bold text-ink">{title}</span>
-        <span className="text-2xs text-ink/55">{rows.length ? `${few} source${few === 1 ? "" : "s"} make 80 %` : ""}</span>
+        <span className="flex items-center gap-2 text-2xs text-ink/55">
+          {rows.length ? `${few} source${few === 1 ? "" : "s"} make 80 %` : ""}
+          {rows.length ? (
+            <ChartDownload
+              name={`contributors-${metric}-${method}`}
+              title={`Contributors to ${metricLabel(metric)}, ${title.toLowerCase()}`}
+            />
+          ) : null}
+        </span>
       </figcaption>
       <p className="px-1 text-2xs text-ink/50">{note}</p>
       {rows.length ? (

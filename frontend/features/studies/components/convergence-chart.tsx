@@ -1,5 +1,6 @@
 import { useMemo, useState } from "react";
 import { Area, CartesianGrid, ComposedChart, Line, LineChart, ReferenceLine, Tooltip, XAxis, YAxis } from "recharts";
+import { ChartDownload } from "@frontend/components/ui/chart-download";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Select } from "@frontend/components/ui/field";
 import { lateDrift, statRows, yieldRows, type ConvergenceStat } from "../lib/convergence";
@@ -81,7 +82,10 @@ export function ConvergencePanel({ result, metric, onMetric }: { result: ResultF
         </div>
       </div>
       <figure data-chart="convergence" aria-label={`Convergence of ${tracked.metric}`} className="min-w-0">
-        <figcaption className="text-[11.5px] font-bold text-ink">{statLabel} of the absolute value</figcaption>
+        <figcaption className="flex items-center justify-between gap-2 text-[11.5px] font-bold text-ink">
+          {statLabel} of the absolute value
+          <ChartDownload name={`convergence-${tracked.metric}`} title={`Convergence of ${metricLabel(tracked.metric)}, ${statLabel}`} />
+        </figcaption>
         <LineChart responsive style={{ width: "100%", height: 170 }} data={data} margin={{ top: 8, right: 14, bottom: 0, left: 4 }}>
           <CartesianGrid {...gridProps} />
           {xAxis}
@@ -122,7 +126,13 @@ export function ConvergencePanel({ result, metric, onMetric }: { result: ResultF
       </figure>
       {yields.length ? (
         <figure data-chart="convergence-yield" aria-label={`Yield convergence of ${tracked.metric}`} className="min-w-0">
-          <figcaption className="text-[11.5px] font-bold text-ink">Predicted yield with its 95 % interval</figcaption>
+          <figcaption className="flex items-center justify-between gap-2 text-[11.5px] font-bold text-ink">
+            Predicted yield with its 95 % interval
+            <ChartDownload
+              name={`yield-convergence-${tracked.metric}`}
+              title={`Predicted yield of ${metricLabel(tracked.metric)} against trials`}
+            />
+          </figcaption>
           <ComposedChart responsive style={{ width: "100%", height: 150 }} data={yields} margin={{ top: 8, right: 14, bottom: 0, left: 4 }}>
             <CartesianGrid {...gridProps} />
             {xAxis}

@@ -1,5 +1,6 @@
 import { useMemo, useState } from "react";
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceLine, Tooltip, XAxis, YAxis } from "recharts";
+import { ChartDownload } from "@frontend/components/ui/chart-download";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { envelopeByTilt, envelopeExtent, type TiltSeries } from "../lib/envelope";
 import { axisLine, axisTick, axisWidthFor, FAIL, gridProps, INK, tooltipStyle } from "./chart-theme";
@@ -142,7 +143,13 @@ function TiltChart({
       data-chart="envelope"
       aria-label={`Heading error envelope, ${tilt.label}`}
     >
-      <figcaption className="px-2 text-[11.5px] font-bold text-ink">{tilt.label}</figcaption>
+      <figcaption className="flex items-center justify-between gap-2 px-2 text-[11.5px] font-bold text-ink">
+        {tilt.label}
+        <ChartDownload
+          name={`heading-envelope-pitch${tilt.pitchDeg}-roll${tilt.rollDeg}`}
+          title={`Heading error envelope, ${tilt.label}`}
+        />
+      </figcaption>
       <ComposedChart responsive style={{ width: "100%", height: 170 }} data={data} margin={{ top: 6, right: 8, bottom: 0, left: 0 }}>
         <CartesianGrid {...gridProps} />
         <XAxis

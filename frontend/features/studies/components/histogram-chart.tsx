@@ -1,5 +1,7 @@
 import { useMemo, useState } from "react";
 import { Bar, BarChart, CartesianGrid, Cell, ReferenceLine, Tooltip, XAxis, YAxis } from "recharts";
+import { ChartDownload } from "@frontend/components/ui/chart-download";
+import { metricLabel } from "@shared/metrics";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { histogramRows, niceTicks } from "../lib/histogram";
 import { axisLine, axisTick, FAIL, gridProps, INK, tooltipStyle } from "./chart-theme";
@@ -60,7 +62,8 @@ export function HistogramPanel({
       </div>
       {h && stats ? (
         <>
-          <figure data-chart="histogram" aria-label={`Histogram of ${metric}`} className="min-w-0">
+          <figure data-chart="histogram" aria-label={`Histogram of ${metric}`} className="relative min-w-0">
+            <ChartDownload name={`histogram-${metric}`} title={`Histogram of ${metricLabel(metric)}`} className="absolute top-0 right-0" />
             <BarChart
               responsive
               style={{ width: "100%", height: 240 }}

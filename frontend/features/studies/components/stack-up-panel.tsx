@@ -1,5 +1,6 @@
 import { useMemo, useState } from "react";
 import { Bar, BarChart, CartesianGrid, Legend, Tooltip, XAxis, YAxis } from "recharts";
+import { ChartDownload } from "@frontend/components/ui/chart-download";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { niceCeil } from "../lib/envelope";
@@ -43,7 +44,12 @@ export function StackUpPanel({ result, elementOrder }: { result: ResultFile; ele
         </p>
         <SegmentedControl label="Stack-up sensor" value={group} onChange={setGroup} options={groups.map((g) => ({ value: g, label: g }))} />
       </div>
-      <figure data-chart="stack-up" aria-label={`Stack-up of ${group}`} className="min-w-0">
+      <figure data-chart="stack-up" aria-label={`Stack-up of ${group}`} className="relative min-w-0">
+        <ChartDownload
+          name={`stack-up-${group}`}
+          title={`Worst case, RSS and Monte Carlo of ${group}`}
+          className="absolute top-0 right-0"
+        />
         <BarChart
           responsive
           style={{ width: "100%", height: 200 }}

@@ -1,6 +1,7 @@
 import { useMemo, useState, type ReactNode } from "react";
 import type { ResultFile } from "@shared/schemas/result-file";
 import type { StackFile } from "@shared/schemas/stack-file";
+import { ChartFileName } from "@frontend/components/ui/chart-download";
 import { Panel } from "@frontend/components/ui/panel";
 import type { StudyDetail } from "../api/get-study";
 import { ContributorsPanel } from "./contributors-pareto";
@@ -24,7 +25,16 @@ import { formatValue } from "@shared/format";
  * contributors, the convergence and the worst trials at its metric; each panel can also
  * pick its own.
  */
-export function StudyResults({ study, result }: { study: StudyDetail; result: ResultFile }) {
+export function StudyResults({
+  study,
+  result,
+  fileBase = `study-${study.number}`,
+}: {
+  study: StudyDetail;
+  result: ResultFile;
+  /** what downloaded charts are named after (`<project>-study-<n>`) */
+  fileBase?: string;
+}) {
   const stack = study.stack as unknown as StackFile;
   const elements = useMemo(() => (stack.elements ?? []) as { id: string; kind: string }[], [stack]);
   const elementOrder = useMemo(() => elements.map((e) => e.id), [elements]);
@@ -68,104 +78,106 @@ export function StudyResults({ study, result }: { study: StudyDetail; result: Re
   })();
 
   return (
-    <div className="flex flex-col gap-4">
-      <StudyCautions />
-      <CalibrationNote after={result.calibration} />
-      <Section
-        id="requirements"
-        title="Requirements"
-        meta={`${result.requirements.filter((r) => r.passes).length} of ${result.requirements.length} met`}
-        bare
-      >
-        <RequirementCards result={result} selected={focus} onSelect={setFocus} />
-      </Section>
-
-      {result.envelope ? (
-        <Section id="envelope" title="Heading-error envelope" meta="error against heading, for each tilt" accent="var(--color-mag)">
-          <EnvelopeCharts
-            layers={[{ key: "a", name: `Study ${study.number}`, colour: SERIES_A, envelope: result.envelope }]}
-            limitDeg={headingReq?.max}
-          />
+    <ChartFileName value={fileBase}>
+      <div className="flex flex-col gap-4">
+        <StudyCautions />
+        <CalibrationNote after={result.calibration} />
+        <Section
+          id="requirements"
+          title="Requirements"
+          meta={`${result.requirements.filter((r) => r.passes).length} of ${result.requirements.length} met`}
+          bare
+        >
+          <RequirementCards result={result} selected={focus} onSelect={setFocus} />
         </Section>
-      ) : null}
 
-      <div className="grid gap-4 xl:grid-cols-2">
-        <Section id="histogram" title="Distribution" meta="trials per bin">
-          <HistogramPanel
+        {result.envelope ? (
+          <Section id="envelope" title="Heading-error envelope" meta="error against heading, for each tilt" accent="var(--color-mag)">
+            <EnvelopeCharts
+              layers={[{ key: "a", name: `Study ${study.number}`, colour: SERIES_A, envelope: result.envelope }]}
+              limitDeg={headingReq?.max}
+            />
+          </Section>
+        ) : null}
+
+        <div className="grid gap-4 xl:grid-cols-2">
+          <Section id="histogram" title="Distribution" meta="trials per bin">
+            <HistogramPanel
+              result={result}
+              metric={histMetric}
+              onMetric={(m) => {
+                setHistMetric(m);
+                setFocus(m);
+              }}
+              elementOrder={elementOrder}
+            />
+          </Section>
+          <Section id="cross-axis" title="Cross-axis matrices" meta="each sensor, at a percentile" accent="var(--color-gyro)">
+            <CrossAxisTables result={result} kindOf={kindOf} elementOrder={elementOrder} />
+          </Section>
+        </div>
+
+        <Section id="contributors" title="Contributors" meta="ranked by share of variance" accent="var(--color-accel)">
+          <ContributorsPanel
             result={result}
-            metric={histMetric}
+            metric={contribMetric}
             onMetric={(m) => {
-              setHistMetric(m);
+              setContribMetric(m);
               setFocus(m);
             }}
+            kindOf={kindOf}
             elementOrder={elementOrder}
           />
         </Section>
-        <Section id="cross-axis" title="Cross-axis matrices" meta="each sensor, at a percentile" accent="var(--color-gyro)">
-          <CrossAxisTables result={result} kindOf={kindOf} elementOrder={elementOrder} />
-        </Section>
-      </div>
 
-      <Section id="contributors" title="Contributors" meta="ranked by share of variance" accent="var(--color-accel)">
-        <ContributorsPanel
-          result={result}
-          metric={contribMetric}
-          onMetric={(m) => {
-            setContribMetric(m);
-            setFocus(m);
-          }}
-          kindOf={kindOf}
-          elementOrder={elementOrder}
+        <div className="grid gap-4 xl:grid-cols-2">
+          <Section id="stack-up" title="Worst case, RSS and Monte Carlo">
+            <StackUpPanel result={result} elementOrder={elementOrder} />
+          </Section>
+          <Section id="convergence" title="Convergence" meta="the percentile against trials">
+            <ConvergencePanel
+              result={result}
+              metric={convMetric}
+              onMetric={(m) => {
+                setConvMetric(m);
+                setFocus(m);
+              }}
+            />
+          </Section>
+        </div>
+
+        <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
+          <Section id="worst-trials" title="Worst trials" meta="open any in the 3D view">
+            <WorstTrials
+              result={result}
+              metric={worstMetric}
+              onMetric={setWorstMetric}
+              onOpen={(metric, trial) => setViewer({ metric, trial })}
+              elementOrder={elementOrder}
+            />
+          </Section>
+          <Section id="record" title="Settings and run">
+            <RunRecord study={study} />
+          </Section>
+        </div>
+
+        <Section id="metrics" title="Metrics" meta="key percentiles of the absolute value">
+          <MetricsTable result={result} elementOrder={elementOrder} />
+        </Section>
+
+        <TrialViewerSheet
+          open={viewer !== null}
+          onClose={() => setViewer(null)}
+          studyNumber={study.number}
+          stack={stack}
+          study={study.study}
+          worstTrials={picks}
+          trialIndex={viewer?.trial ?? null}
+          onTrialChange={(t) => setViewer((v) => (v ? { ...v, trial: t } : v))}
+          caption={viewerCaption}
         />
-      </Section>
-
-      <div className="grid gap-4 xl:grid-cols-2">
-        <Section id="stack-up" title="Worst case, RSS and Monte Carlo">
-          <StackUpPanel result={result} elementOrder={elementOrder} />
-        </Section>
-        <Section id="convergence" title="Convergence" meta="the percentile against trials">
-          <ConvergencePanel
-            result={result}
-            metric={convMetric}
-            onMetric={(m) => {
-              setConvMetric(m);
-              setFocus(m);
-            }}
-          />
-        </Section>
       </div>
-
-      <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
-        <Section id="worst-trials" title="Worst trials" meta="open any in the 3D view">
-          <WorstTrials
-            result={result}
-            metric={worstMetric}
-            onMetric={setWorstMetric}
-            onOpen={(metric, trial) => setViewer({ metric, trial })}
-            elementOrder={elementOrder}
-          />
-        </Section>
-        <Section id="record" title="Settings and run">
-          <RunRecord study={study} />
-        </Section>
-      </div>
-
-      <Section id="metrics" title="Metrics" meta="key percentiles of the absolute value">
-        <MetricsTable result={result} elementOrder={elementOrder} />
-      </Section>
-
-      <TrialViewerSheet
-        open={viewer !== null}
-        onClose={() => setViewer(null)}
-        studyNumber={study.number}
-        stack={stack}
-        study={study.study}
-        worstTrials={picks}
-        trialIndex={viewer?.trial ?? null}
-        onTrialChange={(t) => setViewer((v) => (v ? { ...v, trial: t } : v))}
-        caption={viewerCaption}
-      />
-    </div>
+    </ChartFileName>
   );
 }
 

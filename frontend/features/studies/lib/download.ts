@@ -9,9 +9,14 @@ const slug = (s: string) =>
     .slice(0, 60)
     .toLowerCase() || "study";
 
+/** What a study's files are named after: `<project>-study-<n>` (the result file, its charts). */
+export function studyFileBase(projectName: string, studyNumber: number): string {
+  return `${slug(projectName)}-study-${studyNumber}`;
+}
+
 /** The result file name: `<project>-study-<n>.result.json`. */
 export function resultFileName(projectName: string, studyNumber: number): string {
-  return `${slug(projectName)}-study-${studyNumber}.result.json`;
+  return `${studyFileBase(projectName, studyNumber)}.result.json`;
 }
 
 // Every key of the stored file, not only those the client's schema reads.
