@@ -37,6 +37,8 @@ export const RIGHTS = [
   "reports.acknowledge",
   /** one's own notifications and their e-mail settings */
   "notifications.read",
+  /** staff: what waits for review or for one's own action, and the per-project counts (the home page) */
+  "reviews.read",
   /** the server's status page: where studies run, the job queue and its workers */
   "status.read",
 ] as const;
@@ -44,6 +46,7 @@ export type Right = (typeof RIGHTS)[number];
 
 const STAFF_READ = [
   "notifications.read",
+  "reviews.read",
   "projects.read",
   "revisions.comment",
   "suppliers.read",

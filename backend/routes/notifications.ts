@@ -4,8 +4,9 @@ import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
 import { listNotifications, markRead, notificationSettings, updateNotificationSettings } from "../services/notifications";
+import { reviewQueue } from "../services/review-queue";
 
-/** Everyone signed in has their own notifications and settings; nobody sees another's. */
+/** Everyone signed in has their own notifications and settings; nobody sees another's. Staff also have their review queue. */
 export function notificationsRouter({ db }: AppDeps) {
   const r = Router();
 
@@ -25,6 +26,11 @@ export function notificationsRouter({ db }: AppDeps) {
   r.put("/notification-settings", allow("notifications.read"), async (req, res) => {
     const { email } = parse(UpdateNotificationSettingsSchema, req);
     res.json(await updateNotificationSettings(db, actorOf(req), email));
+  });
+
+  /** What waits for the signed-in member of staff, from the records themselves (the home page and the counts). */
+  r.get("/review-queue", allow("reviews.read"), async (req, res) => {
+    res.json(await reviewQueue(db, actorOf(req)));
   });
 
   return r;

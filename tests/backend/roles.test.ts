@@ -512,6 +512,7 @@ export const ROUTES: Row[] = [
   { route: "POST /api/notifications/read", allowed: EVERYONE, body: () => ({}) },
   { route: "GET /api/notification-settings", allowed: EVERYONE },
   { route: "PUT /api/notification-settings", allowed: EVERYONE, body: () => ({ email: { "report.sent": false } }) },
+  { route: "GET /api/review-queue", allowed: STAFF },
 ];
 
 let t: TestApp;
