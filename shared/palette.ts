@@ -35,6 +35,9 @@ export const KIND_COLOUR: Record<ElementKind, string> = {
   mag: PALETTE.mag,
 };
 
+/** The dimensioned drawing of a stack (report PDF, editor): its sheet and the bond lines in the side section. */
+export const DRAWING_COLOUR = { sheet: "#fbfaf7", bondLine: "#c9a227" } as const;
+
 /** The palette as Tailwind v4 theme variables (`--color-ink` → classes `text-ink`, `bg-ink`…). */
 export function themeCss(): string {
   const lines = Object.entries(PALETTE).map(([name, hex]) => `  --color-${name}: ${hex};`);

@@ -12,6 +12,7 @@ import { matchOwner, toleranceSources, type ToleranceSource } from "@shared/repo
 import { ContributorsSchema, EnvelopeSchema, RequirementResultSchema } from "@shared/schemas/result-file";
 import type { ReportContent, ReportRequirement, ReportTolerance } from "@shared/schemas/reports";
 import type { StackFile, Tolerance } from "@shared/schemas/stack-file";
+import { drawnElements } from "@shared/stack-drawing";
 import type { Study } from "@shared/schemas/studies";
 import { badRequest, conflict } from "../lib/errors";
 
@@ -193,6 +194,7 @@ export function buildReportContent(input: ReportInputs, builtAt = new Date()): R
 
   const byElement = new Map<string, string[]>();
   for (const s of ours) byElement.set(s.elementId, [...(byElement.get(s.elementId) ?? []), s.id]);
+  const drawn = drawnElements(stack);
 
   return {
     format: "orthostack.report/1",
@@ -228,15 +230,9 @@ export function buildReportContent(input: ReportInputs, builtAt = new Date()): R
     contributors,
     envelope: result.envelope,
     headingLimit: heading ? heading.max : null,
-    stack: stack.elements.map((e) => ({
-      id: e.id,
-      name: e.name ?? e.id,
-      kind: e.kind,
-      parent: e.parent,
-      size: e.size,
-      position: e.position ?? { x: 0, y: 0 },
-      yawDeg: e.yawDeg ?? 0,
-      bondThicknessUm: e.bondLine?.thicknessUm ?? 0,
+    // the drawing's view of each element (shared/stack-drawing.ts), with what the report adds
+    stack: stack.elements.map((e, i) => ({
+      ...drawn[i],
       ...(Array.isArray(e.bondLine?.supports) ? { supports: e.bondLine.supports } : {}),
       sources: byElement.get(e.id) ?? [],
     })),

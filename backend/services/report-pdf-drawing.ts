@@ -6,6 +6,20 @@
  */
 import type { ReportContent } from "@shared/schemas/reports";
 import { formatFixed } from "@shared/format";
+import { DRAWING_COLOUR } from "@shared/palette";
+import {
+  drawingScale as sharedDrawingScale,
+  DRAWING_WORDS,
+  placeBalloons,
+  placeStack,
+  PT_PER_MM,
+  scaleBarStepMm,
+  sideSection,
+  topView,
+  topViewExtent,
+  type SideSection,
+  type TopView,
+} from "@shared/stack-drawing";
 import { describeSupports, positionReference, REPORT_RESOLUTION, sourceNominal } from "@shared/reports/nominals";
 import { MEASUREMENT_SAMPLE, measurementSteps } from "@shared/reports/measurement-plan";
 import { box, COLOURS, FAINT, INK, LINE, MUTED, paragraph, rule, text, type Doc } from "./pdf-draw";
@@ -14,70 +28,16 @@ import { BOTTOM, CW, ML, section, tableHeader, type Col, type Layout } from "./r
 import type { ReportMeta } from "./report-pdf";
 
 type El = ReportContent["stack"][number];
-type Placed = { e: El; depth: number; cx: number; cy: number; yaw: number; z0: number; z1: number; bond0: number };
-
-const PT_PER_MM = 72 / 25.4;
-/** Drawing scales a drafter would choose (enlargements for a package a few millimetres wide). */
-const SCALES = [1, 2, 5, 10, 20, 50, 100, 200];
 
 const mm = (v: number) => formatFixed(v, REPORT_RESOLUTION.mm);
 const um = (v: number) => formatFixed(v, REPORT_RESOLUTION.um);
 const deg = (v: number) => formatFixed(v, REPORT_RESOLUTION.deg);
 
-/** Every element at its nominal place in the board's frame (mm; z from the board's top face, bow left out). */
-export function placeStack(stack: readonly El[]): Placed[] {
-  const placed = new Map<string, Placed>();
-  const out: Placed[] = [];
-  let progressed = true;
-  while (progressed && out.length < stack.length) {
-    progressed = false;
-    for (const e of stack) {
-      if (placed.has(e.id)) continue;
-      if (e.parent === null) {
-        const p = { e, depth: 0, cx: 0, cy: 0, yaw: 0, z0: -e.size.z, z1: 0, bond0: 0 };
-        placed.set(e.id, p);
-        out.push(p);
-        progressed = true;
-        continue;
-      }
-      const parent = placed.get(e.parent);
-      if (!parent) continue;
-      const a = (parent.yaw * Math.PI) / 180;
-      const z0 = parent.z1 + e.bondThicknessUm / 1000;
-      const p = {
-        e,
-        depth: parent.depth + 1,
-        cx: parent.cx + Math.cos(a) * e.position.x - Math.sin(a) * e.position.y,
-        cy: parent.cy + Math.sin(a) * e.position.x + Math.cos(a) * e.position.y,
-        yaw: parent.yaw + e.yawDeg,
-        z0,
-        z1: z0 + e.size.z,
-        bond0: parent.z1,
-      };
-      placed.set(e.id, p);
-      out.push(p);
-      progressed = true;
-    }
-  }
-  return out;
-}
+export { placeStack };
 
-function corners(p: Placed): Array<[number, number]> {
-  const a = (p.yaw * Math.PI) / 180;
-  const hx = p.e.size.x / 2;
-  const hy = p.e.size.y / 2;
-  return [
-    [-hx, -hy],
-    [hx, -hy],
-    [hx, hy],
-    [-hx, hy],
-  ].map(([x, y]) => [p.cx + Math.cos(a) * x - Math.sin(a) * y, p.cy + Math.sin(a) * x + Math.cos(a) * y]);
-}
-
-/** The largest drafting scale at which `extentMm` fits in `roomPt`. */
+/** The largest drafting scale at which `extentMm` fits in `roomPt` points. */
 export function drawingScale(extentMm: number, roomPt: number): number {
-  const fit = roomPt / (Math.max(extentMm, 1e-6) * PT_PER_MM);
-  return [...SCALES].reverse().find((s) => s <= fit) ?? SCALES[0];
+  return sharedDrawingScale(extentMm, roomPt, PT_PER_MM);
 }
 
 function arrowHead(doc: Doc, x: number, y: number, dx: number, dy: number) {
@@ -108,7 +68,7 @@ function dimension(doc: Doc, x1: number, y1: number, x2: number, y2: number, lab
 
 function scaleBar(doc: Doc, x: number, y: number, scale: number, label: string) {
   const k = scale * PT_PER_MM;
-  const stepMm = k >= 60 ? 1 : k >= 12 ? 5 : 10;
+  const stepMm = scaleBarStepMm(scale);
   const len = stepMm * k;
   doc
     .save()
@@ -131,22 +91,20 @@ function scaleBar(doc: Doc, x: number, y: number, scale: number, label: string) 
   text(doc, `${label}  ·  scale ${scale}:1 on A4 printed at 100 %`, x, y + 6, { size: 7, weight: "bold" });
 }
 
-function topView(doc: Doc, placed: Placed[], x: number, y: number, w: number, h: number, scale: number) {
-  const parts = placed.filter((p) => p.depth > 0);
-  const pts = parts.flatMap(corners);
-  const minX = Math.min(...pts.map((q) => q[0]));
-  const maxX = Math.max(...pts.map((q) => q[0]));
-  const minY = Math.min(...pts.map((q) => q[1]));
-  const maxY = Math.max(...pts.map((q) => q[1]));
+function drawTopView(doc: Doc, view: TopView<El>, x: number, y: number, w: number, h: number, scale: number) {
+  const { minX, maxX, minY, maxY } = view.bounds;
   const k = scale * PT_PER_MM;
   const ox = x + w / 2 - ((minX + maxX) / 2) * k;
   const oy = y + h / 2 + ((minY + maxY) / 2) * k;
   const X = (v: number) => ox + v * k;
   const Y = (v: number) => oy - v * k;
-  box(doc, x, y, w, h, { fill: "#fbfaf7", stroke: LINE, radius: 3 });
-  const balloons: Array<[number, number]> = [];
-  parts.forEach((p, i) => {
-    const c = corners(p);
+  box(doc, x, y, w, h, { fill: DRAWING_COLOUR.sheet, stroke: LINE, radius: 3 });
+  const balloons = placeBalloons(
+    view.items.map((it) => [X(it.balloonAt[0]), Y(it.balloonAt[1])]),
+    11,
+    8,
+  );
+  view.items.forEach(({ p, corners: c, balloonAt: corner, number }, i) => {
     const colour = (COLOURS as Record<string, string>)[p.e.kind] ?? MUTED;
     doc.save();
     doc.polygon(...c.map(([px, py]) => [X(px), Y(py)] as [number, number]));
@@ -167,31 +125,18 @@ function topView(doc: Doc, placed: Placed[], x: number, y: number, w: number, h:
       .stroke()
       .restore();
     // balloon at the footprint's top-right corner, keyed to the table of positions
-    const corner = c.reduce((best, q) => (q[0] - q[1] > best[0] - best[1] ? q : best), c[0]);
-    let bx = X(corner[0]);
-    let by = Y(corner[1]);
-    // nested footprints can share a corner: step a balloon outward until it stands clear
-    while (balloons.some(([qx, qy]) => Math.hypot(qx - bx, qy - by) < 11)) {
-      bx += 8;
-      by += 8;
-    }
-    balloons.push([bx, by]);
+    const [bx, by] = balloons[i];
     doc.save().moveTo(X(corner[0]), Y(corner[1])).lineTo(bx, by).lineWidth(0.4).strokeColor(colour).stroke().restore();
     doc.save().circle(bx, by, 5.2).fillAndStroke("#ffffff", colour).restore();
-    text(doc, String(i + 1), bx - 5, by - 3, { size: 6, weight: "bold", width: 10, align: "center" });
+    text(doc, String(number), bx - 5, by - 3, { size: 6, weight: "bold", width: 10, align: "center" });
   });
   // overall size of the outermost part on the board (the package footprint)
-  const root = parts.find((p) => p.depth === 1);
-  if (root && root.yaw % 90 === 0) {
-    const c = corners(root);
-    const x0 = Math.min(...c.map((q) => q[0]));
-    const x1 = Math.max(...c.map((q) => q[0]));
-    const y0 = Math.min(...c.map((q) => q[1]));
-    const y1 = Math.max(...c.map((q) => q[1]));
-    const below = Y(y0) + 12;
-    if (below < y + h - 4) dimension(doc, X(x0), below, X(x1), below, `${mm(x1 - x0)} mm`, "above");
-    const left = X(x0) - 12;
-    if (left > x + 4) dimension(doc, left, Y(y1), left, Y(y0), `${mm(y1 - y0)} mm`, "left");
+  if (view.dimensions) {
+    const { x: dx, y: dy } = view.dimensions;
+    const below = Y(dx.from[1]) + 12;
+    if (below < y + h - 4) dimension(doc, X(dx.from[0]), below, X(dx.to[0]), below, dx.label, "above");
+    const left = X(dy.from[0]) - 12;
+    if (left > x + 4) dimension(doc, left, Y(dy.from[1]), left, Y(dy.to[1]), dy.label, "left");
   }
   // board axes at the lower left
   const ax = x + 12;
@@ -215,41 +160,30 @@ function topView(doc: Doc, placed: Placed[], x: number, y: number, w: number, h:
 const LABEL_HEAD = { size: 7, weight: "bold" as const, lineHeight: 8.6 };
 const LABEL_BODY = { size: 6.5, color: MUTED, lineHeight: 8 };
 
-/** The side section's labels, top element first, with the height each takes. */
-function sideLabels(doc: Doc, parts: Placed[], width: number) {
-  return [...parts]
-    .sort((a, b) => b.z1 - a.z1)
-    .map((p) => {
-      const head = `${p.e.name} ${mm(p.e.size.z)} mm thick on ${um(p.e.bondThicknessUm)} µm bond line`;
-      const body = `bottom at ${mm(p.z0)} mm, top at ${mm(p.z1)} mm`;
-      const h = paragraph(doc, head, 0, 0, width, LABEL_HEAD, false) + paragraph(doc, body, 0, 0, width, LABEL_BODY, false) + 4;
-      return { p, head, body, h };
-    });
+/** The height each side-section label takes, top element first. */
+function labelHeights(doc: Doc, side: SideSection<El>, width: number): number[] {
+  return side.labels.map(
+    (s) => paragraph(doc, s.head, 0, 0, width, LABEL_HEAD, false) + paragraph(doc, s.body, 0, 0, width, LABEL_BODY, false) + 4,
+  );
 }
 
-function sideSection(doc: Doc, placed: Placed[], x: number, y: number, w: number, h: number, scale: number, labelX: number) {
-  const parts = placed.filter((p) => p.depth > 0);
-  const half = (p: Placed) => {
-    const b = (p.yaw * Math.PI) / 180;
-    return (Math.abs(Math.cos(b)) * p.e.size.x + Math.abs(Math.sin(b)) * p.e.size.y) / 2;
-  };
-  const minX = Math.min(...parts.map((p) => p.cx - half(p)));
-  const maxX = Math.max(...parts.map((p) => p.cx + half(p)));
-  const top = Math.max(...parts.map((p) => p.z1));
+function drawSideSection(doc: Doc, side: SideSection<El>, x: number, y: number, w: number, h: number, scale: number, labelX: number) {
+  const { minX, maxX } = side;
   const k = scale * PT_PER_MM;
   const ox = x + (labelX - x) / 2 - ((minX + maxX) / 2) * k;
   const base = y + h - 14;
   const X = (v: number) => ox + v * k;
   const Z = (v: number) => base - v * k;
-  box(doc, x, y, w, h, { fill: "#fbfaf7", stroke: LINE, radius: 3 });
+  box(doc, x, y, w, h, { fill: DRAWING_COLOUR.sheet, stroke: LINE, radius: 3 });
   // the board's top face is z = 0
   box(doc, x + 6, base, labelX - x - 12, 8, { fill: COLOURS.board, fillOpacity: 0.25 });
   rule(doc, x + 6, base, labelX - 6, INK, 0.7);
-  for (const p of parts) {
+  for (const { p, x0: left, x1: right } of side.items) {
     const colour = (COLOURS as Record<string, string>)[p.e.kind] ?? MUTED;
-    const x0 = X(p.cx - half(p));
-    const x1 = X(p.cx + half(p));
-    if (p.z0 > p.bond0) box(doc, x0, Z(p.z0), x1 - x0, Math.max(0.3, (p.z0 - p.bond0) * k), { fill: "#c9a227", fillOpacity: 0.9 });
+    const x0 = X(left);
+    const x1 = X(right);
+    if (p.z0 > p.bond0)
+      box(doc, x0, Z(p.z0), x1 - x0, Math.max(0.3, (p.z0 - p.bond0) * k), { fill: DRAWING_COLOUR.bondLine, fillOpacity: 0.9 });
     box(doc, x0, Z(p.z1), x1 - x0, p.e.size.z * k, {
       fill: colour,
       fillOpacity: 0.3,
@@ -259,12 +193,13 @@ function sideSection(doc: Doc, placed: Placed[], x: number, y: number, w: number
   }
   // overall height beside the stack
   const dx = X(minX) - 14;
-  if (top > 0) dimension(doc, dx, Z(top), dx, Z(0), `${mm(top)} mm`, "left");
+  if (side.height) dimension(doc, dx, Z(side.height.from[1]), dx, Z(side.height.to[1]), side.height.label, "left");
   // labels from the top element down, each with a leader to its right edge
   let ly = y + 6;
-  for (const p of sideLabels(doc, parts, x + w - labelX - 6)) {
-    const ex = X(p.p.cx + half(p.p));
-    const ez = Z((p.p.z0 + p.p.z1) / 2);
+  const heights = labelHeights(doc, side, x + w - labelX - 6);
+  side.labels.forEach((s, i) => {
+    const ex = X(s.x1);
+    const ez = Z((s.p.z0 + s.p.z1) / 2);
     doc
       .save()
       .moveTo(ex, ez)
@@ -273,21 +208,20 @@ function sideSection(doc: Doc, placed: Placed[], x: number, y: number, w: number
       .strokeColor(FAINT)
       .stroke()
       .restore();
-    const h1 = paragraph(doc, p.head, labelX, ly, x + w - labelX - 6, LABEL_HEAD);
-    paragraph(doc, p.body, labelX, ly + h1, x + w - labelX - 6, LABEL_BODY);
-    ly += p.h;
-  }
+    const h1 = paragraph(doc, s.head, labelX, ly, x + w - labelX - 6, LABEL_HEAD);
+    paragraph(doc, s.body, labelX, ly + h1, x + w - labelX - 6, LABEL_BODY);
+    ly += heights[i];
+  });
   const by = ly + 2;
-  box(doc, labelX, by + 1, 10, 4, { fill: "#c9a227" });
-  text(doc, "bond line", labelX + 14, by - 1, { size: 6.5, color: MUTED });
-  text(doc, "heights from the board's top face (z = 0)", labelX, by + 9, { size: 6.5, color: MUTED });
+  box(doc, labelX, by + 1, 10, 4, { fill: DRAWING_COLOUR.bondLine });
+  text(doc, DRAWING_WORDS.bondLine, labelX + 14, by - 1, { size: 6.5, color: MUTED });
+  text(doc, DRAWING_WORDS.heights, labelX, by + 9, { size: 6.5, color: MUTED });
 }
 
 export function drawingSection(l: Layout, c: ReportContent) {
   const { doc } = l;
   const placed = placeStack(c.stack);
-  const parts = placed.filter((p) => p.depth > 0);
-  if (parts.length === 0) return;
+  if (!placed.some((p) => p.depth > 0)) return;
   if (l.y > 200) l.newPage();
   section(
     l,
@@ -298,13 +232,9 @@ export function drawingSection(l: Layout, c: ReportContent) {
   );
   const viewW = 300;
   const topH = 250;
-  const pts = parts.flatMap(corners);
-  const ext = Math.max(
-    (Math.max(...pts.map((q) => q[0])) - Math.min(...pts.map((q) => q[0]))) * (topH / viewW),
-    Math.max(...pts.map((q) => q[1])) - Math.min(...pts.map((q) => q[1])),
-  );
-  const topScale = drawingScale(ext, topH - 50);
-  topView(doc, placed, ML, l.y, viewW, topH, topScale);
+  const top = topView(placed);
+  const topScale = drawingScale(topViewExtent(top, topH / viewW), topH - 50);
+  drawTopView(doc, top, ML, l.y, viewW, topH, topScale);
 
   // positions beside the top view, keyed by the balloons
   let ty = l.y + 2;
@@ -312,30 +242,22 @@ export function drawingSection(l: Layout, c: ReportContent) {
   const tw = CW - viewW - 12;
   text(doc, "POSITIONS ON THE PARENT", tx, ty, { size: 6.2, weight: "bold", color: MUTED });
   ty += 11;
-  parts.forEach((p, i) => {
-    const parent = c.stack.find((e) => e.id === p.e.parent);
-    const head = `${i + 1}  ${p.e.name}, ${mm(p.e.size.x)} × ${mm(p.e.size.y)} mm`;
-    const body = `x ${mm(p.e.position.x)}, y ${mm(p.e.position.y)} mm from ${parent?.name ?? p.e.parent}'s centre; yaw ${deg(p.e.yawDeg)}°`;
-    ty += paragraph(doc, head, tx, ty, tw, { size: 7.2, weight: "bold", lineHeight: 9 });
-    ty += paragraph(doc, body, tx + 9, ty, tw - 9, { size: 6.8, color: MUTED, lineHeight: 8.5 }) + 4;
-  });
+  for (const it of top.items) {
+    ty += paragraph(doc, it.head, tx, ty, tw, { size: 7.2, weight: "bold", lineHeight: 9 });
+    ty += paragraph(doc, it.body, tx + 9, ty, tw - 9, { size: 6.8, color: MUTED, lineHeight: 8.5 }) + 4;
+  }
   l.y += topH + 4;
-  scaleBar(doc, ML + 4, l.y + 6, topScale, "Top view, looking down on the board");
+  scaleBar(doc, ML + 4, l.y + 6, topScale, DRAWING_WORDS.topView);
   l.y += 26;
 
-  const height = Math.max(...parts.map((p) => p.z1));
+  const side = sideSection(placed);
   const labelX = ML + CW - 190;
-  const sideH = Math.max(150, sideLabels(doc, parts, 184).reduce((a, r) => a + r.h, 0) + 34);
-  const half = (p: Placed) => {
-    const b = (p.yaw * Math.PI) / 180;
-    return (Math.abs(Math.cos(b)) * p.e.size.x + Math.abs(Math.sin(b)) * p.e.size.y) / 2;
-  };
-  const widthMm = Math.max(...parts.map((p) => p.cx + half(p))) - Math.min(...parts.map((p) => p.cx - half(p)));
-  const sideScale = Math.min(drawingScale(widthMm, labelX - ML - 90), drawingScale(height, sideH - 30));
+  const sideH = Math.max(150, labelHeights(doc, side, 184).reduce((a, h) => a + h, 0) + 34);
+  const sideScale = Math.min(drawingScale(side.maxX - side.minX, labelX - ML - 90), drawingScale(side.top, sideH - 30));
   l.ensure(sideH + 30);
-  sideSection(doc, placed, ML, l.y, CW, sideH, sideScale, labelX);
+  drawSideSection(doc, side, ML, l.y, CW, sideH, sideScale, labelX);
   l.y += sideH + 4;
-  scaleBar(doc, ML + 4, l.y + 6, sideScale, "Side section along x, looking along +y");
+  scaleBar(doc, ML + 4, l.y + 6, sideScale, DRAWING_WORDS.sideSection);
   l.y += 30;
   elementTable(l, c);
 }

@@ -4,7 +4,7 @@
  * requirements below. Drafts save themselves; approved and in-review revisions open
  * read-only.
  */
-import { lazy, Suspense, useCallback, useEffect, useMemo, useRef, useState, type ReactNode, type Ref } from "react";
+import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode, type Ref } from "react";
 import { Link, useBlocker, useNavigate } from "react-router";
 import type { Me, Project } from "@shared/schemas/api";
 import type { Revision } from "@shared/schemas/revisions";
@@ -15,7 +15,6 @@ import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
 import { ChevronLeftIcon } from "@frontend/components/ui/icons";
-import { Spinner } from "@frontend/components/ui/spinner";
 import { useSuppliers } from "@frontend/features/suppliers";
 import { RevisionStatusChip, useLatestRevision } from "@frontend/features/revisions";
 import { isApiError } from "@frontend/lib/api-client";
@@ -34,17 +33,16 @@ import { ConflictNotice, ReappliedNotice, type Reapplied } from "./conflict-noti
 import { EditorContext, type EditorApi } from "./editor-context";
 import { ElementForm } from "./element-form";
 import { ElementTree } from "./element-tree";
-import { PanelErrorBoundary } from "./error-boundary";
 import { TextInput } from "./fields";
 import { LiveEstimateStrip } from "./live-estimate-strip";
 import { ProblemList } from "./problem-list";
 import { RequirementsEditor } from "./requirements-editor";
 import { ReviewActions, ReviewNotes } from "./review-panel";
 import { SaveStatus } from "./save-status";
+import { StackDrawing } from "./stack-drawing";
 import { StackFileActions } from "./stack-file-actions";
 import { ToleranceTable } from "./tolerance-table";
-
-const StackViewer = lazy(() => import("@frontend/features/viewer3d"));
+import { ViewerPanel } from "./viewer-panel";
 
 function docOf(revision: Revision): EditorDoc {
   return { stack: revision.stack as unknown as StackFile, requirements: revision.requirements as Requirement[] };
@@ -421,39 +419,24 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
             <p className="p-4 text-[13px] text-ink/55">Select an element in the tree.</p>
           )}
         </Card>
-        <div className="min-h-[480px] overflow-hidden rounded-lg border border-line bg-[#17212b]">
-          <PanelErrorBoundary
-            fallback={(error) => (
-              <div className="flex h-full items-center justify-center p-6 text-center text-[13px] text-paper/70">
-                3D view unavailable: {error.message}
-              </div>
-            )}
-          >
-            <Suspense
-              fallback={
-                <div className="flex h-full items-center justify-center gap-2 text-[13px] text-paper/70">
-                  <Spinner /> Loading the 3D view…
-                </div>
-              }
-            >
-              <StackViewer
-                stack={doc.stack}
-                study={estimate.basis?.study}
-                worstTrials={worstPicks?.map((w) => ({
-                  metric: w.metric,
-                  trialIndex: w.trialIndex,
-                  value: w.value,
-                  unit: w.unit === "deg" ? "°" : "%",
-                }))}
-                selectedId={selectedId}
-                onSelect={select}
-                flaggedIds={flaggedIds}
-                className="h-full"
-              />
-            </Suspense>
-          </PanelErrorBoundary>
-        </div>
+        <ViewerPanel
+          stack={doc.stack}
+          study={estimate.basis?.study}
+          worstTrials={worstPicks?.map((w) => ({
+            metric: w.metric,
+            trialIndex: w.trialIndex,
+            value: w.value,
+            unit: w.unit === "deg" ? "°" : "%",
+          }))}
+          selectedId={selectedId}
+          onSelect={select}
+          flaggedIds={flaggedIds}
+        />
       </div>
+
+      <Card title="Drawing" meta="top view and side section at the nominal sizes, dimensioned" className="mt-3">
+        <StackDrawing stack={stackValidation.ok ? stackValidation.stack : null} revisionNumber={revision.number} />
+      </Card>
 
       <Card
         title="Tolerance sources"
