@@ -4,7 +4,7 @@ import type { Database } from "./db/client";
 import type { MailService } from "./services/mail";
 import type { EnginePool } from "./engine/pool";
 import type { StudyScheduler } from "./services/study-queue";
-import type { WhatIfQueue } from "./services/what-if-queue";
+import type { WhatIfScheduler } from "./services/what-if-queue";
 
 /** Writes a line of the server's log; an error goes with the message it explains. */
 export type Log = (message: string, err?: unknown) => void;
@@ -33,8 +33,8 @@ export type AppDeps = {
   queueStatus?: () => Promise<QueueStatus>;
   /** The warm engine worker threads, created at start and stopped at shutdown; the queue runs on it. */
   enginePool: EnginePool;
-  /** Sweeps and allocations (issue 12): queued beside the studies, run on the same pool. */
-  whatIfQueue: WhatIfQueue;
+  /** Sweeps and allocations (issue 12): the in-process queue on the same pool, or the job queue of server mode. */
+  whatIfQueue: WhatIfScheduler;
   /** Room on disk and the workspace quota, checked before large writes (507 when short). */
   storage: StorageGuard;
   /** Measurement uploads one supplier company may send per hour. */

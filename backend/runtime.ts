@@ -17,7 +17,7 @@ import { StudyQueue, type StudyRunner, type StudyScheduler } from "./services/st
 import { jobSettingsOf, startServerMode } from "./services/server-mode";
 import { engineRunner } from "./services/study-runner";
 import { ENGINE_NICE, EnginePool } from "./engine/pool";
-import { poolExecutor, WhatIfQueue, type WhatIfExecutorFactory } from "./services/what-if-queue";
+import { poolExecutor, WhatIfQueue, type WhatIfExecutorFactory, type WhatIfScheduler } from "./services/what-if-queue";
 
 /** Something that starts with the server and stops with it; stopped in reverse order. */
 export type Lifecycle = { name: string; start?: () => Promise<void> | void; stop?: () => Promise<void> | void };
@@ -50,8 +50,13 @@ export type RuntimeParts = {
   /** Room on disk and the workspace quota; default: the temporary folder, nothing reserved, 2 GB per workspace. */
   storage?: StorageGuard;
   supplierUploadsPerHour?: number;
-  /** Server mode: the job queue takes the place of the in-process study queue. */
-  serverMode?: { studyQueue: StudyScheduler; queueStatus: AppDeps["queueStatus"]; stop: () => Promise<void> };
+  /** Server mode: the job queue takes the place of the in-process study queue (and, when given, of the what-if queue). */
+  serverMode?: {
+    studyQueue: StudyScheduler;
+    whatIfQueue?: WhatIfScheduler;
+    queueStatus: AppDeps["queueStatus"];
+    stop: () => Promise<void>;
+  };
 };
 
 const isService = (m: MailSettings | MailService): m is MailService => "send" in m;
@@ -65,7 +70,7 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
   // Warm worker threads for every study; niced, so the request thread keeps answering while they work.
   const enginePool = new EnginePool({ threads: parts.engineThreads, nice: ENGINE_NICE, log });
   const studyQueue = parts.serverMode?.studyQueue ?? new StudyQueue(handle.db, parts.runner ?? engineRunner(enginePool), log);
-  const whatIfQueue = new WhatIfQueue(handle.db, parts.whatIfExecutor ?? poolExecutor(enginePool), log);
+  const whatIfQueue = parts.serverMode?.whatIfQueue ?? new WhatIfQueue(handle.db, parts.whatIfExecutor ?? poolExecutor(enginePool), log);
   const deps: AppDeps = {
     db: handle.db,
     auth: parts.auth,
@@ -102,7 +107,7 @@ export async function createRuntime(env: Env, log: Log): Promise<Runtime> {
     trustedOrigins: env.TRUSTED_ORIGINS,
     signInPerMinute: env.SIGN_IN_PER_MINUTE,
   });
-  // With DATABASE_URL, studies go through the job queue (and `npm run worker` processes).
+  // With DATABASE_URL, studies and what-if runs go through the job queue (and `npm run worker` processes).
   const serverMode =
     handle.kind === "postgres"
       ? await startServerMode(handle, {

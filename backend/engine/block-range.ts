@@ -8,7 +8,9 @@
  */
 import { pathToFileURL } from "node:url";
 import { Worker } from "node:worker_threads";
-import type { BlockPartial, WorkerState } from "@shared/engine/accumulate";
+import { mergeWorkerStates, type BlockPartial, type WorkerState } from "@shared/engine/accumulate";
+import { adaptiveDone, finalizeStudy, newCoordinator, prepareStudy } from "@shared/engine/study";
+import type { StudyExecutor } from "@shared/whatif/executor";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
 import { ensureBundle } from "./bundle.mjs";
@@ -132,4 +134,53 @@ export class PartThreads {
       feed();
     });
   }
+}
+
+/**
+ * A whole study on the part threads, as the warm pool runs one: every thread takes a contiguous
+ * run of the blocks (adaptive: of the next run of blocks), and the partials are folded in block
+ * order and the states merged, so the result is the pool's and the command-line runner's for the
+ * same files and seed. What-if runs in a server-mode worker go through it, sharing the threads
+ * with study parts (each range waits for a free thread).
+ */
+export function partThreadsExecutor(engine: PartThreads): StudyExecutor {
+  return async (stack, study, { signal, onProgress }) => {
+    const prep = prepareStudy(stack, study, {});
+    const coord = newCoordinator(prep);
+    const states: WorkerState[] = [];
+    const blocks = prep.plan.blocks;
+    const step = prep.adaptive ? prep.adaptive.runBlocks : blocks;
+    // folded as they come (the coordinator holds early blocks back until their turn)
+    const onBlock = (b: BlockPartial) => {
+      coord.add(b);
+      onProgress?.(coord.trials, prep.plan.trials);
+    };
+    for (let from = 0; from < blocks;) {
+      const end = Math.min(blocks, from + step);
+      const per = Math.ceil((end - from) / engine.size);
+      const ranges: number[][] = [];
+      for (let b = from; b < end; b += per) ranges.push(Array.from({ length: Math.min(per, end - b) }, (_, i) => b + i));
+      // one range failing stops the others
+      const stage = new AbortController();
+      const onAbort = () => stage.abort();
+      signal?.addEventListener("abort", onAbort, { once: true });
+      try {
+        if (signal?.aborted) throw new StudyAbortedError();
+        const outs = await Promise.all(
+          ranges.map((r) =>
+            engine.run({ stack, study }, r, { signal: stage.signal, onBlock }).catch((e: unknown) => {
+              stage.abort();
+              throw e;
+            }),
+          ),
+        );
+        for (const o of outs) states.push(o.state);
+      } finally {
+        signal?.removeEventListener("abort", onAbort);
+      }
+      from = end;
+      if (prep.adaptive && adaptiveDone(prep, coord)) break;
+    }
+    return finalizeStudy(prep, coord, mergeWorkerStates(states));
+  };
 }

@@ -49,6 +49,8 @@ const EnvSchema = z.object({
   WORKER_THREADS: z.coerce.number().int().min(1).max(256).optional(),
   /** Server mode: seconds a study job may run before the queue gives it to another worker. */
   STUDY_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).max(3600).default(300),
+  /** Server mode: seconds a what-if run's job (a whole sweep or allocation) may run before another worker is given it. */
+  WHAT_IF_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).max(86_000).default(1800),
   /** Server mode: how often the queue looks for expired jobs of workers that died. */
   QUEUE_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
   /** Seed the demo workspace when the database has no workspace yet. */

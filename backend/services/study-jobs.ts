@@ -25,6 +25,8 @@ import { EngineError, PartThreads } from "../engine/block-range";
 import { StudyAbortedError } from "../engine/pool";
 import { writeFinishedStudy } from "./study-finish";
 import type { StudyScheduler } from "./study-queue";
+import { Kicker } from "./run-loop";
+import { DEFAULT_WHAT_IF_EXPIRE_SECONDS, WHAT_IF_QUEUE, WhatIfJobRunner } from "./what-if-jobs";
 
 export const STUDY_PARTS_QUEUE = "study-parts";
 /** Blocks per job: 32 × 4,096 trials, a second or two of one core on the reference stack. */
@@ -43,12 +45,15 @@ export type JobQueueSettings = {
   pollSeconds: number;
   /** Blocks per job (tests use few to get many parts from a small study). */
   partBlocks?: number;
+  /** Seconds a what-if run's job may stay active (a run is many studies) before another worker is given it. */
+  whatIfExpireSeconds?: number;
 };
 export const DEFAULT_JOB_SETTINGS: JobQueueSettings = {
   expireSeconds: 300,
   maintenanceSeconds: 30,
   pollSeconds: 1,
   partBlocks: PART_BLOCKS,
+  whatIfExpireSeconds: DEFAULT_WHAT_IF_EXPIRE_SECONDS,
 };
 
 export type QueueStatus = {
@@ -80,10 +85,11 @@ export async function openJobQueue(url: string, settings: JobQueueSettings, log:
   });
   boss.on("error", (e) => log("job queue error", e));
   await boss.start();
-  if (!(await boss.getQueue(STUDY_PARTS_QUEUE))) {
-    await boss.createQueue(STUDY_PARTS_QUEUE).catch(async (e) => {
+  for (const name of [STUDY_PARTS_QUEUE, WHAT_IF_QUEUE]) {
+    if (await boss.getQueue(name)) continue;
+    await boss.createQueue(name).catch(async (e) => {
       // two processes starting at once: the other one made it
-      if (!(await boss.getQueue(STUDY_PARTS_QUEUE))) throw e;
+      if (!(await boss.getQueue(name))) throw e;
     });
   }
   return boss;
@@ -137,38 +143,24 @@ async function failStudy(db: Database, id: string, message: string) {
  * Several app processes may do this at once (a claim is one conditional update).
  */
 export class JobStudyQueue implements StudyScheduler {
-  private stopped = true;
-  private kicking = false;
-  private again = false;
+  private readonly kicker: Kicker;
 
   constructor(
     private readonly db: Database,
     private readonly boss: PgBoss,
-    private readonly log: Log,
+    log: Log,
     private readonly settings: JobQueueSettings = DEFAULT_JOB_SETTINGS,
-  ) {}
+  ) {
+    this.kicker = new Kicker(() => this.dispatch(), log, "job dispatch");
+  }
 
   async start() {
-    this.stopped = false;
+    this.kicker.start();
     this.kick();
   }
 
   kick() {
-    if (this.stopped) return;
-    if (this.kicking) {
-      this.again = true;
-      return;
-    }
-    this.kicking = true;
-    void this.dispatch()
-      .catch((e) => this.log("job dispatch error", e))
-      .finally(() => {
-        this.kicking = false;
-        if (this.again) {
-          this.again = false;
-          this.kick();
-        }
-      });
+    this.kicker.kick();
   }
 
   async cancel(id: string): Promise<boolean> {
@@ -182,11 +174,11 @@ export class JobStudyQueue implements StudyScheduler {
   }
 
   async stop() {
-    this.stopped = true;
+    this.kicker.stop();
   }
 
   private async dispatch() {
-    while (!this.stopped) {
+    while (!this.kicker.isStopped) {
       const [row] = await this.db
         .select({ id: studies.id })
         .from(studies)
@@ -219,8 +211,9 @@ export class JobStudyQueue implements StudyScheduler {
 }
 
 /**
- * A worker's side: `threads` warm engine threads, each taking part jobs one at a time. Runs in
- * `npm run worker` processes and, unless RUN_STUDIES=false, in the app process too.
+ * A worker's side: `threads` warm engine threads, each taking part jobs one at a time, and one
+ * what-if run at a time (./what-if-jobs.ts) on the same threads. Runs in `npm run worker`
+ * processes and, unless RUN_STUDIES=false, in the app process too.
  */
 export class StudyJobWorker {
   readonly id = `${hostname()}-${process.pid}-${randomUUID().slice(0, 8)}`;
@@ -230,13 +223,16 @@ export class StudyJobWorker {
   private readonly running = new Set<AbortController>();
   private stopping = false;
   private engine: PartThreads | undefined;
+  private readonly whatIf: WhatIfJobRunner;
 
   constructor(
     private readonly db: Database,
     private readonly boss: PgBoss,
     private readonly log: Log,
     private readonly opts: { threads: number; settings?: JobQueueSettings; nice?: number },
-  ) {}
+  ) {
+    this.whatIf = new WhatIfJobRunner(db, log);
+  }
 
   async start() {
     this.engine = new PartThreads(this.opts.threads, { nice: this.opts.nice });
@@ -250,6 +246,16 @@ export class StudyJobWorker {
         if (job) await this.runPart(job.data);
       });
     }
+    // what-if runs: one at a time per worker (each keeps every thread busy with its studies)
+    await this.boss.work<{ runId: string }>(
+      WHAT_IF_QUEUE,
+      { batchSize: 1, pollingIntervalSeconds: settings.pollSeconds },
+      async ([job]) => {
+        if (!job || !this.engine) return;
+        await this.whatIf.run(job.data, this.engine);
+        this.jobsDone++;
+      },
+    );
   }
 
   /** Stops taking jobs; a part in progress is abandoned (its job expires and runs elsewhere). */
@@ -257,7 +263,9 @@ export class StudyJobWorker {
     this.stopping = true;
     clearInterval(this.heartbeat);
     for (const c of this.running) c.abort();
+    this.whatIf.stop();
     await this.boss.offWork(STUDY_PARTS_QUEUE).catch(() => undefined);
+    await this.boss.offWork(WHAT_IF_QUEUE).catch(() => undefined);
     await this.engine?.stop();
     await this.db
       .delete(queueWorkers)
@@ -412,8 +420,13 @@ export class StudyJobWorker {
 
 /** The queue's depth and the workers seen in the last minute. */
 export async function queueStatus(db: Database, boss: PgBoss): Promise<QueueStatus> {
-  const depth = await boss.getQueueSize(STUDY_PARTS_QUEUE);
-  const active = await boss.getQueueSize(STUDY_PARTS_QUEUE, { before: "completed" });
+  // study parts and what-if runs alike
+  let depth = 0;
+  let active = 0;
+  for (const name of [STUDY_PARTS_QUEUE, WHAT_IF_QUEUE]) {
+    depth += await boss.getQueueSize(name);
+    active += await boss.getQueueSize(name, { before: "completed" });
+  }
   const seen = await db
     .select()
     .from(queueWorkers)

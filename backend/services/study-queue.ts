@@ -2,6 +2,7 @@ import { and, asc, eq, inArray } from "drizzle-orm";
 import type { Database } from "../db/client";
 import { studies } from "../db/schema";
 import { writeFinishedStudy } from "./study-finish";
+import { LocalRunLoop, type Claimed, type RunContext } from "./run-loop";
 
 export type RunInput = { stack: Record<string, unknown>; study: Record<string, unknown> };
 export type RunOptions = {
@@ -14,6 +15,15 @@ export type RunOptions = {
 export type StudyRunner = (input: RunInput, options: RunOptions) => Promise<{ result: Record<string, unknown>; passes: boolean | null }>;
 
 const PROGRESS_EVERY_MS = 250;
+
+type StudyJob = {
+  id: string;
+  study: Record<string, unknown>;
+  stack: Record<string, unknown>;
+  workspaceId: string;
+  projectId: string;
+  number: number;
+};
 
 export class CancelledError extends Error {
   constructor() {
@@ -41,133 +51,100 @@ export const MAX_RUNNING_STUDIES = 4;
  * waits on a study. Several run at once (up to MAX_RUNNING_STUDIES), at most one per person,
  * so one person's queue of long studies does not hold back another's short one; the runner's
  * pool shares the threads between them. State lives in the database: a study marked running
- * when the server starts was cut off by a stop and becomes "interrupted".
+ * when the server starts was cut off by a stop and becomes "interrupted". The claiming, the
+ * running set and shutdown are the shared loop's (./run-loop.ts).
  */
 export class StudyQueue implements StudyScheduler {
-  private running = new Map<string, { owner: string; controller: AbortController; done: Promise<void> }>();
-  private stopped = true;
-  private kicking = false;
-  private kickAgain = false;
+  private readonly loop: LocalRunLoop<StudyJob>;
 
   constructor(
     private readonly db: Database,
     private readonly runner: StudyRunner,
     private readonly log: (m: string, e?: unknown) => void,
-    private readonly maxRunning = MAX_RUNNING_STUDIES,
-  ) {}
+    maxRunning = MAX_RUNNING_STUDIES,
+  ) {
+    this.loop = new LocalRunLoop<StudyJob>(
+      {
+        what: "study queue",
+        maxRunning,
+        onePerOwner: true,
+        interruptLeftovers: async () => {
+          await db
+            .update(studies)
+            .set({ status: "interrupted", error: "The server stopped while this study was running. Run it again." })
+            .where(eq(studies.status, "running"));
+        },
+        claim: (busy) => this.claim(busy, maxRunning),
+        run: ({ job, owner }, ctx) => this.run(job, owner, ctx),
+        cancelQueued: async (id) => {
+          const rows = await db
+            .update(studies)
+            .set({ status: "cancelled", finishedAt: new Date() })
+            .where(and(eq(studies.id, id), eq(studies.status, "queued")))
+            .returning({ id: studies.id });
+          return rows.length > 0;
+        },
+      },
+      log,
+    );
+  }
 
-  async start() {
-    this.stopped = false;
-    await this.db
-      .update(studies)
-      .set({ status: "interrupted", error: "The server stopped while this study was running. Run it again." })
-      .where(eq(studies.status, "running"));
-    this.kick();
+  start() {
+    return this.loop.start();
   }
 
   /** Looks for queued work; safe to call any number of times. */
   kick() {
-    if (this.stopped) return;
-    if (this.kicking) {
-      this.kickAgain = true;
-      return;
-    }
-    this.kicking = true;
-    void this.next()
-      .catch((e) => this.log("study queue error", e))
-      .finally(() => {
-        this.kicking = false;
-        if (this.kickAgain) {
-          this.kickAgain = false;
-          this.kick();
-        }
-      });
+    this.loop.kick();
   }
 
   isRunning(id: string) {
-    return this.running.has(id);
+    return this.loop.isRunning(id);
   }
 
   /** Cancels a queued or running study; true when it was found in one of those states. */
-  async cancel(id: string): Promise<boolean> {
-    const run = this.running.get(id);
-    if (run) {
-      run.controller.abort();
-      await run.done;
-      return true;
-    }
-    const rows = await this.db
-      .update(studies)
-      .set({ status: "cancelled", finishedAt: new Date() })
-      .where(and(eq(studies.id, id), eq(studies.status, "queued")))
-      .returning({ id: studies.id });
-    return rows.length > 0;
+  cancel(id: string): Promise<boolean> {
+    return this.loop.cancel(id);
   }
 
   /** Stops taking work and cancels the running study (server shutdown, tests). */
-  async stop() {
-    this.stopped = true;
-    const runs = [...this.running.values()];
-    for (const r of runs) r.controller.abort();
-    await Promise.all(runs.map((r) => r.done));
+  stop() {
+    return this.loop.stop();
   }
 
   /** Stops without writing anything, as a crash would (used to test the restart path). */
   abandon() {
-    this.stopped = true;
-    const runs = [...this.running.values()];
-    this.running.clear();
-    for (const r of runs) r.controller.abort(new Error("abandoned"));
+    this.loop.abandon();
   }
 
-  private async next() {
-    while (!this.stopped && this.running.size < this.maxRunning) {
-      const busy = new Set([...this.running.values()].map((r) => r.owner));
-      const queued = await this.db
-        .select({
-          id: studies.id,
-          study: studies.study,
-          stack: studies.stack,
-          workspaceId: studies.workspaceId,
-          projectId: studies.projectId,
-          number: studies.number,
-          createdBy: studies.createdBy,
-        })
-        .from(studies)
-        .where(eq(studies.status, "queued"))
-        .orderBy(asc(studies.createdAt))
-        .limit(this.maxRunning * 4);
-      // oldest first, skipping people who already have a study running
-      const job = queued.find((q) => !busy.has(q.createdBy ?? "") && !this.running.has(q.id));
-      if (!job) return;
-      const claimed = await this.db
-        .update(studies)
-        .set({ status: "running", startedAt: new Date(), trialsDone: 0, error: null })
-        .where(and(eq(studies.id, job.id), eq(studies.status, "queued")))
-        .returning({ id: studies.id });
-      if (!claimed.length) continue;
-      const owner = job.createdBy ?? "";
-      const controller = new AbortController();
-      const entry = { owner, controller, done: Promise.resolve() };
-      this.running.set(job.id, entry);
-      entry.done = this.run(job, owner, controller).finally(() => {
-        if (this.running.get(job.id) === entry) this.running.delete(job.id);
-      });
-    }
+  private async claim(busy: { ids: Set<string>; owners: Set<string> }, maxRunning: number): Promise<Claimed<StudyJob> | "lost" | null> {
+    const queued = await this.db
+      .select({
+        id: studies.id,
+        study: studies.study,
+        stack: studies.stack,
+        workspaceId: studies.workspaceId,
+        projectId: studies.projectId,
+        number: studies.number,
+        createdBy: studies.createdBy,
+      })
+      .from(studies)
+      .where(eq(studies.status, "queued"))
+      .orderBy(asc(studies.createdAt))
+      .limit(maxRunning * 4);
+    // oldest first, skipping people who already have a study running
+    const job = queued.find((q) => !busy.owners.has(q.createdBy ?? "") && !busy.ids.has(q.id));
+    if (!job) return null;
+    const claimed = await this.db
+      .update(studies)
+      .set({ status: "running", startedAt: new Date(), trialsDone: 0, error: null })
+      .where(and(eq(studies.id, job.id), eq(studies.status, "queued")))
+      .returning({ id: studies.id });
+    if (!claimed.length) return "lost";
+    return { id: job.id, owner: job.createdBy ?? "", job };
   }
 
-  private async run(
-    job: {
-      id: string;
-      study: Record<string, unknown>;
-      stack: Record<string, unknown>;
-      workspaceId: string;
-      projectId: string;
-      number: number;
-    },
-    owner: string,
-    controller: AbortController,
-  ) {
+  private async run(job: StudyJob, owner: string, { controller, reason }: RunContext) {
     const started = Date.now();
     let lastWrite = 0;
     let pending: Promise<unknown> = Promise.resolve();
@@ -195,7 +172,7 @@ export class StudyQueue implements StudyScheduler {
       await this.db.transaction((tx) => writeFinishedStudy(tx, job, { result, passes, seconds }));
     } catch (e) {
       await pending.catch(() => undefined);
-      if (this.stopped && !this.running.has(job.id)) return; // abandoned: leave the row as a crash would
+      if (reason() === "abandoned") return; // leave the row as a crash would
       const cancelled = controller.signal.aborted;
       await this.db
         .update(studies)
@@ -206,8 +183,6 @@ export class StudyQueue implements StudyScheduler {
         })
         .where(and(eq(studies.id, job.id), inArray(studies.status, ["running"])));
       if (!cancelled) this.log(`study ${job.id} failed`, e);
-    } finally {
-      setImmediate(() => this.kick());
     }
   }
 }

@@ -1,9 +1,11 @@
 /**
- * Runs queued what-if runs (sweeps and allocations), oldest first, beside the study queue and
- * on the same warm engine pool (the pool shares its threads block by block between everyone
- * who asked). Each point of a sweep and each verifying run of an allocation is an ordinary
- * study with the request's seed. State lives in the database like a study's: a run marked
- * running when the server starts was cut off by a stop and becomes "interrupted".
+ * What-if runs (sweeps and allocations): how one runs, and the in-process queue that runs them
+ * on one machine, oldest first, beside the study queue and on the same warm engine pool (the
+ * pool shares its threads block by block between everyone who asked). Each point of a sweep and
+ * each verifying run of an allocation is an ordinary study with the request's seed. In server
+ * mode the job queue takes this queue's place (./what-if-jobs.ts) and runs the same
+ * `executeWhatIf` in worker processes. A run marked running when a one-machine server starts
+ * was cut off by a stop and becomes "interrupted".
  */
 import { and, asc, eq } from "drizzle-orm";
 import { describeParameter } from "@shared/whatif/parameters";
@@ -15,13 +17,17 @@ import type { StudyFile } from "@shared/schemas/study-file";
 import type { Database } from "../db/client";
 import { whatIfRuns } from "../db/schema";
 import type { EnginePool } from "../engine/pool";
+import { LocalRunLoop, type RunContext } from "./run-loop";
 
 export type SweepInput = { study: StudyFile; parameter: string; values: number[] };
 export type AllocationInput = AllocationOptions & { study: StudyFile };
+export type WhatIfRow = typeof whatIfRuns.$inferSelect;
 
 /** What-if runs at once; each already keeps the pool busy with one study at a time. */
 export const MAX_RUNNING_WHAT_IF = 2;
 const PROGRESS_EVERY_MS = 250;
+
+type Log = (m: string, e?: unknown) => void;
 
 /** Runs studies for what-if runs on the warm pool; `owner` shares the threads fairly. */
 export type WhatIfExecutorFactory = (owner: string) => StudyExecutor;
@@ -32,155 +38,162 @@ export function poolExecutor(pool: EnginePool): WhatIfExecutorFactory {
       pool.run(stack, study, { owner, signal, onProgress: (p) => onProgress?.(p.trialsDone, p.trialsTotal) });
 }
 
-export class WhatIfQueue {
-  private running = new Map<string, { controller: AbortController; done: Promise<void> }>();
-  private stopped = true;
-  private kicking = false;
-  private kickAgain = false;
+/** What the routes need of whatever runs what-if runs: the in-process queue or server mode's job queue. */
+export interface WhatIfScheduler {
+  start(): Promise<void>;
+  /** Looks for queued runs; safe to call any number of times. */
+  kick(): void;
+  /**
+   * Stops a run this process is running at once (the cancel itself is the row's state, which the
+   * service writes with its activity record; a run elsewhere sees it at its next progress write).
+   */
+  cancel(id: string): Promise<boolean>;
+  stop(): Promise<void>;
+}
 
-  constructor(
-    private readonly db: Database,
-    private readonly executor: WhatIfExecutorFactory,
-    private readonly log: (m: string, e?: unknown) => void,
-    private readonly maxRunning = MAX_RUNNING_WHAT_IF,
-  ) {}
+/** The process is stopping: the run is left as it is (running), for a restart or another worker. */
+export class WhatIfLeftError extends Error {}
 
-  async start() {
-    this.stopped = false;
-    await this.db
+/**
+ * Runs one claimed (running) what-if run to its end state: finished with its result, failed, or
+ * cancelled. Progress and a sweep's finished points are written as they come, only while the row
+ * is still running: a write that finds it cancelled (by anyone, in any process) aborts the run,
+ * so a cancel reaches a run between two progress writes. `ctx.reason()` "stopping" or
+ * "abandoned" leaves the row untouched and throws WhatIfLeftError.
+ */
+export async function executeWhatIf(db: Database, row: WhatIfRow, execute: StudyExecutor, ctx: RunContext, log: Log): Promise<void> {
+  const { controller } = ctx;
+  let lastWrite = 0;
+  let pending: Promise<unknown> = Promise.resolve();
+  const write = (set: Partial<typeof whatIfRuns.$inferInsert>) => {
+    pending = pending
+      .then(() =>
+        db
+          .update(whatIfRuns)
+          .set(set)
+          .where(and(eq(whatIfRuns.id, row.id), eq(whatIfRuns.status, "running")))
+          .returning({ id: whatIfRuns.id }),
+      )
+      .then((rows) => {
+        if (!rows.length) controller.abort(); // cancelled (or ended elsewhere): stop here
+      });
+  };
+  const onProgress = (done: number, total: number) => {
+    const now = Date.now();
+    if (now - lastWrite < PROGRESS_EVERY_MS && done < total) return;
+    lastWrite = now;
+    write({ progressDone: done, progressTotal: total });
+  };
+  const signal = controller.signal;
+  const stack = row.stack as StackFile;
+  try {
+    let result: Record<string, unknown>;
+    if (row.kind === "sweep") {
+      const input = row.input as unknown as SweepInput;
+      const info = describeParameter(stack, input.study, input.parameter);
+      if ("error" in info) throw new Error(info.error);
+      const out = await runSweep({
+        stack,
+        study: input.study,
+        info,
+        values: input.values,
+        execute,
+        signal,
+        onProgress,
+        onPoint: (points: SweepPoint[]) => write({ result: { points, crossings: [] } }),
+      });
+      result = out as unknown as Record<string, unknown>;
+    } else {
+      const input = row.input as unknown as AllocationInput;
+      const out = await runAllocation({ ...input, stack, execute, signal, onProgress });
+      result = out as unknown as Record<string, unknown>;
+    }
+    await pending;
+    if (signal.aborted) throw new Error("cancelled");
+    await db
       .update(whatIfRuns)
-      .set({ status: "interrupted", error: "The server stopped while this run was going. Start it again." })
-      .where(eq(whatIfRuns.status, "running"));
-    this.kick();
+      .set({ status: "finished", result, finishedAt: new Date(), progressDone: row.progressTotal })
+      .where(and(eq(whatIfRuns.id, row.id), eq(whatIfRuns.status, "running")));
+  } catch (e) {
+    await pending.catch(() => undefined);
+    const reason = ctx.reason();
+    if (reason === "stopping" || reason === "abandoned") throw new WhatIfLeftError("the process stopped during the run", { cause: e });
+    const cancelled = signal.aborted;
+    await db
+      .update(whatIfRuns)
+      .set({
+        status: cancelled ? "cancelled" : "failed",
+        finishedAt: new Date(),
+        error: cancelled ? null : e instanceof Error ? e.message : String(e),
+      })
+      .where(and(eq(whatIfRuns.id, row.id), eq(whatIfRuns.status, "running")));
+    if (!cancelled) log(`what-if run ${row.id} failed`, e);
+  }
+}
+
+/** One machine: what-if runs in this process, on the warm pool, through the shared loop. */
+export class WhatIfQueue implements WhatIfScheduler {
+  private readonly loop: LocalRunLoop<WhatIfRow>;
+
+  constructor(db: Database, executor: WhatIfExecutorFactory, log: Log, maxRunning = MAX_RUNNING_WHAT_IF) {
+    this.loop = new LocalRunLoop<WhatIfRow>(
+      {
+        what: "what-if queue",
+        maxRunning,
+        interruptLeftovers: async () => {
+          await db
+            .update(whatIfRuns)
+            .set({ status: "interrupted", error: "The server stopped while this run was going. Start it again." })
+            .where(eq(whatIfRuns.status, "running"));
+        },
+        claim: async (busy) => {
+          const queued = await db
+            .select({ id: whatIfRuns.id })
+            .from(whatIfRuns)
+            .where(eq(whatIfRuns.status, "queued"))
+            .orderBy(asc(whatIfRuns.createdAt))
+            .limit(maxRunning * 2);
+          const next = queued.find((q) => !busy.ids.has(q.id));
+          if (!next) return null;
+          const [row] = await db
+            .update(whatIfRuns)
+            .set({ status: "running", startedAt: new Date(), progressDone: 0, error: null })
+            .where(and(eq(whatIfRuns.id, next.id), eq(whatIfRuns.status, "queued")))
+            .returning();
+          return row ? { id: row.id, owner: row.createdBy ?? "", job: row } : "lost";
+        },
+        run: async ({ job, owner }, ctx) => {
+          // a stop leaves the run as it is: the next start marks it interrupted, as after a crash
+          await executeWhatIf(db, job, executor(owner), ctx, log).catch((e) => {
+            if (!(e instanceof WhatIfLeftError)) throw e;
+          });
+        },
+        cancelQueued: async (id) => {
+          const rows = await db
+            .update(whatIfRuns)
+            .set({ status: "cancelled", finishedAt: new Date() })
+            .where(and(eq(whatIfRuns.id, id), eq(whatIfRuns.status, "queued")))
+            .returning({ id: whatIfRuns.id });
+          return rows.length > 0;
+        },
+      },
+      log,
+    );
+  }
+
+  start() {
+    return this.loop.start();
   }
 
   kick() {
-    if (this.stopped) return;
-    if (this.kicking) {
-      this.kickAgain = true;
-      return;
-    }
-    this.kicking = true;
-    void this.next()
-      .catch((e) => this.log("what-if queue error", e))
-      .finally(() => {
-        this.kicking = false;
-        if (this.kickAgain) {
-          this.kickAgain = false;
-          this.kick();
-        }
-      });
+    this.loop.kick();
   }
 
-  /** Cancels a queued or running run; true when it was found in one of those states. */
-  async cancel(id: string): Promise<boolean> {
-    const run = this.running.get(id);
-    if (run) {
-      run.controller.abort();
-      await run.done;
-      return true;
-    }
-    const rows = await this.db
-      .update(whatIfRuns)
-      .set({ status: "cancelled", finishedAt: new Date() })
-      .where(and(eq(whatIfRuns.id, id), eq(whatIfRuns.status, "queued")))
-      .returning({ id: whatIfRuns.id });
-    return rows.length > 0;
+  cancel(id: string) {
+    return this.loop.cancel(id);
   }
 
-  async stop() {
-    this.stopped = true;
-    const runs = [...this.running.values()];
-    for (const r of runs) r.controller.abort();
-    await Promise.all(runs.map((r) => r.done));
-  }
-
-  private async next() {
-    while (!this.stopped && this.running.size < this.maxRunning) {
-      const queued = await this.db
-        .select({ id: whatIfRuns.id })
-        .from(whatIfRuns)
-        .where(eq(whatIfRuns.status, "queued"))
-        .orderBy(asc(whatIfRuns.createdAt))
-        .limit(this.maxRunning * 2);
-      const job = queued.find((q) => !this.running.has(q.id));
-      if (!job) return;
-      const [row] = await this.db
-        .update(whatIfRuns)
-        .set({ status: "running", startedAt: new Date(), progressDone: 0, error: null })
-        .where(and(eq(whatIfRuns.id, job.id), eq(whatIfRuns.status, "queued")))
-        .returning();
-      if (!row) continue;
-      const controller = new AbortController();
-      const entry = { controller, done: Promise.resolve() };
-      this.running.set(row.id, entry);
-      entry.done = this.run(row, controller).finally(() => {
-        if (this.running.get(row.id) === entry) this.running.delete(row.id);
-        setImmediate(() => this.kick());
-      });
-    }
-  }
-
-  private async run(row: typeof whatIfRuns.$inferSelect, controller: AbortController) {
-    let lastWrite = 0;
-    let pending: Promise<unknown> = Promise.resolve();
-    const write = (set: Partial<typeof whatIfRuns.$inferInsert>) => {
-      pending = pending.then(() =>
-        this.db
-          .update(whatIfRuns)
-          .set(set)
-          .where(and(eq(whatIfRuns.id, row.id), eq(whatIfRuns.status, "running"))),
-      );
-    };
-    const onProgress = (done: number, total: number) => {
-      const now = Date.now();
-      if (now - lastWrite < PROGRESS_EVERY_MS && done < total) return;
-      lastWrite = now;
-      write({ progressDone: done, progressTotal: total });
-    };
-    const execute = this.executor(row.createdBy ?? "");
-    const signal = controller.signal;
-    const stack = row.stack as StackFile;
-    try {
-      let result: Record<string, unknown>;
-      if (row.kind === "sweep") {
-        const input = row.input as unknown as SweepInput;
-        const info = describeParameter(stack, input.study, input.parameter);
-        if ("error" in info) throw new Error(info.error);
-        const out = await runSweep({
-          stack,
-          study: input.study,
-          info,
-          values: input.values,
-          execute,
-          signal,
-          onProgress,
-          onPoint: (points: SweepPoint[]) => write({ result: { points, crossings: [] } }),
-        });
-        result = out as unknown as Record<string, unknown>;
-      } else {
-        const input = row.input as unknown as AllocationInput;
-        const out = await runAllocation({ ...input, stack, execute, signal, onProgress });
-        result = out as unknown as Record<string, unknown>;
-      }
-      await pending;
-      if (signal.aborted) throw new Error("cancelled");
-      await this.db
-        .update(whatIfRuns)
-        .set({ status: "finished", result, finishedAt: new Date(), progressDone: row.progressTotal })
-        .where(and(eq(whatIfRuns.id, row.id), eq(whatIfRuns.status, "running")));
-    } catch (e) {
-      await pending.catch(() => undefined);
-      const cancelled = signal.aborted;
-      await this.db
-        .update(whatIfRuns)
-        .set({
-          status: cancelled ? "cancelled" : "failed",
-          finishedAt: new Date(),
-          error: cancelled ? null : e instanceof Error ? e.message : String(e),
-        })
-        .where(and(eq(whatIfRuns.id, row.id), eq(whatIfRuns.status, "running")));
-      if (!cancelled) this.log(`what-if run ${row.id} failed`, e);
-    }
+  stop() {
+    return this.loop.stop();
   }
 }

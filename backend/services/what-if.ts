@@ -2,7 +2,7 @@
  * What-if runs (issue 12): queue a sweep or an allocation on a revision, read it back, and make
  * a draft revision from an allocation's verified proposal.
  */
-import { and, eq, sql } from "drizzle-orm";
+import { and, eq, inArray, sql } from "drizzle-orm";
 import type { Actor } from "../middleware/session";
 import type { Database } from "../db/client";
 import { stackRevisions, whatIfRuns } from "../db/schema";
@@ -10,7 +10,7 @@ import { badRequest, conflict, found, type FieldError } from "../lib/errors";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
 import { getRevision, getRevisionRow } from "./revisions";
-import type { WhatIfQueue } from "./what-if-queue";
+import type { WhatIfScheduler } from "./what-if-queue";
 import { validateStudy, type StudyFile } from "@shared/schemas/study-file";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { Allocation, CreateAllocation, CreateSweep, Sweep } from "@shared/schemas/what-if";
@@ -80,7 +80,7 @@ async function queueRun(
   });
 }
 
-export async function createSweep(db: Database, queue: WhatIfQueue, actor: Actor, revisionId: string, input: CreateSweep) {
+export async function createSweep(db: Database, queue: WhatIfScheduler, actor: Actor, revisionId: string, input: CreateSweep) {
   const revision = await getRevisionRow(db, actor.workspaceId, revisionId);
   await assertProjectOpen(db, actor.workspaceId, revision.projectId);
   const study = checkedStudy(revision, input.study);
@@ -109,7 +109,7 @@ export async function createSweep(db: Database, queue: WhatIfQueue, actor: Actor
   return { id };
 }
 
-export async function createAllocation(db: Database, queue: WhatIfQueue, actor: Actor, revisionId: string, input: CreateAllocation) {
+export async function createAllocation(db: Database, queue: WhatIfScheduler, actor: Actor, revisionId: string, input: CreateAllocation) {
   const revision = await getRevisionRow(db, actor.workspaceId, revisionId);
   await assertProjectOpen(db, actor.workspaceId, revision.projectId);
   const study = checkedStudy(revision, input.study);
@@ -212,6 +212,37 @@ export async function getAllocation(db: Database, workspaceId: string, id: strin
     rounds: (out?.rounds ?? []).map((r) => ({ ...r, closestShare: num(r.closestShare) ?? 0, minLowerMargin: num(r.minLowerMargin) ?? 0 })),
     appliedRevisionId: row.run.appliedRevisionId,
   };
+}
+
+/**
+ * Cancels a queued or running sweep or allocation: the state and its activity record in one
+ * transaction; then a run this process is running stops at once, and one running anywhere else
+ * (a server-mode worker) stops at its next progress write, which finds the state changed.
+ */
+export async function cancelRun(db: Database, queue: WhatIfScheduler, actor: Actor, id: string, kind: "sweep" | "allocation") {
+  const row = await runRow(db, actor.workspaceId, id, kind);
+  const what = kind === "sweep" ? "sweep" : "allocation";
+  await db.transaction(async (tx) => {
+    const rows = await tx
+      .update(whatIfRuns)
+      .set({ status: "cancelled", finishedAt: new Date(), error: null })
+      .where(and(eq(whatIfRuns.id, id), inArray(whatIfRuns.status, ["queued", "running"])))
+      .returning({ id: whatIfRuns.id });
+    if (!rows.length) {
+      const [now] = await tx.select({ status: whatIfRuns.status }).from(whatIfRuns).where(eq(whatIfRuns.id, id));
+      throw conflict(`The ${what} is ${now?.status ?? row.run.status}; only a queued or running one can be cancelled.`, "invalid_state");
+    }
+    await recordActivity(tx, {
+      workspaceId: actor.workspaceId,
+      projectId: row.run.projectId,
+      actorId: actor.userId,
+      action: `whatif.${kind}.cancelled`,
+      summary: `cancelled a ${what} on stack revision ${row.revisionNumber}`,
+      data: { runId: id, revisionId: row.run.revisionId },
+    });
+  });
+  await queue.cancel(id);
+  return kind === "sweep" ? getSweep(db, actor.workspaceId, id) : getAllocation(db, actor.workspaceId, id);
 }
 
 /** A new draft revision with the proposal's tolerances (the run's frozen stack, the revision's requirements). */

@@ -13,6 +13,7 @@ import { keepConnectionsLonger } from "@backend/lib/http-server";
 import { assembleRuntime, startRuntime, stopRuntime } from "@backend/runtime";
 import { DEMO_PASSWORD, type SeedStep } from "@backend/seed";
 import type { StudyRunner, StudyScheduler } from "@backend/services/study-queue";
+import type { WhatIfScheduler } from "@backend/services/what-if-queue";
 
 export type TestApp = {
   url: string;
@@ -49,6 +50,8 @@ export type TestAppOptions = {
   clock?: Clock;
   /** Server mode: a job-queue scheduler and its status, in place of the in-process queue. */
   scheduler?: StudyScheduler;
+  /** Server mode: what-if runs through the job queue too (with `scheduler`); the in-process queue otherwise. */
+  whatIfScheduler?: WhatIfScheduler;
   queueStatus?: AppDeps["queueStatus"];
   /** Room on disk and the workspace quota (tests inject a full disk); the runtime's default otherwise. */
   storage?: AppDeps["storage"];
@@ -84,7 +87,9 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
     ownsDatabase: !opts.handle,
     storage: opts.storage,
     supplierUploadsPerHour: opts.supplierUploadsPerHour,
-    serverMode: opts.scheduler ? { studyQueue: opts.scheduler, queueStatus: opts.queueStatus, stop: async () => undefined } : undefined,
+    serverMode: opts.scheduler
+      ? { studyQueue: opts.scheduler, whatIfQueue: opts.whatIfScheduler, queueStatus: opts.queueStatus, stop: async () => undefined }
+      : undefined,
   });
   const { deps } = runtime;
   const { studyQueue } = deps;
