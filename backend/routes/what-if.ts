@@ -5,7 +5,7 @@ import type { AppDeps } from "../deps";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
 import { inclinationGrid } from "../services/geomagnetic";
-import { applyAllocation, createAllocation, createSweep, getAllocation, getSweep } from "../services/what-if";
+import { applyAllocation, cancelRun, createAllocation, createSweep, getAllocation, getSweep } from "../services/what-if";
 
 /** Sweeps, allocations and the inclination map (issue 12). */
 export function whatIfRouter({ db, whatIfQueue }: AppDeps) {
@@ -22,6 +22,11 @@ export function whatIfRouter({ db, whatIfQueue }: AppDeps) {
     res.json(await getSweep(db, actorOf(req).workspaceId, id));
   });
 
+  r.post("/sweeps/:id/cancel", allow("whatif.run"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.json(await cancelRun(db, whatIfQueue, actorOf(req), id, "sweep"));
+  });
+
   r.post("/revisions/:id/allocations", allow("whatif.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateAllocationSchema, req);
@@ -31,6 +36,11 @@ export function whatIfRouter({ db, whatIfQueue }: AppDeps) {
   r.get("/allocations/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     res.json(await getAllocation(db, actorOf(req).workspaceId, id));
+  });
+
+  r.post("/allocations/:id/cancel", allow("whatif.run"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    res.json(await cancelRun(db, whatIfQueue, actorOf(req), id, "allocation"));
   });
 
   r.post("/allocations/:id/apply", allow("revisions.write"), async (req, res) => {

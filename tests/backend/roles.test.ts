@@ -109,7 +109,7 @@ async function freshStudy(c: Ctx, status: "queued" | "failed" | "finished" = "qu
   return s.id;
 }
 /** A finished what-if run (a sweep with no points, or a verified allocation that tightens mag.axis). */
-async function freshWhatIf(c: Ctx, kind: "sweep" | "allocation") {
+async function freshWhatIf(c: Ctx, kind: "sweep" | "allocation", status: "finished" | "running" = "finished") {
   const revisionId = await freshRevision(c);
   const [rev] = await c.t.handle.db.select().from(stackRevisions).where(eq(stackRevisions.id, revisionId));
   const cost = { a: 0.1, b: 0.05, k: 2 };
@@ -132,7 +132,7 @@ async function freshWhatIf(c: Ctx, kind: "sweep" | "allocation") {
   const input = kind === "sweep" ? { study: STUDY, parameter: "mag.axis", values: [0.3, 0.6] } : { study: STUDY };
   const [w] = await c.t.handle.db
     .insert(whatIfRuns)
-    .values({ workspaceId: c.workspaceId, projectId: rev.projectId, revisionId, kind, status: "finished", input, stack: REFERENCE, result })
+    .values({ workspaceId: c.workspaceId, projectId: rev.projectId, revisionId, kind, status, input, stack: REFERENCE, result })
     .returning();
   return w.id;
 }
@@ -395,6 +395,12 @@ export const ROUTES: Row[] = [
     body: () => ({ study: STUDY, parameter: "mag.axis", values: [0.3, 0.6] }),
   },
   { route: "GET /api/sweeps/:id", allowed: STAFF, path: async (c) => `/api/sweeps/${await freshWhatIf(c, "sweep")}` },
+  // "running" as another process would have it: the queue here leaves it alone, the cancel stops it
+  {
+    route: "POST /api/sweeps/:id/cancel",
+    allowed: WRITERS,
+    path: async (c) => `/api/sweeps/${await freshWhatIf(c, "sweep", "running")}/cancel`,
+  },
   {
     route: "POST /api/revisions/:id/allocations",
     allowed: WRITERS,
@@ -402,6 +408,11 @@ export const ROUTES: Row[] = [
     body: () => ({ study: STUDY, free: ["mag.axis"] }),
   },
   { route: "GET /api/allocations/:id", allowed: STAFF, path: async (c) => `/api/allocations/${await freshWhatIf(c, "allocation")}` },
+  {
+    route: "POST /api/allocations/:id/cancel",
+    allowed: WRITERS,
+    path: async (c) => `/api/allocations/${await freshWhatIf(c, "allocation", "running")}/cancel`,
+  },
   {
     route: "POST /api/allocations/:id/apply",
     allowed: WRITERS,

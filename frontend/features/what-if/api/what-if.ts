@@ -57,6 +57,24 @@ export function useCreateAllocation() {
   });
 }
 
+/** Stops a queued or running sweep; the answer is the sweep as it stands, written into the cache. */
+export function useCancelSweep() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (id: string) => api.post(`/api/sweeps/${enc(id)}/cancel`, {}, SweepSchema),
+    onSuccess: (sweep) => queryClient.setQueryData(whatIfKeys.sweep(sweep.id), sweep),
+  });
+}
+
+/** Stops a queued or running allocation. */
+export function useCancelAllocation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (id: string) => api.post(`/api/allocations/${enc(id)}/cancel`, {}, AllocationSchema),
+    onSuccess: (allocation) => queryClient.setQueryData(whatIfKeys.allocation(allocation.id), allocation),
+  });
+}
+
 export function useApplyAllocation() {
   const queryClient = useQueryClient();
   return useMutation({

@@ -6,10 +6,10 @@ import { formatCount } from "@shared/format";
 import { Alert } from "@frontend/components/ui/alert";
 import { Field, Input } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
-import { useAllocation, useApplyAllocation, useCreateAllocation } from "../api/what-if";
+import { useAllocation, useApplyAllocation, useCancelAllocation, useCreateAllocation } from "../api/what-if";
 import { AllocationForm } from "./allocation-form";
 import { AllocationResult } from "./allocation-result";
-import { RunProgress } from "./run-progress";
+import { RunCancelled, RunProgress } from "./run-progress";
 
 /** Least-cost tolerances for the study's requirements: settings, progress, the proposal and its draft. */
 export function AllocationPanel({
@@ -35,6 +35,7 @@ export function AllocationPanel({
   const create = useCreateAllocation();
   const allocation = useAllocation(runId);
   const apply = useApplyAllocation();
+  const cancel = useCancelAllocation();
   const navigate = useNavigate();
   const a = allocation.data;
   const n = Number(trials);
@@ -72,7 +73,20 @@ export function AllocationPanel({
       {a ? (
         <Panel title="Proposal" meta={`${formatCount(a.trials)} trials per verifying run · seed ${a.seed}`} accent="var(--color-gyro)">
           {a.status === "queued" || a.status === "running" ? (
-            <RunProgress label="Allocation" status={a.status} done={a.progress.done} total={a.progress.total} />
+            <RunProgress
+              label="Allocation"
+              status={a.status}
+              done={a.progress.done}
+              total={a.progress.total}
+              onCancel={canRun ? () => cancel.mutate(a.id) : undefined}
+              cancelling={cancel.isPending}
+            />
+          ) : null}
+          {a.status === "cancelled" ? <RunCancelled what="allocation" done={a.progress.done} total={a.progress.total} /> : null}
+          {cancel.error ? (
+            <Alert className="mt-3" title="The allocation was not cancelled">
+              {cancel.error.message}
+            </Alert>
           ) : null}
           {a.status === "failed" || a.status === "interrupted" ? (
             <Alert title="The allocation stopped">{a.error ?? "No message was recorded."}</Alert>

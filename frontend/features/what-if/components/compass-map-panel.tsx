@@ -8,11 +8,11 @@ import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Field, Input, Select } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
-import { useCreateSweep, useInclinationGrid, useSweep } from "../api/what-if";
+import { useCancelSweep, useCreateSweep, useInclinationGrid, useSweep } from "../api/what-if";
 import { failingBands, latitudeText, yieldGrid } from "../lib/map";
 import { evenValues } from "../lib/values";
 import { CompassMap } from "./compass-map";
-import { RunProgress } from "./run-progress";
+import { RunCancelled, RunProgress } from "./run-progress";
 
 const today = () => {
   const d = new Date().toISOString().slice(0, 10);
@@ -38,6 +38,7 @@ export function CompassMapPanel({
   const [trials, setTrials] = useState(String(Math.min(study.trials, 20_000)));
   const create = useCreateSweep();
   const sweep = useSweep(runId);
+  const cancel = useCancelSweep();
   const s = sweep.data;
   // the map needs every point: a part of the sweep would leave whole regions out
   const finished = s?.status === "finished";
@@ -130,8 +131,16 @@ export function CompassMapPanel({
           accent="var(--color-mag)"
         >
           {s.status === "queued" || s.status === "running" ? (
-            <RunProgress label="Inclination sweep" status={s.status} done={s.progress.done} total={s.progress.total} />
+            <RunProgress
+              label="Inclination sweep"
+              status={s.status}
+              done={s.progress.done}
+              total={s.progress.total}
+              onCancel={canRun ? () => cancel.mutate(s.id) : undefined}
+              cancelling={cancel.isPending}
+            />
           ) : null}
+          {s.status === "cancelled" ? <RunCancelled what="sweep" done={s.progress.done} total={s.progress.total} /> : null}
           {finished && grid.data && yields && req ? (
             <div className="grid gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(14rem,1fr)]">
               <CompassMap grid={grid.data} yields={yields} edgeYields={yieldGrid(grid.data, s.points, k, true)} target={req.yield} />

@@ -9,9 +9,9 @@ import { Button } from "@frontend/components/ui/button";
 import { Field, Input, Select } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
 import { isApiError } from "@frontend/lib/api-client";
-import { useCreateSweep, useSweep } from "../api/what-if";
+import { useCancelSweep, useCreateSweep, useSweep } from "../api/what-if";
 import { defaultSourceValues, evenValues, parseValues } from "../lib/values";
-import { RunProgress } from "./run-progress";
+import { RunCancelled, RunProgress } from "./run-progress";
 import { SweepChart } from "./sweep-chart";
 
 export type ParameterOption = { id: string; label: string; unit: "um" | "deg"; current: number };
@@ -56,6 +56,7 @@ export function SweepPanel({
   const [formError, setFormError] = useState<string | null>(null);
   const create = useCreateSweep();
   const sweep = useSweep(runId);
+  const cancel = useCancelSweep();
 
   const choose = (id: string) => {
     setParameter(id);
@@ -122,7 +123,20 @@ export function SweepPanel({
           accent="var(--color-gyro)"
         >
           {s.status === "queued" || s.status === "running" ? (
-            <RunProgress label="Sweep" status={s.status} done={s.progress.done} total={s.progress.total} />
+            <RunProgress
+              label="Sweep"
+              status={s.status}
+              done={s.progress.done}
+              total={s.progress.total}
+              onCancel={canRun ? () => cancel.mutate(s.id) : undefined}
+              cancelling={cancel.isPending}
+            />
+          ) : null}
+          {s.status === "cancelled" ? <RunCancelled what="sweep" done={s.progress.done} total={s.progress.total} /> : null}
+          {cancel.error ? (
+            <Alert className="mt-3" title="The sweep was not cancelled">
+              {cancel.error.message}
+            </Alert>
           ) : null}
           {s.status === "failed" || s.status === "interrupted" ? (
             <Alert title="The sweep stopped">{s.error ?? "No message was recorded."}</Alert>
