@@ -1,5 +1,5 @@
 import { randomBytes } from "node:crypto";
-import { existsSync, readFileSync, writeFileSync } from "node:fs";
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 
 /**
@@ -11,6 +11,8 @@ export function loadSecret(dataDir: string, fromEnv?: string): string {
   const file = join(dataDir, ".auth-secret");
   if (existsSync(file)) return readFileSync(file, "utf8").trim();
   const secret = randomBytes(32).toString("base64url");
+  // in server mode nothing else makes the data folder (the data is in PostgreSQL)
+  mkdirSync(dataDir, { recursive: true });
   writeFileSync(file, secret, { mode: 0o600 });
   return secret;
 }
