@@ -424,14 +424,44 @@ describe("3D view in the browser", () => {
     expect(await pixelDifference(page, "exploded-framed", "section")).toBeGreaterThan(0.005);
   });
 
-  it("saves a PNG of the view", async () => {
-    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Save PNG" }).click()]);
-    expect(download.suggestedFilename()).toMatch(/^reference-9-axis-stack-nominal-x\d+\.png$/);
+  it("saves a picture of the view at twice its pixels, the caption inside it", async () => {
+    const canvasSize = () =>
+      page.evaluate(() => {
+        const c = document.querySelector<HTMLCanvasElement>('[data-testid="stack-viewer"] canvas')!;
+        return [c.width, c.height];
+      });
+    const [w, h] = await canvasSize();
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Save picture" }).click()]);
+    expect(download.suggestedFilename()).toMatch(/^reference-9-axis-stack-revision-3-nominal-x\d+\.png$/);
     const path = join(ARTIFACTS, "viewer3d-export.png");
     await download.saveAs(path);
     const bytes = readFileSync(path);
     expect(bytes.subarray(1, 4).toString("latin1")).toBe("PNG");
-    expect(bytes.length).toBeGreaterThan(20_000);
+    // the IHDR chunk: width and height of the picture, twice those of the view's drawing buffer
+    expect([bytes.readUInt32BE(16), bytes.readUInt32BE(20)]).toEqual([2 * w, 2 * h]);
+    // the view on the page is back at its own size
+    expect(await canvasSize()).toEqual([w, h]);
+    // the caption band at the foot of the picture holds light text on the dark band
+    const band = await page.evaluate(
+      async (dataUrl) => {
+        const img = new Image();
+        img.src = dataUrl;
+        await img.decode();
+        const c = document.createElement("canvas");
+        c.width = img.width;
+        c.height = img.height;
+        const g = c.getContext("2d")!;
+        g.drawImage(img, 0, 0);
+        const rows = Math.round(img.height * 0.06);
+        const d = g.getImageData(0, img.height - rows, img.width, rows).data;
+        let light = 0;
+        for (let i = 0; i < d.length; i += 4) if (d[i] > 150 && d[i + 1] > 150 && d[i + 2] > 150) light++;
+        return light / (d.length / 4);
+      },
+      `data:image/png;base64,${bytes.toString("base64")}`,
+    );
+    expect(band).toBeGreaterThan(0.005);
+    expect(band).toBeLessThan(0.5);
     writeFileSync(join(ARTIFACTS, "viewer3d-problems.txt"), problems.join("\n"));
     expect(problems).toEqual([]);
   });

@@ -64,6 +64,7 @@ function Harness() {
           onTrialChange={setTrial}
           selectedId={selected}
           onSelect={setSelected}
+          revisionLabel="revision 3"
           className="min-h-0 flex-1"
         />
       </Suspense>

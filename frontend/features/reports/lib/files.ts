@@ -9,7 +9,7 @@ export const FILE_LABEL: Record<ReportFileKind, string> = { pdf: "PDF", xlsx: "S
 export function readPng(file: File): Promise<string> {
   return new Promise((resolve, reject) => {
     if (file.type !== "image/png") {
-      reject(new Error("Choose a PNG image (the 3D view's Save PNG makes one)."));
+      reject(new Error("Choose a PNG image (the 3D view's Save picture makes one)."));
       return;
     }
     const reader = new FileReader();

@@ -431,6 +431,7 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
           selectedId={selectedId}
           onSelect={select}
           flaggedIds={flaggedIds}
+          revisionLabel={`revision ${revision.number}`}
         />
       </div>
 

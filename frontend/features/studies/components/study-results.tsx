@@ -169,6 +169,7 @@ export function StudyResults({
           open={viewer !== null}
           onClose={() => setViewer(null)}
           studyNumber={study.number}
+          revisionNumber={study.revisionNumber}
           stack={stack}
           study={study.study}
           worstTrials={picks}

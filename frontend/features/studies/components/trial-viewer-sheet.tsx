@@ -19,6 +19,7 @@ export function TrialViewerSheet({
   open,
   onClose,
   studyNumber,
+  revisionNumber,
   stack,
   study,
   worstTrials,
@@ -29,6 +30,8 @@ export function TrialViewerSheet({
   open: boolean;
   onClose: () => void;
   studyNumber: number;
+  /** the stack revision the study ran on */
+  revisionNumber?: number;
   stack: StackFile;
   study: StudyFile;
   worstTrials: WorstTrialPick[];
@@ -103,6 +106,7 @@ export function TrialViewerSheet({
               worstTrials={worstTrials}
               trialIndex={trialIndex}
               onTrialChange={onTrialChange}
+              revisionLabel={`study ${studyNumber}${revisionNumber !== undefined ? ` of revision ${revisionNumber}` : ""}`}
               className="h-full"
             />
           </Suspense>

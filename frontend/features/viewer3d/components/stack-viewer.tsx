@@ -39,6 +39,8 @@ export type StackViewerProps = {
   onSelect?: (id: string) => void;
   /** elements with a geometry warning (ids): outlined in the warning colour */
   flaggedIds?: readonly string[];
+  /** which revision is shown ("revision 3"): written in the saved picture's caption and file name */
+  revisionLabel?: string;
   className?: string;
 };
 
@@ -51,6 +53,7 @@ export default function StackViewer({
   selectedId,
   onSelect,
   flaggedIds,
+  revisionLabel,
   className,
 }: StackViewerProps) {
   const pose = useViewerPose({ stack, study, worstTrials, trialIndex, onTrialChange });
@@ -133,6 +136,7 @@ export default function StackViewer({
   const hasSensors = kindsPresent.some((k) => k === "gyro" || k === "accel" || k === "mag");
   const snapshot = useSnapshotExport(api, {
     stack: drawn,
+    revisionLabel,
     poseLabel: pose.poseLabel,
     choice: pose.choice,
     exaggeration,

@@ -33,6 +33,7 @@ import { AXIS_COLOUR, AXIS_NAMES, KIND_COLOUR } from "../lib/palette";
 import type { PoseSet } from "../lib/poses";
 import { useElementHighlight } from "../hooks/use-element-highlight";
 import { clippedMaterials, disposeMaterials, makeMaterials, useSharedGeometry } from "../lib/scene-materials";
+import { cameraView, renderAtScale } from "../lib/render-at";
 import { FOV, type HoverInfo, noRaycast, type SceneApi, type SectionState, type ViewRequest } from "../lib/scene-types";
 import { ShownPose } from "../lib/shown-pose";
 import { HEAD_L, HEAD_R, SHAFT_R, triadLayout } from "../lib/triad-layout";
@@ -384,9 +385,14 @@ export function ViewerScene(props: ViewerSceneProps) {
   });
 
   // ---- the API for the export, and a frame counter for tests
+  const advance = useThree((s) => s.advance);
   useEffect(() => {
-    onApi({ canvas: gl.domElement, renderNow: () => invalidate() });
-  }, [gl, onApi, invalidate]);
+    const renderAt = (factor: number) => {
+      const canvas = renderAtScale(gl, () => advance(performance.now()), factor);
+      return { canvas, ...cameraView(camera, controls?.target ?? new Vector3(), canvas.height) };
+    };
+    onApi({ canvas: gl.domElement, renderNow: () => invalidate(), renderAt });
+  }, [gl, onApi, invalidate, advance, camera, controls]);
   useFrame(() => onFrame(rig.current.active), 3);
 
   // keep the near plane useful from a die's corner to the whole board

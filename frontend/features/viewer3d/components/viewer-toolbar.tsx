@@ -187,6 +187,7 @@ export function ViewerToolbar({
         type="button"
         onClick={onSave}
         disabled={!canSave}
+        title="A PNG at twice the view's size, with its caption and legend inside the picture"
         className="ml-auto inline-flex h-7 items-center gap-1.5 rounded-md border border-ink bg-ink px-2.5 text-xs font-semibold text-paper hover:bg-ink/90 disabled:opacity-55"
       >
         <svg viewBox="0 0 16 16" className="size-3.5" aria-hidden="true">
@@ -199,7 +200,7 @@ export function ViewerToolbar({
             strokeLinejoin="round"
           />
         </svg>
-        Save PNG
+        Save picture
       </button>
     </div>
   );

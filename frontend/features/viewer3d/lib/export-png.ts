@@ -1,5 +1,5 @@
 /**
- * "Save PNG": the WebGL picture (kept by preserveDrawingBuffer) with a legend and a
+ * "Save picture": the WebGL picture (kept by preserveDrawingBuffer) with a legend and a
  * caption burnt in, so the image explains itself when pasted into a report.
  */
 import { LABEL_FONT } from "./label-texture";

@@ -22,6 +22,8 @@ export interface SceneApi {
   canvas: HTMLCanvasElement;
   /** draws a frame now (for the export) */
   renderNow: () => void;
+  /** the view drawn at `factor` times its pixels, with where the camera looks from and the scale at its target */
+  renderAt: (factor: number) => { canvas: HTMLCanvasElement; azimuthDeg: number; elevationDeg: number; pxPerMm: number };
 }
 
 export interface HoverInfo {
