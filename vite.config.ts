@@ -48,6 +48,8 @@ export default defineConfig({
           root: here("."),
           environment: "node",
           include: ["tests/backend/**/*.test.ts"],
+          // one migrated (and one seeded) database made per run, copied by every test app
+          globalSetup: ["tests/setup/pglite-snapshots.ts"],
           testTimeout: 60_000,
           hookTimeout: 120_000,
         },

@@ -22,6 +22,8 @@ export type DatabaseHandle = {
   /** The PostgreSQL server's address when kind is "postgres" (the job queue connects to it too). */
   url?: string;
   close: () => Promise<void>;
+  /** PGlite only: a copy of the data folder, for `openDatabase("memory://", { snapshot })`. */
+  snapshot?: () => Promise<Blob>;
 };
 
 const migrationsFolder = fileURLToPath(new URL("../../drizzle", import.meta.url));
@@ -43,15 +45,22 @@ export function isPostgresUrl(location: string): boolean {
  * a PostgreSQL server when `location` is a postgres:// URL, else PGlite (in `location`, or in
  * memory when it is "memory://").
  */
-export async function openDatabase(location: string, opts: { poolSize?: number } = {}): Promise<DatabaseHandle> {
+export async function openDatabase(location: string, opts: { poolSize?: number; snapshot?: Blob } = {}): Promise<DatabaseHandle> {
   if (isPostgresUrl(location)) return openPostgres(location, opts.poolSize ?? 10);
   const inMemory = location === "memory://";
   if (!inMemory) mkdirSync(location, { recursive: true });
-  const client = inMemory ? new PGlite() : new PGlite(location);
+  // An in-memory database can start from a copy of another one's data folder (PGlite's
+  // dumpDataDir), which skips initdb: the test suite starts each app from one migrated snapshot.
+  const client = inMemory ? new PGlite(opts.snapshot ? { loadDataDir: opts.snapshot } : {}) : new PGlite(location);
   await client.waitReady;
   const db = drizzlePglite({ client, schema });
   await migratePglite(db, { migrationsFolder });
-  return { db: db as Database, kind: "pglite", close: () => client.close() };
+  return {
+    db: db as Database,
+    kind: "pglite",
+    close: () => client.close(),
+    snapshot: () => client.dumpDataDir("none"),
+  };
 }
 
 async function openPostgres(url: string, max: number): Promise<DatabaseHandle> {

@@ -3,15 +3,16 @@ import type { Server } from "node:http";
 import { createApp } from "@backend/app";
 import { createAuth } from "@backend/auth";
 import { eq } from "drizzle-orm";
-import type { DatabaseHandle } from "@backend/db/client";
+import type { Database, DatabaseHandle } from "@backend/db/client";
 import { openTestDatabase } from "./test-database";
+import { TEST_AUTH_SECRET, TEST_BASE_URL } from "../setup/demo-seed";
 import { studies } from "@backend/db/schema";
 import { DEMO_SEED_STEPS } from "@backend/demo/steps";
 import type { AppDeps, Clock } from "@backend/deps";
 import { mailSettings } from "@backend/lib/env";
 import { keepConnectionsLonger } from "@backend/lib/http-server";
 import { assembleRuntime, startRuntime, stopRuntime } from "@backend/runtime";
-import { DEMO_PASSWORD, type SeedStep } from "@backend/seed";
+import { DEMO_PASSWORD } from "@backend/seed";
 import type { StudyRunner, StudyScheduler } from "@backend/services/study-queue";
 import type { WhatIfScheduler } from "@backend/services/what-if-queue";
 
@@ -59,17 +60,21 @@ export type TestAppOptions = {
 };
 
 // The seed queues the demo study; most tests want the queue to themselves.
-const cancelQueuedStudies: SeedStep = async (db) => {
+const cancelQueuedStudies = async (db: Database) => {
   await db.update(studies).set({ status: "cancelled" }).where(eq(studies.status, "queued"));
 };
 
 export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> {
-  const handle = opts.handle ?? (await openTestDatabase());
-  const baseURL = "http://localhost:3999";
+  const seeded = opts.seed !== false;
+  // A database of its own, with the demo already in it from the run's snapshot when seeded (the
+  // runtime's seed then finds the workspace and skips, as a restarted server would).
+  const handle = opts.handle ?? (await openTestDatabase({ seeded }));
+  if (!opts.handle && seeded && !opts.keepDemoStudy) await cancelQueuedStudies(handle.db);
+  const baseURL = TEST_BASE_URL;
   const auth = createAuth({
     db: handle.db,
     baseURL,
-    secret: "test-secret-test-secret-test-secret-123",
+    secret: TEST_AUTH_SECRET,
     signInPerMinute: opts.signInPerMinute ?? 1000,
   });
   const errors: unknown[] = [];
@@ -83,7 +88,7 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
     mail: mailSettings(opts.mailEnv ?? {}),
     runner: opts.runner,
     engineThreads: 2,
-    seedSteps: opts.seed === false ? null : opts.keepDemoStudy ? DEMO_SEED_STEPS : [...DEMO_SEED_STEPS, cancelQueuedStudies],
+    seedSteps: !seeded ? null : opts.keepDemoStudy ? DEMO_SEED_STEPS : [...DEMO_SEED_STEPS, (db) => cancelQueuedStudies(db)],
     ownsDatabase: !opts.handle,
     storage: opts.storage,
     supplierUploadsPerHour: opts.supplierUploadsPerHour,
