@@ -87,6 +87,8 @@ export default defineConfig({
           root: here("."),
           environment: "node",
           include: ["tests/e2e/**/*.test.ts"],
+          // the demo seeded once into a data folder that each file's server copies
+          globalSetup: ["tests/setup/e2e-data.ts"],
           testTimeout: 120_000,
           hookTimeout: 180_000,
           fileParallelism: false,

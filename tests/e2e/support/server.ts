@@ -1,9 +1,10 @@
 import { spawn, type ChildProcess } from "node:child_process";
-import { mkdtempSync, rmSync } from "node:fs";
+import { cpSync, mkdtempSync, rmSync } from "node:fs";
 import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
+import { inject } from "vitest";
 
 const ROOT = fileURLToPath(new URL("../../..", import.meta.url));
 
@@ -38,12 +39,15 @@ async function waitForHealth(baseURL: string, child: ChildProcess, output: () =>
 }
 
 /**
- * The real server, as `npm start` runs it, on a free port with a fresh data folder
- * (so the demo seed runs) and the built client from dist/client.
+ * The real server, as `npm start` runs it, on a free port with a data folder of its own (a copy
+ * of the run's seeded demo) and the built client from dist/client.
  */
 export async function startServer(): Promise<RunningServer> {
   const port = await freePort();
   const dataDir = mkdtempSync(join(tmpdir(), "orthostack-e2e-"));
+  // The run's seeded data folder (tests/setup/e2e-data.ts); without it the server seeds its own.
+  const seeded = inject("e2eSeededDataDir");
+  if (seeded) cpSync(seeded, dataDir, { recursive: true });
   // The address better-auth and the invitation links use; the browser must use the same origin.
   const baseURL = `http://localhost:${port}`;
   // Vitest puts Vite's import.meta.env values (BASE_URL="/", MODE, DEV, PROD, SSR) and its
