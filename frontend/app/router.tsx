@@ -1,7 +1,7 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { createBrowserRouter, Outlet, type RouteObject } from "react-router";
 import { AcceptInvitationRoute, acceptInvitationLoader } from "./routes/accept-invitation";
-import { homeLoader } from "./routes/app/home";
+import { HomeRoute, homeLoader } from "./routes/app/home";
 import { AppLayout, appLayoutLoader } from "./routes/app/layout";
 import { MembersRoute, membersLoader } from "./routes/app/members";
 import { ProjectRoute, projectLoader } from "./routes/app/project";
@@ -54,7 +54,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               // Pages fail inside the shell, so the navigation stays usable.
               errorElement: <RouteError />,
               children: [
-                { index: true, loader: homeLoader(queryClient) },
+                { index: true, loader: homeLoader(queryClient), element: <HomeRoute /> },
                 { path: "projects", loader: projectsLoader(queryClient), element: <ProjectsRoute /> },
                 { path: "projects/:id", loader: projectLoader(queryClient), element: <ProjectRoute /> },
                 {

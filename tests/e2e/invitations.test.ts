@@ -49,7 +49,7 @@ describe("inviting a person", () => {
     await invitee.page.getByRole("button", { name: "Join Kestrel Wearables" }).click();
     await invitee.page.waitForURL((url) => url.pathname === "/projects");
     await expect(invitee.page.getByTestId("current-user").innerText()).resolves.toBe("Noor Castellanos");
-    expect(await navLabels(invitee.page)).toEqual(["Projects", "Reports", "Suppliers"]);
+    expect(await navLabels(invitee.page)).toEqual(["Home", "Projects", "Reports", "Suppliers"]);
     await invitee.page.getByRole("button", { name: "New project" }).waitFor();
     await screenshot(invitee.page, "invitee-signed-in");
 

@@ -9,10 +9,10 @@ const DEMO = [
     email: "admin@example.com",
     role: "Admin",
     start: "/projects",
-    nav: ["Projects", "Reports", "Suppliers", "Members", "Outbox", "Server status"],
+    nav: ["Home", "Projects", "Reports", "Suppliers", "Members", "Outbox", "Server status"],
   },
-  { email: "engineer@example.com", role: "Engineer", start: "/projects", nav: ["Projects", "Reports", "Suppliers"] },
-  { email: "reviewer@example.com", role: "Reviewer", start: "/projects", nav: ["Projects", "Reports", "Suppliers"] },
+  { email: "engineer@example.com", role: "Engineer", start: "/projects", nav: ["Home", "Projects", "Reports", "Suppliers"] },
+  { email: "reviewer@example.com", role: "Reviewer", start: "/projects", nav: ["Home", "Projects", "Reports", "Suppliers"] },
   { email: "supplier@example.com", role: "Supplier", start: "/reports", nav: ["Reports"] },
 ] as const;
 

@@ -2,15 +2,19 @@ import type { ReactNode } from "react";
 import { NavLink } from "react-router";
 import type { Role } from "@shared/schemas/common";
 import { Logo } from "@frontend/components/ui/logo";
-import { MembersIcon, OutboxIcon, ProjectsIcon, ReportsIcon, StatusIcon, SuppliersIcon } from "@frontend/components/ui/icons";
+import { MembersIcon, OutboxIcon, ProjectsIcon, ReportsIcon, StatusIcon, SuppliersIcon, TrayIcon } from "@frontend/components/ui/icons";
 import { cn } from "@frontend/lib/cn";
 import { can } from "@frontend/lib/permissions";
 
-type NavItem = { to: string; label: string; icon: ReactNode; note?: string };
+type NavItem = { to: string; label: string; icon: ReactNode; note?: string; end?: boolean; countWords?: string };
+
+/** Counts shown beside a screen's name, by its path: `{"/": 3}` is three things waiting on the home page. */
+export type NavCounts = Partial<Record<string, number>>;
 
 /** What each role sees in the navigation: read off the rights table (shared/permissions.ts). */
 export function navItemsFor(role: Role): NavItem[] {
   const items: NavItem[] = [];
+  if (can(role, "reviews.read")) items.push({ to: "/", label: "Home", icon: <TrayIcon />, end: true, countWords: "waiting for you" });
   if (can(role, "projects.read")) items.push({ to: "/projects", label: "Projects", icon: <ProjectsIcon /> });
   if (can(role, "reports.read")) items.push({ to: "/reports", label: "Reports", icon: <ReportsIcon /> });
   if (can(role, "suppliers.read")) {
@@ -27,7 +31,7 @@ export function navItemsFor(role: Role): NavItem[] {
   return items;
 }
 
-export function SideNav({ role }: { role: Role }) {
+export function SideNav({ role, counts = {} }: { role: Role; counts?: NavCounts }) {
   const items = navItemsFor(role);
   return (
     // Below the md breakpoint the rail keeps only the icons, so tables keep their width.
@@ -41,6 +45,7 @@ export function SideNav({ role }: { role: Role }) {
             <li key={item.to}>
               <NavLink
                 to={item.to}
+                end={item.end}
                 className={({ isActive }) =>
                   cn(
                     "group relative flex h-8.5 items-center gap-2.5 rounded-md px-2.5 text-[13px] font-semibold transition-colors",
@@ -54,6 +59,16 @@ export function SideNav({ role }: { role: Role }) {
                     <span className={cn(isActive ? "text-mag" : "text-paper/50 group-hover:text-paper/75")}>{item.icon}</span>
                     <span className="flex-1 max-md:sr-only">{item.label}</span>
                     {item.note ? <span className="text-[10px] font-medium text-paper/35 max-md:hidden">{item.note}</span> : null}
+                    {counts[item.to] ? (
+                      <span
+                        className="rounded-full bg-mag px-1.5 text-[11px] leading-4.5 font-extrabold text-white tabular-nums max-md:absolute max-md:top-0.5 max-md:right-0.5 max-md:px-1 max-md:text-[9px] max-md:leading-3.5"
+                        title={`${counts[item.to]} ${item.countWords ?? ""}`.trim()}
+                        data-testid={`nav-count-${item.label.toLowerCase()}`}
+                      >
+                        {counts[item.to]}
+                        {item.countWords ? <span className="sr-only"> {item.countWords}</span> : null}
+                      </span>
+                    ) : null}
                   </>
                 )}
               </NavLink>

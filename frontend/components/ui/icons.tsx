@@ -129,3 +129,20 @@ export const StatusIcon = (p: IconProps) => (
     <path d="M1.5 8.5h3l1.5-4 3 8 1.5-4h4" />
   </Icon>
 );
+
+/** A tray with an item dropping in: what waits for you. */
+export const TrayIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M2 9.5h3.25l1 1.75h3.5l1-1.75H14" />
+    <path d="M2 9.5 3.5 3.5h9L14 9.5V13H2Z" />
+    <path d="M8 4.75v3M6.75 6.5 8 7.75 9.25 6.5" />
+  </Icon>
+);
+
+/** A box with a lid: archived. */
+export const ArchiveIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <rect x="2" y="3" width="12" height="3" rx="0.75" />
+    <path d="M3 6v6.5a.5.5 0 0 0 .5.5h9a.5.5 0 0 0 .5-.5V6M6.5 8.5h3" />
+  </Icon>
+);

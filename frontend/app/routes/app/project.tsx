@@ -2,14 +2,17 @@ import { useState, type ReactNode } from "react";
 import type { QueryClient } from "@tanstack/react-query";
 import { data, Link, useNavigate, useParams, type LoaderFunctionArgs } from "react-router";
 import { IdSchema } from "@shared/schemas/common";
+import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
-import { ChevronLeftIcon, PencilIcon, TrashIcon } from "@frontend/components/ui/icons";
+import { ArchiveIcon, ChevronLeftIcon, PencilIcon, TrashIcon } from "@frontend/components/ui/icons";
 import { Panel } from "@frontend/components/ui/panel";
 import { useMe } from "@frontend/features/auth/api/get-me";
 import { DatasetsPanel } from "@frontend/features/datasets/components/datasets-panel";
 import { projectQueryOptions, useProject } from "@frontend/features/projects/api/get-project";
 import { projectActivityQueryOptions } from "@frontend/features/projects/api/get-project-activity";
+import { useSetProjectArchived } from "@frontend/features/projects/api/archive-project";
 import { ActivityList } from "@frontend/features/projects/components/activity-list";
+import { ArchiveProjectDialog } from "@frontend/features/projects/components/archive-project-dialog";
 import { DeleteProjectDialog } from "@frontend/features/projects/components/delete-project-dialog";
 import { EditProjectDialog } from "@frontend/features/projects/components/project-form-dialog";
 import { StudyResultChip } from "@frontend/features/projects/components/study-result-chip";
@@ -47,8 +50,11 @@ export function ProjectRoute() {
   const { data: project } = useProject(id);
   const me = useMe();
   const canWrite = can(me.role, "projects.write");
+  // an archived project is read-only: the server refuses every change, so nothing here offers one
+  const open = project.archivedAt === null;
   const navigate = useNavigate();
-  const [dialog, setDialog] = useState<"edit" | "delete" | null>(null);
+  const [dialog, setDialog] = useState<"edit" | "delete" | "archive" | null>(null);
+  const restore = useSetProjectArchived();
 
   return (
     <>
@@ -65,15 +71,38 @@ export function ProjectRoute() {
         </div>
         {canWrite ? (
           <div className="flex gap-2">
-            <Button icon={<PencilIcon />} onClick={() => setDialog("edit")}>
-              Rename
-            </Button>
+            {open ? (
+              <>
+                <Button icon={<PencilIcon />} onClick={() => setDialog("edit")}>
+                  Rename
+                </Button>
+                <Button icon={<ArchiveIcon />} onClick={() => setDialog("archive")}>
+                  Archive
+                </Button>
+              </>
+            ) : (
+              <Button
+                icon={<ArchiveIcon />}
+                pending={restore.isPending}
+                onClick={() => restore.mutate({ id: project.id, version: project.version, archived: false })}
+              >
+                Restore
+              </Button>
+            )}
             <Button variant="danger-ghost" icon={<TrashIcon />} onClick={() => setDialog("delete")}>
               Delete
             </Button>
           </div>
         ) : null}
       </div>
+
+      {open ? null : (
+        <Alert tone="info" title={`Archived ${formatDateTime(project.archivedAt!)}: read-only`} className="mb-5">
+          Its revisions, studies, data sets and reports can be opened, but nothing can be changed or added.
+          {canWrite ? " Restore the project to work on it again." : null}
+        </Alert>
+      )}
+      {restore.isError ? <Alert className="mb-5">{restore.error.message}</Alert> : null}
 
       <dl className="mb-5 grid grid-cols-2 gap-px overflow-hidden rounded-lg border border-line bg-line sm:grid-cols-4">
         <Fact label="Owner">{project.ownerName ?? "—"}</Fact>
@@ -94,10 +123,10 @@ export function ProjectRoute() {
 
       <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_320px]">
         <div className="grid content-start gap-4 md:grid-cols-2">
-          <RevisionsPanel projectId={project.id} projectName={project.name} canWrite={can(me.role, "revisions.write")} />
-          <StudiesPanel projectId={project.id} canRun={can(me.role, "studies.run")} />
-          <DatasetsPanel projectId={project.id} canWrite={canWrite} />
-          <ReportsPanel projectId={project.id} canWrite={can(me.role, "reports.write")} />
+          <RevisionsPanel projectId={project.id} projectName={project.name} canWrite={open && can(me.role, "revisions.write")} />
+          <StudiesPanel projectId={project.id} canRun={open && can(me.role, "studies.run")} />
+          <DatasetsPanel projectId={project.id} canWrite={open && canWrite} />
+          <ReportsPanel projectId={project.id} canWrite={open && can(me.role, "reports.write")} />
         </div>
         <Panel title="Activity" className="self-start" bodyClassName="max-h-[520px] overflow-y-auto">
           <ActivityList projectId={project.id} />
@@ -105,6 +134,7 @@ export function ProjectRoute() {
       </div>
 
       {dialog === "edit" ? <EditProjectDialog project={project} open onClose={() => setDialog(null)} /> : null}
+      {dialog === "archive" ? <ArchiveProjectDialog project={project} open onClose={() => setDialog(null)} /> : null}
       {dialog === "delete" ? (
         <DeleteProjectDialog
           project={project}

@@ -4,22 +4,33 @@ import { useSearchParams, type LoaderFunctionArgs } from "react-router";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { EmptyState } from "@frontend/components/ui/empty-state";
-import { Input } from "@frontend/components/ui/field";
+import { Input, Select } from "@frontend/components/ui/field";
 import { PlusIcon, ProjectsIcon, SearchIcon } from "@frontend/components/ui/icons";
 import { PageHeader } from "@frontend/components/ui/page-header";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { useMe } from "@frontend/features/auth/api/get-me";
 import { projectsQueryOptions, useProjects } from "@frontend/features/projects/api/get-projects";
+import type { ProjectShown } from "@frontend/features/projects/api/keys";
 import { CreateProjectDialog } from "@frontend/features/projects/components/project-form-dialog";
 import { ProjectsTable } from "@frontend/features/projects/components/projects-table";
+import { useReviewQueue } from "@frontend/features/review-queue";
 import { can } from "@frontend/lib/permissions";
 import { requirePermission } from "../../route-guards";
+
+/** `?archived=only|all` in the address; anything else shows the open projects. */
+const shownOf = (value: string | null): ProjectShown => (value === "only" || value === "all" ? value : "open");
+
+const SHOWN_LABELS: Record<ProjectShown, string> = { open: "Open projects", only: "Archived projects", all: "Open and archived" };
 
 export const projectsLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
-    const q = new URL(request.url).searchParams.get("q") ?? "";
-    await Promise.all([requirePermission(queryClient, request, "projects.read"), queryClient.ensureQueryData(projectsQueryOptions(q))]);
+    const params = new URL(request.url).searchParams;
+    const q = params.get("q") ?? "";
+    await Promise.all([
+      requirePermission(queryClient, request, "projects.read"),
+      queryClient.ensureQueryData(projectsQueryOptions(q, shownOf(params.get("archived")))),
+    ]);
     return null;
   };
 
@@ -30,9 +41,24 @@ export function ProjectsRoute() {
   const canWrite = can(me.role, "projects.write");
   const [searchParams, setSearchParams] = useSearchParams();
   const q = searchParams.get("q") ?? "";
+  const shown = shownOf(searchParams.get("archived"));
   const [draft, setDraft] = useState(q);
   const [creating, setCreating] = useState(false);
-  const projects = useProjects(q);
+  const projects = useProjects(q, shown);
+  const queue = useReviewQueue(can(me.role, "reviews.read"));
+  const awaiting = Object.fromEntries((queue.data?.awaitingReview ?? []).map((a) => [a.projectId, a]));
+
+  function show(next: ProjectShown) {
+    setSearchParams(
+      (prev) => {
+        const params = new URLSearchParams(prev);
+        if (next === "open") params.delete("archived");
+        else params.set("archived", next);
+        return params;
+      },
+      { replace: true },
+    );
+  }
 
   // The value this page last wrote to the URL; any other change came from outside
   // (back button, a link) and replaces what is in the box.
@@ -91,16 +117,31 @@ export function ProjectsRoute() {
           />
           {searching ? <Spinner size={12} className="absolute top-1/2 right-2.5 -translate-y-1/2 text-ink/40" /> : null}
         </div>
-        <p className="text-xs text-ink/55 tabular-nums" aria-live="polite">
-          {projects.isSuccess ? `${rows.length} ${rows.length === 1 ? "project" : "projects"}${q ? ` matching “${q}”` : ""}` : ""}
-        </p>
+        <div className="flex items-center gap-3">
+          <p className="text-xs text-ink/55 tabular-nums" aria-live="polite">
+            {projects.isSuccess
+              ? `${rows.length} ${shown === "only" ? "archived " : ""}${rows.length === 1 ? "project" : "projects"}${q ? ` matching “${q}”` : ""}`
+              : ""}
+          </p>
+          <Select aria-label="Show" compact value={shown} onChange={(e) => show(e.target.value as ProjectShown)} className="w-44">
+            {(Object.keys(SHOWN_LABELS) as ProjectShown[]).map((k) => (
+              <option key={k} value={k}>
+                {SHOWN_LABELS[k]}
+              </option>
+            ))}
+          </Select>
+        </div>
       </div>
 
       {projects.isError ? (
         <Alert title="Projects could not be loaded">{projects.error.message}</Alert>
       ) : rows.length === 0 && projects.isSuccess ? (
         <div className="rounded-lg border border-dashed border-line bg-panel">
-          {q ? (
+          {shown === "only" && !q ? (
+            <EmptyState icon={<ProjectsIcon />} title="No archived projects">
+              A project archived from the list or its page shows here, read-only, until it is restored.
+            </EmptyState>
+          ) : q ? (
             <EmptyState icon={<SearchIcon />} title={`No project matches “${q}”`}>
               Try part of the product name, or clear the search.
               <div className="mt-3">
@@ -128,7 +169,7 @@ export function ProjectsRoute() {
           )}
         </div>
       ) : (
-        <ProjectsTable projects={rows} canWrite={canWrite} />
+        <ProjectsTable projects={rows} canWrite={canWrite} awaiting={awaiting} />
       )}
 
       {canWrite ? <CreateProjectDialog open={creating} onClose={() => setCreating(false)} /> : null}
