@@ -119,7 +119,7 @@ export const ROLE_DESCRIPTIONS: Record<Role, string> = {
   supplier: "Only reports released to their own company",
 };
 
-/** Where each role lands after signing in. */
+/** Where each role lands after signing in: staff on what waits for them (the home page), a supplier on its reports. */
 export function homePath(role: Role): string {
-  return can(role, "projects.read") ? "/projects" : "/reports";
+  return can(role, "reviews.read") ? "/" : can(role, "projects.read") ? "/projects" : "/reports";
 }

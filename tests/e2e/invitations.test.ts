@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { Page } from "playwright-core";
-import { navLabels, screenshot, signInAs } from "./support/browser";
+import { navLabels, openProjects, screenshot, signInAs } from "./support/browser";
 import { setupE2E, unexpectedProblems } from "./support/setup";
 
 const e2e = setupE2E();
@@ -47,9 +47,11 @@ describe("inviting a person", () => {
 
     await invitee.page.getByLabel("Choose a password").fill("gimbal-lock-2026");
     await invitee.page.getByRole("button", { name: "Join Kestrel Wearables" }).click();
-    await invitee.page.waitForURL((url) => url.pathname === "/projects");
+    await invitee.page.waitForURL((url) => url.pathname === "/");
+    await invitee.page.getByRole("heading", { name: "Waiting for you" }).waitFor();
     await expect(invitee.page.getByTestId("current-user").innerText()).resolves.toBe("Noor Castellanos");
     expect(await navLabels(invitee.page)).toEqual(["Home", "Projects", "Reports", "Suppliers"]);
+    await openProjects(invitee.page);
     await invitee.page.getByRole("button", { name: "New project" }).waitFor();
     await screenshot(invitee.page, "invitee-signed-in");
 

@@ -5,7 +5,7 @@
  */
 import type { Page } from "playwright-core";
 import { describe, expect, it } from "vitest";
-import { screenshot, signInAs } from "./support/browser";
+import { openProjects, screenshot, signInAs } from "./support/browser";
 import { setupE2E, unexpectedProblems } from "./support/setup";
 
 const e2e = setupE2E();
@@ -68,7 +68,8 @@ describe("two engineers editing one draft", () => {
     await b.page.getByLabel("Your name").fill("Mira Solberg");
     await b.page.getByLabel("Choose a password").fill("gimbal-lock-2026");
     await b.page.getByRole("button", { name: /^Join / }).click();
-    await b.page.waitForURL((url) => url.pathname === "/projects");
+    await b.page.waitForURL((url) => url.pathname === "/");
+    await openProjects(b.page);
 
     const a = await e2e.session();
     await signInAs(a.page, "engineer@example.com");

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { navLabels, screenshot, signIn, signInAs } from "./support/browser";
+import { navLabels, openProjects, screenshot, signIn, signInAs } from "./support/browser";
 import { setupE2E, unexpectedProblems } from "./support/setup";
 
 const e2e = setupE2E();
@@ -8,11 +8,11 @@ const DEMO = [
   {
     email: "admin@example.com",
     role: "Admin",
-    start: "/projects",
+    start: "/",
     nav: ["Home", "Projects", "Reports", "Suppliers", "Members", "Outbox", "Server status"],
   },
-  { email: "engineer@example.com", role: "Engineer", start: "/projects", nav: ["Home", "Projects", "Reports", "Suppliers"] },
-  { email: "reviewer@example.com", role: "Reviewer", start: "/projects", nav: ["Home", "Projects", "Reports", "Suppliers"] },
+  { email: "engineer@example.com", role: "Engineer", start: "/", nav: ["Home", "Projects", "Reports", "Suppliers"] },
+  { email: "reviewer@example.com", role: "Reviewer", start: "/", nav: ["Home", "Projects", "Reports", "Suppliers"] },
   { email: "supplier@example.com", role: "Supplier", start: "/reports", nav: ["Reports"] },
 ] as const;
 
@@ -20,9 +20,9 @@ describe("signing in as each demo user", () => {
   for (const user of DEMO) {
     it(`${user.email} sees the ${user.role.toLowerCase()} navigation`, async () => {
       const { page, problems } = await e2e.session();
-      await signInAs(page, user.email);
-
-      expect(new URL(page.url()).pathname).toBe(user.start);
+      await signIn(page, user.email);
+      await page.waitForURL((url) => url.pathname === user.start);
+      await page.getByRole("navigation", { name: "Main" }).waitFor();
       expect(await navLabels(page)).toEqual(user.nav);
       const topBar = page.getByRole("banner");
       await expect(topBar.getByText(user.role, { exact: true }).isVisible()).resolves.toBe(true);
@@ -35,7 +35,9 @@ describe("signing in as each demo user", () => {
         await page.goto("/projects");
         await page.getByRole("heading", { name: "Not available for your role" }).waitFor();
       } else {
-        await page.getByRole("table", { name: "Projects" }).waitFor();
+        // staff start on what waits for them
+        await page.getByRole("heading", { name: "Waiting for you" }).waitFor();
+        await openProjects(page);
         const canWrite = user.role !== "Reviewer";
         await expect(page.getByRole("button", { name: "New project" }).count()).resolves.toBe(canWrite ? 1 : 0);
         await page.getByRole("link", { name: "Suppliers" }).click();

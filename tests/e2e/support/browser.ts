@@ -50,11 +50,25 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await page.getByRole("button", { name: "Sign in", exact: true }).click();
 }
 
-/** Signs in and waits for the role's start page. */
+/**
+ * Signs in and waits for the role's start page: staff land on what waits for them (`/`), a
+ * supplier on its reports. Staff then go on to the project list, where most tests begin.
+ */
 export async function signInAs(page: Page, email: string) {
   await signIn(page, email);
-  await page.waitForURL((url) => url.pathname === "/projects" || url.pathname === "/reports");
+  await page.waitForURL((url) => url.pathname === "/" || url.pathname === "/reports");
   await page.getByRole("navigation", { name: "Main" }).waitFor();
+  if (new URL(page.url()).pathname === "/") {
+    await page.getByRole("heading", { name: "Waiting for you" }).waitFor();
+    await openProjects(page);
+  }
+}
+
+/** The project list through the navigation. */
+export async function openProjects(page: Page) {
+  await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Projects" }).click();
+  await page.waitForURL((url) => url.pathname === "/projects");
+  await page.getByRole("table", { name: "Projects" }).waitFor();
 }
 
 export async function screenshot(page: Page, name: string) {
