@@ -56,8 +56,8 @@ export function StatusRoute() {
             {s.queue ? (
               <>
                 <p className="px-4 pt-3 text-[13px] text-ink/70">
-                  {formatCount(s.queue.depth)} part job{s.queue.depth === 1 ? "" : "s"} waiting, {formatCount(s.queue.active)} being worked
-                  on. Worker processes seen in the last minute:
+                  {formatCount(s.queue.depth)} job{s.queue.depth === 1 ? "" : "s"} waiting (study parts, sweeps and allocations),{" "}
+                  {formatCount(s.queue.active)} being worked on. Worker processes seen in the last minute:
                 </p>
                 <TableFrame className="m-4">
                   <Table aria-label="Worker processes">
