@@ -3,6 +3,7 @@ import { toNodeHandler } from "better-auth/node";
 import { CLIENT_IP_HEADER } from "./auth";
 import type { AppDeps } from "./deps";
 import { errorHandler, notFoundApi } from "./lib/errors";
+import { CHECK_RESPONSES } from "./lib/respond";
 import { acceptBodies, sameOrigin } from "./middleware/request-guard";
 import { refuseUnsafeInput, verifyJsonDepth } from "./middleware/json-guard";
 import { securityHeaders } from "./middleware/security-headers";
@@ -45,6 +46,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   const app = express();
   app.disable("x-powered-by");
   app.set("query parser", "simple");
+  app.locals[CHECK_RESPONSES] = deps.checkResponses;
   if (options.trustProxy) app.set("trust proxy", options.trustProxy);
 
   app.use(securityHeaders({ appUrl: deps.baseURL, strictCsp: options.strictCsp }));

@@ -39,6 +39,11 @@ export type AppDeps = {
   storage: StorageGuard;
   /** Measurement uploads one supplier company may send per hour. */
   supplierUploadsPerHour: number;
+  /**
+   * Every JSON answer is parsed with its response schema before it leaves (development and
+   * tests; NODE_ENV=production leaves it off): backend/lib/respond.ts.
+   */
+  checkResponses: boolean;
 };
 
 export const systemClock: Clock = () => new Date();

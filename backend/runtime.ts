@@ -50,6 +50,8 @@ export type RuntimeParts = {
   /** Room on disk and the workspace quota; default: the temporary folder, nothing reserved, 2 GB per workspace. */
   storage?: StorageGuard;
   supplierUploadsPerHour?: number;
+  /** Parse every answer with its response schema (development, tests); default off, as in production. */
+  checkResponses?: boolean;
   /** Server mode: the job queue takes the place of the in-process study queue (and, when given, of the what-if queue). */
   serverMode?: {
     studyQueue: StudyScheduler;
@@ -84,6 +86,7 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
     queueStatus: parts.serverMode?.queueStatus,
     storage: parts.storage ?? storageGuard({ paths: [tmpdir()], reserveBytes: 0, workspaceQuotaBytes: 2048 * 1024 * 1024 }),
     supplierUploadsPerHour: parts.supplierUploadsPerHour ?? 30,
+    checkResponses: parts.checkResponses ?? false,
   };
   const lifecycle: Lifecycle[] = [
     { name: "database", stop: parts.ownsDatabase === false ? undefined : () => handle.close() },
@@ -126,6 +129,7 @@ export async function createRuntime(env: Env, log: Log): Promise<Runtime> {
     mail: mailSettingsOf(env),
     storage: storageGuard(storageSettingsOf(env)),
     supplierUploadsPerHour: env.SUPPLIER_UPLOADS_PER_HOUR,
+    checkResponses: env.NODE_ENV !== "production",
     engineThreads: env.STUDY_THREADS,
     seedSteps: env.SEED_DEMO ? DEMO_SEED_STEPS : null,
   });

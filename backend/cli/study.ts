@@ -6,7 +6,7 @@
  */
 import { readFileSync, writeFileSync } from "node:fs";
 import { runStudyOnThreads, defaultThreads } from "../engine/runner";
-import { validateStackFile, type FieldIssue } from "@shared/schemas/stack-file";
+import { validateStackFile, type FieldError } from "@shared/schemas/stack-file";
 import { validateStudy, MAX_TRIALS } from "@shared/schemas/study-file";
 import type { ResultFile } from "@shared/schemas/result-file";
 
@@ -61,7 +61,7 @@ function readJson(path: string, what: string): unknown {
   }
 }
 
-function report(what: string, path: string, issues: FieldIssue[]): never {
+function report(what: string, path: string, issues: FieldError[]): never {
   fail([`${what} ${path} is not valid:`, ...issues.map((i) => `  ${i.path || "(file)"}: ${i.message}`)]);
 }
 

@@ -1,8 +1,10 @@
 import type { ErrorRequestHandler, RequestHandler } from "express";
 import { ZodError, type core } from "zod";
-import { formatPath } from "@shared/schemas/stack-file";
+import type { FieldError } from "@shared/schemas/common";
+import { formatPath } from "@shared/schemas/field-issues";
+import { ResponseMismatchError } from "./respond";
 
-export type FieldError = { path: string; message: string };
+export type { FieldError };
 
 /** An error that carries its HTTP status and a stable code for the client. */
 export class HttpError extends Error {
@@ -68,6 +70,12 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
       res.status(400).json({
         error: { code: "invalid_input", message: "Some fields are not valid.", fields: zodFields(err.issues) },
       });
+      return;
+    }
+    // Only where answers are checked (development, tests): our own answer broke its contract.
+    if (err instanceof ResponseMismatchError) {
+      log(err);
+      res.status(500).json({ error: { code: "response_mismatch", message: err.message, fields: err.fields } });
       return;
     }
     const e = err as { type?: string; status?: number; statusCode?: number };

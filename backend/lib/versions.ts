@@ -6,11 +6,13 @@
  * docs/decisions/034-record-versions.md
  */
 import type { Request, Response } from "express";
+import type { z } from "zod";
 import { and, eq, sql, type SQL } from "drizzle-orm";
 import type { PgColumn, PgTable, PgUpdateSetSource } from "drizzle-orm/pg-core";
 import { IfMatchSchema, VersionBodySchema, versionTag } from "@shared/schemas/common";
 import type { Database } from "../db/client";
 import { badRequest, HttpError, notFound, zodFields } from "./errors";
+import { send } from "./respond";
 
 type Executor = Pick<Database, "update" | "select">;
 type VersionedTable = PgTable & { id: PgColumn; version: PgColumn };
@@ -95,12 +97,18 @@ export async function writeVersioned<T extends VersionedTable>(
 }
 
 /**
- * Answers with a versioned record and its ETag. Not stored by the browser: the ETag names the
- * record's edit counter, not every byte of the answer (comments, last study), so a cached copy
- * revalidated against it could be stale.
+ * Answers with a versioned record and its ETag, checked against its schema like every answer
+ * (backend/lib/respond.ts). Not stored by the browser: the ETag names the record's edit counter,
+ * not every byte of the answer (comments, last study), so a cached copy revalidated against it
+ * could be stale.
  */
-export function sendVersioned(res: Response, record: { version: number }, status = 200) {
+export function sendVersioned<S extends z.ZodType<{ version: number }>>(
+  res: Response,
+  schema: S,
+  record: z.input<S> & { version: number },
+  status = 200,
+) {
   res.setHeader("ETag", versionTag(record.version));
   res.setHeader("Cache-Control", "private, no-store");
-  res.status(status).json(record);
+  send(res, schema, record, status);
 }

@@ -5,6 +5,9 @@ import multer from "multer";
 import { IdParamsSchema } from "@shared/schemas/common";
 import {
   DATASET_MAX_BYTES,
+  DatasetListSchema,
+  DatasetSchema,
+  DatasetStatisticsSchema,
   StatisticsQuerySchema,
   UpdateDatasetSchema,
   UpdateMappingsSchema,
@@ -14,6 +17,7 @@ import type { AppDeps } from "../deps";
 import type { StorageGuard } from "../lib/storage";
 import { assertQuota } from "../services/storage-usage";
 import { badRequest, HttpError } from "../lib/errors";
+import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
@@ -120,7 +124,7 @@ export function datasetsRouter(deps: AppDeps) {
 
   r.get("/projects/:id/datasets", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json({ datasets: await listDatasets(db, actorOf(req).workspaceId, id) });
+    send(res, DatasetListSchema, { datasets: await listDatasets(db, actorOf(req).workspaceId, id) });
   });
 
   // The role is checked before the body is read, so a refused caller never uploads anything.
@@ -128,12 +132,12 @@ export function datasetsRouter(deps: AppDeps) {
     const { id } = parse(IdParamsSchema, req, "params");
     const fields = parse(UploadFieldsSchema, req);
     await quota(actorOf(req).workspaceId, req.file);
-    sendVersioned(res, await uploadDataset(db, actorOf(req), id, req.file, fields), 201);
+    sendVersioned(res, DatasetSchema, await uploadDataset(db, actorOf(req), id, req.file, fields), 201);
   });
 
   r.get("/datasets/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    sendVersioned(res, await getDataset(db, actorOf(req).workspaceId, id));
+    sendVersioned(res, DatasetSchema, await getDataset(db, actorOf(req).workspaceId, id));
   });
 
   r.delete("/datasets/:id", allow("datasets.write"), async (req, res) => {
@@ -145,19 +149,19 @@ export function datasetsRouter(deps: AppDeps) {
   r.patch("/datasets/:id", allow("datasets.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateDatasetSchema, req);
-    sendVersioned(res, await updateDataset(db, actorOf(req), id, input, sentVersion(req)));
+    sendVersioned(res, DatasetSchema, await updateDataset(db, actorOf(req), id, input, sentVersion(req)));
   });
 
   r.patch("/datasets/:id/mappings", allow("datasets.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateMappingsSchema, req);
-    sendVersioned(res, await updateMappings(db, actorOf(req), id, input, sentVersion(req)));
+    sendVersioned(res, DatasetSchema, await updateMappings(db, actorOf(req), id, input, sentVersion(req)));
   });
 
   r.get("/datasets/:id/statistics", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { column } = parse(StatisticsQuerySchema, req, "query");
-    res.json(await datasetStatistics(db, actorOf(req).workspaceId, id, column));
+    send(res, DatasetStatisticsSchema, await datasetStatistics(db, actorOf(req).workspaceId, id, column));
   });
 
   r.get("/datasets/:id/file", allow("projects.read"), async (req, res) => {
@@ -171,7 +175,7 @@ export function datasetsRouter(deps: AppDeps) {
 
   r.get("/reports/:id/datasets", allow("reports.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json({ datasets: await listReportDatasets(db, actorOf(req), id) });
+    send(res, DatasetListSchema, { datasets: await listReportDatasets(db, actorOf(req), id) });
   });
 
   r.post(UPLOAD_PATHS[1], allow("datasets.send"), supplierUploadLimit(deps.supplierUploadsPerHour), receive, async (req, res) => {
@@ -180,7 +184,7 @@ export function datasetsRouter(deps: AppDeps) {
     await quota(actorOf(req).workspaceId, req.file);
     const dataset = await uploadForReport(db, actorOf(req), id, req.file, fields);
     if (actorOf(req).role === "supplier") await notifyReport(deps, actorOf(req), id, "measurements");
-    res.status(201).json(dataset);
+    send(res, DatasetSchema, dataset, 201);
   });
 
   return r;

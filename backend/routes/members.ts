@@ -1,6 +1,16 @@
 import { Router } from "express";
-import { CreateInvitationSchema, IdParamsSchema, UpdateMemberSchema } from "@shared/schemas/api";
+import {
+  CreateInvitationSchema,
+  IdParamsSchema,
+  InvitationListSchema,
+  InvitationSchema,
+  MemberListSchema,
+  MemberSchema,
+  ResetLinkSentSchema,
+  UpdateMemberSchema,
+} from "@shared/schemas/api";
 import type { AppDeps } from "../deps";
+import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
 import { sendResetLink } from "../services/password-reset";
@@ -12,13 +22,13 @@ export function membersRouter(deps: AppDeps) {
   const admin = allow("members.manage");
 
   r.get("/members", admin, async (req, res) => {
-    res.json({ members: await listMembers(db, actorOf(req).workspaceId) });
+    send(res, MemberListSchema, { members: await listMembers(db, actorOf(req).workspaceId) });
   });
 
   r.patch("/members/:id", admin, async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateMemberSchema, req);
-    res.json(await updateMember(db, actorOf(req), id, input));
+    send(res, MemberSchema, await updateMember(db, actorOf(req), id, input));
   });
 
   r.delete("/members/:id", admin, async (req, res) => {
@@ -29,16 +39,16 @@ export function membersRouter(deps: AppDeps) {
 
   r.post("/members/:id/reset-link", admin, async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.status(201).json(await sendResetLink(db, deps.auth, actorOf(req), id, deps));
+    send(res, ResetLinkSentSchema, await sendResetLink(db, deps.auth, actorOf(req), id, deps), 201);
   });
 
   r.get("/invitations", admin, async (req, res) => {
-    res.json({ invitations: await listInvitations(db, actorOf(req).workspaceId, deps) });
+    send(res, InvitationListSchema, { invitations: await listInvitations(db, actorOf(req).workspaceId, deps) });
   });
 
   r.post("/invitations", admin, async (req, res) => {
     const input = parse(CreateInvitationSchema, req);
-    res.status(201).json(await createInvitation(db, actorOf(req), input, deps));
+    send(res, InvitationSchema, await createInvitation(db, actorOf(req), input, deps), 201);
   });
 
   r.delete("/invitations/:id", admin, async (req, res) => {

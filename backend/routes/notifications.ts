@@ -1,6 +1,12 @@
 import { Router } from "express";
-import { MarkReadSchema, UpdateNotificationSettingsSchema } from "@shared/schemas/notifications";
+import {
+  MarkReadSchema,
+  NotificationListSchema,
+  NotificationSettingsSchema,
+  UpdateNotificationSettingsSchema,
+} from "@shared/schemas/notifications";
 import type { AppDeps } from "../deps";
+import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
 import { listNotifications, markRead, notificationSettings, updateNotificationSettings } from "../services/notifications";
@@ -11,21 +17,21 @@ export function notificationsRouter({ db }: AppDeps) {
   const r = Router();
 
   r.get("/notifications", allow("notifications.read"), async (req, res) => {
-    res.json(await listNotifications(db, actorOf(req)));
+    send(res, NotificationListSchema, await listNotifications(db, actorOf(req)));
   });
 
   r.post("/notifications/read", allow("notifications.read"), async (req, res) => {
     const { ids } = parse(MarkReadSchema, req);
-    res.json(await markRead(db, actorOf(req), ids));
+    send(res, NotificationListSchema, await markRead(db, actorOf(req), ids));
   });
 
   r.get("/notification-settings", allow("notifications.read"), async (req, res) => {
-    res.json(await notificationSettings(db, actorOf(req)));
+    send(res, NotificationSettingsSchema, await notificationSettings(db, actorOf(req)));
   });
 
   r.put("/notification-settings", allow("notifications.read"), async (req, res) => {
     const { email } = parse(UpdateNotificationSettingsSchema, req);
-    res.json(await updateNotificationSettings(db, actorOf(req), email));
+    send(res, NotificationSettingsSchema, await updateNotificationSettings(db, actorOf(req), email));
   });
 
   /** What waits for the signed-in member of staff, from the records themselves (the home page and the counts). */

@@ -1,8 +1,15 @@
 import { Router } from "express";
 import { rateLimit } from "express-rate-limit";
-import { AcceptInvitationSchema, InvitationTokenParamsSchema } from "@shared/schemas/api";
+import {
+  AcceptedInvitationSchema,
+  AcceptInvitationSchema,
+  InvitationPreviewSchema,
+  InvitationTokenParamsSchema,
+} from "@shared/schemas/api";
+import { HealthSchema } from "@shared/schemas/server-status";
 import type { AppDeps } from "../deps";
 import { HttpError } from "../lib/errors";
+import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { acceptInvitation, previewInvitation } from "../services/members";
 
@@ -12,12 +19,12 @@ export function publicRouter({ db, auth, clock, queueStatus }: AppDeps, acceptPe
 
   // Server mode adds the job queue: its depth and the worker processes seen in the last minute.
   r.get("/health", async (_req, res) => {
-    res.json(queueStatus ? { status: "ok", queue: await queueStatus() } : { status: "ok" });
+    send(res, HealthSchema, queueStatus ? { status: "ok", queue: await queueStatus() } : { status: "ok" });
   });
 
   r.get("/invitations/by-token/:token", async (req, res) => {
     const { token } = parse(InvitationTokenParamsSchema, req, "params");
-    res.json(await previewInvitation(db, token, clock));
+    send(res, InvitationPreviewSchema, await previewInvitation(db, token, clock));
   });
 
   // Accepting guesses nothing a token does not already allow, but each try hashes a password:
@@ -37,7 +44,7 @@ export function publicRouter({ db, auth, clock, queueStatus }: AppDeps, acceptPe
     const headers = await acceptInvitation(db, auth, clock, token, input);
     const cookies = headers.getSetCookie();
     if (cookies.length) res.setHeader("set-cookie", cookies);
-    res.json({ ok: true });
+    send(res, AcceptedInvitationSchema, { ok: true });
   });
 
   return r;

@@ -7,11 +7,17 @@ import {
   ReleaseReportSchema,
   REPORT_FILE_KINDS,
   ReportListQuerySchema,
+  ReportListSchema,
+  ReportOptionsSchema,
+  ReportSchema,
+  OutboxSchema,
   SendReportSchema,
+  SendResultSchema,
   UpdateReportSchema,
 } from "@shared/schemas/reports";
-import { CommentBodySchema, ReturnRevisionSchema } from "@shared/schemas/revisions";
+import { CommentBodySchema, CommentListSchema, ReturnRevisionSchema } from "@shared/schemas/revisions";
 import type { AppDeps } from "../deps";
+import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
@@ -42,7 +48,7 @@ export function reportsRouter(deps: AppDeps) {
 
   r.get("/projects/:id/report-options", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await reportOptions(db, actorOf(req), id));
+    send(res, ReportOptionsSchema, await reportOptions(db, actorOf(req), id));
   });
 
   r.post("/studies/:id/reports", allow("reports.write"), async (req, res) => {
@@ -50,23 +56,23 @@ export function reportsRouter(deps: AppDeps) {
     const input = parse(CreateReportSchema, req);
     const report = await createReport(db, actorOf(req), id, input, baseURL);
     await notifyReport(deps, actorOf(req), report.id, "ready");
-    sendVersioned(res, report, 201);
+    sendVersioned(res, ReportSchema, report, 201);
   });
 
   r.get("/reports", allow("reports.read"), async (req, res) => {
     const query = parse(ReportListQuerySchema, req, "query");
-    res.json({ reports: await listReports(db, actorOf(req), query) });
+    send(res, ReportListSchema, { reports: await listReports(db, actorOf(req), query) });
   });
 
   r.get("/reports/:id", allow("reports.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    sendVersioned(res, await getReport(db, actorOf(req), id, baseURL));
+    sendVersioned(res, ReportSchema, await getReport(db, actorOf(req), id, baseURL));
   });
 
   r.patch("/reports/:id", allow("reports.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateReportSchema, req);
-    sendVersioned(res, await updateReport(db, actorOf(req), id, input, baseURL, sentVersion(req)));
+    sendVersioned(res, ReportSchema, await updateReport(db, actorOf(req), id, input, baseURL, sentVersion(req)));
   });
 
   r.delete("/reports/:id", allow("reports.write"), async (req, res) => {
@@ -80,7 +86,7 @@ export function reportsRouter(deps: AppDeps) {
     const { comment } = parse(ReleaseReportSchema, req);
     const report = await releaseReport(db, actorOf(req), id, comment, baseURL, sentVersion(req));
     await notifyReport(deps, actorOf(req), id, "released", comment);
-    sendVersioned(res, report);
+    sendVersioned(res, ReportSchema, report);
   });
 
   r.post("/reports/:id/return", allow("reports.release"), async (req, res) => {
@@ -88,7 +94,7 @@ export function reportsRouter(deps: AppDeps) {
     const { comment } = parse(ReturnRevisionSchema, req);
     const report = await returnReport(db, actorOf(req), id, comment, baseURL, sentVersion(req));
     await notifyReport(deps, actorOf(req), id, "returned", comment);
-    sendVersioned(res, report);
+    sendVersioned(res, ReportSchema, report);
   });
 
   r.post("/reports/:id/send", allow("reports.send"), async (req, res) => {
@@ -96,7 +102,7 @@ export function reportsRouter(deps: AppDeps) {
     const choice = parse(SendReportSchema, req);
     const result = await sendReport(db, mail, actorOf(req), id, choice, baseURL);
     await notifyReport(deps, actorOf(req), id, "sent");
-    res.json(result);
+    send(res, SendResultSchema, result);
   });
 
   r.post("/reports/:id/acknowledge", allow("reports.acknowledge"), async (req, res) => {
@@ -104,7 +110,7 @@ export function reportsRouter(deps: AppDeps) {
     const { comment } = parse(AcknowledgeReportSchema, req);
     const report = await acknowledgeReport(db, actorOf(req), id, comment, baseURL, sentVersion(req));
     await notifyReport(deps, actorOf(req), id, "acknowledged", comment);
-    sendVersioned(res, report);
+    sendVersioned(res, ReportSchema, report);
   });
 
   r.post("/reports/:id/comments", allow("reports.comment"), async (req, res) => {
@@ -112,7 +118,7 @@ export function reportsRouter(deps: AppDeps) {
     const { body } = parse(CommentBodySchema, req);
     const comments = await addReportComment(db, actorOf(req), id, body);
     if (actorOf(req).role === "supplier") await notifyReport(deps, actorOf(req), id, "question", body);
-    res.status(201).json({ comments });
+    send(res, CommentListSchema, { comments }, 201);
   });
 
   for (const kind of REPORT_FILE_KINDS) {
@@ -128,7 +134,7 @@ export function reportsRouter(deps: AppDeps) {
   }
 
   r.get("/outbox", allow("outbox.read"), async (req, res) => {
-    res.json(await listOutbox(db, mail, actorOf(req).workspaceId));
+    send(res, OutboxSchema, await listOutbox(db, mail, actorOf(req).workspaceId));
   });
 
   r.get("/outbox/:id/attachments/:index", allow("outbox.read"), async (req, res) => {

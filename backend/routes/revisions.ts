@@ -2,14 +2,19 @@ import { Router } from "express";
 import {
   ApproveRevisionSchema,
   CommentBodySchema,
+  CommentListSchema,
   CreateRevisionSchema,
   ReturnRevisionSchema,
   RevisionDiffQuerySchema,
+  RevisionDiffSchema,
+  RevisionListSchema,
+  RevisionSchema,
   SubmitRevisionSchema,
   UpdateRevisionSchema,
 } from "@shared/schemas/revisions";
 import { IdParamsSchema } from "@shared/schemas/common";
 import type { AppDeps } from "../deps";
+import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
@@ -37,29 +42,29 @@ export function revisionsRouter(deps: AppDeps) {
 
   r.get("/projects/:id/revisions", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json({ revisions: await listRevisions(db, actorOf(req).workspaceId, id) });
+    send(res, RevisionListSchema, { revisions: await listRevisions(db, actorOf(req).workspaceId, id) });
   });
 
   r.post("/projects/:id/revisions", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateRevisionSchema, req);
-    sendVersioned(res, await createRevision(db, actorOf(req), id, input), 201);
+    sendVersioned(res, RevisionSchema, await createRevision(db, actorOf(req), id, input), 201);
   });
 
   r.get("/revisions/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    sendVersioned(res, await getRevision(db, actorOf(req).workspaceId, id));
+    sendVersioned(res, RevisionSchema, await getRevision(db, actorOf(req).workspaceId, id));
   });
 
   r.patch("/revisions/:id", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateRevisionSchema, req);
-    sendVersioned(res, await updateRevision(db, actorOf(req), id, input, sentVersion(req)));
+    sendVersioned(res, RevisionSchema, await updateRevision(db, actorOf(req), id, input, sentVersion(req)));
   });
 
   r.post("/revisions/:id/drafts", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    sendVersioned(res, await draftFrom(db, actorOf(req), id), 201);
+    sendVersioned(res, RevisionSchema, await draftFrom(db, actorOf(req), id), 201);
   });
 
   r.post("/revisions/:id/submit", allow("revisions.write"), async (req, res) => {
@@ -67,7 +72,7 @@ export function revisionsRouter(deps: AppDeps) {
     const { note } = parse(SubmitRevisionSchema, req);
     const revision = await transitionRevision(db, actorOf(req), id, "submit", sentVersion(req), undefined, note);
     await notifyRevision(deps, actorOf(req), id, "submit");
-    sendVersioned(res, revision);
+    sendVersioned(res, RevisionSchema, revision);
   });
 
   r.post("/revisions/:id/approve", allow("revisions.review"), async (req, res) => {
@@ -75,7 +80,7 @@ export function revisionsRouter(deps: AppDeps) {
     const { comment } = parse(ApproveRevisionSchema, req);
     const revision = await transitionRevision(db, actorOf(req), id, "approve", sentVersion(req), comment || undefined);
     await notifyRevision(deps, actorOf(req), id, "approve", comment || undefined);
-    sendVersioned(res, revision);
+    sendVersioned(res, RevisionSchema, revision);
   });
 
   r.post("/revisions/:id/return", allow("revisions.review"), async (req, res) => {
@@ -83,19 +88,19 @@ export function revisionsRouter(deps: AppDeps) {
     const { comment } = parse(ReturnRevisionSchema, req);
     const revision = await transitionRevision(db, actorOf(req), id, "return", sentVersion(req), comment);
     await notifyRevision(deps, actorOf(req), id, "return", comment);
-    sendVersioned(res, revision);
+    sendVersioned(res, RevisionSchema, revision);
   });
 
   r.post("/revisions/:id/comments", allow("revisions.comment"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { body } = parse(CommentBodySchema, req);
-    res.status(201).json({ comments: await addRevisionComment(db, actorOf(req), id, body) });
+    send(res, CommentListSchema, { comments: await addRevisionComment(db, actorOf(req), id, body) }, 201);
   });
 
   r.get("/revisions/:id/diff", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { against } = parse(RevisionDiffQuerySchema, req, "query");
-    res.json(await revisionDiff(db, actorOf(req).workspaceId, id, against));
+    send(res, RevisionDiffSchema, await revisionDiff(db, actorOf(req).workspaceId, id, against));
   });
 
   r.get("/revisions/:id/stack-file", allow("projects.read"), async (req, res) => {

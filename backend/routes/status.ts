@@ -3,6 +3,7 @@ import { and, eq, inArray, sql } from "drizzle-orm";
 import { ServerStatusSchema } from "@shared/schemas/server-status";
 import type { AppDeps } from "../deps";
 import { studies } from "../db/schema";
+import { send } from "../lib/respond";
 import { actorOf, allow } from "../middleware/session";
 
 /** The admin's status page: where this workspace's studies run and how busy that is. */
@@ -16,14 +17,12 @@ export function statusRouter(deps: AppDeps, startedAt = new Date()) {
       .where(and(eq(studies.workspaceId, workspaceId), inArray(studies.status, ["queued", "running"])))
       .groupBy(studies.status);
     const count = (s: string) => rows.find((x) => x.status === s)?.n ?? 0;
-    res.json(
-      ServerStatusSchema.parse({
-        startedAt: startedAt.toISOString(),
-        studies: { queued: count("queued"), running: count("running") },
-        engine: { threads: deps.enginePool.size, activeStudies: deps.enginePool.activeStudies },
-        queue: deps.queueStatus ? await deps.queueStatus() : null,
-      }),
-    );
+    send(res, ServerStatusSchema, {
+      startedAt: startedAt.toISOString(),
+      studies: { queued: count("queued"), running: count("running") },
+      engine: { threads: deps.enginePool.size, activeStudies: deps.enginePool.activeStudies },
+      queue: deps.queueStatus ? await deps.queueStatus() : null,
+    });
   });
   return r;
 }

@@ -1,8 +1,16 @@
 import { Router } from "express";
 import { IdParamsSchema } from "@shared/schemas/common";
-import { SiteSchema } from "@shared/schemas/site";
-import { CreateStudySchema, StudyExportQuerySchema, UpdateStudyBudgetSchema } from "@shared/schemas/studies";
+import { FieldAtSiteSchema, SiteSchema } from "@shared/schemas/site";
+import {
+  CreateStudySchema,
+  StudyBudgetSchema,
+  StudyExportQuerySchema,
+  StudyListSchema,
+  StudySchema,
+  UpdateStudyBudgetSchema,
+} from "@shared/schemas/studies";
 import type { AppDeps } from "../deps";
+import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
 import { fieldAtSite } from "../services/geomagnetic";
@@ -15,18 +23,18 @@ export function studiesRouter({ db, studyQueue }: AppDeps) {
 
   r.get("/projects/:id/studies", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json({ studies: await listStudies(db, actorOf(req).workspaceId, id) });
+    send(res, StudyListSchema, { studies: await listStudies(db, actorOf(req).workspaceId, id) });
   });
 
   r.post("/revisions/:id/studies", allow("studies.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateStudySchema, req);
-    res.status(202).json(await createStudy(db, studyQueue, actorOf(req), id, input));
+    send(res, StudySchema, await createStudy(db, studyQueue, actorOf(req), id, input), 202);
   });
 
   r.get("/studies/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await getStudy(db, actorOf(req).workspaceId, id));
+    send(res, StudySchema, await getStudy(db, actorOf(req).workspaceId, id));
   });
 
   r.get("/studies/:id/export", allow("projects.read"), async (req, res) => {
@@ -41,26 +49,26 @@ export function studiesRouter({ db, studyQueue }: AppDeps) {
 
   r.post("/studies/:id/cancel", allow("studies.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await cancelStudy(db, studyQueue, actorOf(req), id));
+    send(res, StudySchema, await cancelStudy(db, studyQueue, actorOf(req), id));
   });
 
   r.post("/studies/:id/rerun", allow("studies.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.status(202).json(await rerunStudy(db, studyQueue, actorOf(req), id));
+    send(res, StudySchema, await rerunStudy(db, studyQueue, actorOf(req), id), 202);
   });
 
   r.get("/workspace/study-budget", allow("studies.run"), async (req, res) => {
-    res.json(await getStudyBudget(db, actorOf(req).workspaceId));
+    send(res, StudyBudgetSchema, await getStudyBudget(db, actorOf(req).workspaceId));
   });
 
   r.patch("/workspace/study-budget", allow("workspace.settings"), async (req, res) => {
     const { budget } = parse(UpdateStudyBudgetSchema, req);
-    res.json(await setStudyBudget(db, actorOf(req), budget));
+    send(res, StudyBudgetSchema, await setStudyBudget(db, actorOf(req), budget));
   });
 
   r.get("/geomagnetic-field", allow("projects.read"), (req, res) => {
     const site = parse(SiteSchema, req, "query");
-    res.json(fieldAtSite(site));
+    send(res, FieldAtSiteSchema, fieldAtSite(site));
   });
 
   return r;

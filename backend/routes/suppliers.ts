@@ -1,7 +1,17 @@
 import { Router } from "express";
 import { z } from "zod";
-import { CreateContactSchema, CreateSupplierSchema, IdParamsSchema, IdSchema, UpdateSupplierSchema } from "@shared/schemas/api";
+import {
+  CreateContactSchema,
+  CreateSupplierSchema,
+  IdParamsSchema,
+  IdSchema,
+  SupplierContactSchema,
+  SupplierListSchema,
+  SupplierSchema,
+  UpdateSupplierSchema,
+} from "@shared/schemas/api";
 import type { AppDeps } from "../deps";
+import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
@@ -21,23 +31,23 @@ export function suppliersRouter({ db }: AppDeps) {
   const r = Router();
 
   r.get("/suppliers", allow("suppliers.read"), async (req, res) => {
-    res.json({ suppliers: await listSuppliers(db, actorOf(req).workspaceId) });
+    send(res, SupplierListSchema, { suppliers: await listSuppliers(db, actorOf(req).workspaceId) });
   });
 
   r.get("/suppliers/:id", allow("suppliers.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    sendVersioned(res, await getSupplier(db, actorOf(req).workspaceId, id));
+    sendVersioned(res, SupplierSchema, await getSupplier(db, actorOf(req).workspaceId, id));
   });
 
   r.post("/suppliers", allow("suppliers.write"), async (req, res) => {
     const input = parse(CreateSupplierSchema, req);
-    sendVersioned(res, await createSupplier(db, actorOf(req).workspaceId, input), 201);
+    sendVersioned(res, SupplierSchema, await createSupplier(db, actorOf(req).workspaceId, input), 201);
   });
 
   r.patch("/suppliers/:id", allow("suppliers.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateSupplierSchema, req);
-    sendVersioned(res, await updateSupplier(db, actorOf(req).workspaceId, id, input, sentVersion(req)));
+    sendVersioned(res, SupplierSchema, await updateSupplier(db, actorOf(req).workspaceId, id, input, sentVersion(req)));
   });
 
   r.delete("/suppliers/:id", allow("suppliers.write"), async (req, res) => {
@@ -49,7 +59,7 @@ export function suppliersRouter({ db }: AppDeps) {
   r.post("/suppliers/:id/contacts", allow("suppliers.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateContactSchema, req);
-    res.status(201).json(await addContact(db, actorOf(req).workspaceId, id, input, sentVersion(req)));
+    send(res, SupplierContactSchema, await addContact(db, actorOf(req).workspaceId, id, input, sentVersion(req)), 201);
   });
 
   r.delete("/suppliers/:id/contacts/:contactId", allow("suppliers.write"), async (req, res) => {

@@ -1,7 +1,17 @@
 import { Router } from "express";
 import { IdParamsSchema } from "@shared/schemas/common";
-import { CreateAllocationSchema, CreateSweepSchema, InclinationGridQuerySchema } from "@shared/schemas/what-if";
+import { RevisionSchema } from "@shared/schemas/revisions";
+import {
+  AllocationSchema,
+  CreateAllocationSchema,
+  CreatedRunSchema,
+  CreateSweepSchema,
+  InclinationGridQuerySchema,
+  InclinationGridSchema,
+  SweepSchema,
+} from "@shared/schemas/what-if";
 import type { AppDeps } from "../deps";
+import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { actorOf, allow } from "../middleware/session";
 import { inclinationGrid } from "../services/geomagnetic";
@@ -14,12 +24,12 @@ export function whatIfRouter({ db, whatIfQueue }: AppDeps) {
   r.post("/revisions/:id/sweeps", allow("whatif.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateSweepSchema, req);
-    res.status(202).json(await createSweep(db, whatIfQueue, actorOf(req), id, input));
+    send(res, CreatedRunSchema, await createSweep(db, whatIfQueue, actorOf(req), id, input), 202);
   });
 
   r.get("/sweeps/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await getSweep(db, actorOf(req).workspaceId, id));
+    send(res, SweepSchema, await getSweep(db, actorOf(req).workspaceId, id));
   });
 
   r.post("/sweeps/:id/cancel", allow("whatif.run"), async (req, res) => {
@@ -30,12 +40,12 @@ export function whatIfRouter({ db, whatIfQueue }: AppDeps) {
   r.post("/revisions/:id/allocations", allow("whatif.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(CreateAllocationSchema, req);
-    res.status(202).json(await createAllocation(db, whatIfQueue, actorOf(req), id, input));
+    send(res, CreatedRunSchema, await createAllocation(db, whatIfQueue, actorOf(req), id, input), 202);
   });
 
   r.get("/allocations/:id", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await getAllocation(db, actorOf(req).workspaceId, id));
+    send(res, AllocationSchema, await getAllocation(db, actorOf(req).workspaceId, id));
   });
 
   r.post("/allocations/:id/cancel", allow("whatif.run"), async (req, res) => {
@@ -45,12 +55,12 @@ export function whatIfRouter({ db, whatIfQueue }: AppDeps) {
 
   r.post("/allocations/:id/apply", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.status(201).json(await applyAllocation(db, actorOf(req), id));
+    send(res, RevisionSchema, await applyAllocation(db, actorOf(req), id), 201);
   });
 
   r.get("/inclination-grid", allow("projects.read"), (req, res) => {
     const { date, stepDeg } = parse(InclinationGridQuerySchema, req, "query");
-    res.json(inclinationGrid(date, stepDeg));
+    send(res, InclinationGridSchema, inclinationGrid(date, stepDeg));
   });
 
   return r;

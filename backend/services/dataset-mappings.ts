@@ -7,7 +7,7 @@ import { unitText } from "@shared/format";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
 import { datasetMappings, datasets, stackRevisions } from "../db/schema";
-import { badRequest } from "../lib/errors";
+import { badRequest, type FieldError } from "../lib/errors";
 import { requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
@@ -31,7 +31,7 @@ export async function updateMappings(
     .select({ id: stackRevisions.id, number: stackRevisions.number, projectId: stackRevisions.projectId, stack: stackRevisions.stack })
     .from(stackRevisions)
     .where(and(eq(stackRevisions.workspaceId, actor.workspaceId), inArray(stackRevisions.id, revisionIds)));
-  const fields: { path: string; message: string }[] = [];
+  const fields: FieldError[] = [];
   const planned: Array<{
     column: string;
     revisionId: string;

@@ -65,7 +65,8 @@ export function supplierSources(stack: StackFile, supplier: { id: string; name: 
 
 /** Checks that a report may be built from this study, and why not otherwise (null: it may). */
 export function reportBlocker(
-  study: Pick<Study, "status" | "number" | "stack" | "result">,
+  /** `result` is only tested for presence: a list may pass any object for a stored one */
+  study: Pick<Study, "status" | "number" | "stack"> & { result: object | null },
   revision: { number: number; status: string; stack: StackFile },
 ): string | null {
   if (revision.status !== "approved")

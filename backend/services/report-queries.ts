@@ -293,7 +293,7 @@ export async function reportOptions(db: Database, actor: Actor, projectId: strin
         passes: s.passes,
         missed: (s.missed ?? []).map((m) => ({ ...m, label: metricLabel(m.metric) })),
         blockedBy: reportBlocker(
-          { status: s.status, number: s.number, stack: s.stack as unknown as Record<string, unknown>, result: s.hasResult ? {} : null },
+          { status: s.status, number: s.number, stack: s.stack, result: s.hasResult ? {} : null },
           { number: s.revisionNumber, status: s.revisionStatus, stack: s.revisionStack },
         ),
         suppliers: supplierRows

@@ -1,9 +1,7 @@
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import type { Project } from "@shared/schemas/api";
-import type { AsBuiltRecord } from "@shared/schemas/datasets";
 import type { CreateStudy, Study, StudySummary } from "@shared/schemas/studies";
-import { validateStudy, type StudyFile } from "@shared/schemas/study-file";
-import type { StackFile } from "@shared/schemas/stack-file";
+import { validateStudy } from "@shared/schemas/study-file";
 import type { Database } from "../db/client";
 import { projects, stackRevisions, studies, studyResults, users } from "../db/schema";
 import { badRequest, conflict, found } from "../lib/errors";
@@ -38,27 +36,17 @@ const summaryColumns = {
   asBuilt: studies.asBuilt,
 };
 
-type Row = {
-  study: Record<string, unknown>;
-  trialsDone: number;
-  trialsTotal: number;
-  trialsPerSecond: number | null;
-  createdAt: Date;
-  startedAt: Date | null;
-  finishedAt: Date | null;
-  passes: boolean | null;
-  asBuilt: Array<Record<string, unknown>> | null;
-} & Pick<StudySummary, "id" | "projectId" | "revisionId" | "revisionNumber" | "number" | "label" | "status" | "error" | "createdByName">;
+type Row = Awaited<ReturnType<ReturnType<typeof baseQuery>["where"]>>[number];
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
 
 function toSummary({ study, trialsDone, trialsTotal, trialsPerSecond, asBuilt, ...r }: Row): StudySummary {
   return {
     ...r,
-    asBuilt: ((asBuilt ?? []) as AsBuiltRecord[]).map(({ replaced: _replaced, ...a }) => a),
-    trials: Number(study.trials),
-    seed: Number(study.seed),
-    progress: { done: trialsDone, total: trialsTotal || Number(study.trials), trialsPerSecond },
+    asBuilt: (asBuilt ?? []).map(({ replaced: _replaced, ...a }) => a),
+    trials: study.trials,
+    seed: study.seed,
+    progress: { done: trialsDone, total: trialsTotal || study.trials, trialsPerSecond },
     createdAt: r.createdAt.toISOString(),
     startedAt: iso(r.startedAt),
     finishedAt: iso(r.finishedAt),
@@ -94,8 +82,8 @@ export async function getStudy(db: Database, workspaceId: string, id: string, wi
   return {
     ...toSummary(r),
     study: r.study,
-    stack: extra.stack as unknown as Record<string, unknown>,
-    site: (extra.site as Study["site"]) ?? null,
+    stack: extra.stack,
+    site: extra.site ?? null,
     result: res?.result ?? null,
   };
 }
@@ -140,9 +128,9 @@ export async function createStudy(db: Database, queue: StudyScheduler, actor: Ac
         revisionId,
         number: next,
         label: input.label || (asBuilt ? asBuiltLabel(asBuilt.records) : ""),
-        study: v.study as Record<string, unknown>,
+        study: v.study,
         stack,
-        asBuilt: asBuilt ? (asBuilt.records as unknown as Array<Record<string, unknown>>) : null,
+        asBuilt: asBuilt ? asBuilt.records : null,
         site,
         trialsTotal: v.study.trials,
         createdBy: actor.userId,
@@ -186,7 +174,7 @@ export async function rerunStudy(db: Database, queue: StudyScheduler, actor: Act
     throw conflict(`Study ${s.number} is ${s.status}; only an interrupted, failed or cancelled study can be run again.`, "invalid_state");
   }
   // the budget may have been lowered since it first ran
-  await assertWithinBudget(db, actor.workspaceId, s.study as unknown as StudyFile, s.stack as unknown as StackFile);
+  await assertWithinBudget(db, actor.workspaceId, s.study, s.stack);
   await db.transaction(async (tx) => {
     await tx.delete(studyResults).where(eq(studyResults.studyId, id));
     await tx

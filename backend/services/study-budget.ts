@@ -45,7 +45,7 @@ async function measuredPace(db: Database, workspaceId: string): Promise<{ workPe
   const rates = rows
     .map((r) => {
       const seconds = (r.finishedAt!.getTime() - r.startedAt!.getTime()) / 1000;
-      const { work } = studyWork({ ...(r.study as unknown as StudyFile), trials: r.trials || Number(r.study.trials) });
+      const { work } = studyWork({ ...r.study, trials: r.trials || r.study.trials });
       return seconds > 0 && work > 0 ? work / seconds : NaN;
     })
     .filter((x) => Number.isFinite(x))

@@ -146,7 +146,7 @@ export function studyTables(r: ResultFile): Table[] {
 function resultOf(s: Study): ResultFile {
   if (s.status !== "finished" || !s.result)
     throw conflict("The study has no result yet: it can be exported once it has finished.", "not_finished");
-  return s.result as unknown as ResultFile;
+  return s.result;
 }
 
 const HEADER_FILL = { type: "pattern" as const, pattern: "solid" as const, fgColor: { argb: "FFF7F5F0" } };

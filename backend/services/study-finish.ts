@@ -1,4 +1,5 @@
 import { eq } from "drizzle-orm";
+import type { ResultFile } from "@shared/schemas/result-file";
 import type { Database } from "../db/client";
 import { studies, studyResults } from "../db/schema";
 import { recordActivity } from "./activity";
@@ -15,7 +16,7 @@ export type FinishingStudy = { id: string; workspaceId: string; projectId: strin
 export async function writeFinishedStudy(
   tx: Tx,
   job: FinishingStudy,
-  outcome: { result: Record<string, unknown>; passes: boolean | null; seconds: number },
+  outcome: { result: ResultFile; passes: boolean | null; seconds: number },
 ): Promise<void> {
   const { result, passes, seconds } = outcome;
   const trials = typeof result.trials === "number" ? result.trials : undefined;

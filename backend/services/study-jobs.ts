@@ -19,6 +19,8 @@ import type { BlockPartial, WorkerState } from "@shared/engine/accumulate";
 import { adaptiveDone, finalizeStudy, mergeWorkerStates, newCoordinator, prepareStudy, type PreparedStudy } from "@shared/engine/study";
 import { validateStackFile, type StackFile } from "@shared/schemas/stack-file";
 import { validateStudy, type StudyFile } from "@shared/schemas/study-file";
+import type { ResultFile } from "@shared/schemas/result-file";
+import type { QueueStatus } from "@shared/schemas/server-status";
 import type { Database } from "../db/client";
 import { queueWorkers, studies, studyParts } from "../db/schema";
 import { EngineError, PartThreads } from "../engine/block-range";
@@ -56,11 +58,7 @@ export const DEFAULT_JOB_SETTINGS: JobQueueSettings = {
   whatIfExpireSeconds: DEFAULT_WHAT_IF_EXPIRE_SECONDS,
 };
 
-export type QueueStatus = {
-  depth: number;
-  active: number;
-  workers: { id: string; host: string; pid: number; threads: number; jobsDone: number; startedAt: string; seenAt: string }[];
-};
+export type { QueueStatus };
 
 type Log = (message: string, err?: unknown) => void;
 type PartJob = { studyId: string; part: number };
@@ -68,7 +66,7 @@ type StudyRow = {
   id: string;
   status: string;
   stack: StackFile;
-  study: Record<string, unknown>;
+  study: StudyFile;
   workspaceId: string;
   projectId: string;
   number: number;
@@ -409,7 +407,7 @@ export class StudyJobWorker {
       const passes = result.requirements.length ? result.requirements.every((r) => r.passes) : null;
       const seconds = s.startedAt ? (Date.now() - s.startedAt.getTime()) / 1000 : 0;
       // A JSON document like the in-process runner's (drops the engine's class prototypes).
-      const plain = JSON.parse(JSON.stringify(result)) as Record<string, unknown>;
+      const plain: ResultFile = JSON.parse(JSON.stringify(result));
       await writeFinishedStudy(tx, s, { result: plain, passes, seconds });
       // The parts' data is only needed until the merge.
       await tx.update(studyParts).set({ data: null }).where(eq(studyParts.studyId, studyId));

@@ -1,10 +1,13 @@
 import { and, asc, eq, inArray } from "drizzle-orm";
+import type { ResultFile } from "@shared/schemas/result-file";
+import type { StackFile } from "@shared/schemas/stack-file";
+import type { StudyFile } from "@shared/schemas/study-file";
 import type { Database } from "../db/client";
 import { studies } from "../db/schema";
 import { writeFinishedStudy } from "./study-finish";
 import { LocalRunLoop, type Claimed, type RunContext } from "./run-loop";
 
-export type RunInput = { stack: Record<string, unknown>; study: Record<string, unknown> };
+export type RunInput = { stack: StackFile; study: StudyFile };
 export type RunOptions = {
   signal: AbortSignal;
   onProgress: (done: number, total: number) => void;
@@ -12,14 +15,14 @@ export type RunOptions = {
   owner: string;
 };
 /** Runs one study to its result file (MODEL.md §11 plus plot data); rejects on failure. */
-export type StudyRunner = (input: RunInput, options: RunOptions) => Promise<{ result: Record<string, unknown>; passes: boolean | null }>;
+export type StudyRunner = (input: RunInput, options: RunOptions) => Promise<{ result: ResultFile; passes: boolean | null }>;
 
 const PROGRESS_EVERY_MS = 250;
 
 type StudyJob = {
   id: string;
-  study: Record<string, unknown>;
-  stack: Record<string, unknown>;
+  study: StudyFile;
+  stack: StackFile;
   workspaceId: string;
   projectId: string;
   number: number;

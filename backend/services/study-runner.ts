@@ -18,6 +18,6 @@ export function engineRunner(pool: EnginePool): StudyRunner {
       onProgress: (p) => onProgress(p.trialsDone, p.trialsTotal),
     });
     const passes = result.requirements.length ? result.requirements.every((r) => r.passes) : null;
-    return { result: result as unknown as Record<string, unknown>, passes };
+    return { result, passes };
   };
 }

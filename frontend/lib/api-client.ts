@@ -1,7 +1,7 @@
 import type { z } from "zod";
-import { ApiErrorSchema, versionTag } from "@shared/schemas/common";
+import { ApiErrorSchema, versionTag, type FieldError } from "@shared/schemas/common";
 
-export type FieldError = { path: string; message: string };
+export type { FieldError };
 
 /**
  * Every failed call to our API becomes one of these, so screens can branch on the

@@ -110,12 +110,14 @@ export type Member = z.infer<typeof MemberSchema>;
 export const MemberListSchema = z.object({ members: z.array(MemberSchema) });
 export const UpdateMemberSchema = z.object({ role: RoleSchema, supplierId: IdSchema.nullable().optional() });
 
+export const INVITATION_STATUSES = ["pending", "accepted", "revoked"] as const;
+export const InvitationStatusSchema = z.enum(INVITATION_STATUSES);
 export const InvitationSchema = z.object({
   id: IdSchema,
   email: text(),
   role: RoleSchema,
   supplierId: IdSchema.nullable(),
-  status: z.enum(["pending", "accepted", "revoked"]),
+  status: InvitationStatusSchema,
   link: text().nullable(),
   createdAt: text(),
   expiresAt: text(),
@@ -144,6 +146,8 @@ export const AcceptInvitationSchema = z.object({
   name: trimmedName("Your name"),
   password: newPassword,
 });
+/** Accepting answers only that it worked; the session comes as a cookie. */
+export const AcceptedInvitationSchema = z.object({ ok: z.literal(true) });
 
 /** Changing one's own password (better-auth's change-password; the server ends the other sessions). */
 export const ChangePasswordSchema = z.object({

@@ -1,18 +1,26 @@
 import { z } from "zod";
 
 /** Roles of a workspace member (DESIGN.md, "People and roles"). */
-export const RoleSchema = z.enum(["admin", "engineer", "reviewer", "supplier"]);
+export const ROLES = ["admin", "engineer", "reviewer", "supplier"] as const;
+export const RoleSchema = z.enum(ROLES);
 export type Role = z.infer<typeof RoleSchema>;
 
 export const IdSchema = z.string().uuid({ message: "must be a valid id" });
 export const IdParamsSchema = z.object({ id: IdSchema });
+
+/**
+ * One problem with one field, as a JSON path and a sentence ("elements[2].size.x": "..."): the
+ * API's field errors, the stack and study file checks and the client's forms all use this type.
+ */
+export const FieldErrorSchema = z.object({ path: z.string(), message: z.string() });
+export type FieldError = z.infer<typeof FieldErrorSchema>;
 
 /** The one error shape every API answer uses. */
 export const ApiErrorSchema = z.object({
   error: z.object({
     code: z.string(),
     message: z.string(),
-    fields: z.array(z.object({ path: z.string(), message: z.string() })).optional(),
+    fields: z.array(FieldErrorSchema).optional(),
     /** on a 409 `conflict`: the record's current version (someone else changed it meanwhile) */
     version: z.number().int().optional(),
   }),

@@ -9,7 +9,8 @@ export const DATASET_MAX_COLUMNS = 200;
 export const DATASET_PREVIEW_ROWS = 20;
 
 export const MeasureUnitSchema = z.enum(MEASURE_UNITS, { message: "unit must be one of um, mm, deg, mrad, arcmin" });
-export const DatasetFileTypeSchema = z.enum(["csv", "xlsx"]);
+export const DATASET_FILE_TYPES = ["csv", "xlsx"] as const;
+export const DatasetFileTypeSchema = z.enum(DATASET_FILE_TYPES);
 
 /** n values and the gaps (empty cells, NA, N/A, n/a, -, null) beside them */
 const ColumnSummarySchema = z.object({

@@ -3,11 +3,9 @@
  * Shared by the stack and study files and the API's field errors.
  */
 import type { z } from "zod";
+import type { FieldError } from "./common";
 
-export interface FieldIssue {
-  path: string;
-  message: string;
-}
+export type { FieldError };
 
 /** ["elements", 2, "size", "x"] -> "elements[2].size.x"; the file itself is "". */
 export function formatPath(path: ReadonlyArray<PropertyKey>): string {
@@ -48,7 +46,7 @@ export function isSizeIssue(issue: z.core.$ZodIssue): boolean {
 }
 
 /** One zod issue as field issues (unknown keys are reported one by one). */
-export function fromZodIssue(issue: z.core.$ZodIssue): FieldIssue[] {
+export function fromZodIssue(issue: z.core.$ZodIssue): FieldError[] {
   const path = formatPath(issue.path);
   // a union whose one fitting branch is too long says so, rather than "must be A or B"
   if (issue.code === "invalid_union") {
@@ -74,16 +72,16 @@ export function fromZodIssue(issue: z.core.$ZodIssue): FieldIssue[] {
   return [{ path, message: issue.message }];
 }
 
-export function fromZodError(err: z.ZodError): FieldIssue[] {
+export function fromZodError(err: z.ZodError): FieldError[] {
   return err.issues.flatMap(fromZodIssue);
 }
 
 /** The error body of the API: `{"error":{"code","message","fields":[{path,message}]}}`. */
-export function toErrorBody(code: string, message: string, issues: FieldIssue[]) {
+export function toErrorBody(code: string, message: string, issues: FieldError[]) {
   return { error: { code, message, fields: issues } };
 }
 
-export function dedupe(issues: FieldIssue[]): FieldIssue[] {
+export function dedupe(issues: FieldError[]): FieldError[] {
   const seen = new Set<string>();
   return issues.filter((i) => {
     const k = `${i.path}\u0000${i.message}`;

@@ -3,7 +3,8 @@ import { IdSchema, text, VersionBodySchema, VersionSchema } from "./common";
 import { RequirementSchema, type Requirement } from "./study-file";
 import { GeometryWarningSchema } from "./stack-help";
 
-export const RevisionStatusSchema = z.enum(["draft", "in_review", "approved"]);
+export const REVISION_STATUSES = ["draft", "in_review", "approved"] as const;
+export const RevisionStatusSchema = z.enum(REVISION_STATUSES);
 export type RevisionStatus = z.infer<typeof RevisionStatusSchema>;
 
 export { RequirementSchema, type Requirement };
@@ -54,6 +55,8 @@ export const CommentSchema = z.object({
   createdAt: text(),
 });
 export type Comment = z.infer<typeof CommentSchema>;
+/** What adding a comment answers: the record's comments, the new one included (revisions and reports). */
+export const CommentListSchema = z.object({ comments: z.array(CommentSchema) });
 
 export const RevisionSummarySchema = z.object({
   id: IdSchema,

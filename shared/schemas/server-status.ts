@@ -16,10 +16,16 @@ export const QueueWorkerSchema = z.object({
  * one machine (studies run in the server's own worker threads); with DATABASE_URL it is the job
  * queue's depth and the worker processes seen in the last minute.
  */
+export const QueueStatusSchema = z.object({ depth: z.number().int(), active: z.number().int(), workers: z.array(QueueWorkerSchema) });
+export type QueueStatus = z.infer<typeof QueueStatusSchema>;
+
 export const ServerStatusSchema = z.object({
   startedAt: z.string(),
   studies: z.object({ queued: z.number().int(), running: z.number().int() }),
   engine: z.object({ threads: z.number().int(), activeStudies: z.number().int() }),
-  queue: z.object({ depth: z.number().int(), active: z.number().int(), workers: z.array(QueueWorkerSchema) }).nullable(),
+  queue: QueueStatusSchema.nullable(),
 });
+
+/** `GET /api/health` (no session): up, and in server mode the job queue (load balancers, the bench scripts). */
+export const HealthSchema = z.object({ status: z.literal("ok"), queue: QueueStatusSchema.optional() });
 export type ServerStatus = z.infer<typeof ServerStatusSchema>;

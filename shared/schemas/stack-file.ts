@@ -12,8 +12,8 @@ import { isSensorKind, SENSOR_KINDS, supportPoints } from "../engine/elements";
 
 export { isSensorKind, SENSOR_KINDS, supportPoints };
 
-export { dedupe, formatPath, fromZodError, fromZodIssue, isSizeIssue, toErrorBody, type FieldIssue } from "./field-issues";
-import { dedupe, describe, formatPath, fromZodError, isSizeIssue, type FieldIssue } from "./field-issues";
+export { dedupe, formatPath, fromZodError, fromZodIssue, isSizeIssue, toErrorBody, type FieldError } from "./field-issues";
+import { dedupe, describe, formatPath, fromZodError, isSizeIssue, type FieldError } from "./field-issues";
 
 // ---------------------------------------------------------------- building blocks
 
@@ -452,12 +452,12 @@ export const StackFileSchema = StackFileObjectSchema.superRefine((file, ctx) => 
   checkStack(file, (i) => ctx.addIssue({ code: "custom", path: i.path, message: i.message }));
 });
 
-export type StackValidation = { ok: true; stack: StackFile } | { ok: false; issues: FieldIssue[] };
+export type StackValidation = { ok: true; stack: StackFile } | { ok: false; issues: FieldError[] };
 
 /** Validate a parsed JSON value as a stack file. Reports every problem, not just the first. */
 export function validateStackFile(json: unknown): StackValidation {
   const r = StackFileObjectSchema.safeParse(json);
-  const issues: FieldIssue[] = r.success ? [] : fromZodError(r.error);
+  const issues: FieldError[] = r.success ? [] : fromZodError(r.error);
   // past a size limit, the file is refused on its size: the checks across elements never see it
   if (!r.success && r.error.issues.some(isSizeIssue)) return { ok: false, issues: dedupe(issues) };
   checkStack(json, (i) => issues.push({ path: formatPath(i.path), message: i.message }));

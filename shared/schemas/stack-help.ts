@@ -4,6 +4,7 @@
  */
 import { z } from "zod";
 import { TYPICAL_APPLIES, TYPICAL_KINDS } from "../typical-tolerances";
+import { StackFileObjectSchema } from "./stack-file";
 import { RequirementSchema } from "./study-file";
 
 export const TypicalToleranceSchema = z.object({
@@ -22,8 +23,8 @@ export const StackTemplateSchema = z.object({
   id: z.string(),
   name: z.string(),
   description: z.string(),
-  /** a stack file (checked by the stack file's own validator) */
-  stack: z.record(z.string(), z.unknown()),
+  /** a stack file (the tests check each template with the stack file's own validator) */
+  stack: StackFileObjectSchema,
   requirements: z.array(RequirementSchema),
 });
 export const StackTemplatesResponseSchema = z.object({ templates: z.array(StackTemplateSchema) });

@@ -1,9 +1,13 @@
 import { z } from "zod";
 import { IdSchema, text } from "./common";
 import { AsBuiltEntrySchema, AsBuiltRecordSchema } from "./datasets";
+import { ResultFileSchema } from "./result-file";
 import { FieldAtSiteSchema, SiteSchema } from "./site";
+import { StackFileObjectSchema } from "./stack-file";
+import { StudyFileObjectSchema } from "./study-file";
 
-export const StudyStatusSchema = z.enum(["queued", "running", "finished", "failed", "cancelled", "interrupted"]);
+export const STUDY_STATUSES = ["queued", "running", "finished", "failed", "cancelled", "interrupted"] as const;
+export const StudyStatusSchema = z.enum(STUDY_STATUSES);
 export type StudyStatus = z.infer<typeof StudyStatusSchema>;
 
 /**
@@ -44,12 +48,16 @@ export const StudySummarySchema = z.object({
 });
 export type StudySummary = z.infer<typeof StudySummarySchema>;
 
+/**
+ * One study as `GET /api/studies/:id` answers it: the frozen study file and stack, and the
+ * result file parsed with their own schemas, so every chart works on checked numbers.
+ */
 export const StudySchema = StudySummarySchema.extend({
-  study: z.record(text(), z.unknown()),
-  stack: z.record(text(), z.unknown()),
+  study: StudyFileObjectSchema,
+  stack: StackFileObjectSchema,
   site: FieldAtSiteSchema.nullable(),
-  /** The result file (MODEL.md §11) with its plot data, once finished. */
-  result: z.record(text(), z.unknown()).nullable(),
+  /** The result file (MODEL.md §11) with its plot data, once finished (and only on the GET). */
+  result: ResultFileSchema.nullable(),
 });
 export type Study = z.infer<typeof StudySchema>;
 export const StudyListSchema = z.object({ studies: z.array(StudySummarySchema) });

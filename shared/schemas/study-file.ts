@@ -8,7 +8,7 @@
 import { z } from "zod";
 import { text } from "./common";
 import { headingPair, metricIds } from "../engine/compile";
-import { type FieldIssue, type StackFile, dedupe, formatPath, fromZodError, isSensorKind, MetaSchema, ToleranceSchema } from "./stack-file";
+import { type FieldError, type StackFile, dedupe, formatPath, fromZodError, isSensorKind, MetaSchema, ToleranceSchema } from "./stack-file";
 
 export const MAX_TRIALS = 10_000_000;
 export const MAX_ATTITUDES = 20_000;
@@ -101,11 +101,11 @@ export const StudyFileSchema = StudyFileObjectSchema;
 export type StudyFile = z.infer<typeof StudyFileObjectSchema>;
 export type Requirement = z.infer<typeof RequirementSchema>;
 
-export type StudyValidation = { ok: true; study: StudyFile } | { ok: false; issues: FieldIssue[] };
+export type StudyValidation = { ok: true; study: StudyFile } | { ok: false; issues: FieldError[] };
 
 /** Checks that need the stack: metric ids, compass sensors, attitude count. */
-export function checkStudyAgainstStack(study: StudyFile, stack: StackFile): FieldIssue[] {
-  const issues: FieldIssue[] = [];
+export function checkStudyAgainstStack(study: StudyFile, stack: StackFile): FieldError[] {
+  const issues: FieldError[] = [];
   const add = (path: (string | number)[], message: string) => issues.push({ path: formatPath(path), message });
   const kinds = new Map(stack.elements.map((e) => [e.id, e.kind] as const));
 

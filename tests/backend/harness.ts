@@ -92,6 +92,8 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
     ownsDatabase: !opts.handle,
     storage: opts.storage,
     supplierUploadsPerHour: opts.supplierUploadsPerHour,
+    // every answer is parsed with its response schema (backend/lib/respond.ts)
+    checkResponses: true,
     serverMode: opts.scheduler
       ? { studyQueue: opts.scheduler, whatIfQueue: opts.whatIfScheduler, queueStatus: opts.queueStatus, stop: async () => undefined }
       : undefined,
@@ -124,6 +126,9 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
     } catch {
       /* not JSON: leave the text */
     }
+    // An answer that broke its own contract fails the test that asked for it, whatever it expected.
+    const code = (parsed as { error?: { code?: unknown } } | null)?.error?.code;
+    if (code === "response_mismatch") throw new Error(`${method} ${path}: ${(parsed as { error: { message: string } }).error.message}`);
     return { status: res.status, body: parsed, headers: res.headers };
   };
 

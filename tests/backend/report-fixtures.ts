@@ -115,7 +115,7 @@ export async function insertFinishedStudy(
     const result = resultFor(stack);
     await db.insert(studyResults).values({
       studyId: study.id,
-      result: result as unknown as Record<string, unknown>,
+      result,
       passes: result.requirements.every((r) => r.passes),
     });
   }

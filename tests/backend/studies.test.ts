@@ -5,6 +5,7 @@ import type { DatabaseHandle } from "@backend/db/client";
 import { openTestDatabase } from "./test-database";
 import { studies, studyResults } from "@backend/db/schema";
 import type { StudyRunner } from "@backend/services/study-queue";
+import type { ResultFile } from "@shared/schemas/result-file";
 import { startTestApp, type TestApp } from "./harness";
 
 const fixture = (name: string) => JSON.parse(readFileSync(new URL(`../fixtures/${name}`, import.meta.url), "utf8"));
@@ -21,6 +22,31 @@ async function until<T>(fn: () => Promise<T>, ok: (v: T) => boolean, ms = 30_000
   }
 }
 
+/** A result file with the trials and seed of the study and nothing measured: what a stand-in runner answers. */
+function emptyResult(trials: number, seed: number): ResultFile {
+  return {
+    format: "orthostack.result/1",
+    engine: "stand-in",
+    trials,
+    seed,
+    sampling: "random",
+    stopped: false,
+    calibration: "none",
+    metrics: {},
+    requirements: [],
+    ciMethod: "wilson",
+    percentileStore: { method: "none", maxRelativeBucketWidth: 0 },
+    histograms: {},
+    envelope: null,
+    contributors: [],
+    stackUp: [],
+    worstTrials: {},
+    convergence: [],
+    adaptive: null,
+    sources: [],
+  };
+}
+
 /** A runner that reports progress and waits until told to finish, or is cancelled. */
 function controllableRunner() {
   let release: (() => void) | null = null;
@@ -33,7 +59,7 @@ function controllableRunner() {
       signal.addEventListener("abort", () => reject(new Error("aborted")));
       release = () =>
         resolve({
-          result: { format: "orthostack.result/1", trials: total, seed: input.study.seed, metrics: {}, requirements: [] },
+          result: emptyResult(total, input.study.seed),
           passes: true,
         });
     });

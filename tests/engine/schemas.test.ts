@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { validateStackFile, toErrorBody, type FieldIssue } from "@shared/schemas/stack-file";
+import { validateStackFile, toErrorBody, type FieldError } from "@shared/schemas/stack-file";
 import { validateStudy } from "@shared/schemas/study-file";
 import { ResultFileSchema } from "@shared/schemas/result-file";
 import { runStudy } from "@shared/engine/study";
@@ -7,13 +7,13 @@ import { compassStack, fixture, referenceStack, stackOf, study, studyOf } from "
 
 const base = () => JSON.parse(JSON.stringify(fixture("stack-reference.json")));
 
-function issuesOf(json: unknown): FieldIssue[] {
+function issuesOf(json: unknown): FieldError[] {
   const v = validateStackFile(json);
   if (v.ok) throw new Error("expected the stack to be refused");
   return v.issues;
 }
 
-function has(issues: FieldIssue[], path: string, text: RegExp) {
+function has(issues: FieldError[], path: string, text: RegExp) {
   expect(
     issues.some((i) => i.path === path && text.test(i.message)),
     JSON.stringify(issues, null, 1),
@@ -120,7 +120,7 @@ describe("stack file validation", () => {
 
 describe("study file validation", () => {
   const ref = referenceStack();
-  const studyIssues = (json: unknown, st = ref): FieldIssue[] => {
+  const studyIssues = (json: unknown, st = ref): FieldError[] => {
     const v = validateStudy(json, st);
     if (v.ok) throw new Error("expected the study to be refused");
     return v.issues;

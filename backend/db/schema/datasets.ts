@@ -3,10 +3,12 @@ import { doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, time
 import { version, timestamps, bytea } from "./columns";
 import { users } from "./auth";
 import { workspaces, suppliers, projects } from "./workspace";
-import { stackRevisions, STUDY_STATUSES } from "./studies";
+import { stackRevisions } from "./studies";
 import { reports } from "./reports";
 import { NOTIFICATION_KINDS } from "@shared/schemas/notifications";
 import type { StackFile } from "@shared/schemas/stack-file";
+import { DATASET_FILE_TYPES } from "@shared/schemas/datasets";
+import { STUDY_STATUSES } from "@shared/schemas/studies";
 
 // ---- measured data sets (issue 7) -------------------------------------------------------
 /**
@@ -25,7 +27,7 @@ export const datasets = pgTable(
       .notNull()
       .references(() => projects.id, { onDelete: "cascade" }),
     name: text("name").notNull(),
-    fileType: text("file_type", { enum: ["csv", "xlsx"] }).notNull(),
+    fileType: text("file_type", { enum: DATASET_FILE_TYPES }).notNull(),
     sheet: text("sheet"),
     sizeBytes: integer("size_bytes").notNull(),
     sha256: text("sha256").notNull(),

@@ -4,10 +4,9 @@ import { version, timestamps, bytea } from "./columns";
 import { users } from "./auth";
 import { workspaces, suppliers, projects } from "./workspace";
 import { stackRevisions, studies } from "./studies";
+import { REPORT_FILE_KINDS, REPORT_STATUSES, type ReportFileKind } from "@shared/schemas/reports";
 
 // ---- supplier reports and mail (issue 6) --------------------------------------------
-
-export const REPORT_STATUSES = ["draft", "released"] as const;
 
 /**
  * One revision of a supplier's tolerance report. A project and supplier share one report
@@ -60,7 +59,7 @@ export const reportFiles = pgTable(
     reportId: uuid("report_id")
       .notNull()
       .references(() => reports.id, { onDelete: "cascade" }),
-    kind: text("kind", { enum: ["pdf", "xlsx", "csv"] }).notNull(),
+    kind: text("kind", { enum: REPORT_FILE_KINDS }).notNull(),
     fileName: text("file_name").notNull(),
     contentType: text("content_type").notNull(),
     data: bytea("data").notNull(),
@@ -82,7 +81,7 @@ export const reportSends = pgTable(
     recipients: jsonb("recipients").$type<Array<{ name: string; email: string; cc?: boolean }>>().notNull(),
     message: text("message").notNull().default(""),
     /** the released files attached to the mail */
-    attachments: jsonb("attachments").$type<Array<"pdf" | "xlsx" | "csv">>().notNull().default(["pdf"]),
+    attachments: jsonb("attachments").$type<ReportFileKind[]>().notNull().default(["pdf"]),
     createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
   },
   (t) => [index("report_sends_report_idx").on(t.reportId)],

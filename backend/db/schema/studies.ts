@@ -15,10 +15,15 @@ import {
 import { version, timestamps, bytea } from "./columns";
 import { users } from "./auth";
 import { workspaces, projects } from "./workspace";
+import type { AsBuiltRecord } from "@shared/schemas/datasets";
+import type { ResultFile } from "@shared/schemas/result-file";
+import { REVISION_STATUSES, type Requirement } from "@shared/schemas/revisions";
+import type { FieldAtSite } from "@shared/schemas/site";
 import type { StackFile } from "@shared/schemas/stack-file";
+import { STUDY_STATUSES } from "@shared/schemas/studies";
+import type { StudyFile } from "@shared/schemas/study-file";
 
 // ---- stack revisions and comments ------------------------------------------------
-export const REVISION_STATUSES = ["draft", "in_review", "approved"] as const;
 
 export const stackRevisions = pgTable(
   "stack_revisions",
@@ -36,7 +41,7 @@ export const stackRevisions = pgTable(
     /** The stack file of MODEL.md §9 (validated before it is stored). */
     stack: jsonb("stack").$type<StackFile>().notNull(),
     /** The requirements the stack must meet: [{metric, max, yield}]. */
-    requirements: jsonb("requirements").$type<Array<{ metric: string; max: number; yield: number }>>().notNull().default([]),
+    requirements: jsonb("requirements").$type<Requirement[]>().notNull().default([]),
     note: text("note").notNull().default(""),
     basedOnId: uuid("based_on_id"),
     createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
@@ -71,7 +76,6 @@ export const comments = pgTable(
 );
 
 // ---- studies ------------------------------------------------------------------------
-export const STUDY_STATUSES = ["queued", "running", "finished", "failed", "cancelled", "interrupted"] as const;
 
 export const studies = pgTable(
   "studies",
@@ -91,16 +95,16 @@ export const studies = pgTable(
     label: text("label").notNull().default(""),
     status: text("status", { enum: STUDY_STATUSES }).notNull().default("queued"),
     /** Frozen copies: the study file as run, and the stack it ran on (a draft may change later). */
-    study: jsonb("study").$type<Record<string, unknown>>().notNull(),
+    study: jsonb("study").$type<StudyFile>().notNull(),
     stack: jsonb("stack").$type<StackFile>().notNull(),
     /** The site and the field found for it, when the inclination came from the WMM. */
-    site: jsonb("site").$type<Record<string, unknown> | null>(),
+    site: jsonb("site").$type<FieldAtSite>(),
     trialsDone: integer("trials_done").notNull().default(0),
     trialsTotal: integer("trials_total").notNull().default(0),
     trialsPerSecond: doublePrecision("trials_per_second"),
     error: text("error"),
     /** The tolerance sources replaced by measured data sets (issue 7), null for a design study. */
-    asBuilt: jsonb("as_built").$type<Array<Record<string, unknown>> | null>(),
+    asBuilt: jsonb("as_built").$type<AsBuiltRecord[]>(),
     createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
     startedAt: timestamp("started_at", { withTimezone: true }),
     finishedAt: timestamp("finished_at", { withTimezone: true }),
@@ -114,7 +118,7 @@ export const studyResults = pgTable("study_results", {
   studyId: uuid("study_id")
     .primaryKey()
     .references(() => studies.id, { onDelete: "cascade" }),
-  result: jsonb("result").$type<Record<string, unknown>>().notNull(),
+  result: jsonb("result").$type<ResultFile>().notNull(),
   passes: boolean("passes"),
   createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
 });

@@ -3,6 +3,8 @@ import { relations, sql } from "drizzle-orm";
 import { bigint, boolean, index, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { version, timestamps } from "./columns";
 import { users } from "./auth";
+import { INVITATION_STATUSES } from "@shared/schemas/api";
+import { ROLES } from "@shared/schemas/common";
 
 // ---- workspace, members, suppliers --------------------------------------------
 export const workspaces = pgTable("workspaces", {
@@ -54,7 +56,7 @@ export const members = pgTable(
     userId: text("user_id")
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
-    role: text("role", { enum: ["admin", "engineer", "reviewer", "supplier"] }).notNull(),
+    role: text("role", { enum: ROLES }).notNull(),
     /** Only for the supplier role: the company whose released reports the user may see. */
     supplierId: uuid("supplier_id").references(() => suppliers.id, { onDelete: "set null" }),
     ...timestamps,
@@ -71,12 +73,10 @@ export const invitations = pgTable(
       .notNull()
       .references(() => workspaces.id, { onDelete: "cascade" }),
     email: text("email").notNull(),
-    role: text("role", { enum: ["admin", "engineer", "reviewer", "supplier"] }).notNull(),
+    role: text("role", { enum: ROLES }).notNull(),
     supplierId: uuid("supplier_id").references(() => suppliers.id, { onDelete: "cascade" }),
     token: text("token").notNull().unique(),
-    status: text("status", { enum: ["pending", "accepted", "revoked"] })
-      .notNull()
-      .default("pending"),
+    status: text("status", { enum: INVITATION_STATUSES }).notNull().default("pending"),
     invitedBy: text("invited_by").references(() => users.id, { onDelete: "set null" }),
     expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
     acceptedAt: timestamp("accepted_at", { withTimezone: true }),

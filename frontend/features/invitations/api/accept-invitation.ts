@@ -1,15 +1,13 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { z } from "zod";
-import type { AcceptInvitationSchema } from "@shared/schemas/api";
+import type { z } from "zod";
+import { AcceptedInvitationSchema, type AcceptInvitationSchema } from "@shared/schemas/api";
 import { api } from "@frontend/lib/api-client";
 import { invitationKeys } from "./keys";
 
 export type AcceptInvitation = z.infer<typeof AcceptInvitationSchema>;
 
-const AcceptAnswerSchema = z.object({ ok: z.literal(true) });
-
 export async function acceptInvitation({ token, input }: { token: string; input: AcceptInvitation }): Promise<void> {
-  await api.post(`/api/invitations/by-token/${encodeURIComponent(token)}/accept`, input, AcceptAnswerSchema);
+  await api.post(`/api/invitations/by-token/${encodeURIComponent(token)}/accept`, input, AcceptedInvitationSchema);
 }
 
 export function useAcceptInvitation() {

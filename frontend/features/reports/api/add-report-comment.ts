@@ -1,14 +1,11 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { z } from "zod";
 import type { Report } from "@shared/schemas/reports";
-import { CommentSchema } from "@shared/schemas/revisions";
+import { CommentListSchema } from "@shared/schemas/revisions";
 import { api } from "@frontend/lib/api-client";
 import { reportKeys } from "./keys";
 
-const CommentsSchema = z.object({ comments: z.array(CommentSchema) });
-
 export async function addReportComment({ id, body }: { id: string; body: string }) {
-  const { comments } = await api.post(`/api/reports/${encodeURIComponent(id)}/comments`, { body }, CommentsSchema);
+  const { comments } = await api.post(`/api/reports/${encodeURIComponent(id)}/comments`, { body }, CommentListSchema);
   return comments;
 }
 

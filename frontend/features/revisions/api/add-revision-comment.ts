@@ -1,14 +1,11 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { z } from "zod";
-import { CommentSchema, type Revision } from "@shared/schemas/revisions";
+import { CommentListSchema, type Revision } from "@shared/schemas/revisions";
 import { projectKeys } from "@frontend/features/projects";
 import { api } from "@frontend/lib/api-client";
 import { revisionKeys } from "./keys";
 
-const CommentsAnswerSchema = z.object({ comments: z.array(CommentSchema) });
-
 export async function addRevisionComment({ id, body }: { id: string; body: string }) {
-  const { comments } = await api.post(`/api/revisions/${encodeURIComponent(id)}/comments`, { body }, CommentsAnswerSchema);
+  const { comments } = await api.post(`/api/revisions/${encodeURIComponent(id)}/comments`, { body }, CommentListSchema);
   return comments;
 }
 

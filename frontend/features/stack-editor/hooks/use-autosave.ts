@@ -9,7 +9,7 @@
  * offers to reload the draft and reapply them (`rebase`) or to drop them.
  */
 import { useCallback, useEffect, useRef, useState } from "react";
-import { isApiError } from "@frontend/lib/api-client";
+import { isApiError, type FieldError } from "@frontend/lib/api-client";
 import { useUpdateRevision } from "@frontend/features/revisions";
 import type { EditorDoc } from "../lib/stack-ops";
 import { clearBackup, writeBackup } from "../lib/backup";
@@ -22,7 +22,7 @@ export type SaveState =
   | { kind: "pending" }
   | { kind: "saving" }
   | { kind: "invalid"; count: number }
-  | { kind: "error"; message: string; fields: { path: string; message: string }[]; retryable: boolean }
+  | { kind: "error"; message: string; fields: FieldError[]; retryable: boolean }
   /** someone else saved the draft since it was loaded: `version` is theirs */
   | { kind: "conflict"; message: string; version: number | undefined };
 

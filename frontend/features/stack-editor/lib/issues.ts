@@ -5,7 +5,7 @@
  * and the field inside it, which is the key the form and the tables look up.
  */
 import { metricIds } from "@shared/engine/model";
-import { formatPath, fromZodError, validateStackFile, type FieldIssue, type StackValidation } from "@shared/schemas/stack-file";
+import { formatPath, fromZodError, validateStackFile, type FieldError, type StackValidation } from "@shared/schemas/stack-file";
 import { RequirementSchema } from "@shared/schemas/study-file";
 import type { EditorDoc } from "./stack-ops";
 
@@ -19,14 +19,14 @@ export interface IssueIndex {
   elements: Map<number, LocalIssue[]>;
   requirements: Map<number, LocalIssue[]>;
   /** problems of the file as a whole (format, the list of elements, the board) */
-  general: FieldIssue[];
+  general: FieldError[];
   count: number;
 }
 
 const ELEMENT_PATH = /^elements\[(\d+)\](?:\.?(.*))?$/;
 const REQUIREMENT_PATH = /^requirements\[(\d+)\](?:\.?(.*))?$/;
 
-export function indexIssues(issues: FieldIssue[]): IssueIndex {
+export function indexIssues(issues: FieldError[]): IssueIndex {
   const out: IssueIndex = { elements: new Map(), requirements: new Map(), general: [], count: issues.length };
   for (const issue of issues) {
     const el = ELEMENT_PATH.exec(issue.path);
@@ -58,7 +58,7 @@ export function errorsUnder(list: LocalIssue[] | undefined, prefix: string): Loc
 }
 
 /** The server names stack fields under `stack.`; the editor's paths start at the file. */
-export function fromServerFields(fields: ReadonlyArray<{ path: string; message: string }>): FieldIssue[] {
+export function fromServerFields(fields: ReadonlyArray<FieldError>): FieldError[] {
   return fields.map((f) => ({
     path: f.path === "stack" ? "" : f.path.startsWith("stack.") ? f.path.slice("stack.".length) : f.path,
     message: f.message,
@@ -70,8 +70,8 @@ export function fromServerFields(fields: ReadonlyArray<{ path: string; message: 
  * file's schema and cross-element checks, each requirement's schema, and whether the
  * stack offers the metric a requirement names.
  */
-export function validateDoc(doc: EditorDoc, v: StackValidation = validateStackFile(doc.stack)): FieldIssue[] {
-  const issues: FieldIssue[] = v.ok ? [] : [...v.issues];
+export function validateDoc(doc: EditorDoc, v: StackValidation = validateStackFile(doc.stack)): FieldError[] {
+  const issues: FieldError[] = v.ok ? [] : [...v.issues];
   let ids: Set<string> | null = null;
   try {
     ids = new Set(metricIds(doc.stack, {}));

@@ -2,13 +2,13 @@
  * Stack files in and out of the editor: reading an imported file (JSON, then the stack
  * file's own validator) and the name and text of an exported one.
  */
-import { validateStackFile, type FieldIssue, type StackFile } from "@shared/schemas/stack-file";
+import { validateStackFile, type FieldError, type StackFile } from "@shared/schemas/stack-file";
 
 /** A problem of an imported file, with the id of the element it is in when the file names one. */
-export type ImportIssue = FieldIssue & { element?: string };
+export type ImportIssue = FieldError & { element?: string };
 export type ImportResult = { ok: true; stack: StackFile } | { ok: false; message: string; issues: ImportIssue[] };
 
-export function withElementIds(json: unknown, issues: FieldIssue[]): ImportIssue[] {
+export function withElementIds(json: unknown, issues: FieldError[]): ImportIssue[] {
   const els =
     json && typeof json === "object" && Array.isArray((json as { elements?: unknown }).elements)
       ? (json as { elements: unknown[] }).elements

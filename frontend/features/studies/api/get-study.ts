@@ -1,23 +1,13 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import type { z } from "zod";
-import { ResultFileSchema } from "@shared/schemas/result-file";
-import { StudyFileObjectSchema } from "@shared/schemas/study-file";
-import { StudySchema, type StudyStatus } from "@shared/schemas/studies";
+import { StudySchema, type Study, type StudyStatus } from "@shared/schemas/studies";
 import { api } from "@frontend/lib/api-client";
 import { studyKeys } from "./keys";
 
-/**
- * The study as the client reads it: the frozen study file and the result file parsed with
- * their own schemas, so every chart works on checked numbers.
- */
-export const StudyDetailSchema = StudySchema.extend({
-  study: StudyFileObjectSchema,
-  result: ResultFileSchema.nullable(),
-});
-export type StudyDetail = z.infer<typeof StudyDetailSchema>;
+/** The study as the client reads it (shared/schemas/studies StudySchema: study file, stack and result typed). */
+export type StudyDetail = Study;
 
 export function getStudy(id: string, signal?: AbortSignal): Promise<StudyDetail> {
-  return api.get(`/api/studies/${encodeURIComponent(id)}`, StudyDetailSchema, signal);
+  return api.get(`/api/studies/${encodeURIComponent(id)}`, StudySchema, signal);
 }
 
 export const ACTIVE: ReadonlySet<StudyStatus> = new Set(["queued", "running"]);

@@ -3,6 +3,7 @@ import type { RevisionSummary } from "@shared/schemas/revisions";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Select } from "@frontend/components/ui/field";
+import { isApiError } from "@frontend/lib/api-client";
 import { useCreateStudy } from "../api/create-study";
 import type { StudyDetail } from "../api/get-study";
 
@@ -59,9 +60,9 @@ export function CompareRunElsewhere({
       {create.error ? (
         <Alert className="w-full">
           {create.error.message}
-          {"fields" in create.error && Array.isArray(create.error.fields) && create.error.fields.length ? (
+          {isApiError(create.error) && create.error.fields.length ? (
             <ul className="mt-1 list-disc pl-4">
-              {(create.error.fields as { path: string; message: string }[]).map((f) => (
+              {create.error.fields.map((f) => (
                 <li key={f.path}>
                   <span className="font-mono">{f.path}</span>: {f.message}
                 </li>

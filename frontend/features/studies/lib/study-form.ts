@@ -6,7 +6,7 @@
  */
 import { checkStudyAgainstStack, StudyFileObjectSchema, type StudyFile } from "@shared/schemas/study-file";
 import { SiteSchema, type FieldAtSite, type Site } from "@shared/schemas/site";
-import { fromZodError, type StackFile } from "@shared/schemas/stack-file";
+import { fromZodError, type FieldError, type StackFile } from "@shared/schemas/stack-file";
 import type { CreateStudy } from "@shared/schemas/studies";
 
 export const DEFAULT_TILTS = [
@@ -151,7 +151,7 @@ export function fieldOfPath(path: string): string {
   return "_form";
 }
 
-export function issuesToErrors(issues: { path: string; message: string }[]): FormErrors {
+export function issuesToErrors(issues: FieldError[]): FormErrors {
   const out: FormErrors = {};
   for (const i of issues) {
     const key = fieldOfPath(i.path);
