@@ -5,6 +5,7 @@ import {
   NotificationSettingsSchema,
   UpdateNotificationSettingsSchema,
 } from "@shared/schemas/notifications";
+import { ReviewQueueSchema } from "@shared/schemas/review-queue";
 import type { AppDeps } from "../deps";
 import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
@@ -36,7 +37,7 @@ export function notificationsRouter({ db }: AppDeps) {
 
   /** What waits for the signed-in member of staff, from the records themselves (the home page and the counts). */
   r.get("/review-queue", allow("reviews.read"), async (req, res) => {
-    res.json(await reviewQueue(db, actorOf(req)));
+    send(res, ReviewQueueSchema, await reviewQueue(db, actorOf(req)));
   });
 
   return r;
