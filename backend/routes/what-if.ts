@@ -34,7 +34,8 @@ export function whatIfRouter({ db, whatIfQueue }: AppDeps) {
 
   r.post("/sweeps/:id/cancel", allow("whatif.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await cancelRun(db, whatIfQueue, actorOf(req), id, "sweep"));
+    await cancelRun(db, whatIfQueue, actorOf(req), id, "sweep");
+    send(res, SweepSchema, await getSweep(db, actorOf(req).workspaceId, id));
   });
 
   r.post("/revisions/:id/allocations", allow("whatif.run"), async (req, res) => {
@@ -50,7 +51,8 @@ export function whatIfRouter({ db, whatIfQueue }: AppDeps) {
 
   r.post("/allocations/:id/cancel", allow("whatif.run"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    res.json(await cancelRun(db, whatIfQueue, actorOf(req), id, "allocation"));
+    await cancelRun(db, whatIfQueue, actorOf(req), id, "allocation");
+    send(res, AllocationSchema, await getAllocation(db, actorOf(req).workspaceId, id));
   });
 
   r.post("/allocations/:id/apply", allow("revisions.write"), async (req, res) => {

@@ -242,7 +242,6 @@ export async function cancelRun(db: Database, queue: WhatIfScheduler, actor: Act
     });
   });
   await queue.cancel(id);
-  return kind === "sweep" ? getSweep(db, actor.workspaceId, id) : getAllocation(db, actor.workspaceId, id);
 }
 
 /** A new draft revision with the proposal's tolerances (the run's frozen stack, the revision's requirements). */

@@ -2,6 +2,7 @@ import { z } from "zod";
 import { IdSchema, text, VersionBodySchema, VersionSchema } from "./common";
 import { RequirementSchema, type Requirement } from "./study-file";
 import { GeometryWarningSchema } from "./stack-help";
+import { StackFileObjectSchema } from "./stack-file";
 
 export const REVISION_STATUSES = ["draft", "in_review", "approved"] as const;
 export const RevisionStatusSchema = z.enum(REVISION_STATUSES);
@@ -76,7 +77,8 @@ export const RevisionSummarySchema = z.object({
 });
 export type RevisionSummary = z.infer<typeof RevisionSummarySchema>;
 export const RevisionSchema = RevisionSummarySchema.extend({
-  stack: z.record(text(), z.unknown()),
+  /** the stack file of MODEL.md §9 (every stored stack was checked by the stack file's validator) */
+  stack: StackFileObjectSchema,
   requirements: RequirementsSchema,
   comments: z.array(CommentSchema),
   /** geometry slips of the stack (overhang, overlap, clearance, body height); never block saving */

@@ -91,7 +91,8 @@ describe("the study settings form", () => {
     });
     const onStarted = renderForm();
 
-    const reqTable = await screen.findByRole("table", { name: "Requirements of the revision" });
+    // the first render parses the revision (stack file and all) cold; on a loaded machine that passed the 1 s default
+    const reqTable = await screen.findByRole("table", { name: "Requirements of the revision" }, { timeout: 5000 });
     expect(within(reqTable).getByText("heading.maxAbsDeg")).toBeTruthy();
     expect(within(reqTable).getByText("≤ 2.00° (34.9 mrad)")).toBeTruthy();
     expect(within(reqTable).getByText("99.73 %")).toBeTruthy();

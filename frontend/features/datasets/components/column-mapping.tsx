@@ -1,6 +1,5 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import type { Dataset, DatasetColumn, MappingInput } from "@shared/schemas/datasets";
-import type { StackFile } from "@shared/schemas/stack-file";
 import { stackSources, type StackSource } from "@shared/datasets/sources";
 import { conversionFactor, MEASURE_UNITS, unitKind, type MeasureUnit } from "@shared/datasets/units";
 import { Alert } from "@frontend/components/ui/alert";
@@ -67,7 +66,7 @@ export function ColumnMapping({ dataset, canWrite, onShow }: { dataset: Dataset;
   const [revisionId, setRevisionId] = useState("");
   const rev = revisionId || defaultRev;
   const revision = useRevision(rev || null);
-  const sources = useMemo(() => (revision.data ? stackSources(revision.data.stack as unknown as StackFile) : []), [revision.data]);
+  const sources = useMemo(() => (revision.data ? stackSources(revision.data.stack) : []), [revision.data]);
 
   const initial = useMemo(() => {
     const out: Record<string, Row> = {};

@@ -8,9 +8,8 @@ import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode, type
 import { Link, useBlocker, useNavigate } from "react-router";
 import type { Me, Project } from "@shared/schemas/api";
 import type { Revision } from "@shared/schemas/revisions";
-import { validateStackFile, type StackFile } from "@shared/schemas/stack-file";
+import { validateStackFile } from "@shared/schemas/stack-file";
 import { geometryWarnings } from "@shared/stack-geometry";
-import type { Requirement } from "@shared/schemas/study-file";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
@@ -45,7 +44,7 @@ import { ToleranceTable } from "./tolerance-table";
 import { ViewerPanel } from "./viewer-panel";
 
 function docOf(revision: Revision): EditorDoc {
-  return { stack: revision.stack as unknown as StackFile, requirements: revision.requirements as Requirement[] };
+  return { stack: revision.stack, requirements: revision.requirements };
 }
 
 const UndoIcon = () => (

@@ -45,7 +45,7 @@ export function CompareRunElsewhere({
               revisionId: target,
               body: {
                 // The frozen file, requirements and seed included, so only the stack differs.
-                study: source.study as unknown as Record<string, unknown>,
+                study: source.study,
                 ...(source.site ? { site: source.site.site } : {}),
                 label: `Settings of study ${source.number} on revision ${rev?.number ?? ""}`,
               },

@@ -1,6 +1,5 @@
 import { useMemo, useState, type ReactNode } from "react";
 import type { ResultFile } from "@shared/schemas/result-file";
-import type { StackFile } from "@shared/schemas/stack-file";
 import { ChartFileName } from "@frontend/components/ui/chart-download";
 import { Panel } from "@frontend/components/ui/panel";
 import type { StudyDetail } from "../api/get-study";
@@ -35,8 +34,8 @@ export function StudyResults({
   /** what downloaded charts are named after (`<project>-study-<n>`) */
   fileBase?: string;
 }) {
-  const stack = study.stack as unknown as StackFile;
-  const elements = useMemo(() => (stack.elements ?? []) as { id: string; kind: string }[], [stack]);
+  const stack = study.stack;
+  const elements = stack.elements;
   const elementOrder = useMemo(() => elements.map((e) => e.id), [elements]);
   const kinds = useMemo(() => new Map(elements.map((e) => [e.id, e.kind] as const)), [elements]);
   const kindOf = (id: string) => kinds.get(id);

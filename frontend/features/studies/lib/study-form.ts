@@ -221,7 +221,7 @@ export function buildStudy(v: StudyFormValues, stack: StackFile | null, fieldInc
   if (Object.keys(errors).length > 0 || !parsed.success) return { ok: false, errors };
 
   const study = parsed.data;
-  const body: CreateStudy = { study: study as unknown as Record<string, unknown> };
+  const body: CreateStudy = { study };
   if (site) body.site = site;
   if (v.label.trim()) body.label = v.label.trim();
   return { ok: true, body, study, attitudes: attitudeCount(study) };
