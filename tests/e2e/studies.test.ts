@@ -177,6 +177,40 @@ describe("studies", () => {
     await page.getByRole("radio", { name: "Log" }).click();
     const [histLog] = await drawn(page, '[data-chart="histogram"]');
     expect(histLog.bars).toBeGreaterThan(10);
+    // A chart leaves as a file: the histogram's PNG at twice its size on the page, drawn (not blank), and its SVG with the bars and the font.
+    const histFigure = page.locator('[data-chart="histogram"]');
+    const [w, h] = await histFigure.locator(".recharts-wrapper > svg").evaluate((s) => [s.clientWidth, s.clientHeight]);
+    const chartFile = async (item: string) => {
+      await histFigure.getByRole("button", { name: /^Download Histogram of / }).click();
+      const [file] = await Promise.all([page.waitForEvent("download"), page.getByRole("menuitem", { name: item }).click()]);
+      return { name: file.suggestedFilename(), bytes: readFileSync((await file.path())!) };
+    };
+    const png = await chartFile("PNG picture (2×)");
+    expect(png.name).toBe("ridgeline-trail-watch-9-axis-sensor-module-study-2-histogram-accel-mag.relrotdeg.png");
+    expect([png.bytes.readUInt32BE(16), png.bytes.readUInt32BE(20)]).toEqual([2 * w, 2 * h]);
+    const inked = await page.evaluate(
+      async (url) => {
+        const img = new Image();
+        img.src = url;
+        await img.decode();
+        const c = Object.assign(document.createElement("canvas"), { width: img.width, height: img.height });
+        const g = c.getContext("2d")!;
+        g.drawImage(img, 0, 0);
+        const d = g.getImageData(0, 0, img.width, img.height).data;
+        let n = 0;
+        for (let i = 0; i < d.length; i += 4) if (d[i] + d[i + 1] + d[i + 2] < 600) n++;
+        return n / (d.length / 4);
+      },
+      `data:image/png;base64,${png.bytes.toString("base64")}`,
+    );
+    expect(inked).toBeGreaterThan(0.02);
+    const svg = await chartFile("SVG drawing");
+    expect(svg.name).toBe("ridgeline-trail-watch-9-axis-sensor-module-study-2-histogram-accel-mag.relrotdeg.svg");
+    const svgText = svg.bytes.toString("utf8");
+    expect(svgText).toMatch(/^<\?xml[^]*<svg[^>]*xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
+    expect(svgText).toContain("data:font/woff2;base64,");
+    expect((svgText.match(/class="recharts/g) ?? []).length).toBe(0);
+    expect((svgText.match(/<path/g) ?? []).length).toBeGreaterThan(10);
     // Choosing a requirement card points the contributors at it.
     await cards.getByRole("button", { name: /mag cross-axis total, x/ }).click();
     await expect(page.getByLabel("Contributors for requirement").inputValue()).resolves.toBe("mag.crossAxisTotalPct.x");

@@ -81,7 +81,8 @@ export function ChartDownload({ name, title, className }: { name: string; title:
   };
 
   return (
-    <div ref={root} className={cn("relative z-10", className)} data-chart-download={fileBase}>
+    // positioned either way (the menu hangs from it): in the flow unless the caller places it
+    <div ref={root} className={cn("z-10", className ?? "relative")} data-chart-download={fileBase}>
       <button
         type="button"
         aria-haspopup="menu"

@@ -116,11 +116,14 @@ export function ElementTree() {
                 aria-hidden="true"
               />
               <span className="max-w-[70%] shrink-0 truncate font-semibold">{r.id || "(no id)"}</span>
-              <span className={cn("min-w-0 truncate text-[11px]", isSel ? "text-paper/60" : "text-ink/45")}>{KIND_SHORT[r.kind]}</span>
+              {/* deep in the tree, with a mark beside it, the kind may be cut: its title keeps it readable */}
+              <span className={cn("min-w-0 truncate text-[11px]", isSel ? "text-paper/60" : "text-ink/45")} title={KIND_SHORT[r.kind]}>
+                {KIND_SHORT[r.kind]}
+              </span>
               {slips.length ? (
                 <span
                   className={cn(
-                    "ml-auto flex h-4 shrink-0 items-center gap-0.5 rounded-full px-1 text-[10px] font-bold",
+                    "ml-auto flex h-4 shrink-0 items-center gap-0.5 rounded-full px-0.5 text-[10px] font-bold",
                     isSel ? "bg-paper text-warn" : "bg-warn/15 text-warn",
                   )}
                   title={slipText}
@@ -130,7 +133,7 @@ export function ElementTree() {
                   <svg width="10" height="10" viewBox="0 0 16 16" fill="currentColor" aria-hidden="true">
                     <path d="M8 1.5 15 14.5H1Z" />
                   </svg>
-                  {slips.length}
+                  {slips.length > 1 ? slips.length : null}
                 </span>
               ) : null}
               {problems ? (

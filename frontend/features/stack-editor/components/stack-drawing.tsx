@@ -120,7 +120,7 @@ export function StackDrawing({ stack, revisionNumber }: { stack: StackFile | nul
 
   // ---- side section: the stack left of its labels, the board's top face at the base line
   const labelX = SIDE_W - LABEL_W;
-  const sideH = Math.max(190, side.labels.length * 30 + 50);
+  const sideH = Math.max(190, side.labels.length * 30 + 64);
   const sideScale = Math.min(drawingScale(side.maxX - side.minX, labelX - 110, PX_PER_MM), drawingScale(side.top, sideH - 60, PX_PER_MM));
   const ks = sideScale * PX_PER_MM;
   const base = sideH - 30;
@@ -211,10 +211,11 @@ export function StackDrawing({ stack, revisionNumber }: { stack: StackFile | nul
           </div>
         </div>
         <figure aria-label="Side section of the stack" className="relative max-w-full overflow-x-auto" data-drawing="side">
+          {/* top left: the labels take the right-hand side */}
           <ChartDownload
             name="side-section"
             title={`${name}, revision ${revisionNumber}: side section`}
-            className="absolute top-1 right-1"
+            className="absolute top-1 left-1"
           />
           <svg
             data-chart-surface
@@ -282,7 +283,10 @@ export function StackDrawing({ stack, revisionNumber }: { stack: StackFile | nul
             })}
             <rect x={labelX} y={side.labels.length * 30 + 8} width={12} height={5} fill={DRAWING_COLOUR.bondLine} />
             <text x={labelX + 17} y={side.labels.length * 30 + 14} fontSize={10.5} fill={MUTED}>
-              {DRAWING_WORDS.bondLine}; {DRAWING_WORDS.heights}
+              {DRAWING_WORDS.bondLine}
+            </text>
+            <text x={labelX} y={side.labels.length * 30 + 28} fontSize={10.5} fill={MUTED}>
+              {DRAWING_WORDS.heights}
             </text>
             <ScaleBar x={6} y={sideH + 10} scale={sideScale} label={DRAWING_WORDS.sideSection} />
           </svg>
