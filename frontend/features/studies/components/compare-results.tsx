@@ -1,4 +1,5 @@
 import type { ResultFile } from "@shared/schemas/result-file";
+import { ChartFileName } from "@frontend/components/ui/chart-download";
 import { Panel } from "@frontend/components/ui/panel";
 import type { StudyDetail } from "../api/get-study";
 import { SERIES_A, SERIES_B } from "./chart-theme";
@@ -24,13 +25,15 @@ export function CompareResults({ a, b, ra, rb }: { a: StudyDetail; b: StudyDetai
 
       {ra.envelope && rb.envelope ? (
         <Panel title="Heading-error envelopes" meta="A and B overlaid" accent="var(--color-mag)">
-          <EnvelopeCharts
-            layers={[
-              { key: "a", name: `A · study ${a.number}`, colour: SERIES_A, envelope: ra.envelope },
-              { key: "b", name: `B · study ${b.number}`, colour: SERIES_B, envelope: rb.envelope },
-            ]}
-            limitDeg={headingReq?.max}
-          />
+          <ChartFileName value={`study-${a.number}-vs-study-${b.number}`}>
+            <EnvelopeCharts
+              layers={[
+                { key: "a", name: `A · study ${a.number}`, colour: SERIES_A, envelope: ra.envelope },
+                { key: "b", name: `B · study ${b.number}`, colour: SERIES_B, envelope: rb.envelope },
+              ]}
+              limitDeg={headingReq?.max}
+            />
+          </ChartFileName>
         </Panel>
       ) : null}
 
