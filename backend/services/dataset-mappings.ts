@@ -14,6 +14,7 @@ import { recordActivity } from "./activity";
 import type { ParsedColumn } from "./dataset-files";
 
 import { datasetRow, getDataset } from "./datasets";
+import { assertProjectOpen } from "./project-records";
 
 /** Sets or clears the tolerance source of each listed column; the others keep theirs. */
 export async function updateMappings(
@@ -24,6 +25,7 @@ export async function updateMappings(
   sent: number | undefined,
 ): Promise<Dataset> {
   const ds = await datasetRow(db, actor.workspaceId, id);
+  await assertProjectOpen(db, actor.workspaceId, ds.projectId);
   const expected = requireVersion(`The data set “${ds.name}”`, ds.version, sent);
   const columns = ds.columns as unknown as ParsedColumn[];
   const revisionIds = [...new Set(input.mappings.map((m) => m.revisionId))];

@@ -341,6 +341,7 @@ export async function updateDataset(
   sent: number | undefined,
 ): Promise<Dataset> {
   const ds = await datasetRow(db, actor.workspaceId, id);
+  await assertProjectOpen(db, actor.workspaceId, ds.projectId);
   const expected = requireVersion(`The data set “${ds.name}”`, ds.version, sent);
   const columns = ds.columns as unknown as ParsedColumn[];
   if (input.lotColumn !== null) {
@@ -376,6 +377,7 @@ export async function updateDataset(
 
 export async function deleteDataset(db: Database, actor: Actor, id: string) {
   const ds = await datasetRow(db, actor.workspaceId, id);
+  await assertProjectOpen(db, actor.workspaceId, ds.projectId);
   await db.transaction(async (tx) => {
     await tx.delete(datasets).where(eq(datasets.id, id));
     await recordActivity(tx, {

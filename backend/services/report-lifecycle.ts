@@ -160,6 +160,7 @@ function assertDraft(row: ReportRow) {
 
 export async function updateReport(db: Database, actor: Actor, id: string, input: UpdateReport, baseURL: string, sent: number | undefined) {
   const row = await visibleRow(db, actor, id);
+  await assertProjectOpen(db, actor.workspaceId, row.projectId);
   const expected = requireVersion(titleOf(row), row.version, sent);
   assertDraft(row);
   if (!row.studyId || !row.supplierId)
@@ -192,6 +193,7 @@ export async function updateReport(db: Database, actor: Actor, id: string, input
 
 export async function deleteReport(db: Database, actor: Actor, id: string) {
   const row = await visibleRow(db, actor, id);
+  await assertProjectOpen(db, actor.workspaceId, row.projectId);
   assertDraft(row);
   await db.transaction(async (tx) => {
     const gone = await tx
@@ -220,6 +222,7 @@ export async function releaseReport(
   sent: number | undefined,
 ) {
   const row = await visibleRow(db, actor, id);
+  await assertProjectOpen(db, actor.workspaceId, row.projectId);
   const expected = requireVersion(titleOf(row), row.version, sent);
   assertDraft(row);
   const c = row.content as unknown as ReportContent;
@@ -330,6 +333,8 @@ export async function acknowledgeReport(
 export async function addReportComment(db: Database, actor: Actor, id: string, body: string) {
   const row = await visibleRow(db, actor, id);
   const question = actor.role === "supplier";
+  // the supplier's side of a released report goes on; the staff's discussion stops with the archive
+  if (!question) await assertProjectOpen(db, actor.workspaceId, row.projectId);
   await db.transaction(async (tx) => {
     await tx.insert(comments).values({
       workspaceId: actor.workspaceId,
@@ -357,6 +362,7 @@ export async function addReportComment(db: Database, actor: Actor, id: string, b
 /** A reviewer sends a draft back with what must change; it stays a draft, the comment is kept. */
 export async function returnReport(db: Database, actor: Actor, id: string, comment: string, baseURL: string, sent: number | undefined) {
   const row = await visibleRow(db, actor, id);
+  await assertProjectOpen(db, actor.workspaceId, row.projectId);
   const expected = requireVersion(titleOf(row), row.version, sent);
   assertDraft(row);
   await db.transaction(async (tx) => {

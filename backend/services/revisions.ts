@@ -280,6 +280,7 @@ export async function transitionRevision(
 
 export async function addRevisionComment(db: Database, actor: Actor, id: string, body: string) {
   const row = await getRevisionRow(db, actor.workspaceId, id);
+  await assertProjectOpen(db, actor.workspaceId, row.projectId);
   await db.transaction(async (tx) => {
     await tx.insert(comments).values({
       workspaceId: actor.workspaceId,

@@ -154,6 +154,7 @@ export async function createStudy(db: Database, queue: StudyScheduler, actor: Ac
 
 export async function cancelStudy(db: Database, queue: StudyScheduler, actor: Actor, id: string) {
   const s = await getStudy(db, actor.workspaceId, id, false);
+  await assertProjectOpen(db, actor.workspaceId, s.projectId);
   if (s.status !== "queued" && s.status !== "running")
     throw conflict(`Study ${s.number} is ${s.status}; only a queued or running study can be cancelled.`, "invalid_state");
   await queue.cancel(id);
@@ -170,6 +171,7 @@ export async function cancelStudy(db: Database, queue: StudyScheduler, actor: Ac
 /** Puts an interrupted, failed or cancelled study back in the queue with the same frozen settings. */
 export async function rerunStudy(db: Database, queue: StudyScheduler, actor: Actor, id: string) {
   const s = await getStudy(db, actor.workspaceId, id, false);
+  await assertProjectOpen(db, actor.workspaceId, s.projectId);
   if (!["interrupted", "failed", "cancelled"].includes(s.status)) {
     throw conflict(`Study ${s.number} is ${s.status}; only an interrupted, failed or cancelled study can be run again.`, "invalid_state");
   }
