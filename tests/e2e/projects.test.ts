@@ -80,6 +80,51 @@ describe("an engineer's projects", () => {
     expect(unexpectedProblems(problems)).toEqual([]);
   });
 
+  it("keeps a project with an approved revision: delete offers to archive instead; archived, it is read-only and restores", async () => {
+    const { page, problems } = await e2e.session();
+    await signInAs(page, "engineer@example.com");
+    const table = page.getByRole("table", { name: "Projects" });
+    const ridgeline = (
+      await table
+        .getByRole("link", { name: /Ridgeline/ })
+        .first()
+        .innerText()
+    ).trim();
+
+    await page.getByRole("button", { name: `Delete ${ridgeline}` }).click();
+    await page.getByRole("dialog", { name: "Delete this project?" }).getByRole("button", { name: "Delete project" }).click();
+    const kept = page.getByRole("dialog", { name: "This project keeps records" });
+    await kept.getByText(/1 approved revision/).waitFor();
+    await screenshot(page, "project-delete-kept");
+    await kept.getByRole("button", { name: "Archive instead" }).click();
+    await kept.waitFor({ state: "detached" });
+    await table.getByRole("link", { name: ridgeline }).waitFor({ state: "detached" });
+
+    // the filter shows it, marked, and its page offers no change
+    await page.getByRole("combobox", { name: "Show" }).selectOption("only");
+    await page.waitForURL((url) => url.searchParams.get("archived") === "only");
+    await table.getByRole("link", { name: ridgeline }).click();
+    await page
+      .getByText(/read-only/)
+      .first()
+      .waitFor();
+    await expect(page.getByRole("button", { name: "Rename" }).count()).resolves.toBe(0);
+    await page.getByRole("link", { name: "Open revision 2" }).waitFor(); // still readable
+    await expect(page.getByRole("button", { name: "Edit", exact: true }).count()).resolves.toBe(0);
+    await expect(page.getByRole("button", { name: "Start a draft from revision 1" }).count()).resolves.toBe(0);
+    await screenshot(page, "project-archived");
+
+    await page.getByRole("button", { name: "Restore" }).click();
+    await page.getByRole("button", { name: "Rename" }).waitFor();
+    await page
+      .getByRole("list", { name: "Project activity" })
+      .getByText(/restored the project/)
+      .waitFor();
+    const open = await page.request.get("/api/projects");
+    expect(((await open.json()).projects as Array<{ name: string }>).map((p) => p.name)).toContain(ridgeline);
+    expect(unexpectedProblems(problems)).toEqual([]);
+  });
+
   it("shows a friendly page for a project that does not exist", async () => {
     const { page, problems } = await e2e.session();
     await signInAs(page, "engineer@example.com");

@@ -10,6 +10,8 @@ export const reviewQueueQueryOptions = () =>
     queryKey: reviewQueueKey,
     queryFn: ({ signal }) => api.get("/api/review-queue", ReviewQueueSchema, signal),
     refetchInterval: 20_000,
+    // asked again on each page that shows it, so an approval just made elsewhere is not counted still
+    staleTime: 0,
   });
 
 /** `enabled` off for a role without the right (a supplier): no request, no data. */
