@@ -1,11 +1,13 @@
 import { useState } from "react";
-import type { QueryClient } from "@tanstack/react-query";
+import { useQuery, type QueryClient } from "@tanstack/react-query";
 import { data, useParams, type LoaderFunctionArgs } from "react-router";
 import { IdSchema } from "@shared/schemas/common";
 import type { SendResult } from "@shared/schemas/reports";
+import { Alert } from "@frontend/components/ui/alert";
 import { Panel } from "@frontend/components/ui/panel";
 import { useMe } from "@frontend/features/auth/api/get-me";
 import { ReportMeasurements } from "@frontend/features/datasets/components/report-measurements";
+import { projectQueryOptions } from "@frontend/features/projects/api/get-project";
 import { reportQueryOptions, useReport } from "@frontend/features/reports/api/get-report";
 import { ReportAssumptions, ReportCautions } from "@frontend/features/reports/components/report-assumptions";
 import { ReportComments } from "@frontend/features/reports/components/report-comments";
@@ -49,7 +51,10 @@ export function ReportRoute() {
   const { data: report } = useReport(id);
   const me = useMe();
   const asSupplier = can(me.role, "reports.inbox");
-  const { actions, dialog, close } = useReportActions(report, me.role);
+  // staff see whether the report's project is archived (read-only); a supplier never sees projects
+  const project = useQuery({ ...projectQueryOptions(report.projectId), enabled: can(me.role, "projects.read") });
+  const archived = !!project.data?.archivedAt;
+  const { actions, dialog, close } = useReportActions(report, me.role, archived);
   const [sent, setSent] = useState<SendResult | null>(null);
   const c = report.content;
   const draft = report.status === "draft";
@@ -57,6 +62,11 @@ export function ReportRoute() {
   return (
     <>
       <ReportHeader report={report} asSupplier={asSupplier} actions={actions} />
+      {archived ? (
+        <Alert tone="info" title={`The project “${project.data?.name}” is archived: this report is read-only`} className="mb-5">
+          A released report can still be sent. Restore the project to change, release or revise it.
+        </Alert>
+      ) : null}
       {draft ? <DraftNotice asSupplier={asSupplier} /> : null}
       {sent ? <SentNotice sent={sent} /> : null}
       <ReportKeyFacts content={c} />

@@ -11,12 +11,14 @@ export type ReportDialogKind = "release" | "return" | "send" | "acknowledge" | "
  * The buttons a person may press on this report (by role and by the report's state), and which
  * of the report's dialogs is open. Buttons only open a dialog; the dialogs do the work.
  */
-export function useReportActions(report: Report, role: Role) {
+export function useReportActions(report: Report, role: Role, projectArchived = false) {
   const [dialog, setDialog] = useState<ReportDialogKind | null>(null);
   const draft = report.status === "draft";
+  // an archived project is read-only (the server refuses the change): its reports may still be sent and acknowledged
+  const changeable = !projectArchived;
   const open = (kind: ReportDialogKind) => () => setDialog(kind);
   const actions: ReactNode[] = [];
-  if (draft && can(role, "reports.write")) {
+  if (changeable && draft && can(role, "reports.write")) {
     actions.push(
       <Button key="edit" icon={<PencilIcon />} onClick={open("edit")}>
         Change
@@ -26,7 +28,7 @@ export function useReportActions(report: Report, role: Role) {
       </Button>,
     );
   }
-  if (draft && can(role, "reports.release")) {
+  if (changeable && draft && can(role, "reports.release")) {
     actions.push(
       <Button key="return" onClick={open("return")}>
         Send back
@@ -36,7 +38,7 @@ export function useReportActions(report: Report, role: Role) {
       </Button>,
     );
   }
-  if (!draft && can(role, "reports.write") && report.isLatest) {
+  if (changeable && !draft && can(role, "reports.write") && report.isLatest) {
     actions.push(
       <Button key="revise" icon={<PlusIcon />} onClick={open("revise")}>
         New revision
