@@ -59,7 +59,7 @@ export const seedDemoDatasets: SeedStep = async (db, ctx) => {
         sizeBytes: buf.length,
         sha256: createHash("sha256").update(buf).digest("hex"),
         rowCount: parsed.rowNumbers.length,
-        columns: parsed.columns as unknown as Array<Record<string, unknown>>,
+        columns: parsed.columns,
         data: parsed.data,
         preview: parsed.preview,
         rowNumbers: parsed.rowNumbers,

@@ -14,7 +14,6 @@ import { MAX_DATA_VALUES, validateStackFile, type StackFile, type Tolerance } fr
 import type { Database } from "../db/client";
 import { datasetMappings, datasets } from "../db/schema";
 import { badRequest } from "../lib/errors";
-import type { ParsedColumn } from "./dataset-files";
 import { convertedValues, pooledRows, presentValues } from "./dataset-values";
 
 type Measured = { name: string; columns: string[]; dropped: number; values: number[] | null; rows: number[][] | null };
@@ -58,7 +57,7 @@ async function measuredSource(
       [{ path: `${path}.datasetId`, message: "no data set with this id in the revision's project" }],
       "invalid_as_built",
     );
-  const cols = ds.columns as unknown as ParsedColumn[];
+  const cols = ds.columns;
   const maps = await db.select().from(datasetMappings).where(eq(datasetMappings.datasetId, e.datasetId));
   const mine = maps.filter((m) => m.source === e.source);
   const pooled = mine.filter((m) => m.part !== null);

@@ -4,7 +4,7 @@
  * it was found in (the header is the file's first non-blank row; rows count as a
  * spreadsheet shows them, from 1).
  */
-import { DATASET_MAX_COLUMNS, DATASET_MAX_ROWS, DATASET_PREVIEW_ROWS } from "@shared/schemas/datasets";
+import { DATASET_MAX_COLUMNS, DATASET_MAX_ROWS, DATASET_PREVIEW_ROWS, type ParsedColumn } from "@shared/schemas/datasets";
 import { parseHeader, type MeasureUnit } from "@shared/datasets/units";
 import { summarize } from "@shared/datasets/statistics";
 import { badRequest, type HttpError, type FieldError } from "../lib/errors";
@@ -19,15 +19,8 @@ export type Cell = { kind: CellKind; text: string; value: number | null };
 export type RawRow = { row: number; cells: Cell[] };
 export type RawTable = { fileType: "csv" | "xlsx"; sheet: string | null; rows: RawRow[] };
 
-export type ParsedColumn = {
-  key: string;
-  name: string;
-  letter: string;
-  unit: MeasureUnit | null;
-  kind: "number" | "label";
-  /** n: values; missing: gaps (empty cells and missing markers) */
-  summary: { n: number; missing: number; mean: number; std: number; min: number; max: number } | null;
-};
+/** A column read from the file (summary n: values; missing: gaps, empty cells and missing markers). */
+export type { ParsedColumn };
 
 export type ParsedDataset = {
   fileType: "csv" | "xlsx";

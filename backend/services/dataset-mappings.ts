@@ -11,7 +11,6 @@ import { badRequest, type FieldError } from "../lib/errors";
 import { requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
-import type { ParsedColumn } from "./dataset-files";
 
 import { datasetRow, getDataset } from "./datasets";
 import { assertProjectOpen } from "./project-records";
@@ -27,7 +26,7 @@ export async function updateMappings(
   const ds = await datasetRow(db, actor.workspaceId, id);
   await assertProjectOpen(db, actor.workspaceId, ds.projectId);
   const expected = requireVersion(`The data set “${ds.name}”`, ds.version, sent);
-  const columns = ds.columns as unknown as ParsedColumn[];
+  const columns = ds.columns;
   const revisionIds = [...new Set(input.mappings.map((m) => m.revisionId))];
   const revs = await db
     .select({ id: stackRevisions.id, number: stackRevisions.number, projectId: stackRevisions.projectId, stack: stackRevisions.stack })

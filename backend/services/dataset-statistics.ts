@@ -14,10 +14,10 @@ import type { StackFile } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
 import { datasetMappings, datasets, stackRevisions } from "../db/schema";
 import { badRequest, found } from "../lib/errors";
-import type { ParsedColumn } from "./dataset-files";
+import type { StoredColumn } from "@shared/schemas/datasets";
 import { conversionText, convertedValues, presentValues, type Cells } from "./dataset-values";
 
-function numericColumn(columns: ParsedColumn[], key: string, path = "column"): ParsedColumn {
+function numericColumn(columns: StoredColumn[], key: string, path = "column"): StoredColumn {
   const c = columns.find((x) => x.key === key);
   if (!c)
     throw badRequest(
@@ -52,7 +52,7 @@ export async function datasetStatistics(db: Database, workspaceId: string, id: s
     .from(datasets)
     .where(and(eq(datasets.workspaceId, workspaceId), eq(datasets.id, id)));
   const ds = found(row, "The data set");
-  const col = numericColumn(ds.columns as unknown as ParsedColumn[], column);
+  const col = numericColumn(ds.columns, column);
   const present = presentValues(ds.data[col.key]);
   const missing = ds.data[col.key].length - present.values.length;
   const [m] = await db

@@ -12,7 +12,7 @@ import { requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
-import { readMeasurementFile, type ParsedColumn } from "./dataset-files";
+import { readMeasurementFile } from "./dataset-files";
 import { pooledRows } from "./dataset-values";
 
 export type UploadedFile = { originalname: string; buffer: Buffer };
@@ -84,7 +84,7 @@ async function mappingsOf(db: Database, ids: string[]): Promise<MappingRow[]> {
 }
 
 function toSummary(r: SummaryRow, maps: MappingRow[]): DatasetSummary {
-  const cols = r.columns as unknown as ParsedColumn[];
+  const cols = r.columns;
   return {
     id: r.id,
     projectId: r.projectId,
@@ -138,7 +138,7 @@ export async function getDataset(db: Database, workspaceId: string, id: string):
     stacks.set(revId, rv ? stackSources(rv.stack as StackFile) : []);
   }
   const sourceOf = (m: MappingRow) => stacks.get(m.revisionId)?.find((x) => x.id === m.source) ?? null;
-  const columns: DatasetColumn[] = (r.columns as unknown as ParsedColumn[]).map((c) => {
+  const columns: DatasetColumn[] = r.columns.map((c) => {
     const m = maps.find((x) => x.column === c.key);
     return {
       ...c,
@@ -227,7 +227,7 @@ async function storeUpload(
         sizeBytes: file.buffer.length,
         sha256,
         rowCount: parsed.rowNumbers.length,
-        columns: parsed.columns as unknown as Array<Record<string, unknown>>,
+        columns: parsed.columns,
         data: parsed.data,
         preview: parsed.preview,
         rowNumbers: parsed.rowNumbers,
@@ -343,7 +343,7 @@ export async function updateDataset(
   const ds = await datasetRow(db, actor.workspaceId, id);
   await assertProjectOpen(db, actor.workspaceId, ds.projectId);
   const expected = requireVersion(`The data set “${ds.name}”`, ds.version, sent);
-  const columns = ds.columns as unknown as ParsedColumn[];
+  const columns = ds.columns;
   if (input.lotColumn !== null) {
     const c = columns.find((x) => x.key === input.lotColumn);
     if (!c)

@@ -5,7 +5,7 @@
  */
 import { createHash } from "node:crypto";
 import { and, eq } from "drizzle-orm";
-import type { ReportContent, ReportFileKind } from "@shared/schemas/reports";
+import type { ReportFileKind } from "@shared/schemas/reports";
 import type { Database } from "../db/client";
 import { reportDownloads, reportFiles, users } from "../db/schema";
 import { found } from "../lib/errors";
@@ -48,12 +48,12 @@ export async function metaFor(db: Database, row: ReportRow, baseURL: string, ove
 }
 
 export function fileName(row: ReportRow, kind: ReportFileKind) {
-  const c = row.content as unknown as ReportContent;
+  const c = row.content;
   return `${reportCode(row.number)}-r${row.revision}-${safeFileName(c.supplier.name)}.${kind}`;
 }
 
 export async function render(row: ReportRow, meta: ReportMeta, kind: ReportFileKind): Promise<Buffer> {
-  const c = row.content as unknown as ReportContent;
+  const c = row.content;
   if (kind === "pdf") return renderReportPdf(c, meta);
   if (kind === "xlsx") return renderReportXlsx(c, meta);
   return renderReportCsv(c, meta);
@@ -80,7 +80,7 @@ export async function reportFile(db: Database, actor: Actor, id: string, kind: R
   await db.transaction(async (tx) => {
     await tx.insert(reportDownloads).values({ reportId: id, userId: actor.userId, role: actor.role, kind });
     if (actor.role === "supplier") {
-      const c = row.content as unknown as ReportContent;
+      const c = row.content;
       await recordActivity(tx, {
         workspaceId: actor.workspaceId,
         projectId: row.projectId,

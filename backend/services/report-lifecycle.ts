@@ -5,7 +5,7 @@
  */
 import { and, desc, eq, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
-import type { CreateReport, Report, ReportContent, UpdateReport } from "@shared/schemas/reports";
+import type { CreateReport, Report, UpdateReport } from "@shared/schemas/reports";
 import type { Database } from "../db/client";
 import { comments, projects, reportFiles, reports, stackRevisions, users } from "../db/schema";
 import { badRequest, conflict, found, HttpError } from "../lib/errors";
@@ -124,7 +124,7 @@ export async function createReport(db: Database, actor: Actor, studyId: string, 
           number,
           revision,
           capability,
-          content: content as unknown as Record<string, unknown>,
+          content,
           note: input.note,
           snapshotPng: snapshot,
           createdBy: actor.userId,
@@ -176,7 +176,7 @@ export async function updateReport(db: Database, actor: Actor, id: string, input
       id,
       expected,
       titleOf(row),
-      { capability, content: content as unknown as Record<string, unknown>, note: input.note ?? row.note, snapshotPng: snapshot },
+      { capability, content, note: input.note ?? row.note, snapshotPng: snapshot },
       { where: eq(reports.status, "draft"), otherwise: () => conflict("The report was released meanwhile; reload it.", "report_frozen") },
     );
     await recordActivity(tx, {
@@ -225,7 +225,7 @@ export async function releaseReport(
   await assertProjectOpen(db, actor.workspaceId, row.projectId);
   const expected = requireVersion(titleOf(row), row.version, sent);
   assertDraft(row);
-  const c = row.content as unknown as ReportContent;
+  const c = row.content;
   if (row.revisionId) {
     // the revision cannot lose its approval today, but the report must never outlive it silently
     const [rev] = await db
@@ -294,7 +294,7 @@ export async function acknowledgeReport(
   const expected = requireVersion(titleOf(row), row.version, sent);
   if (row.acknowledgedAt)
     throw conflict(`${reportCode(row.number)} revision ${row.revision} is already acknowledged.`, "already_acknowledged");
-  const c = row.content as unknown as ReportContent;
+  const c = row.content;
   await db.transaction(async (tx) => {
     await writeVersioned(
       tx,

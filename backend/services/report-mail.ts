@@ -96,7 +96,7 @@ export async function sendReport(
     .from(supplierContacts)
     .where(eq(supplierContacts.supplierId, row.supplierId))
     .orderBy(asc(supplierContacts.name));
-  const c = row.content as unknown as ReportContent;
+  const c = row.content;
   if (all.length === 0)
     throw conflict(`${c.supplier.name} has no contacts to send to. An admin adds them on the Suppliers page.`, "no_contacts");
   const unknown = (choice.contactIds ?? []).flatMap((cid, i) =>

@@ -6,7 +6,7 @@
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { matchOwner, toleranceSources } from "@shared/reports/sources";
-import type { Report, ReportContent, ReportOptions, ReportSummary } from "@shared/schemas/reports";
+import type { Report, ReportOptions, ReportSummary } from "@shared/schemas/reports";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
 import {
@@ -77,7 +77,7 @@ function summaryQuery(db: Database, supplierView: boolean) {
 type SummaryRecord = Awaited<ReturnType<ReturnType<typeof summaryQuery>["execute"]>>[number];
 
 function toSummary(r: SummaryRecord): ReportSummary {
-  const c = r.row.content as unknown as ReportContent;
+  const c = r.row.content;
   return {
     id: r.row.id,
     code: reportCode(r.row.number),
@@ -195,7 +195,7 @@ export async function getReport(db: Database, actor: Actor, id: string, baseURL:
     capability: visible.capability,
     note: visible.note,
     hasSnapshot: visible.snapshotPng !== null,
-    content: visible.content as unknown as ReportContent,
+    content: visible.content,
     files: files.map((f) => ({ ...f, createdAt: f.createdAt.toISOString() })),
     sends: sends.map((s) => ({
       id: s.id,

@@ -62,7 +62,7 @@ export async function notifyReport(deps: NotifyDeps, actor: Actor, id: string, e
   const { db } = deps;
   const [row] = await db.select().from(reports).where(eq(reports.id, id));
   if (!row) return;
-  const c = row.content as unknown as Partial<ReportContent>;
+  const c: Partial<ReportContent> = row.content;
   const supplier = c.supplier?.name ?? "the supplier";
   const name = `${reportCode(row.number)} revision ${row.revision}`;
   const base = { workspaceId: row.workspaceId, projectId: row.projectId, link: `/reports/${row.id}` };

@@ -51,6 +51,14 @@ export const DatasetColumnSchema = z.object({
   mapping: ColumnMappingSchema.nullable(),
 });
 export type DatasetColumn = z.infer<typeof DatasetColumnSchema>;
+/**
+ * A column as the data set stores it (the `columns` JSON column): what the file gave, without its
+ * mapping. Rows stored before gaps were counted have no `summary.missing` (read as 0).
+ */
+export const StoredColumnSchema = DatasetColumnSchema.omit({ mapping: true });
+export type StoredColumn = z.input<typeof StoredColumnSchema>;
+/** A column as the file reader makes it, gaps counted. */
+export type ParsedColumn = z.output<typeof StoredColumnSchema>;
 
 export const DatasetSummarySchema = z.object({
   id: IdSchema,

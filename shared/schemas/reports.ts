@@ -10,6 +10,9 @@ import { CommentSchema } from "./revisions";
 
 export const REPORT_STATUSES = ["draft", "released"] as const;
 export const ReportStatusSchema = z.enum(REPORT_STATUSES);
+/** The capability a report asks of its supplier: one Cpk, and overrides by tolerance source id. */
+export const ReportCapabilitySchema = z.object({ cpk: z.number(), overrides: z.record(text(), z.number()) });
+export type ReportCapability = z.infer<typeof ReportCapabilitySchema>;
 export type ReportStatus = z.infer<typeof ReportStatusSchema>;
 export const REPORT_FILE_KINDS = ["pdf", "xlsx", "csv"] as const;
 export const ReportFileKindSchema = z.enum(REPORT_FILE_KINDS, { message: "the file must be pdf, xlsx or csv" });
@@ -200,7 +203,7 @@ export const ReportContentSchema = z.object({
     passes: z.boolean().nullable(),
   }),
   supplier: z.object({ id: IdSchema, name: text(), kind: text() }),
-  capability: z.object({ cpk: z.number(), overrides: z.record(text(), z.number()) }),
+  capability: ReportCapabilitySchema,
   tolerances: z.array(ReportToleranceSchema),
   requirements: z.array(ReportRequirementSchema),
   contributors: z.array(ReportContributorChartSchema),
@@ -261,7 +264,7 @@ export const ReportSendSchema = z.object({
 export const ReportDownloadSchema = z.object({ at: text(), userName: text().nullable(), role: text(), kind: text() });
 
 export const ReportSchema = ReportSummarySchema.extend({
-  capability: z.object({ cpk: z.number(), overrides: z.record(text(), z.number()) }),
+  capability: ReportCapabilitySchema,
   note: text(),
   hasSnapshot: z.boolean(),
   content: ReportContentSchema,

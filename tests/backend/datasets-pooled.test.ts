@@ -8,6 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq, sql } from "drizzle-orm";
 import { activities, datasetMappings, datasets, reports, suppliers } from "@backend/db/schema";
 import { startTestApp, type TestApp } from "./harness";
+import { emptyReportContent } from "./report-fixtures";
 
 const REFERENCE = JSON.parse(readFileSync(new URL("../fixtures/stack-reference.json", import.meta.url), "utf8"));
 const study = { ...JSON.parse(readFileSync(new URL("../fixtures/study-reference.json", import.meta.url), "utf8")), trials: 2000, seed: 5 };
@@ -70,7 +71,7 @@ async function releasedReport() {
       revision: 1,
       status: "released",
       capability: { cpk: 1.33, overrides: {} },
-      content: {},
+      content: emptyReportContent({ projectId, revisionId, supplier: s }),
       releasedAt: new Date(),
     })
     .returning();

@@ -11,6 +11,7 @@ import { DATASET_MAX_BYTES, DATASET_MAX_ROWS } from "@shared/schemas/datasets";
 import { DEMO_DATASET_NAME } from "@backend/demo/seed-datasets";
 import { startTestApp, type TestApp } from "./harness";
 import { readFileSync } from "node:fs";
+import { emptyReportContent } from "./report-fixtures";
 
 const REFERENCE = JSON.parse(readFileSync(new URL("../fixtures/stack-reference.json", import.meta.url), "utf8"));
 
@@ -556,7 +557,7 @@ describe("suppliers send measurements through a released report of their own com
         revision: 1,
         status,
         capability: { cpk: 1.33, overrides: {} },
-        content: {},
+        content: emptyReportContent({ projectId, revisionId, supplier: s }),
         releasedAt: status === "released" ? new Date() : null,
       })
       .returning();

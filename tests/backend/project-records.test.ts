@@ -10,6 +10,7 @@ import { and, eq, isNull } from "drizzle-orm";
 import { activities, projects, reports, stackRevisions, suppliers } from "@backend/db/schema";
 import { DEMO_PROJECT } from "@backend/seed";
 import { startTestApp, type TestApp } from "./harness";
+import { emptyReportContent } from "./report-fixtures";
 
 const REFERENCE = JSON.parse(readFileSync(new URL("../fixtures/stack-reference.json", import.meta.url), "utf8"));
 
@@ -46,7 +47,7 @@ async function project(kept: "none" | "approved" | "released" | "acknowledged") 
       revision: 1,
       status: "released",
       capability: { cpk: 1.33, overrides: {} },
-      content: {},
+      content: emptyReportContent({ projectId: p.id, revisionId: rev.id, supplier: { id: supplierId, name: "Larkfield Assembly" } }),
       releasedAt: new Date(),
       acknowledgedAt: kept === "acknowledged" ? new Date() : null,
     });

@@ -1,9 +1,11 @@
 /** Finished studies on approved revisions, built in the database, for the report tests and the role table. */
+import { randomUUID } from "node:crypto";
 import { readFileSync } from "node:fs";
 import { eq, sql } from "drizzle-orm";
 import type { Database } from "@backend/db/client";
 import { projects, stackRevisions, studies, studyResults } from "@backend/db/schema";
 import { runStudy } from "@shared/engine/study";
+import type { ReportContent } from "@shared/schemas/reports";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { validateStackFile, type StackFile } from "@shared/schemas/stack-file";
 import { validateStudy } from "@shared/schemas/study-file";
@@ -150,4 +152,48 @@ export function parseCsv(text: string): string[][] {
   }
   if (cell || row.length) rows.push([...row, cell]);
   return rows;
+}
+
+/**
+ * The content of a report row a test writes straight into the database: well-formed (the API
+ * checks every answer against its schema), with nothing measured in it. For tests about who may
+ * see or send what, not about what a report says.
+ */
+export function emptyReportContent(parts: {
+  projectId: string;
+  /** the revision the report names; a made-up id where the test has none */
+  revisionId?: string;
+  supplier: { id: string; name: string; kind?: string };
+}): ReportContent {
+  return {
+    format: "orthostack.report/1",
+    builtAt: "2026-01-05T10:00:00.000Z",
+    project: { id: parts.projectId, name: "Test project" },
+    revision: { id: parts.revisionId ?? randomUUID(), number: 1, name: "Test stack", approvedAt: null, approvedByName: null },
+    study: {
+      id: randomUUID(),
+      number: 1,
+      label: "",
+      finishedAt: null,
+      trials: 0,
+      seed: 0,
+      engine: "none",
+      sampling: "random",
+      inclinationDeg: 0,
+      site: null,
+      calibration: { after: "none", residual: null },
+      headingStepDeg: 0,
+      tilts: [],
+      passes: null,
+    },
+    supplier: { id: parts.supplier.id, name: parts.supplier.name, kind: parts.supplier.kind ?? "other" },
+    capability: { cpk: 1.33, overrides: {} },
+    tolerances: [],
+    requirements: [],
+    contributors: [],
+    envelope: null,
+    headingLimit: null,
+    stack: [],
+    cautions: [],
+  };
 }

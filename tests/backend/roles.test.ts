@@ -24,7 +24,7 @@ import {
 import type { Role } from "@shared/schemas/common";
 import { startTestApp, type TestApp } from "./harness";
 import { registeredApiRoutes } from "./route-table";
-import { insertFinishedStudy } from "./report-fixtures";
+import { insertFinishedStudy, emptyReportContent } from "./report-fixtures";
 
 const REFERENCE = JSON.parse(readFileSync(new URL("../fixtures/stack-reference.json", import.meta.url), "utf8"));
 
@@ -197,7 +197,7 @@ async function freshReleasedReport(c: Ctx) {
       revision: 1,
       status: "released",
       capability: { cpk: 1.33, overrides: {} },
-      content: {},
+      content: emptyReportContent({ projectId, supplier: { id: c.supplierId, name: "Larkfield Assembly" } }),
       releasedAt: new Date(),
     })
     .returning();

@@ -7,7 +7,7 @@ import { stackRevisions } from "./studies";
 import { reports } from "./reports";
 import { NOTIFICATION_KINDS } from "@shared/schemas/notifications";
 import type { StackFile } from "@shared/schemas/stack-file";
-import { DATASET_FILE_TYPES } from "@shared/schemas/datasets";
+import { DATASET_FILE_TYPES, type StoredColumn } from "@shared/schemas/datasets";
 import { STUDY_STATUSES } from "@shared/schemas/studies";
 
 // ---- measured data sets (issue 7) -------------------------------------------------------
@@ -33,7 +33,7 @@ export const datasets = pgTable(
     sha256: text("sha256").notNull(),
     rowCount: integer("row_count").notNull(),
     /** [{key, name, letter, unit, kind, summary}] in file order */
-    columns: jsonb("columns").$type<Array<Record<string, unknown>>>().notNull(),
+    columns: jsonb("columns").$type<StoredColumn[]>().notNull(),
     /** column key -> its values (numbers, or texts for a label column), in row order; null marks a gap (empty or NA) */
     data: jsonb("data").$type<Record<string, Array<number | string | null>>>().notNull(),
     preview: jsonb("preview").$type<{ rowNumbers: number[]; cells: string[][] }>().notNull(),

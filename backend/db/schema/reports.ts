@@ -4,7 +4,13 @@ import { version, timestamps, bytea } from "./columns";
 import { users } from "./auth";
 import { workspaces, suppliers, projects } from "./workspace";
 import { stackRevisions, studies } from "./studies";
-import { REPORT_FILE_KINDS, REPORT_STATUSES, type ReportFileKind } from "@shared/schemas/reports";
+import {
+  REPORT_FILE_KINDS,
+  REPORT_STATUSES,
+  type ReportCapability,
+  type ReportContent,
+  type ReportFileKind,
+} from "@shared/schemas/reports";
 
 // ---- supplier reports and mail (issue 6) --------------------------------------------
 
@@ -31,9 +37,9 @@ export const reports = pgTable(
     revision: integer("revision").notNull(),
     status: text("status", { enum: REPORT_STATUSES }).notNull().default("draft"),
     /** Capability asked of the supplier: {cpk, overrides: {sourceId: cpk}}. */
-    capability: jsonb("capability").$type<{ cpk: number; overrides: Record<string, number> }>().notNull(),
+    capability: jsonb("capability").$type<ReportCapability>().notNull(),
     /** Everything the report shows, frozen when it is built (shared/schemas/reports ReportContent). */
-    content: jsonb("content").$type<Record<string, unknown>>().notNull(),
+    content: jsonb("content").$type<ReportContent>().notNull(),
     note: text("note").notNull().default(""),
     /** Optional PNG of the 3D view; without it the PDF draws a schematic side view. */
     snapshotPng: bytea("snapshot_png"),

@@ -13,6 +13,7 @@ import { datasets, reports, suppliers } from "@backend/db/schema";
 import { errorHandler } from "@backend/lib/errors";
 import { storageGuard } from "@backend/lib/storage";
 import { startTestApp, type TestApp } from "../harness";
+import { emptyReportContent } from "../report-fixtures";
 
 const REFERENCE = JSON.parse(readFileSync(new URL("../../fixtures/stack-reference.json", import.meta.url), "utf8"));
 
@@ -128,7 +129,7 @@ describe("quota and upload rate", () => {
         revision: 1,
         status: "released",
         capability: { cpk: 1.33, overrides: {} },
-        content: {},
+        content: emptyReportContent({ projectId, revisionId, supplier: s }),
         releasedAt: new Date(),
       })
       .returning();
