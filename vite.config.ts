@@ -5,6 +5,10 @@ import { defineConfig } from "vitest/config";
 
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
 
+// A console.error or a server error logged during a test fails it (the browser files check the
+// page and the server's output themselves).
+const failOnErrors = ["tests/setup/fail-on-errors.ts"];
+
 // One alias scheme for tsc (tsconfig "paths"), Vite and vitest.
 const alias = {
   "@shared": here("./shared"),
@@ -37,6 +41,7 @@ export default defineConfig({
           name: "engine",
           root: here("."),
           environment: "node",
+          setupFiles: failOnErrors,
           include: ["tests/engine/**/*.test.ts"],
           testTimeout: 60_000,
         },
@@ -47,6 +52,7 @@ export default defineConfig({
           name: "backend",
           root: here("."),
           environment: "node",
+          setupFiles: failOnErrors,
           include: ["tests/backend/**/*.test.ts"],
           // one migrated (and one seeded) database made per run, copied by every test app
           globalSetup: ["tests/setup/pglite-snapshots.ts"],
@@ -62,6 +68,7 @@ export default defineConfig({
           name: "backend-pg",
           root: here("."),
           environment: "node",
+          setupFiles: failOnErrors,
           include: ["tests/backend/**/*.test.ts"],
           // the role probes do not depend on the database driver; they run once, under PGlite
           exclude: ["tests/backend/roles.test.ts"],
@@ -77,6 +84,7 @@ export default defineConfig({
           name: "frontend",
           root: here("."),
           environment: "jsdom",
+          setupFiles: failOnErrors,
           include: ["tests/frontend/**/*.test.tsx", "tests/frontend/**/*.test.ts"],
         },
       },

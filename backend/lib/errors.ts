@@ -26,6 +26,15 @@ export const forbidden = (message = "Your role does not allow this.") => new Htt
 export const notFound = (what = "The resource") => new HttpError(404, "not_found", `${what} was not found.`);
 export const conflict = (message: string, code = "conflict") => new HttpError(409, code, message);
 
+/** A write refused by a unique index (PostgreSQL's 23505), however deep the drivers wrapped it. */
+export function isUniqueViolation(e: unknown): boolean {
+  for (let err = e as { code?: unknown; cause?: unknown } | undefined, depth = 0; err && depth < 5; depth++) {
+    if (err.code === "23505") return true;
+    err = err.cause as typeof err;
+  }
+  return false;
+}
+
 /** `invariant`-style helper: throws a 404 unless the value exists. */
 export function found<T>(value: T | undefined | null, what: string): T {
   if (value === undefined || value === null) throw notFound(what);

@@ -6,7 +6,7 @@ import type { Auth } from "../auth";
 import type { Database } from "../db/client";
 import type { AppDeps, Clock } from "../deps";
 import { invitations, members, supplierContacts, suppliers, users, workspaces } from "../db/schema";
-import { badRequest, conflict, found, HttpError } from "../lib/errors";
+import { badRequest, conflict, found, HttpError, isUniqueViolation } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { createAccount, endSessions, renewAccount } from "../lib/accounts";
 import { mailInvitation } from "./invitation-mail";
@@ -195,7 +195,11 @@ export async function acceptInvitation(db: Database, auth: Auth, clock: Clock, t
   // A removed member invited again keeps their account (and its history) with the new name and password.
   const user = existing
     ? (await renewAccount(auth, existing.id, input), { id: existing.id })
-    : await createAccount(auth, { email: invitation.email, password: input.password, name: input.name });
+    : await createAccount(auth, { email: invitation.email, password: input.password, name: input.name }).catch((e) => {
+        // Two accepts of one link at once: the other made the account a moment ago.
+        if (isUniqueViolation(e)) throw conflict("This invitation is being accepted already.", "invitation_in_use");
+        throw e;
+      });
   try {
     await db.transaction(async (tx) => {
       // Only one accept may use the token: a second concurrent one finds it no longer pending.

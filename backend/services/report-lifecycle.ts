@@ -8,7 +8,7 @@ import { alias } from "drizzle-orm/pg-core";
 import type { CreateReport, Report, UpdateReport } from "@shared/schemas/reports";
 import type { Database } from "../db/client";
 import { comments, projects, reportFiles, reports, stackRevisions, users } from "../db/schema";
-import { badRequest, conflict, found, HttpError } from "../lib/errors";
+import { badRequest, conflict, found, HttpError, isUniqueViolation } from "../lib/errors";
 import { requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
@@ -22,11 +22,6 @@ import { getSupplier } from "./suppliers";
 import { reportCode } from "@shared/reports/format";
 
 const approver = alias(users, "revision_approver");
-
-const isUniqueViolation = (e: unknown) => {
-  const err = e as { code?: string; cause?: { code?: string } };
-  return err?.code === "23505" || err?.cause?.code === "23505";
-};
 
 /** A PNG data URL → its bytes, refusing anything that is not a plausible PNG image. */
 export function decodeSnapshot(dataUrl: string): Buffer {

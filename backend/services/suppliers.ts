@@ -3,13 +3,8 @@ import type { z } from "zod";
 import type { CreateContactSchema, CreateSupplierSchema, Supplier, UpdateSupplierSchema } from "@shared/schemas/api";
 import type { Database } from "../db/client";
 import { members, supplierContacts, suppliers, users } from "../db/schema";
-import { conflict, found } from "../lib/errors";
+import { conflict, found, isUniqueViolation } from "../lib/errors";
 import { assertVersion, requireVersion, writeVersioned } from "../lib/versions";
-
-const isUniqueViolation = (e: unknown) => {
-  const err = e as { code?: string; cause?: { code?: string } };
-  return err?.code === "23505" || err?.cause?.code === "23505";
-};
 
 export async function listSuppliers(db: Database, workspaceId: string, onlyId?: string | null): Promise<Supplier[]> {
   const rows = await db

@@ -6,6 +6,7 @@ import { eq } from "drizzle-orm";
 import type { Database, DatabaseHandle } from "@backend/db/client";
 import { openTestDatabase } from "./test-database";
 import { TEST_AUTH_SECRET, TEST_BASE_URL } from "../setup/demo-seed";
+import { recordServerLog } from "../setup/logged-errors";
 import { studies } from "@backend/db/schema";
 import { DEMO_SEED_STEPS } from "@backend/demo/steps";
 import type { AppDeps, Clock } from "@backend/deps";
@@ -77,8 +78,8 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
     secret: TEST_AUTH_SECRET,
     signInPerMinute: opts.signInPerMinute ?? 1000,
   });
-  const errors: unknown[] = [];
-  const log = (_m: string, e?: unknown) => void errors.push(e);
+  // An error the server logs fails the test it happens in (tests/setup/fail-on-errors.ts).
+  const log = recordServerLog;
   const runtime = await assembleRuntime({
     handle,
     auth,

@@ -22,6 +22,9 @@ export function setupE2E(): E2E {
     await Promise.allSettled(sessions.map((s) => s.context.close()));
     await browser?.close();
     await server?.stop();
+    // A request the server failed on (a 500) fails the file, even when the page hid it.
+    const failures = (server?.output() ?? "").split("\n").filter((line) => line.includes("[orthostack] unhandled error"));
+    if (failures.length) throw new Error(`the server logged ${failures.length} unhandled error(s):\n${server?.output()}`);
   });
 
   return {
