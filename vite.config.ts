@@ -30,9 +30,10 @@ export default defineConfig({
   test: {
     root: here("."),
     // Vitest's default on 2 cores is one worker (cores - 1), which runs every file one after the
-    // other. Two workers run the engine, backend and client files side by side; the browser files
-    // (fileParallelism false below) then run one at a time, as vitest puts them in a group of their
-    // own after the rest: two of them at once on 2 cores made their timeouts miss.
+    // other. Two workers run the engine, backend and client files side by side. The browser files
+    // run one at a time (fileParallelism false below); vitest would put them in a group of their
+    // own after the rest, so `npm test` starts them in a second vitest process beside the first
+    // (package.json): they mostly wait on their server and chromium.
     maxWorkers: 2,
     projects: [
       {

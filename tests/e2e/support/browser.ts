@@ -37,7 +37,8 @@ export async function openSession(browser: Browser, baseURL: string): Promise<Se
   page.on("console", (message) => {
     if (message.type() === "error") problems.push(`console error: ${message.text()}`);
   });
-  page.setDefaultTimeout(15_000);
+  // generous: `npm test` runs the browser files beside the other projects on a 2-core machine
+  page.setDefaultTimeout(30_000);
   return { context, page, problems };
 }
 
