@@ -10,6 +10,7 @@ import { summarize } from "@shared/datasets/statistics";
 import { badRequest, type HttpError, type FieldError } from "../lib/errors";
 import { readXlsx } from "./dataset-xlsx";
 import { formatCount } from "@shared/format";
+import { parse as parseCsv, CsvError } from "csv-parse/sync";
 
 /** How many problems one refusal lists; the message names the first. */
 const MAX_LISTED = 20;
@@ -108,76 +109,46 @@ function sniffDelimiter(text: string): string {
 }
 
 /**
- * RFC 4180 records: fields split by the delimiter, double quotes around a field that holds
- * delimiters, quotes ("" inside) or line breaks; CRLF, LF or CR line ends.
+ * RFC 4180 records (csv-parse): fields split by the delimiter, double quotes around a field that
+ * holds delimiters, quotes ("" inside) or line breaks; CRLF, LF or CR line ends. Spaces may sit
+ * around a quoted field; a quote inside an unquoted field is kept as text; a blank line is a
+ * record of one empty field, so row numbers stay those a spreadsheet shows.
  */
 export function parseCsvRecords(text: string, delimiter: string, maxRecords: number): { records: string[][]; more: boolean } {
-  const records: string[][] = [];
-  let field = "";
-  let record: string[] = [];
-  let i = 0;
-  let row = 1;
-  const n = text.length;
-  const endRecord = () => {
-    record.push(field);
-    field = "";
-    records.push(record);
-    record = [];
-    row++;
-  };
-  while (i < n) {
-    if (records.length >= maxRecords) return { records, more: true };
-    const c = text[i];
-    if (c === '"' && field.trim() === "") {
-      // quoted field
-      field = "";
-      i++;
-      const startRow = row;
-      let closed = false;
-      while (i < n) {
-        const q = text[i];
-        if (q === '"') {
-          if (text[i + 1] === '"') {
-            field += '"';
-            i += 2;
-            continue;
-          }
-          closed = true;
-          i++;
-          break;
-        }
-        field += q;
-        i++;
-      }
-      if (!closed)
-        throw invalid(
-          `Row ${startRow}, column ${columnLetter(record.length)}: a quoted field is not closed (a " is missing). Nothing was stored.`,
-        );
-      // only spaces may sit between the closing quote and the delimiter
-      while (i < n && (text[i] === " " || (text[i] === "\t" && delimiter !== "\t"))) i++;
-      if (i < n && text[i] !== delimiter && text[i] !== "\n" && text[i] !== "\r") {
-        throw invalid(
-          `Row ${startRow}, column ${columnLetter(record.length)}: text after the closing quote of a quoted field. Nothing was stored.`,
-        );
-      }
-      continue;
-    }
-    if (c === delimiter) {
-      record.push(field);
-      field = "";
-      i++;
-      continue;
-    }
-    if (c === "\n" || c === "\r") {
-      endRecord();
-      i += c === "\r" && text[i + 1] === "\n" ? 2 : 1;
-      continue;
-    }
-    field += c;
-    i++;
+  let records: string[][];
+  try {
+    records = parseCsv(text, {
+      delimiter,
+      record_delimiter: ["\r\n", "\n", "\r"],
+      relax_column_count: true,
+      relax_quotes: true,
+      ltrim: true,
+      rtrim: true,
+      skip_empty_lines: false,
+      // one past the limit tells that the limit is passed
+      to: maxRecords + 1,
+    });
+  } catch (e) {
+    throw csvRefusal(e);
   }
-  if (field !== "" || record.length > 0) endRecord();
+  if (records.length > maxRecords) return { records: records.slice(0, maxRecords), more: true };
   return { records, more: false };
+}
+
+/** csv-parse's error as our refusal, naming the row (records before it + 1) and the column. */
+function csvRefusal(e: unknown): unknown {
+  if (!(e instanceof CsvError)) return e;
+  const before = typeof e.records === "number" ? e.records : 0;
+  const at = `Row ${before + 1}, column ${columnLetter(typeof e.index === "number" ? e.index : 0)}`;
+  switch (e.code) {
+    case "CSV_QUOTE_NOT_CLOSED":
+      return invalid(`${at}: a quoted field is not closed (a " is missing). Nothing was stored.`);
+    case "CSV_INVALID_CLOSING_QUOTE":
+    case "CSV_NON_TRIMABLE_CHAR_AFTER_CLOSING_QUOTE":
+      return invalid(`${at}: text after the closing quote of a quoted field. Nothing was stored.`);
+    default:
+      return invalid(`${at}: the line cannot be read as CSV (${e.message}). Nothing was stored.`);
+  }
 }
 
 function readCsv(buf: Buffer): RawTable {
