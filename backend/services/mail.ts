@@ -47,7 +47,7 @@ function describeTransport(s: Extract<MailSettings, { mode: "smtp" }>): string {
 }
 
 async function storeCaught(db: Database, raw: Buffer, envelope: { from: string; to: string[] }) {
-  const mail = parseMail(raw);
+  const mail = await parseMail(raw);
   const ws = mail.headers.get(WORKSPACE_HEADER.toLowerCase())?.trim() ?? null;
   await db.insert(outboxMessages).values({
     workspaceId: ws && /^[0-9a-f-]{36}$/i.test(ws) ? ws : null,

@@ -44,7 +44,7 @@ export async function outboxAttachment(db: Database, workspaceId: string, id: st
     .from(outboxMessages)
     .where(and(eq(outboxMessages.workspaceId, workspaceId), eq(outboxMessages.id, id)));
   const message = found(row, "The message");
-  const attachment = parseMail(message.raw).attachments[index];
+  const attachment = (await parseMail(message.raw)).attachments[index];
   if (!attachment) throw notFound("The attachment");
   return attachment;
 }
