@@ -113,6 +113,12 @@ describe("an engineer's projects", () => {
     await expect(page.getByRole("button", { name: "Edit", exact: true }).count()).resolves.toBe(0);
     await expect(page.getByRole("button", { name: "Start a draft from revision 1" }).count()).resolves.toBe(0);
     await screenshot(page, "project-archived");
+    // the draft opens read-only, with nothing to submit
+    await page.getByRole("link", { name: "Open revision 2" }).click();
+    await page.getByText(/is archived: read only/).waitFor();
+    await expect(page.getByRole("button", { name: /Submit/ }).count()).resolves.toBe(0);
+    await page.goBack();
+    await page.getByRole("heading", { name: ridgeline, level: 1 }).waitFor();
 
     await page.getByRole("button", { name: "Restore" }).click();
     await page.getByRole("button", { name: "Rename" }).waitFor();

@@ -115,11 +115,21 @@ function Card({
   );
 }
 
-export function StackEditor({ revision, project, me }: { revision: Revision; project: Pick<Project, "id" | "name">; me: Me }) {
+export function StackEditor({
+  revision,
+  project,
+  me,
+}: {
+  revision: Revision;
+  project: Pick<Project, "id" | "name"> & Partial<Pick<Project, "archivedAt">>;
+  me: Me;
+}) {
   const initial = useMemo(() => docOf(revision), [revision.id]); // eslint-disable-line react-hooks/exhaustive-deps
   const { history, doc, update, setAt, undo, redo, reset } = useEditorHistory(initial);
   const canWrite = can(me.role, "revisions.write");
-  const editable = revision.status === "draft" && canWrite;
+  // an archived project is read-only: the server refuses every change under it
+  const archived = !!project.archivedAt;
+  const editable = revision.status === "draft" && canWrite && !archived;
   const readOnly = !editable;
   const navigate = useNavigate();
 
@@ -328,19 +338,25 @@ export function StackEditor({ revision, project, me }: { revision: Revision; pro
             </div>
           ) : null}
           <StackFileActions revision={revision} readOnly={readOnly} />
-          <ReviewActions
-            revision={revision}
-            me={me}
-            flush={autosave.flush}
-            version={autosave.version}
-            onMoved={(moved) => rebase(serverDoc(), moved.version)}
-            problems={problemCount}
-            onDraft={(id) => navigate(`/projects/${project.id}/revisions/${id}`)}
-          />
+          {archived ? null : (
+            <ReviewActions
+              revision={revision}
+              me={me}
+              flush={autosave.flush}
+              version={autosave.version}
+              onMoved={(moved) => rebase(serverDoc(), moved.version)}
+              problems={problemCount}
+              onDraft={(id) => navigate(`/projects/${project.id}/revisions/${id}`)}
+            />
+          )}
         </div>
       </div>
 
-      {revision.status !== "draft" ? (
+      {archived ? (
+        <Alert tone="info" className="mb-3" title={`The project “${project.name}” is archived: read only`}>
+          Nothing in an archived project changes. Restore the project from its page to edit, submit or review this revision.
+        </Alert>
+      ) : revision.status !== "draft" ? (
         <div role="status" className="mb-3 flex flex-wrap items-center gap-3 rounded-lg border border-ink/15 bg-ink px-4 py-2.5 text-paper">
           <span className="text-[13px] font-bold">
             {revision.status === "approved"
