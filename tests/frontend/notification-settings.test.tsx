@@ -53,13 +53,14 @@ describe("NotificationMailSettings", () => {
     expect(screen.getAllByRole("checkbox")).toHaveLength(8);
 
     fireEvent.click(box("report.question"));
-    await waitFor(() => expect(box("report.question").checked).toBe(false));
+    // the machine may be busy: the change goes to the server and back before the box shows it
+    await waitFor(() => expect(box("report.question").checked).toBe(false), { timeout: 5000 });
     const put = fetchSpy.mock.calls.find(([, init]) => init?.method === "PUT");
     expect(JSON.parse(String(put?.[1]?.body))).toEqual({ email: { "report.question": false } });
     expect(box("report.acknowledged").checked).toBe(true);
 
     fireEvent.click(box("report.question"));
-    await waitFor(() => expect(box("report.question").checked).toBe(true));
+    await waitFor(() => expect(box("report.question").checked).toBe(true), { timeout: 5000 });
   });
 
   it("shows the server's refusal and keeps the stored state", async () => {
@@ -72,7 +73,7 @@ describe("NotificationMailSettings", () => {
     await screen.findByRole("checkbox", { name: NOTIFICATION_KIND_LABELS["report.ready"] });
     expect(screen.getAllByRole("checkbox")).toHaveLength(NOTIFICATION_KINDS.length);
     fireEvent.click(box("report.ready"));
-    expect(await screen.findByText("each kind is true (mail me) or false")).toBeTruthy();
+    expect(await screen.findByText("each kind is true (mail me) or false", undefined, { timeout: 5000 })).toBeTruthy();
     expect(box("report.ready").checked).toBe(true);
   });
 

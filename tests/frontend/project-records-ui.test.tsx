@@ -78,7 +78,7 @@ describe("DeleteProjectDialog", () => {
     const calls = server(() => new Response(null, { status: 204 }));
     const { onDeleted } = openDelete();
     fireEvent.click(screen.getByRole("button", { name: "Delete project" }));
-    await waitFor(() => expect(onDeleted).toHaveBeenCalled());
+    await waitFor(() => expect(onDeleted).toHaveBeenCalled(), { timeout: 5000 });
     expect(calls.map((c) => `${c.method} ${c.url}`)).toEqual([`DELETE /api/projects/${PROJECT.id}`]);
   });
 
@@ -95,7 +95,7 @@ describe("DeleteProjectDialog", () => {
     expect(within(dialog).queryByRole("button", { name: /Delete/ })).toBeNull();
 
     fireEvent.click(within(dialog).getByRole("button", { name: "Archive instead" }));
-    await waitFor(() => expect(onClose).toHaveBeenCalled());
+    await waitFor(() => expect(onClose).toHaveBeenCalled(), { timeout: 5000 });
     const archive = calls.find((c) => c.method === "POST")!;
     expect(archive.url).toBe(`/api/projects/${PROJECT.id}/archive`);
     expect(archive.headers.get("if-match")).toContain("4");
@@ -117,7 +117,7 @@ describe("DeleteProjectDialog", () => {
     expect(confirm.disabled).toBe(false);
     fireEvent.click(confirm);
 
-    await waitFor(() => expect(onDeleted).toHaveBeenCalled());
+    await waitFor(() => expect(onDeleted).toHaveBeenCalled(), { timeout: 5000 });
     expect(calls.at(-1)!.url).toBe(`/api/projects/${PROJECT.id}?confirm=${encodeURIComponent(PROJECT.name).replace(/%20/g, "+")}`);
   });
 
@@ -156,7 +156,7 @@ describe("ProjectsTable", () => {
     expect(within(screen.getAllByRole("row")[2]).getByText(/Archived/)).toBeTruthy();
 
     fireEvent.click(screen.getByRole("button", { name: `Restore ${ARCHIVED.name}` }));
-    await waitFor(() => expect(calls.some((c) => c.method === "POST")).toBe(true));
+    await waitFor(() => expect(calls.some((c) => c.method === "POST")).toBe(true), { timeout: 5000 });
     const restore = calls.find((c) => c.method === "POST")!;
     expect(restore.url).toBe(`/api/projects/${ARCHIVED.id}/restore`);
     expect(restore.headers.get("if-match")).toContain("7");
@@ -164,6 +164,6 @@ describe("ProjectsTable", () => {
     fireEvent.click(screen.getByRole("button", { name: `Archive ${PROJECT.name}` }));
     const dialog = await screen.findByRole("dialog", { name: "Archive this project?" });
     fireEvent.click(within(dialog).getByRole("button", { name: "Archive project" }));
-    await waitFor(() => expect(calls.some((c) => c.url.endsWith(`${PROJECT.id}/archive`))).toBe(true));
+    await waitFor(() => expect(calls.some((c) => c.url.endsWith(`${PROJECT.id}/archive`))).toBe(true), { timeout: 5000 });
   });
 });
