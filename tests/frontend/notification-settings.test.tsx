@@ -44,7 +44,8 @@ describe("NotificationMailSettings", () => {
     expect(box("report.ready").checked).toBe(false);
   });
 
-  it("sends one kind's change and shows what the server stored", async () => {
+  // three round trips to the mocked server: more than the 5 s default on a loaded machine
+  it("sends one kind's change and shows what the server stored", { timeout: 20_000 }, async () => {
     const fetchSpy = server();
     renderWithApp(<NotificationMailSettings role="engineer" />);
     await screen.findByRole("checkbox", { name: NOTIFICATION_KIND_LABELS["report.question"] });

@@ -82,7 +82,7 @@ describe("DeleteProjectDialog", () => {
     expect(calls.map((c) => `${c.method} ${c.url}`)).toEqual([`DELETE /api/projects/${PROJECT.id}`]);
   });
 
-  it("explains the 409 of kept records to an engineer and archives instead, on the version read", async () => {
+  it("explains the 409 of kept records to an engineer and archives instead, on the version read", { timeout: 20_000 }, async () => {
     const calls = server(() => jsonResponse(409, KEPT));
     const { onClose, onDeleted } = openDelete();
     fireEvent.click(screen.getByRole("button", { name: "Delete project" }));
@@ -102,7 +102,7 @@ describe("DeleteProjectDialog", () => {
     expect(onDeleted).not.toHaveBeenCalled();
   });
 
-  it("asks an admin for the project's exact name and sends it as confirm", async () => {
+  it("asks an admin for the project's exact name and sends it as confirm", { timeout: 20_000 }, async () => {
     const calls = server((url) => (url.includes("confirm=") ? new Response(null, { status: 204 }) : jsonResponse(409, NEEDS_NAME)));
     const { onDeleted } = openDelete();
     fireEvent.click(screen.getByRole("button", { name: "Delete project" }));
@@ -147,7 +147,7 @@ describe("ProjectsTable", () => {
     expect(screen.queryByRole("button", { name: /Archive|Delete|Restore/ })).toBeNull();
   });
 
-  it("offers archive on an open project, restore on an archived one, and marks the archived one", async () => {
+  it("offers archive on an open project, restore on an archived one, and marks the archived one", { timeout: 20_000 }, async () => {
     const calls = server(() => new Response(null, { status: 204 }));
     renderWithApp(<ProjectsTable projects={[PROJECT, ARCHIVED]} canWrite />);
     expect(screen.getByRole("button", { name: `Archive ${PROJECT.name}` })).toBeTruthy();
