@@ -128,6 +128,7 @@ export async function readXlsx(buf: Buffer): Promise<RawTable> {
   // blank rows cost work too (a sheet of a million empty rows): counted against the same bound as CSV records
   let seen = 0;
   try {
+    // exceljs's streaming reader is async-iterable at run time, but its type declarations do not say so
     for await (const ws of reader as unknown as AsyncIterable<StreamSheet>) {
       sheets++;
       for await (const r of ws) {

@@ -11,16 +11,16 @@ import { and, asc, eq } from "drizzle-orm";
 import { describeParameter } from "@shared/whatif/parameters";
 import type { StudyExecutor } from "@shared/whatif/executor";
 import { runSweep, type SweepPoint } from "@shared/whatif/sweep";
-import { runAllocation, type AllocationOptions } from "@shared/whatif/allocation";
+import { runAllocation } from "@shared/whatif/allocation";
 import type { StackFile } from "@shared/schemas/stack-file";
-import type { StudyFile } from "@shared/schemas/study-file";
 import type { Database } from "../db/client";
 import { whatIfRuns } from "../db/schema";
 import type { EnginePool } from "../engine/pool";
 import { LocalRunLoop, type RunContext } from "./run-loop";
+import { allocationInputOf, sweepInputOf } from "./what-if-runs";
+import type { WhatIfResult } from "@shared/schemas/what-if";
 
-export type SweepInput = { study: StudyFile; parameter: string; values: number[] };
-export type AllocationInput = AllocationOptions & { study: StudyFile };
+export type { StoredSweepInput as SweepInput, StoredAllocationInput as AllocationInput } from "@shared/schemas/what-if";
 export type WhatIfRow = typeof whatIfRuns.$inferSelect;
 
 /** What-if runs at once; each already keeps the pool busy with one study at a time. */
@@ -87,9 +87,9 @@ export async function executeWhatIf(db: Database, row: WhatIfRow, execute: Study
   const signal = controller.signal;
   const stack = row.stack as StackFile;
   try {
-    let result: Record<string, unknown>;
+    let result: WhatIfResult;
     if (row.kind === "sweep") {
-      const input = row.input as unknown as SweepInput;
+      const input = sweepInputOf(row.input);
       const info = describeParameter(stack, input.study, input.parameter);
       if ("error" in info) throw new Error(info.error);
       const out = await runSweep({
@@ -102,11 +102,10 @@ export async function executeWhatIf(db: Database, row: WhatIfRow, execute: Study
         onProgress,
         onPoint: (points: SweepPoint[]) => write({ result: { points, crossings: [] } }),
       });
-      result = out as unknown as Record<string, unknown>;
+      result = out;
     } else {
-      const input = row.input as unknown as AllocationInput;
-      const out = await runAllocation({ ...input, stack, execute, signal, onProgress });
-      result = out as unknown as Record<string, unknown>;
+      const input = allocationInputOf(row.input);
+      result = await runAllocation({ ...input, stack, execute, signal, onProgress });
     }
     await pending;
     if (signal.aborted) throw new Error("cancelled");

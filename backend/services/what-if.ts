@@ -11,13 +11,14 @@ import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
 import { getRevision, getRevisionRow } from "./revisions";
 import type { WhatIfScheduler } from "./what-if-queue";
+import { allocationResultOf, sweepInputOf, sweepResultOf } from "./what-if-runs";
 import { validateStudy, type StudyFile } from "@shared/schemas/study-file";
 import type { StackFile } from "@shared/schemas/stack-file";
-import type { Allocation, CreateAllocation, CreateSweep, Sweep } from "@shared/schemas/what-if";
+import type { Allocation, CreateAllocation, CreateSweep, Sweep, WhatIfInput, WhatIfKind } from "@shared/schemas/what-if";
 import { stackSources } from "@shared/datasets/sources";
 import { describeParameter, withTolerances } from "@shared/whatif/parameters";
 import { crossings, sweepValues, type SweepPoint } from "@shared/whatif/sweep";
-import { DEFAULT_BOUND_FACTORS, type AllocationOutcome } from "@shared/whatif/allocation";
+import { DEFAULT_BOUND_FACTORS } from "@shared/whatif/allocation";
 import { formatCount, formatNumberUnit } from "@shared/format";
 
 /** Rounds an allocation may take (the current stack's run comes first): the progress total. */
@@ -49,8 +50,8 @@ async function queueRun(
   db: Database,
   actor: Actor,
   revision: Revision,
-  kind: "sweep" | "allocation",
-  input: Record<string, unknown>,
+  kind: WhatIfKind,
+  input: WhatIfInput,
   total: number,
   summary: string,
 ) {
@@ -155,7 +156,7 @@ async function runRow(db: Database, workspaceId: string, id: string, kind: "swee
 
 function base(row: Awaited<ReturnType<typeof runRow>>) {
   const r = row.run;
-  const study = (r.input as { study: StudyFile }).study;
+  const study = r.input.study;
   return {
     id: r.id,
     projectId: r.projectId,
@@ -173,9 +174,9 @@ function base(row: Awaited<ReturnType<typeof runRow>>) {
 
 export async function getSweep(db: Database, workspaceId: string, id: string): Promise<Sweep> {
   const row = await runRow(db, workspaceId, id, "sweep");
-  const input = row.run.input as { study: StudyFile; parameter: string; values: number[] };
-  const info = describeParameter(row.run.stack as StackFile, input.study, input.parameter);
-  const points = ((row.run.result?.points ?? []) as SweepPoint[]).map((p) => ({
+  const input = sweepInputOf(row.run.input);
+  const info = describeParameter(row.run.stack, input.study, input.parameter);
+  const points = (sweepResultOf(row.run.result)?.points ?? []).map((p) => ({
     value: p.value,
     requirements: p.requirements.map((r) => ({ ...r, limitAtTarget: Number.isFinite(r.limitAtTarget) ? r.limitAtTarget : null })),
   }));
@@ -194,7 +195,7 @@ export async function getSweep(db: Database, workspaceId: string, id: string): P
 
 export async function getAllocation(db: Database, workspaceId: string, id: string): Promise<Allocation> {
   const row = await runRow(db, workspaceId, id, "allocation");
-  const out = row.run.result as AllocationOutcome | null;
+  const out = allocationResultOf(row.run.result);
   const num = (v: number | null | undefined) => (typeof v === "number" && Number.isFinite(v) ? v : null);
   return {
     ...base(row),
@@ -250,8 +251,8 @@ export async function applyAllocation(db: Database, actor: Actor, id: string) {
   const run = row.run;
   if (run.status !== "finished") throw conflict(`The allocation is ${run.status}; only a finished one can be applied.`, "invalid_state");
   if (run.appliedRevisionId) throw conflict("A draft was already made from this allocation.", "already_applied");
-  const out = run.result as unknown as AllocationOutcome;
-  if (!out.verified)
+  const out = allocationResultOf(run.result);
+  if (!out?.verified)
     throw conflict("This proposal was not verified by Monte Carlo; change the bounds or costs and run it again.", "not_verified");
   const revision = await getRevisionRow(db, actor.workspaceId, run.revisionId);
   await assertProjectOpen(db, actor.workspaceId, run.projectId);

@@ -36,22 +36,13 @@ const finite = (what: string) =>
 
 const positive = (what: string) => finite(what).gt(0, { error: `${what} must be greater than 0` });
 
-const stageEnum = (values: readonly string[]) =>
-  z.enum(values as [string, ...string[]], {
+const stageEnum = <const T extends readonly [string, ...string[]]>(values: T) =>
+  z.enum(values, {
     error: (iss) => `unknown stage ${JSON.stringify(iss.input)}: use ${values.map((v) => `"${v}"`).join(", ")}`,
   });
 
-export const StageSchema = stageEnum(STAGES) as unknown as z.ZodEnum<{
-  die: "die";
-  package: "package";
-  board: "board";
-  product: "product";
-}>;
-export const ElementStageSchema = stageEnum(ELEMENT_STAGES) as unknown as z.ZodEnum<{
-  package: "package";
-  board: "board";
-  product: "product";
-}>;
+export const StageSchema = stageEnum(STAGES);
+export const ElementStageSchema = stageEnum(ELEMENT_STAGES);
 
 /** Free-form data stays small: it is stored and sent back with every read of the file. */
 export const MAX_META_CHARS = 20_000;

@@ -8,6 +8,22 @@ import { z } from "zod";
 import { IdSchema } from "./common";
 import { SiteSchema } from "./site";
 import { StudyStatusSchema } from "./studies";
+import type { StudyFile } from "./study-file";
+import type { AllocationOptions, AllocationOutcome } from "../whatif/allocation";
+import type { Crossing, SweepPoint } from "../whatif/sweep";
+
+export const WHAT_IF_KINDS = ["sweep", "allocation"] as const;
+export type WhatIfKind = (typeof WHAT_IF_KINDS)[number];
+
+// ---- what a run stores (what_if_runs.input and .result); its kind says which of the two -------
+/** A sweep's checked request: the study file, the parameter and its values in ascending order. */
+export type StoredSweepInput = { study: StudyFile; parameter: string; values: number[] };
+/** An allocation's checked request: the study file and the free sources, costs and bounds. */
+export type StoredAllocationInput = AllocationOptions & { study: StudyFile };
+export type WhatIfInput = StoredSweepInput | StoredAllocationInput;
+/** A sweep's points so far (stored after each point) and, once finished, its crossings. */
+export type SweepOutcome = { points: SweepPoint[]; crossings: Crossing[] };
+export type WhatIfResult = SweepOutcome | AllocationOutcome;
 
 /** A sweep may have at most this many values (each one is a whole study). */
 export const MAX_SWEEP_VALUES = 25;

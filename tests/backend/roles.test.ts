@@ -25,6 +25,7 @@ import type { Role } from "@shared/schemas/common";
 import { startTestApp, type TestApp } from "./harness";
 import { registeredApiRoutes } from "./route-table";
 import { insertFinishedStudy, emptyReportContent } from "./report-fixtures";
+import type { WhatIfInput, WhatIfResult } from "@shared/schemas/what-if";
 
 const REFERENCE = JSON.parse(readFileSync(new URL("../fixtures/stack-reference.json", import.meta.url), "utf8"));
 
@@ -113,12 +114,14 @@ async function freshWhatIf(c: Ctx, kind: "sweep" | "allocation", status: "finish
   const revisionId = await freshRevision(c);
   const [rev] = await c.t.handle.db.select().from(stackRevisions).where(eq(stackRevisions.id, revisionId));
   const cost = { a: 0.1, b: 0.05, k: 2 };
-  const source = { source: "mag.axis", unit: "deg", free: true, current: 0.6, proposed: 0.5, cost, min: 0.06, max: 1.8 };
-  const result =
+  const source = { source: "mag.axis", unit: "deg" as const, free: true, current: 0.6, proposed: 0.5, cost, min: 0.06, max: 1.8 };
+  const result: WhatIfResult =
     kind === "sweep"
       ? { points: [], crossings: [] }
       : {
           verified: true,
+          feasible: true,
+          allAtUpperBound: false,
           trials: STUDY.trials,
           seed: STUDY.seed,
           message: "fixture",
@@ -129,7 +132,7 @@ async function freshWhatIf(c: Ctx, kind: "sweep" | "allocation", status: "finish
           totalCostCurrent: 0.24,
           totalCostProposed: 0.3,
         };
-  const input = kind === "sweep" ? { study: STUDY, parameter: "mag.axis", values: [0.3, 0.6] } : { study: STUDY };
+  const input: WhatIfInput = kind === "sweep" ? { study: STUDY, parameter: "mag.axis", values: [0.3, 0.6] } : { study: STUDY };
   const [w] = await c.t.handle.db
     .insert(whatIfRuns)
     .values({ workspaceId: c.workspaceId, projectId: rev.projectId, revisionId, kind, status, input, stack: REFERENCE, result })

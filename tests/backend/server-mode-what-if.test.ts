@@ -17,6 +17,7 @@ import { validateStudy } from "@shared/schemas/study-file";
 import { withTolerances } from "@shared/whatif/parameters";
 import { startTestApp, type TestApp } from "./harness";
 import { openTestDatabase, testPostgresUrl } from "./test-database";
+import { sweepResultOf } from "@backend/services/what-if-runs";
 
 const fixture = (name: string) => JSON.parse(readFileSync(new URL(`../fixtures/${name}`, import.meta.url), "utf8"));
 const stack = fixture("stack-reference.json");
@@ -170,7 +171,7 @@ describe.skipIf(!testPostgresUrl())("server mode: what-if runs through the job q
       // kill -9 once it has stored a point and is on the next
       await until(
         () => row(id),
-        (r) => r.status === "running" && ((r.result?.points as unknown[]) ?? []).length >= 1,
+        (r) => r.status === "running" && (sweepResultOf(r.result)?.points ?? []).length >= 1,
         180_000,
       );
       child.kill("SIGKILL");

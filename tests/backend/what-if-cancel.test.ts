@@ -9,6 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { activities, whatIfRuns } from "@backend/db/schema";
 import { startTestApp, type TestApp } from "./harness";
+import { sweepResultOf } from "@backend/services/what-if-runs";
 
 const fixture = (name: string) => JSON.parse(readFileSync(new URL(`../fixtures/${name}`, import.meta.url), "utf8"));
 // many trials per point, so the sweep is still running when it is cancelled
@@ -79,7 +80,7 @@ describe("cancelling a what-if run", () => {
     const [row] = await t.handle.db.select().from(whatIfRuns).where(eq(whatIfRuns.id, id));
     expect(row.status).toBe("cancelled");
     expect(row.progressDone).toBe(at);
-    expect(((row.result?.points as unknown[]) ?? []).length).toBe(c.body.points.length);
+    expect((sweepResultOf(row.result)?.points ?? []).length).toBe(c.body.points.length);
 
     const acts = await t.handle.db.select().from(activities).where(eq(activities.action, "whatif.sweep.cancelled"));
     expect(acts.map((a) => (a.data as { runId: string }).runId)).toContain(id);

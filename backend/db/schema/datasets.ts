@@ -9,6 +9,7 @@ import { NOTIFICATION_KINDS } from "@shared/schemas/notifications";
 import type { StackFile } from "@shared/schemas/stack-file";
 import { DATASET_FILE_TYPES, type StoredColumn } from "@shared/schemas/datasets";
 import { STUDY_STATUSES } from "@shared/schemas/studies";
+import { WHAT_IF_KINDS, type WhatIfInput, type WhatIfResult } from "@shared/schemas/what-if";
 
 // ---- measured data sets (issue 7) -------------------------------------------------------
 /**
@@ -82,7 +83,6 @@ export const datasetMappings = pgTable(
 );
 
 // ---- what-if runs (issue 12): sweeps and tolerance allocations ------------------------
-export const WHAT_IF_KINDS = ["sweep", "allocation"] as const;
 
 /** A sweep or an allocation: queued like a study, run point by point / round by round, result as JSON. */
 export const whatIfRuns = pgTable(
@@ -101,11 +101,11 @@ export const whatIfRuns = pgTable(
     kind: text("kind", { enum: WHAT_IF_KINDS }).notNull(),
     status: text("status", { enum: STUDY_STATUSES }).notNull().default("queued"),
     /** The validated request (study file, parameter and values, or free sources, costs and bounds). */
-    input: jsonb("input").$type<Record<string, unknown>>().notNull(),
+    input: jsonb("input").$type<WhatIfInput>().notNull(),
     /** Frozen copy of the revision's stack. */
     stack: jsonb("stack").$type<StackFile>().notNull(),
     /** Points so far (a sweep stores each finished point) or the allocation's outcome. */
-    result: jsonb("result").$type<Record<string, unknown> | null>(),
+    result: jsonb("result").$type<WhatIfResult>(),
     progressDone: integer("progress_done").notNull().default(0),
     progressTotal: integer("progress_total").notNull().default(0),
     error: text("error"),

@@ -13,6 +13,7 @@ export type EstimateRequest = { runId: number; stack: unknown; requirements: Req
 export type EstimateAnswer =
   { runId: number; type: "result"; summary: EstimateSummary; ms: number } | { runId: number; type: "error"; message: string };
 
+// the project compiles with the DOM library, where `self` is a Window; in this file it is the worker's scope
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 
 scope.onmessage = (event: MessageEvent<EstimateRequest>) => {

@@ -72,6 +72,7 @@ export function ViewerScene(props: ViewerSceneProps) {
   const camera = useThree((s) => s.camera) as PerspectiveCamera;
   const size = useThree((s) => s.size);
   const invalidate = useThree((s) => s.invalidate);
+  // react-three-fiber types `controls` as a bare EventDispatcher; ours are drei's OrbitControls (makeDefault)
   const controls = useThree((s) => s.controls) as unknown as OrbitControlsImpl | null;
 
   const geometry = useSharedGeometry();

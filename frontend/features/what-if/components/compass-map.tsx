@@ -11,6 +11,7 @@ import { formatYield } from "@shared/format";
 
 const WIDTH = 960;
 const HEIGHT = 470;
+// a JSON import is typed by its literal contents; world-atlas's file is a TopoJSON topology with a "land" object
 const topology = land110 as unknown as Topology<{ land: GeometryCollection }>;
 const land = feature(topology, topology.objects.land);
 
