@@ -6,6 +6,7 @@ import {
   CreateRevisionSchema,
   ReturnRevisionSchema,
   RevisionDiffQuerySchema,
+  RevisionCheckSchema,
   RevisionDiffSchema,
   RevisionListSchema,
   RevisionSchema,
@@ -18,6 +19,7 @@ import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
+import { checkRevision } from "../services/requirement-check";
 import { notifyRevision } from "../services/review-notifications";
 import {
   addRevisionComment,
@@ -69,8 +71,9 @@ export function revisionsRouter(deps: AppDeps) {
 
   r.post("/revisions/:id/submit", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    const { note } = parse(SubmitRevisionSchema, req);
-    const revision = await transitionRevision(db, actorOf(req), id, "submit", sentVersion(req), undefined, note);
+    const { note, confirmFailing } = parse(SubmitRevisionSchema, req);
+    const check = () => checkRevision(db, actorOf(req).workspaceId, id);
+    const revision = await transitionRevision(db, actorOf(req), id, "submit", sentVersion(req), { note, check, confirmFailing });
     await notifyRevision(deps, actorOf(req), id, "submit");
     sendVersioned(res, RevisionSchema, revision);
   });
@@ -78,7 +81,7 @@ export function revisionsRouter(deps: AppDeps) {
   r.post("/revisions/:id/approve", allow("revisions.review"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(ApproveRevisionSchema, req);
-    const revision = await transitionRevision(db, actorOf(req), id, "approve", sentVersion(req), comment || undefined);
+    const revision = await transitionRevision(db, actorOf(req), id, "approve", sentVersion(req), { comment: comment || undefined });
     await notifyRevision(deps, actorOf(req), id, "approve", comment || undefined);
     sendVersioned(res, RevisionSchema, revision);
   });
@@ -86,7 +89,7 @@ export function revisionsRouter(deps: AppDeps) {
   r.post("/revisions/:id/return", allow("revisions.review"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(ReturnRevisionSchema, req);
-    const revision = await transitionRevision(db, actorOf(req), id, "return", sentVersion(req), comment);
+    const revision = await transitionRevision(db, actorOf(req), id, "return", sentVersion(req), { comment });
     await notifyRevision(deps, actorOf(req), id, "return", comment);
     sendVersioned(res, RevisionSchema, revision);
   });
@@ -101,6 +104,11 @@ export function revisionsRouter(deps: AppDeps) {
     const { id } = parse(IdParamsSchema, req, "params");
     const { against } = parse(RevisionDiffQuerySchema, req, "query");
     send(res, RevisionDiffSchema, await revisionDiff(db, actorOf(req).workspaceId, id, against));
+  });
+
+  r.get("/revisions/:id/requirement-check", allow("projects.read"), async (req, res) => {
+    const { id } = parse(IdParamsSchema, req, "params");
+    send(res, RevisionCheckSchema, await checkRevision(db, actorOf(req).workspaceId, id));
   });
 
   r.get("/revisions/:id/stack-file", allow("projects.read"), async (req, res) => {

@@ -5,6 +5,7 @@ import { diffRevisions } from "@shared/revisions/diff";
 import type {
   Requirement,
   Revision,
+  RevisionCheck,
   RevisionDiff,
   RevisionSummary,
   CreateRevisionSchema,
@@ -20,6 +21,7 @@ import { assertProjectOpen } from "./project-records";
 import { checkRequirements, checkStack } from "./stack-check";
 import { geometryWarnings } from "@shared/stack-geometry";
 import { validateStackFile } from "@shared/schemas/stack-file";
+import { formatWritten, formatYield } from "@shared/format";
 
 const creator = alias(users, "creator");
 const approver = alias(users, "approver");
@@ -211,14 +213,35 @@ const TRANSITIONS = {
 
 const STATUS_WORDS: Record<Revision["status"], string> = { draft: "a draft", in_review: "in review", approved: "approved" };
 
+export type TransitionOptions = {
+  /** the reviewer's comment (approve, return) */
+  comment?: string;
+  /** submit: the note that replaces the draft's */
+  note?: string;
+  /** submit: how the revision meets its requirements (services/requirement-check.ts) */
+  check?: () => Promise<RevisionCheck>;
+  /** submit: the engineer has seen which requirements fail and submits anyway */
+  confirmFailing?: boolean;
+};
+
+/** "2 requirements are not met: Heading error ≤ 1.5 deg: 97.0 % of units, 99.73 % asked (live estimate); …" */
+export function failingWords(failing: RevisionCheck["failing"]) {
+  const each = failing.map(
+    (f) =>
+      `${f.label} ≤ ${formatWritten(f.max, f.unit)}: ${formatYield(f.reached)} of units, ${formatYield(f.target)} asked (${
+        f.source.kind === "study" ? `study ${f.source.number}` : "live estimate"
+      })`,
+  );
+  return `${failing.length === 1 ? "1 requirement is" : `${failing.length} requirements are`} not met: ${each.join("; ")}`;
+}
+
 export async function transitionRevision(
   db: Database,
   actor: Actor,
   id: string,
   kind: keyof typeof TRANSITIONS,
   sent: number | undefined,
-  comment?: string,
-  note?: string,
+  { comment, note, check, confirmFailing }: TransitionOptions = {},
 ) {
   const t = TRANSITIONS[kind];
   const row = await getRevisionRow(db, actor.workspaceId, id);
@@ -236,6 +259,11 @@ export async function transitionRevision(
     throw badRequest("Say what changed and why before submitting.", [
       { path: "note", message: "a revision after the first needs a note: what changed and why" },
     ]);
+  }
+  // the engineer decides knowing what fails; the reviewer reads it in the activity
+  const failing = kind === "submit" && check ? (await check()).failing : [];
+  if (failing.length && !confirmFailing) {
+    throw conflict(`${failingWords(failing)}. Confirm that you submit it anyway.`, "requirements_not_met");
   }
   const now = new Date();
   await db.transaction(async (tx) => {
@@ -271,8 +299,15 @@ export async function transitionRevision(
       projectId: row.projectId,
       actorId: actor.userId,
       action: t.action,
-      summary: `${t.verb} stack revision ${row.number}${comment ? `: “${comment.slice(0, 140)}”` : ""}`,
-      data: { revisionId: id },
+      summary: `${t.verb} stack revision ${row.number}${comment ? `: “${comment.slice(0, 140)}”` : ""}${
+        failing.length ? `, knowing that ${failingWords(failing).slice(0, 400)}` : ""
+      }`,
+      data: {
+        revisionId: id,
+        ...(failing.length
+          ? { failing: failing.map((f) => ({ metric: f.metric, max: f.max, target: f.target, reached: f.reached, source: f.source })) }
+          : {}),
+      },
     });
   });
   return getRevision(db, actor.workspaceId, id);

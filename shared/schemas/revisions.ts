@@ -104,8 +104,42 @@ export const RevisionDiffSchema = z.object({
   changes: z.array(StackChangeSchema),
 });
 export type RevisionDiff = z.infer<typeof RevisionDiffSchema>;
-/** Submitting: the note says what changed and why; asked for on every revision after the first. */
+/**
+ * Submitting: the note says what changed and why; asked for on every revision after the first.
+ * A draft whose requirements fail is refused (409 `requirements_not_met`) unless `confirmFailing`
+ * says the engineer has seen what fails (`GET /api/revisions/:id/requirement-check`).
+ */
 export const SubmitRevisionSchema = z.object({
   note: text().trim().max(2000, { message: "note must be at most 2000 characters" }).optional(),
+  confirmFailing: z.boolean({ message: "confirmFailing must be true or false" }).optional(),
   ...VersionBodySchema.shape,
 });
+
+/** Where a requirement's predicted yield comes from: a finished study of this stack, else the live estimate. */
+export const CheckSourceSchema = z.discriminatedUnion("kind", [
+  z.object({ kind: z.literal("study"), studyId: IdSchema, number: z.number().int() }),
+  z.object({ kind: z.literal("estimate"), trials: z.number().int(), inclinationDeg: z.number() }),
+]);
+export type CheckSource = z.infer<typeof CheckSourceSchema>;
+export const RequirementCheckSchema = z.object({
+  /** index in the revision's requirement list */
+  index: z.number().int(),
+  metric: text(),
+  /** the requirement's own name, else the metric's (shared/metrics.ts) */
+  label: text(),
+  unit: z.enum(["%", "deg"]),
+  /** the limit on |value| */
+  max: z.number(),
+  /** the yield asked (a fraction) and the one predicted */
+  target: z.number(),
+  reached: z.number(),
+  passes: z.boolean(),
+  source: CheckSourceSchema,
+});
+export type RequirementCheck = z.infer<typeof RequirementCheckSchema>;
+/** `GET /api/revisions/:id/requirement-check`: each requirement judged, and the ones that fail. */
+export const RevisionCheckSchema = z.object({
+  requirements: z.array(RequirementCheckSchema),
+  failing: z.array(RequirementCheckSchema),
+});
+export type RevisionCheck = z.infer<typeof RevisionCheckSchema>;

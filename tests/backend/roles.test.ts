@@ -371,6 +371,11 @@ export const ROUTES: Row[] = [
     body: () => ({ body: "looks fine" }),
   },
   { route: "GET /api/revisions/:id/diff", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/diff` },
+  {
+    route: "GET /api/revisions/:id/requirement-check",
+    allowed: STAFF,
+    path: async (c) => `/api/revisions/${await freshRevision(c)}/requirement-check`,
+  },
   { route: "GET /api/revisions/:id/stack-file", allowed: STAFF, path: async (c) => `/api/revisions/${await freshRevision(c)}/stack-file` },
   { route: "GET /api/projects/:id/studies", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/studies` },
   {

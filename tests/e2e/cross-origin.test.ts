@@ -72,7 +72,8 @@ describe("writes from another port of the same host", () => {
       page,
       "POST",
       `/api/revisions/${draft.id}/submit`,
-      { version: current.body.version },
+      // the demo draft misses a requirement: submitted knowingly
+      { version: current.body.version, confirmFailing: true },
       current.etag ? { "if-match": current.etag } : {},
     );
     expect(submitted.status).toBe(200);
