@@ -8,3 +8,5 @@ export { useSubmitRevision } from "./api/submit-revision";
 export { useUpdateRevision, type UpdateRevisionInput } from "./api/update-revision";
 export { RevisionStatusChip, STATUS_LABEL } from "./components/revision-status-chip";
 export { RevisionChanges } from "./components/revision-changes";
+export { NoteDialog } from "./components/note-dialog";
+export { SubmitDialog } from "./components/submit-dialog";

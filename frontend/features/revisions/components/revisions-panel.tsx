@@ -2,7 +2,7 @@
  * A project's stack revisions: number, stack name, status, who and when; open one, start
  * a draft from an approved one, start a new stack or import a stack file.
  */
-import { useRef, useState } from "react";
+import { Fragment, useRef, useState } from "react";
 import { Link, useNavigate } from "react-router";
 import { Button } from "@frontend/components/ui/button";
 import { EmptyState } from "@frontend/components/ui/empty-state";
@@ -22,6 +22,7 @@ import { formatDateTime, formatRelative } from "@frontend/lib/format";
 import { useCreateDraftFrom } from "../api/create-draft";
 import { useCreateRevision } from "../api/create-revision";
 import { useRevisions } from "../api/get-revisions";
+import { RevisionChanges } from "./revision-changes";
 import { RevisionStatusChip } from "./revision-status-chip";
 import { TemplateDialog } from "./template-dialog";
 
@@ -50,6 +51,14 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
   const input = useRef<HTMLInputElement>(null);
   const [refused, setRefused] = useState<{ fileName: string; message: string; issues: ImportIssue[] } | null>(null);
   const [templatesOpen, setTemplatesOpen] = useState(false);
+  /** the revisions whose change set is shown under their row */
+  const [shown, setShown] = useState<ReadonlySet<string>>(new Set());
+  const toggle = (id: string) =>
+    setShown((s) => {
+      const next = new Set(s);
+      if (!next.delete(id)) next.add(id);
+      return next;
+    });
   const open = (id: string) => navigate(`/projects/${projectId}/revisions/${id}`);
 
   async function importFile(file: File) {
@@ -162,64 +171,86 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
           </thead>
           <tbody>
             {list.map((r) => (
-              <tr key={r.id} className="border-b border-line/70 last:border-b-0 hover:bg-paper/60">
-                <td className="num h-11 px-4 font-extrabold text-ink">{r.number}</td>
-                <td className="max-w-0 px-3 py-1.5">
-                  <Link
-                    to={`/projects/${projectId}/revisions/${r.id}`}
-                    className="block font-bold break-words text-ink decoration-ink/30 underline-offset-2 hover:underline"
-                    aria-label={`Open revision ${r.number}`}
-                  >
-                    {r.name || <span className="text-ink/45">Untitled stack</span>}
-                  </Link>
-                  {r.note ? <p className="text-xs break-words text-ink/55">{r.note}</p> : null}
-                </td>
-                <td className="px-3">
-                  <RevisionStatusChip status={r.status} />
-                </td>
-                <td className="px-3 text-xs whitespace-nowrap text-ink/65">
-                  {r.status === "approved" && r.approvedAt ? (
-                    <>
-                      Approved by {r.approvedByName ?? "—"}
-                      <br />
-                      <time dateTime={r.approvedAt} className="text-ink/45 tabular-nums">
-                        {formatDateTime(r.approvedAt)}
-                      </time>
-                    </>
-                  ) : (
-                    <>
-                      {r.createdByName ?? "—"}
-                      <br />
-                      <time dateTime={r.updatedAt} title={formatDateTime(r.updatedAt)} className="text-ink/45">
-                        {r.status === "in_review" && r.submittedAt
-                          ? `submitted ${formatRelative(r.submittedAt)}`
-                          : `edited ${formatRelative(r.updatedAt)}`}
-                      </time>
-                    </>
-                  )}
-                </td>
-                <td className="px-3 text-right whitespace-nowrap">
-                  {canWrite && r.status === "approved" ? (
+              <Fragment key={r.id}>
+                <tr className="border-b border-line/70 last:border-b-0 hover:bg-paper/60">
+                  <td className="num h-11 px-4 font-extrabold text-ink">{r.number}</td>
+                  <td className="max-w-0 px-3 py-1.5">
+                    <Link
+                      to={`/projects/${projectId}/revisions/${r.id}`}
+                      className="block font-bold break-words text-ink decoration-ink/30 underline-offset-2 hover:underline"
+                      aria-label={`Open revision ${r.number}`}
+                    >
+                      {r.name || <span className="text-ink/45">Untitled stack</span>}
+                    </Link>
+                    {r.note ? <p className="text-xs break-words text-ink/55">{r.note}</p> : null}
+                    {r.number > 1 ? (
+                      <button
+                        type="button"
+                        aria-expanded={shown.has(r.id)}
+                        aria-controls={`changes-${r.id}`}
+                        onClick={() => toggle(r.id)}
+                        className="mt-0.5 text-xs font-semibold text-gyro hover:underline"
+                      >
+                        {shown.has(r.id) ? "Hide changes" : "What changed"}
+                        <span className="sr-only"> in revision {r.number}</span>
+                      </button>
+                    ) : null}
+                  </td>
+                  <td className="px-3">
+                    <RevisionStatusChip status={r.status} />
+                  </td>
+                  <td className="px-3 text-xs whitespace-nowrap text-ink/65">
+                    {r.status === "approved" && r.approvedAt ? (
+                      <>
+                        Approved by {r.approvedByName ?? "—"}
+                        <br />
+                        <time dateTime={r.approvedAt} className="text-ink/45 tabular-nums">
+                          {formatDateTime(r.approvedAt)}
+                        </time>
+                      </>
+                    ) : (
+                      <>
+                        {r.createdByName ?? "—"}
+                        <br />
+                        <time dateTime={r.updatedAt} title={formatDateTime(r.updatedAt)} className="text-ink/45">
+                          {r.status === "in_review" && r.submittedAt
+                            ? `submitted ${formatRelative(r.submittedAt)}`
+                            : `edited ${formatRelative(r.updatedAt)}`}
+                        </time>
+                      </>
+                    )}
+                  </td>
+                  <td className="px-3 text-right whitespace-nowrap">
+                    {canWrite && r.status === "approved" ? (
+                      <Button
+                        size="sm"
+                        variant="ghost"
+                        pending={draft.isPending && draft.variables === r.id}
+                        onClick={() => draft.mutate(r.id, { onSuccess: (rev) => open(rev.id) })}
+                        aria-label={`Start a draft from revision ${r.number}`}
+                      >
+                        New draft from it
+                      </Button>
+                    ) : null}
                     <Button
                       size="sm"
-                      variant="ghost"
-                      pending={draft.isPending && draft.variables === r.id}
-                      onClick={() => draft.mutate(r.id, { onSuccess: (rev) => open(rev.id) })}
-                      aria-label={`Start a draft from revision ${r.number}`}
+                      variant={r.status === "draft" && canWrite ? "primary" : "secondary"}
+                      onClick={() => open(r.id)}
+                      className="ml-1"
                     >
-                      New draft from it
+                      {r.status === "draft" && canWrite ? "Edit" : "Open"}
                     </Button>
-                  ) : null}
-                  <Button
-                    size="sm"
-                    variant={r.status === "draft" && canWrite ? "primary" : "secondary"}
-                    onClick={() => open(r.id)}
-                    className="ml-1"
-                  >
-                    {r.status === "draft" && canWrite ? "Edit" : "Open"}
-                  </Button>
-                </td>
-              </tr>
+                  </td>
+                </tr>
+                {shown.has(r.id) ? (
+                  <tr id={`changes-${r.id}`} className="border-b border-line/70 bg-paper/40">
+                    <td />
+                    <td colSpan={4} className="px-3 py-2">
+                      <RevisionChanges revisionId={r.id} updatedAt={r.updatedAt} />
+                    </td>
+                  </tr>
+                ) : null}
+              </Fragment>
             ))}
           </tbody>
         </table>

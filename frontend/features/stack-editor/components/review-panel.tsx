@@ -12,12 +12,13 @@ import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Textarea } from "@frontend/components/ui/field";
 import { CheckIcon } from "@frontend/components/ui/icons";
 import {
+  NoteDialog,
   RevisionChanges,
+  SubmitDialog,
   useAddRevisionComment,
   useApproveRevision,
   useCreateDraftFrom,
   useReturnRevision,
-  useSubmitRevision,
 } from "@frontend/features/revisions";
 import { cn } from "@frontend/lib/cn";
 import { sentence } from "@frontend/lib/form";
@@ -45,39 +46,39 @@ export function ReviewActions({
 }) {
   const canWrite = can(me.role, "revisions.write");
   const canReview = can(me.role, "revisions.review");
-  const submit = useSubmitRevision();
   const approve = useApproveRevision();
   const sendBack = useReturnRevision();
   const draft = useCreateDraftFrom();
-  const [dialog, setDialog] = useState<"approve" | "return" | "submit-error" | null>(null);
+  const [dialog, setDialog] = useState<"approve" | "return" | "submit" | "note" | "submit-error" | null>(null);
+  /** the draft's version once its last edits are saved: what the submit or the note is made on */
+  const [savedAt, setSavedAt] = useState(0);
+  const [flushing, setFlushing] = useState(false);
   const [comment, setComment] = useState("");
   const [commentError, setCommentError] = useState<string | null>(null);
   const [submitError, setSubmitError] = useState<string | null>(null);
 
-  async function onSubmit() {
+  /** Saves the last edits, then opens the submit (or note) dialog on the version they were saved at. */
+  async function openSaved(d: "submit" | "note") {
     setSubmitError(null);
-    if (problems > 0) {
+    if (d === "submit" && problems > 0) {
       setSubmitError(`Fix the ${problems === 1 ? "problem" : `${problems} problems`} first: a reviewer can only approve a valid stack.`);
       setDialog("submit-error");
       return;
     }
-    const saved = await flush();
+    setFlushing(true);
+    const saved = await flush().finally(() => setFlushing(false));
     if (!saved) {
-      setSubmitError("The last edits could not be saved, so the draft was not submitted.");
+      setSubmitError(`The last edits could not be saved, so the draft ${d === "submit" ? "was not submitted" : "keeps its note"}.`);
       setDialog("submit-error");
       return;
     }
-    submit.mutate(
-      { id: revision.id, version: version() },
-      {
-        onSuccess: onMoved,
-        onError: (e) => {
-          setSubmitError(e.message);
-          setDialog("submit-error");
-        },
-      },
-    );
+    setSavedAt(version());
+    setDialog(d);
   }
+  const moved = (r: Revision) => {
+    onMoved(r);
+    setDialog(null);
+  };
 
   function onReview(event: FormEvent) {
     event.preventDefault();
@@ -111,9 +112,14 @@ export function ReviewActions({
   return (
     <>
       {revision.status === "draft" && canWrite ? (
-        <Button size="sm" variant="primary" onClick={() => void onSubmit()} pending={submit.isPending}>
-          Submit for review
-        </Button>
+        <>
+          <Button size="sm" variant="ghost" onClick={() => void openSaved("note")} disabled={flushing}>
+            Note…
+          </Button>
+          <Button size="sm" variant="primary" onClick={() => void openSaved("submit")} pending={flushing}>
+            Submit for review
+          </Button>
+        </>
       ) : null}
       {revision.status === "in_review" && canReview ? (
         <>
@@ -182,6 +188,11 @@ export function ReviewActions({
         </Field>
         {reviewMutation.isError ? <Alert className="mt-3">{reviewMutation.error.message}</Alert> : null}
       </Dialog>
+
+      {dialog === "submit" ? (
+        <SubmitDialog open revision={revision} version={savedAt} onClose={() => setDialog(null)} onSubmitted={moved} />
+      ) : null}
+      {dialog === "note" ? <NoteDialog revision={revision} version={savedAt} onClose={() => setDialog(null)} onSaved={moved} /> : null}
 
       <Dialog
         open={dialog === "submit-error"}
