@@ -1,6 +1,7 @@
 import type { Page } from "playwright-core";
 import { describe, expect, it } from "vitest";
 import { screenshot, signInAs } from "./support/browser";
+import { submitConfirmingFailures } from "./support/review";
 import { setupE2E, unexpectedProblems } from "./support/setup";
 
 const e2e = setupE2E();
@@ -279,7 +280,7 @@ describe("the stack editor", () => {
     const engineer = await e2e.session();
     await signInAs(engineer.page, "engineer@example.com");
     await openDemoRevision(engineer.page, 2);
-    await engineer.page.getByRole("button", { name: "Submit for review" }).click();
+    await submitConfirmingFailures(engineer.page, 2);
     await engineer.page.getByText(/^In review since/).waitFor();
     await expect(engineer.page.getByLabel("mag.bondLine tolerance").isDisabled()).resolves.toBe(true);
 
@@ -309,7 +310,7 @@ describe("the stack editor", () => {
       .waitFor();
 
     // Submitted again, the reviewer approves it: frozen, and listed as approved on the project page.
-    await engineer.page.getByRole("button", { name: "Submit for review" }).click();
+    await submitConfirmingFailures(engineer.page, 2);
     await engineer.page.getByText(/^In review since/).waitFor();
     await reviewer.page.reload();
     await reviewer.page.getByRole("button", { name: "Approve…" }).click();
@@ -323,7 +324,8 @@ describe("the stack editor", () => {
     await screenshot(reviewer.page, "editor-revisions-after-approval");
     expect(unexpectedProblems(engineer.problems)).toEqual([]);
     expect(unexpectedProblems(reviewer.problems)).toEqual([]);
-  });
+    // two submissions, each through the submit dialog and its requirement check on the server
+  }, 240_000);
 });
 
 async function streamText(stream: NodeJS.ReadableStream): Promise<string> {
