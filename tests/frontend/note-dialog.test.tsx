@@ -4,6 +4,8 @@
  */
 import { cleanup, fireEvent, screen, waitFor, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import reference from "../fixtures/stack-reference.json" with { type: "json" };
+import type { StackFile } from "@shared/schemas/stack-file";
 import type { Revision } from "@shared/schemas/revisions";
 import { NoteDialog } from "@frontend/features/revisions";
 import { failOnConsoleError, jsonResponse, mockFetch, renderWithApp } from "./helpers";
@@ -30,7 +32,8 @@ const revision: Revision = {
   updatedAt: "2026-01-02T00:00:00.000Z",
   submittedAt: null,
   approvedAt: null,
-  stack: {},
+  // a real stack: the client checks the answer against the revision schema
+  stack: structuredClone(reference) as unknown as StackFile,
   requirements: [],
   comments: [],
   warnings: [],
