@@ -3,9 +3,6 @@ import { createPortal } from "react-dom";
 import { cn } from "@frontend/lib/cn";
 import { CloseIcon } from "./icons";
 
-const FOCUSABLE =
-  'a[href], button:not([disabled]), input:not([disabled]), select:not([disabled]), textarea:not([disabled]), [tabindex]:not([tabindex="-1"])';
-
 type DialogProps = {
   open: boolean;
   onClose: () => void;
@@ -22,8 +19,11 @@ type DialogProps = {
 };
 
 /**
- * A modal dialog: focus moves in and stays in while it is open, Escape closes it,
- * and focus returns to whatever opened it.
+ * A modal dialog on the browser's own `<dialog>` (`showModal`): the page behind is inert, so focus
+ * stays in without a trap of ours, and Escape asks to close (the `cancel` event). Focus moves to
+ * the `[data-autofocus]` element or the first field, and returns to whatever opened the dialog.
+ * Where `showModal` is missing (older browsers, jsdom) the dialog opens in place and Escape is
+ * heard on the dialog itself.
  */
 export function Dialog({
   open,
@@ -37,51 +37,42 @@ export function Dialog({
   onSubmit,
   formLabel,
 }: DialogProps) {
+  const dialogRef = useRef<HTMLDialogElement>(null);
   const panelRef = useRef<HTMLDivElement>(null);
   const titleId = useId();
   const descriptionId = useId();
-  const closeRef = useRef(onClose);
-  closeRef.current = onClose;
   const busyRef = useRef(busy);
   busyRef.current = busy;
+  const closingRef = useRef(false);
 
   useEffect(() => {
-    if (!open) return;
+    const dialog = dialogRef.current;
+    if (!open || !dialog) return;
     const opener = document.activeElement as HTMLElement | null;
+    closingRef.current = false;
+    if (typeof dialog.showModal === "function") dialog.showModal();
+    else dialog.setAttribute("open", "");
     const panel = panelRef.current;
     const first = panel?.querySelector<HTMLElement>("[data-autofocus]") ?? panel?.querySelector<HTMLElement>("input, select, textarea");
     (first ?? panel)?.focus();
-
-    function onKey(event: KeyboardEvent) {
-      if (event.key === "Escape" && !busyRef.current) {
-        event.stopPropagation();
-        closeRef.current();
-      }
-      if (event.key === "Tab" && panel) {
-        const items = Array.from(panel.querySelectorAll<HTMLElement>(FOCUSABLE));
-        if (items.length === 0) return;
-        const firstItem = items[0];
-        const lastItem = items[items.length - 1];
-        if (event.shiftKey && document.activeElement === firstItem) {
-          event.preventDefault();
-          lastItem.focus();
-        } else if (!event.shiftKey && document.activeElement === lastItem) {
-          event.preventDefault();
-          firstItem.focus();
-        }
-      }
-    }
-    document.addEventListener("keydown", onKey);
     const { overflow } = document.body.style;
     document.body.style.overflow = "hidden";
     return () => {
-      document.removeEventListener("keydown", onKey);
       document.body.style.overflow = overflow;
+      closingRef.current = true;
+      if (dialog.open) {
+        if (typeof dialog.close === "function") dialog.close();
+        else dialog.removeAttribute("open");
+      }
       opener?.focus?.();
     };
   }, [open]);
 
   if (!open) return null;
+
+  const requestClose = () => {
+    if (!busyRef.current) onClose();
+  };
 
   const body = (
     <>
@@ -95,23 +86,37 @@ export function Dialog({
   );
 
   return createPortal(
-    <div className="fixed inset-0 z-50 flex items-start justify-center overflow-y-auto px-4 pt-[12vh] pb-8">
-      <div
-        className="fixed inset-0 bg-ink/45 backdrop-blur-[1.5px]"
-        aria-hidden="true"
-        onMouseDown={() => {
-          if (!busyRef.current) onClose();
-        }}
-      />
+    <dialog
+      ref={dialogRef}
+      aria-labelledby={titleId}
+      aria-describedby={description ? descriptionId : undefined}
+      onCancel={(event) => {
+        // Escape (or another close request) in a modal dialog: we close through our caller
+        event.preventDefault();
+        requestClose();
+      }}
+      onKeyDown={(event) => {
+        // only where the browser has no modal dialog, so no `cancel` event comes
+        if (event.key === "Escape" && typeof dialogRef.current?.showModal !== "function") {
+          event.stopPropagation();
+          requestClose();
+        }
+      }}
+      onMouseDown={(event) => {
+        // the dialog covers the window around the panel: a press on it is a press beside the panel
+        if (event.target === event.currentTarget) requestClose();
+      }}
+      onClose={() => {
+        // the browser closed it on its own (a close request it would not let us refuse)
+        if (!closingRef.current) onClose();
+      }}
+      className="fixed inset-0 z-50 m-0 h-full max-h-none w-full max-w-none overflow-y-auto bg-transparent p-0 px-4 pt-[12vh] pb-8 text-ink backdrop:bg-ink/45 backdrop:backdrop-blur-[1.5px]"
+    >
       <div
         ref={panelRef}
-        role="dialog"
-        aria-modal="true"
-        aria-labelledby={titleId}
-        aria-describedby={description ? descriptionId : undefined}
         tabIndex={-1}
         className={cn(
-          "relative w-full rounded-xl border border-line bg-panel shadow-[0_24px_60px_-12px_rgba(23,33,43,0.35)] focus:outline-none",
+          "relative mx-auto w-full rounded-xl border border-line bg-panel shadow-[0_24px_60px_-12px_rgba(23,33,43,0.35)] focus:outline-none",
           size === "sm" ? "max-w-md" : "max-w-lg",
         )}
       >
@@ -144,7 +149,7 @@ export function Dialog({
           body
         )}
       </div>
-    </div>,
+    </dialog>,
     document.body,
   );
 }
