@@ -9,9 +9,26 @@ describe("an engineer's projects", () => {
     const { page, problems } = await e2e.session();
     await signInAs(page, "engineer@example.com");
 
-    // Create: an empty name is refused in the form, before any request.
-    await page.getByRole("button", { name: "New project" }).click();
+    // The dialog is the browser's modal one: focus starts in the form, Tab never reaches the page
+    // behind it (past the last control it may go to the browser's own controls, as the document
+    // then has none), Escape closes it and focus returns to the button that opened it.
+    const newProject = page.getByRole("button", { name: "New project" });
+    await newProject.click();
     const dialog = page.getByRole("dialog", { name: "New project" });
+    await expect.poll(() => dialog.getByLabel("Project name").evaluate((el) => el === document.activeElement)).toBe(true);
+    for (let i = 0; i < 8; i++) {
+      await page.keyboard.press("Tab");
+      const at = await dialog.evaluate((el) =>
+        el.contains(document.activeElement) ? "dialog" : (document.activeElement?.tagName ?? "none"),
+      );
+      expect(["dialog", "BODY", "none"]).toContain(at);
+    }
+    await page.keyboard.press("Escape");
+    await dialog.waitFor({ state: "detached" });
+    expect(await newProject.evaluate((el) => el === document.activeElement)).toBe(true);
+
+    // Create: an empty name is refused in the form, before any request.
+    await newProject.click();
     await dialog.getByRole("button", { name: "Create project" }).click();
     await dialog.getByText("Project name must not be empty").waitFor();
     await screenshot(page, "project-create-error");
