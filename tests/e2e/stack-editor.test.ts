@@ -123,6 +123,18 @@ describe("the stack editor", () => {
       return (await r.json()).stack.elements.find((e: { id: string }) => e.id === "mag").bondLine.heightTol.tol;
     });
     expect(stored).toBe(12);
+
+    // Another element's form starts at its top, not where the last one was scrolled to (at
+    // 1200 px the selected-element card has a height of its own and scrolls).
+    await page.setViewportSize({ width: 1200, height: 800 });
+    await page.getByRole("treeitem", { name: /^mag,/ }).click();
+    const formBody = page.locator("section", { has: page.getByRole("heading", { name: "Selected element" }) }).locator(":scope > div");
+    await formBody.evaluate((el) => el.scrollTo(0, el.scrollHeight));
+    await expect.poll(() => formBody.evaluate((el) => el.scrollTop)).toBeGreaterThan(0);
+    await page.getByRole("treeitem", { name: /^gyro,/ }).click();
+    await page.getByRole("treeitem", { name: /^gyro,/, selected: true }).waitFor();
+    await expect.poll(() => formBody.evaluate((el) => el.scrollTop)).toBe(0);
+    await page.setViewportSize({ width: 1440, height: 900 });
     console.info(`live estimate after an edit: ${took} ms (heading p99 ${before}° -> ${after}°)`);
     expect(unexpectedProblems(problems)).toEqual([]);
   });
