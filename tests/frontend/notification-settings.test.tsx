@@ -2,13 +2,12 @@ import { cleanup, fireEvent, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { NOTIFICATION_KIND_LABELS, NOTIFICATION_KINDS, type NotificationKind } from "@shared/schemas/notifications";
 import { NotificationMailSettings } from "@frontend/features/notifications";
-import { failOnConsoleError, jsonResponse, mockFetch, renderWithApp } from "./helpers";
+import { jsonResponse, mockFetch, renderWithApp } from "./helpers";
 
 afterEach(() => {
   cleanup();
   vi.restoreAllMocks();
 });
-failOnConsoleError();
 
 /** A server that keeps the opt-outs it was sent, as backend/services/notifications.ts does. */
 function server(initiallyOff: NotificationKind[] = []) {

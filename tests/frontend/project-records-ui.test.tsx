@@ -8,7 +8,7 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import type { Project } from "@shared/schemas/api";
 import { DeleteProjectDialog } from "@frontend/features/projects/components/delete-project-dialog";
 import { ProjectsTable } from "@frontend/features/projects/components/projects-table";
-import { failOnConsoleError, jsonResponse, mockFetch, renderWithApp } from "./helpers";
+import { jsonResponse, mockFetch, renderWithApp } from "./helpers";
 
 const PROJECT: Project = {
   id: "0b6f2c1e-8a55-4d7e-9a51-3f0c6f1d2e77",
@@ -35,7 +35,6 @@ afterEach(() => {
   cleanup();
   vi.restoreAllMocks();
 });
-failOnConsoleError();
 
 const KEPT = {
   error: {

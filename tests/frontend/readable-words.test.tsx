@@ -15,11 +15,9 @@ import { useEditorHistory } from "@frontend/features/stack-editor/hooks/use-edit
 import { indexIssues, validateDoc } from "@frontend/features/stack-editor/lib/issues";
 import type { EditorDoc } from "@frontend/features/stack-editor/lib/stack-ops";
 import { parseYieldPercent, yieldPercentText } from "@frontend/features/stack-editor/lib/yield-text";
-import { failOnConsoleError } from "./helpers";
 
 vi.setConfig({ testTimeout: 30_000 });
 afterEach(cleanup);
-failOnConsoleError();
 
 let latest: EditorDoc;
 function Harness({ initial, children }: { initial: EditorDoc; children: ReactNode }) {

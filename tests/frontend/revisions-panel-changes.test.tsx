@@ -3,13 +3,12 @@ import { cleanup, fireEvent, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import type { RevisionSummary } from "@shared/schemas/revisions";
 import { RevisionsPanel } from "@frontend/features/revisions/components/revisions-panel";
-import { failOnConsoleError, jsonResponse, mockFetch, renderWithApp } from "./helpers";
+import { jsonResponse, mockFetch, renderWithApp } from "./helpers";
 
 afterEach(() => {
   cleanup();
   vi.restoreAllMocks();
 });
-failOnConsoleError();
 
 const PROJECT = "22222222-2222-4222-8222-222222222222";
 const summary = (n: number, id: string): RevisionSummary => ({

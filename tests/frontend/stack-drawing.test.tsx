@@ -8,11 +8,9 @@ import reference from "../fixtures/stack-reference.json" with { type: "json" };
 import { EditorContext, type EditorApi } from "@frontend/features/stack-editor/components/editor-context";
 import { StackDrawing } from "@frontend/features/stack-editor/components/stack-drawing";
 import { indexIssues, validateDoc } from "@frontend/features/stack-editor/lib/issues";
-import { failOnConsoleError } from "./helpers";
 
 vi.setConfig({ testTimeout: 30_000 });
 afterEach(cleanup);
-failOnConsoleError();
 
 let selected: string | null = null;
 

@@ -7,7 +7,7 @@ import { useAutosave } from "@frontend/features/stack-editor/hooks/use-autosave"
 import { readBackup } from "@frontend/features/stack-editor/lib/backup";
 import type { EditorDoc } from "@frontend/features/stack-editor/lib/stack-ops";
 import { createQueryClient } from "@frontend/lib/query-client";
-import { failOnConsoleError, jsonResponse, mockFetch } from "./helpers";
+import { jsonResponse, mockFetch } from "./helpers";
 
 vi.setConfig({ testTimeout: 20_000 });
 afterEach(() => {
@@ -16,7 +16,6 @@ afterEach(() => {
   localStorage.clear();
 });
 beforeEach(() => localStorage.clear());
-failOnConsoleError();
 
 const REV_ID = "6a0b3c1e-8a55-4d7e-9a51-3f0c6f1d2e70";
 const PROJECT_ID = "0b6f2c1e-8a55-4d7e-9a51-3f0c6f1d2e77";

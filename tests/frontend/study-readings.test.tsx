@@ -12,11 +12,9 @@ import { axisWidthFor } from "@frontend/features/studies/components/chart-theme"
 import { CalibrationNote } from "@frontend/features/studies/components/study-cautions";
 import { mcShares } from "@frontend/features/studies/lib/mc-significance";
 import { paretoRows } from "@frontend/features/studies/lib/pareto";
-import { failOnConsoleError } from "./helpers";
 
 vi.setConfig({ testTimeout: 30_000 });
 afterEach(cleanup);
-failOnConsoleError();
 
 type C = ResultFile["contributors"][number];
 const source = (id: string, linear: number, src2: number) => ({

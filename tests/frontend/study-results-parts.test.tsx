@@ -4,10 +4,8 @@ import type { MetricStats, ResultFile } from "@shared/schemas/result-file";
 import { CrossAxisTables } from "@frontend/features/studies/components/cross-axis-tables";
 import { RequirementCards } from "@frontend/features/studies/components/requirement-cards";
 import { StudyProgress } from "@frontend/features/studies/components/study-progress";
-import { failOnConsoleError } from "./helpers";
 
 afterEach(cleanup);
-failOnConsoleError();
 
 describe("StudyProgress", () => {
   it("shows trials done, the pace, the time left, and cancels", () => {

@@ -4,13 +4,12 @@ import stack from "../../backend/demo/ridgeline-stack.json";
 import { StudySettingsForm } from "@frontend/features/studies/components/study-settings-form";
 import { buildStudy, defaultFormValues, formValuesFromStudy, issuesToErrors } from "@frontend/features/studies/lib/study-form";
 import type { StackFile } from "@shared/schemas/stack-file";
-import { failOnConsoleError, jsonResponse, mockFetch, renderWithApp } from "./helpers";
+import { jsonResponse, mockFetch, renderWithApp } from "./helpers";
 
 afterEach(() => {
   cleanup();
   vi.restoreAllMocks();
 });
-failOnConsoleError();
 
 const PROJECT = "0b6f2c1e-8a55-4d7e-9a51-3f0c6f1d2e77";
 const REV = "9ee0e65a-0fc1-47e8-97d7-7dccbb3f8cd8";

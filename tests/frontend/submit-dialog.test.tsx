@@ -9,13 +9,12 @@ import reference from "../fixtures/stack-reference.json" with { type: "json" };
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { Revision, RevisionCheck } from "@shared/schemas/revisions";
 import { SubmitDialog } from "@frontend/features/revisions";
-import { failOnConsoleError, jsonResponse, mockFetch, renderWithApp } from "./helpers";
+import { jsonResponse, mockFetch, renderWithApp } from "./helpers";
 
 afterEach(() => {
   cleanup();
   vi.restoreAllMocks();
 });
-failOnConsoleError();
 
 const ID = "11111111-1111-4111-8111-111111111111";
 const revision: Revision = {

@@ -3,13 +3,12 @@ import { cleanup, fireEvent, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { STACK_TEMPLATES } from "@shared/stack-templates";
 import { TemplateDialog } from "@frontend/features/revisions/components/template-dialog";
-import { failOnConsoleError, jsonResponse, mockFetch, renderWithApp } from "./helpers";
+import { jsonResponse, mockFetch, renderWithApp } from "./helpers";
 
 afterEach(() => {
   cleanup();
   vi.restoreAllMocks();
 });
-failOnConsoleError();
 
 describe("TemplateDialog", () => {
   it("lists the server's templates and hands the chosen one on with its stack and requirements", async () => {

@@ -3,10 +3,9 @@ import { afterEach, describe, expect, it } from "vitest";
 import type { WorkItem } from "@shared/schemas/review-queue";
 import { reviewSummary } from "@frontend/app/routes/app/home";
 import { WaitingList } from "@frontend/features/review-queue";
-import { failOnConsoleError, renderWithApp } from "./helpers";
+import { renderWithApp } from "./helpers";
 
 afterEach(cleanup);
-failOnConsoleError();
 
 const P = "0b6f2c1e-8a55-4d7e-9a51-3f0c6f1d2e77";
 const item = (over: Partial<WorkItem>): WorkItem => ({
