@@ -7,7 +7,7 @@
  *   API:    GET /api/projects with 50 signed-in clients (autocannon), alone and while a long
  *           study runs: reads per second, p99 latency, failed requests.
  *
- * Options: --quick (10^4 and 10^5 only, no 10^7), --no-api, --api-only, --api-seconds N (default 10).
+ * Options: --quick (10^4 and 10^5 only, no 10^7), --no-what-if, --no-api, --api-only, --api-seconds N (default 10).
  * The machine's load is printed with every figure: wall-clock figures mean little when other
  * processes share the cores, CPU-seconds mean more.
  */
@@ -18,6 +18,7 @@ import { fileURLToPath } from "node:url";
 import autocannon from "autocannon";
 import { EnginePool } from "../engine/pool";
 import { json, signIn, startServer } from "./bench-app";
+import { whatIfFigures } from "./what-if-figures";
 import { runStudy } from "@shared/engine/study";
 import { validateStackFile } from "@shared/schemas/stack-file";
 import { validateStudy } from "@shared/schemas/study-file";
@@ -139,6 +140,10 @@ async function api() {
 async function main() {
   out(`Orthostack bench · Node ${process.version} · ${cpus().length} cores (${cpus()[0]?.model ?? "?"}) · ${load()} at start`);
   if (!args.includes("--api-only")) await engine();
+  if (!args.includes("--api-only") && !args.includes("--no-what-if")) {
+    out("\nwhat-if runs (issue 12's aim: under 30 s each on 2 cores)");
+    await whatIfFigures({ out });
+  }
   if (!args.includes("--no-api")) await api();
 }
 
