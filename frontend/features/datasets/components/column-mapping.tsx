@@ -121,8 +121,9 @@ export function ColumnMapping({ dataset, canWrite, onShow }: { dataset: Dataset;
     }
   }
 
+  // One change at a time: both carry the data set's version, and the second would be stale.
   function save() {
-    if (!sent.length) return;
+    if (!sent.length || lotUpdate.isPending) return;
     update.mutate({ id: dataset.id, version: dataset.version, body: { mappings: sent } });
   }
 
@@ -168,7 +169,7 @@ export function ColumnMapping({ dataset, canWrite, onShow }: { dataset: Dataset;
               compact
               aria-label="Lot column"
               value={dataset.lotColumn ?? ""}
-              disabled={!canWrite || lotUpdate.isPending}
+              disabled={!canWrite || lotUpdate.isPending || update.isPending}
               onChange={(e) => lotUpdate.mutate({ id: dataset.id, version: dataset.version, body: { lotColumn: e.target.value || null } })}
               className="w-40"
             >
@@ -182,7 +183,14 @@ export function ColumnMapping({ dataset, canWrite, onShow }: { dataset: Dataset;
           </label>
         ) : null}
         {canWrite ? (
-          <Button size="sm" variant="primary" className="ml-auto" disabled={!sent.length || !rev} pending={update.isPending} onClick={save}>
+          <Button
+            size="sm"
+            variant="primary"
+            className="ml-auto"
+            disabled={!sent.length || !rev || lotUpdate.isPending}
+            pending={update.isPending}
+            onClick={save}
+          >
             Save mapping{sent.length > 1 ? ` (${sent.length})` : ""}
           </Button>
         ) : null}
