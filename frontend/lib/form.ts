@@ -1,8 +1,7 @@
+import type { FieldValues, Path, UseFormReturn } from "react-hook-form";
 import type { z } from "zod";
 import { readableMessage } from "@shared/field-labels";
 import { isApiError } from "./api-client";
-
-export type FieldErrors = Record<string, string>;
 
 /** Messages from the shared schemas may start in lower case ("must be a valid e-mail address"). */
 export function sentence(message: string): string {
@@ -10,6 +9,41 @@ export function sentence(message: string): string {
   const m = readableMessage(message);
   return m.charAt(0).toUpperCase() + m.slice(1);
 }
+
+/** Whether `path` ("a" or "a.b") names a value the form holds. */
+function holds(values: unknown, path: string): boolean {
+  let at: unknown = values;
+  for (const key of path.split(".")) {
+    if (at === null || typeof at !== "object" || !(key in at)) return false;
+    at = (at as Record<string, unknown>)[key];
+  }
+  return true;
+}
+
+/**
+ * Puts the field messages of a failed request on the form (react-hook-form's `setError`, first message per field);
+ * a message for no field or a field the form does not have, and any other failure, goes to `root.server`.
+ */
+export function setServerErrors<T extends FieldValues>(form: Pick<UseFormReturn<T>, "setError" | "getValues">, error: unknown): void {
+  if (!isApiError(error)) {
+    form.setError("root.server", { type: "server", message: "Something went wrong. Try again." });
+    return;
+  }
+  const values = form.getValues();
+  const placed = new Set<string>();
+  let formLevel: string | undefined = error.fields.length === 0 ? error.message : undefined;
+  for (const f of error.fields) {
+    if (f.path && holds(values, f.path)) {
+      if (!placed.has(f.path)) form.setError(f.path as Path<T>, { type: "server", message: f.message });
+      placed.add(f.path);
+    } else {
+      formLevel ??= f.message;
+    }
+  }
+  if (formLevel !== undefined) form.setError("root.server", { type: "server", message: formLevel });
+}
+
+export type FieldErrors = Record<string, string>;
 
 /** First message per top-level field of a failed zod parse. */
 export function zodFieldErrors(error: z.ZodError): FieldErrors {

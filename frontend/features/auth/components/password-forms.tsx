@@ -1,23 +1,21 @@
-import { useState, type FormEvent } from "react";
+import { useState } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm, type UseFormRegisterReturn } from "react-hook-form";
 import { AccountUpdateSchema, ChangePasswordSchema, ResetPasswordSchema } from "@shared/schemas/api";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Field, Input } from "@frontend/components/ui/field";
-import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { setServerErrors } from "@frontend/lib/form";
 import { useChangePassword, useResetPassword, useUpdateName } from "../api/passwords";
 
 function PasswordInput({
-  name,
-  value,
-  onChange,
+  field,
   error,
   label,
   hint,
   autoComplete,
 }: {
-  name: string;
-  value: string;
-  onChange: (v: string) => void;
+  field: UseFormRegisterReturn;
   error?: string;
   label: string;
   hint?: string;
@@ -26,16 +24,7 @@ function PasswordInput({
   return (
     <Field label={label} error={error} hint={hint}>
       {({ id, describedBy, invalid }) => (
-        <Input
-          id={id}
-          name={name}
-          type="password"
-          autoComplete={autoComplete}
-          value={value}
-          invalid={invalid}
-          aria-describedby={describedBy}
-          onChange={(e) => onChange(e.target.value)}
-        />
+        <Input id={id} type="password" autoComplete={autoComplete} invalid={invalid} aria-describedby={describedBy} {...field} />
       )}
     </Field>
   );
@@ -43,29 +32,23 @@ function PasswordInput({
 
 /** Sets a new password from a reset link; afterwards the person signs in with it. */
 export function ResetPasswordForm({ token, onDone }: { token: string; onDone: () => void }) {
-  const [newPassword, setNewPassword] = useState("");
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const form = useForm({ resolver: zodResolver(ResetPasswordSchema), defaultValues: { newPassword: "" } });
+  const { errors } = form.formState;
   const reset = useResetPassword();
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const parsed = parseForm(ResetPasswordSchema, { newPassword });
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
-    reset.mutate({ token, newPassword: parsed.data.newPassword }, { onSuccess: onDone, onError: (e) => setErrors(serverFieldErrors(e)) });
-  }
+  const submit = form.handleSubmit(({ newPassword }) =>
+    reset.mutate({ token, newPassword }, { onSuccess: onDone, onError: (e) => setServerErrors(form, e) }),
+  );
 
   return (
     <form onSubmit={submit} noValidate aria-label="Set a new password" className="space-y-4">
-      {errors._form ? <Alert>{errors._form}</Alert> : null}
+      {errors.root?.server ? <Alert>{errors.root.server.message}</Alert> : null}
       <PasswordInput
-        name="newPassword"
+        field={form.register("newPassword")}
         label="New password"
         hint="At least 10 characters. Every place you are signed in is signed out."
         autoComplete="new-password"
-        value={newPassword}
-        onChange={setNewPassword}
-        error={errors.newPassword}
+        error={errors.newPassword?.message}
       />
       <Button type="submit" variant="primary" className="w-full" pending={reset.isPending}>
         Set the password
@@ -76,48 +59,45 @@ export function ResetPasswordForm({ token, onDone }: { token: string; onDone: ()
 
 /** The signed-in person's own password; the other places they are signed in are signed out. */
 export function ChangePasswordForm() {
-  const [currentPassword, setCurrent] = useState("");
-  const [newPassword, setNew] = useState("");
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const form = useForm({ resolver: zodResolver(ChangePasswordSchema), defaultValues: { currentPassword: "", newPassword: "" } });
+  const { errors } = form.formState;
   const [done, setDone] = useState(false);
   const change = useChangePassword();
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    setDone(false);
-    const parsed = parseForm(ChangePasswordSchema, { currentPassword, newPassword });
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
-    change.mutate(parsed.data, {
+  const submit = form.handleSubmit((data) =>
+    change.mutate(data, {
       onSuccess: () => {
         setDone(true);
-        setCurrent("");
-        setNew("");
+        form.reset();
       },
-      onError: (e) => setErrors(serverFieldErrors(e)),
-    });
-  }
+      onError: (e) => setServerErrors(form, e),
+    }),
+  );
 
   return (
-    <form onSubmit={submit} noValidate aria-label="Change password" className="max-w-sm space-y-4">
-      {errors._form ? <Alert>{errors._form}</Alert> : null}
+    <form
+      onSubmit={(event) => {
+        setDone(false);
+        return submit(event);
+      }}
+      noValidate
+      aria-label="Change password"
+      className="max-w-sm space-y-4"
+    >
+      {errors.root?.server ? <Alert>{errors.root.server.message}</Alert> : null}
       {done ? <Alert tone="info">Password changed. You were signed out everywhere else.</Alert> : null}
       <PasswordInput
-        name="currentPassword"
+        field={form.register("currentPassword")}
         label="Current password"
         autoComplete="current-password"
-        value={currentPassword}
-        onChange={setCurrent}
-        error={errors.currentPassword}
+        error={errors.currentPassword?.message}
       />
       <PasswordInput
-        name="newPassword"
+        field={form.register("newPassword")}
         label="New password"
         hint="At least 10 characters."
         autoComplete="new-password"
-        value={newPassword}
-        onChange={setNew}
-        error={errors.newPassword}
+        error={errors.newPassword?.message}
       />
       <Button type="submit" variant="primary" pending={change.isPending}>
         Change password
@@ -128,32 +108,19 @@ export function ChangePasswordForm() {
 
 /** The name colleagues see on activity and reviews. */
 export function NameForm({ current }: { current: string }) {
-  const [name, setName] = useState(current);
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const form = useForm({ resolver: zodResolver(AccountUpdateSchema), defaultValues: { name: current } });
+  const { errors } = form.formState;
   const update = useUpdateName();
+  const name = form.watch("name");
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const parsed = parseForm(AccountUpdateSchema, { name });
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
-    update.mutate(parsed.data.name, { onError: (e) => setErrors(serverFieldErrors(e)) });
-  }
+  const submit = form.handleSubmit((data) => update.mutate(data.name, { onError: (e) => setServerErrors(form, e) }));
 
   return (
     <form onSubmit={submit} noValidate aria-label="Your name" className="max-w-sm space-y-4">
-      {errors._form ? <Alert>{errors._form}</Alert> : null}
-      <Field label="Your name" error={errors.name}>
+      {errors.root?.server ? <Alert>{errors.root.server.message}</Alert> : null}
+      <Field label="Your name" error={errors.name?.message}>
         {({ id, describedBy, invalid }) => (
-          <Input
-            id={id}
-            name="name"
-            autoComplete="name"
-            value={name}
-            invalid={invalid}
-            aria-describedby={describedBy}
-            onChange={(e) => setName(e.target.value)}
-          />
+          <Input id={id} autoComplete="name" invalid={invalid} aria-describedby={describedBy} {...form.register("name")} />
         )}
       </Field>
       <Button type="submit" variant="secondary" pending={update.isPending} disabled={name.trim() === current}>

@@ -1,10 +1,10 @@
-import { useState, type FormEvent } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
 import { z } from "zod";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Field, Input } from "@frontend/components/ui/field";
 import { isApiError } from "@frontend/lib/api-client";
-import { parseForm, type FieldErrors } from "@frontend/lib/form";
 import { useSignIn } from "../api/sign-in";
 
 const SignInFormSchema = z.object({
@@ -21,52 +21,47 @@ export function SignInForm({
   defaultEmail?: string;
   defaultPassword?: string;
 }) {
-  const [email, setEmail] = useState(defaultEmail);
-  const [password, setPassword] = useState(defaultPassword);
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const {
+    register,
+    handleSubmit,
+    formState: { errors },
+  } = useForm({ resolver: zodResolver(SignInFormSchema), defaultValues: { email: defaultEmail, password: defaultPassword } });
   const signIn = useSignIn();
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const parsed = parseForm(SignInFormSchema, { email, password });
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
-    signIn.mutate(parsed.data, { onSuccess: onSignedIn });
-  }
-
   return (
-    <form onSubmit={submit} noValidate aria-label="Sign in" className="space-y-4">
+    <form
+      onSubmit={handleSubmit((data) => signIn.mutate(data, { onSuccess: onSignedIn }))}
+      noValidate
+      aria-label="Sign in"
+      className="space-y-4"
+    >
       {signIn.error ? (
         <Alert title={isApiError(signIn.error) && signIn.error.status === 429 ? "Slow down" : "Could not sign in"}>
           {signIn.error.message}
         </Alert>
       ) : null}
-      <Field label="E-mail address" error={errors.email}>
+      <Field label="E-mail address" error={errors.email?.message}>
         {({ id, describedBy, invalid }) => (
           <Input
             id={id}
-            name="email"
             type="email"
             autoComplete="username"
             autoFocus
-            value={email}
             invalid={invalid}
             aria-describedby={describedBy}
-            onChange={(e) => setEmail(e.target.value)}
+            {...register("email")}
           />
         )}
       </Field>
-      <Field label="Password" error={errors.password}>
+      <Field label="Password" error={errors.password?.message}>
         {({ id, describedBy, invalid }) => (
           <Input
             id={id}
-            name="password"
             type="password"
             autoComplete="current-password"
-            value={password}
             invalid={invalid}
             aria-describedby={describedBy}
-            onChange={(e) => setPassword(e.target.value)}
+            {...register("password")}
           />
         )}
       </Field>

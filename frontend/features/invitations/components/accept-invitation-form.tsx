@@ -1,9 +1,10 @@
-import { useState, type FormEvent } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
 import { AcceptInvitationSchema } from "@shared/schemas/api";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Field, Input } from "@frontend/components/ui/field";
-import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { setServerErrors } from "@frontend/lib/form";
 import { useAcceptInvitation } from "../api/accept-invitation";
 import type { InvitationPreview } from "../api/get-invitation-preview";
 
@@ -16,50 +17,34 @@ export function AcceptInvitationForm({
   invitation: InvitationPreview;
   onAccepted: () => void;
 }) {
-  const [name, setName] = useState("");
-  const [password, setPassword] = useState("");
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const form = useForm({ resolver: zodResolver(AcceptInvitationSchema), defaultValues: { name: "", password: "" } });
+  const { errors } = form.formState;
   const accept = useAcceptInvitation();
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const parsed = parseForm(AcceptInvitationSchema, { name, password });
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
-    accept.mutate({ token, input: parsed.data }, { onSuccess: onAccepted, onError: (error) => setErrors(serverFieldErrors(error)) });
-  }
+  const submit = form.handleSubmit((input) =>
+    accept.mutate({ token, input }, { onSuccess: onAccepted, onError: (error) => setServerErrors(form, error) }),
+  );
 
   return (
     <form onSubmit={submit} noValidate aria-label="Accept invitation" className="space-y-4">
-      {errors._form ? <Alert>{errors._form}</Alert> : null}
+      {errors.root?.server ? <Alert>{errors.root.server.message}</Alert> : null}
       <Field label="E-mail address">
         {({ id }) => <Input id={id} type="email" value={invitation.email} readOnly disabled autoComplete="username" />}
       </Field>
-      <Field label="Your name" error={errors.name} hint="Shown to your colleagues on activity and reviews.">
+      <Field label="Your name" error={errors.name?.message} hint="Shown to your colleagues on activity and reviews.">
         {({ id, describedBy, invalid }) => (
-          <Input
-            id={id}
-            name="name"
-            autoComplete="name"
-            autoFocus
-            value={name}
-            invalid={invalid}
-            aria-describedby={describedBy}
-            onChange={(e) => setName(e.target.value)}
-          />
+          <Input id={id} autoComplete="name" autoFocus invalid={invalid} aria-describedby={describedBy} {...form.register("name")} />
         )}
       </Field>
-      <Field label="Choose a password" error={errors.password} hint="At least 10 characters.">
+      <Field label="Choose a password" error={errors.password?.message} hint="At least 10 characters.">
         {({ id, describedBy, invalid }) => (
           <Input
             id={id}
-            name="password"
             type="password"
             autoComplete="new-password"
-            value={password}
             invalid={invalid}
             aria-describedby={describedBy}
-            onChange={(e) => setPassword(e.target.value)}
+            {...form.register("password")}
           />
         )}
       </Field>

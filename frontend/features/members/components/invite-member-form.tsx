@@ -1,68 +1,63 @@
-import { useState, type FormEvent } from "react";
+import { useState } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
 import { CreateInvitationSchema, type Invitation, type Supplier } from "@shared/schemas/api";
-import { RoleSchema, type Role } from "@shared/schemas/common";
+import { RoleSchema } from "@shared/schemas/common";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { CopyButton } from "@frontend/components/ui/copy-button";
 import { Field, Input, Select } from "@frontend/components/ui/field";
 import { MailIcon } from "@frontend/components/ui/icons";
-import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { setServerErrors } from "@frontend/lib/form";
 import { ROLE_DESCRIPTIONS, ROLE_LABELS } from "@frontend/lib/permissions";
 import { useCreateInvitation } from "../api/create-invitation";
 
+/** The form's values as typed; only a supplier user keeps the chosen company. */
+const InviteFormSchema = z
+  .object({ email: z.string(), role: RoleSchema, supplierId: z.string() })
+  .transform((v): z.input<typeof CreateInvitationSchema> => ({ ...v, supplierId: v.role === "supplier" ? v.supplierId || null : null }))
+  .pipe(CreateInvitationSchema);
+const BLANK: z.input<typeof InviteFormSchema> = { email: "", role: "engineer", supplierId: "" };
+
 export function InviteMemberForm({ suppliers }: { suppliers: Supplier[] }) {
-  const [email, setEmail] = useState("");
-  const [role, setRole] = useState<Role>("engineer");
-  const [supplierId, setSupplierId] = useState("");
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const form = useForm({ resolver: zodResolver(InviteFormSchema), defaultValues: BLANK });
+  const { errors } = form.formState;
+  const role = form.watch("role");
   const [sent, setSent] = useState<Invitation | null>(null);
   const create = useCreateInvitation();
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const values = { email, role, supplierId: role === "supplier" ? supplierId || null : null };
-    const parsed = parseForm(CreateInvitationSchema, values);
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
-    create.mutate(parsed.data, {
-      onSuccess: (invitation) => {
-        setSent(invitation);
-        setEmail("");
-        setSupplierId("");
+  const submit = form.handleSubmit((invitation) =>
+    create.mutate(invitation, {
+      onSuccess: (created) => {
+        setSent(created);
+        form.resetField("email");
+        form.resetField("supplierId");
       },
-      onError: (error) => setErrors(serverFieldErrors(error)),
-    });
-  }
+      onError: (error) => setServerErrors(form, error),
+    }),
+  );
 
   return (
     <div className="space-y-4">
       <form onSubmit={submit} noValidate aria-label="Invite a member" className="space-y-3.5">
-        {errors._form ? <Alert>{errors._form}</Alert> : null}
-        <Field label="E-mail address" error={errors.email}>
+        {errors.root?.server ? <Alert>{errors.root.server.message}</Alert> : null}
+        <Field label="E-mail address" error={errors.email?.message}>
           {({ id, describedBy, invalid }) => (
             <Input
               id={id}
-              name="email"
               type="email"
               autoComplete="off"
               placeholder="name@company.com"
-              value={email}
               invalid={invalid}
               aria-describedby={describedBy}
-              onChange={(e) => setEmail(e.target.value)}
+              {...form.register("email")}
             />
           )}
         </Field>
-        <Field label="Role" error={errors.role} hint={ROLE_DESCRIPTIONS[role]}>
+        <Field label="Role" error={errors.role?.message} hint={ROLE_DESCRIPTIONS[role]}>
           {({ id, describedBy, invalid }) => (
-            <Select
-              id={id}
-              name="role"
-              value={role}
-              invalid={invalid}
-              aria-describedby={describedBy}
-              onChange={(e) => setRole(RoleSchema.parse(e.target.value))}
-            >
+            <Select id={id} invalid={invalid} aria-describedby={describedBy} {...form.register("role")}>
               {RoleSchema.options.map((r) => (
                 <option key={r} value={r}>
                   {ROLE_LABELS[r]}
@@ -74,18 +69,11 @@ export function InviteMemberForm({ suppliers }: { suppliers: Supplier[] }) {
         {role === "supplier" ? (
           <Field
             label="Supplier company"
-            error={errors.supplierId}
+            error={errors.supplierId?.message}
             hint={suppliers.length === 0 ? "Add a supplier company first." : undefined}
           >
             {({ id, describedBy, invalid }) => (
-              <Select
-                id={id}
-                name="supplierId"
-                value={supplierId}
-                invalid={invalid}
-                aria-describedby={describedBy}
-                onChange={(e) => setSupplierId(e.target.value)}
-              >
+              <Select id={id} invalid={invalid} aria-describedby={describedBy} {...form.register("supplierId")}>
                 <option value="">Choose…</option>
                 {suppliers.map((s) => (
                   <option key={s.id} value={s.id}>

@@ -1,11 +1,12 @@
-import { useState, type FormEvent } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
 import type { Comment } from "@shared/schemas/revisions";
 import { CommentBodySchema } from "@shared/schemas/revisions";
 import { Badge, type BadgeTone } from "@frontend/components/ui/badge";
 import { Button } from "@frontend/components/ui/button";
 import { Textarea } from "@frontend/components/ui/field";
 import { formatDateTime, formatRelative, initials } from "@frontend/lib/format";
-import { parseForm, serverFieldErrors } from "@frontend/lib/form";
+import { setServerErrors } from "@frontend/lib/form";
 import { useAddReportComment } from "../api/add-report-comment";
 
 const KIND: Record<string, { label: string; tone: BadgeTone } | undefined> = {
@@ -27,19 +28,13 @@ export function ReportComments({
   released: boolean;
 }) {
   const add = useAddReportComment();
-  const [body, setBody] = useState("");
-  const [error, setError] = useState<string | undefined>();
+  const form = useForm({ resolver: zodResolver(CommentBodySchema), defaultValues: { body: "" } });
+  const { errors } = form.formState;
+  const error = errors.body?.message ?? errors.root?.server?.message;
 
-  function submit(e: FormEvent<HTMLFormElement>) {
-    e.preventDefault();
-    const parsed = parseForm(CommentBodySchema, { body });
-    if (!parsed.ok) return setError(parsed.errors.body);
-    setError(undefined);
-    add.mutate(
-      { id: reportId, body: parsed.data.body },
-      { onSuccess: () => setBody(""), onError: (err) => setError(serverFieldErrors(err).body ?? serverFieldErrors(err)._form) },
-    );
-  }
+  const submit = form.handleSubmit(({ body }) =>
+    add.mutate({ id: reportId, body }, { onSuccess: () => form.reset(), onError: (err) => setServerErrors(form, err) }),
+  );
 
   return (
     <div className="space-y-3">
@@ -73,9 +68,8 @@ export function ReportComments({
         <Textarea
           aria-label={asSupplier ? "Your question" : "Your comment"}
           rows={3}
-          value={body}
           invalid={!!error}
-          onChange={(e) => setBody(e.target.value)}
+          {...form.register("body")}
           placeholder={
             asSupplier
               ? "Ask the engineer about a tolerance, a measurement or a date."
