@@ -1,5 +1,4 @@
-import { and, desc, eq, inArray, sql } from "drizzle-orm";
-import type { Project } from "@shared/schemas/api";
+import { and, desc, eq, sql } from "drizzle-orm";
 import type { CreateStudy, Study, StudySummary } from "@shared/schemas/studies";
 import { validateStudy } from "@shared/schemas/study-file";
 import type { Database } from "../db/client";
@@ -201,24 +200,4 @@ export async function rerunStudy(db: Database, queue: StudyScheduler, actor: Act
   });
   queue.kick();
   return getStudy(db, actor.workspaceId, id, false);
-}
-
-/** For the projects table: each project's newest study. */
-export async function lastStudies(db: Database, projectIds: string[]) {
-  const out = new Map<string, NonNullable<Project["lastStudy"]>>();
-  if (!projectIds.length) return out;
-  const rows = await db
-    .selectDistinctOn([studies.projectId], {
-      projectId: studies.projectId,
-      id: studies.id,
-      status: studies.status,
-      passes: studyResults.passes,
-      finishedAt: studies.finishedAt,
-    })
-    .from(studies)
-    .leftJoin(studyResults, eq(studyResults.studyId, studies.id))
-    .where(inArray(studies.projectId, projectIds))
-    .orderBy(studies.projectId, desc(studies.number));
-  for (const r of rows) out.set(r.projectId, { id: r.id, status: r.status, passes: r.passes, finishedAt: iso(r.finishedAt) });
-  return out;
 }

@@ -73,6 +73,7 @@ describe("studies with a controllable runner", () => {
   let ctl: ReturnType<typeof controllableRunner>;
   const c: Record<string, string> = {};
   let revisionId: string;
+  let projectId: string;
 
   beforeAll(async () => {
     handle = await openTestDatabase();
@@ -80,6 +81,7 @@ describe("studies with a controllable runner", () => {
     t = await startTestApp({ handle, runner: ctl.runner });
     for (const role of ["admin", "engineer", "reviewer", "supplier"]) c[role] = await t.signIn(`${role}@example.com`);
     const p = await t.call("POST", "/api/projects", { cookie: c.engineer, body: { name: "Study tests" } });
+    projectId = p.body.id;
     const rev = await t.call("POST", `/api/projects/${p.body.id}/revisions`, { cookie: c.engineer, body: { stack } });
     revisionId = rev.body.id;
   });
@@ -106,6 +108,42 @@ describe("studies with a controllable runner", () => {
     expect(done.body.result.format).toBe("orthostack.result/1");
     expect(done.body.passes).toBe(true);
     expect(done.body.stack).toEqual(stack);
+  });
+
+  it("shows each project's newest study in the projects list, its search and the project itself", async () => {
+    const newest = async (query = "") => {
+      const r = await t.call("GET", `/api/projects${query}`, { cookie: c.reviewer });
+      return r.body.projects.find((p: { id: string }) => p.id === projectId)?.lastStudy;
+    };
+    const first = await newest();
+    expect(first).toMatchObject({ status: "finished", passes: true });
+    expect(typeof first.finishedAt).toBe("string");
+
+    const second = await t.call("POST", `/api/revisions/${revisionId}/studies`, { cookie: c.engineer, body: { study } });
+    for (const query of ["", "?q=study%20tests", "?archived=all"]) {
+      const shown = await newest(query);
+      expect(shown.id, query).toBe(second.body.id);
+      expect(shown.id).not.toBe(first.id);
+      expect(["queued", "running"]).toContain(shown.status);
+      expect(shown.passes).toBeNull();
+      expect(shown.finishedAt).toBeNull();
+    }
+    expect((await t.call("GET", `/api/projects/${projectId}`, { cookie: c.reviewer })).body.lastStudy.id).toBe(second.body.id);
+    await until(
+      () => t.call("GET", `/api/studies/${second.body.id}`, { cookie: c.reviewer }),
+      (x) => x.body.status === "running",
+    );
+    ctl.finish();
+    await until(
+      () => t.call("GET", `/api/studies/${second.body.id}`, { cookie: c.reviewer }),
+      (x) => x.body.status === "finished",
+    );
+    expect(await newest()).toMatchObject({ id: second.body.id, status: "finished", passes: true });
+
+    const empty = await t.call("POST", `/api/projects`, { cookie: c.engineer, body: { name: "No studies yet" } });
+    const listed = await t.call("GET", "/api/projects", { cookie: c.reviewer });
+    expect(listed.body.projects.find((p: { id: string }) => p.id === empty.body.id).lastStudy).toBeNull();
+    expect(empty.body.lastStudy).toBeNull();
   });
 
   it("refuses a bad study file with paths and queues nothing", async () => {
