@@ -10,19 +10,22 @@ export function sentence(message: string): string {
   return m.charAt(0).toUpperCase() + m.slice(1);
 }
 
-/** Whether `path` ("a" or "a.b") names a value the form holds. */
-function holds(values: unknown, path: string): boolean {
+/** The longest part of `path` ("cc.2" or "cc[2]" -> "cc") that names a value the form holds, if any. */
+function heldPath(values: unknown, path: string): string | undefined {
   let at: unknown = values;
-  for (const key of path.split(".")) {
-    if (at === null || typeof at !== "object" || !(key in at)) return false;
+  const held: string[] = [];
+  for (const key of path.replace(/\[(\d+)\]/g, ".$1").split(".")) {
+    if (at === null || typeof at !== "object" || !(key in at)) break;
     at = (at as Record<string, unknown>)[key];
+    held.push(key);
   }
-  return true;
+  return held.length > 0 ? held.join(".") : undefined;
 }
 
 /**
- * Puts the field messages of a failed request on the form (react-hook-form's `setError`, first message per field);
- * a message for no field or a field the form does not have, and any other failure, goes to `root.server`.
+ * Puts the field messages of a failed request on the form (react-hook-form's `setError`, first message per field;
+ * "cc.2" on "cc" when the form holds the list as one text); a message for no field or a field the form does not
+ * have, and any other failure, goes to `root.server`.
  */
 export function setServerErrors<T extends FieldValues>(form: Pick<UseFormReturn<T>, "setError" | "getValues">, error: unknown): void {
   if (!isApiError(error)) {
@@ -33,14 +36,27 @@ export function setServerErrors<T extends FieldValues>(form: Pick<UseFormReturn<
   const placed = new Set<string>();
   let formLevel: string | undefined = error.fields.length === 0 ? error.message : undefined;
   for (const f of error.fields) {
-    if (f.path && holds(values, f.path)) {
-      if (!placed.has(f.path)) form.setError(f.path as Path<T>, { type: "server", message: f.message });
-      placed.add(f.path);
+    const path = f.path ? heldPath(values, f.path) : undefined;
+    if (path !== undefined) {
+      if (!placed.has(path)) form.setError(path as Path<T>, { type: "server", message: f.message });
+      placed.add(path);
     } else {
       formLevel ??= f.message;
     }
   }
   if (formLevel !== undefined) form.setError("root.server", { type: "server", message: formLevel });
+}
+
+/** The first message in a field's errors, a list's included (react-hook-form nests "cc.2" as `cc[2]`). */
+export function firstErrorMessage(errors: unknown): string | undefined {
+  if (errors === null || typeof errors !== "object") return undefined;
+  if ("message" in errors && typeof errors.message === "string") return errors.message;
+  for (const [key, value] of Object.entries(errors)) {
+    if (key === "ref") continue; // the input element
+    const message = firstErrorMessage(value);
+    if (message !== undefined) return message;
+  }
+  return undefined;
 }
 
 export type FieldErrors = Record<string, string>;

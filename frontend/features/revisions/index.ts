@@ -1,4 +1,4 @@
-/** What other features use of revisions: the review and edit mutations and the status chip. */
+/** What other features use of revisions: the review and edit mutations, the status chip and the note field. */
 export { useAddRevisionComment } from "./api/add-revision-comment";
 export { useApproveRevision } from "./api/approve-revision";
 export { useCreateDraftFrom } from "./api/create-draft";
@@ -9,4 +9,5 @@ export { useUpdateRevision, type UpdateRevisionInput } from "./api/update-revisi
 export { RevisionStatusChip, STATUS_LABEL } from "./components/revision-status-chip";
 export { RevisionChanges } from "./components/revision-changes";
 export { NoteDialog } from "./components/note-dialog";
+export { NoteField } from "./components/note-field";
 export { SubmitDialog } from "./components/submit-dialog";

@@ -1,56 +1,50 @@
-import { useState, type FormEvent } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm, type FieldErrors, type UseFormRegisterReturn } from "react-hook-form";
 import { useNavigate } from "react-router";
-import { CreateProjectSchema, UpdateProjectSchema, type Project } from "@shared/schemas/api";
+import { CreateProjectSchema, UpdateProjectSchema, type Project, type UpdateProject } from "@shared/schemas/api";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Input, Textarea } from "@frontend/components/ui/field";
-import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { setServerErrors } from "@frontend/lib/form";
 import { useCreateProject } from "../api/create-project";
 import { useUpdateProject } from "../api/update-project";
 
-type Values = { name: string; description: string };
+type Key = "name" | "description";
+type Messages = { name?: string; description?: string; form?: string };
+const messages = (e: FieldErrors<Partial<Record<Key, string>>>): Messages => ({
+  name: e.name?.message,
+  description: e.description?.message,
+  form: e.root?.server?.message,
+});
 
 function ProjectFields({
-  values,
+  register,
   errors,
-  onChange,
   disabled,
 }: {
-  values: Values;
-  errors: FieldErrors;
-  onChange: (v: Values) => void;
+  register: (field: Key) => UseFormRegisterReturn;
+  errors: Messages;
   disabled: boolean;
 }) {
   return (
     <div className="space-y-4">
-      {errors._form ? <Alert>{errors._form}</Alert> : null}
+      {errors.form ? <Alert>{errors.form}</Alert> : null}
       <Field label="Project name" error={errors.name} hint="The product and package, e.g. “Trail watch sensor module, rev C”.">
         {({ id, describedBy, invalid }) => (
-          <Input
-            id={id}
-            name="name"
-            value={values.name}
-            invalid={invalid}
-            aria-describedby={describedBy}
-            autoComplete="off"
-            disabled={disabled}
-            onChange={(e) => onChange({ ...values, name: e.target.value })}
-          />
+          <Input id={id} invalid={invalid} aria-describedby={describedBy} autoComplete="off" disabled={disabled} {...register("name")} />
         )}
       </Field>
       <Field label="Description" aside="optional" error={errors.description}>
         {({ id, describedBy, invalid }) => (
           <Textarea
             id={id}
-            name="description"
             rows={3}
-            value={values.description}
             invalid={invalid}
             aria-describedby={describedBy}
             disabled={disabled}
             placeholder="What the package is for, the budget it must meet, who asked."
-            onChange={(e) => onChange({ ...values, description: e.target.value })}
+            {...register("description")}
           />
         )}
       </Field>
@@ -60,31 +54,25 @@ function ProjectFields({
 
 /** New project: checked with the same schema the server uses, then the server's own field errors. */
 export function CreateProjectDialog({ open, onClose }: { open: boolean; onClose: () => void }) {
-  const [values, setValues] = useState<Values>({ name: "", description: "" });
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const form = useForm({ resolver: zodResolver(CreateProjectSchema), defaultValues: { name: "", description: "" } });
   const create = useCreateProject();
   const navigate = useNavigate();
 
   function close() {
-    setValues({ name: "", description: "" });
-    setErrors({});
+    form.reset();
     create.reset();
     onClose();
   }
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const parsed = parseForm(CreateProjectSchema, values);
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
-    create.mutate(parsed.data, {
-      onSuccess: (project) => {
+  const submit = form.handleSubmit((project) =>
+    create.mutate(project, {
+      onSuccess: (created) => {
         close();
-        navigate(`/projects/${project.id}`);
+        navigate(`/projects/${created.id}`);
       },
-      onError: (error) => setErrors(serverFieldErrors(error)),
-    });
-  }
+      onError: (error) => setServerErrors(form, error),
+    }),
+  );
 
   return (
     <Dialog
@@ -106,37 +94,34 @@ export function CreateProjectDialog({ open, onClose }: { open: boolean; onClose:
         </>
       }
     >
-      <ProjectFields values={values} errors={errors} onChange={setValues} disabled={create.isPending} />
+      <ProjectFields register={form.register} errors={messages(form.formState.errors)} disabled={create.isPending} />
     </Dialog>
   );
 }
 
 /** Rename and re-describe; only what changed is sent. */
 export function EditProjectDialog({ project, open, onClose }: { project: Project; open: boolean; onClose: () => void }) {
-  const [values, setValues] = useState<Values>({ name: project.name, description: project.description });
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const form = useForm({
+    resolver: zodResolver(UpdateProjectSchema),
+    defaultValues: { name: project.name, description: project.description },
+  });
   const update = useUpdateProject();
 
   function close() {
-    setErrors({});
     update.reset();
     onClose();
   }
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const changes: Partial<Values> = {};
-    if (values.name !== project.name) changes.name = values.name;
-    if (values.description !== project.description) changes.description = values.description;
+  const submit = form.handleSubmit(({ name, description }) => {
+    const changes: UpdateProject = {};
+    if (name !== project.name) changes.name = name;
+    if (description !== project.description) changes.description = description;
     if (Object.keys(changes).length === 0) return close();
-    const parsed = parseForm(UpdateProjectSchema, changes);
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
     update.mutate(
-      { id: project.id, version: project.version, changes: parsed.data },
-      { onSuccess: close, onError: (error) => setErrors(serverFieldErrors(error)) },
+      { id: project.id, version: project.version, changes },
+      { onSuccess: close, onError: (error) => setServerErrors(form, error) },
     );
-  }
+  });
 
   return (
     <Dialog
@@ -158,7 +143,7 @@ export function EditProjectDialog({ project, open, onClose }: { project: Project
         </>
       }
     >
-      <ProjectFields values={values} errors={errors} onChange={setValues} disabled={update.isPending} />
+      <ProjectFields register={form.register} errors={messages(form.formState.errors)} disabled={update.isPending} />
     </Dialog>
   );
 }

@@ -1,5 +1,8 @@
-import { useEffect, useMemo, useState, type FormEvent } from "react";
+import { useEffect, useMemo } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
 import { Link } from "react-router";
+import { z } from "zod";
 import { DEFAULT_CPK } from "@shared/reports/capability";
 import { CreateReportSchema, type Report } from "@shared/schemas/reports";
 import { Alert } from "@frontend/components/ui/alert";
@@ -10,7 +13,7 @@ import { Spinner } from "@frontend/components/ui/spinner";
 import { cn } from "@frontend/lib/cn";
 import { formatDate } from "@frontend/lib/format";
 import { formatFraction } from "@shared/format";
-import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { setServerErrors } from "@frontend/lib/form";
 import { useCreateReport } from "../api/create-report";
 import { useReportOptions } from "../api/get-report-options";
 import { readPng } from "../lib/files";
@@ -24,6 +27,24 @@ type Props = {
   supplierId?: string;
   cpk?: number;
 };
+
+/** The dialog as typed: Cpk is text until it is sent, the picture keeps its file name; the study goes in the address. */
+const BuildFormSchema = z
+  .object({
+    studyId: z.string(),
+    supplierId: z.string(),
+    cpk: z.string(),
+    note: z.string(),
+    snapshotPng: z.object({ name: z.string(), url: z.string() }).nullable(),
+  })
+  .transform((v): z.input<typeof CreateReportSchema> => ({
+    supplierId: v.supplierId,
+    cpk: Number(v.cpk),
+    note: v.note,
+    ...(v.snapshotPng ? { snapshotPng: v.snapshotPng.url } : {}),
+  }))
+  .pipe(CreateReportSchema);
+type BuildForm = z.input<typeof BuildFormSchema>;
 
 /**
  * Builds a supplier's report: a finished study on an approved revision, one of the companies
@@ -42,16 +63,23 @@ export function BuildReportDialog({
   const create = useCreateReport();
   const studies = useMemo(() => options.data?.studies ?? [], [options.data]);
   const eligible = studies.filter((s) => s.blockedBy === null);
-  const [studyId, setStudyId] = useState(initialStudy ?? "");
-  const [supplierId, setSupplierId] = useState(initialSupplier ?? "");
-  const [cpk, setCpk] = useState(String(initialCpk ?? DEFAULT_CPK));
-  const [note, setNote] = useState("");
-  const [snapshot, setSnapshot] = useState<{ name: string; url: string } | null>(null);
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const defaultValues: BuildForm = {
+    studyId: initialStudy ?? "",
+    supplierId: initialSupplier ?? "",
+    cpk: String(initialCpk ?? DEFAULT_CPK),
+    note: "",
+    snapshotPng: null,
+  };
+  const form = useForm({ resolver: zodResolver(BuildFormSchema), defaultValues });
+  const { errors } = form.formState;
+  const { setValue } = form;
+  const studyId = form.watch("studyId");
+  const supplierId = form.watch("supplierId");
+  const snapshot = form.watch("snapshotPng");
 
   useEffect(() => {
-    if (!studyId && eligible[0]) setStudyId(eligible[0].id);
-  }, [studyId, eligible]);
+    if (!studyId && eligible[0]) setValue("studyId", eligible[0].id);
+  }, [studyId, eligible, setValue]);
   const study = studies.find((s) => s.id === studyId);
   const suppliers = useMemo(() => study?.suppliers ?? [], [study]);
   useEffect(() => {
@@ -60,41 +88,32 @@ export function BuildReportDialog({
       // the company holding the most tolerances is the likeliest one to report to
       const free =
         [...suppliers].sort((a, b) => b.sources.length - a.sources.length).find((s) => s.latest?.status !== "draft") ?? suppliers[0];
-      setSupplierId(free?.supplierId ?? "");
+      setValue("supplierId", free?.supplierId ?? "");
     }
-  }, [study, suppliers, supplierId]);
+  }, [study, suppliers, supplierId, setValue]);
   const chosen = suppliers.find((s) => s.supplierId === supplierId);
   const draftInTheWay = chosen?.latest?.status === "draft" ? chosen.latest : null;
 
   function close() {
     create.reset();
-    setErrors({});
+    form.clearErrors();
     onClose();
   }
 
   async function pick(file: File | undefined) {
-    setErrors((e) => ({ ...e, snapshotPng: "" }));
-    if (!file) return setSnapshot(null);
+    form.clearErrors("snapshotPng");
+    if (!file) return setValue("snapshotPng", null);
     try {
-      setSnapshot({ name: file.name, url: await readPng(file) });
+      setValue("snapshotPng", { name: file.name, url: await readPng(file) });
     } catch (e) {
-      setSnapshot(null);
-      setErrors((x) => ({ ...x, snapshotPng: e instanceof Error ? e.message : "The image could not be read." }));
+      setValue("snapshotPng", null);
+      form.setError("snapshotPng", { type: "file", message: e instanceof Error ? e.message : "The image could not be read." });
     }
   }
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const parsed = parseForm(CreateReportSchema, {
-      supplierId,
-      cpk: Number(cpk),
-      note,
-      ...(snapshot ? { snapshotPng: snapshot.url } : {}),
-    });
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
-    create.mutate({ studyId, body: parsed.data }, { onSuccess: onBuilt, onError: (e) => setErrors(serverFieldErrors(e)) });
-  }
+  const submit = form.handleSubmit((body) =>
+    create.mutate({ studyId: form.getValues("studyId"), body }, { onSuccess: onBuilt, onError: (e) => setServerErrors(form, e) }),
+  );
 
   const blocked = !study || study.blockedBy !== null || !chosen || draftInTheWay !== null;
 
@@ -135,9 +154,9 @@ export function BuildReportDialog({
         </Alert>
       ) : (
         <div className="space-y-4">
-          <Field label="Study" error={errors.studyId}>
+          <Field label="Study" error={errors.studyId?.message}>
             {({ id, describedBy, invalid }) => (
-              <Select id={id} aria-describedby={describedBy} invalid={invalid} value={studyId} onChange={(e) => setStudyId(e.target.value)}>
+              <Select id={id} aria-describedby={describedBy} invalid={invalid} {...form.register("studyId")}>
                 {studies.map((s) => (
                   <option key={s.id} value={s.id} disabled={s.blockedBy !== null}>
                     Study {s.number}
@@ -189,7 +208,7 @@ export function BuildReportDialog({
                       name="supplier"
                       value={s.supplierId}
                       checked={s.supplierId === supplierId}
-                      onChange={() => setSupplierId(s.supplierId)}
+                      onChange={() => setValue("supplierId", s.supplierId)}
                       className="mt-1 accent-[var(--color-mag)]"
                     />
                     <span className="min-w-0 flex-1">
@@ -210,7 +229,7 @@ export function BuildReportDialog({
                 ))}
               </div>
             )}
-            {errors.supplierId ? <p className="mt-1 text-xs font-medium text-fail">{errors.supplierId}</p> : null}
+            {errors.supplierId ? <p className="mt-1 text-xs font-medium text-fail">{errors.supplierId.message}</p> : null}
             {draftInTheWay ? (
               <p className="mt-1.5 text-xs text-ink/65">
                 {draftInTheWay.code} revision {draftInTheWay.revision} for {chosen?.name} is still a draft.{" "}
@@ -232,16 +251,15 @@ export function BuildReportDialog({
           </fieldset>
 
           <div className="grid grid-cols-[140px_minmax(0,1fr)] gap-3">
-            <Field label="Capability asked" aside="Cpk ≥" error={errors.cpk}>
+            <Field label="Capability asked" aside="Cpk ≥" error={errors.cpk?.message}>
               {({ id, describedBy, invalid }) => (
                 <Input
                   id={id}
                   aria-describedby={describedBy}
                   invalid={invalid}
                   inputMode="decimal"
-                  value={cpk}
-                  onChange={(e) => setCpk(e.target.value)}
                   className="num"
+                  {...form.register("cpk")}
                 />
               )}
             </Field>
@@ -251,16 +269,15 @@ export function BuildReportDialog({
             </p>
           </div>
 
-          <Field label="Note to the supplier" aside="optional" error={errors.note}>
+          <Field label="Note to the supplier" aside="optional" error={errors.note?.message}>
             {({ id, describedBy, invalid }) => (
               <Textarea
                 id={id}
                 aria-describedby={describedBy}
                 invalid={invalid}
                 rows={2}
-                value={note}
-                onChange={(e) => setNote(e.target.value)}
                 placeholder="Printed under the assumptions, e.g. which line or lot this covers."
+                {...form.register("note")}
               />
             )}
           </Field>
@@ -268,7 +285,7 @@ export function BuildReportDialog({
           <Field
             label="3D snapshot"
             aside="optional, PNG"
-            error={errors.snapshotPng || undefined}
+            error={errors.snapshotPng?.message}
             hint={
               snapshot
                 ? `${snapshot.name} will be printed on the cover.`
@@ -288,7 +305,7 @@ export function BuildReportDialog({
             )}
           </Field>
 
-          {errors._form ? <Alert>{errors._form}</Alert> : null}
+          {errors.root?.server ? <Alert>{errors.root.server.message}</Alert> : null}
         </div>
       )}
     </Dialog>

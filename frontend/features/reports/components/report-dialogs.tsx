@@ -1,11 +1,14 @@
 import { useState, type FormEvent, type ReactNode } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
 import { UpdateReportSchema, type Report } from "@shared/schemas/reports";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
 import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Input, Textarea } from "@frontend/components/ui/field";
-import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { setServerErrors } from "@frontend/lib/form";
 import { useAcknowledgeReport } from "../api/acknowledge-report";
 import { useDeleteReport } from "../api/delete-report";
 import { useReleaseReport } from "../api/release-report";
@@ -153,32 +156,40 @@ export function AcknowledgeDialog({ report, onClose }: Base) {
   );
 }
 
+/** The draft form as typed: Cpk is text until it is sent; no snapshot value keeps the stored picture. */
+const DraftFormSchema = z
+  .object({ cpk: z.string(), note: z.string(), snapshotPng: z.string().nullable().optional() })
+  .transform(({ cpk, note, snapshotPng }): z.input<typeof UpdateReportSchema> => ({
+    cpk: Number(cpk),
+    note,
+    ...(snapshotPng !== undefined ? { snapshotPng } : {}),
+  }))
+  .pipe(UpdateReportSchema);
+type DraftForm = z.input<typeof DraftFormSchema>;
+
 export function EditDraftDialog({ report, onClose }: Base) {
   const update = useUpdateReport();
-  const [cpk, setCpk] = useState(report.capability.cpk.toFixed(2));
-  const [note, setNote] = useState(report.note);
-  const [snapshot, setSnapshot] = useState<string | null | undefined>(undefined);
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const defaultValues: DraftForm = { cpk: report.capability.cpk.toFixed(2), note: report.note, snapshotPng: undefined };
+  const form = useForm({ resolver: zodResolver(DraftFormSchema), defaultValues });
+  const { errors } = form.formState;
+  const snapshot = form.watch("snapshotPng");
 
   async function pick(file: File | undefined) {
     if (!file) return;
     try {
-      setSnapshot(await readPng(file));
-      setErrors((e) => ({ ...e, snapshotPng: "" }));
+      form.setValue("snapshotPng", await readPng(file));
+      form.clearErrors("snapshotPng");
     } catch (e) {
-      setErrors((x) => ({ ...x, snapshotPng: e instanceof Error ? e.message : "The image could not be read." }));
+      form.setError("snapshotPng", { type: "file", message: e instanceof Error ? e.message : "The image could not be read." });
     }
   }
 
-  function submit(e: FormEvent<HTMLFormElement>) {
-    e.preventDefault();
-    const parsed = parseForm(UpdateReportSchema, { cpk: Number(cpk), note, ...(snapshot !== undefined ? { snapshotPng: snapshot } : {}) });
-    if (!parsed.ok) return setErrors(parsed.errors);
+  const submit = form.handleSubmit((changes) =>
     update.mutate(
-      { id: report.id, version: report.version, changes: parsed.data },
-      { onSuccess: onClose, onError: (err) => setErrors(serverFieldErrors(err)) },
-    );
-  }
+      { id: report.id, version: report.version, changes },
+      { onSuccess: onClose, onError: (err) => setServerErrors(form, err) },
+    ),
+  );
 
   const hasSnapshot = snapshot === undefined ? report.hasSnapshot : snapshot !== null;
   return (
@@ -202,35 +213,27 @@ export function EditDraftDialog({ report, onClose }: Base) {
       }
     >
       <div className="space-y-4">
-        <Field label="Capability asked" aside="Cpk ≥" error={errors.cpk}>
+        <Field label="Capability asked" aside="Cpk ≥" error={errors.cpk?.message}>
           {({ id, describedBy, invalid }) => (
             <Input
               id={id}
               aria-describedby={describedBy}
               invalid={invalid}
               inputMode="decimal"
-              value={cpk}
-              onChange={(e) => setCpk(e.target.value)}
               className="num w-32"
+              {...form.register("cpk")}
             />
           )}
         </Field>
-        <Field label="Note to the supplier" aside="optional" error={errors.note}>
+        <Field label="Note to the supplier" aside="optional" error={errors.note?.message}>
           {({ id, describedBy, invalid }) => (
-            <Textarea
-              id={id}
-              aria-describedby={describedBy}
-              invalid={invalid}
-              rows={2}
-              value={note}
-              onChange={(e) => setNote(e.target.value)}
-            />
+            <Textarea id={id} aria-describedby={describedBy} invalid={invalid} rows={2} {...form.register("note")} />
           )}
         </Field>
         <Field
           label="3D snapshot"
           aside="PNG"
-          error={errors.snapshotPng || undefined}
+          error={errors.snapshotPng?.message}
           hint={hasSnapshot ? "The cover shows this picture." : "The cover shows a schematic side view."}
         >
           {({ id, describedBy }) => (
@@ -244,14 +247,14 @@ export function EditDraftDialog({ report, onClose }: Base) {
                 className="block min-w-0 flex-1 text-xs text-ink/70 file:mr-3 file:h-7.5 file:rounded-md file:border file:border-line file:bg-panel file:px-3 file:text-xs file:font-semibold file:text-ink"
               />
               {hasSnapshot ? (
-                <Button size="sm" variant="ghost" onClick={() => setSnapshot(null)}>
+                <Button size="sm" variant="ghost" onClick={() => form.setValue("snapshotPng", null)}>
                   Remove
                 </Button>
               ) : null}
             </div>
           )}
         </Field>
-        {errors._form ? <Alert>{errors._form}</Alert> : null}
+        {errors.root?.server ? <Alert>{errors.root.server.message}</Alert> : null}
       </div>
     </Dialog>
   );

@@ -1,10 +1,12 @@
-import { useState, type FormEvent } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
 import { REPORT_FILE_KINDS, SendReportSchema, type Report, type ReportFileKind, type SendResult } from "@shared/schemas/reports";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Input, Textarea } from "@frontend/components/ui/field";
-import { parseForm, sentence, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { firstErrorMessage, sentence, setServerErrors } from "@frontend/lib/form";
 import { useSendReport } from "../api/send-report";
 import { reportTitle } from "./report-status";
 
@@ -19,10 +21,28 @@ export function splitAddresses(text: string): string[] {
 }
 
 /** The first message about a list field or any of its items ("cc" or "cc.2"). */
-function listError(errors: FieldErrors, key: string): string | undefined {
-  const hit = Object.entries(errors).find(([k]) => k === key || k.startsWith(`${key}.`) || k.startsWith(`${key}[`));
-  return hit ? sentence(hit[1]) : undefined;
+function listError(errors: unknown): string | undefined {
+  const message = firstErrorMessage(errors);
+  return message === undefined ? undefined : sentence(message);
 }
+
+/** The dialog as typed: no recipients chosen yet means every contact; CC is one text. */
+const SendFormSchema = z
+  .object({
+    message: z.string(),
+    contactIds: z.array(z.string()).nullable(),
+    cc: z.string(),
+    attachments: z.array(z.enum(REPORT_FILE_KINDS)),
+  })
+  .transform((v): z.input<typeof SendReportSchema> => ({
+    message: v.message.trim() || undefined,
+    ...(v.contactIds !== null ? { contactIds: v.contactIds } : {}),
+    cc: splitAddresses(v.cc),
+    attachments: REPORT_FILE_KINDS.filter((k) => v.attachments.includes(k)),
+  }))
+  .pipe(SendReportSchema);
+type SendForm = z.input<typeof SendFormSchema>;
+const BLANK: SendForm = { message: "", contactIds: null, cc: "", attachments: ["pdf"] };
 
 /**
  * Sending a released report: which of the supplier's contacts receive it (all by default),
@@ -40,29 +60,16 @@ export function SendDialog({
   onSent: (r: SendResult) => void;
 }) {
   const send = useSendReport();
-  const [chosen, setChosen] = useState<string[] | null>(null);
-  const [cc, setCc] = useState("");
-  const [attachments, setAttachments] = useState<ReportFileKind[]>(["pdf"]);
-  const [message, setMessage] = useState("");
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const form = useForm({ resolver: zodResolver(SendFormSchema), defaultValues: BLANK });
+  const { errors } = form.formState;
+  const chosen = form.watch("contactIds");
+  const attachments = form.watch("attachments");
   const picked = chosen ?? (contacts ?? []).map((c) => c.id);
   const toggle = <T,>(list: T[], v: T) => (list.includes(v) ? list.filter((x) => x !== v) : [...list, v]);
 
-  function submit(e: FormEvent<HTMLFormElement>) {
-    e.preventDefault();
-    const parsed = parseForm(SendReportSchema, {
-      message: message.trim() || undefined,
-      contactIds: picked,
-      cc: splitAddresses(cc),
-      attachments: REPORT_FILE_KINDS.filter((k) => attachments.includes(k)),
-    });
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
-    send.mutate(
-      { id: report.id, body: parsed.data },
-      { onSuccess: (r) => (onSent(r), onClose()), onError: (err) => setErrors(serverFieldErrors(err)) },
-    );
-  }
+  const submit = form.handleSubmit((body) =>
+    send.mutate({ id: report.id, body }, { onSuccess: (r) => (onSent(r), onClose()), onError: (err) => setServerErrors(form, err) }),
+  );
 
   const none = contacts !== null && contacts.length === 0;
   return (
@@ -98,7 +105,7 @@ export function SendDialog({
                     <input
                       type="checkbox"
                       checked={picked.includes(c.id)}
-                      onChange={() => setChosen(toggle(picked, c.id))}
+                      onChange={() => form.setValue("contactIds", toggle(picked, c.id))}
                       className="accent-[var(--color-mag)]"
                     />
                     <span className="font-semibold text-ink">{c.name}</span>
@@ -107,21 +114,18 @@ export function SendDialog({
                 </li>
               ))}
             </ul>
-            {listError(errors, "contactIds") ? (
-              <p className="mt-1 text-xs font-medium text-fail">{listError(errors, "contactIds")}</p>
-            ) : null}
+            {listError(errors.contactIds) ? <p className="mt-1 text-xs font-medium text-fail">{listError(errors.contactIds)}</p> : null}
           </fieldset>
         )}
-        <Field label="CC" aside="optional" hint="Addresses that get a copy, separated by commas." error={listError(errors, "cc")}>
+        <Field label="CC" aside="optional" hint="Addresses that get a copy, separated by commas." error={listError(errors.cc)}>
           {({ id, describedBy, invalid }) => (
             <Input
               id={id}
               aria-describedby={describedBy}
               invalid={invalid}
-              value={cc}
-              onChange={(e) => setCc(e.target.value)}
               placeholder="buyer@example.com"
               autoComplete="off"
+              {...form.register("cc")}
             />
           )}
         </Field>
@@ -133,7 +137,7 @@ export function SendDialog({
                 <input
                   type="checkbox"
                   checked={attachments.includes(k)}
-                  onChange={() => setAttachments(toggle(attachments, k))}
+                  onChange={() => form.setValue("attachments", toggle(attachments, k))}
                   className="accent-[var(--color-mag)]"
                 />
                 {FILE_LABEL[k]}
@@ -143,23 +147,20 @@ export function SendDialog({
           <p className="mt-1 text-xs text-ink/55">
             {attachments.length === 0 ? "Nothing attached: the message carries the link only." : "The files as released, unchanged."}
           </p>
-          {listError(errors, "attachments") ? (
-            <p className="mt-1 text-xs font-medium text-fail">{listError(errors, "attachments")}</p>
-          ) : null}
+          {listError(errors.attachments) ? <p className="mt-1 text-xs font-medium text-fail">{listError(errors.attachments)}</p> : null}
         </fieldset>
-        <Field label="Message" aside="optional" error={errors.message}>
+        <Field label="Message" aside="optional" error={errors.message?.message}>
           {({ id, describedBy }) => (
             <Textarea
               id={id}
               aria-describedby={describedBy}
               rows={3}
-              value={message}
-              onChange={(e) => setMessage(e.target.value)}
               placeholder="A line for the supplier, e.g. when you need the acknowledgement."
+              {...form.register("message")}
             />
           )}
         </Field>
-        {errors._form ? <Alert>{errors._form}</Alert> : null}
+        {errors.root?.server ? <Alert>{errors.root.server.message}</Alert> : null}
       </div>
     </Dialog>
   );

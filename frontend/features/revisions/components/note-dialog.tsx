@@ -3,14 +3,16 @@
  * too). Saved with the version the draft was read at, like every change of a shared record: a
  * stale one is refused and said so, nothing overwritten.
  */
-import { useState, type FormEvent } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
 import type { Revision } from "@shared/schemas/revisions";
 import { UpdateRevisionSchema } from "@shared/schemas/revisions";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Dialog } from "@frontend/components/ui/dialog";
-import { Field, Textarea } from "@frontend/components/ui/field";
+import { setServerErrors } from "@frontend/lib/form";
 import { useUpdateRevision } from "../api/update-revision";
+import { NoteField } from "./note-field";
 
 /** Mount it when it opens (a fresh form with the note as it is now). */
 export function NoteDialog({
@@ -26,16 +28,12 @@ export function NoteDialog({
   onSaved: (revision: Revision) => void;
 }) {
   const update = useUpdateRevision();
-  const [note, setNote] = useState(revision.note);
-  const [error, setError] = useState<string | null>(null);
+  const form = useForm({ resolver: zodResolver(UpdateRevisionSchema), defaultValues: { note: revision.note } });
+  const { errors } = form.formState;
 
-  function onSubmit(event: FormEvent) {
-    event.preventDefault();
-    const parsed = UpdateRevisionSchema.safeParse({ note });
-    if (!parsed.success) return setError(parsed.error.issues[0]?.message ?? "the note is not valid");
-    setError(null);
-    update.mutate({ id: revision.id, version, changes: { note: parsed.data.note } }, { onSuccess: onSaved });
-  }
+  const onSubmit = form.handleSubmit(({ note }) =>
+    update.mutate({ id: revision.id, version, changes: { note } }, { onSuccess: onSaved, onError: (e) => setServerErrors(form, e) }),
+  );
 
   return (
     <Dialog
@@ -57,20 +55,8 @@ export function NoteDialog({
         </>
       }
     >
-      <Field label="What changed and why" error={error ?? undefined}>
-        {({ id, describedBy, invalid }) => (
-          <Textarea
-            id={id}
-            aria-describedby={describedBy}
-            invalid={invalid}
-            rows={4}
-            value={note}
-            onChange={(e) => setNote(e.target.value)}
-            maxLength={2000}
-          />
-        )}
-      </Field>
-      {update.isError ? <Alert className="mt-3">{update.error.message}</Alert> : null}
+      <NoteField label="What changed and why" error={errors.note?.message} rows={4} maxLength={2000} field={form.register("note")} />
+      {errors.root?.server ? <Alert className="mt-3">{errors.root.server.message}</Alert> : null}
     </Dialog>
   );
 }

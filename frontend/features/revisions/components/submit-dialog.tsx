@@ -3,18 +3,27 @@
  * note that says why (asked for on every revision after the first), and each requirement the
  * draft misses, by its study or the live estimate, which the engineer confirms before submitting.
  */
-import { useState, type FormEvent } from "react";
+import { useState } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
 import type { CheckSource, RequirementCheck, Revision } from "@shared/schemas/revisions";
 import { SubmitRevisionSchema } from "@shared/schemas/revisions";
 import { formatCount, formatWritten, formatYield } from "@shared/format";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Dialog } from "@frontend/components/ui/dialog";
-import { Field, Textarea } from "@frontend/components/ui/field";
 import { isApiError } from "@frontend/lib/api-client";
+import { setServerErrors } from "@frontend/lib/form";
 import { useRequirementCheck } from "../api/get-requirement-check";
 import { useSubmitRevision } from "../api/submit-revision";
+import { NoteField } from "./note-field";
 import { RevisionChanges } from "./revision-changes";
+
+/** A revision after the first says why it differs from the one before. */
+const NoteRequiredSchema = SubmitRevisionSchema.refine((v) => !!v.note, {
+  path: ["note"],
+  message: "say what changed and why: a revision after the first needs a note",
+});
 
 export const sourceWords = (s: CheckSource) =>
   s.kind === "study" ? `study ${s.number}` : `live estimate, ${formatCount(s.trials)} trials at ${s.inclinationDeg}° inclination`;
@@ -51,22 +60,20 @@ export function SubmitDialog({
 }) {
   const check = useRequirementCheck(revision.id, version, open);
   const submit = useSubmitRevision();
-  const [note, setNote] = useState(revision.note);
-  const [noteError, setNoteError] = useState<string | null>(null);
+  const noteRequired = revision.number > 1;
+  const form = useForm({
+    resolver: zodResolver(noteRequired ? NoteRequiredSchema : SubmitRevisionSchema),
+    defaultValues: { note: revision.note },
+  });
+  const { errors } = form.formState;
   const [confirmed, setConfirmed] = useState(false);
 
   const failing = check.data?.failing ?? [];
-  const noteRequired = revision.number > 1;
   const blocked = check.isPending || check.isError || (failing.length > 0 && !confirmed);
 
-  function onSubmit(event: FormEvent) {
-    event.preventDefault();
-    const parsed = SubmitRevisionSchema.safeParse({ note });
-    if (!parsed.success) return setNoteError(parsed.error.issues[0]?.message ?? "the note is not valid");
-    if (noteRequired && !parsed.data.note) return setNoteError("say what changed and why: a revision after the first needs a note");
-    setNoteError(null);
+  const onSubmit = form.handleSubmit(({ note }) =>
     submit.mutate(
-      { id: revision.id, version, note: parsed.data.note, confirmFailing: failing.length > 0 && confirmed ? true : undefined },
+      { id: revision.id, version, note, confirmFailing: failing.length > 0 && confirmed ? true : undefined },
       {
         onSuccess: onSubmitted,
         onError: (e) => {
@@ -75,11 +82,11 @@ export function SubmitDialog({
             setConfirmed(false);
             void check.refetch();
           }
-          if (isApiError(e) && e.fieldMessage("note")) setNoteError(e.fieldMessage("note")!);
+          setServerErrors(form, e);
         },
       },
-    );
-  }
+    ),
+  );
 
   return (
     <Dialog
@@ -104,24 +111,15 @@ export function SubmitDialog({
       <div className="mb-3">
         <RevisionChanges revisionId={revision.id} updatedAt={revision.updatedAt} />
       </div>
-      <Field
+      <NoteField
         label="What changed and why"
         aside={noteRequired ? "required" : "optional"}
-        error={noteError ?? undefined}
+        error={errors.note?.message}
         hint="The reviewer reads it beside the list of changes."
-      >
-        {({ id, describedBy, invalid }) => (
-          <Textarea
-            id={id}
-            aria-describedby={describedBy}
-            invalid={invalid}
-            rows={3}
-            value={note}
-            onChange={(e) => setNote(e.target.value)}
-            maxLength={2000}
-          />
-        )}
-      </Field>
+        rows={3}
+        maxLength={2000}
+        field={form.register("note")}
+      />
       <div className="mt-3 text-[13px]">
         {check.isPending ? (
           <p className="text-xs text-ink/55">Checking the requirements…</p>
@@ -158,9 +156,7 @@ export function SubmitDialog({
           </section>
         )}
       </div>
-      {submit.isError && !(isApiError(submit.error) && submit.error.fieldMessage("note")) ? (
-        <Alert className="mt-3">{submit.error.message}</Alert>
-      ) : null}
+      {errors.root?.server ? <Alert className="mt-3">{errors.root.server.message}</Alert> : null}
     </Dialog>
   );
 }

@@ -1,38 +1,32 @@
-import { useState, type FormEvent } from "react";
-import { CreateSupplierSchema, SupplierKindSchema, UpdateSupplierSchema, type Supplier } from "@shared/schemas/api";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
+import { CreateSupplierSchema, SupplierKindSchema, type Supplier } from "@shared/schemas/api";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Input, Select } from "@frontend/components/ui/field";
-import { parseForm, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { setServerErrors } from "@frontend/lib/form";
 import { useCreateSupplier } from "../api/create-supplier";
 import { useUpdateSupplier } from "../api/update-supplier";
 import { KIND_LABELS } from "./supplier-kind";
 
 /** Add a supplier company, or edit one when `supplier` is given. */
 export function SupplierFormDialog({ supplier, onClose }: { supplier?: Supplier; onClose: () => void }) {
-  const [name, setName] = useState(supplier?.name ?? "");
-  const [kind, setKind] = useState(supplier?.kind ?? "assembly");
-  const [errors, setErrors] = useState<FieldErrors>({});
+  // a new company and an edited one obey the same rules; an edit sends both fields
+  const form = useForm({
+    resolver: zodResolver(CreateSupplierSchema),
+    defaultValues: { name: supplier?.name ?? "", kind: SupplierKindSchema.catch("other").parse(supplier?.kind ?? "assembly") },
+  });
+  const { errors } = form.formState;
   const create = useCreateSupplier();
   const update = useUpdateSupplier();
   const pending = create.isPending || update.isPending;
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const onError = (error: unknown) => setErrors(serverFieldErrors(error));
-    if (supplier) {
-      const parsed = parseForm(UpdateSupplierSchema, { name, kind });
-      if (!parsed.ok) return setErrors(parsed.errors);
-      setErrors({});
-      update.mutate({ id: supplier.id, version: supplier.version, changes: parsed.data }, { onSuccess: onClose, onError });
-    } else {
-      const parsed = parseForm(CreateSupplierSchema, { name, kind });
-      if (!parsed.ok) return setErrors(parsed.errors);
-      setErrors({});
-      create.mutate(parsed.data, { onSuccess: onClose, onError });
-    }
-  }
+  const submit = form.handleSubmit((values) => {
+    const onError = (error: unknown) => setServerErrors(form, error);
+    if (supplier) update.mutate({ id: supplier.id, version: supplier.version, changes: values }, { onSuccess: onClose, onError });
+    else create.mutate(values, { onSuccess: onClose, onError });
+  });
 
   return (
     <Dialog
@@ -56,30 +50,15 @@ export function SupplierFormDialog({ supplier, onClose }: { supplier?: Supplier;
       }
     >
       <div className="space-y-4">
-        {errors._form ? <Alert>{errors._form}</Alert> : null}
-        <Field label="Company name" error={errors.name}>
+        {errors.root?.server ? <Alert>{errors.root.server.message}</Alert> : null}
+        <Field label="Company name" error={errors.name?.message}>
           {({ id, describedBy, invalid }) => (
-            <Input
-              id={id}
-              name="name"
-              autoComplete="organization"
-              value={name}
-              invalid={invalid}
-              aria-describedby={describedBy}
-              onChange={(e) => setName(e.target.value)}
-            />
+            <Input id={id} autoComplete="organization" invalid={invalid} aria-describedby={describedBy} {...form.register("name")} />
           )}
         </Field>
-        <Field label="What they supply" error={errors.kind}>
+        <Field label="What they supply" error={errors.kind?.message}>
           {({ id, describedBy, invalid }) => (
-            <Select
-              id={id}
-              name="kind"
-              value={kind}
-              invalid={invalid}
-              aria-describedby={describedBy}
-              onChange={(e) => setKind(e.target.value)}
-            >
+            <Select id={id} invalid={invalid} aria-describedby={describedBy} {...form.register("kind")}>
               {SupplierKindSchema.options.map((k) => (
                 <option key={k} value={k}>
                   {KIND_LABELS[k]}
