@@ -35,12 +35,16 @@ export default defineConfig({
     // own after the rest, so `npm test` starts them in a second vitest process beside the first
     // (package.json): they mostly wait on their server and chromium.
     maxWorkers: 2,
+    // `isolate: false` in the unit projects: each worker loads the modules once and runs its
+    // files one after another in that process, about half the CPU of a fresh module graph per
+    // file (docs/decisions/038-test-files-share-a-process.md). A file leaves no global state behind.
     projects: [
       {
         resolve: { alias },
         test: {
           name: "engine",
           root: here("."),
+          isolate: false,
           environment: "node",
           setupFiles: failOnErrors,
           include: ["tests/engine/**/*.test.ts"],
@@ -52,6 +56,7 @@ export default defineConfig({
         test: {
           name: "backend",
           root: here("."),
+          isolate: false,
           environment: "node",
           setupFiles: failOnErrors,
           include: ["tests/backend/**/*.test.ts"],
@@ -68,6 +73,7 @@ export default defineConfig({
         test: {
           name: "backend-pg",
           root: here("."),
+          isolate: false,
           environment: "node",
           setupFiles: failOnErrors,
           include: ["tests/backend/**/*.test.ts"],
@@ -84,6 +90,7 @@ export default defineConfig({
         test: {
           name: "frontend",
           root: here("."),
+          isolate: false,
           environment: "jsdom",
           setupFiles: failOnErrors,
           include: ["tests/frontend/**/*.test.tsx", "tests/frontend/**/*.test.ts"],

@@ -1,4 +1,4 @@
-import { betterAuth } from "better-auth";
+import { betterAuth, type BetterAuthRateLimitOptions } from "better-auth";
 import { APIError, createAuthMiddleware } from "better-auth/api";
 import { AccountUpdateSchema } from "@shared/schemas/api";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
@@ -47,7 +47,7 @@ export function createAuth({ db, baseURL, secret, trustedOrigins = [], signInPer
     session: { expiresIn: 60 * 60 * 24 * 7, updateAge: 60 * 60 * 24 },
     rateLimit: {
       enabled: true,
-      storage: "memory",
+      customStorage: rateLimitCounters(),
       window: 60,
       max: 300,
       customRules: { "/sign-in/email": { window: 60, max: signInPerMinute } },
@@ -60,6 +60,39 @@ export function createAuth({ db, baseURL, secret, trustedOrigins = [], signInPer
 }
 
 export type Auth = ReturnType<typeof createAuth>;
+
+type RateLimitStorage = NonNullable<BetterAuthRateLimitOptions["customStorage"]>;
+
+/**
+ * The rate limiter's counters, one set per auth instance. better-auth's own "memory" storage is
+ * a map in its module, shared by every app in the process: tests that start several apps in one
+ * process would count one another's sign-ins. A fixed window per key (client address and path),
+ * pruned of ended windows when it grows.
+ */
+function rateLimitCounters(maxKeys = 100_000): RateLimitStorage {
+  const windows = new Map<string, { count: number; endsAt: number }>();
+  return {
+    async consume(key, { window, max }) {
+      const now = Date.now();
+      if (windows.size >= maxKeys) {
+        for (const [k, w] of windows) if (now >= w.endsAt) windows.delete(k);
+        // still full of live windows: drop the oldest, as better-auth's own store does
+        for (const k of windows.keys()) {
+          if (windows.size < maxKeys) break;
+          windows.delete(k);
+        }
+      }
+      const current = windows.get(key);
+      if (!current || now >= current.endsAt) {
+        windows.set(key, { count: 1, endsAt: now + window * 1000 });
+        return { allowed: true, retryAfter: null };
+      }
+      if (current.count >= max) return { allowed: false, retryAfter: Math.ceil((current.endsAt - now) / 1000) };
+      current.count += 1;
+      return { allowed: true, retryAfter: null };
+    },
+  };
+}
 
 /**
  * Rules better-auth's own routes keep, whatever the client sends: a password change always ends

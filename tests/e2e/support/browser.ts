@@ -72,7 +72,13 @@ export async function openProjects(page: Page) {
   await page.getByRole("table", { name: "Projects" }).waitFor();
 }
 
+/**
+ * Full-page pictures of the screens for people to look at (tests/e2e/.artifacts/), taken only
+ * when E2E_SCREENSHOTS=1 (`npm run test:screenshots`): nothing asserts on them, and rendering
+ * some sixty full pages costs CI minutes. Files that check pixels take their own pictures.
+ */
 export async function screenshot(page: Page, name: string) {
+  if (process.env.E2E_SCREENSHOTS !== "1") return;
   mkdirSync(ARTIFACTS, { recursive: true });
   // Park the pointer on empty page space so no hover state is in the picture.
   await page.mouse.move(page.viewportSize()!.width - 4, page.viewportSize()!.height - 4);
