@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, sql } from "drizzle-orm";
-import { alias } from "drizzle-orm/pg-core";
+import { alias, type SelectedFields } from "drizzle-orm/pg-core";
 import type { z } from "zod";
 import { diffRevisions } from "@shared/revisions/diff";
 import type {
@@ -20,19 +20,19 @@ import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
 import { checkRequirements, checkStack } from "./stack-check";
 import { geometryWarnings } from "@shared/stack-geometry";
-import { validateStackFile } from "@shared/schemas/stack-file";
+import { validateStackFile, type StackFile } from "@shared/schemas/stack-file";
 import { formatWritten, formatYield } from "@shared/format";
 
 const creator = alias(users, "creator");
 const approver = alias(users, "approver");
 
-const summaryColumns = {
+/** A revision's own columns and who made and approved it: everything of the answer but its content. */
+const baseColumns = {
   id: stackRevisions.id,
   projectId: stackRevisions.projectId,
   number: stackRevisions.number,
   status: stackRevisions.status,
   version: stackRevisions.version,
-  stack: stackRevisions.stack,
   note: stackRevisions.note,
   basedOnId: stackRevisions.basedOnId,
   createdByName: creator.name,
@@ -43,21 +43,31 @@ const summaryColumns = {
   approvedAt: stackRevisions.approvedAt,
 };
 
-type SummaryRow = { stack: { name?: string }; createdAt: Date; updatedAt: Date; submittedAt: Date | null; approvedAt: Date | null } & Omit<
+type BaseRow = { createdAt: Date; updatedAt: Date; submittedAt: Date | null; approvedAt: Date | null } & Omit<
   RevisionSummary,
   "name" | "createdAt" | "updatedAt" | "submittedAt" | "approvedAt"
 >;
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
-function toSummary({ stack, ...r }: SummaryRow): RevisionSummary {
+function toSummary(r: BaseRow, name: string): RevisionSummary {
   return {
     ...r,
-    name: stack.name ?? "",
+    name,
     createdAt: r.createdAt.toISOString(),
     updatedAt: r.updatedAt.toISOString(),
     submittedAt: iso(r.submittedAt),
     approvedAt: iso(r.approvedAt),
   };
+}
+
+/** One revision's base columns and `extra`, in the workspace. */
+function selectRevision<E extends SelectedFields>(db: Database, workspaceId: string, id: string, extra: E) {
+  return db
+    .select({ ...baseColumns, ...extra })
+    .from(stackRevisions)
+    .leftJoin(creator, eq(creator.id, stackRevisions.createdBy))
+    .leftJoin(approver, eq(approver.id, stackRevisions.approvedBy))
+    .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, id)));
 }
 
 async function assertProject(db: Database, workspaceId: string, projectId: string) {
@@ -71,13 +81,13 @@ async function assertProject(db: Database, workspaceId: string, projectId: strin
 export async function listRevisions(db: Database, workspaceId: string, projectId: string): Promise<RevisionSummary[]> {
   await assertProject(db, workspaceId, projectId);
   const rows = await db
-    .select(summaryColumns)
+    .select({ ...baseColumns, stack: stackRevisions.stack })
     .from(stackRevisions)
     .leftJoin(creator, eq(creator.id, stackRevisions.createdBy))
     .leftJoin(approver, eq(approver.id, stackRevisions.approvedBy))
     .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.projectId, projectId)))
     .orderBy(desc(stackRevisions.number));
-  return rows.map(toSummary);
+  return rows.map(({ stack, ...r }) => toSummary(r, stack.name ?? ""));
 }
 
 export async function getRevisionRow(db: Database, workspaceId: string, id: string) {
@@ -86,6 +96,28 @@ export async function getRevisionRow(db: Database, workspaceId: string, id: stri
     .from(stackRevisions)
     .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, id)));
   return found(row, "The stack revision");
+}
+
+/** What a change checks before it writes (state, version, project), without the content. */
+async function revisionState(db: Database, workspaceId: string, id: string) {
+  const [row] = await db
+    .select({
+      id: stackRevisions.id,
+      projectId: stackRevisions.projectId,
+      number: stackRevisions.number,
+      status: stackRevisions.status,
+      version: stackRevisions.version,
+      note: stackRevisions.note,
+      requirements: stackRevisions.requirements,
+    })
+    .from(stackRevisions)
+    .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, id)));
+  return found(row, "The stack revision");
+}
+
+async function storedStack(db: Database, id: string) {
+  const [row] = await db.select({ stack: stackRevisions.stack }).from(stackRevisions).where(eq(stackRevisions.id, id));
+  return found(row, "The stack revision").stack;
 }
 
 export async function listComments(db: Database, targetType: "revision" | "report", targetId: string) {
@@ -99,20 +131,25 @@ export async function listComments(db: Database, targetType: "revision" | "repor
 }
 
 export async function getRevision(db: Database, workspaceId: string, id: string): Promise<Revision> {
-  const [row] = await db
-    .select({ ...summaryColumns, requirements: stackRevisions.requirements })
-    .from(stackRevisions)
-    .leftJoin(creator, eq(creator.id, stackRevisions.createdBy))
-    .leftJoin(approver, eq(approver.id, stackRevisions.approvedBy))
-    .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.id, id)));
-  const r = found(row, "The stack revision");
-  const { requirements, ...summary } = r;
+  const [row] = await selectRevision(db, workspaceId, id, { stack: stackRevisions.stack, requirements: stackRevisions.requirements });
+  const { stack, requirements, ...base } = found(row, "The stack revision");
+  return revisionAnswer(db, base, stack, requirements, warningsOf(stack));
+}
+
+/** The answer for a revision whose content is in hand (read, or just written). */
+async function revisionAnswer(
+  db: Database,
+  base: BaseRow,
+  stack: StackFile,
+  requirements: Requirement[],
+  warnings: Revision["warnings"],
+): Promise<Revision> {
   return {
-    ...toSummary(summary),
-    stack: r.stack,
+    ...toSummary(base, stack.name ?? ""),
+    stack,
     requirements,
-    comments: await listComments(db, "revision", id),
-    warnings: warningsOf(r.stack),
+    comments: await listComments(db, "revision", base.id),
+    warnings,
   };
 }
 
@@ -173,7 +210,7 @@ export async function updateRevision(
   input: z.infer<typeof UpdateRevisionSchema>,
   sent: number | undefined,
 ) {
-  const row = await getRevisionRow(db, actor.workspaceId, id);
+  const row = await revisionState(db, actor.workspaceId, id);
   const expected = requireVersion(`Stack revision ${row.number}`, row.version, sent);
   await assertProjectOpen(db, actor.workspaceId, row.projectId);
   if (row.status !== "draft") {
@@ -184,7 +221,9 @@ export async function updateRevision(
       "revision_frozen",
     );
   }
-  const stack = input.stack !== undefined ? checkStack(input.stack) : row.stack;
+  // the stored stack is read only when the change keeps it: a stack sent whole replaces it unread
+  const sentStack = input.stack !== undefined ? checkStack(input.stack) : undefined;
+  const stack = sentStack ?? (await storedStack(db, id));
   const requirements = input.requirements ?? row.requirements;
   checkRequirements(stack, requirements);
   await db.transaction((tx) =>
@@ -194,14 +233,26 @@ export async function updateRevision(
       id,
       expected,
       `Stack revision ${row.number}`,
-      { stack, requirements, ...(input.note !== undefined ? { note: input.note } : {}) },
+      {
+        ...(sentStack ? { stack: sentStack } : {}),
+        ...(input.requirements ? { requirements } : {}),
+        ...(input.note !== undefined ? { note: input.note } : {}),
+      },
       {
         where: eq(stackRevisions.status, "draft"),
         otherwise: () => conflict("This revision left its draft state meanwhile; reload it.", "revision_frozen"),
       },
     ),
   );
-  return getRevision(db, actor.workspaceId, id);
+  // answered from what was just written, not read back: a stack of about 1 MB costs to read
+  const [after] = await selectRevision(db, actor.workspaceId, id, {});
+  return revisionAnswer(
+    db,
+    found(after, "The stack revision"),
+    stack,
+    requirements,
+    sentStack ? geometryWarnings(sentStack) : warningsOf(stack),
+  );
 }
 
 type Transition = { from: Revision["status"]; to: Revision["status"]; action: string; verb: string };
@@ -244,7 +295,7 @@ export async function transitionRevision(
   { comment, note, check, confirmFailing }: TransitionOptions = {},
 ) {
   const t = TRANSITIONS[kind];
-  const row = await getRevisionRow(db, actor.workspaceId, id);
+  const row = await revisionState(db, actor.workspaceId, id);
   const expected = requireVersion(`Stack revision ${row.number}`, row.version, sent);
   await assertProjectOpen(db, actor.workspaceId, row.projectId);
   if (row.status !== t.from) {
@@ -314,7 +365,7 @@ export async function transitionRevision(
 }
 
 export async function addRevisionComment(db: Database, actor: Actor, id: string, body: string) {
-  const row = await getRevisionRow(db, actor.workspaceId, id);
+  const row = await revisionState(db, actor.workspaceId, id);
   await assertProjectOpen(db, actor.workspaceId, row.projectId);
   await db.transaction(async (tx) => {
     await tx.insert(comments).values({

@@ -4,6 +4,7 @@ import {
   doublePrecision,
   index,
   integer,
+  json,
   jsonb,
   pgTable,
   primaryKey,
@@ -38,8 +39,13 @@ export const stackRevisions = pgTable(
     /** 1, 2, 3… within the project. */
     number: integer("number").notNull(),
     status: text("status", { enum: REVISION_STATUSES }).notNull().default("draft"),
-    /** The stack file of MODEL.md §9 (validated before it is stored). */
-    stack: jsonb("stack").$type<StackFile>().notNull(),
+    /**
+     * The stack file of MODEL.md §9 (validated before it is stored). `json`, not `jsonb`: it is
+     * only ever stored and read whole, never queried inside, and a stack may hold up to 2 × 10^5
+     * measured values, which jsonb converts one by one to and from its numeric form on every
+     * save and read (about 1 MB took 3 times as long to write as json text; docs/security.md).
+     */
+    stack: json("stack").$type<StackFile>().notNull(),
     /** The requirements the stack must meet: [{metric, max, yield}]. */
     requirements: jsonb("requirements").$type<Requirement[]>().notNull().default([]),
     note: text("note").notNull().default(""),

@@ -1,0 +1,1 @@
+ALTER TABLE "stack_revisions" ALTER COLUMN "stack" SET DATA TYPE json;
