@@ -3,16 +3,19 @@
  * frozen revisions; reviewers approve an in-review revision or send it back with a
  * reason; everyone who can read leaves notes.
  */
-import { useState, type FormEvent } from "react";
+import { useState } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
 import type { Me } from "@shared/schemas/api";
-import { CommentBodySchema, ReturnRevisionSchema, type Revision } from "@shared/schemas/revisions";
+import { ApproveRevisionSchema, CommentBodySchema, ReturnRevisionSchema, type Revision } from "@shared/schemas/revisions";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Dialog } from "@frontend/components/ui/dialog";
-import { Field, Textarea } from "@frontend/components/ui/field";
+import { Textarea } from "@frontend/components/ui/field";
 import { CheckIcon } from "@frontend/components/ui/icons";
 import {
   NoteDialog,
+  NoteField,
   RevisionChanges,
   SubmitDialog,
   useAddRevisionComment,
@@ -21,9 +24,12 @@ import {
   useReturnRevision,
 } from "@frontend/features/revisions";
 import { cn } from "@frontend/lib/cn";
-import { sentence } from "@frontend/lib/form";
+import { sentence, setServerErrors } from "@frontend/lib/form";
 import { formatDateTime, initials } from "@frontend/lib/format";
 import { can } from "@frontend/lib/permissions";
+
+// the reviewer's dialog holds one text either way (sending back says why; an approval's may be blank)
+const ApproveFormSchema = ApproveRevisionSchema.required({ comment: true });
 
 export function ReviewActions({
   revision,
@@ -53,8 +59,11 @@ export function ReviewActions({
   /** the draft's version once its last edits are saved: what the submit or the note is made on */
   const [savedAt, setSavedAt] = useState(0);
   const [flushing, setFlushing] = useState(false);
-  const [comment, setComment] = useState("");
-  const [commentError, setCommentError] = useState<string | null>(null);
+  const review = useForm<{ comment: string }, unknown, { comment: string }>({
+    resolver: dialog === "return" ? zodResolver(ReturnRevisionSchema) : zodResolver(ApproveFormSchema),
+    defaultValues: { comment: "" },
+  });
+  const reviewErrors = review.formState.errors;
   const [submitError, setSubmitError] = useState<string | null>(null);
 
   /** Saves the last edits, then opens the submit (or note) dialog on the version they were saved at. */
@@ -80,29 +89,14 @@ export function ReviewActions({
     setDialog(null);
   };
 
-  function onReview(event: FormEvent) {
-    event.preventDefault();
-    if (dialog === "return") {
-      const parsed = ReturnRevisionSchema.safeParse({ comment });
-      if (!parsed.success) {
-        setCommentError(parsed.error.issues[0]?.message ?? "say why the revision goes back");
-        return;
-      }
-      sendBack.mutate(
-        { id: revision.id, version: version(), comment: parsed.data.comment },
-        { onSuccess: (r) => (onMoved(r), setDialog(null)) },
-      );
-    } else {
-      approve.mutate(
-        { id: revision.id, version: version(), comment: comment.trim() || undefined },
-        { onSuccess: (r) => (onMoved(r), setDialog(null)) },
-      );
-    }
-  }
+  const onReview = review.handleSubmit(({ comment }) => {
+    const done = { onSuccess: (r: Revision) => (onMoved(r), setDialog(null)), onError: (e: unknown) => setServerErrors(review, e) };
+    if (dialog === "return") sendBack.mutate({ id: revision.id, version: version(), comment }, done);
+    else approve.mutate({ id: revision.id, version: version(), comment: comment || undefined }, done);
+  });
 
   const open = (d: "approve" | "return") => {
-    setComment("");
-    setCommentError(null);
+    review.reset({ comment: "" });
     approve.reset();
     sendBack.reset();
     setDialog(d);
@@ -169,24 +163,15 @@ export function ReviewActions({
         <div className="mb-3">
           <RevisionChanges revisionId={revision.id} updatedAt={revision.updatedAt} />
         </div>
-        <Field
+        <NoteField
           label={dialog === "return" ? "Reason" : "Comment"}
           aside={dialog === "return" ? undefined : "optional"}
-          error={commentError ?? undefined}
-        >
-          {({ id, describedBy, invalid }) => (
-            <Textarea
-              id={id}
-              aria-describedby={describedBy}
-              invalid={invalid}
-              rows={4}
-              value={comment}
-              onChange={(e) => setComment(e.target.value)}
-              maxLength={4000}
-            />
-          )}
-        </Field>
-        {reviewMutation.isError ? <Alert className="mt-3">{reviewMutation.error.message}</Alert> : null}
+          error={reviewErrors.comment?.message}
+          rows={4}
+          maxLength={4000}
+          field={review.register("comment")}
+        />
+        {reviewErrors.root?.server ? <Alert className="mt-3">{reviewErrors.root.server.message}</Alert> : null}
       </Dialog>
 
       {dialog === "submit" ? (
@@ -215,8 +200,8 @@ const KIND_LABEL: Record<string, string> = { approved: "approved", returned: "se
 
 export function ReviewNotes({ revision }: { revision: Revision }) {
   const add = useAddRevisionComment(revision);
-  const [body, setBody] = useState("");
-  const [error, setError] = useState<string | null>(null);
+  const form = useForm({ resolver: zodResolver(CommentBodySchema), defaultValues: { body: "" } });
+  const error = form.formState.errors.body?.message ?? form.formState.errors.root?.server?.message;
   return (
     <div className="flex flex-col">
       {revision.comments.length === 0 ? (
@@ -244,28 +229,20 @@ export function ReviewNotes({ revision }: { revision: Revision }) {
       )}
       <form
         className="flex items-start gap-2 border-t border-line px-3.5 py-2.5"
-        onSubmit={(e) => {
-          e.preventDefault();
-          const parsed = CommentBodySchema.safeParse({ body });
-          if (!parsed.success) {
-            setError(parsed.error.issues[0]?.message ?? "comment must not be empty");
-            return;
-          }
-          setError(null);
-          add.mutate({ id: revision.id, body: parsed.data.body }, { onSuccess: () => setBody("") });
-        }}
+        onSubmit={form.handleSubmit(({ body }) =>
+          add.mutate({ id: revision.id, body }, { onSuccess: () => form.reset(), onError: (e) => setServerErrors(form, e) }),
+        )}
       >
         <div className="min-w-0 flex-1">
           <Textarea
             aria-label="New note"
             rows={2}
             placeholder="Add a note for the engineer or the reviewer"
-            value={body}
-            onChange={(e) => setBody(e.target.value)}
             invalid={!!error}
             className="text-xs"
+            {...form.register("body")}
           />
-          {error || add.isError ? <p className="mt-1 text-[11px] text-fail">{sentence(error ?? add.error?.message ?? "")}</p> : null}
+          {error ? <p className="mt-1 text-[11px] text-fail">{sentence(error)}</p> : null}
         </div>
         <Button size="sm" type="submit" pending={add.isPending}>
           Add note

@@ -1,4 +1,6 @@
-import { useState, type FormEvent } from "react";
+import { useState } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
 import { CreateContactSchema, type Supplier } from "@shared/schemas/api";
 import { Badge } from "@frontend/components/ui/badge";
 import { Button, IconButton } from "@frontend/components/ui/button";
@@ -6,7 +8,7 @@ import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
 import { Input } from "@frontend/components/ui/field";
 import { CloseIcon, MailIcon, PencilIcon, PlusIcon, TrashIcon } from "@frontend/components/ui/icons";
 import { initials } from "@frontend/lib/format";
-import { parseForm, sentence, serverFieldErrors, type FieldErrors } from "@frontend/lib/form";
+import { sentence, setServerErrors } from "@frontend/lib/form";
 import { useCreateContact } from "../api/create-contact";
 import { useDeleteContact } from "../api/delete-contact";
 import { useDeleteSupplier } from "../api/delete-supplier";
@@ -146,41 +148,27 @@ export function SupplierCard({ supplier, canManage }: { supplier: Supplier; canM
 }
 
 function AddContactForm({ supplierId, onDone }: { supplierId: string; onDone: () => void }) {
-  const [name, setName] = useState("");
-  const [email, setEmail] = useState("");
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const form = useForm({ resolver: zodResolver(CreateContactSchema), defaultValues: { name: "", email: "" } });
+  const { errors } = form.formState;
   const create = useCreateContact();
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const parsed = parseForm(CreateContactSchema, { name, email });
-    if (!parsed.ok) return setErrors(parsed.errors);
-    setErrors({});
-    create.mutate({ supplierId, contact: parsed.data }, { onSuccess: onDone, onError: (error) => setErrors(serverFieldErrors(error)) });
-  }
+  const submit = form.handleSubmit((contact) =>
+    create.mutate({ supplierId, contact }, { onSuccess: onDone, onError: (error) => setServerErrors(form, error) }),
+  );
 
-  const first = errors.name ?? errors.email ?? errors._form;
+  const first = errors.name?.message ?? errors.email?.message ?? errors.root?.server?.message;
   const message = first ? sentence(first) : undefined;
   return (
     <form onSubmit={submit} noValidate aria-label="Add contact" className="space-y-2">
       <div className="grid grid-cols-2 gap-2">
-        <Input
-          aria-label="Contact name"
-          placeholder="Name"
-          autoFocus
-          value={name}
-          invalid={!!errors.name}
-          onChange={(e) => setName(e.target.value)}
-          compact
-        />
+        <Input aria-label="Contact name" placeholder="Name" autoFocus invalid={!!errors.name} compact {...form.register("name")} />
         <Input
           aria-label="Contact e-mail"
           type="email"
           placeholder="name@supplier.com"
-          value={email}
           invalid={!!errors.email}
-          onChange={(e) => setEmail(e.target.value)}
           compact
+          {...form.register("email")}
         />
       </div>
       {message ? (

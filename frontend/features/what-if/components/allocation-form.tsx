@@ -1,4 +1,7 @@
-import { useMemo, useState, type FormEvent } from "react";
+import { useMemo } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
 import { stackSources } from "@shared/datasets/sources";
 import type { CreateAllocation } from "@shared/schemas/what-if";
 import type { StackFile } from "@shared/schemas/stack-file";
@@ -8,11 +11,39 @@ import { unitText } from "@shared/format";
 import { Button } from "@frontend/components/ui/button";
 import { Input } from "@frontend/components/ui/field";
 import { Table, TableFrame, Td, Th, THead, Tr } from "@frontend/components/ui/table";
+import { firstErrorMessage } from "@frontend/lib/form";
 
-type Row = { id: string; unit: "um" | "deg"; current: number; free: boolean; a: string; b: string; k: string; min: string; max: string };
+const RowSchema = z.object({
+  id: z.string(),
+  unit: z.enum(["um", "deg"]),
+  current: z.number(),
+  free: z.boolean(),
+  a: z.string(),
+  b: z.string(),
+  k: z.string(),
+  min: z.string(),
+  max: z.string(),
+});
+type Row = z.infer<typeof RowSchema>;
 
 const num = (s: string) => (s.trim() === "" ? NaN : Number(s));
 const short = (v: number) => String(Number(v.toPrecision(3)));
+
+/** The table as typed, turned into what an allocation asks for: the free sources with their cost curves and bounds. */
+const AllocationFormSchema = z.object({ rows: z.array(RowSchema) }).transform(({ rows }, ctx): Omit<CreateAllocation, "study"> => {
+  const free = rows.filter((r) => r.free);
+  const bad = free.find((r) => !(num(r.b) > 0 && num(r.k) > 0 && num(r.a) >= 0 && num(r.min) > 0 && num(r.max) > num(r.min)));
+  const message = !free.length ? "free at least one source" : bad ? `${bad.id}: a ≥ 0, b > 0, k > 0 and 0 < min < max` : null;
+  if (message) {
+    ctx.addIssue({ code: "custom", path: ["rows"], message });
+    return z.NEVER;
+  }
+  return {
+    free: free.map((r) => r.id),
+    costs: Object.fromEntries(free.map((r) => [r.id, { a: num(r.a), b: num(r.b), k: num(r.k) }])),
+    bounds: Object.fromEntries(free.map((r) => [r.id, { min: num(r.min), max: num(r.max) }])),
+  };
+});
 
 /** The allocation's settings: which sources may change, their cost curves a + b/T^k and bounds (defaults per kind of source). */
 export function AllocationForm({
@@ -45,37 +76,22 @@ export function AllocationForm({
         }),
     [stack],
   );
-  const [rows, setRows] = useState(initial);
-  const [error, setError] = useState<string | null>(null);
-  const set = (i: number, patch: Partial<Row>) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, ...patch } : r)));
-
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    const free = rows.filter((r) => r.free);
-    if (!free.length) return setError("free at least one source");
-    const bad = free.find((r) => !(num(r.b) > 0 && num(r.k) > 0 && num(r.a) >= 0 && num(r.min) > 0 && num(r.max) > num(r.min)));
-    if (bad) return setError(`${bad.id}: a ≥ 0, b > 0, k > 0 and 0 < min < max`);
-    setError(null);
-    onSubmit({
-      free: free.map((r) => r.id),
-      costs: Object.fromEntries(free.map((r) => [r.id, { a: num(r.a), b: num(r.b), k: num(r.k) }])),
-      bounds: Object.fromEntries(free.map((r) => [r.id, { min: num(r.min), max: num(r.max) }])),
-    });
-  };
+  const form = useForm({ resolver: zodResolver(AllocationFormSchema), defaultValues: { rows: initial } });
+  const rows = form.watch("rows");
+  const error = firstErrorMessage(form.formState.errors.rows);
 
   const cell = (i: number, key: "a" | "b" | "k" | "min" | "max", label: string) => (
     <Input
       compact
       aria-label={`${rows[i].id} ${label}`}
       className="w-20 text-right"
-      value={rows[i][key]}
       disabled={!rows[i].free}
-      onChange={(e) => set(i, { [key]: e.target.value })}
+      {...form.register(`rows.${i}.${key}`)}
     />
   );
 
   return (
-    <form onSubmit={submit} className="flex flex-col gap-3">
+    <form onSubmit={form.handleSubmit(onSubmit)} className="flex flex-col gap-3">
       <p className="text-[13px] text-ink/70">
         Cost of holding a tolerance T: a + b / T<sup>k</sup>, in relative units. The starting values per kind of source (
         {Object.values(DEFAULT_COSTS)
@@ -102,12 +118,7 @@ export function AllocationForm({
             {rows.map((r, i) => (
               <Tr key={r.id}>
                 <Td>
-                  <input
-                    type="checkbox"
-                    aria-label={`${r.id} free`}
-                    checked={r.free}
-                    onChange={(e) => set(i, { free: e.target.checked })}
-                  />
+                  <input type="checkbox" aria-label={`${r.id} free`} {...form.register(`rows.${i}.free`)} />
                 </Td>
                 <Td>
                   <span className="font-semibold">{r.id}</span> <span className="text-ink/50">{sourceKind(r.id)}</span>

@@ -1,4 +1,7 @@
-import { useMemo, useState, type FormEvent } from "react";
+import { useMemo } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
 import { stackSources } from "@shared/datasets/sources";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
@@ -9,6 +12,7 @@ import { Button } from "@frontend/components/ui/button";
 import { Field, Input, Select } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
 import { isApiError } from "@frontend/lib/api-client";
+import { setServerErrors } from "@frontend/lib/form";
 import { useCancelSweep, useCreateSweep, useSweep } from "../api/what-if";
 import { defaultSourceValues, evenValues, parseValues } from "../lib/values";
 import { RunCancelled, RunProgress } from "./run-progress";
@@ -32,6 +36,16 @@ function defaultValues(p: ParameterOption): number[] {
   return p.id === INCLINATION ? evenValues(0, 80, 9) : defaultSourceValues(p.current);
 }
 
+/** The sweep form as typed: the values one text, trials a whole number of at least 1,000. */
+const SweepFormSchema = z.object({ parameter: z.string(), values: z.string(), trials: z.string() }).transform((v, ctx) => {
+  const parsed = parseValues(v.values);
+  if ("error" in parsed) ctx.addIssue({ code: "custom", path: ["values"], message: parsed.error });
+  const trials = Number(v.trials);
+  if (!Number.isInteger(trials) || trials < 1000)
+    ctx.addIssue({ code: "custom", path: ["trials"], message: "trials must be a whole number of at least 1,000" });
+  return "error" in parsed ? z.NEVER : { parameter: v.parameter, values: parsed.values, trials };
+});
+
 /** Sweep one parameter: the form, the run's progress, then one chart per requirement. */
 export function SweepPanel({
   revisionId,
@@ -49,32 +63,28 @@ export function SweepPanel({
   onRun: (id: string) => void;
 }) {
   const options = useMemo(() => parameterOptions(stack, study), [stack, study]);
-  const [parameter, setParameter] = useState(options[0]?.id ?? INCLINATION);
-  const option = options.find((o) => o.id === parameter) ?? options[0];
-  const [text, setText] = useState(() => defaultValues(option).join(", "));
-  const [trials, setTrials] = useState(String(Math.min(study.trials, 20_000)));
-  const [formError, setFormError] = useState<string | null>(null);
+  const first = options[0];
+  const form = useForm({
+    resolver: zodResolver(SweepFormSchema),
+    defaultValues: {
+      parameter: first?.id ?? INCLINATION,
+      values: first ? defaultValues(first).join(", ") : "",
+      trials: String(Math.min(study.trials, 20_000)),
+    },
+  });
+  const { errors } = form.formState;
+  const parameter = form.watch("parameter");
+  const option = options.find((o) => o.id === parameter) ?? first;
   const create = useCreateSweep();
   const sweep = useSweep(runId);
   const cancel = useCancelSweep();
 
-  const choose = (id: string) => {
-    setParameter(id);
-    const o = options.find((x) => x.id === id);
-    if (o) setText(defaultValues(o).join(", "));
-  };
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    const parsed = parseValues(text);
-    if ("error" in parsed) return setFormError(parsed.error);
-    const n = Number(trials);
-    if (!Number.isInteger(n) || n < 1000) return setFormError("trials must be a whole number of at least 1,000");
-    setFormError(null);
+  const submit = form.handleSubmit(({ parameter, values, trials }) =>
     create.mutate(
-      { revisionId, body: { study: { ...study, trials: n } as Record<string, unknown>, parameter, values: parsed.values } },
-      { onSuccess: (r) => onRun(r.id) },
-    );
-  };
+      { revisionId, body: { study: { ...study, trials } as Record<string, unknown>, parameter, values } },
+      { onSuccess: (r) => onRun(r.id), onError: (e) => setServerErrors(form, e) },
+    ),
+  );
   const fieldErrors = isApiError(create.error) ? create.error.fields : undefined;
   const s = sweep.data;
 
@@ -85,7 +95,16 @@ export function SweepPanel({
           <form onSubmit={submit} className="grid gap-3 sm:grid-cols-[minmax(0,1.2fr)_minmax(0,2fr)_8rem_auto] sm:items-end">
             <Field label="Parameter" hint={option ? `today ${formatNumberUnit(option.current, option.unit, 4)}` : undefined}>
               {({ id }) => (
-                <Select id={id} value={parameter} onChange={(e) => choose(e.target.value)}>
+                <Select
+                  id={id}
+                  {...form.register("parameter", {
+                    onChange: (e: { target: { value: string } }) => {
+                      // a new parameter starts from its own range
+                      const o = options.find((x) => x.id === e.target.value);
+                      if (o) form.setValue("values", defaultValues(o).join(", "));
+                    },
+                  })}
+                >
                   {options.map((o) => (
                     <option key={o.id} value={o.id}>
                       {o.label}
@@ -94,15 +113,15 @@ export function SweepPanel({
                 </Select>
               )}
             </Field>
-            <Field
-              label="Values"
-              hint="up to 25, separated by commas"
-              error={formError ?? fieldErrors?.find((f) => f.path.startsWith("values"))?.message}
-            >
-              {({ id, invalid }) => <Input id={id} invalid={invalid} value={text} onChange={(e) => setText(e.target.value)} />}
+            <Field label="Values" hint="up to 25, separated by commas" error={errors.values?.message}>
+              {({ id, describedBy, invalid }) => (
+                <Input id={id} invalid={invalid} aria-describedby={describedBy} {...form.register("values")} />
+              )}
             </Field>
-            <Field label="Trials per point">
-              {({ id }) => <Input id={id} inputMode="numeric" value={trials} onChange={(e) => setTrials(e.target.value)} />}
+            <Field label="Trials per point" error={errors.trials?.message}>
+              {({ id, describedBy, invalid }) => (
+                <Input id={id} inputMode="numeric" invalid={invalid} aria-describedby={describedBy} {...form.register("trials")} />
+              )}
             </Field>
             <Button type="submit" variant="primary" pending={create.isPending}>
               Run the sweep
