@@ -128,6 +128,36 @@ describe("stack revisions", () => {
     expect(draft.body).toMatchObject({ status: "draft", basedOnId: rev.id, name: "edited stack" });
   });
 
+  it("a change is answered with the revision as stored, whichever part of it changes", async () => {
+    const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
+    await t.call("POST", `/api/revisions/${rev.id}/comments`, { cookie: c.reviewer, body: { body: "Check the mag bond line." } });
+    const edited = structuredClone(reference);
+    edited.name = "answered as stored";
+    edited.elements[1].size.x += 0.5;
+    const changes = [
+      { stack: edited },
+      { requirements: [{ metric: "heading.maxAbsDeg", max: 1.5, yield: 0.99 }] },
+      { note: "only the note" },
+      { stack: reference, note: "stack and note" },
+    ];
+    for (const [i, body] of changes.entries()) {
+      const patched = await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.engineer, body, headers: await current(rev.id) });
+      expect(patched.status).toBe(200);
+      expect(patched.body.version).toBe(rev.version + i + 1);
+      const stored = await t.call("GET", `/api/revisions/${rev.id}`, { cookie: c.engineer });
+      expect(patched.body).toEqual(stored.body);
+      expect(patched.headers.get("etag")).toBe(stored.headers.get("etag"));
+    }
+    const last = (await t.call("GET", `/api/revisions/${rev.id}`, { cookie: c.engineer })).body;
+    expect(last).toMatchObject({
+      name: reference.name,
+      note: "stack and note",
+      requirements: [{ metric: "heading.maxAbsDeg", max: 1.5, yield: 0.99 }],
+      comments: [expect.objectContaining({ body: "Check the mag bond line." })],
+    });
+    expect(last.stack).toEqual(reference);
+  });
+
   it("a reviewer sends back with a comment, which is kept", async () => {
     const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
     await t.call("POST", `/api/revisions/${rev.id}/submit`, {
