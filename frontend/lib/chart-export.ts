@@ -168,18 +168,6 @@ export async function svgToPng(svg: ChartSvg, scale = 2): Promise<Blob> {
   }
 }
 
-/** Saves a blob under a file name through a temporary link. */
-export function downloadBlob(blob: Blob, fileName: string): void {
-  const url = URL.createObjectURL(blob);
-  const a = document.createElement("a");
-  a.href = url;
-  a.download = fileName;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
-}
-
 /** A file name part from free text: lower-case letters, digits, dots and dashes. */
 export function fileSlug(text: string, fallback = "chart"): string {
   return (

@@ -1,5 +1,4 @@
 import type { FieldValues, Path, UseFormReturn } from "react-hook-form";
-import type { z } from "zod";
 import { readableMessage } from "@shared/field-labels";
 import { isApiError } from "./api-client";
 
@@ -57,37 +56,4 @@ export function firstErrorMessage(errors: unknown): string | undefined {
     if (message !== undefined) return message;
   }
   return undefined;
-}
-
-export type FieldErrors = Record<string, string>;
-
-/** First message per top-level field of a failed zod parse. */
-export function zodFieldErrors(error: z.ZodError): FieldErrors {
-  const out: FieldErrors = {};
-  for (const issue of error.issues) {
-    const key = issue.path.length > 0 ? issue.path.map(String).join(".") : "_form";
-    if (!(key in out)) out[key] = issue.message;
-  }
-  return out;
-}
-
-/** Field messages from a 400 answer; anything without a field goes to `_form`. */
-export function serverFieldErrors(error: unknown): FieldErrors {
-  if (!isApiError(error)) return { _form: "Something went wrong. Try again." };
-  const out: FieldErrors = {};
-  for (const f of error.fields) {
-    const key = f.path || "_form";
-    if (!(key in out)) out[key] = f.message;
-  }
-  if (error.fields.length === 0) out._form = error.message;
-  return out;
-}
-
-/** Parses raw form values with a shared schema: the values, or errors per field. */
-export function parseForm<S extends z.ZodType>(
-  schema: S,
-  values: unknown,
-): { ok: true; data: z.infer<S> } | { ok: false; errors: FieldErrors } {
-  const result = schema.safeParse(values);
-  return result.success ? { ok: true, data: result.data } : { ok: false, errors: zodFieldErrors(result.error) };
 }

@@ -4,7 +4,8 @@
  * the nearest ChartFileName (the study, say) and the chart's own name.
  */
 import { createContext, useContext, useEffect, useRef, useState } from "react";
-import { chartSvg, downloadBlob, fileSlug, svgToPng } from "@frontend/lib/chart-export";
+import { chartSvg, fileSlug, svgToPng } from "@frontend/lib/chart-export";
+import { downloadBlob } from "@frontend/lib/download";
 import { cn } from "@frontend/lib/cn";
 
 /** What the files of the charts below are named after, e.g. "ridgeline-watch-study-2". */

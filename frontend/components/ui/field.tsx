@@ -23,8 +23,9 @@ type FieldProps = {
 /** Label, control, hint and error wired together for assistive technology. */
 export function Field({ label, error, hint, aside, className, children }: FieldProps) {
   const id = useId();
-  const hintId = hint ? `${id}-hint` : undefined;
   const errorId = error ? `${id}-error` : undefined;
+  // the hint gives way to the error: only what is on screen describes the control
+  const hintId = hint && !error ? `${id}-hint` : undefined;
   const describedBy = [errorId, hintId].filter(Boolean).join(" ") || undefined;
   return (
     <div className={cn("flex flex-col gap-1", className)}>

@@ -6,7 +6,6 @@
 export { ImportIssuesDialog } from "./components/import-issues-dialog";
 export { starterStack } from "./lib/starter-stack";
 export {
-  downloadText,
   MAX_IMPORT_BYTES,
   readStackFileText,
   stackFileName,

@@ -1,5 +1,8 @@
-import { useState, type FormEvent } from "react";
-import type { Member, Supplier } from "@shared/schemas/api";
+import { useState } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
+import { UpdateMemberSchema, type Member, type Supplier } from "@shared/schemas/api";
 import { RoleSchema, type Role } from "@shared/schemas/common";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button, IconButton } from "@frontend/components/ui/button";
@@ -10,6 +13,7 @@ import { TrashIcon } from "@frontend/components/ui/icons";
 import { RoleBadge } from "@frontend/components/ui/role-badge";
 import { Table, TableFrame, Td, Th, THead, Tr } from "@frontend/components/ui/table";
 import { formatDate, formatDateTime, initials } from "@frontend/lib/format";
+import { setServerErrors } from "@frontend/lib/form";
 import { ROLE_LABELS } from "@frontend/lib/permissions";
 import { useDeleteMember } from "../api/delete-member";
 import { useUpdateMember } from "../api/update-member";
@@ -134,19 +138,21 @@ export function MembersTable({ members, suppliers, currentUserId }: Props) {
   );
 }
 
+/** The one choice of the dialog: a supplier user belongs to a supplier company. */
+const SupplierRoleFormSchema = z
+  .object({ supplierId: z.string().min(1, { message: "Choose the supplier company this person works for." }) })
+  .transform((v): z.input<typeof UpdateMemberSchema> => ({ role: "supplier", supplierId: v.supplierId }))
+  .pipe(UpdateMemberSchema);
+
 function SupplierRoleDialog({ member, suppliers, onClose }: { member: Member; suppliers: Supplier[]; onClose: () => void }) {
-  const [supplierId, setSupplierId] = useState(member.supplierId ?? "");
-  const [error, setError] = useState<string | null>(null);
+  const form = useForm({ resolver: zodResolver(SupplierRoleFormSchema), defaultValues: { supplierId: member.supplierId ?? "" } });
+  const { errors } = form.formState;
+  const error = errors.supplierId?.message ?? errors.root?.server?.message;
   const update = useUpdateMember();
 
-  function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    if (!supplierId) return setError("Choose the supplier company this person works for.");
-    update.mutate(
-      { id: member.id, changes: { role: "supplier", supplierId } },
-      { onSuccess: onClose, onError: (e) => setError(e.message) },
-    );
-  }
+  const submit = form.handleSubmit((changes) =>
+    update.mutate({ id: member.id, changes }, { onSuccess: onClose, onError: (e) => setServerErrors(form, e) }),
+  );
 
   return (
     <Dialog
@@ -171,15 +177,9 @@ function SupplierRoleDialog({ member, suppliers, onClose }: { member: Member; su
       {suppliers.length === 0 ? (
         <Alert tone="info">Add a supplier company on the Suppliers page first.</Alert>
       ) : (
-        <Field label="Supplier company" error={error ?? undefined}>
+        <Field label="Supplier company" error={error}>
           {({ id, describedBy, invalid }) => (
-            <Select
-              id={id}
-              value={supplierId}
-              invalid={invalid}
-              aria-describedby={describedBy}
-              onChange={(e) => setSupplierId(e.target.value)}
-            >
+            <Select id={id} invalid={invalid} aria-describedby={describedBy} {...form.register("supplierId")}>
               <option value="">Choose…</option>
               {suppliers.map((s) => (
                 <option key={s.id} value={s.id}>

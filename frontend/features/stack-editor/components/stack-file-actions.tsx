@@ -2,7 +2,6 @@ import { useRef, useState } from "react";
 import type { Revision } from "@shared/schemas/revisions";
 import { Button } from "@frontend/components/ui/button";
 import {
-  downloadText,
   ImportIssuesDialog,
   MAX_IMPORT_BYTES,
   readStackFileText,
@@ -10,6 +9,7 @@ import {
   stackFileText,
   type ImportIssue,
 } from "@frontend/features/stack-files";
+import { downloadBlob } from "@frontend/lib/download";
 import { useEditor } from "./editor-context";
 
 const ImportIcon = () => (
@@ -93,7 +93,9 @@ export function StackFileActions({ revision, readOnly }: { revision: Revision; r
       <Button
         size="sm"
         icon={<ExportIcon />}
-        onClick={() => downloadText(stackFileText(doc.stack), stackFileName(doc.stack.name, revision.number))}
+        onClick={() =>
+          downloadBlob(new Blob([stackFileText(doc.stack)], { type: "application/json" }), stackFileName(doc.stack.name, revision.number))
+        }
         title="Download the stack file shown here"
       >
         Export

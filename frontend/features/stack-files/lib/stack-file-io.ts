@@ -53,14 +53,3 @@ export function stackFileName(name: string | undefined, revisionNumber: number):
       .slice(0, 80) || "stack";
   return `${slug}-rev${revisionNumber}.stack.json`;
 }
-
-export function downloadText(text: string, fileName: string, type = "application/json") {
-  const url = URL.createObjectURL(new Blob([text], { type }));
-  const a = document.createElement("a");
-  a.href = url;
-  a.download = fileName;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  window.setTimeout(() => URL.revokeObjectURL(url), 1000);
-}

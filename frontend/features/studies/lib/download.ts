@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { api } from "@frontend/lib/api-client";
+import { downloadBlob } from "@frontend/lib/download";
 
 const slug = (s: string) =>
   s
@@ -25,13 +26,5 @@ const RawResultSchema = z.object({ result: z.record(z.string(), z.unknown()) });
 /** Saves the result file (MODEL.md §11) as the server stored it. */
 export async function downloadResultFile(studyId: string, projectName: string, studyNumber: number) {
   const { result } = await api.get(`/api/studies/${encodeURIComponent(studyId)}`, RawResultSchema);
-  const blob = new Blob([JSON.stringify(result, null, 2) + "\n"], { type: "application/json" });
-  const url = URL.createObjectURL(blob);
-  const a = document.createElement("a");
-  a.href = url;
-  a.download = resultFileName(projectName, studyNumber);
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
+  downloadBlob(new Blob([JSON.stringify(result, null, 2) + "\n"], { type: "application/json" }), resultFileName(projectName, studyNumber));
 }
