@@ -1,7 +1,7 @@
-import { useEffect, useId, useRef, type FormEvent, type ReactNode } from "react";
-import { createPortal } from "react-dom";
+import { useId, useRef, type FormEvent, type ReactNode } from "react";
 import { cn } from "@frontend/lib/cn";
 import { CloseIcon } from "./icons";
+import { ModalDialog } from "./modal-dialog";
 
 type DialogProps = {
   open: boolean;
@@ -19,11 +19,8 @@ type DialogProps = {
 };
 
 /**
- * A modal dialog on the browser's own `<dialog>` (`showModal`): the page behind is inert, so focus
- * stays in without a trap of ours, and Escape asks to close (the `cancel` event). Focus moves to
- * the `[data-autofocus]` element or the first field, and returns to whatever opened the dialog.
- * Where `showModal` is missing (older browsers, jsdom) the dialog opens in place and Escape is
- * heard on the dialog itself.
+ * A modal dialog with a title, a body and a footer of buttons, on ModalDialog (the browser's own
+ * `<dialog>`). While `busy`, Escape and a press beside it do not close it.
  */
 export function Dialog({
   open,
@@ -37,41 +34,14 @@ export function Dialog({
   onSubmit,
   formLabel,
 }: DialogProps) {
-  const dialogRef = useRef<HTMLDialogElement>(null);
   const panelRef = useRef<HTMLDivElement>(null);
   const titleId = useId();
   const descriptionId = useId();
-  const busyRef = useRef(busy);
-  busyRef.current = busy;
-  const closingRef = useRef(false);
-
-  useEffect(() => {
-    const dialog = dialogRef.current;
-    if (!open || !dialog) return;
-    const opener = document.activeElement as HTMLElement | null;
-    closingRef.current = false;
-    if (typeof dialog.showModal === "function") dialog.showModal();
-    else dialog.setAttribute("open", "");
-    const panel = panelRef.current;
-    const first = panel?.querySelector<HTMLElement>("[data-autofocus]") ?? panel?.querySelector<HTMLElement>("input, select, textarea");
-    (first ?? panel)?.focus();
-    const { overflow } = document.body.style;
-    document.body.style.overflow = "hidden";
-    return () => {
-      document.body.style.overflow = overflow;
-      closingRef.current = true;
-      if (dialog.open) {
-        if (typeof dialog.close === "function") dialog.close();
-        else dialog.removeAttribute("open");
-      }
-      opener?.focus?.();
-    };
-  }, [open]);
 
   if (!open) return null;
 
   const requestClose = () => {
-    if (!busyRef.current) onClose();
+    if (!busy) onClose();
   };
 
   const body = (
@@ -85,31 +55,13 @@ export function Dialog({
     </>
   );
 
-  return createPortal(
-    <dialog
-      ref={dialogRef}
-      aria-labelledby={titleId}
-      aria-describedby={description ? descriptionId : undefined}
-      onCancel={(event) => {
-        // Escape (or another close request) in a modal dialog: we close through our caller
-        event.preventDefault();
-        requestClose();
-      }}
-      onKeyDown={(event) => {
-        // only where the browser has no modal dialog, so no `cancel` event comes
-        if (event.key === "Escape" && typeof dialogRef.current?.showModal !== "function") {
-          event.stopPropagation();
-          requestClose();
-        }
-      }}
-      onMouseDown={(event) => {
-        // the dialog covers the window around the panel: a press on it is a press beside the panel
-        if (event.target === event.currentTarget) requestClose();
-      }}
-      onClose={() => {
-        // the browser closed it on its own (a close request it would not let us refuse)
-        if (!closingRef.current) onClose();
-      }}
+  return (
+    <ModalDialog
+      onRequestClose={requestClose}
+      onClosedByBrowser={onClose}
+      panelRef={panelRef}
+      labelledBy={titleId}
+      describedBy={description ? descriptionId : undefined}
       className="fixed inset-0 z-50 m-0 h-full max-h-none w-full max-w-none overflow-y-auto bg-transparent p-0 px-4 pt-[12vh] pb-8 text-ink backdrop:bg-ink/45 backdrop:backdrop-blur-[1.5px]"
     >
       <div
@@ -149,7 +101,6 @@ export function Dialog({
           body
         )}
       </div>
-    </dialog>,
-    document.body,
+    </ModalDialog>
   );
 }

@@ -1,8 +1,8 @@
-import { lazy, Suspense, useEffect, useId, useRef } from "react";
-import { createPortal } from "react-dom";
+import { lazy, Suspense, useId, useRef } from "react";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
 import { CloseIcon } from "@frontend/components/ui/icons";
+import { ModalDialog } from "@frontend/components/ui/modal-dialog";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { formatCount } from "@shared/format";
 
@@ -13,7 +13,7 @@ export type WorstTrialPick = { metric: string; trialIndex: number; value: number
 
 /**
  * A large sheet over the results with the 3D view of one trial of the study, regenerated
- * from the seed. The viewer's own picker moves between the worst trials of every metric.
+ * from the seed, on the same modal primitive as every dialog. The viewer's own picker moves between the worst trials of every metric.
  */
 export function TrialViewerSheet({
   open,
@@ -41,38 +41,17 @@ export function TrialViewerSheet({
 }) {
   const titleId = useId();
   const panel = useRef<HTMLDivElement>(null);
-  const close = useRef(onClose);
-  close.current = onClose;
-
-  useEffect(() => {
-    if (!open) return;
-    const opener = document.activeElement as HTMLElement | null;
-    panel.current?.focus();
-    const onKey = (e: KeyboardEvent) => {
-      if (e.key === "Escape") {
-        e.stopPropagation();
-        close.current();
-      }
-    };
-    document.addEventListener("keydown", onKey);
-    const { overflow } = document.body.style;
-    document.body.style.overflow = "hidden";
-    return () => {
-      document.removeEventListener("keydown", onKey);
-      document.body.style.overflow = overflow;
-      opener?.focus?.();
-    };
-  }, [open]);
 
   if (!open) return null;
-  return createPortal(
-    <div className="fixed inset-0 z-50 flex items-stretch justify-center p-4 sm:p-6">
-      <div className="fixed inset-0 bg-ink/55 backdrop-blur-[1.5px]" aria-hidden="true" onMouseDown={onClose} />
+  return (
+    <ModalDialog
+      onRequestClose={onClose}
+      panelRef={panel}
+      labelledBy={titleId}
+      className="fixed inset-0 z-50 m-0 flex h-full max-h-none w-full max-w-none items-stretch justify-center bg-transparent p-4 sm:p-6 backdrop:bg-ink/55 backdrop:backdrop-blur-[1.5px]"
+    >
       <div
         ref={panel}
-        role="dialog"
-        aria-modal="true"
-        aria-labelledby={titleId}
         tabIndex={-1}
         className="relative flex w-full max-w-[1400px] flex-col overflow-hidden rounded-xl border border-line bg-panel shadow-[0_24px_60px_-12px_rgba(23,33,43,0.45)] focus:outline-none"
       >
@@ -112,7 +91,6 @@ export function TrialViewerSheet({
           </Suspense>
         </div>
       </div>
-    </div>,
-    document.body,
+    </ModalDialog>
   );
 }
