@@ -1,8 +1,9 @@
-import { useEffect, useMemo, useState, type FormEvent } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
+import { useForm, type FieldErrors, type Resolver } from "react-hook-form";
 import { Link } from "react-router";
 import type { RevisionSummary } from "@shared/schemas/revisions";
 import type { StackFile } from "@shared/schemas/stack-file";
-import type { StudySummary } from "@shared/schemas/studies";
+import type { CreateStudy, StudySummary } from "@shared/schemas/studies";
 import { isApiError } from "@frontend/lib/api-client";
 import { useCreateStudy } from "../api/create-study";
 import { useGeomagneticField } from "../api/get-geomagnetic-field";
@@ -25,6 +26,37 @@ function useDebounced<T>(value: T, ms: number): T {
     return () => window.clearTimeout(t);
   }, [value, ms]);
   return v;
+}
+
+type StudyContext = { stack: StackFile | null; fieldInclination: number | null };
+
+/**
+ * The form's check: the study file it makes, checked with the shared study schema and against the revision's stack
+ * (the stack and the site's inclination come as the form's context), each message under the field it names.
+ */
+const studyResolver: Resolver<StudyFormValues, StudyContext, CreateStudy> = (values, context) => {
+  const built = buildStudy(values, context?.stack ?? null, context?.fieldInclination);
+  if (built.ok) return { values: built.body, errors: {} };
+  const errors: Record<string, unknown> = {};
+  for (const [key, message] of Object.entries(built.errors)) {
+    // "tilts.2.pitchDeg" nests as react-hook-form keeps it; "tilts" may hold a message and its rows' at once
+    let at = errors;
+    for (const part of key.split(".")) at = (at[part] ??= {}) as Record<string, unknown>;
+    Object.assign(at, { type: "validate", message });
+  }
+  return { values: {}, errors: errors as FieldErrors<StudyFormValues> };
+};
+
+/** The messages by field name as the sections read them ("tilts.2.pitchDeg"); the server's form-level one is `_form`. */
+function flatErrors(errors: unknown, prefix = "", out: FormErrors = {}): FormErrors {
+  if (errors === null || typeof errors !== "object") return out;
+  for (const [key, value] of Object.entries(errors)) {
+    if (key === "ref" || key === "type" || key === "types") continue;
+    if (key === "message" && typeof value === "string") out[prefix] ??= value;
+    else if (prefix === "" && key === "root") flatErrors(value, "", out);
+    else flatErrors(value, prefix === "" ? (key === "server" ? "_form" : key) : `${prefix}.${key}`, out);
+  }
+  return out;
 }
 
 /**
@@ -52,20 +84,31 @@ export function StudySettingsForm({
   onStarted: (study: StudySummary) => void;
 }) {
   const [revisionId, setRevisionId] = useState(initialRevisionId);
-  const [v, setV] = useState<StudyFormValues>(initialValues);
-  const [errors, setErrors] = useState<FormErrors>({});
   const revision = useRevision(revisionId);
   const stack = (revision.data?.stack ?? null) as StackFile | null;
   const create = useCreateStudy();
 
+  // what the check needs beside the values: the revision's stack and the inclination shown for the site
+  const context = useRef<StudyContext>({ stack: null, fieldInclination: null });
+  const form = useForm<StudyFormValues, StudyContext, CreateStudy>({
+    defaultValues: initialValues,
+    resolver: (values, _context, options) => studyResolver(values, context.current, options),
+  });
+  const v = form.watch();
+  const errors = flatErrors(form.formState.errors);
+
+  // the sections are controlled inputs: a change is set on the form and clears that field's message
   const set = <K extends keyof StudyFormValues>(key: K, value: StudyFormValues[K]) => {
-    setV((old) => ({ ...old, [key]: value }));
-    if (errors[key as string]) setErrors(({ [key as string]: _, ...rest }) => rest);
+    form.setValue(key, value as never);
+    form.clearErrors(key);
   };
 
   const site = useDebounced(siteOf(v), 300);
   const field = useGeomagneticField(site);
   const fieldInclination = v.fieldFrom === "site" && site && field.data ? Math.round(field.data.inclinationDeg * 1e4) / 1e4 : null;
+  useEffect(() => {
+    context.current = { stack, fieldInclination };
+  }, [stack, fieldInclination]);
 
   const sensors = useMemo(() => {
     const els = (stack?.elements ?? []) as { id: string; kind: string }[];
@@ -81,25 +124,22 @@ export function StudySettingsForm({
   const work = attitudes && trials > 0 ? attitudes * trials : null;
   const estimate = work !== null ? estimateSeconds(work, budget.data?.workPerSecond) : null;
 
-  function submit(e: FormEvent<HTMLFormElement>) {
-    e.preventDefault();
-    const built = buildStudy(v, stack, fieldInclination);
-    if (!built.ok) {
-      setErrors(built.errors);
-      return;
-    }
-    setErrors({});
+  const submit = form.handleSubmit((body) =>
     create.mutate(
-      { revisionId, body: built.body },
+      { revisionId, body },
       {
         onSuccess: onStarted,
         onError: (err) => {
-          if (isApiError(err) && err.fields.length) setErrors(issuesToErrors(err.fields));
-          else setErrors({ _form: err.message });
+          // the server names the study file's paths ("study.tilts[2].pitchDeg"): each message goes to the field it came from
+          const issues = isApiError(err) && err.fields.length ? err.fields : [{ path: "", message: err.message }];
+          for (const [key, message] of Object.entries(issuesToErrors(issues))) {
+            if (key === "_form") form.setError("root.server", { type: "server", message });
+            else form.setError(key as keyof StudyFormValues, { type: "server", message });
+          }
         },
       },
-    );
-  }
+    ),
+  );
 
   const requirements = revision.data?.requirements ?? [];
 
