@@ -1,8 +1,9 @@
 /**
  * Versions of the records people share (revisions, projects, reports, data sets, suppliers):
- * a change names the version it was made on (If-Match, or `version` in the body), the write is
- * a conditional UPDATE on that version that adds one to it in the same transaction, and a stale
- * version is a 409 `conflict` carrying the current one, so no edit is silently overwritten.
+ * a change (a deletion too) names the version it was made on (If-Match, or `version` in the
+ * body), the write is a conditional UPDATE on that version that adds one to it (or a conditional
+ * DELETE) in the same transaction, and a stale version is a 409 `conflict` carrying the current
+ * one, so no edit is silently overwritten or deleted unseen.
  * docs/decisions/034-record-versions.md
  */
 import type { Request, Response } from "express";
@@ -14,7 +15,7 @@ import type { Database } from "../db/client";
 import { badRequest, HttpError, notFound, zodFields } from "./errors";
 import { send } from "./respond";
 
-type Executor = Pick<Database, "update" | "select">;
+type Executor = Pick<Database, "update" | "select" | "delete">;
 type VersionedTable = PgTable & { id: PgColumn; version: PgColumn };
 
 export const versionRequired = () =>
@@ -93,6 +94,34 @@ export async function writeVersioned<T extends VersionedTable>(
     .where(eq(table.id, id))) as Array<{ version: number }>;
   if (!row) throw notFound(what);
   if (expected !== undefined && row.version !== expected) throw staleVersion(what, row.version);
+  throw options.otherwise?.() ?? notFound(what);
+}
+
+/**
+ * The conditional delete: removes the row where the id matches, the version is still `expected`
+ * and `where` holds. Nothing removed → a stale version is a 409 `conflict` with the current one
+ * (the record stays), otherwise `otherwise()` or a 404. Call it inside the transaction that
+ * writes the activity record (and removes what hangs on the row).
+ */
+export async function deleteVersioned<T extends VersionedTable>(
+  tx: Executor,
+  table: T,
+  id: string,
+  expected: number,
+  what: string,
+  options: { where?: SQL; otherwise?: () => HttpError } = {},
+): Promise<void> {
+  const gone = (await tx
+    .delete(table)
+    .where(and(eq(table.id, id), eq(table.version, expected), options.where))
+    .returning({ id: table.id })) as Array<{ id: string }>;
+  if (gone.length) return;
+  const [row] = (await tx
+    .select({ version: table.version })
+    .from(table as PgTable)
+    .where(eq(table.id, id))) as Array<{ version: number }>;
+  if (!row) throw notFound(what);
+  if (row.version !== expected) throw staleVersion(what, row.version);
   throw options.otherwise?.() ?? notFound(what);
 }
 

@@ -142,7 +142,7 @@ export function datasetsRouter(deps: AppDeps) {
 
   r.delete("/datasets/:id", allow("datasets.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    await deleteDataset(db, actorOf(req), id);
+    await deleteDataset(db, actorOf(req), id, sentVersion(req));
     res.status(204).end();
   });
 

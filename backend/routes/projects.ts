@@ -45,7 +45,7 @@ export function projectsRouter({ db }: AppDeps) {
   r.delete("/projects/:id", allow("projects.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { confirm } = parse(DeleteProjectQuerySchema, req, "query");
-    await deleteProjectGuarded(db, actorOf(req), id, confirm);
+    await deleteProjectGuarded(db, actorOf(req), id, confirm, sentVersion(req));
     res.status(204).end();
   });
 

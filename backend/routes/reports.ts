@@ -77,7 +77,7 @@ export function reportsRouter(deps: AppDeps) {
 
   r.delete("/reports/:id", allow("reports.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    await deleteReport(db, actorOf(req), id);
+    await deleteReport(db, actorOf(req), id, sentVersion(req));
     res.status(204).end();
   });
 

@@ -52,7 +52,7 @@ export function suppliersRouter({ db }: AppDeps) {
 
   r.delete("/suppliers/:id", allow("suppliers.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    await deleteSupplier(db, actorOf(req).workspaceId, id);
+    await deleteSupplier(db, actorOf(req).workspaceId, id, sentVersion(req));
     res.status(204).end();
   });
 

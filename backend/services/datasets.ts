@@ -8,7 +8,7 @@ import type { StackFile } from "@shared/schemas/stack-file";
 import type { Database } from "../db/client";
 import { datasetMappings, datasets, projects, reports, stackRevisions, suppliers, users } from "../db/schema";
 import { badRequest, conflict, found } from "../lib/errors";
-import { requireVersion, writeVersioned } from "../lib/versions";
+import { deleteVersioned, requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
@@ -375,11 +375,14 @@ export async function updateDataset(
   return getDataset(db, actor.workspaceId, id);
 }
 
-export async function deleteDataset(db: Database, actor: Actor, id: string) {
+/** Deletes a data set on the version the caller last read (`sent`: none is a 428, a stale one a 409). */
+export async function deleteDataset(db: Database, actor: Actor, id: string, sent: number | undefined) {
   const ds = await datasetRow(db, actor.workspaceId, id);
   await assertProjectOpen(db, actor.workspaceId, ds.projectId);
+  const what = `The data set “${ds.name}”`;
+  const expected = requireVersion(what, ds.version, sent);
   await db.transaction(async (tx) => {
-    await tx.delete(datasets).where(eq(datasets.id, id));
+    await deleteVersioned(tx, datasets, id, expected, what);
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,
       projectId: ds.projectId,

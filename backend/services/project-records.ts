@@ -8,7 +8,7 @@ import { and, eq, isNotNull, sql } from "drizzle-orm";
 import type { Database } from "../db/client";
 import { projects, reports, stackRevisions } from "../db/schema";
 import { badRequest, conflict, found } from "../lib/errors";
-import { assertVersion, writeVersioned } from "../lib/versions";
+import { deleteVersioned, requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 
@@ -57,11 +57,20 @@ export async function assertProjectOpen(db: Database, workspaceId: string, proje
 }
 
 /**
- * Deletes a project. One that holds kept records answers 409 to everyone but an admin, and an
- * admin must confirm with the project's exact name; the workspace's activity says what went.
+ * Deletes a project, on the version the caller last read (`sent`: none is a 428, a stale one a
+ * 409). One that holds kept records answers 409 to everyone but an admin, and an admin must
+ * confirm with the project's exact name; the workspace's activity says what went.
  */
-export async function deleteProjectGuarded(db: Database, actor: Actor, id: string, confirm: string | undefined): Promise<void> {
+export async function deleteProjectGuarded(
+  db: Database,
+  actor: Actor,
+  id: string,
+  confirm: string | undefined,
+  sent: number | undefined,
+): Promise<void> {
   const project = await projectRow(db, actor.workspaceId, id);
+  const what = `The project “${project.name}”`;
+  const expected = requireVersion(what, project.version, sent);
   const kept = await keptRecords(db, id);
   const holds = holdsAny(kept);
   if (holds && actor.role !== "admin") {
@@ -82,7 +91,7 @@ export async function deleteProjectGuarded(db: Database, actor: Actor, id: strin
     ]);
   }
   await db.transaction(async (tx) => {
-    await tx.delete(projects).where(and(eq(projects.workspaceId, actor.workspaceId), eq(projects.id, id)));
+    await deleteVersioned(tx, projects, id, expected, what, { where: eq(projects.workspaceId, actor.workspaceId) });
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,
       actorId: actor.userId,
@@ -95,10 +104,10 @@ export async function deleteProjectGuarded(db: Database, actor: Actor, id: strin
   });
 }
 
-/** Archives (read-only, out of the default list) or restores a project; checked against `expected` when the client sent it. */
-export async function setArchived(db: Database, actor: Actor, id: string, archived: boolean, expected?: number): Promise<void> {
+/** Archives (read-only, out of the default list) or restores a project, on the version the caller last read (`sent`). */
+export async function setArchived(db: Database, actor: Actor, id: string, archived: boolean, sent: number | undefined): Promise<void> {
   const project = await projectRow(db, actor.workspaceId, id);
-  assertVersion(`The project “${project.name}”`, project.version, expected);
+  const expected = requireVersion(`The project “${project.name}”`, project.version, sent);
   if (archived === (project.archivedAt !== null)) {
     throw conflict(`“${project.name}” is ${archived ? "already archived" : "not archived"}.`, "invalid_state");
   }

@@ -9,7 +9,7 @@ import type { CreateReport, Report, UpdateReport } from "@shared/schemas/reports
 import type { Database } from "../db/client";
 import { comments, projects, reportFiles, reports, stackRevisions, users } from "../db/schema";
 import { badRequest, conflict, found, HttpError, isUniqueViolation } from "../lib/errors";
-import { requireVersion, writeVersioned } from "../lib/versions";
+import { deleteVersioned, requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
@@ -186,16 +186,17 @@ export async function updateReport(db: Database, actor: Actor, id: string, input
   return getReport(db, actor, id, baseURL);
 }
 
-export async function deleteReport(db: Database, actor: Actor, id: string) {
+/** Discards a draft, on the version the caller last read (`sent`: none is a 428, a stale one a 409). */
+export async function deleteReport(db: Database, actor: Actor, id: string, sent: number | undefined) {
   const row = await visibleRow(db, actor, id);
   await assertProjectOpen(db, actor.workspaceId, row.projectId);
   assertDraft(row);
+  const expected = requireVersion(titleOf(row), row.version, sent);
   await db.transaction(async (tx) => {
-    const gone = await tx
-      .delete(reports)
-      .where(and(eq(reports.id, id), eq(reports.status, "draft")))
-      .returning({ id: reports.id });
-    if (!gone.length) throw conflict("The report was released meanwhile; it can no longer be discarded.", "report_frozen");
+    await deleteVersioned(tx, reports, id, expected, titleOf(row), {
+      where: eq(reports.status, "draft"),
+      otherwise: () => conflict("The report was released meanwhile; it can no longer be discarded.", "report_frozen"),
+    });
     await tx.delete(comments).where(and(eq(comments.targetType, "report"), eq(comments.targetId, id)));
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,

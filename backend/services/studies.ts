@@ -1,4 +1,4 @@
-import { and, desc, eq, sql } from "drizzle-orm";
+import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import type { CreateStudy, Study, StudySummary } from "@shared/schemas/studies";
 import { validateStudy } from "@shared/schemas/study-file";
 import type { Database } from "../db/client";
@@ -167,18 +167,21 @@ export async function cancelStudy(db: Database, queue: StudyScheduler, actor: Ac
   return getStudy(db, actor.workspaceId, id, false);
 }
 
+const RERUNNABLE: Study["status"][] = ["interrupted", "failed", "cancelled"];
+
 /** Puts an interrupted, failed or cancelled study back in the queue with the same frozen settings. */
 export async function rerunStudy(db: Database, queue: StudyScheduler, actor: Actor, id: string) {
   const s = await getStudy(db, actor.workspaceId, id, false);
   await assertProjectOpen(db, actor.workspaceId, s.projectId);
-  if (!["interrupted", "failed", "cancelled"].includes(s.status)) {
-    throw conflict(`Study ${s.number} is ${s.status}; only an interrupted, failed or cancelled study can be run again.`, "invalid_state");
-  }
+  const notRerunnable = (status: string) =>
+    conflict(`Study ${s.number} is ${status}; only an interrupted, failed or cancelled study can be run again.`, "invalid_state");
+  if (!RERUNNABLE.includes(s.status)) throw notRerunnable(s.status);
   // the budget may have been lowered since it first ran
   await assertWithinBudget(db, actor.workspaceId, s.study, s.stack);
   await db.transaction(async (tx) => {
     await tx.delete(studyResults).where(eq(studyResults.studyId, id));
-    await tx
+    // guarded by its state, so of two people running it again at once one is taken (it has no version: decision 034)
+    const requeued = await tx
       .update(studies)
       .set({
         status: "queued",
@@ -189,7 +192,9 @@ export async function rerunStudy(db: Database, queue: StudyScheduler, actor: Act
         finishedAt: null,
         createdAt: new Date(),
       })
-      .where(eq(studies.id, id));
+      .where(and(eq(studies.id, id), inArray(studies.status, RERUNNABLE)))
+      .returning({ id: studies.id });
+    if (!requeued.length) throw notRerunnable("already queued again");
     await recordActivity(tx, {
       workspaceId: actor.workspaceId,
       projectId: s.projectId,

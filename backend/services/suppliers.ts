@@ -4,7 +4,7 @@ import type { CreateContactSchema, CreateSupplierSchema, Supplier, UpdateSupplie
 import type { Database } from "../db/client";
 import { members, supplierContacts, suppliers, users } from "../db/schema";
 import { conflict, found, isUniqueViolation } from "../lib/errors";
-import { assertVersion, requireVersion, writeVersioned } from "../lib/versions";
+import { assertVersion, deleteVersioned, requireVersion, writeVersioned } from "../lib/versions";
 
 export async function listSuppliers(db: Database, workspaceId: string, onlyId?: string | null): Promise<Supplier[]> {
   const rows = await db
@@ -70,12 +70,19 @@ export async function updateSupplier(
   return getSupplier(db, workspaceId, id);
 }
 
-export async function deleteSupplier(db: Database, workspaceId: string, id: string) {
-  await getSupplier(db, workspaceId, id);
-  await db.delete(suppliers).where(and(eq(suppliers.workspaceId, workspaceId), eq(suppliers.id, id)));
+/** Deletes a supplier company (and its contacts) on the version the caller last read (`sent`). */
+export async function deleteSupplier(db: Database, workspaceId: string, id: string, sent: number | undefined) {
+  const s = await getSupplier(db, workspaceId, id);
+  const what = `The supplier “${s.name}”`;
+  const expected = requireVersion(what, s.version, sent);
+  await db.transaction((tx) => deleteVersioned(tx, suppliers, id, expected, what, { where: eq(suppliers.workspaceId, workspaceId) }));
 }
 
-/** A contact belongs to its supplier's record: adding or removing one counts as a change of it (`expected` checked when sent). */
+/**
+ * A contact belongs to its supplier's record: adding or removing one counts as a change of it.
+ * Adding is checked against `expected` when the client sends it (an added contact overwrites
+ * nothing); removing requires the supplier's version, like every deletion.
+ */
 export async function addContact(
   db: Database,
   workspaceId: string,
@@ -104,9 +111,9 @@ export async function addContact(
   }
 }
 
-export async function removeContact(db: Database, workspaceId: string, supplierId: string, contactId: string, expected?: number) {
+export async function removeContact(db: Database, workspaceId: string, supplierId: string, contactId: string, sent: number | undefined) {
   const s = await getSupplier(db, workspaceId, supplierId);
-  assertVersion(`The supplier “${s.name}”`, s.version, expected);
+  const expected = requireVersion(`The supplier “${s.name}”`, s.version, sent);
   await db.transaction(async (tx) => {
     const deleted = await tx
       .delete(supplierContacts)

@@ -222,6 +222,7 @@ export async function getAllocation(db: Database, workspaceId: string, id: strin
  */
 export async function cancelRun(db: Database, queue: WhatIfScheduler, actor: Actor, id: string, kind: "sweep" | "allocation") {
   const row = await runRow(db, actor.workspaceId, id, kind);
+  await assertProjectOpen(db, actor.workspaceId, row.run.projectId);
   const what = kind === "sweep" ? "sweep" : "allocation";
   await db.transaction(async (tx) => {
     const rows = await tx

@@ -122,7 +122,8 @@ export const api = {
   patch: <S extends z.ZodType>(path: string, body: unknown, schema: S, version?: number) =>
     apiRequest(path, schema, { method: "PATCH", body, version }),
   put: <S extends z.ZodType>(path: string, body: unknown, schema: S) => apiRequest(path, schema, { method: "PUT", body }),
-  delete: (path: string) => apiRequest(path, null, { method: "DELETE" }),
+  /** `version`: the version of the shared record being deleted (If-Match); records without one take none. */
+  delete: (path: string, version?: number) => apiRequest(path, null, { method: "DELETE", version }),
 };
 
 /** Builds `/api/x?q=..` leaving out empty values. */

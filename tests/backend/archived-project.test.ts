@@ -6,11 +6,12 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
 import { eq } from "drizzle-orm";
-import { projects, studies, suppliers } from "@backend/db/schema";
+import { projects, studies, suppliers, whatIfRuns } from "@backend/db/schema";
 import { insertFinishedStudy } from "./report-fixtures";
 import { startTestApp, type TestApp } from "./harness";
 
 const REFERENCE = JSON.parse(readFileSync(new URL("../fixtures/stack-reference.json", import.meta.url), "utf8"));
+const STUDY = { ...JSON.parse(readFileSync(new URL("../fixtures/study-reference.json", import.meta.url), "utf8")), trials: 1000 };
 
 let t: TestApp;
 const c: Record<string, string> = {};
@@ -51,6 +52,21 @@ describe("an archived project", () => {
     const dataset = await t.call("POST", `/api/projects/${p.id}/datasets`, { cookie: c.engineer, ...upload("lot-1.csv") });
     expect(dataset.status).toBe(201);
 
+    // a sweep "running" as another process would have it (this app's queue leaves it alone)
+    const [sweep] = await t.handle.db
+      .insert(whatIfRuns)
+      .values({
+        workspaceId,
+        projectId: p.id,
+        revisionId: draft.id,
+        kind: "sweep",
+        status: "running",
+        input: { study: STUDY, parameter: "mag.axis", values: [0.3, 0.6] },
+        stack: REFERENCE,
+        result: { points: [], crossings: [] },
+      })
+      .returning();
+
     const archived = await t.call("POST", `/api/projects/${p.id}/archive`, {
       cookie: c.engineer,
       headers: await t.ifMatch(`/api/projects/${p.id}`, c.engineer),
@@ -73,6 +89,9 @@ describe("an archived project", () => {
         { body: { study: JSON.parse(readFileSync(new URL("../fixtures/study-reference.json", import.meta.url), "utf8")) } },
       ],
       ["engineer", "POST", `/api/studies/${queued.studyId}/cancel`, { body: {} }],
+      ["engineer", "POST", `/api/revisions/${draft.id}/sweeps`, { body: { study: STUDY, parameter: "mag.axis", values: [0.3, 0.6] } }],
+      ["engineer", "POST", `/api/revisions/${draft.id}/allocations`, { body: { study: STUDY, free: ["mag.axis"] } }],
+      ["engineer", "POST", `/api/sweeps/${sweep.id}/cancel`, { body: {} }],
       ["engineer", "POST", `/api/studies/${failedStudy}/rerun`, { body: {} }],
       ["engineer", "POST", `/api/studies/${done.studyId}/reports`, { body: { supplierId } }],
       [
@@ -89,7 +108,7 @@ describe("an archived project", () => {
       ],
       ["reviewer", "POST", `/api/reports/${report.body.id}/release`, { body: {}, headers: await v(`/api/reports/${report.body.id}`) }],
       ["reviewer", "POST", `/api/reports/${report.body.id}/comments`, { body: { body: "a late thought" } }],
-      ["engineer", "DELETE", `/api/reports/${report.body.id}`],
+      ["engineer", "DELETE", `/api/reports/${report.body.id}`, { headers: await v(`/api/reports/${report.body.id}`) }],
       ["engineer", "POST", `/api/projects/${p.id}/datasets`, upload("lot-2.csv")],
       [
         "engineer",
@@ -106,7 +125,7 @@ describe("an archived project", () => {
           headers: await v(`/api/datasets/${dataset.body.id}`),
         },
       ],
-      ["engineer", "DELETE", `/api/datasets/${dataset.body.id}`],
+      ["engineer", "DELETE", `/api/datasets/${dataset.body.id}`, { headers: await v(`/api/datasets/${dataset.body.id}`) }],
     ];
     const answers = [];
     for (const [who, method, path, o] of attempts) {
@@ -138,6 +157,13 @@ describe("an archived project", () => {
       headers: await v(`/api/reports/${report.body.id}`),
     });
     expect(note.status).toBe(200);
-    expect((await t.call("DELETE", `/api/datasets/${dataset.body.id}`, { cookie: c.engineer })).status).toBe(204);
+    expect(
+      (
+        await t.call("DELETE", `/api/datasets/${dataset.body.id}`, {
+          cookie: c.engineer,
+          headers: await v(`/api/datasets/${dataset.body.id}`),
+        })
+      ).status,
+    ).toBe(204);
   });
 });

@@ -536,7 +536,7 @@ describe("mapping and statistics", () => {
     });
     expect(res.body.columns.find((c: any) => c.key === "height [um]").mapping).toBeNull();
     const up = await uploadToProject("to-delete.csv", "v [um]\n1\n2\n");
-    const del = await t.call("DELETE", `/api/datasets/${up.body.id}`, { cookie: eng });
+    const del = await t.call("DELETE", `/api/datasets/${up.body.id}`, { cookie: eng, headers: { "if-match": `"${up.body.version}"` } });
     expect(del.status).toBe(204);
     expect((await t.call("GET", `/api/datasets/${up.body.id}`, { cookie: eng })).status).toBe(404);
   });

@@ -124,7 +124,7 @@ describe("projects", () => {
     expect(r.body.name).toBe("Cycling computer IMU, rev B");
     const act = await t.call("GET", `/api/projects/${id}/activity`, { cookie: cookies.reviewer });
     expect(act.body.activity.map((a: { action: string }) => a.action)).toEqual(["project.renamed", "project.created"]);
-    const d = await t.call("DELETE", `/api/projects/${id}`, { cookie: cookies.engineer });
+    const d = await t.call("DELETE", `/api/projects/${id}`, { cookie: cookies.engineer, headers: { "if-match": r.headers.get("etag")! } });
     expect(d.status).toBe(204);
     expect((await t.call("GET", `/api/projects/${id}`, { cookie: cookies.engineer })).status).toBe(404);
   });

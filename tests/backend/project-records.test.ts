@@ -57,12 +57,14 @@ async function project(kept: "none" | "approved" | "released" | "acknowledged") 
   return { id: p.id, name };
 }
 
+/** The project's current version as If-Match (a deletion, archive or restore names it). */
+const current = (id: string) => t.ifMatch(`/api/projects/${id}`, cookie.engineer);
 const exists = async (id: string) => (await t.handle.db.select().from(projects).where(eq(projects.id, id))).length === 1;
 
 describe("deleting a project", () => {
   it("an engineer deletes a project that holds nothing kept", async () => {
     const p = await project("none");
-    const res = await t.call("DELETE", `/api/projects/${p.id}`, { cookie: cookie.engineer });
+    const res = await t.call("DELETE", `/api/projects/${p.id}`, { cookie: cookie.engineer, headers: await current(p.id) });
     expect(res.status).toBe(204);
     expect(await exists(p.id)).toBe(false);
   });
@@ -70,7 +72,7 @@ describe("deleting a project", () => {
   for (const kept of ["approved", "released", "acknowledged"] as const) {
     it(`an engineer gets 409 for a project with a ${kept} record, and it stays`, async () => {
       const p = await project(kept);
-      const res = await t.call("DELETE", `/api/projects/${p.id}`, { cookie: cookie.engineer });
+      const res = await t.call("DELETE", `/api/projects/${p.id}`, { cookie: cookie.engineer, headers: await current(p.id) });
       expect(res.status).toBe(409);
       expect(res.body.error.code).toBe("records_kept");
       expect(res.body.error.message).toContain(
@@ -83,23 +85,27 @@ describe("deleting a project", () => {
 
   it("a reviewer may not delete at all (403), kept records or not", async () => {
     const p = await project("approved");
-    const res = await t.call("DELETE", `/api/projects/${p.id}`, { cookie: cookie.reviewer });
+    const res = await t.call("DELETE", `/api/projects/${p.id}`, { cookie: cookie.reviewer, headers: await current(p.id) });
     expect(res.status).toBe(403);
     expect(await exists(p.id)).toBe(true);
   });
 
   it("an admin must confirm with the project's exact name; the workspace activity records the deletion", async () => {
     const p = await project("acknowledged");
-    const none = await t.call("DELETE", `/api/projects/${p.id}`, { cookie: cookie.admin });
+    const none = await t.call("DELETE", `/api/projects/${p.id}`, { cookie: cookie.admin, headers: await current(p.id) });
     expect(none.status).toBe(409);
     expect(none.body.error.code).toBe("confirmation_required");
     const wrong = await t.call("DELETE", `/api/projects/${p.id}?confirm=${encodeURIComponent(p.name.toUpperCase())}`, {
       cookie: cookie.admin,
+      headers: await current(p.id),
     });
     expect(wrong.status).toBe(400);
     expect(wrong.body.error.fields[0].path).toBe("confirm");
     expect(await exists(p.id)).toBe(true);
-    const ok = await t.call("DELETE", `/api/projects/${p.id}?confirm=${encodeURIComponent(p.name)}`, { cookie: cookie.admin });
+    const ok = await t.call("DELETE", `/api/projects/${p.id}?confirm=${encodeURIComponent(p.name)}`, {
+      cookie: cookie.admin,
+      headers: await current(p.id),
+    });
     expect(ok.status).toBe(204);
     expect(await exists(p.id)).toBe(false);
     const [line] = await t.handle.db
@@ -114,7 +120,7 @@ describe("deleting a project", () => {
 describe("archiving a project", () => {
   it("hides it from the default list, shows it with the filter, makes it read-only, and restores", async () => {
     const p = await project("approved");
-    const archived = await t.call("POST", `/api/projects/${p.id}/archive`, { cookie: cookie.engineer });
+    const archived = await t.call("POST", `/api/projects/${p.id}/archive`, { cookie: cookie.engineer, headers: await current(p.id) });
     expect(archived.status).toBe(200);
     expect(archived.body.archivedAt).toEqual(expect.any(String));
 
@@ -136,9 +142,11 @@ describe("archiving a project", () => {
     expect(rename.body.error.code).toBe("project_archived");
     const revise = await t.call("POST", `/api/projects/${p.id}/revisions`, { cookie: cookie.engineer, body: { stack: REFERENCE } });
     expect(revise.status).toBe(409);
-    expect((await t.call("POST", `/api/projects/${p.id}/archive`, { cookie: cookie.engineer })).status).toBe(409);
+    expect((await t.call("POST", `/api/projects/${p.id}/archive`, { cookie: cookie.engineer, headers: await current(p.id) })).status).toBe(
+      409,
+    );
 
-    const restored = await t.call("POST", `/api/projects/${p.id}/restore`, { cookie: cookie.engineer });
+    const restored = await t.call("POST", `/api/projects/${p.id}/restore`, { cookie: cookie.engineer, headers: await current(p.id) });
     expect(restored.status).toBe(200);
     expect(restored.body.archivedAt).toBeNull();
     expect(await names("")).toContain(p.name);

@@ -241,7 +241,10 @@ describe("supplier reports", () => {
     expect(pdf.status).toBe(200);
     expect(pdf.headers.get("x-content-sha256")).toBeNull();
     expect(pdfText(pdf.data)).toContain("DRAFT");
-    const del = await t.call("DELETE", `/api/reports/${r.body.id}`, { cookie: c.engineer });
+    const del = await t.call("DELETE", `/api/reports/${r.body.id}`, {
+      cookie: c.engineer,
+      headers: { "if-match": p.headers.get("etag")! },
+    });
     expect(del.status).toBe(204);
     expect((await t.call("GET", `/api/reports/${r.body.id}`, { cookie: c.engineer })).status).toBe(404);
   });

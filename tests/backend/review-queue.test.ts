@@ -138,7 +138,11 @@ describe("GET /api/review-queue", () => {
       headers: await t.ifMatch(`/api/revisions/${rev.id}`, c.engineer),
     });
     expect(await itemsIn("reviewer", projectId)).toHaveLength(1);
-    const archived = await t.call("POST", `/api/projects/${projectId}/archive`, { cookie: c.engineer, body: {} });
+    const archived = await t.call("POST", `/api/projects/${projectId}/archive`, {
+      cookie: c.engineer,
+      body: {},
+      headers: await t.ifMatch(`/api/projects/${projectId}`, c.engineer),
+    });
     expect(archived.status).toBe(200);
     expect(await itemsIn("reviewer", projectId)).toEqual([]);
     expect((await queue("reviewer")).awaitingReview.some((a) => a.projectId === projectId)).toBe(false);

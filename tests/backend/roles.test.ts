@@ -70,10 +70,10 @@ async function freshSupplier(c: Ctx) {
     .returning();
   return s.id;
 }
-async function freshContact(c: Ctx) {
+async function freshContact(c: Ctx, supplierId = c.supplierId) {
   const [x] = await c.t.handle.db
     .insert(supplierContacts)
-    .values({ supplierId: c.supplierId, name: "c", email: `${uniq()}@x.example` })
+    .values({ supplierId, name: "c", email: `${uniq()}@x.example` })
     .returning();
   return x.id;
 }
@@ -286,9 +286,19 @@ export const ROUTES: Row[] = [
     body: () => ({ name: `renamed ${uniq()}` }),
     version: 1,
   },
-  { route: "DELETE /api/projects/:id", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}` },
-  { route: "POST /api/projects/:id/archive", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}/archive` },
-  { route: "POST /api/projects/:id/restore", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c, true)}/restore` },
+  { route: "DELETE /api/projects/:id", allowed: WRITERS, path: async (c) => `/api/projects/${await freshProject(c)}`, version: 1 },
+  {
+    route: "POST /api/projects/:id/archive",
+    allowed: WRITERS,
+    path: async (c) => `/api/projects/${await freshProject(c)}/archive`,
+    version: 1,
+  },
+  {
+    route: "POST /api/projects/:id/restore",
+    allowed: WRITERS,
+    path: async (c) => `/api/projects/${await freshProject(c, true)}/restore`,
+    version: 1,
+  },
   { route: "GET /api/projects/:id/activity", allowed: STAFF, path: async (c) => `/api/projects/${await freshProject(c)}/activity` },
   { route: "GET /api/suppliers", allowed: STAFF },
   { route: "GET /api/suppliers/:id", allowed: STAFF, path: (c) => `/api/suppliers/${c.supplierId}` },
@@ -300,7 +310,7 @@ export const ROUTES: Row[] = [
     body: () => ({ kind: "board" }),
     version: 1,
   },
-  { route: "DELETE /api/suppliers/:id", allowed: ADMIN, path: async (c) => `/api/suppliers/${await freshSupplier(c)}` },
+  { route: "DELETE /api/suppliers/:id", allowed: ADMIN, path: async (c) => `/api/suppliers/${await freshSupplier(c)}`, version: 1 },
   {
     route: "POST /api/suppliers/:id/contacts",
     allowed: ADMIN,
@@ -310,7 +320,12 @@ export const ROUTES: Row[] = [
   {
     route: "DELETE /api/suppliers/:id/contacts/:contactId",
     allowed: ADMIN,
-    path: async (c) => `/api/suppliers/${c.supplierId}/contacts/${await freshContact(c)}`,
+    path: async (c) => {
+      // a supplier of its own: the shared one's version moves with the other rows' contacts
+      const supplierId = await freshSupplier(c);
+      return `/api/suppliers/${supplierId}/contacts/${await freshContact(c, supplierId)}`;
+    },
+    version: 1,
   },
   { route: "GET /api/members", allowed: ADMIN },
   { route: "GET /api/status", allowed: ADMIN },
@@ -454,7 +469,7 @@ export const ROUTES: Row[] = [
     body: () => ({ note: "changed" }),
     version: 1,
   },
-  { route: "DELETE /api/reports/:id", allowed: WRITERS, path: async (c) => `/api/reports/${await freshReport(c)}` },
+  { route: "DELETE /api/reports/:id", allowed: WRITERS, path: async (c) => `/api/reports/${await freshReport(c)}`, version: 1 },
   {
     route: "POST /api/reports/:id/release",
     allowed: REVIEWERS,
@@ -498,7 +513,7 @@ export const ROUTES: Row[] = [
     upload: MEASUREMENTS,
   },
   { route: "GET /api/datasets/:id", allowed: STAFF, path: async (c) => `/api/datasets/${await freshDataset(c)}` },
-  { route: "DELETE /api/datasets/:id", allowed: WRITERS, path: async (c) => `/api/datasets/${await freshDataset(c)}` },
+  { route: "DELETE /api/datasets/:id", allowed: WRITERS, path: async (c) => `/api/datasets/${await freshDataset(c)}`, version: 1 },
   {
     route: "PATCH /api/datasets/:id",
     allowed: WRITERS,

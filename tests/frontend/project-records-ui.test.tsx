@@ -79,6 +79,27 @@ describe("DeleteProjectDialog", () => {
     fireEvent.click(screen.getByRole("button", { name: "Delete project" }));
     await waitFor(() => expect(onDeleted).toHaveBeenCalled(), { timeout: 5000 });
     expect(calls.map((c) => `${c.method} ${c.url}`)).toEqual([`DELETE /api/projects/${PROJECT.id}`]);
+    // on the version the page read, so a project someone else changed meanwhile is not deleted unseen
+    expect(calls[0].headers.get("if-match")).toBe('"4"');
+  });
+
+  it("says so when someone else changed the project meanwhile, and keeps the dialog open", { timeout: 20_000 }, async () => {
+    const calls = server(() =>
+      jsonResponse(409, {
+        error: {
+          code: "conflict",
+          message: `The project “${PROJECT.name}” was changed by someone else since you loaded it (it is now at version 5). Load it again and reapply your change.`,
+          version: 5,
+        },
+      }),
+    );
+    const { onClose, onDeleted } = openDelete();
+    fireEvent.click(screen.getByRole("button", { name: "Delete project" }));
+    const dialog = await screen.findByRole("dialog", { name: "Delete this project?" });
+    expect((await within(dialog).findByText(/changed by someone else/)).textContent).toContain("version 5");
+    expect(onDeleted).not.toHaveBeenCalled();
+    expect(onClose).not.toHaveBeenCalled();
+    expect(calls.filter((c) => c.method === "DELETE")).toHaveLength(1);
   });
 
   it("explains the 409 of kept records to an engineer and archives instead, on the version read", { timeout: 20_000 }, async () => {

@@ -366,14 +366,14 @@ describe("review actions name the version they were made on", () => {
 });
 
 describe("other changes of a shared record count as changes", () => {
-  it("archiving a project adds one to its version (a rename on the version before is refused) and checks If-Match when sent", async () => {
+  it("archiving a project adds one to its version (a rename on the version before is refused)", async () => {
     const id = await newProject();
     const stale = await t.call("POST", `/api/projects/${id}/archive`, { cookie: c.engineer, headers: tag(5) });
     expect(stale.status).toBe(409);
     const archived = await t.call("POST", `/api/projects/${id}/archive`, { cookie: c.engineer, headers: tag(1) });
     expect(archived.status).toBe(200);
     expect(archived.body.version).toBe(2);
-    const restored = await t.call("POST", `/api/projects/${id}/restore`, { cookie: c.engineer });
+    const restored = await t.call("POST", `/api/projects/${id}/restore`, { cookie: c.engineer, headers: tag(2) });
     expect(restored.body.version).toBe(3);
     const rename = await t.call("PATCH", `/api/projects/${id}`, { cookie: c.engineer, body: { name: "late" }, headers: tag(1) });
     expect(rename.status).toBe(409);

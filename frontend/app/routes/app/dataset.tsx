@@ -14,6 +14,7 @@ import { AsBuiltDialog } from "@frontend/features/datasets/components/as-built-d
 import { CapabilityView } from "@frontend/features/datasets/components/capability-view";
 import { ColumnMapping } from "@frontend/features/datasets/components/column-mapping";
 import { DatasetPreview } from "@frontend/features/datasets/components/dataset-preview";
+import { ArchivedProjectNotice, isArchived } from "@frontend/features/projects";
 import { projectQueryOptions, useProject } from "@frontend/features/projects/api/get-project";
 import { isApiError } from "@frontend/lib/api-client";
 import { formatDateTime } from "@frontend/lib/format";
@@ -51,8 +52,10 @@ export function DatasetRoute() {
   const { data: project } = useProject(id);
   const { data: dataset } = useDataset(datasetId);
   const me = useMe();
-  const canWrite = can(me.role, "datasets.write");
-  const canRun = can(me.role, "studies.run");
+  // an archived project is read-only (the server refuses the change): no mapping, delete or run here
+  const open = !isArchived(project);
+  const canWrite = open && can(me.role, "datasets.write");
+  const canRun = open && can(me.role, "studies.run");
   const [params, setParams] = useSearchParams();
   const numeric = dataset.columns.filter((c) => c.kind === "number");
   const column = numeric.find((c) => c.key === params.get("column"))?.key ?? numeric.find((c) => c.mapping)?.key ?? numeric[0]?.key ?? "";
@@ -106,6 +109,7 @@ export function DatasetRoute() {
         </div>
       </div>
 
+      <ArchivedProjectNotice project={project} toDo="map, delete or run this data set" className="mb-5" />
       <dl className="mb-5 grid grid-cols-2 gap-px overflow-hidden rounded-lg border border-line bg-line sm:grid-cols-5">
         <Fact label="Sent by">
           {dataset.uploadedByName ?? "a removed member"}
@@ -159,7 +163,7 @@ export function DatasetRoute() {
           onClose={() => setDialog(null)}
           onConfirm={() =>
             remove.mutate(
-              { id: dataset.id, projectId: project.id },
+              { id: dataset.id, projectId: project.id, version: dataset.version },
               { onSuccess: () => navigate(`/projects/${project.id}`, { replace: true }) },
             )
           }

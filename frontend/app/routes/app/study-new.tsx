@@ -6,6 +6,7 @@ import { IdSchema } from "@shared/schemas/common";
 import { ChevronLeftIcon } from "@frontend/components/ui/icons";
 import { PageHeader } from "@frontend/components/ui/page-header";
 import { EmptyState } from "@frontend/components/ui/empty-state";
+import { ArchivedProjectNotice, isArchived } from "@frontend/features/projects";
 import { projectQueryOptions, useProject } from "@frontend/features/projects/api/get-project";
 import { projectRevisionsQueryOptions } from "@frontend/features/studies/api/get-project-revisions";
 import { studiesQueryOptions } from "@frontend/features/studies/api/get-studies";
@@ -74,7 +75,10 @@ export function StudyNewRoute() {
         title="New study"
         description="A Monte Carlo run of one stack revision: how many units meet each requirement, what drives the misses, and where the heading error goes."
       />
-      {initialRevision === null ? (
+      {isArchived(project) ? (
+        // an archived project is read-only: the server refuses a new study under it
+        <ArchivedProjectNotice project={project} toDo="run a study" />
+      ) : initialRevision === null ? (
         <EmptyState title="No stack revision yet">A study runs on a stack revision. Add the stack first, then come back.</EmptyState>
       ) : fromId && from.isPending ? null : (
         <StudySettingsForm

@@ -8,6 +8,7 @@ import { Button } from "@frontend/components/ui/button";
 import { ChevronLeftIcon } from "@frontend/components/ui/icons";
 import { Panel } from "@frontend/components/ui/panel";
 import { useMe } from "@frontend/features/auth/api/get-me";
+import { ArchivedProjectNotice, isArchived } from "@frontend/features/projects";
 import { projectQueryOptions, useProject } from "@frontend/features/projects/api/get-project";
 import { useChangeStudyState } from "@frontend/features/studies/api/change-study-state";
 import { studyQueryOptions } from "@frontend/features/studies/api/get-study";
@@ -50,7 +51,8 @@ export function StudyRoute() {
   const { data: project } = useProject(id);
   const { data: study } = useSuspenseQuery(studyQueryOptions(studyId));
   const me = useMe();
-  const canRun = can(me.role, "studies.run");
+  // an archived project is read-only (the server refuses the change): no run, rerun or cancel here
+  const canRun = can(me.role, "studies.run") && !isArchived(project);
   const change = useChangeStudyState();
   const active = study.status === "queued" || study.status === "running";
   const rerunnable = study.status === "interrupted" || study.status === "failed" || study.status === "cancelled";
@@ -134,6 +136,7 @@ export function StudyRoute() {
         </div>
       </div>
 
+      <ArchivedProjectNotice project={project} toDo="run, run again or cancel its studies" />
       {downloadError ? (
         <Alert className="mb-4" title="Download failed">
           {downloadError}

@@ -5,6 +5,7 @@ import { IdSchema } from "@shared/schemas/common";
 import type { StackFile } from "@shared/schemas/stack-file";
 import { ChevronLeftIcon } from "@frontend/components/ui/icons";
 import { useMe } from "@frontend/features/auth/api/get-me";
+import { ArchivedProjectNotice, isArchived } from "@frontend/features/projects";
 import { projectQueryOptions, useProject } from "@frontend/features/projects/api/get-project";
 import { revisionQueryOptions, studyQueryOptions } from "@frontend/features/studies";
 import { SegmentedControl } from "@frontend/features/studies/components/segmented-control";
@@ -52,8 +53,10 @@ export function WhatIfRoute() {
   const { data: study } = useSuspenseQuery(studyQueryOptions(params.get("study") ?? ""));
   const { data: revision } = useSuspenseQuery(revisionQueryOptions(study.revisionId));
   const me = useMe();
-  const canRun = can(me.role, "whatif.run");
-  const canApply = can(me.role, "revisions.write");
+  // an archived project is read-only (the server refuses the change): no run, cancel or apply here
+  const open = !isArchived(project);
+  const canRun = open && can(me.role, "whatif.run");
+  const canApply = open && can(me.role, "revisions.write");
   const tab = (TABS.find((t) => t.value === params.get("tab"))?.value ?? "sweep") as Tab;
   const run = params.get("run");
   const set = (patch: Record<string, string | null>) =>
@@ -90,6 +93,7 @@ export function WhatIfRoute() {
         </div>
         <SegmentedControl label="What to work out" value={tab} options={TABS} onChange={(t) => set({ tab: t, run: null })} />
       </div>
+      <ArchivedProjectNotice project={project} toDo="run, cancel or apply sweeps and allocations" />
       {tab === "sweep" ? <SweepPanel key="sweep" stack={stack} {...common} /> : null}
       {tab === "allocation" ? (
         <AllocationPanel key="allocation" projectId={project.id} stack={stack} canApply={canApply} {...common} />

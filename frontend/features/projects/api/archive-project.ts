@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { ProjectSchema, type Project } from "@shared/schemas/api";
 import { api } from "@frontend/lib/api-client";
+import { reloadOnConflict } from "@frontend/lib/query-client";
 import { projectKeys } from "./keys";
 
 /** Archives (read-only, out of the default list) or restores a project, on the version last read. */
@@ -12,6 +13,7 @@ export function useSetProjectArchived() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: setProjectArchived,
+    onError: (error, { id }) => reloadOnConflict(queryClient, error, projectKeys.detail(id), projectKeys.lists()),
     onSuccess: (project) => {
       queryClient.setQueryData(projectKeys.detail(project.id), project);
       return Promise.all([

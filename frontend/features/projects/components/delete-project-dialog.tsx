@@ -44,7 +44,7 @@ export function DeleteProjectDialog({
   }
   function deleteIt() {
     remove.mutate(
-      { id: project.id, confirm: asksName ? typed : undefined },
+      { id: project.id, version: project.version, confirm: asksName ? typed : undefined },
       {
         onSuccess: () => {
           close();

@@ -14,6 +14,7 @@ import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
 import { ChevronLeftIcon } from "@frontend/components/ui/icons";
+import { ArchivedProjectNotice } from "@frontend/features/projects";
 import { useSuppliers } from "@frontend/features/suppliers";
 import { RevisionStatusChip, useLatestRevision } from "@frontend/features/revisions";
 import { isApiError } from "@frontend/lib/api-client";
@@ -353,9 +354,7 @@ export function StackEditor({
       </div>
 
       {archived ? (
-        <Alert tone="info" className="mb-3" title={`The project “${project.name}” is archived: read only`}>
-          Nothing in an archived project changes. Restore the project from its page to edit, submit or review this revision.
-        </Alert>
+        <ArchivedProjectNotice project={project} toDo="edit, submit or review this revision" className="mb-3" />
       ) : revision.status !== "draft" ? (
         <div role="status" className="mb-3 flex flex-wrap items-center gap-3 rounded-lg border border-ink/15 bg-ink px-4 py-2.5 text-paper">
           <span className="text-[13px] font-bold">

@@ -115,7 +115,7 @@ export function SupplierCard({ supplier, canManage }: { supplier: Supplier; canM
           confirmLabel="Delete company"
           pending={removeSupplier.isPending}
           error={removeSupplier.error?.message}
-          onConfirm={() => removeSupplier.mutate(supplier.id, { onSuccess: () => setConfirming(null) })}
+          onConfirm={() => removeSupplier.mutate({ id: supplier.id, version: supplier.version }, { onSuccess: () => setConfirming(null) })}
         >
           <p>
             <strong className="font-bold text-ink">{supplier.name}</strong> and its {supplier.contacts.length} contact
@@ -135,7 +135,10 @@ export function SupplierCard({ supplier, canManage }: { supplier: Supplier; canM
           pending={removeContact.isPending}
           error={removeContact.error?.message}
           onConfirm={() =>
-            removeContact.mutate({ supplierId: supplier.id, contactId: confirming.contactId }, { onSuccess: () => setConfirming(null) })
+            removeContact.mutate(
+              { supplierId: supplier.id, contactId: confirming.contactId, version: supplier.version },
+              { onSuccess: () => setConfirming(null) },
+            )
           }
         >
           <p>
