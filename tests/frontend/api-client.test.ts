@@ -1,6 +1,6 @@
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { z } from "zod";
-import { ApiError, apiRequest, withQuery } from "@frontend/lib/api-client";
+import { api, ApiError, apiRequest, withQuery } from "@frontend/lib/api-client";
 import { jsonResponse, mockFetch } from "./helpers";
 
 const ThingSchema = z.object({ id: z.string(), size: z.number() });
@@ -86,6 +86,14 @@ describe("apiRequest", () => {
     expect(init?.method).toBe("POST");
     expect(init?.body).toBe('{"name":"Rev C"}');
     expect(new Headers(init?.headers).get("Content-Type")).toBe("application/json");
+  });
+
+  it("names the version a deletion was made on as If-Match, and none for a record without one", async () => {
+    const fetchSpy = mockFetch(() => new Response(null, { status: 204 }));
+    await api.delete("/api/datasets/x", 3);
+    await api.delete("/api/invitations/y");
+    expect(new Headers(fetchSpy.mock.calls[0][1]?.headers).get("If-Match")).toBe('"3"');
+    expect(new Headers(fetchSpy.mock.calls[1][1]?.headers).get("If-Match")).toBeNull();
   });
 });
 
