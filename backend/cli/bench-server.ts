@@ -1,7 +1,7 @@
 /**
  * The API without the client, for `npm run bench`'s load figures: the runtime of `npm start`
  * (database in DATA_DIR, demo seed, warm engine pool) on a free loopback port, which it writes
- * to standard output as one JSON line. Stops on SIGTERM.
+ * to standard output as one JSON line with its process id. Stops on SIGTERM.
  */
 import { createApp } from "../app";
 import { parseEnv } from "../lib/env";
@@ -23,7 +23,7 @@ const app = createApp(runtime.deps, {
 });
 const server = app.listen(0, "127.0.0.1", () => {
   const a = server.address();
-  process.stdout.write(JSON.stringify({ port: typeof a === "object" && a ? a.port : 0 }) + "\n");
+  process.stdout.write(JSON.stringify({ port: typeof a === "object" && a ? a.port : 0, pid: process.pid }) + "\n");
 });
 process.on("SIGTERM", () => {
   server.close();

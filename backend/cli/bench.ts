@@ -17,7 +17,7 @@ import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import autocannon from "autocannon";
 import { EnginePool } from "../engine/pool";
-import { json, signIn, startServer } from "./bench-app";
+import { json, signIn, startServer, studiesIdle } from "./bench-app";
 import { whatIfFigures } from "./what-if-figures";
 import { runStudy } from "@shared/engine/study";
 import { validateStackFile } from "@shared/schemas/stack-file";
@@ -90,16 +90,7 @@ async function api() {
   try {
     const cookie = await signIn(url, "engineer@example.com");
     // let the demo study the seed queued finish first: "alone" means no study running
-    for (let i = 0; i < 600; i++) {
-      const projects = await json(`${url}/api/projects`, {}, cookie);
-      const lists = await Promise.all(
-        (projects.body?.projects ?? projects.body ?? []).map((p: { id: string }) =>
-          json(`${url}/api/projects/${p.id}/studies`, {}, cookie),
-        ),
-      );
-      if (!lists.some((l) => /"status":"(queued|running)"/.test(JSON.stringify(l.body)))) break;
-      await new Promise((r) => setTimeout(r, 500));
-    }
+    await studiesIdle(url, cookie);
     const measure = async (label: string) => {
       const r = await autocannon({ url: `${url}/api/projects`, connections: 50, duration: apiSeconds, headers: { cookie } });
       const failed = r.errors + r.timeouts + r.non2xx;
