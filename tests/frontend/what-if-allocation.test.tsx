@@ -92,7 +92,7 @@ describe("AllocationForm", () => {
   const stack = JSON.parse(readFileSync(join(process.cwd(), "tests/fixtures/stack-reference.json"), "utf8"));
   it("starts from the per-kind defaults and sends only the free sources with their costs and bounds", async () => {
     const onSubmit = vi.fn();
-    render(<AllocationForm stack={stack} pending={false} onSubmit={onSubmit} />);
+    render(<AllocationForm stack={stack} defaultTrials="20000" pending={false} onSubmit={onSubmit} />);
     // the axis kind: a = 0.1, b = 0.05, k = 2; bounds a tenth to three times today's 0.6°
     expect((screen.getByLabelText("mag.axis k") as HTMLInputElement).value).toBe("2");
     expect((screen.getByLabelText("mag.axis highest") as HTMLInputElement).value).toBe("1.8");
@@ -100,16 +100,28 @@ describe("AllocationForm", () => {
     fireEvent.change(screen.getByLabelText("mag.axis b"), { target: { value: "0.2" } });
     fireEvent.click(screen.getByRole("button", { name: "Find the least-cost tolerances" }));
     await waitFor(() => expect(onSubmit).toHaveBeenCalledOnce());
-    const body = onSubmit.mock.calls[0][0];
+    const [body, trials] = onSubmit.mock.calls[0];
+    expect(trials).toBe(20000);
     expect(body.free).not.toContain("board.bow");
     expect(body.free).toContain("mag.axis");
     expect(body.costs["mag.axis"]).toEqual({ a: 0.1, b: 0.2, k: 2 });
     expect(body.bounds["mag.axis"]).toEqual({ min: 0.06, max: 1.8 });
   });
 
+  it("asks for at least 1,000 trials per verifying run, under that field", async () => {
+    const onSubmit = vi.fn();
+    render(<AllocationForm stack={stack} defaultTrials="20000" pending={false} onSubmit={onSubmit} />);
+    const trials = screen.getByLabelText("Trials per verifying run");
+    fireEvent.change(trials, { target: { value: "1,500" } });
+    fireEvent.click(screen.getByRole("button", { name: "Find the least-cost tolerances" }));
+    const message = await screen.findByText("Trials must be a whole number of at least 1,000");
+    expect(trials.getAttribute("aria-describedby")).toBe(message.id);
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+
   it("refuses a lower bound above the upper one, naming the source", async () => {
     const onSubmit = vi.fn();
-    render(<AllocationForm stack={stack} pending={false} onSubmit={onSubmit} />);
+    render(<AllocationForm stack={stack} defaultTrials="20000" pending={false} onSubmit={onSubmit} />);
     fireEvent.change(screen.getByLabelText("mag.axis lowest"), { target: { value: "2" } });
     fireEvent.click(screen.getByRole("button", { name: "Find the least-cost tolerances" }));
     expect(await screen.findByText(/^mag\.axis:/)).toBeTruthy();

@@ -9,9 +9,10 @@ import { DEFAULT_BOUND_FACTORS } from "@shared/whatif/allocation";
 import { DEFAULT_COSTS, defaultCost, sourceKind } from "@shared/whatif/cost";
 import { unitText } from "@shared/format";
 import { Button } from "@frontend/components/ui/button";
-import { Input } from "@frontend/components/ui/field";
+import { Field, Input } from "@frontend/components/ui/field";
 import { Table, TableFrame, Td, Th, THead, Tr } from "@frontend/components/ui/table";
 import { firstErrorMessage } from "@frontend/lib/form";
+import { TrialsTextSchema } from "../lib/values";
 
 const RowSchema = z.object({
   id: z.string(),
@@ -30,12 +31,12 @@ const num = (s: string) => (s.trim() === "" ? NaN : Number(s));
 const short = (v: number) => String(Number(v.toPrecision(3)));
 
 /** The table as typed, turned into what an allocation asks for: the free sources with their cost curves and bounds. */
-const AllocationFormSchema = z.object({ rows: z.array(RowSchema) }).transform(({ rows }, ctx): Omit<CreateAllocation, "study"> => {
+const RowsSchema = z.array(RowSchema).transform((rows, ctx): Omit<CreateAllocation, "study"> => {
   const free = rows.filter((r) => r.free);
   const bad = free.find((r) => !(num(r.b) > 0 && num(r.k) > 0 && num(r.a) >= 0 && num(r.min) > 0 && num(r.max) > num(r.min)));
   const message = !free.length ? "free at least one source" : bad ? `${bad.id}: a ≥ 0, b > 0, k > 0 and 0 < min < max` : null;
   if (message) {
-    ctx.addIssue({ code: "custom", path: ["rows"], message });
+    ctx.addIssue({ code: "custom", message });
     return z.NEVER;
   }
   return {
@@ -44,16 +45,22 @@ const AllocationFormSchema = z.object({ rows: z.array(RowSchema) }).transform(({
     bounds: Object.fromEntries(free.map((r) => [r.id, { min: num(r.min), max: num(r.max) }])),
   };
 });
+const AllocationFormSchema = z.object({ trials: TrialsTextSchema, rows: RowsSchema });
 
-/** The allocation's settings: which sources may change, their cost curves a + b/T^k and bounds (defaults per kind of source). */
+/**
+ * The allocation's settings: the trials of each verifying run, which sources may change, their cost curves a + b/T^k
+ * and bounds (defaults per kind of source).
+ */
 export function AllocationForm({
   stack,
+  defaultTrials,
   pending,
   onSubmit,
 }: {
   stack: StackFile;
+  defaultTrials: string;
   pending: boolean;
-  onSubmit: (body: Omit<CreateAllocation, "study">) => void;
+  onSubmit: (body: Omit<CreateAllocation, "study">, trials: number) => void;
 }) {
   const initial = useMemo<Row[]>(
     () =>
@@ -76,7 +83,7 @@ export function AllocationForm({
         }),
     [stack],
   );
-  const form = useForm({ resolver: zodResolver(AllocationFormSchema), defaultValues: { rows: initial } });
+  const form = useForm({ resolver: zodResolver(AllocationFormSchema), defaultValues: { trials: defaultTrials, rows: initial } });
   const rows = form.watch("rows");
   const error = firstErrorMessage(form.formState.errors.rows);
 
@@ -91,7 +98,12 @@ export function AllocationForm({
   );
 
   return (
-    <form onSubmit={form.handleSubmit(onSubmit)} className="flex flex-col gap-3">
+    <form onSubmit={form.handleSubmit(({ rows, trials }) => onSubmit(rows, trials))} className="flex flex-col gap-3">
+      <Field label="Trials per verifying run" className="max-w-48" error={form.formState.errors.trials?.message}>
+        {({ id, describedBy, invalid }) => (
+          <Input id={id} inputMode="numeric" invalid={invalid} aria-describedby={describedBy} {...form.register("trials")} />
+        )}
+      </Field>
       <p className="text-[13px] text-ink/70">
         Cost of holding a tolerance T: a + b / T<sup>k</sup>, in relative units. The starting values per kind of source (
         {Object.values(DEFAULT_COSTS)

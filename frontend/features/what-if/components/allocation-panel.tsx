@@ -1,10 +1,8 @@
-import { useState } from "react";
 import { useNavigate } from "react-router";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
 import { formatCount } from "@shared/format";
 import { Alert } from "@frontend/components/ui/alert";
-import { Field, Input } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
 import { useAllocation, useApplyAllocation, useCancelAllocation, useCreateAllocation } from "../api/what-if";
 import { AllocationForm } from "./allocation-form";
@@ -31,34 +29,24 @@ export function AllocationPanel({
   runId: string | null;
   onRun: (id: string) => void;
 }) {
-  const [trials, setTrials] = useState(String(Math.min(study.trials, 20_000)));
   const create = useCreateAllocation();
   const allocation = useAllocation(runId);
   const apply = useApplyAllocation();
   const cancel = useCancelAllocation();
   const navigate = useNavigate();
   const a = allocation.data;
-  const n = Number(trials);
 
   return (
     <div className="flex flex-col gap-4">
       {canRun ? (
         <Panel title="Allocate tolerances" meta="least cost under every requirement, then checked by Monte Carlo">
-          <Field label="Trials per verifying run" className="mb-3 max-w-48">
-            {({ id }) => <Input id={id} inputMode="numeric" value={trials} onChange={(e) => setTrials(e.target.value)} />}
-          </Field>
           <AllocationForm
             stack={stack}
+            defaultTrials={String(Math.min(study.trials, 20_000))}
             pending={create.isPending}
-            onSubmit={(body) =>
+            onSubmit={(body, trials) =>
               create.mutate(
-                {
-                  revisionId,
-                  body: {
-                    ...body,
-                    study: { ...study, trials: Number.isInteger(n) && n >= 1000 ? n : study.trials } as Record<string, unknown>,
-                  },
-                },
+                { revisionId, body: { ...body, study: { ...study, trials } as Record<string, unknown> } },
                 { onSuccess: (r) => onRun(r.id) },
               )
             }

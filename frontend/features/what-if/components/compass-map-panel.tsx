@@ -1,4 +1,7 @@
-import { useMemo, useState, type FormEvent } from "react";
+import { useMemo, useState } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
 import type { StudyFile } from "@shared/schemas/study-file";
 import { WMM_FIRST_DATE, WMM_LAST_DATE } from "@shared/schemas/site";
 import { INCLINATION } from "@shared/whatif/parameters";
@@ -10,7 +13,7 @@ import { Field, Input, Select } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
 import { useCancelSweep, useCreateSweep, useInclinationGrid, useSweep } from "../api/what-if";
 import { failingBands, latitudeText, yieldGrid } from "../lib/map";
-import { evenValues } from "../lib/values";
+import { evenValues, TrialsTextSchema } from "../lib/values";
 import { CompassMap } from "./compass-map";
 import { RunCancelled, RunProgress } from "./run-progress";
 
@@ -19,6 +22,9 @@ const today = () => {
   return d < WMM_FIRST_DATE ? WMM_FIRST_DATE : d > WMM_LAST_DATE ? WMM_LAST_DATE : d;
 };
 const GRID_STEP = 4;
+
+/** The date draws the map as it changes; the trials go with the run. */
+const MapFormSchema = z.object({ date: z.string(), trials: TrialsTextSchema });
 
 /** Where on Earth the heading requirement holds: an inclination sweep mapped through the WMM at a date. */
 export function CompassMapPanel({
@@ -34,8 +40,11 @@ export function CompassMapPanel({
   runId: string | null;
   onRun: (id: string) => void;
 }) {
-  const [date, setDate] = useState(today);
-  const [trials, setTrials] = useState(String(Math.min(study.trials, 20_000)));
+  const form = useForm({
+    resolver: zodResolver(MapFormSchema),
+    defaultValues: { date: today(), trials: String(Math.min(study.trials, 20_000)) },
+  });
+  const date = form.watch("date");
   const create = useCreateSweep();
   const sweep = useSweep(runId);
   const cancel = useCancelSweep();
@@ -57,21 +66,15 @@ export function CompassMapPanel({
   );
   const bands = useMemo(() => (grid.data && yields && req ? failingBands(grid.data, yields, req.yield) : []), [grid.data, yields, req]);
 
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    const n = Number(trials);
+  const submit = form.handleSubmit(({ trials }) =>
     create.mutate(
       {
         revisionId,
-        body: {
-          study: { ...study, trials: Number.isInteger(n) && n >= 1000 ? n : study.trials } as Record<string, unknown>,
-          parameter: INCLINATION,
-          values: evenValues(-88, 88, 23),
-        },
+        body: { study: { ...study, trials } as Record<string, unknown>, parameter: INCLINATION, values: evenValues(-88, 88, 23) },
       },
       { onSuccess: (r) => onRun(r.id) },
-    );
-  };
+    ),
+  );
 
   return (
     <div className="flex flex-col gap-4">
@@ -84,15 +87,21 @@ export function CompassMapPanel({
                 type="date"
                 min={WMM_FIRST_DATE}
                 max={WMM_LAST_DATE}
-                value={date}
-                onChange={(e) => setDate(e.target.value || today())}
+                {...form.register("date", {
+                  // a cleared date falls back to today's, within the model's years
+                  onChange: (e: { target: { value: string } }) => {
+                    if (!e.target.value) form.setValue("date", today());
+                  },
+                })}
               />
             )}
           </Field>
           {canRun ? (
             <>
-              <Field label="Trials per point">
-                {({ id }) => <Input id={id} inputMode="numeric" value={trials} onChange={(e) => setTrials(e.target.value)} />}
+              <Field label="Trials per point" error={form.formState.errors.trials?.message}>
+                {({ id, describedBy, invalid }) => (
+                  <Input id={id} inputMode="numeric" invalid={invalid} aria-describedby={describedBy} {...form.register("trials")} />
+                )}
               </Field>
               <Button type="submit" variant="primary" pending={create.isPending}>
                 Run the inclination sweep

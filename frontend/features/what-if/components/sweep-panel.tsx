@@ -14,7 +14,7 @@ import { Panel } from "@frontend/components/ui/panel";
 import { isApiError } from "@frontend/lib/api-client";
 import { setServerErrors } from "@frontend/lib/form";
 import { useCancelSweep, useCreateSweep, useSweep } from "../api/what-if";
-import { defaultSourceValues, evenValues, parseValues } from "../lib/values";
+import { defaultSourceValues, evenValues, TrialsTextSchema, ValuesTextSchema } from "../lib/values";
 import { RunCancelled, RunProgress } from "./run-progress";
 import { SweepChart } from "./sweep-chart";
 
@@ -37,14 +37,7 @@ function defaultValues(p: ParameterOption): number[] {
 }
 
 /** The sweep form as typed: the values one text, trials a whole number of at least 1,000. */
-const SweepFormSchema = z.object({ parameter: z.string(), values: z.string(), trials: z.string() }).transform((v, ctx) => {
-  const parsed = parseValues(v.values);
-  if ("error" in parsed) ctx.addIssue({ code: "custom", path: ["values"], message: parsed.error });
-  const trials = Number(v.trials);
-  if (!Number.isInteger(trials) || trials < 1000)
-    ctx.addIssue({ code: "custom", path: ["trials"], message: "trials must be a whole number of at least 1,000" });
-  return "error" in parsed ? z.NEVER : { parameter: v.parameter, values: parsed.values, trials };
-});
+const SweepFormSchema = z.object({ parameter: z.string(), values: ValuesTextSchema, trials: TrialsTextSchema });
 
 /** Sweep one parameter: the form, the run's progress, then one chart per requirement. */
 export function SweepPanel({

@@ -1,4 +1,5 @@
 /** Sweep values as the form takes them: a list typed by hand, or evenly spaced from a range. */
+import { z } from "zod";
 import { MAX_SWEEP_VALUES } from "@shared/schemas/what-if";
 
 /** "0.2, 0.4 0.6" → [0.2, 0.4, 0.6]; an error names the first entry that is not a number. */
@@ -28,3 +29,19 @@ export function evenValues(from: number, to: number, n: number): number[] {
 export function defaultSourceValues(current: number): number[] {
   return evenValues(current / 4, current * 2, 9);
 }
+
+/** The values box of a form: its text checked and read as numbers. */
+export const ValuesTextSchema = z.string().transform((text, ctx) => {
+  const parsed = parseValues(text);
+  if ("values" in parsed) return parsed.values;
+  ctx.addIssue({ code: "custom", message: parsed.error });
+  return z.NEVER;
+});
+
+/** Trials per run as typed in a what-if form: a whole number of at least 1,000. */
+export const TrialsTextSchema = z.string().transform((text, ctx) => {
+  const n = Number(text);
+  if (Number.isInteger(n) && n >= 1000) return n;
+  ctx.addIssue({ code: "custom", message: "trials must be a whole number of at least 1,000" });
+  return z.NEVER;
+});
