@@ -1,13 +1,15 @@
-import { useState, type FormEvent, type ReactNode } from "react";
+import type { ReactNode } from "react";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
-import { UpdateReportSchema, type Report } from "@shared/schemas/reports";
+import { ReleaseReportSchema, UpdateReportSchema, type Report } from "@shared/schemas/reports";
+import { ReturnRevisionSchema } from "@shared/schemas/revisions";
 import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { ConfirmDialog } from "@frontend/components/ui/confirm-dialog";
 import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Input, Textarea } from "@frontend/components/ui/field";
+import { NoteField } from "@frontend/features/revisions";
 import { setServerErrors } from "@frontend/lib/form";
 import { useAcknowledgeReport } from "../api/acknowledge-report";
 import { useDeleteReport } from "../api/delete-report";
@@ -18,6 +20,9 @@ import { readPng } from "../lib/files";
 import { reportTitle } from "./report-status";
 
 type Base = { report: Report; onClose: () => void };
+
+// what the server reads from these dialogs: a comment, optional on release and acknowledgement, asked for when sending back
+const OptionalCommentSchema = ReleaseReportSchema.required({ comment: true });
 
 /** A dialog with a note and one action button; shared by release, send back and acknowledge. */
 function NoteDialog({
@@ -46,7 +51,11 @@ function NoteDialog({
   onClose: () => void;
   onConfirm: (note: string) => void;
 }) {
-  const [note, setNote] = useState("");
+  const form = useForm<{ comment: string }, unknown, { comment: string }>({
+    resolver: required ? zodResolver(ReturnRevisionSchema) : zodResolver(OptionalCommentSchema),
+    defaultValues: { comment: "" },
+  });
+  const note = form.watch("comment");
   return (
     <Dialog
       open
@@ -54,10 +63,7 @@ function NoteDialog({
       title={title}
       description={description}
       busy={pending}
-      onSubmit={(e: FormEvent<HTMLFormElement>) => {
-        e.preventDefault();
-        onConfirm(note.trim());
-      }}
+      onSubmit={form.handleSubmit(({ comment }) => onConfirm(comment))}
       formLabel={title}
       footer={
         <>
@@ -72,18 +78,14 @@ function NoteDialog({
     >
       <div className="space-y-3">
         {children}
-        <Field label={noteLabel} aside={required ? undefined : "optional"}>
-          {({ id, describedBy }) => (
-            <Textarea
-              id={id}
-              aria-describedby={describedBy}
-              rows={3}
-              value={note}
-              onChange={(e) => setNote(e.target.value)}
-              placeholder={placeholder}
-            />
-          )}
-        </Field>
+        <NoteField
+          label={noteLabel}
+          aside={required ? undefined : "optional"}
+          error={form.formState.errors.comment?.message}
+          rows={3}
+          placeholder={placeholder}
+          field={form.register("comment")}
+        />
         {error ? <Alert>{error}</Alert> : null}
       </div>
     </Dialog>

@@ -4,7 +4,8 @@ import { Field, Textarea } from "@frontend/components/ui/field";
 
 /**
  * The written words beside a revision's life: the draft's "what changed and why" (note and submit dialogs) and the
- * reviewer's reason or comment (review panel). One labelled text box, registered with the dialog's form.
+ * reviewer's reason or comment (review panel), and the same of a supplier report's review. One labelled text box,
+ * registered with the dialog's form.
  */
 export function NoteField({
   label,
@@ -13,6 +14,7 @@ export function NoteField({
   error,
   rows,
   maxLength,
+  placeholder,
   field,
 }: {
   label: string;
@@ -20,13 +22,22 @@ export function NoteField({
   hint?: ReactNode;
   error?: string;
   rows: number;
-  maxLength: number;
+  maxLength?: number;
+  placeholder?: string;
   field: UseFormRegisterReturn;
 }) {
   return (
     <Field label={label} aside={aside} hint={hint} error={error}>
       {({ id, describedBy, invalid }) => (
-        <Textarea id={id} aria-describedby={describedBy} invalid={invalid} rows={rows} maxLength={maxLength} {...field} />
+        <Textarea
+          id={id}
+          aria-describedby={describedBy}
+          invalid={invalid}
+          rows={rows}
+          maxLength={maxLength}
+          placeholder={placeholder}
+          {...field}
+        />
       )}
     </Field>
   );
