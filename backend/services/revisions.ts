@@ -17,6 +17,7 @@ import { badRequest, conflict, found } from "../lib/errors";
 import { requireVersion, writeVersioned } from "../lib/versions";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
+import { yieldToEventLoop } from "../lib/yield";
 import { assertProjectOpen } from "./project-records";
 import { checkRequirements, checkStack } from "./stack-check";
 import { geometryWarnings } from "@shared/stack-geometry";
@@ -223,9 +224,16 @@ export async function updateRevision(
   }
   // the stored stack is read only when the change keeps it: a stack sent whole replaces it unread
   const sentStack = input.stack !== undefined ? checkStack(input.stack) : undefined;
+  // a stack sent whole can be large: give other requests a turn between its heavy stages
+  const pause = sentStack ? yieldToEventLoop : async () => {};
+  await pause();
   const stack = sentStack ?? (await storedStack(db, id));
   const requirements = input.requirements ?? row.requirements;
   checkRequirements(stack, requirements);
+  // serialised apart from the write, so that the two are separate stages (each about 25-80 ms
+  // for a stack of about 1 MB; the write is PGlite's, on this thread)
+  const stackJson = sentStack ? sql`${JSON.stringify(sentStack)}::json` : undefined;
+  await pause();
   await db.transaction((tx) =>
     writeVersioned(
       tx,
@@ -234,7 +242,7 @@ export async function updateRevision(
       expected,
       `Stack revision ${row.number}`,
       {
-        ...(sentStack ? { stack: sentStack } : {}),
+        ...(stackJson ? { stack: stackJson } : {}),
         ...(input.requirements ? { requirements } : {}),
         ...(input.note !== undefined ? { note: input.note } : {}),
       },
@@ -244,15 +252,18 @@ export async function updateRevision(
       },
     ),
   );
+  await pause();
   // answered from what was just written, not read back: a stack of about 1 MB costs to read
   const [after] = await selectRevision(db, actor.workspaceId, id, {});
-  return revisionAnswer(
+  const answer = await revisionAnswer(
     db,
     found(after, "The stack revision"),
     stack,
     requirements,
     sentStack ? geometryWarnings(sentStack) : warningsOf(stack),
   );
+  await pause(); // the answer's serialisation is one more such stage
+  return answer;
 }
 
 type Transition = { from: Revision["status"]; to: Revision["status"]; action: string; verb: string };
