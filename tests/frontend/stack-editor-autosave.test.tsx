@@ -126,6 +126,35 @@ describe("autosave of a draft", () => {
     expect(calls[1].ifMatch).toBe('"4"');
   });
 
+  it("sends one save at a time on the version the last one answered, when edits go on during a slow save", async () => {
+    // a server that takes longer than the autosave pause and checks the version like the real one
+    let version = 3;
+    const calls: { ifMatch: string | null; status: number }[] = [];
+    mockFetch(async (c) => {
+      await new Promise((r) => setTimeout(r, 1500));
+      const sent = c.headers.get("if-match");
+      if (sent !== `"${version}"`) {
+        calls.push({ ifMatch: sent, status: 409 });
+        return jsonResponse(409, { error: { code: "conflict", message: "changed by someone else", version } });
+      }
+      version += 1;
+      calls.push({ ifMatch: sent, status: 200 });
+      return jsonResponse(200, revisionBody(c.body as EditorDoc, version));
+    });
+    const m = mount(saved);
+    m.rerender(edited(7));
+    // the first save leaves after the pause and is still travelling when the next edits settle
+    await waitFor(() => expect(probe().dataset.kind).toBe("saving"), { timeout: 3000 });
+    m.rerender(edited(8));
+    await new Promise((r) => setTimeout(r, 300));
+    m.rerender(edited(9));
+    await waitFor(() => expect(probe().dataset.kind).toBe("saved"), { timeout: 10_000 });
+    await new Promise((r) => setTimeout(r, 2000));
+    expect(calls.filter((c) => c.status === 409)).toEqual([]);
+    expect(calls.map((c) => c.ifMatch)).toEqual(calls.map((_, i) => `"${3 + i}"`));
+    expect(probe().dataset.kind).toBe("saved");
+  });
+
   it("stops on a conflict, keeps the edits, and after a rebase saves them on the server's version", async () => {
     const calls: { ifMatch: string | null; body: unknown }[] = [];
     let answer: "conflict" | "ok" = "conflict";

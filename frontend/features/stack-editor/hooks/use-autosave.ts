@@ -64,10 +64,10 @@ export function useAutosave({
   const [dirty, setDirty] = useState(false);
 
   const save = useCallback(async (): Promise<boolean> => {
-    if (inFlight.current) {
-      await inFlight.current;
-      if (current.current === saved.current) return true;
-    }
+    // One save at a time: two callers waiting on the same save (the debounce timer and the
+    // "edits made meanwhile" follow-up) must not both start one on the same version, or the
+    // second is refused as a conflict with ourselves. Whoever wakes second waits for the first's.
+    while (inFlight.current) await inFlight.current;
     const sending = current.current;
     if (sending === saved.current) return true;
     if (frozen.current) return false;
