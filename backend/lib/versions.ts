@@ -88,13 +88,25 @@ export async function writeVersioned<T extends VersionedTable>(
     .where(and(eq(table.id, id), expected !== undefined ? eq(table.version, expected) : undefined, options.where))
     .returning({ version: table.version })) as Array<{ version: number }>;
   if (changed.length) return changed[0].version;
+  throw await missedWrite(tx, table, id, expected, what, options.otherwise);
+}
+
+/** Why a conditional write or delete touched nothing: the record is gone (404), its version moved on (409), or the caller's own reason. */
+async function missedWrite(
+  tx: Executor,
+  table: VersionedTable,
+  id: string,
+  expected: number | undefined,
+  what: string,
+  otherwise?: () => HttpError,
+): Promise<HttpError> {
   const [row] = (await tx
     .select({ version: table.version })
     .from(table as PgTable)
     .where(eq(table.id, id))) as Array<{ version: number }>;
-  if (!row) throw notFound(what);
-  if (expected !== undefined && row.version !== expected) throw staleVersion(what, row.version);
-  throw options.otherwise?.() ?? notFound(what);
+  if (!row) return notFound(what);
+  if (expected !== undefined && row.version !== expected) return staleVersion(what, row.version);
+  return otherwise?.() ?? notFound(what);
 }
 
 /**
@@ -116,13 +128,7 @@ export async function deleteVersioned<T extends VersionedTable>(
     .where(and(eq(table.id, id), eq(table.version, expected), options.where))
     .returning({ id: table.id })) as Array<{ id: string }>;
   if (gone.length) return;
-  const [row] = (await tx
-    .select({ version: table.version })
-    .from(table as PgTable)
-    .where(eq(table.id, id))) as Array<{ version: number }>;
-  if (!row) throw notFound(what);
-  if (row.version !== expected) throw staleVersion(what, row.version);
-  throw options.otherwise?.() ?? notFound(what);
+  throw await missedWrite(tx, table, id, expected, what, options.otherwise);
 }
 
 /**

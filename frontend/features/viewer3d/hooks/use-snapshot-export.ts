@@ -5,7 +5,8 @@
 import { type RefObject, useState } from "react";
 import type { ElementKind, StackFile } from "@shared/schemas/stack-file";
 import { formatNumber } from "@shared/format";
-import { composeSnapshot, downloadDataUrl, fileSlug } from "../lib/export-png";
+import { downloadUrl } from "@frontend/lib/download";
+import { composeSnapshot, fileSlug } from "../lib/export-png";
 import { AXIS_COLOUR, BOND_LINE, KIND_COLOUR, KIND_LABEL } from "../lib/palette";
 import type { PoseChoice } from "../lib/poses";
 import type { SceneApi, SectionState } from "../lib/scene-types";
@@ -70,7 +71,7 @@ export function useSnapshotExport(api: RefObject<SceneApi | null>, input: Snapsh
         const url = composeSnapshot(shot.canvas, { title, lines, legend });
         const poseSlug = choice.kind === "trial" ? `trial-${choice.index}` : choice.kind;
         const rev = revisionLabel ? `-${fileSlug(revisionLabel)}` : "";
-        downloadDataUrl(url, `${fileSlug(stack.name ?? "stack")}${rev}-${poseSlug}-x${exaggeration}.png`);
+        downloadUrl(url, `${fileSlug(stack.name ?? "stack")}${rev}-${poseSlug}-x${exaggeration}.png`);
       } finally {
         setExporting(false);
       }

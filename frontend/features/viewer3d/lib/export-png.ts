@@ -60,15 +60,6 @@ export function composeSnapshot(source: HTMLCanvasElement, text: SnapshotText): 
   return canvas.toDataURL("image/png");
 }
 
-export function downloadDataUrl(url: string, fileName: string): void {
-  const a = document.createElement("a");
-  a.href = url;
-  a.download = fileName;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-}
-
 /** A file name from free text: letters, digits and dashes. */
 export function fileSlug(text: string): string {
   return (
