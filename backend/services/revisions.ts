@@ -399,16 +399,14 @@ export async function addRevisionComment(db: Database, actor: Actor, id: string,
   return listComments(db, "revision", id);
 }
 
-/** A new draft whose content is a copy of an existing revision (how an approved one is edited). */
+/**
+ * A new draft whose content is a copy of an existing revision (how an approved one is edited).
+ * Its note starts empty: the engineer says what changed and why before submitting (a note
+ * written for them would pass that check unread); what it is based on is `basedOnId`.
+ */
 export async function draftFrom(db: Database, actor: Actor, id: string) {
   const row = await getRevisionRow(db, actor.workspaceId, id);
-  return createRevision(
-    db,
-    actor,
-    row.projectId,
-    { stack: row.stack, requirements: row.requirements, note: `Based on revision ${row.number}.` },
-    row.id,
-  );
+  return createRevision(db, actor, row.projectId, { stack: row.stack, requirements: row.requirements, note: "" }, row.id);
 }
 
 /** The revision before this one: the one it is based on, else the previous number in its project. */

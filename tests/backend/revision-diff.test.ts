@@ -156,4 +156,33 @@ describe("GET /api/revisions/:id/diff", () => {
     expect(ok.status).toBe(200);
     expect(ok.body).toMatchObject({ status: "in_review", note: "Film attach under the mag: thinner spread." });
   });
+
+  it("starts a draft from an approved revision with no note, so its submit asks for one; the note is edited on the draft", async () => {
+    const draft = await t.call("POST", `/api/revisions/${rev1}/drafts`, { cookie: cookie.engineer, body: {} });
+    expect(draft.status).toBe(201);
+    expect(draft.body).toMatchObject({ status: "draft", basedOnId: rev1, note: "" });
+    const id = draft.body.id as string;
+    const none = await t.call("POST", `/api/revisions/${id}/submit`, {
+      cookie: cookie.engineer,
+      body: { note: "   " },
+      headers: await t.ifMatch(`/api/revisions/${id}`, cookie.engineer),
+    });
+    expect(none.status).toBe(400);
+    expect(none.body.error.fields[0].path).toBe("note");
+    expect((await t.call("GET", `/api/revisions/${id}`, { cookie: cookie.engineer })).body.status).toBe("draft");
+    // the note written on the draft beforehand is the one the submit reads
+    const noted = await t.call("PATCH", `/api/revisions/${id}`, {
+      cookie: cookie.engineer,
+      body: { note: "Same stack, tighter mag yaw asked." },
+      headers: await t.ifMatch(`/api/revisions/${id}`, cookie.engineer),
+    });
+    expect(noted.status).toBe(200);
+    const ok = await t.call("POST", `/api/revisions/${id}/submit`, {
+      cookie: cookie.engineer,
+      body: { confirmFailing: true },
+      headers: await t.ifMatch(`/api/revisions/${id}`, cookie.engineer),
+    });
+    expect(ok.status, JSON.stringify(ok.body)).toBe(200);
+    expect(ok.body).toMatchObject({ status: "in_review", note: "Same stack, tighter mag yaw asked." });
+  });
 });

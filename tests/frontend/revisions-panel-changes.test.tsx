@@ -58,4 +58,21 @@ describe("RevisionsPanel", () => {
     fireEvent.click(within(table).getByRole("button", { name: /^Hide changes/ }));
     expect(within(table).queryByRole("region", { name: "What changed" })).toBeNull();
   }, 30_000);
+
+  it("says a draft started from another revision has no note yet, and shows the note once written", async () => {
+    const THIRD = "44444444-4444-4444-8444-444444444444";
+    const fresh = { ...summary(3, THIRD), note: "", basedOnId: FIRST };
+    mockFetch(({ url }) =>
+      url === `/api/projects/${PROJECT}/revisions`
+        ? jsonResponse(200, { revisions: [fresh, { ...summary(2, SECOND), basedOnId: FIRST }, summary(1, FIRST)] })
+        : jsonResponse(404, { error: { code: "not_found", message: url } }),
+    );
+    renderWithApp(<RevisionsPanel projectId={PROJECT} projectName="Module" canWrite={false} />);
+    const table = await screen.findByRole("table", { name: "Stack revisions" });
+    const rows = within(table).getAllByRole("row");
+    expect(rows[1].textContent).toContain("From revision 1; no note yet on what changed and why.");
+    expect(rows[2].textContent).toContain("Thinner film.");
+    expect(rows[2].textContent).not.toContain("no note yet");
+    expect(rows[3].textContent).not.toContain("no note yet");
+  }, 30_000);
 });

@@ -182,7 +182,13 @@ export function RevisionsPanel({ projectId, projectName, canWrite }: { projectId
                     >
                       {r.name || <span className="text-ink/45">Untitled stack</span>}
                     </Link>
-                    {r.note ? <p className="text-xs break-words text-ink/55">{r.note}</p> : null}
+                    {r.note ? (
+                      <p className="text-xs break-words text-ink/55">{r.note}</p>
+                    ) : r.basedOnId ? (
+                      <p className="text-xs text-ink/45">
+                        From revision {list.find((b) => b.id === r.basedOnId)?.number ?? "?"}; no note yet on what changed and why.
+                      </p>
+                    ) : null}
                     {r.number > 1 ? (
                       <button
                         type="button"
