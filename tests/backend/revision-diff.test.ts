@@ -1,6 +1,6 @@
 /**
  * What changed between revisions (issue 11 item 1): the pure diff on a hand-made pair covering
- * every kind of change, and the API on the demo project's draft (revision 2, based on 1).
+ * every kind of change, and the API on the demo project: its draft (revision 2, based on 1) and a new draft from revision 1 changed through the API in every kind of way.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
@@ -155,6 +155,40 @@ describe("GET /api/revisions/:id/diff", () => {
     });
     expect(ok.status).toBe(200);
     expect(ok.body).toMatchObject({ status: "in_review", note: "Film attach under the mag: thinner spread." });
+  });
+
+  it("names every kind of change made through the API on the demo stack, each with its unit", async () => {
+    const draft = (await t.call("POST", `/api/revisions/${rev1}/drafts`, { cookie: cookie.engineer, body: {} })).body;
+    const stack = structuredClone(draft.stack) as StackFile;
+    const el = (id: string) => stack.elements.find((e) => e.id === id)!;
+    el("mag").yawDeg = 89.5; // changed
+    delete el("mag").placementTol; // removed: its yaw tolerance (half-width, distribution, owner)
+    el("asic").bondLine!.heightTol!.mean = 1; // added field
+    stack.elements.push({ id: "shim", kind: "spacer", parent: "pkg", position: { x: -1, y: 1 }, size: { x: 0.4, y: 0.4, z: 0.1 } });
+    const requirements = draft.requirements.filter((r: { metric: string }) => r.metric !== "gyro.crossAxisTotalPct.x");
+    const patched = await t.call("PATCH", `/api/revisions/${draft.id}`, {
+      cookie: cookie.engineer,
+      body: { stack, requirements },
+      headers: await t.ifMatch(`/api/revisions/${draft.id}`, cookie.engineer),
+    });
+    expect(patched.status, JSON.stringify(patched.body)).toBe(200);
+
+    const res = await t.call("GET", `/api/revisions/${draft.id}/diff`, { cookie: cookie.reviewer });
+    expect(res.status).toBe(200);
+    expect(res.body.against).toEqual({ id: rev1, number: 1 });
+    const seen = (res.body.changes as Array<{ label: string; kind: string; before: unknown; after: unknown; unit: string | null }>)
+      .map((c) => [c.kind, c.label, c.before, c.after, c.unit])
+      .sort((a, b) => String(a[1]).localeCompare(String(b[1])));
+    expect(seen).toEqual([
+      ["added", "asic: bond-line height tolerance mean", null, 1, "µm"],
+      ["removed", "mag: placement yaw tolerance", 0.4, null, "°"],
+      ["removed", "mag: placement yaw tolerance distribution", "normal", null, null],
+      ["removed", "mag: placement yaw tolerance owner", "Larkfield Assembly", null, null],
+      ["changed", "mag: yaw on its parent", 90, 89.5, "°"],
+      ["removed", "requirement: gyro cross-axis total, x, limit", 2, null, "%"],
+      ["removed", "requirement: gyro cross-axis total, x, yield target", 99.73, null, "%"],
+      ["added", "shim: element", null, "shim (spacer on pkg)", null],
+    ]);
   });
 
   it("starts a draft from an approved revision with no note, so its submit asks for one; the note is edited on the draft", async () => {
