@@ -22,6 +22,7 @@ import { parse } from "../lib/validate";
 import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
 import { notifyReport } from "../services/review-notifications";
+import { reportSentBack } from "../services/review-queue";
 import { listOutbox, outboxAttachment } from "../services/outbox";
 import {
   acknowledgeReport,
@@ -72,7 +73,11 @@ export function reportsRouter(deps: AppDeps) {
   r.patch("/reports/:id", allow("reports.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const input = parse(UpdateReportSchema, req);
-    sendVersioned(res, ReportSchema, await updateReport(db, actorOf(req), id, input, baseURL, sentVersion(req)));
+    // a draft changed after it was sent back is ready for release again: the reviewers are told
+    const wasSentBack = await reportSentBack(db, id);
+    const report = await updateReport(db, actorOf(req), id, input, baseURL, sentVersion(req));
+    if (wasSentBack) await notifyReport(deps, actorOf(req), id, "changed");
+    sendVersioned(res, ReportSchema, report);
   });
 
   r.delete("/reports/:id", allow("reports.write"), async (req, res) => {

@@ -52,11 +52,12 @@ export async function notifyRevision(deps: NotifyDeps, actor: Actor, id: string,
   }
 }
 
-export type ReportEvent = "ready" | "returned" | "released" | "sent" | "question" | "acknowledged" | "measurements";
+export type ReportEvent = "ready" | "changed" | "returned" | "released" | "sent" | "question" | "acknowledged" | "measurements";
 
 /**
- * A report draft built: the reviewers (to release it). Everything after: the report's engineer
- * (who built it). The supplier's contacts get the report mail itself, as before.
+ * A report draft built, or changed after it was sent back: the reviewers (to release it).
+ * Everything after: the report's engineer (who built it). The supplier's contacts get the
+ * report mail itself, as before.
  */
 export async function notifyReport(deps: NotifyDeps, actor: Actor, id: string, event: ReportEvent, text?: string) {
   const { db } = deps;
@@ -67,17 +68,17 @@ export async function notifyReport(deps: NotifyDeps, actor: Actor, id: string, e
   const name = `${reportCode(row.number)} revision ${row.revision}`;
   const base = { workspaceId: row.workspaceId, projectId: row.projectId, link: `/reports/${row.id}` };
   const quote = text ? `${actor.name}: “${text}”` : undefined;
-  if (event === "ready") {
+  if (event === "ready" || event === "changed") {
     const reviewers = await membersWithRole(db, row.workspaceId, ["reviewer"], actor.userId);
     await notify(deps, reviewers, actor, {
       ...base,
       kind: "report.ready",
       title: `${name} for ${supplier} waits for release`,
-      detail: `${actor.name} built it.`,
+      detail: event === "ready" ? `${actor.name} built it.` : `${actor.name} changed it after it was sent back.`,
     });
     return;
   }
-  const titles: Record<Exclude<ReportEvent, "ready">, string> = {
+  const titles: Record<Exclude<ReportEvent, "ready" | "changed">, string> = {
     returned: `${name} for ${supplier} was sent back`,
     released: `${name} for ${supplier} was released`,
     sent: `${name} was sent to ${supplier}`,

@@ -18,6 +18,18 @@ const lastComment = (target: "revision" | "report", id: typeof stackRevisions.id
 /** A draft report sent back and not changed since: it waits for its engineer, not for release. */
 const reportReturned = sql<boolean>`coalesce(${lastComment("report", reports.id, "returned")} > coalesce((select max(${activities.createdAt}) from ${activities} where ${activities.action} = 'report.updated' and ${activities.data}->>'reportId' = ${reports.id}::text), 'epoch'::timestamptz), false)`;
 
+/** Whether a report draft was sent back and has not been changed since (it waits for its engineer). */
+export async function reportSentBack(db: Database, id: string): Promise<boolean> {
+  const [row] = await db
+    .select({ returned: reportReturned })
+    .from(reports)
+    // with a join drizzle names each column with its table; alone it would leave "id" bare,
+    // which the subqueries over comments and activities would read as their own
+    .innerJoin(projects, eq(projects.id, reports.projectId))
+    .where(and(eq(reports.id, id), eq(reports.status, "draft")));
+  return row?.returned === true;
+}
+
 /** A supplier's question later than any staff comment on the report. */
 const questionOpen = sql<boolean>`coalesce(${lastComment("report", reports.id, "question")} > coalesce(${lastComment("report", reports.id, "comment")}, 'epoch'::timestamptz), false)`;
 

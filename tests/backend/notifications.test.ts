@@ -1,7 +1,8 @@
 /**
  * Who must act (issue 11 item 2): every notification kind reaches the people concerned in the
  * app and as a mail caught by the local catcher; the actor is not told of their own act; a
- * person's opt-out stops the mail of that kind but not the notification; reading marks them.
+ * person's opt-out stops the mail of that kind only, and not the notification, until turned on
+ * again; a report draft changed after it was sent back tells the reviewers again; reading marks them.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
@@ -64,7 +65,24 @@ describe("revision notifications", () => {
     expect(mail.text).toContain("Use the film's tolerance.");
     expect(mail.text).toContain(`/projects/${p.id}/revisions/${rev.id}`);
 
+    // the reviewer turns off the mail of submitted revisions: told in the app, no mail; turned on again, mailed
+    const off = await t.call("PUT", "/api/notification-settings", { cookie: c.reviewer, body: { email: { "revision.submitted": false } } });
+    expect(off.body.kinds.find((k: { kind: string }) => k.kind === "revision.submitted").email).toBe(false);
+    expect(off.body.kinds.find((k: { kind: string }) => k.kind === "report.ready").email).toBe(true);
     await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {}, headers: await revVersion() });
+    const second = await latest("reviewer");
+    expect(second).toMatchObject({ kind: "revision.submitted", readAt: null });
+    expect(second.id).not.toBe(waiting.id);
+    expect(await mailsTo("reviewer@example.com", waiting.title)).toHaveLength(1); // still only the first
+    await t.call("POST", `/api/revisions/${rev.id}/return`, {
+      cookie: c.reviewer,
+      body: { comment: "Once more." },
+      headers: await revVersion(),
+    });
+    await t.call("PUT", "/api/notification-settings", { cookie: c.reviewer, body: { email: { "revision.submitted": true } } });
+    await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {}, headers: await revVersion() });
+    expect(await mailsTo("reviewer@example.com", waiting.title)).toHaveLength(2);
+
     await t.call("POST", `/api/revisions/${rev.id}/approve`, { cookie: c.reviewer, body: {}, headers: await revVersion() });
     const ok = await latest("engineer");
     expect(ok).toMatchObject({ kind: "revision.approved", title: "Revision 1 of “Notified project” was approved" });
@@ -108,10 +126,30 @@ describe("report notifications", () => {
       body: { comment: "Ask Cpk 1.67 on the mag yaw." },
       headers: await reportVersion(),
     });
-    expect(await latest("engineer")).toMatchObject({ kind: "report.returned", title: `${title} for Larkfield Assembly was sent back` });
+    const back = await latest("engineer");
+    expect(back).toMatchObject({ kind: "report.returned", title: `${title} for Larkfield Assembly was sent back` });
+    expect((await mailsTo("engineer@example.com", back.title))[0].text).toContain("Ask Cpk 1.67 on the mag yaw.");
     const report = await t.call("GET", `/api/reports/${id}`, { cookie: c.engineer });
     expect(report.body.status).toBe("draft");
     expect(report.body.comments.at(-1)).toMatchObject({ kind: "returned", body: "Ask Cpk 1.67 on the mag yaw." });
+
+    // changed after it was sent back, it waits for release again: the reviewers are told once more
+    const readyBefore = (await mailsTo("reviewer@example.com", ready.title)).length;
+    const changed = await t.call("PATCH", `/api/reports/${id}`, {
+      cookie: c.engineer,
+      body: { cpk: 1.67 },
+      headers: await reportVersion(),
+    });
+    expect(changed.status).toBe(200);
+    const again = await latest("reviewer");
+    expect(again).toMatchObject({ kind: "report.ready", title: ready.title, readAt: null });
+    expect(again.id).not.toBe(ready.id);
+    const mails = await mailsTo("reviewer@example.com", ready.title);
+    expect(mails).toHaveLength(readyBefore + 1);
+    expect(mails.at(-1)!.text).toContain("changed it after it was sent back");
+    // a further change of a draft nobody sent back tells nobody
+    await t.call("PATCH", `/api/reports/${id}`, { cookie: c.engineer, body: { note: "Cpk 1.67 on all." }, headers: await reportVersion() });
+    expect(await latest("reviewer")).toEqual(again);
 
     await t.call("POST", `/api/reports/${id}/release`, { cookie: c.reviewer, body: {}, headers: await reportVersion() });
     const released = await latest("engineer");
@@ -132,7 +170,9 @@ describe("report notifications", () => {
     expect((await mailsTo("engineer@example.com", q.title))[0].text).toContain("Which side is the datum?");
 
     await t.call("POST", `/api/reports/${id}/acknowledge`, { cookie: c.supplier, body: {}, headers: await reportVersion() });
-    expect(await latest("engineer")).toMatchObject({ kind: "report.acknowledged", title: `Larkfield Assembly acknowledged ${title}` });
+    const ack = await latest("engineer");
+    expect(ack).toMatchObject({ kind: "report.acknowledged", title: `Larkfield Assembly acknowledged ${title}` });
+    expect(await mailsTo("engineer@example.com", ack.title)).toHaveLength(1);
 
     const boundary = "----n11";
     const raw = `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="lot-7.csv"\r\nContent-Type: text/csv\r\n\r\ndie,yaw [deg]\nD1,0.02\nD2,-0.01\n\r\n--${boundary}--\r\n`;
