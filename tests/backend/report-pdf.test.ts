@@ -137,6 +137,23 @@ describe("report files from a hand-made stack", () => {
     expect(flat).toMatch(/scale \d+:1 on A4 printed at 100 %/);
   });
 
+  it("says on the cover which targets the study misses, and nothing of the kind when it meets them all", async () => {
+    const missed = c.requirements.filter((r) => !r.passes);
+    expect(missed.length).toBeGreaterThan(0);
+    const cover = pdfText(await renderReportPdf(c, META))
+      .split("\f")[0]
+      .replace(/\s+/g, " ");
+    expect(cover).toContain("TARGETS MISSED");
+    expect(cover).toContain(`Study 2 misses ${missed.length} of ${c.requirements.length} targets:`);
+    for (const r of missed) expect(cover).toContain(`R${c.requirements.indexOf(r) + 1} ${r.description}:`);
+    expect(cover).toContain("ask before setting up production against these tolerances");
+
+    const met = { ...c, requirements: c.requirements.map((r) => ({ ...r, passes: true })) };
+    const clean = pdfText(await renderReportPdf(met, META)).replace(/\s+/g, " ");
+    expect(clean).not.toContain("TARGETS MISSED");
+    expect(clean).not.toContain("misses");
+  });
+
   it("rounds the CSV's numbers to the resolution its headers state", () => {
     const csv = renderReportCsv(c, META).toString("utf8");
     const lines = csv.split("\r\n");
