@@ -9,7 +9,9 @@
  *   inside a scroll area can be scrolled to, so the search stops there);
  * - a select whose chosen option is wider than the select's text area, an input whose value
  *   is wider than the input;
- * - the main area wider than the window (the page would scroll sideways).
+ * - the main area wider than the window (the page would scroll sideways);
+ * - two pieces of text drawn over each other (`overlappingText`: their visible line boxes
+ *   cover each other), which a clipping box does not show.
  * Intentional truncation is allowed only when the whole text can still be read: an element
  * between the text and the clipping box carries a `title` (or `aria-label`) holding the text.
  * Visually hidden text for screen readers (a 1 px clipped box) is not drawn and is skipped.
@@ -118,6 +120,86 @@ function clippedText(): string[] {
   return found;
 }
 
+/**
+ * Runs in the page: pairs of text nodes drawn over each other. Each text node's line boxes
+ * (one per line, from a Range) are cut to what its clipping and scrolling ancestors let show,
+ * so text scrolled out of a list or hidden by a clipping box does not count. Two boxes of
+ * different text nodes count as overlapping when they share more than 2 px across and more
+ * than 40 % of the shorter one's height (tight line heights make the lines of one paragraph
+ * touch by a pixel or two, which is not a collision). Text with opacity 0 or in a hidden box
+ * is skipped; the 1 px boxes of screen-reader text are not drawn.
+ */
+function overlappingText(): string[] {
+  type Box = { l: number; t: number; r: number; b: number; text: string; el: Element; node: Node };
+  const boxes: Box[] = [];
+  const clipOf = new Map<Element, { l: number; t: number; r: number; b: number } | null>();
+  /** the part of the window an element's content can show in, after every ancestor that clips or scrolls */
+  const visibleArea = (el: Element): { l: number; t: number; r: number; b: number } | null => {
+    if (clipOf.has(el)) return clipOf.get(el)!;
+    const parent = el.parentElement;
+    let area: { l: number; t: number; r: number; b: number } | null = parent ? visibleArea(parent) : { l: -1e9, t: -1e9, r: 1e9, b: 1e9 };
+    const s = getComputedStyle(el);
+    if (s.display === "none" || s.visibility === "hidden" || s.opacity === "0") area = null;
+    else if (area && (s.overflowX !== "visible" || s.overflowY !== "visible" || el.tagName === "svg")) {
+      const r = el.getBoundingClientRect();
+      if (r.width <= 1 && r.height <= 1) area = null;
+      else {
+        const cx = s.overflowX !== "visible" || el.tagName === "svg";
+        const cy = s.overflowY !== "visible" || el.tagName === "svg";
+        area = {
+          l: cx ? Math.max(area.l, r.left) : area.l,
+          r: cx ? Math.min(area.r, r.right) : area.r,
+          t: cy ? Math.max(area.t, r.top) : area.t,
+          b: cy ? Math.min(area.b, r.bottom) : area.b,
+        };
+        if (area.r <= area.l || area.b <= area.t) area = null;
+      }
+    }
+    clipOf.set(el, area);
+    return area;
+  };
+  const walker = document.createTreeWalker(document.body, NodeFilter.SHOW_TEXT);
+  const range = document.createRange();
+  for (let node = walker.nextNode(); node; node = walker.nextNode()) {
+    const text = node.textContent ?? "";
+    if (!text.trim()) continue;
+    const parent = node.parentElement;
+    if (!parent || parent.closest("script, style, noscript, option, title")) continue;
+    const area = visibleArea(parent);
+    if (!area) continue;
+    range.selectNodeContents(node);
+    for (const rect of range.getClientRects()) {
+      const box = {
+        l: Math.max(rect.left, area.l),
+        r: Math.min(rect.right, area.r),
+        t: Math.max(rect.top, area.t),
+        b: Math.min(rect.bottom, area.b),
+      };
+      if (box.r - box.l < 1 || box.b - box.t < 1) continue;
+      boxes.push({ ...box, text: text.trim(), el: parent, node });
+    }
+  }
+  boxes.sort((a, b) => a.t - b.t);
+  const out: string[] = [];
+  const seen = new Set<string>();
+  for (let i = 0; i < boxes.length; i++) {
+    const a = boxes[i];
+    for (let j = i + 1; j < boxes.length && boxes[j].t < a.b; j++) {
+      const b = boxes[j];
+      if (a.node === b.node) continue;
+      const across = Math.min(a.r, b.r) - Math.max(a.l, b.l);
+      const down = Math.min(a.b, b.b) - Math.max(a.t, b.t);
+      if (across > 2 && down > 0.4 * Math.min(a.b - a.t, b.b - b.t)) {
+        const key = `"${a.text.slice(0, 40)}" and "${b.text.slice(0, 40)}"`;
+        if (seen.has(key)) continue;
+        seen.add(key);
+        out.push(`${key} drawn over each other (${Math.round(across)} × ${Math.round(down)} px)`);
+      }
+    }
+  }
+  return out;
+}
+
 type Visit = { name: string; path: string; ready: (page: Page) => Promise<void> };
 
 async function api<T>(page: Page, method: string, path: string, body?: unknown): Promise<T> {
@@ -215,6 +297,31 @@ describe("pages at 1024, 1280 and 1440 px", () => {
       { name: "report", path: `/reports/${ids.reportId}`, ready: (p) => p.getByRole("heading", { name: "TR-0001 revision 1" }).waitFor() },
     ];
 
+    // The checks themselves catch what they look for: a label planted over another and a name
+    // in a box too narrow for it are reported; a paragraph's own lines and a title-excused cut are not.
+    await page.goto("/projects");
+    await visits[0].ready(page);
+    await page.evaluate(() => {
+      const probe = document.createElement("div");
+      probe.id = "width-check-probe";
+      probe.style.cssText = "width:400px;font:13px sans-serif";
+      probe.innerHTML =
+        '<div style="position:relative;height:20px"><span>Left label here</span><span style="position:absolute;left:40px;top:2px">Second label</span></div>' +
+        '<div style="width:60px;overflow:hidden;white-space:nowrap"><span>A name far too long for its box</span></div>' +
+        '<div style="width:60px;overflow:hidden;white-space:nowrap" title="Cut on purpose, with a title"><span>Cut on purpose, with a title</span></div>' +
+        '<p style="width:120px;line-height:1.05">A paragraph of several words wrapping over lines</p>';
+      // at the end of the page's own flow, clear of the app's text
+      document.querySelector("main")!.append(probe);
+    });
+    const planted = [...(await page.evaluate(clippedText)), ...(await page.evaluate(overlappingText))].filter((f) =>
+      /Left label|Second label|far too long|Cut on purpose|paragraph/.test(f),
+    );
+    expect(planted).toEqual([
+      expect.stringMatching(/^"A name far too long for its box" in <span> cut by <div> by \d+ px$/),
+      expect.stringMatching(/^"Left label here" and "Second label" drawn over each other/),
+    ]);
+    await page.evaluate(() => document.getElementById("width-check-probe")?.remove());
+
     const failures: string[] = [];
     for (const visit of visits) {
       await page.setViewportSize({ width: WIDTHS[0], height: HEIGHT });
@@ -225,6 +332,7 @@ describe("pages at 1024, 1280 and 1440 px", () => {
         await page.evaluate(() => document.fonts.ready);
         await page.waitForTimeout(300); // resize observers (charts, the 3D view) settle
         for (const f of new Set(await page.evaluate(clippedText))) failures.push(`${visit.name} @ ${width}: ${f}`);
+        for (const f of await page.evaluate(overlappingText)) failures.push(`${visit.name} @ ${width}: ${f}`);
         await screenshot(page, `width-${visit.name}-${width}`);
       }
     }
