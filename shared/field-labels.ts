@@ -124,3 +124,87 @@ export function readableMessage(message: string, stack?: StackLike): string {
     .replace(/"tol"/g, "± tolerance")
     .replace(/\byawDeg\b/g, "yaw (°)");
 }
+
+/** Words for the keys of study settings, what-if and as-built bodies (the API's `fields`). */
+const SETTING_WORDS: Record<string, string> = {
+  trials: "trials",
+  seed: "seed",
+  sampling: "sampling",
+  adaptive: "adaptive stopping",
+  significantDigits: "significant digits",
+  inclinationDeg: "field inclination (°)",
+  headingStepDeg: "heading step (°)",
+  tilts: "attitudes",
+  pitchDeg: "pitch (°)",
+  rollDeg: "roll (°)",
+  calibration: "calibration",
+  after: "calibrate after",
+  residualDeg: "residual (°)",
+  dist: "distribution",
+  tol: "± tolerance",
+  sigmas: "sigmas",
+  mean: "mean shift",
+  headingSensors: "sensors of the heading",
+  accel: "accelerometer",
+  mag: "magnetometer",
+  requirements: "requirements",
+  site: "site",
+  latitudeDeg: "latitude (°)",
+  longitudeDeg: "longitude (°)",
+  altitudeKm: "altitude (km)",
+  date: "date",
+  label: "label",
+  parameter: "parameter",
+  values: "values",
+  free: "free sources",
+  costs: "costs",
+  bounds: "bounds",
+  asBuilt: "measured sources",
+  datasetId: "data set",
+  column: "column",
+  source: "source",
+  format: "format",
+};
+const LIST_ITEM: Record<string, string> = {
+  tilts: "attitude",
+  values: "value",
+  free: "free source",
+  asBuilt: "measured source",
+};
+
+/** A key the tables above do not know, in words: `residualDeg` → "residual (°)", `fooBar` → "foo bar". */
+function keyWords(key: string): string {
+  const unit = /(Deg|Um|Mm|Km|Pct)$/.exec(key);
+  const head = unit ? key.slice(0, -unit[1].length) : key;
+  const words = head.replace(/([a-z0-9])([A-Z])/g, "$1 $2").toLowerCase();
+  const sym = unit ? { Deg: "°", Um: "µm", Mm: "mm", Km: "km", Pct: "%" }[unit[1]] : "";
+  return sym ? `${words} (${sym})` : words;
+}
+
+/**
+ * Any place the API names in `fields` as a person reads it: a stack or requirement path as
+ * `pathLabel` gives it, a study setting, what-if or as-built field in words
+ * ("study.tilts[1].pitchDeg" → "attitude 2: pitch (°)", "values.3" → "value 4"). Never the path.
+ */
+export function placeLabel(path: string, stack?: StackLike): string {
+  const p = path.replace(/^study\./, "");
+  if (p === "" || p === "study") return "the study";
+  if (/^(stack\.)?elements\b/.test(p) || /^requirements\[\d+\]/.test(p) || p === "stack") return pathLabel(p, stack);
+  const parts = p.replace(/\[(\w+)\]/g, ".$1").split(".");
+  const out: string[] = [];
+  for (let i = 0; i < parts.length; i++) {
+    const key = parts[i];
+    const next = parts[i + 1];
+    if ((key === "costs" || key === "bounds") && next !== undefined) {
+      // the rest is a source id ("mag.bondLine"), a name of the model
+      out.push(`${key === "costs" ? "cost" : "bounds"} of ${parts.slice(i + 1).join(".")}`);
+      break;
+    }
+    if (next !== undefined && /^\d+$/.test(next) && LIST_ITEM[key]) {
+      out.push(`${LIST_ITEM[key]} ${Number(next) + 1}`);
+      i++;
+    } else if (/^\d+$/.test(key)) out.push(`item ${Number(key) + 1}`);
+    else out.push(SETTING_WORDS[key] ?? keyWords(key));
+  }
+  return out.join(": ");
+}

@@ -1,5 +1,5 @@
 import type { FieldValues, Path, UseFormReturn } from "react-hook-form";
-import { readableMessage } from "@shared/field-labels";
+import { placeLabel, readableMessage } from "@shared/field-labels";
 import { isApiError } from "./api-client";
 
 /** Messages from the shared schemas may start in lower case ("must be a valid e-mail address"). */
@@ -7,6 +7,12 @@ export function sentence(message: string): string {
   // the file's keys, element paths and unit words become the words a person reads
   const m = readableMessage(message);
   return m.charAt(0).toUpperCase() + m.slice(1);
+}
+
+/** One of a 400's field messages as a person reads it: the place in words, never the API's path. */
+export function fieldProblemText(f: { path: string; message: string }): string {
+  const message = readableMessage(f.message);
+  return f.path ? `${sentence(placeLabel(f.path))}: ${message}` : sentence(message);
 }
 
 /** The longest part of `path` ("cc.2" or "cc[2]" -> "cc") that names a value the form holds, if any. */

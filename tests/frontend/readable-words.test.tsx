@@ -6,7 +6,8 @@ import { useMemo, type ReactNode } from "react";
 import { cleanup, fireEvent, render, screen } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import type { StackFile } from "@shared/schemas/stack-file";
-import { fieldLabel, pathLabel, readableMessage } from "@shared/field-labels";
+import { fieldLabel, pathLabel, placeLabel, readableMessage } from "@shared/field-labels";
+import { fieldProblemText } from "@frontend/lib/form";
 import reference from "../fixtures/stack-reference.json" with { type: "json" };
 import { EditorContext, type EditorApi } from "@frontend/features/stack-editor/components/editor-context";
 import { ProblemList } from "@frontend/features/stack-editor/components/problem-list";
@@ -109,5 +110,26 @@ describe("places and units in words", () => {
     expect(text).toContain("bond-line thickness (µm)");
     expect(text).toContain("length x (mm)");
     expect(text).not.toMatch(/elements\[|\bum\b|thicknessUm|size\.x|axisTol/);
+  });
+
+  it("names the places of study settings, what-if and as-built bodies in words, never as the API's path", () => {
+    const s = stack();
+    expect(placeLabel("study.tilts[1].pitchDeg")).toBe("attitude 2: pitch (°)");
+    expect(placeLabel("study.calibration.residualDeg.tol")).toBe("calibration: residual (°): ± tolerance");
+    expect(placeLabel("values.3")).toBe("value 4");
+    expect(placeLabel("free.0")).toBe("free source 1");
+    expect(placeLabel("bounds.mag.bondLine")).toBe("bounds of mag.bondLine");
+    expect(placeLabel("asBuilt[2].datasetId")).toBe("measured source 3: data set");
+    expect(placeLabel("site.latitudeDeg")).toBe("site: latitude (°)");
+    expect(placeLabel("study.requirements[0].yield")).toBe("requirement 1: yield target (%)");
+    expect(placeLabel("stack.elements[5].size.z", s)).toBe("mag: thickness z (mm)");
+    // a key no table knows still reads as words, its unit as a symbol
+    expect(placeLabel("study.someNewLimitUm")).toBe("some new limit (µm)");
+    expect(fieldProblemText({ path: "values.1", message: "a tolerance must be greater than 0" })).toBe(
+      "Value 2: a tolerance must be greater than 0",
+    );
+    expect(fieldProblemText({ path: "study.elements[5].bondLine.thicknessUm", message: "must be at least 1 um" })).not.toMatch(
+      /elements\[|\bum\b|thicknessUm/,
+    );
   });
 });

@@ -52,4 +52,35 @@ describe("SweepPanel form", () => {
     expect(body.study.trials).toBe(4000);
     expect(screen.queryByText("Give at least 2 values")).toBeNull();
   });
+
+  it("shows a refusal of the server with each place in words, not the API's paths", async () => {
+    mockFetch(() =>
+      jsonResponse(400, {
+        error: {
+          code: "invalid_body",
+          message: "The sweep was refused.",
+          fields: [
+            { path: "values.1", message: "must be between 0 and 90" },
+            { path: "study.tilts[0].pitchDeg", message: "must be a number" },
+          ],
+        },
+      }),
+    );
+    renderWithApp(
+      <SweepPanel
+        revisionId={REV}
+        stack={read("stack-reference.json")}
+        study={read("study-reference.json")}
+        canRun
+        runId={null}
+        onRun={() => undefined}
+      />,
+    );
+    fireEvent.click(screen.getByRole("button", { name: "Run the sweep" }));
+    const alert = await screen.findByText(/The sweep was refused\./);
+    const text = alert.textContent ?? "";
+    expect(text).toContain("Value 2: must be between 0 and 90");
+    expect(text).toContain("Attitude 1: pitch (°): must be a number");
+    expect(text).not.toMatch(/values\.1|study\.|tilts\[|pitchDeg/);
+  });
 });

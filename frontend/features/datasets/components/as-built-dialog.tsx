@@ -8,6 +8,7 @@ import { Dialog } from "@frontend/components/ui/dialog";
 import { Field, Select } from "@frontend/components/ui/field";
 import { studyQueryOptions, useCreateStudy, useStudies } from "@frontend/features/studies";
 import { isApiError } from "@frontend/lib/api-client";
+import { fieldProblemText } from "@frontend/lib/form";
 import { formatCount } from "@shared/format";
 
 type Choice = { use: boolean; mode: AsBuiltEntry["mode"] };
@@ -85,7 +86,7 @@ export function AsBuiltDialog({ dataset, open, onClose }: { dataset: Dataset; op
     loadError ??
     (create.isError
       ? isApiError(create.error)
-        ? [create.error.message, ...create.error.fields.map((f) => `${f.path}: ${f.message}`)].join(" ")
+        ? [create.error.message, ...create.error.fields.map(fieldProblemText)].join(" ")
         : "The study could not be queued."
       : null);
 

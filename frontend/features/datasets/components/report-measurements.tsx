@@ -83,7 +83,7 @@ export function ReportMeasurements({ reportId, canSend }: { reportId: string; ca
       <div className="flex flex-col gap-3">
         {canSend ? (
           <p className="text-xs text-ink/60">
-            One row per unit, one column per measured quantity with its unit in the header, e.g. “tilt_x [deg]” or “bond line [um]”; CSV or
+            One row per unit, one column per measured quantity with its unit in the header, e.g. “tilt_x [deg]” or “bond line [µm]”; CSV or
             .xlsx, up to {DATASET_MAX_BYTES / 1048576} MB.
           </p>
         ) : null}

@@ -4,6 +4,7 @@ import { Alert } from "@frontend/components/ui/alert";
 import { Button } from "@frontend/components/ui/button";
 import { Select } from "@frontend/components/ui/field";
 import { isApiError } from "@frontend/lib/api-client";
+import { fieldProblemText } from "@frontend/lib/form";
 import { useCreateStudy } from "../api/create-study";
 import type { StudyDetail } from "../api/get-study";
 
@@ -63,9 +64,7 @@ export function CompareRunElsewhere({
           {isApiError(create.error) && create.error.fields.length ? (
             <ul className="mt-1 list-disc pl-4">
               {create.error.fields.map((f) => (
-                <li key={f.path}>
-                  <span className="font-mono">{f.path}</span>: {f.message}
-                </li>
+                <li key={`${f.path}:${f.message}`}>{fieldProblemText(f)}</li>
               ))}
             </ul>
           ) : null}

@@ -8,6 +8,7 @@ import { type StackFile, validateStackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
 import { compileForViewer, drawsFor, type PoseChoice, poseSet } from "../lib/poses";
 import { formatNumberUnit } from "@shared/format";
+import { pathLabel, readableMessage } from "@shared/field-labels";
 
 export interface WorstTrialPick {
   metric: string;
@@ -33,7 +34,8 @@ export function useViewerPose({ stack, study, worstTrials, trialIndex, onTrialCh
   const drawn = validation.ok ? validation.stack : lastGood.current;
   const stackIssue = validation.ok
     ? null
-    : `${validation.issues[0]?.path ? `${validation.issues[0].path}: ` : ""}${validation.issues[0]?.message ?? "invalid stack"}`;
+    : // the place in words ("mag: thickness z (mm)"), never the file's path
+      `${validation.issues[0]?.path ? `${pathLabel(validation.issues[0].path, stack)}: ` : ""}${readableMessage(validation.issues[0]?.message ?? "invalid stack", stack)}`;
 
   const vm = useMemo(() => {
     if (!drawn) return null;

@@ -12,7 +12,7 @@ import { Button } from "@frontend/components/ui/button";
 import { Field, Input, Select } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
 import { isApiError } from "@frontend/lib/api-client";
-import { setServerErrors } from "@frontend/lib/form";
+import { fieldProblemText, setServerErrors } from "@frontend/lib/form";
 import { useCancelSweep, useCreateSweep, useSweep } from "../api/what-if";
 import { defaultSourceValues, evenValues, TrialsTextSchema, ValuesTextSchema } from "../lib/values";
 import { RunCancelled, RunProgress } from "./run-progress";
@@ -122,7 +122,7 @@ export function SweepPanel({
           </form>
           {create.error ? (
             <Alert className="mt-3" title="The sweep was not started">
-              {create.error.message} {fieldErrors?.map((f) => `${f.path}: ${f.message}`).join("; ")}
+              {create.error.message} {fieldErrors?.map(fieldProblemText).join("; ")}
             </Alert>
           ) : null}
         </Panel>
