@@ -1,4 +1,4 @@
-/** What other features use of revisions: the review and edit mutations, the status chip and the note field. */
+/** What other features use of revisions: the review and edit mutations, the status chip, the note field and the template dialog. */
 export { useAddRevisionComment } from "./api/add-revision-comment";
 export { useApproveRevision } from "./api/approve-revision";
 export { useCreateDraftFrom } from "./api/create-draft";
@@ -11,3 +11,4 @@ export { RevisionChanges } from "./components/revision-changes";
 export { NoteDialog } from "./components/note-dialog";
 export { NoteField } from "./components/note-field";
 export { SubmitDialog } from "./components/submit-dialog";
+export { TemplateDialog } from "./components/template-dialog";

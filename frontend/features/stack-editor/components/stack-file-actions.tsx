@@ -9,7 +9,9 @@ import {
   stackFileText,
   type ImportIssue,
 } from "@frontend/features/stack-files";
+import { TemplateDialog } from "@frontend/features/revisions";
 import { downloadBlob } from "@frontend/lib/download";
+import { validateStackFile } from "@shared/schemas/stack-file";
 import { useEditor } from "./editor-context";
 
 const ImportIcon = () => (
@@ -43,11 +45,15 @@ const ExportIcon = () => (
   </svg>
 );
 
-/** Import replaces the draft's stack (one undo step); export downloads what is on screen. */
+/**
+ * Import replaces the draft's stack (one undo step), so does a template (its requirements
+ * too; the stack keeps its name); export downloads what is on screen.
+ */
 export function StackFileActions({ revision, readOnly }: { revision: Revision; readOnly: boolean }) {
   const { doc, update } = useEditor();
   const input = useRef<HTMLInputElement>(null);
   const [refused, setRefused] = useState<{ fileName: string; message: string; issues: ImportIssue[] } | null>(null);
+  const [templatesOpen, setTemplatesOpen] = useState(false);
 
   async function onFile(file: File) {
     if (file.size > MAX_IMPORT_BYTES) {
@@ -88,6 +94,25 @@ export function StackFileActions({ revision, readOnly }: { revision: Revision; r
           >
             Import
           </Button>
+          <Button
+            size="sm"
+            onClick={() => setTemplatesOpen(true)}
+            title="Replace this draft's stack and requirements with a template's (undo restores them)"
+          >
+            Template…
+          </Button>
+          <TemplateDialog
+            open={templatesOpen}
+            onClose={() => setTemplatesOpen(false)}
+            pending={false}
+            onChoose={(t) => {
+              // the server's templates are valid stacks (tests/backend/stack-help.test.ts); checked here all the same
+              const v = validateStackFile(t.stack);
+              if (!v.ok) return;
+              update((d) => ({ stack: { ...v.stack, name: d.stack.name || v.stack.name }, requirements: t.requirements }), "template");
+              setTemplatesOpen(false);
+            }}
+          />
         </>
       )}
       <Button
