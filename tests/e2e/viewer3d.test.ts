@@ -424,6 +424,23 @@ describe("3D view in the browser", () => {
     expect(await pixelDifference(page, "exploded-framed", "section")).toBeGreaterThan(0.005);
   });
 
+  it("outlines an element with a geometry warning in the warning colour and says so", async () => {
+    // the pointer leaves the view first, so no hover changes the picture meanwhile
+    await page.getByTestId("harness-flag").hover();
+    await settle(page);
+    await canvasStats(page, "unflagged");
+    await act(page, () => page.getByTestId("harness-flag").click());
+    expect(await page.getByTestId("viewer-geometry-warnings").textContent()).toMatch(/Geometry warning on gyro: outlined in amber/);
+    await shot(page, "viewer3d-warning-gyro");
+    await canvasStats(page, "flagged");
+    // the gyro's outline changes colour: a thin line, some hundreds of pixels
+    expect(await pixelDifference(page, "unflagged", "flagged")).toBeGreaterThan(0.0002);
+    await act(page, () => page.getByTestId("harness-flag").click());
+    expect(await page.getByTestId("viewer-geometry-warnings").count()).toBe(0);
+    await canvasStats(page, "cleared");
+    expect(await pixelDifference(page, "unflagged", "cleared")).toBeLessThan(0.0001);
+  });
+
   it("saves a picture of the view at twice its pixels, the caption inside it", async () => {
     const canvasSize = () =>
       page.evaluate(() => {

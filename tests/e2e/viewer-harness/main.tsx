@@ -43,6 +43,8 @@ function Harness() {
   const worst = useMemo(worstOfFirstTrials, []);
   const [trial, setTrial] = useState<number | null>(null);
   const [selected, setSelected] = useState<string | null>(null);
+  /** elements with a geometry warning, as the editor passes them; toggled by the test */
+  const [flagged, setFlagged] = useState<string[]>([]);
   return (
     <div style={{ padding: 16, display: "flex", flexDirection: "column", gap: 8, height: "100vh", boxSizing: "border-box" }}>
       <div style={{ display: "flex", gap: 24, fontSize: 12 }}>
@@ -53,6 +55,9 @@ function Harness() {
         <span>
           selected: <output data-testid="harness-selected">{selected ?? "none"}</output>
         </span>
+        <button type="button" data-testid="harness-flag" onClick={() => setFlagged((f) => (f.length ? [] : ["gyro"]))}>
+          {flagged.length ? "clear warning" : "warn on gyro"}
+        </button>
         <script type="application/json" data-testid="harness-worst" dangerouslySetInnerHTML={{ __html: JSON.stringify(worst) }} />
       </div>
       <Suspense fallback={<div data-testid="viewer-loading">Loading the 3D view…</div>}>
@@ -64,6 +69,7 @@ function Harness() {
           onTrialChange={setTrial}
           selectedId={selected}
           onSelect={setSelected}
+          flaggedIds={flagged}
           revisionLabel="revision 3"
           className="min-h-0 flex-1"
         />
