@@ -8,7 +8,7 @@
  * interval stays above zero. Sources whose linearised sensitivity is exactly zero cannot
  * move the metric and are left out whatever the regression's noise gives them.
  */
-import type { ResultFile } from "@shared/schemas/result-file";
+import type { ResultFile } from "./schemas/result-file";
 
 type Contributors = ResultFile["contributors"][number];
 

@@ -8,6 +8,7 @@ import type { Study } from "@shared/schemas/studies";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { metricLabel } from "@shared/metrics";
 import { unitText } from "@shared/format";
+import { mcShares } from "@shared/contributor-significance";
 import { conflict } from "../lib/errors";
 import { csvCell, type Cell } from "./report-sheets";
 
@@ -43,11 +44,11 @@ export function studyTables(r: ResultFile): Table[] {
       "Unit",
       "Mean",
       "Std deviation",
-      "P50 |value|",
-      "P95 |value|",
-      "P99 |value|",
-      "P99.73 |value|",
-      "Max |value|",
+      "P50 of absolute value",
+      "P95 of absolute value",
+      "P99 of absolute value",
+      "P99.73 of absolute value",
+      "Max of absolute value",
       "Smallest value",
       "Largest value",
       "95 % interval low",
@@ -77,7 +78,7 @@ export function studyTables(r: ResultFile): Table[] {
       "Metric",
       "Metric id",
       "Unit",
-      "Limit |value|",
+      "Limit on absolute value",
       "Yield target (%)",
       "Predicted yield (%)",
       "95 % CI low (%)",
@@ -102,20 +103,42 @@ export function studyTables(r: ResultFile): Table[] {
       r6(q.limitAtTarget),
     ]),
   };
+  // the Monte Carlo shares as the study page reads them: each with its 95 % interval from the
+  // regression, and whether it is told apart from zero; a source the metric does not depend
+  // on at all (linearised sensitivity exactly zero) is said to be so, not given a noise share
+  const draws = new Map(r.sources.map((x) => [x.id, x.draws] as const));
   const contributors: Table = {
     title: "Contributors",
-    header: ["Metric", "Metric id", "Source", "Linearised share (%)", "Monte Carlo share (%)", "Basis", "Monte Carlo R²"],
-    rows: r.contributors.flatMap((c) =>
-      c.sources.map((s) => [
-        metricLabel(c.metric),
-        c.metric,
-        s.source,
-        pct(s.linearShare),
-        pct(s.mcShare),
-        c.basis === "variance" ? "variance" : "mean square",
-        r6(c.mcR2),
-      ]),
-    ),
+    header: [
+      "Metric",
+      "Metric id",
+      "Source",
+      "Linearised share (%)",
+      "Monte Carlo share (%)",
+      "Monte Carlo share 95 % low (%)",
+      "Monte Carlo share 95 % high (%)",
+      "Monte Carlo share told from zero",
+      "Basis",
+      "Monte Carlo R²",
+    ],
+    rows: r.contributors.flatMap((c) => {
+      const mc = mcShares(c, r.trials, (id) => draws.get(id) ?? 1);
+      return c.sources.map((s) => {
+        const m = mc.get(s.source);
+        return [
+          metricLabel(c.metric),
+          c.metric,
+          s.source,
+          pct(s.linearShare),
+          s.linearContribution === 0 ? null : pct(s.mcShare),
+          pct(m?.lo),
+          pct(m?.hi),
+          s.linearContribution === 0 ? "no sensitivity" : m ? (m.significant ? "yes" : "no") : null,
+          c.basis === "variance" ? "variance" : "mean square",
+          r6(c.mcR2),
+        ];
+      });
+    }),
   };
   const envelope: Table = {
     title: "Heading envelope",

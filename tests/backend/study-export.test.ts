@@ -56,11 +56,11 @@ describe("study export", () => {
       "Unit",
       "Mean",
       "Std deviation",
-      "P50 |value|",
-      "P95 |value|",
-      "P99 |value|",
-      "P99.73 |value|",
-      "Max |value|",
+      "P50 of absolute value",
+      "P95 of absolute value",
+      "P99 of absolute value",
+      "P99.73 of absolute value",
+      "Max of absolute value",
     ]);
     expect(metrics.map((r) => r[1])).toEqual(Object.keys(result.metrics));
     for (const row of metrics) {
@@ -84,7 +84,34 @@ describe("study export", () => {
       expect(row[9]).toBe(q.passes ? "yes" : "no");
     });
 
-    const [, ...contrib] = rowsOf(wb.getWorksheet("Contributors")!);
+    const [contribHead, ...contrib] = rowsOf(wb.getWorksheet("Contributors")!);
+    expect(contribHead.slice(4, 8)).toEqual([
+      "Monte Carlo share (%)",
+      "Monte Carlo share 95 % low (%)",
+      "Monte Carlo share 95 % high (%)",
+      "Monte Carlo share told from zero",
+    ]);
+    // every source in the order of the result; each Monte Carlo share inside its interval, told
+    // apart from zero only when the interval stays above it; no share for a source the metric
+    // does not depend on
+    const sources = result.contributors.flatMap((c) => c.sources);
+    contrib.forEach((row, i) => {
+      const src = sources[i];
+      expect(row[2]).toBe(src.source);
+      if (src.linearContribution === 0) {
+        expect(row[7]).toBe("no sensitivity");
+        expect(row[4] ?? null).toBeNull();
+        return;
+      }
+      if (src.mcShare === null) return;
+      const [share, lo, hi] = [row[4], row[5], row[6]] as number[];
+      expect(lo).toBeLessThanOrEqual(share + 1e-4);
+      expect(hi).toBeGreaterThanOrEqual(share - 1e-4);
+      // a share not told apart from zero has an interval reaching zero
+      expect(["yes", "no"]).toContain(row[7]);
+      if (row[7] === "no") expect(lo).toBe(0);
+    });
+    expect(contrib.some((row) => row[7] === "yes")).toBe(true);
     expect(contrib).toHaveLength(result.contributors.reduce((n, c) => n + c.sources.length, 0));
     const first = result.contributors[0];
     expect(contrib[0].slice(1, 4)).toEqual([

@@ -10,7 +10,7 @@ import { formatShare, formatSignedTick } from "@shared/format";
 import { ContributorsPanel } from "@frontend/features/studies/components/contributors-pareto";
 import { axisWidthFor } from "@frontend/features/studies/components/chart-theme";
 import { CalibrationNote } from "@frontend/features/studies/components/study-cautions";
-import { mcShares } from "@frontend/features/studies/lib/mc-significance";
+import { mcShares } from "@shared/contributor-significance";
 import { paretoRows } from "@frontend/features/studies/lib/pareto";
 
 vi.setConfig({ testTimeout: 30_000 });

@@ -4,7 +4,7 @@ import { ChartDownload } from "@frontend/components/ui/chart-download";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { Table, THead, Td, Th, Tr } from "@frontend/components/ui/table";
 import { metricLabel } from "@shared/metrics";
-import { mcShares, type McShare } from "../lib/mc-significance";
+import { mcShares, type McShare } from "@shared/contributor-significance";
 import { paretoRows, sourcesToReach, type ContributorMethod, type ParetoRow } from "../lib/pareto";
 import { axisLine, axisTick, gridProps, INK, SENSOR_COLOUR, tooltipStyle } from "./chart-theme";
 import { MetricSelect } from "./metric-select";
