@@ -1,9 +1,11 @@
-import { cleanup, fireEvent, screen, waitFor, within } from "@testing-library/react";
+import { cleanup, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import stack from "../../backend/demo/ridgeline-stack.json";
+import { SettingsCalibrationPanel } from "@frontend/features/studies/components/settings-calibration-panel";
 import { StudySettingsForm } from "@frontend/features/studies/components/study-settings-form";
 import { buildStudy, defaultFormValues, formValuesFromStudy, issuesToErrors } from "@frontend/features/studies/lib/study-form";
 import type { StackFile } from "@shared/schemas/stack-file";
+import { typicalOf } from "@shared/typical-tolerances";
 import { jsonResponse, mockFetch, renderWithApp } from "./helpers";
 
 afterEach(() => {
@@ -260,5 +262,16 @@ describe("the study file the form makes", () => {
     if (!first.ok) return;
     const again = buildStudy(formValuesFromStudy(first.study, null), s);
     expect(again.ok && again.study).toEqual(first.study);
+  });
+});
+
+describe("the calibration residual", () => {
+  it("starts from the typical residual, never ±0, and shows it beside the field", () => {
+    const typical = typicalOf("calibration.residualDeg", "calibration")!;
+    const v = { ...defaultFormValues(5), calibrationAfter: "package" as const };
+    expect(Number(v.residualTol)).toBe(typical.tol);
+    expect(v.residualDist).toBe(typical.dist);
+    render(<SettingsCalibrationPanel v={{ ...v, residualTol: "0.2" }} set={() => undefined} errors={{}} />);
+    expect(screen.getByText(/typical ±0\.05° \(common practice\)/)).toBeTruthy();
   });
 });

@@ -1,9 +1,9 @@
 import { Field, Input, Select } from "@frontend/components/ui/field";
 import { Panel } from "@frontend/components/ui/panel";
-import type { StudyFormValues } from "../lib/study-form";
+import { TYPICAL_RESIDUAL, type StudyFormValues } from "../lib/study-form";
 import { SegmentedControl } from "./segmented-control";
 import type { SettingsSectionProps } from "./settings-section-props";
-import { MRAD_PER_DEG, formatNumber } from "@shared/format";
+import { MRAD_PER_DEG, formatNumber, formatPlain } from "@shared/format";
 
 /** Calibration after a stage and the residual it leaves. */
 export function SettingsCalibrationPanel({ v, set, errors }: SettingsSectionProps) {
@@ -44,7 +44,7 @@ export function SettingsCalibrationPanel({ v, set, errors }: SettingsSectionProp
               label="Residual ±"
               aside="deg, per axis"
               error={errors.residualTol}
-              hint={Number.isFinite(residualMrad) ? `± ${formatNumber(residualMrad)} mrad` : undefined}
+              hint={`${Number.isFinite(residualMrad) ? `± ${formatNumber(residualMrad)} mrad · ` : ""}typical ±${formatPlain(TYPICAL_RESIDUAL.tol)}° (${TYPICAL_RESIDUAL.basis})`}
             >
               {({ id, describedBy, invalid }) => (
                 <Input

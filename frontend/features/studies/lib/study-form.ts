@@ -8,6 +8,10 @@ import { checkStudyAgainstStack, StudyFileObjectSchema, type StudyFile } from "@
 import { SiteSchema, type FieldAtSite, type Site } from "@shared/schemas/site";
 import { fromZodError, type FieldError, type StackFile } from "@shared/schemas/stack-file";
 import type { CreateStudy } from "@shared/schemas/studies";
+import { typicalOf } from "@shared/typical-tolerances";
+
+/** The calibration residual a study starts from: the typical one (shared/typical-tolerances.ts), never ±0. */
+export const TYPICAL_RESIDUAL = typicalOf("calibration.residualDeg", "calibration")!;
 
 export const DEFAULT_TILTS = [
   { pitchDeg: 0, rollDeg: 0 },
@@ -64,8 +68,8 @@ export function defaultFormValues(seed = randomSeed()): StudyFormValues {
     headingStepDeg: "10",
     tilts: DEFAULT_TILTS.map((t) => ({ pitchDeg: String(t.pitchDeg), rollDeg: String(t.rollDeg) })),
     calibrationAfter: "none",
-    residualDist: "normal",
-    residualTol: "0.05",
+    residualDist: TYPICAL_RESIDUAL.dist,
+    residualTol: String(TYPICAL_RESIDUAL.tol),
     residualSigmas: "3",
     headingAccel: "",
     headingMag: "",
