@@ -25,16 +25,22 @@ import { blockSampler, blockTrials, type SamplingMode } from "./sampling";
  */
 export const METRIC_BITS = 8;
 export const ENVELOPE_BITS = 4;
-export const metricStore = (counts?: Uint32Array) => new LogHistogram(METRIC_BITS, -24, 40, counts);
-export const envelopeStore = (counts?: Uint32Array) => new LogHistogram(ENVELOPE_BITS, -14, 22, counts);
+const METRIC_LOW_EXP = -24;
+const ENVELOPE_LOW_EXP = -14;
+export const metricStore = (counts?: Uint32Array) => new LogHistogram(METRIC_BITS, METRIC_LOW_EXP, 40, counts);
+export const envelopeStore = (counts?: Uint32Array) => new LogHistogram(ENVELOPE_BITS, ENVELOPE_LOW_EXP, 22, counts);
 const METRIC_LEN = 2 * metricStore(new Uint32Array(0)).perSign;
 // bit layout of metricStore's buckets, for the inlined index in runBlock
 const METRIC_SHIFT = 20 - METRIC_BITS;
-const METRIC_BASE = (1023 - 24) << METRIC_BITS;
+const METRIC_BASE = (1023 + METRIC_LOW_EXP) << METRIC_BITS;
 const F64 = new Float64Array(1);
 const U32 = new Uint32Array(F64.buffer);
 const HI_WORD = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1 ? 1 : 0;
 const ENVELOPE_LEN = 2 * envelopeStore(new Uint32Array(0)).perSign;
+const ENVELOPE_SHIFT = 20 - ENVELOPE_BITS;
+const ENVELOPE_BASE = (1023 + ENVELOPE_LOW_EXP) << ENVELOPE_BITS;
+/** 1/(i+1) for the i-th trial of a block (Welford's step) */
+const INV_COUNT = Float64Array.from({ length: BLOCK_SIZE }, (_, i) => 1 / (i + 1));
 
 /**
  * The regression sums use the first REG_TRIALS_PER_BLOCK trials of every block (1/16 of
@@ -221,53 +227,20 @@ export function runBlock(m: Model, plan: Plan, st: WorkerState, block: number): 
   };
   if (K > 0) for (let k = 0; k < nM; k++) refreshThr(k);
   const perSign = hist.perSign;
+  // the block's values, trial-major: metrics, and every attitude's heading error of the
+  // envelope's trials; filled by the trial loop, counted per metric after it
+  const nEnv = nAtt > 0 ? Math.min(n, ENV_TRIALS_PER_BLOCK) : 0;
+  const blockVals = blockBuffer(0, n * nM);
+  const envVals = blockBuffer(1, nEnv * nAtt);
 
   for (let i = 0; i < n; i++) {
     sampler.next(draws);
     // the envelope needs every attitude's error; the other trials may take the screened sweep
     s.perAttitude = i < ENV_TRIALS_PER_BLOCK;
     evaluateTrial(m, draws, s);
+    blockVals.set(s.metrics, i * nM);
     const vals = s.metrics;
-    const invCnt = 1 / (i + 1);
-    for (let k = 0; k < nM; k++) {
-      const v = vals[k];
-      // Welford
-      const mean = moments[2 * k];
-      const d = v - mean;
-      const nm = mean + d * invCnt;
-      moments[2 * k] = nm;
-      moments[2 * k + 1] += d * (v - nm);
-      // metricStore().index(v), inlined: the exponent and top mantissa bits of |v|
-      F64[0] = v;
-      const hi = U32[HI_WORD];
-      let b = ((hi & 0x7fffffff) >>> METRIC_SHIFT) - METRIC_BASE + 1;
-      if (b < 1) b = 0;
-      else if (b > perSign - 2) b = perSign - 1;
-      stHist[k * hLen + (hi >>> 31 ? perSign + b : b)]++;
-      const a = v < 0 ? -v : v;
-      if (a < minAbs[k]) minAbs[k] = a;
-      if (a > maxAbs[k]) maxAbs[k] = a;
-      if (v < vMin[k]) vMin[k] = v;
-      if (v > vMax[k]) vMax[k] = v;
-      if (a >= thr[k]) {
-        insertWorst(st, k, v, firstTrial + i);
-        refreshThr(k);
-      }
-    }
-    for (let r = 0; r < reqs.length; r++) {
-      const v = vals[reqs[r].metric];
-      if ((v < 0 ? -v : v) <= reqs[r].max) pass[r]++;
-    }
-    for (let t = 0; t < nT; t++) tracked[i * nT + t] = vals[trackedIdx[t]];
-    if (nAtt > 0 && i < ENV_TRIALS_PER_BLOCK) {
-      const he = s.headingErr;
-      for (let k = 0; k < nAtt; k++) {
-        const e = he[k];
-        stEnv[k * eLen + envH.index(e)]++;
-        if (e < envMin[k]) envMin[k] = e;
-        if (e > envMax[k]) envMax[k] = e;
-      }
-    }
+    if (i < nEnv) envVals.set(s.headingErr, i * nAtt);
     if (nR > 0 && i < REG_TRIALS_PER_BLOCK) {
       zLin[0] = 1;
       zSq[0] = 1;
@@ -290,8 +263,90 @@ export function runBlock(m: Model, plan: Plan, st: WorkerState, block: number): 
       }
     }
   }
+  // second pass, metric by metric: each metric's histogram stays in cache while its
+  // values of the block go in (same arithmetic, same order of trials as one pass)
+  for (let k = 0; k < nM; k++) {
+    let mean = 0,
+      m2 = 0,
+      lo = minAbs[k],
+      hiA = maxAbs[k],
+      mn = vMin[k],
+      mx = vMax[k],
+      th = thr[k];
+    const ho = k * hLen;
+    for (let i = 0, o = k; i < n; i++, o += nM) {
+      const v = blockVals[o];
+      const d = v - mean;
+      const nm = mean + d * INV_COUNT[i];
+      mean = nm;
+      m2 += d * (v - nm);
+      F64[0] = v;
+      const hi = U32[HI_WORD];
+      let b = ((hi & 0x7fffffff) >>> METRIC_SHIFT) - METRIC_BASE + 1;
+      if (b < 1) b = 0;
+      else if (b > perSign - 2) b = perSign - 1;
+      stHist[ho + (hi >>> 31 ? perSign + b : b)]++;
+      const a = v < 0 ? -v : v;
+      if (a < lo) lo = a;
+      if (a > hiA) hiA = a;
+      if (v < mn) mn = v;
+      if (v > mx) mx = v;
+      if (a >= th) {
+        insertWorst(st, k, v, firstTrial + i);
+        refreshThr(k);
+        th = thr[k];
+      }
+    }
+    moments[2 * k] = mean;
+    moments[2 * k + 1] = m2;
+    minAbs[k] = lo;
+    maxAbs[k] = hiA;
+    vMin[k] = mn;
+    vMax[k] = mx;
+  }
+  for (let r = 0; r < reqs.length; r++) {
+    const mk = reqs[r].metric,
+      max = reqs[r].max;
+    let c = 0;
+    for (let i = 0, o = mk; i < n; i++, o += nM) {
+      const v = blockVals[o];
+      if ((v < 0 ? -v : v) <= max) c++;
+    }
+    pass[r] += c;
+  }
+  for (let i = 0; i < n; i++) for (let t = 0; t < nT; t++) tracked[i * nT + t] = blockVals[i * nM + trackedIdx[t]];
+  // the heading envelope, attitude by attitude (envelopeStore().index(e), inlined)
+  const envPerSign = envH.perSign;
+  for (let k = 0; k < nAtt; k++) {
+    let lo = envMin[k],
+      hiE = envMax[k];
+    const eo = k * eLen;
+    for (let i = 0, o = k; i < nEnv; i++, o += nAtt) {
+      const e = envVals[o];
+      F64[0] = e;
+      const hi = U32[HI_WORD];
+      let b = ((hi & 0x7fffffff) >>> ENVELOPE_SHIFT) - ENVELOPE_BASE + 1;
+      if (b < 1) b = 0;
+      else if (b > envPerSign - 2) b = envPerSign - 1;
+      stEnv[eo + (hi >>> 31 ? envPerSign + b : b)]++;
+      if (e < lo) lo = e;
+      if (e > hiE) hiE = e;
+    }
+    envMin[k] = lo;
+    envMax[k] = hiE;
+  }
   st.n += n;
   return { block, n, moments, tracked, xtxLin, xtxSq, xty };
+}
+
+/**
+ * Buffers of the block's values, kept between blocks (a thread runs one block at a time):
+ * 1.5 MB each for the reference study, too much garbage to make per block.
+ */
+const blockBuffers: Float64Array[] = [new Float64Array(0), new Float64Array(0)];
+function blockBuffer(which: 0 | 1, length: number): Float64Array {
+  if (blockBuffers[which].length < length) blockBuffers[which] = new Float64Array(length);
+  return blockBuffers[which];
 }
 
 function accumulateTri(tri: Float64Array, z: Float64Array, len: number): void {

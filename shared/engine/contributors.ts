@@ -24,7 +24,7 @@
  *   split estimates. SRC² of that fit is reported beside it.
  * R² says how much of the variance the fit explains.
  */
-import { Matrix, solve } from "ml-matrix";
+import { Matrix, SingularValueDecomposition } from "ml-matrix";
 import type { Model } from "./compile";
 import { createScratch, evaluateTrial, meanDraws } from "./trial";
 
@@ -174,33 +174,50 @@ export interface RegressionResult {
 }
 
 /**
- * SRC² from streamed sums: tri = upper triangle of Σ z zᵀ with z = [1, regressors],
- * zy = Σ z·y, yy = Σ y². Returns null when the sample cannot support the fit.
+ * The regressors' side of a least-squares fit from streamed sums: tri = upper triangle of
+ * Σ z zᵀ with z = [1, regressors]. Every metric regressed on the same design shares it, so
+ * the pseudo-inverse of its covariance is made once. Null when the sample cannot support a fit.
  */
-export function regressionFromSums(
-  m: Model,
-  cols: Int32Array,
-  tri: Float64Array,
-  zy: Float64Array,
-  yy: number,
-  metric: string,
-  design: "linear" | "squared",
-): RegressionResult | null {
+export interface RegressionDesign {
+  n: number;
+  mu: Float64Array;
+  sd: Float64Array;
+  /** cov⁺, so that β = cov⁺·cxy */
+  pinv: Matrix;
+}
+
+/**
+ * The pseudo-inverse that ml-matrix's solve(cov, y, true) applies to y, computed the way
+ * SingularValueDecomposition.solve computes it (V·diag(1/s)·Uᵀ, singular values at or below
+ * its threshold dropped, the same products in the same order), so that pinv.mmul(y) gives
+ * that solve's numbers bit for bit while the decomposition is made once.
+ */
+function pseudoInverse(svd: SingularValueDecomposition): Matrix {
+  const s = svd.diagonal;
+  const e = svd.threshold;
+  const Ls = Matrix.zeros(s.length, s.length);
+  for (let i = 0; i < s.length; i++) Ls.set(i, i, Math.abs(s[i]) <= e ? 0 : 1 / s[i]);
+  const U = svd.leftSingularVectors;
+  const VL = svd.rightSingularVectors.mmul(Ls);
+  const out = Matrix.zeros(VL.rows, U.rows);
+  for (let i = 0; i < VL.rows; i++)
+    for (let j = 0; j < U.rows; j++) {
+      let sum = 0;
+      for (let k = 0; k < s.length; k++) sum += VL.get(i, k) * U.get(j, k);
+      out.set(i, j, sum);
+    }
+  return out;
+}
+
+export function regressionDesign(cols: Int32Array, tri: Float64Array): RegressionDesign | null {
   const p = cols.length;
   const L = p + 1;
-  const S = (a: number, b: number) => {
-    if (a > b) [a, b] = [b, a];
-    return tri[a * L - (a * (a - 1)) / 2 + (b - a)];
-  };
+  const S = triAt(tri, L);
   const n = S(0, 0);
   if (p === 0 || n < p + 3) return null;
   const mu = new Float64Array(L);
   for (let j = 1; j < L; j++) mu[j] = S(0, j) / n;
-  const muY = zy[0] / n;
-  const varY = (yy - n * muY * muY) / (n - 1);
-  if (!(varY > 0)) return null;
   const cov = new Matrix(p, p);
-  const cxy = new Matrix(p, 1);
   const sd = new Float64Array(p);
   for (let a = 0; a < p; a++) {
     for (let b = a; b < p; b++) {
@@ -209,14 +226,43 @@ export function regressionFromSums(
       cov.set(b, a, c);
     }
     sd[a] = Math.sqrt(Math.max(0, cov.get(a, a)));
-    cxy.set(a, 0, (zy[a + 1] - n * mu[a + 1] * muY) / (n - 1));
   }
-  let beta: Matrix;
   try {
-    beta = solve(cov, cxy, true);
+    return { n, mu, sd, pinv: pseudoInverse(new SingularValueDecomposition(cov)) };
   } catch {
     return null;
   }
+}
+
+function triAt(tri: Float64Array, L: number): (a: number, b: number) => number {
+  return (a, b) => {
+    if (a > b) [a, b] = [b, a];
+    return tri[a * L - (a * (a - 1)) / 2 + (b - a)];
+  };
+}
+
+/**
+ * SRC² of one metric on a design (regressionDesign): zy = Σ z·y, yy = Σ y². Returns null
+ * when the sample cannot support the fit.
+ */
+export function regressionFromSums(
+  m: Model,
+  cols: Int32Array,
+  design: RegressionDesign | null,
+  zy: Float64Array,
+  yy: number,
+  metric: string,
+  kind: "linear" | "squared",
+): RegressionResult | null {
+  if (!design) return null;
+  const p = cols.length;
+  const { n, mu, sd } = design;
+  const muY = zy[0] / n;
+  const varY = (yy - n * muY * muY) / (n - 1);
+  if (!(varY > 0)) return null;
+  const cxy = new Matrix(p, 1);
+  for (let a = 0; a < p; a++) cxy.set(a, 0, (zy[a + 1] - n * mu[a + 1] * muY) / (n - 1));
+  const beta = design.pinv.mmul(cxy);
   let explained = 0;
   const sdY = Math.sqrt(varY);
   const src2 = new Float64Array(m.sources.length);
@@ -228,11 +274,11 @@ export function regressionFromSums(
     src2[m.drawSource[cols[a]]] += src * src;
     meanSq[m.drawSource[cols[a]]] += b * mu[a + 1];
   }
-  const basis = design === "linear" ? src2 : meanSq.map((v) => Math.max(0, v));
+  const basis = kind === "linear" ? src2 : meanSq.map((v) => Math.max(0, v));
   const tot = basis.reduce((x, y) => x + y, 0);
   return {
     metric,
-    design,
+    design: kind,
     r2: explained / varY,
     sources: m.sources.map((s, j) => ({ source: s.id, src2: src2[j], share: tot > 0 ? basis[j] / tot : 0 })),
   };

@@ -96,77 +96,51 @@ export class LogHistogram {
    * spread; the result is clamped to the observed [minAbs, maxAbs].
    */
   quantileAbs(q: number, minAbs: number, maxAbs: number): number {
-    const P = this.perSign;
-    const c = this.counts;
-    const n = this.total();
-    if (n === 0) return NaN;
-    const r = q * (n - 1);
-    const lo = Math.floor(r),
-      hi = Math.min(n - 1, lo + 1),
-      frac = r - lo;
-    const at = (idx: number): number => {
-      // the extreme order statistics are known exactly
-      if (idx >= n - 1) return maxAbs;
-      if (idx <= 0) return minAbs;
-      let cum = 0;
-      for (let b = 0; b < P; b++) {
-        const k = c[b] + c[P + b];
-        if (k === 0) continue;
-        if (idx < cum + k) {
-          const [l, u] = this.magnitudeBounds(b, maxAbs);
-          return l + ((idx - cum + 0.5) / k) * (u - l);
-        }
-        cum += k;
-      }
-      return maxAbs;
-    };
-    const v = frac === 0 ? at(lo) : at(lo) + frac * (at(hi) - at(lo));
-    return Math.min(maxAbs, Math.max(minAbs, v));
+    return this.quantilesAbs([q], minAbs, maxAbs)[0];
   }
 
-  /** Several |v| percentiles in one pass (qs ascending). */
+  /** Several |v| percentiles (as quantileAbs), from one pass over the buckets. */
   quantilesAbs(qs: number[], minAbs: number, maxAbs: number): number[] {
-    return qs.map((q) => this.quantileAbs(q, minAbs, maxAbs));
+    const P = this.perSign;
+    const c = this.counts;
+    const ranks = new RankedBuckets();
+    for (let b = 0; b < P; b++) ranks.push(b, c[b] + c[P + b]);
+    return qs.map((q) =>
+      ranks.quantile(q, minAbs, maxAbs, (j, idx) => {
+        const [l, u] = this.magnitudeBounds(ranks.bucket[j], maxAbs);
+        return l + ((idx - ranks.before[j] + 0.5) / ranks.count[j]) * (u - l);
+      }),
+    );
   }
 
   /** Signed percentile, clamped to the observed [min, max]. */
   quantileSigned(q: number, min: number, max: number): number {
+    return this.quantilesSigned([q], min, max)[0];
+  }
+
+  /** Several signed percentiles (as quantileSigned), from one pass over the buckets. */
+  quantilesSigned(qs: number[], min: number, max: number): number[] {
     const P = this.perSign;
     const c = this.counts;
-    const n = this.total();
-    if (n === 0) return NaN;
-    const r = q * (n - 1);
-    const lo = Math.floor(r),
-      hi = Math.min(n - 1, lo + 1),
-      frac = r - lo;
     const maxAbs = Math.max(Math.abs(min), Math.abs(max));
-    const at = (idx: number): number => {
-      if (idx >= n - 1) return max;
-      if (idx <= 0) return min;
-      let cum = 0;
-      // most negative first: negative buckets from the largest magnitude down
-      for (let b = P - 1; b >= 0; b--) {
-        const k = c[P + b];
-        if (k === 0) continue;
-        if (idx < cum + k) {
-          const [l, u] = this.magnitudeBounds(b, maxAbs);
-          return -(u - ((idx - cum + 0.5) / k) * (u - l));
+    // value order: negative buckets from the largest magnitude down, then the positive ones
+    // (bucket numbers of the negative side stored as −1 − b)
+    const ranks = new RankedBuckets();
+    for (let b = P - 1; b >= 0; b--) ranks.push(-1 - b, c[P + b]);
+    for (let b = 0; b < P; b++) ranks.push(b, c[b]);
+    return qs.map((q) =>
+      ranks.quantile(q, min, max, (j, idx) => {
+        const b = ranks.bucket[j];
+        const k = ranks.count[j];
+        const before = ranks.before[j];
+        if (b < 0) {
+          const [l, u] = this.magnitudeBounds(-1 - b, maxAbs);
+          return -(u - ((idx - before + 0.5) / k) * (u - l));
         }
-        cum += k;
-      }
-      for (let b = 0; b < P; b++) {
-        const k = c[b];
-        if (k === 0) continue;
-        if (idx < cum + k) {
-          const [l, u] = this.magnitudeBounds(b, maxAbs);
-          return l + ((idx - cum + 0.5) / k) * (u - l);
-        }
-        cum += k;
-      }
-      return max;
-    };
-    const v = frac === 0 ? at(lo) : at(lo) + frac * (at(hi) - at(lo));
-    return Math.min(max, Math.max(min, v));
+        const [l, u] = this.magnitudeBounds(b, maxAbs);
+        return l + ((idx - before + 0.5) / k) * (u - l);
+      }),
+    );
   }
 
   /**
@@ -272,5 +246,57 @@ export class LogHistogram {
     }
     const edges = Array.from({ length: nBins + 1 }, (_, i) => lo + i * width);
     return { edges, counts };
+  }
+}
+
+/**
+ * The non-empty buckets of a histogram in value order, with the count before each, so that
+ * the order statistic of rank idx is found by bisection instead of a scan per percentile.
+ * Counts are integers below 2^53: the sums are exact, the same as a running scan's.
+ */
+class RankedBuckets {
+  readonly bucket: number[] = [];
+  readonly count: number[] = [];
+  readonly before: number[] = [];
+  total = 0;
+
+  push(bucket: number, k: number): void {
+    if (k === 0) return;
+    this.bucket.push(bucket);
+    this.count.push(k);
+    this.before.push(this.total);
+    this.total += k;
+  }
+
+  /** index j of the bucket holding order statistic idx (0 ≤ idx < total) */
+  private find(idx: number): number {
+    let a = 0,
+      z = this.count.length - 1;
+    while (a < z) {
+      const mid = (a + z) >> 1;
+      if (idx < this.before[mid] + this.count[mid]) z = mid;
+      else a = mid + 1;
+    }
+    return a;
+  }
+
+  /**
+   * The percentile q (rank q·(n − 1), linear between neighbouring order statistics), the
+   * extreme order statistics taken exactly from lowest and highest, clamped to them.
+   */
+  quantile(q: number, lowest: number, highest: number, inBucket: (j: number, idx: number) => number): number {
+    const n = this.total;
+    if (n === 0) return NaN;
+    const r = q * (n - 1);
+    const lo = Math.floor(r),
+      hi = Math.min(n - 1, lo + 1),
+      frac = r - lo;
+    const at = (idx: number): number => {
+      if (idx >= n - 1) return highest;
+      if (idx <= 0) return lowest;
+      return inBucket(this.find(idx), idx);
+    };
+    const v = frac === 0 ? at(lo) : at(lo) + frac * (at(hi) - at(lo));
+    return Math.min(highest, Math.max(lowest, v));
   }
 }

@@ -17,7 +17,7 @@ import {
 } from "./accumulate";
 import { Coordinator } from "./coordinator";
 import { prepareStudy, type PreparedStudy, type StudyOverrides } from "./plan";
-import { linearisedContributions, regressionFromSums, stackUp } from "./contributors";
+import { linearisedContributions, regressionDesign, regressionFromSums, stackUp } from "./contributors";
 import type { Model } from "./compile";
 import { evaluateTrial, createScratch } from "./trial";
 import { poses, type ElementPose } from "./poses";
@@ -111,8 +111,7 @@ export function finalizeStudy(prep: PreparedStudy, coord: Coordinator, state: Wo
       signed: mi.signed,
       minValue: state.min[k],
       maxValue: state.max[k],
-      interval95:
-        n > 0 ? [h.quantileSigned(0.025, state.min[k], state.max[k]), h.quantileSigned(0.975, state.min[k], state.max[k])] : [NaN, NaN],
+      interval95: n > 0 ? (h.quantilesSigned([0.025, 0.975], state.min[k], state.max[k]) as [number, number]) : [NaN, NaN],
       shortest95: n > 0 ? h.shortestInterval(0.95, state.min[k], state.max[k]) : [NaN, NaN],
     };
     const lo = mi.signed ? state.min[k] : 0;
@@ -155,13 +154,14 @@ export function finalizeStudy(prep: PreparedStudy, coord: Coordinator, state: Wo
     for (let k = 0; k < att.count; k++) {
       const h = envelopeHistogram(state, k);
       const tilt = att.tilts[Math.floor(k / att.headingsPerTilt)];
+      const [p5, p50, p95] = h.quantilesSigned([0.05, 0.5, 0.95], state.envMin[k], state.envMax[k]);
       points.push({
         pitchDeg: tilt.pitchDeg,
         rollDeg: tilt.rollDeg,
         headingDeg: att.psiDeg[k],
-        p5: h.quantileSigned(0.05, state.envMin[k], state.envMax[k]),
-        p50: h.quantileSigned(0.5, state.envMin[k], state.envMax[k]),
-        p95: h.quantileSigned(0.95, state.envMin[k], state.envMax[k]),
+        p5,
+        p50,
+        p95,
         min: state.envMin[k],
         max: state.envMax[k],
       });
@@ -180,14 +180,24 @@ export function finalizeStudy(prep: PreparedStudy, coord: Coordinator, state: Wo
   const linAll = linearisedContributions(model, [...reqMetrics, ...signedMetrics.filter((k) => !reqMetrics.includes(k))]);
   const linOf = new Map(linAll.map((l) => [l.metric, l] as const));
   const L = plan.regression.cols.length + 1;
+  // one decomposition per design, shared by the metrics regressed on it
+  const designOf = (tri: Float64Array | null) => (tri && coord.xty && n > 0 ? regressionDesign(plan.regression.cols, tri) : null);
+  const designs = { linear: designOf(coord.xtxLin), squared: designOf(coord.xtxSq) };
   const contributors: ResultFile["contributors"] = plan.regression.metrics.map((spec, r) => {
     const id = model.metrics[spec.metric].id;
     const lin = linOf.get(id)!;
     let reg = null;
     if (coord.xty && n > 0) {
-      const tri = spec.design === "linear" ? coord.xtxLin : coord.xtxSq;
       const o = r * (L + 1);
-      if (tri) reg = regressionFromSums(model, plan.regression.cols, tri, coord.xty.subarray(o, o + L), coord.xty[o + L], id, spec.design);
+      reg = regressionFromSums(
+        model,
+        plan.regression.cols,
+        designs[spec.design],
+        coord.xty.subarray(o, o + L),
+        coord.xty[o + L],
+        id,
+        spec.design,
+      );
     }
     return {
       metric: id,
