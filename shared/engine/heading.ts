@@ -148,10 +148,15 @@ function transposeOf(m: Float64Array): Float64Array {
 const sweepResult = { maxAbs: 0, rms: 0 };
 
 /**
- * First pass of the sweep: the levelled field turned by −ψ, (ex, ey) per attitude, into
- * att.ex and att.ey; the heading error is its angle.
+ * Per tilt, the eight numbers of the levelled field as a function of ψ (see headingSweep):
+ * ex = A cos²ψ + (B + D) cosψ sinψ + E sin²ψ + C cosψ + F sinψ,
+ * ey = D cos²ψ + (E − A) cosψ sinψ − B sin²ψ + F cosψ − C sinψ, stored per tilt as
+ * [A, B + D, E, C, F, D, E − A, B]. The returned array is reused between calls.
  */
-function levelledField(Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes): void {
+let coefScratch = new Float64Array(8 * 5);
+function tiltCoefficients(Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes): Float64Array {
+  if (coefScratch.length < 8 * att.tilts.length) coefScratch = new Float64Array(8 * att.tilts.length);
+  const K = coefScratch;
   // Q·C·Q flips the sign of the entries that mix body x with body y or z
   const a0 = Ca[ca],
     a1 = -Ca[ca + 1],
@@ -171,19 +176,11 @@ function levelledField(Ca: Float64Array, ca: number, Cm: Float64Array, cm: numbe
   const m6 = -Cm[cm + 6],
     m7 = Cm[cm + 7],
     m8 = Cm[cm + 8];
-  const nPsi = att.headingsPerTilt,
-    nT = att.tilts.length;
+  const nT = att.tilts.length;
   const TL = att.tiltL,
     TF = att.tiltF;
-  const hc = att.hc,
-    hs = att.hs,
-    hcc = att.hcc,
-    hcs = att.hcs,
-    hss = att.hss;
   const cosI = att.cosI,
     sinI = att.sinI;
-  const EX = att.ex,
-    EY = att.ey;
   for (let t = 0; t < nT; t++) {
     const o = 3 * t,
       l = 9 * t;
@@ -230,6 +227,44 @@ function levelledField(Ca: Float64Array, ca: number, Cm: Float64Array, cm: numbe
       F = V2 * sinI;
     const BD = B + D,
       EA = E - A;
+    const q = 8 * t;
+    K[q] = A;
+    K[q + 1] = BD;
+    K[q + 2] = E;
+    K[q + 3] = C;
+    K[q + 4] = F;
+    K[q + 5] = D;
+    K[q + 6] = EA;
+    K[q + 7] = B;
+  }
+  return K;
+}
+
+/**
+ * First pass of the sweep: the levelled field turned by −ψ, (ex, ey) per attitude, into
+ * att.ex and att.ey; the heading error is its angle.
+ */
+function levelledField(Ca: Float64Array, ca: number, Cm: Float64Array, cm: number, att: Attitudes): void {
+  const k = tiltCoefficients(Ca, ca, Cm, cm, att);
+  const nPsi = att.headingsPerTilt,
+    nT = att.tilts.length;
+  const hc = att.hc,
+    hs = att.hs,
+    hcc = att.hcc,
+    hcs = att.hcs,
+    hss = att.hss;
+  const EX = att.ex,
+    EY = att.ey;
+  for (let t = 0; t < nT; t++) {
+    const o = 8 * t;
+    const A = k[o],
+      BD = k[o + 1],
+      E = k[o + 2],
+      C = k[o + 3],
+      F = k[o + 4],
+      D = k[o + 5],
+      EA = k[o + 6],
+      B = k[o + 7];
     const base = t * nPsi;
     for (let j = 0; j < nPsi; j++) {
       // (ex, ey) = (h_x, −h_y) turned by −ψ; its angle is e = ψ^ − ψ in (−π, π]
@@ -348,9 +383,14 @@ export function headingSweepScreened(
   cm: number,
   att: Attitudes,
 ): { maxAbs: number; rms: number } {
-  levelledField(Ca, ca, Cm, cm, att);
-  const EX = att.ex,
-    EY = att.ey;
+  const k = tiltCoefficients(Ca, ca, Cm, cm, att);
+  const nPsi = att.headingsPerTilt,
+    nT = att.tilts.length;
+  const hc = att.hc,
+    hs = att.hs,
+    hcc = att.hcc,
+    hcs = att.hcs,
+    hss = att.hss;
   const n = att.count;
   let tMax = 0,
     s2 = 0,
@@ -358,21 +398,34 @@ export function headingSweepScreened(
     s6 = 0,
     wide2 = 0,
     wideMax = 0;
-  for (let k = 0; k < n; k++) {
-    const x = EX[k],
-      y = EY[k];
-    const ay = y < 0 ? -y : y;
-    if (x > 0 && ay <= SCREEN_T * x) {
-      const t = ay / x;
-      const t2 = t * t;
-      s2 += t2;
-      s4 += t2 * t2;
-      s6 += t2 * t2 * t2;
-      if (t > tMax) tMax = t;
-    } else {
-      const e = atan2Fast(ay, x);
-      wide2 += e * e;
-      if (e > wideMax) wideMax = e;
+  for (let t = 0; t < nT; t++) {
+    const o = 8 * t;
+    const A = k[o],
+      BD = k[o + 1],
+      E = k[o + 2],
+      C = k[o + 3],
+      F = k[o + 4],
+      D = k[o + 5],
+      EA = k[o + 6],
+      B = k[o + 7];
+    for (let j = 0; j < nPsi; j++) {
+      const c = hc[j],
+        sn = hs[j];
+      const x = A * hcc[j] + BD * hcs[j] + E * hss[j] + C * c + F * sn;
+      const y = D * hcc[j] + EA * hcs[j] - B * hss[j] + F * c - C * sn;
+      const ay = y < 0 ? -y : y;
+      if (x > 0 && ay <= SCREEN_T * x) {
+        const tt = ay / x;
+        const t2 = tt * tt;
+        s2 += t2;
+        s4 += t2 * t2;
+        s6 += t2 * t2 * t2;
+        if (tt > tMax) tMax = tt;
+      } else {
+        const e = atan2Fast(ay, x);
+        wide2 += e * e;
+        if (e > wideMax) wideMax = e;
+      }
     }
   }
   const narrowMax = Math.atan(tMax);
