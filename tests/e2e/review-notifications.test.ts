@@ -36,7 +36,12 @@ describe("review through notifications", () => {
     await reviewer.page.getByRole("heading", { name: "Revision 2" }).waitFor();
     expect(new URL(reviewer.page.url()).pathname).toMatch(/^\/projects\/[\w-]+\/revisions\/[\w-]+$/);
 
-    // what changed, before approving
+    // what changed, on the page before anything is pressed, and again in the approval dialog
+    const onPage = reviewer.page.getByRole("region", { name: "What changed" });
+    await onPage.getByText("What changed since revision 1: 4 changes").waitFor();
+    await expect(onPage.getByRole("listitem").filter({ hasText: "mag: bond-line thickness" }).textContent()).resolves.toMatch(
+      /changed\s*10 µm → 15 µm/,
+    );
     await reviewer.page.getByRole("button", { name: "Approve…" }).click();
     const approve = reviewer.page.getByRole("dialog", { name: "Approve revision 2" });
     const changes = approve.getByRole("region", { name: "What changed" });

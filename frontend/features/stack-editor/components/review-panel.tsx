@@ -204,6 +204,12 @@ export function ReviewNotes({ revision }: { revision: Revision }) {
   const error = form.formState.errors.body?.message ?? form.formState.errors.root?.server?.message;
   return (
     <div className="flex flex-col">
+      {revision.status === "in_review" && revision.number > 1 ? (
+        // what the reviewer decides on, in view before Approve or Send back is pressed
+        <div className="border-b border-line px-3.5 py-2.5">
+          <RevisionChanges revisionId={revision.id} updatedAt={revision.updatedAt} />
+        </div>
+      ) : null}
       {revision.comments.length === 0 ? (
         <p className="px-3.5 py-3 text-[13px] text-ink/55">No notes yet.</p>
       ) : (
