@@ -1,7 +1,9 @@
 /**
- * Every main page at three laptop widths (1024, 1280, 1440 px): a screenshot of each into
- * tests/e2e/.artifacts/ and a check, in the page, that no text is cut off by a box that hides
- * its overflow. One browser context; the window is resized between widths.
+ * Every main page at three laptop widths (1024, 1280, 1440 px): projects, a project, the stack
+ * editor, a study, the reports list, a report, new study settings, what-if, compare, a data set
+ * and suppliers (members is an admin's page). A screenshot of each into tests/e2e/.artifacts/
+ * and a check, in the page, that no text is cut off by a box that hides its overflow or drawn
+ * over other text. One browser context; the window is resized between widths.
  *
  * What counts as cut off (see `clippedText` below):
  * - a text node whose drawn box reaches past an ancestor that hides overflow (overflow hidden
@@ -114,8 +116,20 @@ function clippedText(): string[] {
   // 3. the page itself must not scroll sideways
   const main = document.querySelector("main");
   for (const el of [document.documentElement, main]) {
-    if (el && el.scrollWidth > el.clientWidth + SLACK)
-      found.push(`${label(el)} is ${el.scrollWidth - el.clientWidth} px wider than the window`);
+    if (el && el.scrollWidth > el.clientWidth + SLACK) {
+      // name the innermost boxes that reach past the right edge, so the cause can be found
+      const edge = el.getBoundingClientRect().right;
+      const past = [...el.querySelectorAll("*")].filter(
+        (x) =>
+          x.getBoundingClientRect().right > edge + SLACK && ![...x.children].some((c) => c.getBoundingClientRect().right > edge + SLACK),
+      );
+      found.push(
+        `${label(el)} is ${el.scrollWidth - el.clientWidth} px wider than the window (past its edge: ${past
+          .slice(0, 3)
+          .map(label)
+          .join(", ")})`,
+      );
+    }
   }
   return found;
 }
@@ -237,7 +251,8 @@ async function demoIds(page: Page) {
   const { suppliers } = await api<{ suppliers: Array<{ id: string; name: string }> }>(page, "GET", "/api/suppliers");
   const larkfield = suppliers.find((s) => s.name === "Larkfield Assembly")!;
   const report = await api<{ id: string }>(page, "POST", `/api/studies/${studyId}/reports`, { supplierId: larkfield.id });
-  return { projectId: project.id, draftId: draft.id, studyId, reportId: report.id };
+  const { datasets } = await api<{ datasets: Array<{ id: string }> }>(page, "GET", `/api/projects/${project.id}/datasets`);
+  return { projectId: project.id, draftId: draft.id, studyId, reportId: report.id, datasetId: datasets[0]?.id };
 }
 
 /** The whole of <main> in the picture: the app scrolls inside it, so the window grows for the shot. */
@@ -295,7 +310,33 @@ describe("pages at 1024, 1280 and 1440 px", () => {
             .waitFor(),
       },
       { name: "report", path: `/reports/${ids.reportId}`, ready: (p) => p.getByRole("heading", { name: "TR-0001 revision 1" }).waitFor() },
+      {
+        name: "study-settings",
+        path: `/projects/${ids.projectId}/studies/new`,
+        ready: (p) => p.getByRole("heading", { name: "New study" }).waitFor(),
+      },
+      {
+        name: "what-if",
+        path: `/projects/${ids.projectId}/what-if?study=${ids.studyId}`,
+        ready: (p) => p.getByRole("heading", { name: "What if" }).waitFor(),
+      },
+      {
+        name: "compare",
+        path: `/projects/${ids.projectId}/compare?a=${ids.studyId}`,
+        ready: (p) => p.getByRole("heading", { name: "Compare studies" }).waitFor(),
+      },
+      ...(ids.datasetId
+        ? [
+            {
+              name: "dataset",
+              path: `/projects/${ids.projectId}/datasets/${ids.datasetId}`,
+              ready: (p: Page) => p.getByText("Columns and mapping").first().waitFor(),
+            },
+          ]
+        : []),
+      { name: "suppliers", path: "/suppliers", ready: (p) => p.getByRole("heading", { name: "Suppliers" }).waitFor() },
     ];
+    expect(ids.datasetId, "the demo project has a data set").toBeTruthy();
 
     // The checks themselves catch what they look for: a label planted over another and a name
     // in a box too narrow for it are reported; a paragraph's own lines and a title-excused cut are not.
@@ -338,5 +379,5 @@ describe("pages at 1024, 1280 and 1440 px", () => {
     }
     expect(failures).toEqual([]);
     expect(unexpectedProblems(problems)).toEqual([]);
-  }, 300_000); // the demo study may still be running at the start; 6 pages × 3 widths with pictures
+  }, 420_000); // the demo study may still be running at the start; 11 pages × 3 widths with pictures
 });

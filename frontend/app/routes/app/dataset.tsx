@@ -179,7 +179,7 @@ function Fact({ label, children }: { label: string; children: ReactNode }) {
   return (
     <div className="bg-panel px-4 py-3">
       <dt className="text-[10px] font-bold tracking-[0.08em] text-ink/45 uppercase">{label}</dt>
-      <dd className="mt-1 truncate text-[13px] font-semibold text-ink">{children}</dd>
+      <dd className="mt-1 text-[13px] font-semibold break-words text-ink">{children}</dd>
     </div>
   );
 }

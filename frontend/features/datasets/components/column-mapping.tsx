@@ -205,7 +205,8 @@ export function ColumnMapping({ dataset, canWrite, onShow }: { dataset: Dataset;
           <Alert>{isApiError(lotUpdate.error) ? lotUpdate.error.message : "The lot column could not be saved."}</Alert>
         </div>
       ) : null}
-      <div className="overflow-x-auto">
+      {/* relative: the header's screen-reader text (absolutely placed) stays inside the scroll box instead of widening the page */}
+      <div className="relative overflow-x-auto">
         <table className="w-full border-collapse text-[13px]" aria-label="Column mapping">
           <thead className="border-b border-line bg-paper/70">
             <tr>

@@ -26,8 +26,15 @@ export function CompareRunElsewhere({
   return (
     <div className="flex flex-wrap items-center gap-x-3 gap-y-2 rounded-lg border border-line bg-paper/60 px-4 py-2.5">
       <p className="text-xs font-semibold text-ink/80">Same settings on another revision</p>
-      <div className="w-auto max-w-[28rem] min-w-0 flex-1">
-        <Select compact aria-label="Revision to run on" value={target} onChange={(e) => setTarget(e.target.value)}>
+      <div className="max-w-full min-w-0">
+        {/* as wide as the revision it shows (the row wraps first), never wider than the row */}
+        <Select
+          compact
+          aria-label="Revision to run on"
+          value={target}
+          onChange={(e) => setTarget(e.target.value)}
+          className="field-sizing-content w-auto max-w-full"
+        >
           {others.map((r) => (
             <option key={r.id} value={r.id}>
               Revision {r.number} ({r.status.replace("_", " ")}): {r.name}

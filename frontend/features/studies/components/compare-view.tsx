@@ -27,7 +27,7 @@ export function CompareView({
   const rb = b?.result ?? null;
   return (
     <div className="flex flex-col gap-4">
-      <div className="grid gap-3 md:grid-cols-2">
+      <div className="grid gap-3 xl:grid-cols-2">
         <SidePicker side="a" colour={SERIES_A} studies={studies} study={a} onPick={(id) => onPick("a", id)} other={b?.id} />
         <SidePicker side="b" colour={SERIES_B} studies={studies} study={b} onPick={(id) => onPick("b", id)} other={a?.id} />
       </div>

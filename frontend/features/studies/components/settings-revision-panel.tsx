@@ -38,7 +38,7 @@ export function SettingsRevisionPanel({
   const currentRevision = revisions.find((r) => r.id === revisionId);
   return (
     <Panel title="Stack revision" accent="var(--color-asic)">
-      <div className="grid gap-4 sm:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
+      <div className="grid gap-4 sm:grid-cols-[minmax(0,1.6fr)_minmax(0,1fr)]">
         <Field label="Revision" hint={currentRevision?.note || undefined}>
           {({ id, describedBy }) => (
             <Select id={id} aria-describedby={describedBy} compact value={revisionId} onChange={(e) => onRevision(e.target.value)}>
@@ -95,7 +95,7 @@ export function SettingsRevisionPanel({
                     <Tr key={r.metric}>
                       <Td className="h-8 text-xs">
                         <span className="font-semibold">{metricLabel(r.metric)}</span>
-                        <span className="ml-2 font-mono text-2xs text-ink/45">{r.metric}</span>
+                        <span className="block font-mono text-2xs break-all text-ink/45">{r.metric}</span>
                       </Td>
                       <Td numeric className="h-8 text-xs">
                         ≤ {pct ? formatPct(r.max) : `${formatDeg(r.max)} (${formatMrad(r.max)})`}

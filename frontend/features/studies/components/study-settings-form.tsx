@@ -144,7 +144,7 @@ export function StudySettingsForm({
   const requirements = revision.data?.requirements ?? [];
 
   return (
-    <form onSubmit={submit} noValidate aria-label="Study settings" className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_300px]">
+    <form onSubmit={submit} noValidate aria-label="Study settings" className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_300px]">
       <div className="flex min-w-0 flex-col gap-4">
         {startedFrom ? (
           <p className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1 rounded-md border border-gyro/25 bg-gyro/[0.05] px-3 py-2 text-xs text-ink/75">
@@ -176,7 +176,7 @@ export function StudySettingsForm({
         <SettingsCalibrationPanel v={v} set={set} errors={errors} />
       </div>
 
-      <aside className="lg:sticky lg:top-0 lg:self-start">
+      <aside className="xl:sticky xl:top-0 xl:self-start">
         <SettingsRunPanel
           v={v}
           errors={errors}

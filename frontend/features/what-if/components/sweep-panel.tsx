@@ -85,7 +85,10 @@ export function SweepPanel({
     <div className="flex flex-col gap-4">
       {canRun ? (
         <Panel title="Sweep a parameter" meta={`every point runs with seed ${study.seed}: the same trials, only the parameter differs`}>
-          <form onSubmit={submit} className="grid gap-3 sm:grid-cols-[minmax(0,1.2fr)_minmax(0,2fr)_8rem_auto] sm:items-end">
+          <form
+            onSubmit={submit}
+            className="grid gap-3 sm:grid-cols-[minmax(0,1fr)_minmax(0,2fr)] sm:items-end xl:grid-cols-[minmax(0,1.2fr)_minmax(0,2fr)_8rem_auto]"
+          >
             <Field label="Parameter" hint={option ? `today ${formatNumberUnit(option.current, option.unit, 4)}` : undefined}>
               {({ id }) => (
                 <Select
