@@ -174,6 +174,19 @@ describe("the tolerance table", () => {
     expect(latest.stack.elements[magIndex].bondLine?.heightTol?.stage).toBe("board");
   });
 
+  it("shows the typical value of each source's place under its tolerance", () => {
+    render(
+      <Harness initial={doc()}>
+        <ToleranceTable />
+      </Harness>,
+    );
+    const table = screen.getByRole("table", { name: "Tolerance sources" });
+    const row = (label: string) => within(table).getByLabelText(label).closest("tr")!;
+    // a magnetometer die's axes are typically ±1°, its die attach ±5 µm
+    expect(row("mag.axis tolerance").textContent).toContain("typical ±1°");
+    expect(row("mag.bondLine tolerance").textContent).toContain("typical ±5 µm");
+  });
+
   it("sorts by a column and filters, and an undo shows the old value in the box", () => {
     render(
       <Harness initial={doc()}>

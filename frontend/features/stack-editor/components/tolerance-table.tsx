@@ -20,7 +20,8 @@ import {
 } from "../lib/tolerance-rows";
 import { useEditor } from "./editor-context";
 import { NumberInput, SelectInput, TextInput } from "./fields";
-import { DistSelect, OwnerPicker, StageSelect, withDist } from "./tolerance-controls";
+import { DistSelect, OwnerPicker, StageSelect, typicalText, withDist } from "./tolerance-controls";
+import { typicalForSlot } from "@shared/typical-tolerances";
 import { formatNumber, unitText } from "@shared/format";
 
 const COLUMNS: { key: SortKey; label: string; align?: "right"; className?: string }[] = [
@@ -151,6 +152,9 @@ function Row({ row: r, selected, onSelect }: { row: ToleranceRow; selected: bool
   const u = unitText(r.unit);
   const key = path.join(".");
   const name = r.sourceId;
+  const parentKind = el.parent === null ? undefined : doc.stack.elements.find((e) => e.id === el.parent)?.kind;
+  // what is usual for this place, under the value (the element form offers "Use typical")
+  const typical = typicalForSlot(el, r.path, parentKind);
   return (
     <>
       <tr
@@ -205,6 +209,14 @@ function Row({ row: r, selected, onSelect }: { row: ToleranceRow; selected: bool
               onChange={(v) => setAt([...path, "tol"], v, `${key}.tol`)}
             />
           )}
+          {typical ? (
+            <span
+              className="mt-0.5 block text-right text-[10px] leading-3 text-ink/45"
+              title={`${typical.label}: ${typical.note} (${typical.basis})`}
+            >
+              {typicalText(typical)}
+            </span>
+          ) : null}
         </td>
         <td className="px-2 py-1">
           {r.tol.dist === "normal" ? (
