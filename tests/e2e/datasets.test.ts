@@ -1,3 +1,4 @@
+import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { screenshot, signInAs } from "./support/browser";
 import { setupE2E, unexpectedProblems } from "./support/setup";
@@ -166,6 +167,16 @@ describe("data sets", () => {
     await page.getByRole("table", { name: "Lots" }).getByRole("cell", { name: "L2612" }).waitFor();
     await page.getByText("+ 1 gaps").waitFor();
     await screenshot(page, "datasets-capability-window");
+    // the chart leaves as a drawing, named after the data set and the column, every unit in it
+    await page
+      .getByRole("figure", { name: "Tolerance window of h1 [um]" })
+      .getByRole("button", { name: /^Download Units of h1 \[um\]/ })
+      .click();
+    const [file] = await Promise.all([page.waitForEvent("download"), page.getByRole("menuitem", { name: "SVG drawing" }).click()]);
+    expect(file.suggestedFilename()).toBe("mag-corners-tolerance-window-h1-um.svg");
+    const drawing = readFileSync((await file.path())!, "utf8");
+    expect(drawing).toContain("<svg");
+    expect((drawing.match(/<circle\b/g) ?? []).length).toBeGreaterThanOrEqual(29);
 
     // on the project, grouped by lot
     await page.goto(projectUrl);

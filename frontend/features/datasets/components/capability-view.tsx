@@ -2,6 +2,7 @@ import type { ReactNode } from "react";
 import type { Dataset, DatasetStatistics } from "@shared/schemas/datasets";
 import { Alert } from "@frontend/components/ui/alert";
 import { Badge } from "@frontend/components/ui/badge";
+import { ChartDownload, ChartFileName } from "@frontend/components/ui/chart-download";
 import { Select } from "@frontend/components/ui/field";
 import { Spinner } from "@frontend/components/ui/spinner";
 import { isApiError } from "@frontend/lib/api-client";
@@ -19,39 +20,42 @@ export function CapabilityView({ dataset, column, onColumn }: { dataset: Dataset
   const s = stats.data;
 
   return (
-    <div className="flex flex-col gap-4 p-4">
-      <div className="flex flex-wrap items-center gap-3">
-        <label className="flex items-center gap-2 text-xs font-semibold text-ink/75">
-          Column
-          <Select compact aria-label="Column for capability" value={column} onChange={(e) => onColumn(e.target.value)} className="w-64">
-            {numeric.map((c) => (
-              <option key={c.key} value={c.key}>
-                {c.key}
-                {c.mapping ? ` → ${c.mapping.source}` : ""}
-              </option>
-            ))}
-          </Select>
-        </label>
-        {stats.isFetching ? <Spinner className="text-ink/45" /> : null}
-        {s?.source ? (
-          <span className="text-xs text-ink/65">
-            Measures <Badge tone="accel">{s.source}</Badge>
-            {s.partLabel ? <span className="ml-1">({s.partLabel})</span> : null}
-            {s.converted ? <span className="ml-1.5">{s.converted.text}</span> : null}
-          </span>
-        ) : s ? (
-          <span className="text-xs text-ink/55">Not mapped: map the column to a tolerance source to compare it with the tolerance.</span>
-        ) : null}
-      </div>
+    // the chart's files are named after the data set
+    <ChartFileName value={dataset.name.replace(/\.(csv|xlsx)$/i, "")}>
+      <div className="flex flex-col gap-4 p-4">
+        <div className="flex flex-wrap items-center gap-3">
+          <label className="flex items-center gap-2 text-xs font-semibold text-ink/75">
+            Column
+            <Select compact aria-label="Column for capability" value={column} onChange={(e) => onColumn(e.target.value)} className="w-64">
+              {numeric.map((c) => (
+                <option key={c.key} value={c.key}>
+                  {c.key}
+                  {c.mapping ? ` → ${c.mapping.source}` : ""}
+                </option>
+              ))}
+            </Select>
+          </label>
+          {stats.isFetching ? <Spinner className="text-ink/45" /> : null}
+          {s?.source ? (
+            <span className="text-xs text-ink/65">
+              Measures <Badge tone="accel">{s.source}</Badge>
+              {s.partLabel ? <span className="ml-1">({s.partLabel})</span> : null}
+              {s.converted ? <span className="ml-1.5">{s.converted.text}</span> : null}
+            </span>
+          ) : s ? (
+            <span className="text-xs text-ink/55">Not mapped: map the column to a tolerance source to compare it with the tolerance.</span>
+          ) : null}
+        </div>
 
-      {stats.isError ? <Alert>{isApiError(stats.error) ? stats.error.message : "The statistics could not be loaded."}</Alert> : null}
-      {stats.isPending ? (
-        <p className="flex items-center gap-2 text-[13px] text-ink/55">
-          <Spinner /> Computing statistics…
-        </p>
-      ) : null}
-      {s ? <StatisticsBody s={s} /> : null}
-    </div>
+        {stats.isError ? <Alert>{isApiError(stats.error) ? stats.error.message : "The statistics could not be loaded."}</Alert> : null}
+        {stats.isPending ? (
+          <p className="flex items-center gap-2 text-[13px] text-ink/55">
+            <Spinner /> Computing statistics…
+          </p>
+        ) : null}
+        {s ? <StatisticsBody s={s} /> : null}
+      </div>
+    </ChartFileName>
   );
 }
 
@@ -95,8 +99,13 @@ function StatisticsBody({ s }: { s: DatasetStatistics }) {
         </p>
       )}
       <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_290px]">
-        <figure aria-label={`Tolerance window of ${s.column}`} className="min-w-0 rounded-lg border border-line bg-white/60 p-2">
+        <figure aria-label={`Tolerance window of ${s.column}`} className="relative min-w-0 rounded-lg border border-line bg-white/60 p-2">
           <ToleranceWindow s={s} />
+          <ChartDownload
+            name={`tolerance-window-${s.column}`}
+            title={`Units of ${s.column} in production order inside the tolerance window`}
+            className="absolute top-1 right-1"
+          />
           <figcaption className="px-2 pt-1 text-2xs text-ink/60">
             The frame is the tolerance window{c ? "" : " (none: the column is not mapped to a ± tolerance)"}. Left: each unit in production
             order
