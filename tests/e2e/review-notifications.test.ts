@@ -1,6 +1,6 @@
 /**
  * A revision from submit to approval, with nobody telling anyone by hand (issue 11): the
- * engineer submits; the reviewer finds it waiting in the notifications menu, follows the link,
+ * engineer submits; the reviewer sees it counted in the navigation and the project list, finds it in the notifications menu, follows the link,
  * reads what changed and approves; the engineer finds the approval in the same menu.
  */
 import type { Page } from "playwright-core";
@@ -32,6 +32,11 @@ describe("review through notifications", () => {
     // the reviewer signs in and is told; the link leads to the revision
     const reviewer = await e2e.session();
     await signInAs(reviewer.page, "reviewer@example.com");
+    // it waits: counted beside Home in the navigation and on the project's row of the list
+    const home = reviewer.page.getByRole("navigation", { name: "Main" }).getByTestId("nav-count-home");
+    await expect(home.textContent()).resolves.toMatch(/^[1-9]\d* waiting for you$/);
+    const row = reviewer.page.getByRole("table", { name: "Projects" }).getByRole("row").filter({ hasText: PROJECT });
+    await row.getByText(/^1 revision/).waitFor();
     await followNotification(reviewer.page, new RegExp(`^Revision 2 of “${PROJECT}” waits for your review`));
     await reviewer.page.getByRole("heading", { name: "Revision 2" }).waitFor();
     expect(new URL(reviewer.page.url()).pathname).toMatch(/^\/projects\/[\w-]+\/revisions\/[\w-]+$/);
