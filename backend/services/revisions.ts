@@ -82,13 +82,14 @@ async function assertProject(db: Database, workspaceId: string, projectId: strin
 export async function listRevisions(db: Database, workspaceId: string, projectId: string): Promise<RevisionSummary[]> {
   await assertProject(db, workspaceId, projectId);
   const rows = await db
-    .select({ ...baseColumns, stack: stackRevisions.stack })
+    // the name from its own column: the list never reads the stacks themselves
+    .select({ ...baseColumns, stackName: stackRevisions.stackName })
     .from(stackRevisions)
     .leftJoin(creator, eq(creator.id, stackRevisions.createdBy))
     .leftJoin(approver, eq(approver.id, stackRevisions.approvedBy))
     .where(and(eq(stackRevisions.workspaceId, workspaceId), eq(stackRevisions.projectId, projectId)))
     .orderBy(desc(stackRevisions.number));
-  return rows.map(({ stack, ...r }) => toSummary(r, stack.name ?? ""));
+  return rows.map(({ stackName, ...r }) => toSummary(r, stackName));
 }
 
 export async function getRevisionRow(db: Database, workspaceId: string, id: string) {

@@ -158,6 +158,36 @@ describe("stack revisions", () => {
     expect(last.stack).toEqual(reference);
   });
 
+  it("the revisions list names each revision by its stack as it is now, from the stored name column", async () => {
+    const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
+    const listed = async () =>
+      (await t.call("GET", `/api/projects/${projectId}/revisions`, { cookie: c.reviewer })).body.revisions.find(
+        (r: { id: string }) => r.id === rev.id,
+      );
+    expect((await listed()).name).toBe(reference.name);
+    const renamed = { ...structuredClone(reference), name: "renamed in the editor" };
+    const patched = await t.call("PATCH", `/api/revisions/${rev.id}`, {
+      cookie: c.engineer,
+      body: { stack: renamed },
+      headers: await current(rev.id),
+    });
+    expect(patched.status).toBe(200);
+    expect((await listed()).name).toBe("renamed in the editor");
+    // a note alone leaves the name as it is
+    await t.call("PATCH", `/api/revisions/${rev.id}`, { cookie: c.engineer, body: { note: "n" }, headers: await current(rev.id) });
+    expect((await listed()).name).toBe("renamed in the editor");
+    // the column follows the stack whoever writes it (the database's trigger, not the app)
+    await t.handle.db.execute(
+      sql`update stack_revisions set stack = ${JSON.stringify({ ...renamed, name: "written directly" })}::json where id = ${rev.id}`,
+    );
+    const [row] = await t.handle.db
+      .select({ n: stackRevisions.stackName })
+      .from(stackRevisions)
+      .where(sql`${stackRevisions.id} = ${rev.id}`);
+    expect(row.n).toBe("written directly");
+    expect((await listed()).name).toBe("written directly");
+  });
+
   it("a reviewer sends back with a comment, which is kept", async () => {
     const rev = (await t.call("POST", `/api/projects/${projectId}/revisions`, { cookie: c.engineer, body: { stack: reference } })).body;
     await t.call("POST", `/api/revisions/${rev.id}/submit`, {

@@ -46,6 +46,11 @@ export const stackRevisions = pgTable(
      * save and read (about 1 MB took 3 times as long to write as json text; docs/security.md).
      */
     stack: json("stack").$type<StackFile>().notNull(),
+    /**
+     * The stack's name, so that lists need not read the whole stack: set from `stack` by the
+     * trigger of migration 0015 on every insert and every update of the stack, never by the app.
+     */
+    stackName: text("stack_name").notNull().default(""),
     /** The requirements the stack must meet: [{metric, max, yield}]. */
     requirements: jsonb("requirements").$type<Requirement[]>().notNull().default([]),
     note: text("note").notNull().default(""),
