@@ -1,9 +1,10 @@
 /**
  * Every main page at three laptop widths (1024, 1280, 1440 px): projects, a project, the stack
  * editor, a study, the reports list, a report, new study settings, what-if, compare, a data set
- * and suppliers (members is an admin's page). A screenshot of each into tests/e2e/.artifacts/
- * and a check, in the page, that no text is cut off by a box that hides its overflow or drawn
- * over other text. One browser context; the window is resized between widths.
+ * and suppliers; as an admin, members, outbox, server status and account. A screenshot of each
+ * into tests/e2e/.artifacts/ and a check, in the page, that no text is cut off by a box that
+ * hides its overflow or drawn over other text. One browser context per user; the window is
+ * resized between widths.
  *
  * What counts as cut off (see `clippedText` below):
  * - a text node whose drawn box reaches past an ancestor that hides overflow (overflow hidden
@@ -363,21 +364,39 @@ describe("pages at 1024, 1280 and 1440 px", () => {
     ]);
     await page.evaluate(() => document.getElementById("width-check-probe")?.remove());
 
-    const failures: string[] = [];
-    for (const visit of visits) {
-      await page.setViewportSize({ width: WIDTHS[0], height: HEIGHT });
-      await page.goto(visit.path);
-      await visit.ready(page);
-      for (const width of WIDTHS) {
-        await page.setViewportSize({ width, height: HEIGHT });
-        await page.evaluate(() => document.fonts.ready);
-        await page.waitForTimeout(300); // resize observers (charts, the 3D view) settle
-        for (const f of new Set(await page.evaluate(clippedText))) failures.push(`${visit.name} @ ${width}: ${f}`);
-        for (const f of await page.evaluate(overlappingText)) failures.push(`${visit.name} @ ${width}: ${f}`);
-        await screenshot(page, `width-${visit.name}-${width}`);
-      }
-    }
+    const failures = await checkPages(page, visits);
+
+    // the admin's own pages
+    const admin = await e2e.session();
+    await signInAs(admin.page, "admin@example.com");
+    const adminVisits: Visit[] = [
+      { name: "members", path: "/members", ready: (p) => p.getByRole("heading", { name: "Members", level: 1 }).waitFor() },
+      { name: "outbox", path: "/outbox", ready: (p) => p.getByRole("heading", { name: "Outbox", level: 1 }).waitFor() },
+      { name: "status", path: "/status", ready: (p) => p.getByRole("heading", { name: "Server status", level: 1 }).waitFor() },
+      { name: "account", path: "/account", ready: (p) => p.getByRole("heading", { name: "Your account", level: 1 }).waitFor() },
+    ];
+    failures.push(...(await checkPages(admin.page, adminVisits)));
     expect(failures).toEqual([]);
     expect(unexpectedProblems(problems)).toEqual([]);
-  }, 420_000); // the demo study may still be running at the start; 11 pages × 3 widths with pictures
+    expect(unexpectedProblems(admin.problems)).toEqual([]);
+  }, 480_000); // the demo study may still be running at the start; 15 pages × 3 widths with pictures
 });
+
+/** Each page at each width: what is cut off or drawn over other text, and a picture. */
+async function checkPages(page: Page, visits: Visit[]): Promise<string[]> {
+  const failures: string[] = [];
+  for (const visit of visits) {
+    await page.setViewportSize({ width: WIDTHS[0], height: HEIGHT });
+    await page.goto(visit.path);
+    await visit.ready(page);
+    for (const width of WIDTHS) {
+      await page.setViewportSize({ width, height: HEIGHT });
+      await page.evaluate(() => document.fonts.ready);
+      await page.waitForTimeout(300); // resize observers (charts, the 3D view) settle
+      for (const f of new Set(await page.evaluate(clippedText))) failures.push(`${visit.name} @ ${width}: ${f}`);
+      for (const f of await page.evaluate(overlappingText)) failures.push(`${visit.name} @ ${width}: ${f}`);
+      await screenshot(page, `width-${visit.name}-${width}`);
+    }
+  }
+  return failures;
+}
