@@ -229,6 +229,50 @@ describe("the stack editor", () => {
     expect(unexpectedProblems(problems)).toEqual([]);
   });
 
+  it("starts a new package from a template: elements, requirements and typical tolerances in place, a slip flagged at once", async () => {
+    const { page, problems } = await e2e.session();
+    await signInAs(page, "engineer@example.com");
+    await page.getByRole("button", { name: "New project" }).click();
+    const dialog = page.getByRole("dialog", { name: "New project" });
+    await dialog.getByLabel("Project name").fill("Kestrel tracker, dies side by side");
+    await dialog.getByRole("button", { name: "Create project" }).click();
+    await page.getByRole("heading", { name: "Kestrel tracker, dies side by side", level: 1 }).waitFor();
+    await page.getByRole("button", { name: "New stack from a template…" }).click();
+    const picker = page.getByRole("dialog", { name: "New stack from a template" });
+    await picker.getByRole("radio", { name: /Dies side by side on a substrate/ }).click();
+    await picker.getByRole("button", { name: "Start from this template" }).click();
+
+    const tree = page.getByRole("tree", { name: "Elements" });
+    await tree.waitFor();
+    await expect(tree.getByRole("treeitem").count()).resolves.toBe(6);
+    // the template has no geometric slip; its requirements come with it, the yield in %
+    expect(await tree.getByRole("treeitem", { name: /geometry warning/ }).count()).toBe(0);
+    await expect(
+      page
+        .getByRole("table", { name: "Requirements" })
+        .getByLabel(/^Requirement \d+ yield target$/)
+        .count(),
+    ).resolves.toBe(4);
+    expect(await page.getByLabel("Requirement 1 yield target").inputValue()).toBe("99.73");
+    await settledHeading(page);
+    // typical values in place beside the tolerances of the magnetometer
+    await tree.getByRole("treeitem", { name: /^mag,/ }).click();
+    const form = page.getByRole("group", { name: "Element mag" });
+    await form.getByText("typical ±1°").first().waitFor();
+    await form.getByText("typical ±5 µm").first().waitFor();
+
+    // the magnetometer put where the gyroscope is: both flagged at once, the reason beside it
+    await page.getByLabel("Position x").fill("0.6");
+    await page.getByLabel("Position y").fill("-0.65");
+    await tree.getByRole("treeitem", { name: /^mag, .*geometry warning/ }).waitFor();
+    await tree.getByRole("treeitem", { name: /^gyro, .*geometry warning/ }).waitFor();
+    await page
+      .getByRole("list", { name: "Geometry warnings of mag" })
+      .getByText(/overlaps .*gyro/)
+      .waitFor();
+    expect(unexpectedProblems(problems)).toEqual([]);
+  });
+
   it("opens an approved revision read-only, starts a draft from it, exports and imports stack files", async () => {
     const { page, problems } = await e2e.session();
     await signInAs(page, "engineer@example.com");
