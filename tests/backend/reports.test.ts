@@ -399,6 +399,10 @@ describe("supplier reports", () => {
     for (const [i, tol] of um.entries()) {
       const cells = rows[start + 2 + i];
       expect(cells[head.indexOf("Source")]).toBe(tol.source);
+      // the nominal and its datum beside the tolerance, as in the spreadsheet
+      const thickness = stack.elements.find((e) => e.id === tol.elementId)!.bondLine!.thicknessUm!;
+      expect(Number(cells[head.indexOf("Nominal (um, to 0.1)")])).toBe(thickness);
+      expect(cells[head.indexOf("Datum")]).toMatch(/top face, under .*'s supports at the four corners/);
       expect(Number(cells[head.indexOf("Tolerance ± (um, to 0.1)")])).toBe(tol.tol);
       expect(Number(cells[head.indexOf("Sigma max (um, to 0.01)")])).toBe(Math.round(tol.sigmaMax * 100) / 100);
       // rounded as stated: no more decimals than the header's resolution
