@@ -100,13 +100,14 @@ describe("the stack editor", () => {
 
     // Undo (Ctrl+Z) restores the value and the figures.
     await page.keyboard.press("Control+z");
-    await expect(magBond.inputValue()).resolves.toBe("2");
+    // the field shows the undone value once React has rendered it: asked until then, not read once
+    await expect.poll(() => magBond.inputValue()).toBe("2");
     await page.waitForFunction((b) => document.querySelector('[data-testid="estimate-heading-p99"]')?.textContent?.trim() === b, before, {
       timeout: 30_000,
     });
     // Redo (the button) brings the change back; it is saved.
     await page.getByRole("button", { name: "Redo" }).click();
-    await expect(magBond.inputValue()).resolves.toBe("12");
+    await expect.poll(() => magBond.inputValue()).toBe("12");
     await page.waitForFunction((a) => document.querySelector('[data-testid="estimate-heading-p99"]')?.textContent?.trim() === a, after, {
       timeout: 30_000,
     });
