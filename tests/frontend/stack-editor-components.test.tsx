@@ -187,6 +187,18 @@ describe("the tolerance table", () => {
     expect(row("mag.bondLine tolerance").textContent).toContain("typical ±5 µm");
   });
 
+  it("measured data with no half-width turned back into a distribution takes the typical half-width, not ±0", () => {
+    const d = doc();
+    d.stack.elements[magIndex].bondLine = { ...d.stack.elements[magIndex].bondLine!, heightTol: { dist: "data", values: [9.5, 10, 10.4] } };
+    render(
+      <Harness initial={d}>
+        <ToleranceTable />
+      </Harness>,
+    );
+    fireEvent.change(screen.getByLabelText("mag.bondLine distribution"), { target: { value: "normal" } });
+    expect(latest.stack.elements[magIndex].bondLine?.heightTol).toEqual({ dist: "normal", tol: 5 });
+  });
+
   it("sorts by a column and filters, and an undo shows the old value in the box", () => {
     render(
       <Harness initial={doc()}>

@@ -25,13 +25,16 @@ export const DIST_LABEL: Record<Tolerance["dist"], string> = {
   data: "Measured data",
 };
 
-/** Changing the distribution keeps the half-width; sigmas belongs to "normal" only. */
-export function withDist(t: Tolerance, dist: Tolerance["dist"]): Tolerance {
+/**
+ * Changing the distribution keeps the half-width; sigmas belongs to "normal" only. Measured
+ * data may have no half-width: the typical one of the place, if known, rather than ±0.
+ */
+export function withDist(t: Tolerance, dist: Tolerance["dist"], typicalTol?: number): Tolerance {
   if (dist === t.dist) return t;
   const { sigmas: _s, values: _v, ...rest } = t;
   void _s;
   void _v;
-  return { ...rest, dist, tol: t.tol ?? 0 };
+  return { ...rest, dist, tol: t.tol ?? typicalTol ?? 0 };
 }
 
 export function DistSelect({
@@ -311,7 +314,7 @@ export function ToleranceFields({
               invalid={invalid}
               disabled={readOnly}
               values={tol.values?.length}
-              onChange={(d) => setAt(path, withDist(tol, d))}
+              onChange={(d) => setAt(path, withDist(tol, d, typical?.tol))}
             />
           )}
         </FieldShell>

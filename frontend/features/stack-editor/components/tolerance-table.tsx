@@ -193,7 +193,7 @@ function Row({ row: r, selected, onSelect }: { row: ToleranceRow; selected: bool
             values={r.tol.values?.length}
             disabled={readOnly}
             invalid={!!err("dist")}
-            onChange={(d) => setAt(path, withDist(r.tol, d))}
+            onChange={(d) => setAt(path, withDist(r.tol, d, typical?.tol))}
           />
         </td>
         <td className="px-2 py-1">
