@@ -101,6 +101,8 @@ describe("Monte Carlo contributors", () => {
       <ContributorsPanel result={result} metric="mag.crossAxisPct.xy" onMetric={() => undefined} kindOf={() => "mag"} elementOrder={[]} />,
     );
     expect(screen.getByText(/R² = 0\.90: the regression on the sources explains 90 %/)).toBeTruthy();
+    // the linearised total with its unit as a symbol, never the file's unit word
+    expect(screen.getByText(/√Σ = 1(\.0+)? %$/)).toBeTruthy();
     const table = screen.getByRole("table", { name: "Tolerance sources" });
     const yaw = within(table).getByText("pkg.yaw").closest("tr")!;
     expect(yaw.textContent).toContain("< 0.1 %");
@@ -109,6 +111,20 @@ describe("Monte Carlo contributors", () => {
     const axis = within(table).getByText("mag.axis").closest("tr")!;
     expect(axis.textContent).toMatch(/62 %\s*\(\d+ % – \d+ %\)/);
     expect(table.textContent).not.toMatch(/0\.0000/);
+
+    // an angle metric: degrees as a symbol, with milliradians, not the file's unit word
+    cleanup();
+    const angle = {
+      ...result,
+      metrics: { "accel~mag.relRotDeg": { unit: "deg" } },
+      contributors: [{ ...contributors, metric: "accel~mag.relRotDeg", linearTotal: 0.25 }],
+    } as unknown as ResultFile;
+    render(
+      <ContributorsPanel result={angle} metric="accel~mag.relRotDeg" onMetric={() => undefined} kindOf={() => "mag"} elementOrder={[]} />,
+    );
+    const note = screen.getByText(/√Σ = /).textContent ?? "";
+    expect(note).toMatch(/√Σ = 0\.250° \(4\.36 mrad\)/);
+    expect(note).not.toMatch(/\bdeg\b/);
   });
 });
 

@@ -8,7 +8,7 @@ import { mcShares, type McShare } from "@shared/contributor-significance";
 import { paretoRows, sourcesToReach, type ContributorMethod, type ParetoRow } from "../lib/pareto";
 import { axisLine, axisTick, gridProps, INK, SENSOR_COLOUR, tooltipStyle } from "./chart-theme";
 import { MetricSelect } from "./metric-select";
-import { formatNumber, formatPct, formatShare } from "@shared/format";
+import { formatNumber, formatPct, formatShare, formatValue } from "@shared/format";
 
 type Contributors = ResultFile["contributors"][number];
 
@@ -64,7 +64,7 @@ export function ContributorsPanel({
       <div className="grid gap-3 lg:grid-cols-2">
         <ParetoChart
           title="Linearised at nominal"
-          note={`Central differences at the mean of every source; √Σ = ${formatNumber(c.linearTotal)} ${result.metrics[c.metric]?.unit === "%" ? "%" : "deg"}`}
+          note={`Central differences at the mean of every source; √Σ = ${formatValue(c.linearTotal, result.metrics[c.metric]?.unit === "%" ? "%" : "deg")}`}
           rows={paretoRows(c, "linear")}
           method="linear"
           colourOf={colourOf}
