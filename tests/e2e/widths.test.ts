@@ -1,10 +1,10 @@
 /**
  * Every main page at three laptop widths (1024, 1280, 1440 px): projects, a project, the stack
- * editor, a study, the reports list, a report, new study settings, what-if, compare, a data set
- * and suppliers; as an admin, members, outbox, server status and account. A screenshot of each
- * into tests/e2e/.artifacts/ and a check, in the page, that no text is cut off by a box that
- * hides its overflow or drawn over other text. One browser context per user; the window is
- * resized between widths.
+ * editor, a study, the reports list, a report, new study settings, what-if (its three tabs),
+ * compare, a data set and suppliers; as an admin, members, outbox, server status and account.
+ * A screenshot of each into tests/e2e/.artifacts/ and a check, in the page, that no text is cut
+ * off by a box that hides its overflow or drawn over other text. One browser context per user;
+ * the window is resized between widths.
  *
  * What counts as cut off (see `clippedText` below):
  * - a text node whose drawn box reaches past an ancestor that hides overflow (overflow hidden
@@ -322,6 +322,16 @@ describe("pages at 1024, 1280 and 1440 px", () => {
         ready: (p) => p.getByRole("heading", { name: "What if" }).waitFor(),
       },
       {
+        name: "what-if-allocation",
+        path: `/projects/${ids.projectId}/what-if?study=${ids.studyId}&tab=allocation`,
+        ready: (p) => p.getByRole("heading", { name: "What if" }).waitFor(),
+      },
+      {
+        name: "what-if-map",
+        path: `/projects/${ids.projectId}/what-if?study=${ids.studyId}&tab=map`,
+        ready: (p) => p.getByRole("heading", { name: "What if" }).waitFor(),
+      },
+      {
         name: "compare",
         path: `/projects/${ids.projectId}/compare?a=${ids.studyId}`,
         ready: (p) => p.getByRole("heading", { name: "Compare studies" }).waitFor(),
@@ -379,7 +389,7 @@ describe("pages at 1024, 1280 and 1440 px", () => {
     expect(failures).toEqual([]);
     expect(unexpectedProblems(problems)).toEqual([]);
     expect(unexpectedProblems(admin.problems)).toEqual([]);
-  }, 480_000); // the demo study may still be running at the start; 15 pages × 3 widths with pictures
+  }, 480_000); // the demo study may still be running at the start; 17 pages × 3 widths with pictures
 });
 
 /** Each page at each width: what is cut off or drawn over other text, and a picture. */
