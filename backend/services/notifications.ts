@@ -43,6 +43,16 @@ export async function membersWithRole(
   return rows.map((r) => r.userId);
 }
 
+/**
+ * Who is told that something waits for review or release: the reviewers; in a workspace with no
+ * reviewer, its admins, who hold the same rights (so a small team is not left waiting unseen).
+ */
+export async function reviewersToTell(db: Database, workspaceId: string, except?: string): Promise<string[]> {
+  const reviewers = await membersWithRole(db, workspaceId, ["reviewer"]);
+  const people = reviewers.length > 0 ? reviewers : await membersWithRole(db, workspaceId, ["admin"]);
+  return people.filter((id) => id !== except);
+}
+
 const esc = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 
 /** Stores one notification per recipient and mails those who did not opt out of the kind. */

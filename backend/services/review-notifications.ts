@@ -8,7 +8,7 @@ import type { Database } from "../db/client";
 import type { AppDeps } from "../deps";
 import { projects, reports, stackRevisions } from "../db/schema";
 import type { Actor } from "../middleware/session";
-import { membersWithRole, notify } from "./notifications";
+import { notify, reviewersToTell } from "./notifications";
 import { reportCode } from "@shared/reports/format";
 
 /** What a notification needs: the database, the public address for links, the mail. */
@@ -23,7 +23,7 @@ async function revisionWithProject(db: Database, id: string) {
   return row;
 }
 
-/** Submitted: the reviewers are told. Sent back or approved: its author (and who submitted it). */
+/** Submitted: the reviewers are told (the admins when there is none). Sent back or approved: its author (and who submitted it). */
 export async function notifyRevision(deps: NotifyDeps, actor: Actor, id: string, kind: "submit" | "approve" | "return", comment?: string) {
   const { db } = deps;
   const row = await revisionWithProject(db, id);
@@ -32,7 +32,7 @@ export async function notifyRevision(deps: NotifyDeps, actor: Actor, id: string,
   const link = `/projects/${rev.projectId}/revisions/${rev.id}`;
   const base = { workspaceId: rev.workspaceId, projectId: rev.projectId, link };
   if (kind === "submit") {
-    const reviewers = await membersWithRole(db, rev.workspaceId, ["reviewer"], actor.userId);
+    const reviewers = await reviewersToTell(db, rev.workspaceId, actor.userId);
     await notify(deps, reviewers, actor, {
       ...base,
       kind: "revision.submitted",
@@ -55,7 +55,8 @@ export async function notifyRevision(deps: NotifyDeps, actor: Actor, id: string,
 export type ReportEvent = "ready" | "changed" | "returned" | "released" | "sent" | "question" | "acknowledged" | "measurements";
 
 /**
- * A report draft built, or changed after it was sent back: the reviewers (to release it).
+ * A report draft built, or changed after it was sent back: the reviewers (to release it; the
+ * admins when there is none).
  * Everything after: the report's engineer (who built it). The supplier's contacts get the
  * report mail itself, as before.
  */
@@ -69,7 +70,7 @@ export async function notifyReport(deps: NotifyDeps, actor: Actor, id: string, e
   const base = { workspaceId: row.workspaceId, projectId: row.projectId, link: `/reports/${row.id}` };
   const quote = text ? `${actor.name}: “${text}”` : undefined;
   if (event === "ready" || event === "changed") {
-    const reviewers = await membersWithRole(db, row.workspaceId, ["reviewer"], actor.userId);
+    const reviewers = await reviewersToTell(db, row.workspaceId, actor.userId);
     await notify(deps, reviewers, actor, {
       ...base,
       kind: "report.ready",

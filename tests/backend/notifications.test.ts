@@ -6,8 +6,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
-import { eq } from "drizzle-orm";
-import { outboxMessages, projects, suppliers } from "@backend/db/schema";
+import { and, eq } from "drizzle-orm";
+import { members, outboxMessages, projects, suppliers, users } from "@backend/db/schema";
 import { insertFinishedStudy } from "./report-fixtures";
 import { startTestApp, type TestApp } from "./harness";
 
@@ -201,5 +201,31 @@ describe("report notifications", () => {
       (await t.call("POST", "/api/notifications/read", { cookie: c.engineer, body: { ids: ["x"] } })).body.error.fields[0].path,
     ).toMatch(/^ids/);
     expect((await t.call("POST", "/api/notifications/read", { cookie: c.engineer, body: {} })).body.unread).toBe(0);
+  });
+});
+
+describe("a workspace without a reviewer", () => {
+  it("tells its admins what waits for review, and no longer once a reviewer is back", async () => {
+    const [reviewer] = await t.handle.db.select().from(users).where(eq(users.email, "reviewer@example.com"));
+    const asReviewer = and(eq(members.workspaceId, workspaceId), eq(members.userId, reviewer.id));
+    await t.handle.db.update(members).set({ role: "engineer" }).where(asReviewer);
+    try {
+      const [p] = await t.handle.db.insert(projects).values({ workspaceId, name: "Small team" }).returning();
+      const rev = (await t.call("POST", `/api/projects/${p.id}/revisions`, { cookie: c.engineer, body: { stack: REFERENCE } })).body;
+      const headers = await t.ifMatch(`/api/revisions/${rev.id}`, c.engineer);
+      expect((await t.call("POST", `/api/revisions/${rev.id}/submit`, { cookie: c.engineer, body: {}, headers })).status).toBe(200);
+      const told = await latest("admin");
+      expect(told).toMatchObject({ kind: "revision.submitted", link: `/projects/${p.id}/revisions/${rev.id}` });
+      expect(await mailsTo("admin@example.com", told.title)).toHaveLength(1);
+    } finally {
+      await t.handle.db.update(members).set({ role: "reviewer" }).where(asReviewer);
+    }
+    // with a reviewer again, the reviewer is told and the admin is not
+    const [q] = await t.handle.db.insert(projects).values({ workspaceId, name: "Team again" }).returning();
+    const rev2 = (await t.call("POST", `/api/projects/${q.id}/revisions`, { cookie: c.engineer, body: { stack: REFERENCE } })).body;
+    const headers2 = await t.ifMatch(`/api/revisions/${rev2.id}`, c.engineer);
+    await t.call("POST", `/api/revisions/${rev2.id}/submit`, { cookie: c.engineer, body: {}, headers: headers2 });
+    expect((await list("admin")).notifications.some((n) => n.link.includes(rev2.id))).toBe(false);
+    expect((await latest("reviewer")).link).toBe(`/projects/${q.id}/revisions/${rev2.id}`);
   });
 });
