@@ -157,6 +157,10 @@ export async function cancelStudy(db: Database, queue: StudyScheduler, actor: Ac
   if (s.status !== "queued" && s.status !== "running")
     throw conflict(`Study ${s.number} is ${s.status}; only a queued or running study can be cancelled.`, "invalid_state");
   await queue.cancel(id);
+  // it may have finished (or failed) in the meantime: only a cancel that took is recorded
+  const after = await getStudy(db, actor.workspaceId, id, false);
+  if (after.status !== "cancelled")
+    throw conflict(`Study ${s.number} is ${after.status}; it ended before the cancel reached it.`, "invalid_state");
   await recordActivity(db, {
     workspaceId: actor.workspaceId,
     projectId: s.projectId,
@@ -164,7 +168,7 @@ export async function cancelStudy(db: Database, queue: StudyScheduler, actor: Ac
     action: "study.cancelled",
     summary: `cancelled study ${s.number}`,
   });
-  return getStudy(db, actor.workspaceId, id, false);
+  return after;
 }
 
 const RERUNNABLE: Study["status"][] = ["interrupted", "failed", "cancelled"];

@@ -1,11 +1,13 @@
 import { allowServerErrors } from "../setup/logged-errors";
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { eq, sql } from "drizzle-orm";
+import { and, eq, sql } from "drizzle-orm";
 import type { DatabaseHandle } from "@backend/db/client";
 import { openTestDatabase } from "./test-database";
-import { studies, studyResults } from "@backend/db/schema";
-import type { StudyRunner } from "@backend/services/study-queue";
+import { activities, projects, studies, studyResults, users } from "@backend/db/schema";
+import type { StudyRunner, StudyScheduler } from "@backend/services/study-queue";
+import { cancelStudy } from "@backend/services/studies";
+import type { Actor } from "@backend/middleware/session";
 import type { ResultFile } from "@shared/schemas/result-file";
 import { startTestApp, type TestApp } from "./harness";
 
@@ -200,6 +202,49 @@ describe("studies with a controllable runner", () => {
 });
 
 describe("faults", () => {
+  it("a study that ends just as it is cancelled stays as it ended: 409, and no cancel is recorded", async () => {
+    // runs until stopped
+    const runner: StudyRunner = (_input, { signal }) =>
+      new Promise((_resolve, reject) => signal.addEventListener("abort", () => reject(new Error("stopped"))));
+    const t = await startTestApp({ runner });
+    try {
+      const eng = await t.signIn("engineer@example.com");
+      const p = await t.call("POST", "/api/projects", { cookie: eng, body: { name: "late cancel" } });
+      const rev = await t.call("POST", `/api/projects/${p.body.id}/revisions`, { cookie: eng, body: { stack } });
+      const s = await t.call("POST", `/api/revisions/${rev.body.id}/studies`, { cookie: eng, body: { study } });
+      await until(
+        () => t.call("GET", `/api/studies/${s.body.id}`, { cookie: eng }),
+        (x) => x.body.status === "running",
+      );
+      // the race: between the cancel's check of the state and the scheduler's cancel, the study
+      // finishes (its result transaction lands first); the scheduler then finds nothing to stop
+      const lateScheduler: StudyScheduler = {
+        start: async () => undefined,
+        kick: () => undefined,
+        stop: async () => undefined,
+        cancel: async (id) => {
+          await t.handle.db.update(studies).set({ status: "finished", finishedAt: new Date() }).where(eq(studies.id, id));
+          return true;
+        },
+      };
+      const [project] = await t.handle.db.select().from(projects).where(eq(projects.id, p.body.id));
+      const [user] = await t.handle.db.select().from(users).where(eq(users.email, "engineer@example.com"));
+      const actor = { userId: user.id, workspaceId: project.workspaceId } as Actor;
+      await expect(cancelStudy(t.handle.db, lateScheduler, actor, s.body.id)).rejects.toMatchObject({
+        status: 409,
+        message: expect.stringMatching(/is finished; it ended before the cancel reached it/),
+      });
+      const recorded = await t.handle.db
+        .select()
+        .from(activities)
+        .where(and(eq(activities.projectId, p.body.id), eq(activities.action, "study.cancelled")));
+      expect(recorded).toHaveLength(0);
+      expect((await t.call("GET", `/api/studies/${s.body.id}`, { cookie: eng })).body.status).toBe("finished");
+    } finally {
+      await t.close();
+    }
+  });
+
   it("a study that throws is failed with its message, and the server keeps serving", async () => {
     const runner: StudyRunner = async () => {
       throw new Error("the stack has no board");
