@@ -74,8 +74,9 @@ function addTrack(st: TrackState, v: number, limit: number): void {
   st.w.add(v);
 }
 
-function trackPercentile(t: TrackState, q: number): number {
-  return t.hist.quantileAbs(q, t.minAbs, t.maxAbs);
+/** |v| percentiles of a tracked metric, from one pass over its buckets. */
+function trackPercentiles(t: TrackState, qs: number[]): number[] {
+  return t.hist.quantilesAbs(qs, t.minAbs, t.maxAbs);
 }
 
 export class Coordinator {
@@ -167,14 +168,15 @@ export class Coordinator {
     this.lastCheckpoint = this.trials;
     this.plan.tracked.forEach((t, i) => {
       const st = this.prefix[i];
+      const [p95, p99, p9973, pAtCoverage] = trackPercentiles(st, [0.95, 0.99, 0.9973, t.p]);
       this.convergence[i].push({
         trials: this.trials,
         mean: st.w.mean,
         std: st.w.std(),
-        p95: trackPercentile(st, 0.95),
-        p99: trackPercentile(st, 0.99),
-        p9973: trackPercentile(st, 0.9973),
-        pAtCoverage: trackPercentile(st, t.p),
+        p95,
+        p99,
+        p9973,
+        pAtCoverage,
         yield: Number.isNaN(t.limit) ? null : st.pass / st.w.n,
       });
     });
@@ -186,7 +188,7 @@ export class Coordinator {
       const st = this.run[i];
       r.mean.push(st.w.mean);
       r.std.push(st.w.std());
-      r.q.push(trackPercentile(st, t.p));
+      r.q.push(trackPercentiles(st, [t.p])[0]);
     });
     this.runs.push(r);
     this.run = this.plan.tracked.map(newTrack);

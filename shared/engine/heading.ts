@@ -409,6 +409,7 @@ export function headingSweepScreened(
       EA = k[o + 6],
       B = k[o + 7];
     for (let j = 0; j < nPsi; j++) {
+      // levelledField's (ex, ey), the same products in the same order, reduced at once
       const c = hc[j],
         sn = hs[j];
       const x = A * hcc[j] + BD * hcs[j] + E * hss[j] + C * c + F * sn;
