@@ -181,162 +181,121 @@ function insertWorst(st: WorkerState, k: number, v: number, trial: number): void
 /** Run one block of trials into the worker state; returns the block's float partial. */
 export function runBlock(m: Model, plan: Plan, st: WorkerState, block: number): BlockPartial {
   const n = blockTrials(block, plan.trials);
+  const nM = m.metrics.length;
+  const nT = plan.tracked.length;
+  const reg = plan.regression;
+  const zLen = reg.cols.length + 1;
+  const triLen = (zLen * (zLen + 1)) / 2;
+  const nR = reg.metrics.length;
+  const sums: RegressionSums = {
+    cols: reg.cols,
+    mu: Float64Array.from(reg.cols, (c) => m.drawDist[c].mean),
+    specs: reg.metrics,
+    xtxLin: reg.useLinear ? new Float64Array(triLen) : null,
+    xtxSq: reg.useSquared ? new Float64Array(triLen) : null,
+    xty: nR > 0 ? new Float64Array(nR * (zLen + 1)) : null,
+    zLin: new Float64Array(zLen),
+    zSq: new Float64Array(zLen),
+  };
+  const tracked = new Float64Array(n * nT);
+  // the block's values, trial-major: metrics, and every attitude's heading error of the
+  // envelope's trials; counted metric by metric (attitude by attitude) after the trial loop
+  const nEnv = st.nAtt > 0 ? Math.min(n, ENV_TRIALS_PER_BLOCK) : 0;
+  const blockVals = blockBuffer(0, n * nM);
+  const envVals = blockBuffer(1, nEnv * st.nAtt);
   const sampler = blockSampler(m, plan.mode, plan.seed, block, n);
+  // The loop and the counting are functions of their own: V8 optimises each apart, and code
+  // first reached after a loop (no type feedback yet) no longer throws the loop's optimised
+  // code away at the end of the first blocks.
+  trialLoop(m, plan, st, sampler, n, blockVals, envVals, nEnv, tracked, sums);
+  const moments = new Float64Array(2 * nM);
+  countMetrics(st, moments, blockVals, n, block * BLOCK_SIZE);
+  countEnvelope(st, envVals, nEnv);
+  st.n += n;
+  return { block, n, moments, tracked, xtxLin: sums.xtxLin, xtxSq: sums.xtxSq, xty: sums.xty };
+}
+
+/** The regression's sums of a block (see BlockPartial) and their scratch. */
+interface RegressionSums {
+  cols: Int32Array;
+  mu: Float64Array;
+  specs: RegressionSpec["metrics"];
+  xtxLin: Float64Array | null;
+  xtxSq: Float64Array | null;
+  xty: Float64Array | null;
+  zLin: Float64Array;
+  zSq: Float64Array;
+}
+
+/**
+ * The trials of a block: each one's metrics into blockVals and its heading errors into
+ * envVals (trial-major), its tracked values, requirement passes and (the first
+ * REG_TRIALS_PER_BLOCK) regression sums.
+ */
+function trialLoop(
+  m: Model,
+  plan: Plan,
+  st: WorkerState,
+  sampler: ReturnType<typeof blockSampler>,
+  n: number,
+  blockVals: Float64Array,
+  envVals: Float64Array,
+  nEnv: number,
+  tracked: Float64Array,
+  sums: RegressionSums,
+): void {
   const s = createScratch(m);
   const draws = new Float64Array(m.drawCount);
   const nM = m.metrics.length;
-  const moments = new Float64Array(2 * nM);
   const nT = plan.tracked.length;
-  const tracked = new Float64Array(n * nT);
-  const trackedIdx = Int32Array.from(plan.tracked.map((t) => t.metric));
-
-  const reg = plan.regression;
-  const p = reg.cols.length;
-  const zLen = p + 1;
-  const triLen = (zLen * (zLen + 1)) / 2;
-  const xtxLin = reg.useLinear ? new Float64Array(triLen) : null;
-  const xtxSq = reg.useSquared ? new Float64Array(triLen) : null;
-  const nR = reg.metrics.length;
-  const xty = nR > 0 ? new Float64Array(nR * (zLen + 1)) : null;
-  const zLin = new Float64Array(zLen);
-  const zSq = new Float64Array(zLen);
-  const mu = Float64Array.from(reg.cols, (c) => m.drawDist[c].mean);
-
-  const hLen = METRIC_LEN;
-  const eLen = ENVELOPE_LEN;
-  const hist = metricStore(new Uint32Array(0));
-  const envH = envelopeStore(new Uint32Array(0));
-  const stHist = st.hist,
-    stEnv = st.env,
-    minAbs = st.minAbs,
-    maxAbs = st.maxAbs,
-    vMin = st.min,
-    vMax = st.max;
-  const envMin = st.envMin,
-    envMax = st.envMax,
-    pass = st.pass;
+  const trackedIdx = Int32Array.from(plan.tracked, (t) => t.metric);
   const reqs = plan.requirements;
+  const pass = st.pass;
   const nAtt = st.nAtt;
-  const firstTrial = block * BLOCK_SIZE;
-
-  // |v| a value must reach to enter the worst list of metric k (−1 while the list has room)
-  const K = st.worstK;
-  const thr = new Float64Array(nM).fill(K > 0 ? -1 : Infinity);
-  const refreshThr = (k: number) => {
-    thr[k] = st.worstTrial[k * K + K - 1] >= 0 ? Math.abs(st.worstVal[k * K + K - 1]) : -1;
-  };
-  if (K > 0) for (let k = 0; k < nM; k++) refreshThr(k);
-  const perSign = hist.perSign;
-  // the block's values, trial-major: metrics, and every attitude's heading error of the
-  // envelope's trials; filled by the trial loop, counted per metric after it
-  const nEnv = nAtt > 0 ? Math.min(n, ENV_TRIALS_PER_BLOCK) : 0;
-  const blockVals = blockBuffer(0, n * nM);
-  const envVals = blockBuffer(1, nEnv * nAtt);
-
+  const regTrials = sums.specs.length > 0 ? REG_TRIALS_PER_BLOCK : 0;
   for (let i = 0; i < n; i++) {
     sampler.next(draws);
     // the envelope needs every attitude's error; the other trials may take the screened sweep
     s.perAttitude = i < ENV_TRIALS_PER_BLOCK;
     evaluateTrial(m, draws, s);
-    blockVals.set(s.metrics, i * nM);
     const vals = s.metrics;
+    blockVals.set(vals, i * nM);
     if (i < nEnv) envVals.set(s.headingErr, i * nAtt);
-    if (nR > 0 && i < REG_TRIALS_PER_BLOCK) {
-      zLin[0] = 1;
-      zSq[0] = 1;
-      for (let j = 0; j < p; j++) {
-        const x = draws[reg.cols[j]];
-        zLin[j + 1] = x;
-        const dx = x - mu[j];
-        zSq[j + 1] = dx * dx;
-      }
-      if (xtxLin) accumulateTri(xtxLin, zLin, zLen);
-      if (xtxSq) accumulateTri(xtxSq, zSq, zLen);
-      for (let r = 0; r < nR; r++) {
-        const spec = reg.metrics[r];
-        const z = spec.design === "linear" ? zLin : zSq;
-        const v = vals[spec.metric];
-        const y = spec.design === "linear" ? v : v * v;
-        const o = r * (zLen + 1);
-        for (let j = 0; j < zLen; j++) xty![o + j] += z[j] * y;
-        xty![o + zLen] += y * y;
-      }
+    for (let t = 0; t < nT; t++) tracked[i * nT + t] = vals[trackedIdx[t]];
+    for (let r = 0; r < reqs.length; r++) {
+      const v = vals[reqs[r].metric];
+      if ((v < 0 ? -v : v) <= reqs[r].max) pass[r]++;
     }
+    if (i < regTrials) addRegression(sums, draws, vals);
   }
-  // second pass, metric by metric: each metric's histogram stays in cache while its
-  // values of the block go in (same arithmetic, same order of trials as one pass)
-  for (let k = 0; k < nM; k++) {
-    let mean = 0,
-      m2 = 0,
-      lo = minAbs[k],
-      hiA = maxAbs[k],
-      mn = vMin[k],
-      mx = vMax[k],
-      th = thr[k];
-    const ho = k * hLen;
-    for (let i = 0, o = k; i < n; i++, o += nM) {
-      const v = blockVals[o];
-      const d = v - mean;
-      const nm = mean + d * INV_COUNT[i];
-      mean = nm;
-      m2 += d * (v - nm);
-      F64[0] = v;
-      const hi = U32[HI_WORD];
-      let b = ((hi & 0x7fffffff) >>> METRIC_SHIFT) - METRIC_BASE + 1;
-      if (b < 1) b = 0;
-      else if (b > perSign - 2) b = perSign - 1;
-      stHist[ho + (hi >>> 31 ? perSign + b : b)]++;
-      const a = v < 0 ? -v : v;
-      if (a < lo) lo = a;
-      if (a > hiA) hiA = a;
-      if (v < mn) mn = v;
-      if (v > mx) mx = v;
-      if (a >= th) {
-        insertWorst(st, k, v, firstTrial + i);
-        refreshThr(k);
-        th = thr[k];
-      }
-    }
-    moments[2 * k] = mean;
-    moments[2 * k + 1] = m2;
-    minAbs[k] = lo;
-    maxAbs[k] = hiA;
-    vMin[k] = mn;
-    vMax[k] = mx;
+}
+
+/** One trial into the regression sums: z = [1, regressors] (linear) or [1, (x − μ)²] (squared). */
+function addRegression(g: RegressionSums, draws: Float64Array, vals: Float64Array): void {
+  const p = g.cols.length;
+  const zLen = p + 1;
+  const zLin = g.zLin,
+    zSq = g.zSq,
+    xty = g.xty!;
+  zLin[0] = 1;
+  zSq[0] = 1;
+  for (let j = 0; j < p; j++) {
+    const x = draws[g.cols[j]];
+    zLin[j + 1] = x;
+    const dx = x - g.mu[j];
+    zSq[j + 1] = dx * dx;
   }
-  for (let r = 0; r < reqs.length; r++) {
-    const mk = reqs[r].metric,
-      max = reqs[r].max;
-    let c = 0;
-    for (let i = 0, o = mk; i < n; i++, o += nM) {
-      const v = blockVals[o];
-      if ((v < 0 ? -v : v) <= max) c++;
-    }
-    pass[r] += c;
+  if (g.xtxLin) accumulateTri(g.xtxLin, zLin, zLen);
+  if (g.xtxSq) accumulateTri(g.xtxSq, zSq, zLen);
+  for (let r = 0; r < g.specs.length; r++) {
+    const spec = g.specs[r];
+    const z = spec.design === "linear" ? zLin : zSq;
+    const v = vals[spec.metric];
+    const y = spec.design === "linear" ? v : v * v;
+    const o = r * (zLen + 1);
+    for (let j = 0; j < zLen; j++) xty[o + j] += z[j] * y;
+    xty[o + zLen] += y * y;
   }
-  for (let i = 0; i < n; i++) for (let t = 0; t < nT; t++) tracked[i * nT + t] = blockVals[i * nM + trackedIdx[t]];
-  // the heading envelope, attitude by attitude (envelopeStore().index(e), inlined)
-  const envPerSign = envH.perSign;
-  for (let k = 0; k < nAtt; k++) {
-    let lo = envMin[k],
-      hiE = envMax[k];
-    const eo = k * eLen;
-    for (let i = 0, o = k; i < nEnv; i++, o += nAtt) {
-      const e = envVals[o];
-      F64[0] = e;
-      const hi = U32[HI_WORD];
-      let b = ((hi & 0x7fffffff) >>> ENVELOPE_SHIFT) - ENVELOPE_BASE + 1;
-      if (b < 1) b = 0;
-      else if (b > envPerSign - 2) b = envPerSign - 1;
-      stEnv[eo + (hi >>> 31 ? envPerSign + b : b)]++;
-      if (e < lo) lo = e;
-      if (e > hiE) hiE = e;
-    }
-    envMin[k] = lo;
-    envMax[k] = hiE;
-  }
-  st.n += n;
-  return { block, n, moments, tracked, xtxLin, xtxSq, xty };
 }
 
 /**
@@ -347,6 +306,91 @@ const blockBuffers: Float64Array[] = [new Float64Array(0), new Float64Array(0)];
 function blockBuffer(which: 0 | 1, length: number): Float64Array {
   if (blockBuffers[which].length < length) blockBuffers[which] = new Float64Array(length);
   return blockBuffers[which];
+}
+
+/** |v| a value must reach to enter metric k's worst list (−1 while it has room, ∞ if none kept). */
+function worstThreshold(st: WorkerState, k: number): number {
+  const K = st.worstK;
+  if (K === 0) return Infinity;
+  return st.worstTrial[k * K + K - 1] >= 0 ? Math.abs(st.worstVal[k * K + K - 1]) : -1;
+}
+
+/**
+ * The block's n trials, their metrics trial-major in vals, into the histograms, moments
+ * (Welford within the block: mean and M2 per metric), extremes and worst lists; metric by
+ * metric so that each histogram stays in cache while its values go in. Same arithmetic in
+ * the same order of trials as counting trial by trial.
+ */
+function countMetrics(st: WorkerState, moments: Float64Array, vals: Float64Array, n: number, firstTrial: number): void {
+  const nM = st.nMetrics;
+  const hist = st.hist;
+  const perSign = METRIC_LEN / 2;
+  for (let k = 0; k < nM; k++) {
+    let mean = 0,
+      m2 = 0,
+      lo = st.minAbs[k],
+      hiA = st.maxAbs[k],
+      mn = st.min[k],
+      mx = st.max[k],
+      // |v| a value must reach to enter the worst list (−1 while the list has room)
+      th = worstThreshold(st, k);
+    const ho = k * METRIC_LEN;
+    for (let i = 0, o = k; i < n; i++, o += nM) {
+      const v = vals[o];
+      const d = v - mean;
+      const nm = mean + d * INV_COUNT[i];
+      mean = nm;
+      m2 += d * (v - nm);
+      // metricStore().index(v), inlined
+      F64[0] = v;
+      const hi = U32[HI_WORD];
+      let b = ((hi & 0x7fffffff) >>> METRIC_SHIFT) - METRIC_BASE + 1;
+      if (b < 1) b = 0;
+      else if (b > perSign - 2) b = perSign - 1;
+      hist[ho + (hi >>> 31) * perSign + b]++;
+      const a = Math.abs(v);
+      if (a < lo) lo = a;
+      if (a > hiA) hiA = a;
+      if (v < mn) mn = v;
+      if (v > mx) mx = v;
+      if (a >= th) {
+        insertWorst(st, k, v, firstTrial + i);
+        th = worstThreshold(st, k);
+      }
+    }
+    moments[2 * k] = mean;
+    moments[2 * k + 1] = m2;
+    st.minAbs[k] = lo;
+    st.maxAbs[k] = hiA;
+    st.min[k] = mn;
+    st.max[k] = mx;
+  }
+}
+
+/** The first `rows` rows of vals (every attitude's heading error, trial-major) into the envelope, attitude by attitude. */
+function countEnvelope(st: WorkerState, vals: Float64Array, rows: number): void {
+  const nAtt = st.nAtt;
+  const env = st.env;
+  const perSign = ENVELOPE_LEN / 2;
+  for (let k = 0; k < nAtt; k++) {
+    let lo = st.envMin[k],
+      hiE = st.envMax[k];
+    const eo = k * ENVELOPE_LEN;
+    for (let i = 0, o = k; i < rows; i++, o += nAtt) {
+      const e = vals[o];
+      // envelopeStore().index(e), inlined
+      F64[0] = e;
+      const hi = U32[HI_WORD];
+      let b = ((hi & 0x7fffffff) >>> ENVELOPE_SHIFT) - ENVELOPE_BASE + 1;
+      if (b < 1) b = 0;
+      else if (b > perSign - 2) b = perSign - 1;
+      env[eo + (hi >>> 31) * perSign + b]++;
+      if (e < lo) lo = e;
+      if (e > hiE) hiE = e;
+    }
+    st.envMin[k] = lo;
+    st.envMax[k] = hiE;
+  }
 }
 
 function accumulateTri(tri: Float64Array, z: Float64Array, len: number): void {

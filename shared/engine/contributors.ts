@@ -197,16 +197,23 @@ function pseudoInverse(svd: SingularValueDecomposition): Matrix {
   const e = svd.threshold;
   const Ls = Matrix.zeros(s.length, s.length);
   for (let i = 0; i < s.length; i++) Ls.set(i, i, Math.abs(s[i]) <= e ? 0 : 1 / s[i]);
-  const U = svd.leftSingularVectors;
-  const VL = svd.rightSingularVectors.mmul(Ls);
-  const out = Matrix.zeros(VL.rows, U.rows);
-  for (let i = 0; i < VL.rows; i++)
-    for (let j = 0; j < U.rows; j++) {
+  // rows as plain arrays: the triple loop runs once per study, before the JIT has warmed
+  // up, where a get() call per product was most of its time
+  const U = svd.leftSingularVectors.to2DArray();
+  const VL = svd.rightSingularVectors.mmul(Ls).to2DArray();
+  const out: number[][] = [];
+  for (let i = 0; i < VL.length; i++) {
+    const vl = VL[i];
+    const row = new Array<number>(U.length);
+    for (let j = 0; j < U.length; j++) {
+      const u = U[j];
       let sum = 0;
-      for (let k = 0; k < s.length; k++) sum += VL.get(i, k) * U.get(j, k);
-      out.set(i, j, sum);
+      for (let k = 0; k < s.length; k++) sum += vl[k] * u[k];
+      row[j] = sum;
     }
-  return out;
+    out.push(row);
+  }
+  return new Matrix(out);
 }
 
 export function regressionDesign(cols: Int32Array, tri: Float64Array): RegressionDesign | null {

@@ -84,6 +84,21 @@ export class LogHistogram {
     return [2 ** e + mant * scale, 2 ** e + (mant + 1) * scale];
   }
 
+  /**
+   * First and last magnitude bucket holding any value (either sign), [0, −1] when empty:
+   * the scans below visit only these (a metric fills a few octaves of the forty).
+   */
+  occupied(): [number, number] {
+    const P = this.perSign;
+    const c = this.counts;
+    let first = 0,
+      last = P - 1;
+    while (first < P && c[first] === 0 && c[P + first] === 0) first++;
+    if (first === P) return [0, -1];
+    while (c[last] === 0 && c[P + last] === 0) last--;
+    return [first, last];
+  }
+
   total(): number {
     let n = 0;
     for (let i = 0; i < this.counts.length; i++) n += this.counts[i];
@@ -103,8 +118,9 @@ export class LogHistogram {
   quantilesAbs(qs: number[], minAbs: number, maxAbs: number): number[] {
     const P = this.perSign;
     const c = this.counts;
+    const [first, last] = this.occupied();
     const ranks = new RankedBuckets();
-    for (let b = 0; b < P; b++) ranks.push(b, c[b] + c[P + b]);
+    for (let b = first; b <= last; b++) ranks.push(b, c[b] + c[P + b]);
     return qs.map((q) =>
       ranks.quantile(q, minAbs, maxAbs, (j, idx) => {
         const [l, u] = this.magnitudeBounds(ranks.bucket[j], maxAbs);
@@ -125,9 +141,10 @@ export class LogHistogram {
     const maxAbs = Math.max(Math.abs(min), Math.abs(max));
     // value order: negative buckets from the largest magnitude down, then the positive ones
     // (bucket numbers of the negative side stored as −1 − b)
+    const [first, last] = this.occupied();
     const ranks = new RankedBuckets();
-    for (let b = P - 1; b >= 0; b--) ranks.push(-1 - b, c[P + b]);
-    for (let b = 0; b < P; b++) ranks.push(b, c[b]);
+    for (let b = last; b >= first; b--) ranks.push(-1 - b, c[P + b]);
+    for (let b = first; b <= last; b++) ranks.push(b, c[b]);
     return qs.map((q) =>
       ranks.quantile(q, min, max, (j, idx) => {
         const b = ranks.bucket[j];
@@ -157,7 +174,8 @@ export class LogHistogram {
       cum: number[] = [];
     let n = 0;
     const maxAbs = Math.max(Math.abs(min), Math.abs(max));
-    for (let b = P - 1; b >= 0; b--) {
+    const [first, last] = this.occupied();
+    for (let b = last; b >= first; b--) {
       const k = c[P + b];
       if (!k) continue;
       const [l, u] = this.magnitudeBounds(b, maxAbs);
@@ -166,7 +184,7 @@ export class LogHistogram {
       n += k;
       cum.push(n);
     }
-    for (let b = 0; b < P; b++) {
+    for (let b = first; b <= last; b++) {
       const k = c[b];
       if (!k) continue;
       const [l, u] = this.magnitudeBounds(b, maxAbs);
@@ -207,7 +225,8 @@ export class LogHistogram {
   countAbsAtMost(limit: number, maxAbs: number): number {
     const P = this.perSign;
     let n = 0;
-    for (let b = 0; b < P; b++) {
+    const [first, last] = this.occupied();
+    for (let b = first; b <= last; b++) {
       const k = this.counts[b] + this.counts[P + b];
       if (k === 0) continue;
       const [l, u] = this.magnitudeBounds(b, maxAbs);
@@ -232,7 +251,8 @@ export class LogHistogram {
       if (i >= nBins) i = nBins - 1;
       counts[i] += k;
     };
-    for (let b = 0; b < P; b++) {
+    const [first, last] = this.occupied();
+    for (let b = first; b <= last; b++) {
       const kp = this.counts[b],
         kn = this.counts[P + b];
       if (kp === 0 && kn === 0) continue;
