@@ -44,12 +44,16 @@ export interface Attitudes {
   /** per tilt: L = Rx(φ)ᵀ·Ry(θ)ᵀ (row-major) and the true specific force −L·ez */
   tiltL: Float64Array;
   tiltF: Float64Array;
-  /** per heading: cos ψ, sin ψ, cos²ψ, cos ψ·sin ψ, sin²ψ */
-  hc: Float64Array;
-  hs: Float64Array;
-  hcc: Float64Array;
-  hcs: Float64Array;
-  hss: Float64Array;
+  /**
+   * per heading j, at 5j..5j+4: cos ψ, sin ψ, cos²ψ, cos ψ·sin ψ, sin²ψ (one array: the
+   * sweeps' inner loops load five neighbours instead of one element of five arrays)
+   */
+  trig: Float64Array;
+  /**
+   * whether heading j + nPsi/2 is heading j turned by half a turn (an even count of equal
+   * steps round the circle), so that the screened sweep can take them in pairs
+   */
+  halfTurnPairs: boolean;
   cosI: number;
   sinI: number;
   /** scratch of the sweep: the turned levelled field per attitude */
@@ -77,11 +81,8 @@ export function buildAttitudes(opts: {
     m: new Float64Array(3 * count),
     tiltL: new Float64Array(9 * tilts.length),
     tiltF: new Float64Array(3 * tilts.length),
-    hc: new Float64Array(nPsi),
-    hs: new Float64Array(nPsi),
-    hcc: new Float64Array(nPsi),
-    hcs: new Float64Array(nPsi),
-    hss: new Float64Array(nPsi),
+    trig: new Float64Array(5 * nPsi),
+    halfTurnPairs: nPsi % 2 === 0 && Math.abs(nPsi * step - 360) < 1e-9,
     cosI: Math.cos(opts.inclinationDeg * DEG),
     sinI: Math.sin(opts.inclinationDeg * DEG),
     ex: new Float64Array(count),
@@ -90,11 +91,7 @@ export function buildAttitudes(opts: {
   for (let j = 0; j < nPsi; j++) {
     const c = Math.cos(j * step * DEG),
       sn = Math.sin(j * step * DEG);
-    a.hc[j] = c;
-    a.hs[j] = sn;
-    a.hcc[j] = c * c;
-    a.hcs[j] = c * sn;
-    a.hss[j] = sn * sn;
+    a.trig.set([c, sn, c * c, c * sn, sn * sn], 5 * j);
   }
   tilts.forEach((t, ti) => {
     const L = mul(transposeOf(rotX(t.rollDeg * DEG, mat3())), transposeOf(rotY(t.pitchDeg * DEG, mat3())), mat3());
@@ -248,11 +245,7 @@ function levelledField(Ca: Float64Array, ca: number, Cm: Float64Array, cm: numbe
   const k = tiltCoefficients(Ca, ca, Cm, cm, att);
   const nPsi = att.headingsPerTilt,
     nT = att.tilts.length;
-  const hc = att.hc,
-    hs = att.hs,
-    hcc = att.hcc,
-    hcs = att.hcs,
-    hss = att.hss;
+  const trig = att.trig;
   const EX = att.ex,
     EY = att.ey;
   for (let t = 0; t < nT; t++) {
@@ -268,10 +261,14 @@ function levelledField(Ca: Float64Array, ca: number, Cm: Float64Array, cm: numbe
     const base = t * nPsi;
     for (let j = 0; j < nPsi; j++) {
       // (ex, ey) = (h_x, −h_y) turned by −ψ; its angle is e = ψ^ − ψ in (−π, π]
-      const c = hc[j],
-        s = hs[j];
-      EX[base + j] = A * hcc[j] + BD * hcs[j] + E * hss[j] + C * c + F * s;
-      EY[base + j] = D * hcc[j] + EA * hcs[j] - B * hss[j] + F * c - C * s;
+      const q = 5 * j;
+      const c = trig[q],
+        s = trig[q + 1],
+        cc = trig[q + 2],
+        cs = trig[q + 3],
+        ss = trig[q + 4];
+      EX[base + j] = A * cc + BD * cs + E * ss + C * c + F * s;
+      EY[base + j] = D * cc + EA * cs - B * ss + F * c - C * s;
     }
   }
 }
@@ -375,6 +372,10 @@ const screenResult = { maxAbs: 0, rms: 0 };
  *   out, relative to t², is at most (44/105)·2^-30).
  * - Every attitude outside that range (error above 1.8°, or ex ≤ 0) is evaluated exactly,
  *   one atan2 each, and enters both figures directly.
+ * - Headings half a turn apart share their products (see halfTurnPairs): (ex, ey) at ψ + π is
+ *   the same quadratic part minus the linear part, so the pair costs little more than one.
+ *   The sums then round differently from headingSweep's (ex, ey) in the last bits, far below
+ *   the Monte Carlo error; the exact sweep keeps its own evaluation.
  */
 export function headingSweepScreened(
   Ca: Float64Array,
@@ -386,11 +387,7 @@ export function headingSweepScreened(
   const k = tiltCoefficients(Ca, ca, Cm, cm, att);
   const nPsi = att.headingsPerTilt,
     nT = att.tilts.length;
-  const hc = att.hc,
-    hs = att.hs,
-    hcc = att.hcc,
-    hcs = att.hcs,
-    hss = att.hss;
+  const trig = att.trig;
   const n = att.count;
   let tMax = 0,
     s2 = 0,
@@ -398,6 +395,9 @@ export function headingSweepScreened(
     s6 = 0,
     wide2 = 0,
     wideMax = 0;
+  // half-turn pairs: ψ + π flips cos ψ and sin ψ and keeps their products, so one heading's
+  // quadratic part (qx, qy) and linear part (lx, ly) give both (ex, ey) = q ± l
+  const half = att.halfTurnPairs ? nPsi >> 1 : 0;
   for (let t = 0; t < nT; t++) {
     const o = 8 * t;
     const A = k[o],
@@ -408,12 +408,63 @@ export function headingSweepScreened(
       D = k[o + 5],
       EA = k[o + 6],
       B = k[o + 7];
-    for (let j = 0; j < nPsi; j++) {
-      // levelledField's (ex, ey), the same products in the same order, reduced at once
-      const c = hc[j],
-        sn = hs[j];
-      const x = A * hcc[j] + BD * hcs[j] + E * hss[j] + C * c + F * sn;
-      const y = D * hcc[j] + EA * hcs[j] - B * hss[j] + F * c - C * sn;
+    for (let j = 0; j < half; j++) {
+      const q = 5 * j;
+      const c = trig[q],
+        sn = trig[q + 1],
+        cc = trig[q + 2],
+        cs = trig[q + 3],
+        ss = trig[q + 4];
+      const qx = A * cc + BD * cs + E * ss,
+        qy = D * cc + EA * cs - B * ss;
+      const lx = C * c + F * sn,
+        ly = F * c - C * sn;
+      const x1 = qx + lx,
+        x2 = qx - lx,
+        y1 = qy + ly,
+        y2 = qy - ly;
+      const a1 = y1 < 0 ? -y1 : y1,
+        a2 = y2 < 0 ? -y2 : y2;
+      if (x1 > 0 && a1 <= SCREEN_T * x1 && x2 > 0 && a2 <= SCREEN_T * x2) {
+        // both narrow (nearly always): the series terms of the two at once
+        const t1 = a1 / x1,
+          t2 = a2 / x2;
+        const u1 = t1 * t1,
+          u2 = t2 * t2;
+        s2 += u1 + u2;
+        s4 += u1 * u1 + u2 * u2;
+        s6 += u1 * u1 * u1 + u2 * u2 * u2;
+        const tt = t1 > t2 ? t1 : t2;
+        if (tt > tMax) tMax = tt;
+        continue;
+      }
+      for (let h = 0; h < 2; h++) {
+        const x = h === 0 ? x1 : x2,
+          ay = h === 0 ? a1 : a2;
+        if (x > 0 && ay <= SCREEN_T * x) {
+          const tt = ay / x;
+          const t2 = tt * tt;
+          s2 += t2;
+          s4 += t2 * t2;
+          s6 += t2 * t2 * t2;
+          if (tt > tMax) tMax = tt;
+        } else {
+          const e = atan2Fast(ay, x);
+          wide2 += e * e;
+          if (e > wideMax) wideMax = e;
+        }
+      }
+    }
+    // headings one by one when they do not pair up (a step that does not divide half a turn)
+    for (let j = 2 * half; j < nPsi; j++) {
+      const q = 5 * j;
+      const c = trig[q],
+        sn = trig[q + 1],
+        cc = trig[q + 2],
+        cs = trig[q + 3],
+        ss = trig[q + 4];
+      const x = A * cc + BD * cs + E * ss + C * c + F * sn;
+      const y = D * cc + EA * cs - B * ss + F * c - C * sn;
       const ay = y < 0 ? -y : y;
       if (x > 0 && ay <= SCREEN_T * x) {
         const tt = ay / x;
