@@ -2,6 +2,7 @@
  * npm run bench: the figures of docs/engine.md on the reference stack and study.
  *
  *   engine: process start to first trial, CPU per trial (µs) and trials per CPU-second,
+ *           10^4 and 10^5 trials from the command line (a process each, as a person runs it),
  *           wall time at 10^4, 10^5, 10^6 trials with 1 and 2 threads, peak memory at 10^7
  *           trials, the live estimate's time from an edit to its figures;
  *   API:    GET /api/projects with 50 signed-in clients (autocannon), alone and while a long
@@ -11,12 +12,13 @@
  * The machine's load is printed with every figure: wall-clock figures mean little when other
  * processes share the cores, CPU-seconds mean more.
  */
-import { readFileSync, rmSync } from "node:fs";
-import { cpus, loadavg } from "node:os";
+import { execFileSync } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { cpus, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import autocannon from "autocannon";
-import { EnginePool } from "../engine/pool";
+import { defaultThreads, EnginePool } from "../engine/pool";
 import { json, signIn, startServer, studiesIdle } from "./bench-app";
 import { whatIfFigures } from "./what-if-figures";
 import { runStudy } from "@shared/engine/study";
@@ -31,6 +33,7 @@ const apiSeconds = Number(args[args.indexOf("--api-seconds") + 1]) || 10;
 const out = (line: string) => process.stdout.write(line + "\n");
 const load = () => `load ${loadavg()[0].toFixed(1)} on ${cpus().length} cores`;
 const fmt = (n: number) => Math.round(n).toLocaleString("en-US");
+const defaultThreadsLabel = () => `${defaultThreads()} thread${defaultThreads() > 1 ? "s" : ""}`;
 
 async function engine() {
   const stackV = validateStackFile(fixture("stack-reference.json"));
@@ -60,6 +63,40 @@ async function engine() {
   const t0 = performance.now();
   runStudy(stack, { ...study, trials: 3000 }, {});
   out(`live estimate (3,000 trials, compile to figures, one thread): ${(performance.now() - t0).toFixed(0)} ms · ${load()}`);
+
+  // issue 15's "from the command line": the study CLI in a process of its own, start to exit
+  // (node, not npm run, whose own start adds about half a second); five runs, as the machine's
+  // speed varies from one second to the next
+  const dir = mkdtempSync(join(tmpdir(), "orthostack-bench-"));
+  try {
+    for (const trials of [10_000, 100_000]) {
+      const walls: number[] = [];
+      for (let i = 0; i < 5; i++) {
+        const t = performance.now();
+        execFileSync(
+          process.execPath,
+          [
+            join(root, "backend/cli/launch.mjs"),
+            "study",
+            join(root, "tests/fixtures/stack-reference.json"),
+            join(root, "tests/fixtures/study-reference.json"),
+            "--trials",
+            String(trials),
+            "--out",
+            join(dir, "result.json"),
+          ],
+          { stdio: "ignore" },
+        );
+        walls.push((performance.now() - t) / 1000);
+      }
+      const sorted = [...walls].sort((a, b) => a - b);
+      out(
+        `${fmt(trials)} trials from the command line (node backend/cli/launch.mjs study, ${defaultThreadsLabel()}), process start to exit: median ${sorted[2].toFixed(2)} s (runs ${walls.map((w) => w.toFixed(2)).join(", ")}) · ${load()}`,
+      );
+    }
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
 
   out("");
   out("trials       threads   wall s   trials/s (wall)   CPU s   trials per CPU-s   peak RSS   load");
