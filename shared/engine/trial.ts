@@ -4,7 +4,7 @@
  * hot loop allocates nothing.
  */
 import type { Model } from "./compile";
-import { identity, invert, mat3, mul, mulTB, type Mat3 } from "./mat3";
+import { identity, invert, mat3, mul, type Mat3 } from "./mat3";
 import { rotVec, rotZ, tiltToSlope } from "./rotation";
 import { headingSweep, headingSweepScreened } from "./heading";
 import { atan2To, sinCosTo, tanTo } from "./fastmath";
@@ -57,7 +57,7 @@ export function createScratch(m: Model): Scratch {
 export function orientations(m: Model, draws: Float64Array, R: Float64Array, s: Scratch): void {
   const els = m.elements;
   const W = s.t1,
-    Z = s.t2,
+    Zb = s.t2,
     B = s.t3,
     T = s.t4;
   for (let i = 0; i < els.length; i++) {
@@ -68,8 +68,14 @@ export function orientations(m: Model, draws: Float64Array, R: Float64Array, s: 
       continue;
     }
     const p = els[e.parent];
-    const w = p.bowOff >= 0 ? draws[p.bowOff] : 0;
-    tiltToSlope(w * e.kx, w * e.ky, W);
+    // on a parent without bow W is the identity: Rz goes straight into T (the same numbers
+    // as W·Rz, whose other terms are zeros)
+    const bow = p.bowOff >= 0;
+    if (bow) {
+      const w = draws[p.bowOff];
+      tiltToSlope(w * e.kx, w * e.ky, W);
+    }
+    const Z = bow ? Zb : T;
     // Rz(yaw + dYaw) by angle addition: the deviation is small, the nominal yaw exact
     if (e.yawOff >= 0) {
       sinCosTo(draws[e.yawOff] * DEG, s.fm, 6);
@@ -87,7 +93,7 @@ export function orientations(m: Model, draws: Float64Array, R: Float64Array, s: 
       Z[7] = 0;
       Z[8] = 1;
     } else rotZ(e.yaw, Z);
-    mul(W, Z, T);
+    if (bow) mul(W, Z, T);
     if (e.supOff >= 0) {
       let b = 0,
         c = 0;
@@ -145,12 +151,18 @@ function crossAxisMatrix(m: Model, si: number, draws: Float64Array, R: Float64Ar
     U[7] = g6 * nz;
     U[8] = nz;
   } else identity(U);
-  mul(e.Rnom, U, s.t2);
-  const Re = s.t3;
+  const A = mul(e.Rnom, U, s.t2);
+  // out = A·R_eᵀ, R_e read in place (mulTB's products in mulTB's order)
   const ro = 9 * m.sensors[si].element;
-  for (let k = 0; k < 9; k++) Re[k] = R[ro + k];
-  mulTB(s.t2, Re, s.t4);
-  for (let k = 0; k < 9; k++) out[9 * si + k] = s.t4[k];
+  const o = 9 * si;
+  for (let r = 0; r < 3; r++) {
+    const a0 = A[3 * r],
+      a1 = A[3 * r + 1],
+      a2 = A[3 * r + 2];
+    out[o + 3 * r] = a0 * R[ro] + a1 * R[ro + 1] + a2 * R[ro + 2];
+    out[o + 3 * r + 1] = a0 * R[ro + 3] + a1 * R[ro + 4] + a2 * R[ro + 5];
+    out[o + 3 * r + 2] = a0 * R[ro + 6] + a1 * R[ro + 7] + a2 * R[ro + 8];
+  }
 }
 
 /**
@@ -217,6 +229,9 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
   const C = s.C,
     R = s.R;
   const ms = m.metrics;
+  // a row's off-axis magnitude, kept for its percent and angle metrics (consecutive)
+  let offAt = -1,
+    offVal = 0;
   for (let k = 0; k < ms.length; k++) {
     const mi = ms[k];
     switch (mi.code) {
@@ -231,7 +246,11 @@ export function evaluateTrial(m: Model, draws: Float64Array, s: Scratch): void {
         const i = mi.row,
           j = i === 2 ? 0 : i + 1,
           l = i === 0 ? 2 : i - 1;
-        const off = Math.sqrt(C[o + j] * C[o + j] + C[o + l] * C[o + l]);
+        if (offAt !== o) {
+          offAt = o;
+          offVal = Math.sqrt(C[o + j] * C[o + j] + C[o + l] * C[o + l]);
+        }
+        const off = offVal;
         if (mi.code === 1) out[k] = (100 * off) / Math.abs(C[o + i]);
         else {
           atan2To(off, C[o + i], out, k);
