@@ -21,7 +21,9 @@ import autocannon from "autocannon";
 import { defaultThreads, EnginePool } from "../engine/pool";
 import { json, signIn, startServer, studiesIdle } from "./bench-app";
 import { whatIfFigures } from "./what-if-figures";
-import { runStudy } from "@shared/engine/study";
+import { BLOCK_SIZE, newCoordinator, newWorkerState, prepareStudy, runBlocks, runStudy } from "@shared/engine/study";
+import type { StackFile } from "@shared/schemas/stack-file";
+import type { StudyFile } from "@shared/schemas/study-file";
 import { validateStackFile } from "@shared/schemas/stack-file";
 import { validateStudy } from "@shared/schemas/study-file";
 
@@ -56,7 +58,13 @@ async function engine() {
   const c = process.cpuUsage(c0);
   const us = (c.user + c.system) / (5 * 4096);
   out(
-    `CPU per trial, one thread, whole study in process (20,480 trials): ${us.toFixed(1)} µs · ${fmt(1e6 / us)} trials per CPU-second · ${load()}`,
+    `CPU per trial, one thread, whole study in process (20,480 trials, JIT warm-up included): ${us.toFixed(1)} µs · ${fmt(1e6 / us)} trials per CPU-second · ${load()}`,
+  );
+  // issue 15 item 3's figure: the block loop once compiled (three blocks of warm-up, then 25
+  // blocks of 4,096), three times, as the VM's speed wanders by 10-20 % from run to run
+  const loops = [0, 1, 2].map(() => blockLoopMicros(stack, study)).sort((a, b) => a - b);
+  out(
+    `CPU per trial, block loop after warm-up (one thread, 25 blocks of 4,096, three runs): median ${loops[1].toFixed(2)} µs · ${fmt(1e6 / loops[1])} trials per CPU-second (runs ${loops.map((x) => x.toFixed(2)).join(", ")} µs) · ${load()}`,
   );
 
   // the live estimate: an edit compiles the stack and runs 3,000 trials (stack editor's Web Worker)
@@ -120,6 +128,20 @@ async function engine() {
     await row(10_000_000, 2);
     out("(peak RSS is of the whole process, worker threads included; it stays bounded: the percentile stores do not grow with the trials)");
   }
+}
+
+/** µs of this thread's CPU per trial over 25 blocks of the study, after 3 blocks of warm-up. */
+function blockLoopMicros(stack: StackFile, study: StudyFile): number {
+  const warm = 3,
+    measured = 25;
+  const prep = prepareStudy(stack, study, { trials: (warm + measured) * BLOCK_SIZE, seed: 1 });
+  const state = newWorkerState(prep);
+  const coord = newCoordinator(prep);
+  runBlocks(prep, state, Array.from({ length: warm }, (_, b) => b), (p) => coord.add(p));
+  const c0 = process.cpuUsage();
+  runBlocks(prep, state, Array.from({ length: measured }, (_, b) => warm + b), (p) => coord.add(p));
+  const c = process.cpuUsage(c0);
+  return (c.user + c.system) / (measured * BLOCK_SIZE);
 }
 
 async function api() {
