@@ -137,9 +137,19 @@ function blockLoopMicros(stack: StackFile, study: StudyFile): number {
   const prep = prepareStudy(stack, study, { trials: (warm + measured) * BLOCK_SIZE, seed: 1 });
   const state = newWorkerState(prep);
   const coord = newCoordinator(prep);
-  runBlocks(prep, state, Array.from({ length: warm }, (_, b) => b), (p) => coord.add(p));
+  runBlocks(
+    prep,
+    state,
+    Array.from({ length: warm }, (_, b) => b),
+    (p) => coord.add(p),
+  );
   const c0 = process.cpuUsage();
-  runBlocks(prep, state, Array.from({ length: measured }, (_, b) => warm + b), (p) => coord.add(p));
+  runBlocks(
+    prep,
+    state,
+    Array.from({ length: measured }, (_, b) => warm + b),
+    (p) => coord.add(p),
+  );
   const c = process.cpuUsage(c0);
   return (c.user + c.system) / (measured * BLOCK_SIZE);
 }
