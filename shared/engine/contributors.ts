@@ -224,18 +224,20 @@ export function regressionDesign(cols: Int32Array, tri: Float64Array): Regressio
   if (p === 0 || n < p + 3) return null;
   const mu = new Float64Array(L);
   for (let j = 1; j < L; j++) mu[j] = S(0, j) / n;
-  const cov = new Matrix(p, p);
+  // plain rows, made into a Matrix once (this runs once per study, mostly before the JIT
+  // has compiled it, where a set() call per entry cost more than the arithmetic)
+  const cov: number[][] = Array.from({ length: p }, () => new Array<number>(p));
   const sd = new Float64Array(p);
   for (let a = 0; a < p; a++) {
     for (let b = a; b < p; b++) {
       const c = (S(a + 1, b + 1) - n * mu[a + 1] * mu[b + 1]) / (n - 1);
-      cov.set(a, b, c);
-      cov.set(b, a, c);
+      cov[a][b] = c;
+      cov[b][a] = c;
     }
-    sd[a] = Math.sqrt(Math.max(0, cov.get(a, a)));
+    sd[a] = Math.sqrt(Math.max(0, cov[a][a]));
   }
   try {
-    return { n, mu, sd, pinv: pseudoInverse(new SingularValueDecomposition(cov)) };
+    return { n, mu, sd, pinv: pseudoInverse(new SingularValueDecomposition(new Matrix(cov))) };
   } catch {
     return null;
   }
@@ -243,8 +245,9 @@ export function regressionDesign(cols: Int32Array, tri: Float64Array): Regressio
 
 function triAt(tri: Float64Array, L: number): (a: number, b: number) => number {
   return (a, b) => {
-    if (a > b) [a, b] = [b, a];
-    return tri[a * L - (a * (a - 1)) / 2 + (b - a)];
+    const lo = a < b ? a : b,
+      hi = a < b ? b : a;
+    return tri[lo * L - (lo * (lo - 1)) / 2 + (hi - lo)];
   };
 }
 

@@ -29,6 +29,32 @@ const f64 = new Float64Array(1);
 const u32 = new Uint32Array(f64.buffer);
 const HI = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1 ? 1 : 0;
 
+/**
+ * Lower edge of every magnitude bucket, one table per bucket layout: the statistics read a
+ * bucket's bounds thousands of times per metric, and an edge from the table is the number
+ * magnitudeBounds computed each time (the upper edge of bucket b is the lower edge of b + 1,
+ * to the bit: both are 2^e + (mant + 1)·2^(e − bits), or 2^(e + 1) at an octave's end).
+ */
+const lowerEdges = new Map<string, Float64Array>();
+function lowerEdgesOf(bits: number, lowExp: number, octaves: number, perSign: number): Float64Array {
+  const key = `${bits},${lowExp},${octaves}`;
+  let t = lowerEdges.get(key);
+  if (!t) {
+    t = new Float64Array(perSign);
+    t[0] = 0;
+    for (let b = 1; b < perSign - 1; b++) {
+      const k = b - 1;
+      const e = (k >> bits) + lowExp;
+      const mant = k & ((1 << bits) - 1);
+      const scale = 2 ** e / (1 << bits);
+      t[b] = 2 ** e + mant * scale;
+    }
+    t[perSign - 1] = 2 ** (lowExp + octaves);
+    lowerEdges.set(key, t);
+  }
+  return t;
+}
+
 export class LogHistogram {
   readonly bits: number;
   readonly lowExp: number;
@@ -38,6 +64,8 @@ export class LogHistogram {
   readonly counts: Uint32Array;
   private readonly shift: number;
   private readonly base: number;
+  /** lower edge of each magnitude bucket (lowerEdgesOf) */
+  private readonly lower: Float64Array;
 
   /** buckets of 2^-bits per octave for |v| in [2^lowExp, 2^(lowExp + octaves)) */
   constructor(bits: number, lowExp: number, octaves: number, counts?: Uint32Array) {
@@ -48,6 +76,12 @@ export class LogHistogram {
     this.counts = counts ?? new Uint32Array(2 * this.perSign);
     this.shift = 20 - bits;
     this.base = (BIAS + lowExp) << bits;
+    this.lower = lowerEdgesOf(bits, lowExp, octaves, this.perSign);
+  }
+
+  /** Upper edge of magnitude bucket b: the next one's lower edge, or the observed maximum above the top. */
+  private upper(b: number, maxAbs: number): number {
+    return b === this.perSign - 1 ? Math.max(maxAbs, this.lower[b]) : this.lower[b + 1];
   }
 
   /** Bucket index of v: [0, perSign) for v >= 0, [perSign, 2·perSign) for v < 0. */
@@ -74,14 +108,7 @@ export class LogHistogram {
 
   /** [lower, upper) of |v| for magnitude bucket b in [0, perSign). */
   magnitudeBounds(b: number, maxAbs: number): [number, number] {
-    if (b === 0) return [0, 2 ** this.lowExp];
-    const top = 2 ** (this.lowExp + this.octaves);
-    if (b === this.perSign - 1) return [top, Math.max(maxAbs, top)];
-    const k = b - 1;
-    const e = (k >> this.bits) + this.lowExp;
-    const mant = k & ((1 << this.bits) - 1);
-    const scale = 2 ** e / (1 << this.bits);
-    return [2 ** e + mant * scale, 2 ** e + (mant + 1) * scale];
+    return [this.lower[b], this.upper(b, maxAbs)];
   }
 
   /**
@@ -123,7 +150,9 @@ export class LogHistogram {
     for (let b = first; b <= last; b++) ranks.push(b, c[b] + c[P + b]);
     return qs.map((q) =>
       ranks.quantile(q, minAbs, maxAbs, (j, idx) => {
-        const [l, u] = this.magnitudeBounds(ranks.bucket[j], maxAbs);
+        const b = ranks.bucket[j];
+        const l = this.lower[b],
+          u = this.upper(b, maxAbs);
         return l + ((idx - ranks.before[j] + 0.5) / ranks.count[j]) * (u - l);
       }),
     );
@@ -151,10 +180,12 @@ export class LogHistogram {
         const k = ranks.count[j];
         const before = ranks.before[j];
         if (b < 0) {
-          const [l, u] = this.magnitudeBounds(-1 - b, maxAbs);
+          const l = this.lower[-1 - b],
+            u = this.upper(-1 - b, maxAbs);
           return -(u - ((idx - before + 0.5) / k) * (u - l));
         }
-        const [l, u] = this.magnitudeBounds(b, maxAbs);
+        const l = this.lower[b],
+          u = this.upper(b, maxAbs);
         return l + ((idx - before + 0.5) / k) * (u - l);
       }),
     );
@@ -178,44 +209,43 @@ export class LogHistogram {
     for (let b = last; b >= first; b--) {
       const k = c[P + b];
       if (!k) continue;
-      const [l, u] = this.magnitudeBounds(b, maxAbs);
-      lo.push(-u);
-      hi.push(-l);
+      lo.push(-this.upper(b, maxAbs));
+      hi.push(-this.lower[b]);
       n += k;
       cum.push(n);
     }
     for (let b = first; b <= last; b++) {
       const k = c[b];
       if (!k) continue;
-      const [l, u] = this.magnitudeBounds(b, maxAbs);
-      lo.push(l);
-      hi.push(u);
+      lo.push(this.lower[b]);
+      hi.push(this.upper(b, maxAbs));
       n += k;
       cum.push(n);
     }
     if (n === 0) return [NaN, NaN];
-    const at = (q: number): number => {
-      const idx = q * (n - 1);
-      if (idx <= 0) return min;
-      if (idx >= n - 1) return max;
-      let a = 0,
-        z = cum.length - 1;
-      while (a < z) {
-        const mid = (a + z) >> 1;
-        if (cum[mid] > idx) z = mid;
-        else a = mid + 1;
-      }
-      const before = a > 0 ? cum[a - 1] : 0;
-      const k = cum[a] - before;
-      const v = lo[a] + ((idx - before + 0.5) / k) * (hi[a] - lo[a]);
-      return Math.min(max, Math.max(min, v));
+    // the value of rank q·(n − 1), for q that only grow: the bucket holding it (the first
+    // with cum > rank) is found by walking on from the last one, not by a search each time
+    const cursor = () => {
+      let a = 0;
+      return (q: number): number => {
+        const idx = q * (n - 1);
+        if (idx <= 0) return min;
+        if (idx >= n - 1) return max;
+        while (cum[a] <= idx) a++;
+        const before = a > 0 ? cum[a - 1] : 0;
+        const k = cum[a] - before;
+        const v = lo[a] + ((idx - before + 0.5) / k) * (hi[a] - lo[a]);
+        return Math.min(max, Math.max(min, v));
+      };
     };
-    let best: [number, number] = [at(0), at(p)];
+    const atLow = cursor(),
+      atHigh = cursor();
+    let best: [number, number] = [atLow(0), atHigh(p)];
     const steps = 200;
     for (let i = 1; i <= steps; i++) {
       const q = ((1 - p) * i) / steps;
-      const l = at(q),
-        u = at(q + p);
+      const l = atLow(q),
+        u = atHigh(q + p);
       if (u - l < best[1] - best[0]) best = [l, u];
     }
     return best;
@@ -229,7 +259,8 @@ export class LogHistogram {
     for (let b = first; b <= last; b++) {
       const k = this.counts[b] + this.counts[P + b];
       if (k === 0) continue;
-      const [l, u] = this.magnitudeBounds(b, maxAbs);
+      const l = this.lower[b],
+        u = this.upper(b, maxAbs);
       if (u <= limit) n += k;
       else if (l < limit) n += (k * (limit - l)) / (u - l);
     }
@@ -256,7 +287,8 @@ export class LogHistogram {
       const kp = this.counts[b],
         kn = this.counts[P + b];
       if (kp === 0 && kn === 0) continue;
-      const [l, u] = this.magnitudeBounds(b, maxAbs);
+      const l = this.lower[b],
+        u = this.upper(b, maxAbs);
       const mid = 0.5 * (l + Math.min(u, maxAbs));
       if (abs) put(mid, kp + kn);
       else {
