@@ -44,6 +44,29 @@ describe("screened sweep, one trial at a time", () => {
     }
     expect(wide).toBeGreaterThan(4); // the exactly evaluated branch was exercised
   });
+
+  it("headings that do not pair up half a turn apart take the one-by-one loop, with the same figures", () => {
+    // 7° steps: 52 headings, the last at 357°, none exactly opposite another; 24° steps: 15,
+    // an odd count. 10° steps pair up (the reference study), the control.
+    for (const [headingStepDeg, pairs] of [
+      [7, false],
+      [24, false],
+      [10, true],
+    ] as const) {
+      const att = buildAttitudes({ inclinationDeg: 65, headingStepDeg, tilts: [{ pitchDeg: 25, rollDeg: -15 }] });
+      expect(att.halfTurnPairs).toBe(pairs);
+      const out = new Float64Array(att.count);
+      for (const size of [0.3, 4]) {
+        const Ca = crossAxis(size, 0.4 * size, -0.6 * size, 0.002 * size);
+        const Cm = crossAxis(-size, 0.5 * size, 0.8 * size, 0.001 * size);
+        const exact = headingSweep(Ca, 0, Cm, 0, att, out);
+        const [maxAbs, rms] = [exact.maxAbs, exact.rms];
+        const sc = headingSweepScreened(Ca, 0, Cm, 0, att);
+        expect(Math.abs(sc.maxAbs - maxAbs)).toBeLessThanOrEqual(1e-9 * maxAbs);
+        expect(Math.abs(sc.rms - rms)).toBeLessThanOrEqual(1e-9 * rms);
+      }
+    }
+  });
 });
 
 const FIGURES = ["mean", "std", "p50", "p95", "p99", "p9973", "max", "minValue", "maxValue"] as const;
