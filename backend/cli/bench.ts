@@ -18,7 +18,8 @@ import { cpus, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import autocannon from "autocannon";
-import { defaultThreads, EnginePool } from "../engine/pool";
+import { EnginePool } from "../engine/pool";
+import { threadsForTrials } from "../engine/runner";
 import { json, signIn, startServer, studiesIdle } from "./bench-app";
 import { whatIfFigures } from "./what-if-figures";
 import { BLOCK_SIZE, newCoordinator, newWorkerState, prepareStudy, runBlocks, runStudy } from "@shared/engine/study";
@@ -35,7 +36,7 @@ const apiSeconds = Number(args[args.indexOf("--api-seconds") + 1]) || 10;
 const out = (line: string) => process.stdout.write(line + "\n");
 const load = () => `load ${loadavg()[0].toFixed(1)} on ${cpus().length} cores`;
 const fmt = (n: number) => Math.round(n).toLocaleString("en-US");
-const defaultThreadsLabel = () => `${defaultThreads()} thread${defaultThreads() > 1 ? "s" : ""}`;
+const threadsLabel = (trials: number) => `${threadsForTrials(trials)} thread${threadsForTrials(trials) > 1 ? "s" : ""}`;
 
 async function engine() {
   const stackV = validateStackFile(fixture("stack-reference.json"));
@@ -99,7 +100,7 @@ async function engine() {
       }
       const sorted = [...walls].sort((a, b) => a - b);
       out(
-        `${fmt(trials)} trials from the command line (node backend/cli/launch.mjs study, ${defaultThreadsLabel()}), process start to exit: median ${sorted[2].toFixed(2)} s (runs ${walls.map((w) => w.toFixed(2)).join(", ")}) · ${load()}`,
+        `${fmt(trials)} trials from the command line (node backend/cli/launch.mjs study, ${threadsLabel(trials)}), process start to exit: median ${sorted[2].toFixed(2)} s (runs ${walls.map((w) => w.toFixed(2)).join(", ")}) · ${load()}`,
       );
     }
   } finally {

@@ -5,7 +5,7 @@
  * does not validate gives the same field messages as the API, on stderr, exit code 2.
  */
 import { readFileSync, writeFileSync } from "node:fs";
-import { runStudyOnThreads, defaultThreads } from "../engine/runner";
+import { runStudyOnThreads, threadsForTrials } from "../engine/runner";
 import { validateStackFile, type FieldError } from "@shared/schemas/stack-file";
 import { validateStudy, MAX_TRIALS } from "@shared/schemas/study-file";
 import type { ResultFile } from "@shared/schemas/result-file";
@@ -104,7 +104,8 @@ async function main() {
   if (!stackV.ok) report("stack file", args.stackPath, stackV.issues);
   const studyV = validateStudy(readJson(args.studyPath, "study file"), stackV.stack);
   if (!studyV.ok) report("study file", args.studyPath, studyV.issues);
-  const threads = args.threads ?? defaultThreads();
+  // unless told, as many threads as the study's size pays for (one for a small study)
+  const threads = args.threads ?? threadsForTrials(args.trials ?? studyV.study.trials);
   const t0 = performance.now();
   let lastPct = -1;
   const result = await runStudyOnThreads(stackV.stack, studyV.study, {

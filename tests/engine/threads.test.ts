@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { runStudyOnThreads, StudyAbortedError } from "@backend/engine/runner";
+import { defaultThreads, runStudyOnThreads, StudyAbortedError, threadsForTrials } from "@backend/engine/runner";
 import { poseOfTrial, runStudy } from "@shared/engine/study";
 import { compassStack, fixture, referenceStack, study, studyOf } from "./helpers";
 
@@ -83,5 +83,17 @@ describe("same seed, same numbers, whatever the number of threads", () => {
     // and a trial in the middle of a later block regenerates too
     const again = poseOfTrial(stack, baseStudy, 4321, { trials: 5000 });
     expect(again.trial).toBe(4321);
+  });
+});
+
+describe("threads for a one-off study (the command line's default)", () => {
+  it("one thread up to a dozen blocks, then one more per dozen, never more than the cores", () => {
+    // a fresh thread's start and compile pay only from about a dozen blocks (runner.ts)
+    expect(threadsForTrials(1)).toBe(1);
+    expect(threadsForTrials(10_000)).toBe(1);
+    expect(threadsForTrials(12 * 4096)).toBe(1);
+    expect(threadsForTrials(12 * 4096 + 1)).toBe(Math.min(2, defaultThreads()));
+    expect(threadsForTrials(100_000)).toBe(Math.min(3, defaultThreads()));
+    expect(threadsForTrials(10_000_000)).toBe(defaultThreads());
   });
 });
