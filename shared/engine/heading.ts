@@ -408,24 +408,36 @@ export function headingSweepScreened(
       D = k[o + 5],
       EA = k[o + 6],
       B = k[o + 7];
-    for (let j = 0; j < half; j++) {
-      const q = 5 * j;
+    // half pairs first, then the headings that do not pair up one by one (all of them when
+    // the step does not divide half a turn)
+    for (let j = 0; j < nPsi - half; j++) {
+      const paired = j < half;
+      const q = 5 * (paired ? j : j + half);
       const c = trig[q],
         sn = trig[q + 1],
         cc = trig[q + 2],
         cs = trig[q + 3],
         ss = trig[q + 4];
-      const qx = A * cc + BD * cs + E * ss,
-        qy = D * cc + EA * cs - B * ss;
-      const lx = C * c + F * sn,
-        ly = F * c - C * sn;
-      const x1 = qx + lx,
-        x2 = qx - lx,
-        y1 = qy + ly,
+      let x1: number,
+        y1: number,
+        x2 = 0,
+        y2 = 0;
+      if (paired) {
+        const qx = A * cc + BD * cs + E * ss,
+          qy = D * cc + EA * cs - B * ss;
+        const lx = C * c + F * sn,
+          ly = F * c - C * sn;
+        x1 = qx + lx;
+        x2 = qx - lx;
+        y1 = qy + ly;
         y2 = qy - ly;
+      } else {
+        x1 = A * cc + BD * cs + E * ss + C * c + F * sn;
+        y1 = D * cc + EA * cs - B * ss + F * c - C * sn;
+      }
       const a1 = y1 < 0 ? -y1 : y1,
         a2 = y2 < 0 ? -y2 : y2;
-      if (x1 > 0 && a1 <= SCREEN_T * x1 && x2 > 0 && a2 <= SCREEN_T * x2) {
+      if (paired && x1 > 0 && a1 <= SCREEN_T * x1 && x2 > 0 && a2 <= SCREEN_T * x2) {
         // both narrow (nearly always): the series terms of the two at once
         const t1 = a1 / x1,
           t2 = a2 / x2;
@@ -438,7 +450,7 @@ export function headingSweepScreened(
         if (tt > tMax) tMax = tt;
         continue;
       }
-      for (let h = 0; h < 2; h++) {
+      for (let h = 0, count = paired ? 2 : 1; h < count; h++) {
         const x = h === 0 ? x1 : x2,
           ay = h === 0 ? a1 : a2;
         if (x > 0 && ay <= SCREEN_T * x) {
@@ -453,30 +465,6 @@ export function headingSweepScreened(
           wide2 += e * e;
           if (e > wideMax) wideMax = e;
         }
-      }
-    }
-    // headings one by one when they do not pair up (a step that does not divide half a turn)
-    for (let j = 2 * half; j < nPsi; j++) {
-      const q = 5 * j;
-      const c = trig[q],
-        sn = trig[q + 1],
-        cc = trig[q + 2],
-        cs = trig[q + 3],
-        ss = trig[q + 4];
-      const x = A * cc + BD * cs + E * ss + C * c + F * sn;
-      const y = D * cc + EA * cs - B * ss + F * c - C * sn;
-      const ay = y < 0 ? -y : y;
-      if (x > 0 && ay <= SCREEN_T * x) {
-        const tt = ay / x;
-        const t2 = tt * tt;
-        s2 += t2;
-        s4 += t2 * t2;
-        s6 += t2 * t2 * t2;
-        if (tt > tMax) tMax = tt;
-      } else {
-        const e = atan2Fast(ay, x);
-        wide2 += e * e;
-        if (e > wideMax) wideMax = e;
       }
     }
   }

@@ -31,9 +31,10 @@ const HI = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1 ? 1 : 0;
 
 /**
  * Lower edge of every magnitude bucket, one table per bucket layout: the statistics read a
- * bucket's bounds thousands of times per metric, and an edge from the table is the number
- * magnitudeBounds computed each time (the upper edge of bucket b is the lower edge of b + 1,
- * to the bit: both are 2^e + (mant + 1)·2^(e − bits), or 2^(e + 1) at an octave's end).
+ * bucket's bounds thousands of times per metric. Bucket b (≥ 1) spans [2^e + mant·s,
+ * 2^e + (mant + 1)·s) with s = 2^(e − bits); its upper edge is the next bucket's lower edge to
+ * the bit (2^(e + 1) at an octave's end), so one table gives both; bucket 0 is [0, 2^lowExp),
+ * the top one [2^(lowExp + octaves), observed maximum].
  */
 const lowerEdges = new Map<string, Float64Array>();
 function lowerEdgesOf(bits: number, lowExp: number, octaves: number, perSign: number): Float64Array {
@@ -79,7 +80,7 @@ export class LogHistogram {
     this.lower = lowerEdgesOf(bits, lowExp, octaves, this.perSign);
   }
 
-  /** Upper edge of magnitude bucket b: the next one's lower edge, or the observed maximum above the top. */
+  /** Upper edge of magnitude bucket b (lower edge: this.lower[b]): the next one's lower edge, or the observed maximum above the top. */
   private upper(b: number, maxAbs: number): number {
     return b === this.perSign - 1 ? Math.max(maxAbs, this.lower[b]) : this.lower[b + 1];
   }
@@ -104,11 +105,6 @@ export class LogHistogram {
     const c = this.counts,
       d = o.counts;
     for (let i = 0; i < c.length; i++) c[i] += d[i];
-  }
-
-  /** [lower, upper) of |v| for magnitude bucket b in [0, perSign). */
-  magnitudeBounds(b: number, maxAbs: number): [number, number] {
-    return [this.lower[b], this.upper(b, maxAbs)];
   }
 
   /**
