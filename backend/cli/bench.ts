@@ -36,7 +36,10 @@ const apiSeconds = Number(args[args.indexOf("--api-seconds") + 1]) || 10;
 const out = (line: string) => process.stdout.write(line + "\n");
 const load = () => `load ${loadavg()[0].toFixed(1)} on ${cpus().length} cores`;
 const fmt = (n: number) => Math.round(n).toLocaleString("en-US");
-const threadsLabel = (trials: number) => `${threadsForTrials(trials)} thread${threadsForTrials(trials) > 1 ? "s" : ""}`;
+const threadsLabel = (trials: number) => {
+  const n = threadsForTrials(trials);
+  return `${n} thread${n > 1 ? "s" : ""}`;
+};
 
 async function engine() {
   const stackV = validateStackFile(fixture("stack-reference.json"));
