@@ -42,6 +42,13 @@ if (init.nice) {
   }
 }
 
+// V8 compiles typed-array access without detach checks until the thread's first ArrayBuffer
+// is detached, then throws all that compiled code away. The first block's postMessage
+// transfers (detaches) its buffers, which cost every fresh thread its whole trial code compiled
+// twice; detaching a spare buffer before anything is compiled makes the first compile the last.
+const spare = new ArrayBuffer(8);
+structuredClone(spare, { transfer: [spare] });
+
 const jobs = new Map<number, { prep: PreparedStudy; state: WorkerState }>();
 
 port.on("message", (msg: ToWorker) => {

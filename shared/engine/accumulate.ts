@@ -187,16 +187,15 @@ export function runBlock(m: Model, plan: Plan, st: WorkerState, block: number): 
   const zLen = reg.cols.length + 1;
   const triLen = (zLen * (zLen + 1)) / 2;
   const nR = reg.metrics.length;
-  const sums: RegressionSums = {
-    cols: reg.cols,
-    mu: Float64Array.from(reg.cols, (c) => m.drawDist[c].mean),
-    specs: reg.metrics,
-    xtxLin: reg.useLinear ? new Float64Array(triLen) : null,
-    xtxSq: reg.useSquared ? new Float64Array(triLen) : null,
-    xty: nR > 0 ? new Float64Array(nR * (zLen + 1)) : null,
-    zLin: new Float64Array(zLen),
-    zSq: new Float64Array(zLen),
-  };
+  const sums = new RegressionSums(
+    reg.cols,
+    Float64Array.from(reg.cols, (c) => m.drawDist[c].mean),
+    reg.metrics,
+    reg.useLinear ? new Float64Array(triLen) : null,
+    reg.useSquared ? new Float64Array(triLen) : null,
+    nR > 0 ? new Float64Array(nR * (zLen + 1)) : null,
+    zLen,
+  );
   const tracked = new Float64Array(n * nT);
   // the block's values, trial-major: metrics, and every attitude's heading error of the
   // envelope's trials; counted metric by metric (attitude by attitude) after the trial loop
@@ -219,16 +218,27 @@ export function runBlock(m: Model, plan: Plan, st: WorkerState, block: number): 
 let screenedSeen = false;
 const PRIME_TRIALS = 12;
 
-/** The regression's sums of a block (see BlockPartial) and their scratch. */
-interface RegressionSums {
-  cols: Int32Array;
-  mu: Float64Array;
-  specs: RegressionSpec["metrics"];
-  xtxLin: Float64Array | null;
-  xtxSq: Float64Array | null;
-  xty: Float64Array | null;
-  zLin: Float64Array;
-  zSq: Float64Array;
+/**
+ * The regression's sums of a block (see BlockPartial) and their scratch. A class, not an
+ * object literal: V8 builds a literal made anew per block from a boilerplate on its second
+ * run, whose fields' recorded types differ from the first object's, and throws away every
+ * optimised function that read the first (the trial loop among them) at the second block.
+ */
+class RegressionSums {
+  readonly zLin: Float64Array;
+  readonly zSq: Float64Array;
+  constructor(
+    readonly cols: Int32Array,
+    readonly mu: Float64Array,
+    readonly specs: RegressionSpec["metrics"],
+    readonly xtxLin: Float64Array | null,
+    readonly xtxSq: Float64Array | null,
+    readonly xty: Float64Array | null,
+    zLen: number,
+  ) {
+    this.zLin = new Float64Array(zLen);
+    this.zSq = new Float64Array(zLen);
+  }
 }
 
 /**

@@ -12,45 +12,45 @@ import { atan2To, sinCosTo, tanTo } from "./fastmath";
 // module-local: an imported binding costs a property load per use in the hot loop
 const DEG = Math.PI / 180;
 
-/** Per-worker scratch space: one trial allocates nothing. */
-export interface Scratch {
+/**
+ * Per-worker scratch space: one trial allocates nothing. A class, not an object literal: a
+ * literal made anew per block is built from a boilerplate on its second run, with other
+ * recorded field types than the first object's, and V8 then throws away every optimised
+ * function that read the first (the whole trial code) at the second block.
+ */
+export class Scratch {
   R: Float64Array; // 9 per element, all sources
   Rk: Float64Array; // 9 per element, sources up to the calibration stage
   masked: Float64Array; // draws with the later stages at zero
   C: Float64Array; // 9 per sensor, C_eff after evaluate
   Ck: Float64Array;
   delta: Float64Array; // 9 per sensor, R·Rnomᵀ
-  t1: Mat3;
-  t2: Mat3;
-  t3: Mat3;
-  t4: Mat3;
+  t1: Mat3 = mat3();
+  t2: Mat3 = mat3();
+  t3: Mat3 = mat3();
+  t4: Mat3 = mat3();
   /** small results of the fast-math helpers (six axis tangents, a sine and cosine) */
-  fm: Float64Array;
+  fm = new Float64Array(8);
   metrics: Float64Array;
   headingErr: Float64Array; // deg, per attitude
   /** whether the next trial must fill headingErr (else a screened model may skip it) */
-  perAttitude: boolean;
+  perAttitude = true;
+  constructor(m: Model) {
+    const nE = m.elements.length,
+      nS = m.sensors.length;
+    this.R = new Float64Array(9 * nE);
+    this.Rk = new Float64Array(9 * nE);
+    this.masked = new Float64Array(m.drawCount);
+    this.C = new Float64Array(9 * nS);
+    this.Ck = new Float64Array(9 * nS);
+    this.delta = new Float64Array(9 * nS);
+    this.metrics = new Float64Array(m.metrics.length);
+    this.headingErr = new Float64Array(m.heading ? m.heading.attitudes.count : 0);
+  }
 }
 
 export function createScratch(m: Model): Scratch {
-  const nE = m.elements.length,
-    nS = m.sensors.length;
-  return {
-    R: new Float64Array(9 * nE),
-    Rk: new Float64Array(9 * nE),
-    masked: new Float64Array(m.drawCount),
-    C: new Float64Array(9 * nS),
-    Ck: new Float64Array(9 * nS),
-    delta: new Float64Array(9 * nS),
-    t1: mat3(),
-    t2: mat3(),
-    t3: mat3(),
-    t4: mat3(),
-    fm: new Float64Array(8),
-    metrics: new Float64Array(m.metrics.length),
-    headingErr: new Float64Array(m.heading ? m.heading.attitudes.count : 0),
-    perAttitude: true,
-  };
+  return new Scratch(m);
 }
 
 /** R_e = R_parent · W · Rz(yaw + dYaw) · Bl · D for every element (MODEL.md section 3). */
