@@ -30,6 +30,8 @@ export const ENTRIES = {
  */
 const INLINE = {
   study: ["zod", "ml-matrix"],
+  // the worker computes the result's regression designs (shared/engine/result-parts.ts)
+  worker: ["ml-matrix"],
 };
 
 /** esbuild's external list: every dependency of the project but those inlined. */
@@ -84,8 +86,10 @@ export function ensureBundle(name) {
     legalComments: "none",
   });
   const inputs = Object.keys(r.metafile.inputs).filter((f) => !f.includes("node_modules"));
-  // an inlined package changes with the lockfile (npm install, npm ci)
+  // an inlined package changes with the lockfile (npm install, npm ci); this file decides
+  // what a bundle holds
   if (INLINE[name]) inputs.push("package-lock.json");
+  inputs.push("backend/engine/bundle.mjs");
   renameSync(tmp, out);
   const metaTmp = `${meta}.${process.pid}.tmp`;
   writeFileSync(metaTmp, JSON.stringify(inputs));

@@ -11,6 +11,11 @@
  * blocks are run again on its replacement (their partials, already folded, are not folded
  * twice).
  *
+ * The end of a study: the workers hand over their states, and the first of them then computes
+ * the result's model parts (linearised contributions, regression designs; result-parts.ts)
+ * while this thread merges the states and counts the percentiles. Where that worker dies or
+ * fails, this thread computes the parts itself: the same numbers either way.
+ *
  * Fairness: when a worker has room (two blocks in flight each), the next block goes to the
  * owner after the last one served, round robin, and within an owner to its studies in turn.
  * A person with one long study and a person with a short one each get every other block.
@@ -21,13 +26,15 @@ import { Worker } from "node:worker_threads";
 import { mergeWorkerStates, type BlockPartial, type WorkerState } from "@shared/engine/accumulate";
 import {
   adaptiveDone,
-  finalizeStudy,
+  assembleResult,
   newCoordinator,
   prepareStudy,
   type PreparedStudy,
   type Progress,
   type StudyOverrides,
+  stateFigures,
 } from "@shared/engine/study";
+import { partsInput, resultParts, unpackParts, type ResultParts } from "@shared/engine/result-parts";
 import type { Coordinator } from "@shared/engine/coordinator";
 import type { ResultFile } from "@shared/schemas/result-file";
 import type { StackFile } from "@shared/schemas/stack-file";
@@ -94,6 +101,8 @@ interface Job {
   failed: Error | null;
   wake: (() => void) | null;
   onProgress?: (p: Progress) => void;
+  /** the worker computing the result's model parts, and whom to tell (null: not asked) */
+  parts: { on: PoolWorker; resolve: (p: ResultParts | null) => void } | null;
 }
 
 export class EnginePool {
@@ -141,6 +150,7 @@ export class EnginePool {
       failed: null,
       wake: null,
       onProgress: opts.onProgress,
+      parts: null,
     };
     this.jobs.set(job.id, job);
     if (!this.owners.includes(job.owner)) this.owners.push(job.owner);
@@ -159,8 +169,13 @@ export class EnginePool {
         await this.until(job, () => job.coord.merged >= end);
         if (prep.adaptive && adaptiveDone(prep, job.coord)) break;
       }
-      const states = await this.collectStates(job);
-      return finalizeStudy(prep, job.coord, mergeWorkerStates(states));
+      let partsFromWorker: Promise<ResultParts | null> = Promise.resolve(null);
+      const states = await this.collectStates(job, (p) => (partsFromWorker = this.askParts(job, p)));
+      const figures = stateFigures(prep, job.coord, mergeWorkerStates(states));
+      const fromWorker = await partsFromWorker;
+      if (job.failed) throw job.failed;
+      if (!fromWorker) this.opts.log?.("engine: the result's model parts were computed on the pool's own thread");
+      return assembleResult(prep, job.coord, figures, fromWorker ?? resultParts(prep, partsInput(job.coord)));
     } finally {
       opts.signal?.removeEventListener("abort", onAbort);
       this.close(job);
@@ -200,8 +215,12 @@ export class EnginePool {
       }
       this.notify(job);
     } else if (msg.type === "state" && job) {
-      p.open.delete(job.id);
+      // a worker asked for the parts keeps the study open until it has sent them
+      if (job.parts?.on !== p) p.open.delete(job.id);
       job.states.get(p)?.(msg.state);
+    } else if (msg.type === "parts" && job && job.parts?.on === p) {
+      p.open.delete(job.id);
+      job.parts.resolve(msg.parts && unpackParts(msg.parts));
     } else if (msg.type === "error" && job) {
       p.open.delete(job.id);
       this.fail(job, new Error(`engine worker failed: ${msg.message}`));
@@ -220,6 +239,7 @@ export class EnginePool {
       const lost = job.ranOn.get(p);
       job.ranOn.delete(p);
       job.states.get(p)?.(null);
+      if (job.parts?.on === p) job.parts.resolve(null);
       if (!lost || lost.size === 0) continue;
       if (++job.deaths > MAX_WORKER_DEATHS) {
         this.fail(job, new Error("engine worker threads stopped repeatedly while running this study"));
@@ -279,7 +299,7 @@ export class EnginePool {
    * Asks every worker holding counts of the study for its state. A worker that dies before
    * answering had its blocks queued again (onExit); they run elsewhere and that worker is asked.
    */
-  private async collectStates(job: Job): Promise<WorkerState[]> {
+  private async collectStates(job: Job, partsFrom: (p: PoolWorker) => void): Promise<WorkerState[]> {
     const collected: WorkerState[] = [];
     for (;;) {
       // finish is sent after the runs on the same port, so a worker answers with every block
@@ -288,10 +308,13 @@ export class EnginePool {
       if (holders.length === 0) return collected;
       const got = await Promise.all(
         holders.map(
-          (p) =>
+          (p, i) =>
             new Promise<WorkerState | null>((resolve) => {
               job.states.set(p, resolve);
-              p.w.postMessage({ type: "finish", job: job.id } satisfies ToWorker);
+              // the first holder of the first round computes the parts after its state
+              const asked = i === 0 && !job.parts;
+              if (asked) partsFrom(p);
+              p.w.postMessage({ type: "finish", job: job.id, parts: asked ? partsInput(job.coord) : undefined } satisfies ToWorker);
             }),
         ),
       );
@@ -305,6 +328,13 @@ export class EnginePool {
         }
       });
     }
+  }
+
+  /** Whom the parts come from: p, once it has sent them (null if it cannot). */
+  private askParts(job: Job, p: PoolWorker): Promise<ResultParts | null> {
+    return new Promise((resolve) => {
+      job.parts = { on: p, resolve };
+    });
   }
 
   private async until(job: Job, cond: () => boolean) {
@@ -322,6 +352,7 @@ export class EnginePool {
     job.failed ??= e;
     job.queue.length = 0;
     for (const r of job.states.values()) r(null);
+    job.parts?.resolve(null);
     this.notify(job);
   }
 

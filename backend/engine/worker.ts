@@ -2,7 +2,8 @@
  * One engine worker thread of the warm pool (./pool.ts). It stays alive between studies and
  * holds one WorkerState per open study: "open" compiles the study, "run" adds a block's
  * integer counts to that study's state and posts the block's float partial back, "finish"
- * hands the state over and forgets the study, "close" forgets it (cancelled). The thread is
+ * hands the state over (and, when asked, then computes the result's model parts) and forgets
+ * the study, "close" forgets it (cancelled). The thread is
  * loaded from its plain-JS bundle (./bundle.mjs), so it starts without a TypeScript loader.
  */
 import { readlinkSync } from "node:fs";
@@ -10,6 +11,7 @@ import { setPriority } from "node:os";
 import { parentPort, workerData } from "node:worker_threads";
 import { createWorkerState, runBlock, transferablesOf, type WorkerState } from "../../shared/engine/accumulate";
 import { prepareStudy, type PreparedStudy, type StudyOverrides } from "../../shared/engine/plan";
+import { packParts, resultParts, type PackedParts, type PartsInput } from "../../shared/engine/result-parts";
 import type { StackFile } from "../../shared/schemas/stack-file";
 import type { StudyFile } from "../../shared/schemas/study-file";
 
@@ -21,12 +23,15 @@ export interface WorkerInit {
 export type ToWorker =
   | { type: "open"; job: number; stack: StackFile; study: StudyFile; overrides: StudyOverrides }
   | { type: "run"; job: number; block: number }
-  | { type: "finish"; job: number }
+  /** hand over the state; with parts, then compute the study's ResultParts from those sums */
+  | { type: "finish"; job: number; parts?: PartsInput }
   | { type: "close"; job: number };
 export type FromWorker =
   | { type: "block"; job: number; partial: ReturnType<typeof runBlock> }
   | { type: "dropped"; job: number; block: number }
   | { type: "state"; job: number; state: WorkerState }
+  /** null when they could not be computed here (the pool then computes them itself) */
+  | { type: "parts"; job: number; parts: PackedParts | null }
   | { type: "error"; job: number; block?: number; message: string };
 
 const port = parentPort;
@@ -67,6 +72,15 @@ port.on("message", (msg: ToWorker) => {
       if (!j) throw new Error(`no open study ${msg.job}`);
       jobs.delete(msg.job);
       port.postMessage({ type: "state", job: msg.job, state: j.state } satisfies FromWorker, transferablesOf(j.state));
+      if (msg.parts) {
+        let parts: PackedParts | null = null;
+        try {
+          parts = packParts(resultParts(j.prep, msg.parts));
+        } catch {
+          // the pool computes them on its own thread, where an error reaches the study
+        }
+        port.postMessage({ type: "parts", job: msg.job, parts } satisfies FromWorker);
+      }
     } else if (msg.type === "close") {
       jobs.delete(msg.job);
     }

@@ -17,7 +17,8 @@ import {
 } from "./accumulate";
 import { Coordinator } from "./coordinator";
 import { prepareStudy, type PreparedStudy, type StudyOverrides } from "./plan";
-import { linearisedContributions, regressionDesign, regressionFromSums, stackUp } from "./contributors";
+import { regressionFromSums, stackUp } from "./contributors";
+import { partsInput, resultParts, type ResultParts } from "./result-parts";
 import type { Model } from "./compile";
 import { evaluateTrial, createScratch } from "./trial";
 import { poses, type ElementPose } from "./poses";
@@ -86,6 +87,27 @@ const PERCENTILES = [0.5, 0.95, 0.99, 0.9973];
 
 /** Build the result file from the folded partials and the merged worker state. */
 export function finalizeStudy(prep: PreparedStudy, coord: Coordinator, state: WorkerState, flags: { stopped?: boolean } = {}): ResultFile {
+  const figures = stateFigures(prep, coord, state);
+  return assembleResult(prep, coord, figures, resultParts(prep, partsInput(coord)), flags);
+}
+
+/** The result's figures that come from the merged worker state (see finalizeStudy). */
+export interface StateFigures {
+  metrics: ResultFile["metrics"];
+  histograms: ResultFile["histograms"];
+  worstTrials: ResultFile["worstTrials"];
+  requirements: ResultFile["requirements"];
+  envelope: ResultFile["envelope"];
+  /** |v| p50, p95, p99, p99.73 per metric index */
+  pctCache: Map<number, number[]>;
+}
+
+/**
+ * Percentiles, histograms, worst trials, requirement yields and the compass envelope from the
+ * merged worker state: the first half of finalizeStudy, which the engine pool runs while one
+ * of its threads computes the ResultParts.
+ */
+export function stateFigures(prep: PreparedStudy, coord: Coordinator, state: WorkerState): StateFigures {
   const { model, plan, study } = prep;
   if (coord.pendingCount > 0) throw new Error("finalize: blocks are missing before some delivered ones");
   if (state.n !== coord.trials) throw new Error(`finalize: worker states hold ${state.n} trials, the coordinator ${coord.trials}`);
@@ -174,15 +196,25 @@ export function finalizeStudy(prep: PreparedStudy, coord: Coordinator, state: Wo
     };
   }
 
+  return { metrics, histograms, worstTrials, requirements, envelope, pctCache };
+}
+
+/** The result file from the state figures and the parts (the second half of finalizeStudy). */
+export function assembleResult(
+  prep: PreparedStudy,
+  coord: Coordinator,
+  figures: StateFigures,
+  parts: ResultParts,
+  flags: { stopped?: boolean } = {},
+): ResultFile {
+  const { model, plan, study } = prep;
+  const { metrics, histograms, worstTrials, requirements, envelope, pctCache } = figures;
+  const n = coord.trials;
   // contributors of the requirement metrics; stack-up of every signed metric
-  const reqMetrics = plan.regression.metrics.map((r) => r.metric);
   const signedMetrics = model.metrics.map((m, k) => (m.signed ? k : -1)).filter((k) => k >= 0);
-  const linAll = linearisedContributions(model, [...reqMetrics, ...signedMetrics.filter((k) => !reqMetrics.includes(k))]);
-  const linOf = new Map(linAll.map((l) => [l.metric, l] as const));
+  const linOf = new Map(parts.lin.map((l) => [l.metric, l] as const));
   const L = plan.regression.cols.length + 1;
-  // one decomposition per design, shared by the metrics regressed on it
-  const designOf = (tri: Float64Array | null) => (tri && coord.xty && n > 0 ? regressionDesign(plan.regression.cols, tri) : null);
-  const designs = { linear: designOf(coord.xtxLin), squared: designOf(coord.xtxSq) };
+  const designs = parts.designs;
   const contributors: ResultFile["contributors"] = plan.regression.metrics.map((spec, r) => {
     const id = model.metrics[spec.metric].id;
     const lin = linOf.get(id)!;

@@ -8,7 +8,8 @@ import { fixture, referenceStack, studyOf } from "./helpers";
 
 const stack = referenceStack();
 const base = studyOf(fixture("study-reference.json"), stack);
-const pool = new EnginePool({ threads: 2 });
+const logs: string[] = [];
+const pool = new EnginePool({ threads: 2, log: (m) => logs.push(m) });
 afterAll(() => pool.stop());
 
 describe("engine pool", () => {
@@ -19,6 +20,8 @@ describe("engine pool", () => {
     expect(pool.threadsForTest().map((w) => w.threadId)).toEqual(before);
     expect(JSON.stringify(a)).toBe(JSON.stringify(runStudy(stack, base, { trials: 6000 })));
     expect(JSON.stringify(b)).toBe(JSON.stringify(runStudy(stack, base, { trials: 6000, seed: 11 })));
+    // the model parts came from an engine thread (the pool logs when it computes them itself)
+    expect(logs.filter((l) => l.includes("model parts"))).toEqual([]);
   });
 
   it("shares the threads block by block: a short study of another person finishes long before a long one", async () => {
