@@ -99,6 +99,11 @@ export function summary(r: ResultFile, seconds: number, threads: number): string
 }
 
 async function main() {
+  // `npm run study … | head`: a reader that stops early is not a failure of the study
+  process.stdout.on("error", (e: NodeJS.ErrnoException) => {
+    if (e.code === "EPIPE") process.exit(0);
+    throw e;
+  });
   const args = parseArgs(process.argv.slice(2));
   const stackV = validateStackFile(readJson(args.stackPath, "stack file"));
   if (!stackV.ok) report("stack file", args.stackPath, stackV.issues);
