@@ -210,8 +210,10 @@ export class EnginePool {
       // a block run again after a worker died: its partial was folded the first time
       if (!job.delivered.has(partial.block)) {
         job.delivered.add(partial.block);
+        const before = job.coord.trials;
         job.coord.add(partial);
-        job.onProgress?.({ trialsDone: job.coord.trials, trialsTotal: job.prep.plan.trials });
+        // a block that came in before an earlier one waits in the coordinator: no progress yet
+        if (job.coord.trials > before) job.onProgress?.({ trialsDone: job.coord.trials, trialsTotal: job.prep.plan.trials });
       }
       this.notify(job);
     } else if (msg.type === "state" && job) {
