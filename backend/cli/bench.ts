@@ -1,8 +1,9 @@
 /**
  * npm run bench: the figures of docs/engine.md on the reference stack and study.
  *
- *   engine: process start to first trial, CPU per trial (µs) and trials per CPU-second,
- *           10^4 and 10^5 trials from the command line (a process each, as a person runs it),
+ *   engine: CPU per trial (µs) and trials per CPU-second, 10^4 and 10^5 trials from the
+ *           command line (a process each, as a person runs it: start to exit, and when the
+ *           first and last blocks came back and the result was ready, from `--timings`),
  *           wall time at 10^4, 10^5, 10^6 trials with 1 and 2 threads, peak memory at 10^7
  *           trials, the live estimate's time from an edit to its figures;
  *   API:    GET /api/projects with 50 signed-in clients (autocannon), alone and while a long
@@ -13,7 +14,7 @@
  * The machine's load is printed with every figure: wall-clock figures mean little when other
  * processes share the cores, CPU-seconds mean more.
  */
-import { execFileSync } from "node:child_process";
+import { spawnSync } from "node:child_process";
 import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { cpus, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
@@ -50,10 +51,6 @@ async function engine() {
   const stack = stackV.stack,
     study = studyV.study;
 
-  // process start to first trial, in a process of its own (this one has run the API phase)
-  const firstMs = execFileSync(process.execPath, [join(root, "backend/cli/launch.mjs"), "bench", "--first-block"], { encoding: "utf8" });
-  out(`process start to first block of trials (4,096) back: ${Number(firstMs).toFixed(0)} ms · ${load()}`);
-
   // in this thread: CPU per trial of the loop alone
   const c0 = process.cpuUsage();
   runStudy(stack, study, { trials: 5 * 4096 });
@@ -81,9 +78,10 @@ async function engine() {
   try {
     for (const trials of [10_000, 100_000]) {
       const walls: number[] = [];
+      const phases: number[][] = [];
       for (let i = 0; i < 5; i++) {
         const t = performance.now();
-        execFileSync(
+        const run = spawnSync(
           process.execPath,
           [
             join(root, "backend/cli/launch.mjs"),
@@ -94,14 +92,19 @@ async function engine() {
             String(trials),
             "--out",
             join(dir, "result.json"),
+            "--timings",
           ],
-          { stdio: "ignore" },
+          { encoding: "utf8" },
         );
         walls.push((performance.now() - t) / 1000);
+        if (run.status !== 0) throw new Error(`the study command failed: ${run.stderr}`);
+        // handed to the engine, first block back, last block back, result (ms since process start)
+        phases.push(cliTimings(run.stderr));
       }
-      const sorted = [...walls].sort((a, b) => a - b);
+      const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[2];
+      const phase = (k: number) => fmt(median(phases.map((p) => p[k])));
       out(
-        `${fmt(trials)} trials from the command line (node backend/cli/launch.mjs study, ${threadsLabel(trials)}), process start to exit: median ${sorted[2].toFixed(2)} s (runs ${walls.map((w) => w.toFixed(2)).join(", ")}) · ${load()}`,
+        `${fmt(trials)} trials from the command line (node backend/cli/launch.mjs study, ${threadsLabel(trials)}), process start to exit: median ${median(walls).toFixed(2)} s (runs ${walls.map((w) => w.toFixed(2)).join(", ")}); medians in ms since process start: study handed to the engine ${phase(0)}, first block back ${phase(1)}, last block back ${phase(2)}, result ${phase(3)} · ${load()}`,
       );
     }
   } finally {
@@ -221,21 +224,15 @@ async function api() {
   }
 }
 
-/** `--first-block`: ms from this process's start until a pool has started, compiled and returned one block. */
-async function firstBlock() {
-  const stackV = validateStackFile(fixture("stack-reference.json"));
-  if (!stackV.ok) throw new Error("reference stack does not validate");
-  const studyV = validateStudy(fixture("study-reference.json"), stackV.stack);
-  if (!studyV.ok) throw new Error("reference study does not validate");
-  const pool = new EnginePool({ threads: 1 });
-  let first = 0;
-  await pool.run(stackV.stack, studyV.study, { trials: 4096, onProgress: () => (first ||= performance.now()) });
-  await pool.stop();
-  process.stdout.write(String(first));
+/** The four times of `npm run study -- --timings` (handed, first block, last block, result), ms. */
+function cliTimings(stderr: string): number[] {
+  const line = stderr.split("\n").find((l) => l.startsWith("timings"));
+  const nums = line?.match(/[\d,]+(?= ·|$)/g)?.map((n) => Number(n.replace(/,/g, "")));
+  if (!nums || nums.length < 4) throw new Error(`no timings from the study command: ${stderr}`);
+  return nums.slice(0, 4);
 }
 
 async function main() {
-  if (args.includes("--first-block")) return firstBlock();
   out(`Orthostack bench · Node ${process.version} · ${cpus().length} cores (${cpus()[0]?.model ?? "?"}) · ${load()} at start`);
   // The API first, on a machine that has been idle: after a minute of both cores busy (the 10^7
   // study) this VM answers about a third slower for a while (measured: 335 reads/s "alone" right

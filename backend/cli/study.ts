@@ -1,7 +1,9 @@
 /**
- * npm run study -- STACK.json STUDY.json --out RESULT.json [--threads N] [--trials N] [--seed S]
+ * npm run study -- STACK.json STUDY.json --out RESULT.json [--threads N] [--trials N] [--seed S] [--timings]
  *
- * Writes the result file (MODEL.md section 11) and prints a short summary. A file that
+ * Writes the result file (MODEL.md section 11) and prints a short summary. --timings adds one
+ * line on stderr: when the first and the last block came back and the result was written, in ms
+ * since the process started (what `npm run bench` reports of a command-line study). A file that
  * does not validate gives the same field messages as the API, on stderr, exit code 2.
  */
 import { readFileSync, writeFileSync } from "node:fs";
@@ -10,7 +12,7 @@ import { validateStackFile, type FieldError } from "@shared/schemas/stack-file";
 import { validateStudy, MAX_TRIALS } from "@shared/schemas/study-file";
 import type { ResultFile } from "@shared/schemas/result-file";
 
-const USAGE = "usage: npm run study -- STACK.json STUDY.json --out RESULT.json [--threads N] [--trials N] [--seed S]";
+const USAGE = "usage: npm run study -- STACK.json STUDY.json --out RESULT.json [--threads N] [--trials N] [--seed S] [--timings]";
 
 function fail(lines: string[], code = 2): never {
   for (const l of lines) process.stderr.write(l + "\n");
@@ -20,9 +22,11 @@ function fail(lines: string[], code = 2): never {
 function parseArgs(argv: string[]) {
   const pos: string[] = [];
   const opt: Record<string, string> = {};
+  let timings = false;
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
-    if (a.startsWith("--")) {
+    if (a === "--timings") timings = true;
+    else if (a.startsWith("--")) {
       const [k, inline] = a.slice(2).split("=", 2);
       if (!["out", "threads", "trials", "seed"].includes(k)) fail([`unknown option --${k}`, USAGE]);
       const v = inline ?? argv[++i];
@@ -44,6 +48,7 @@ function parseArgs(argv: string[]) {
     threads: int("threads", 1, 256),
     trials: int("trials", 1, MAX_TRIALS),
     seed: int("seed", 0, Number.MAX_SAFE_INTEGER),
+    timings,
   };
 }
 
@@ -113,11 +118,16 @@ async function main() {
   const threads = args.threads ?? threadsForTrials(args.trials ?? studyV.study.trials);
   const t0 = performance.now();
   let lastPct = -1;
+  // ms since the process started (performance.timeOrigin)
+  let firstBlockAt = NaN,
+    lastBlockAt = NaN;
   const result = await runStudyOnThreads(stackV.stack, studyV.study, {
     threads,
     trials: args.trials,
     seed: args.seed,
     onProgress: ({ trialsDone, trialsTotal }) => {
+      if (Number.isNaN(firstBlockAt)) firstBlockAt = performance.now();
+      lastBlockAt = performance.now();
       const pct = Math.floor((100 * trialsDone) / trialsTotal / 10) * 10;
       if (pct > lastPct && process.stderr.isTTY) {
         lastPct = pct;
@@ -125,11 +135,18 @@ async function main() {
       }
     },
   });
-  const seconds = (performance.now() - t0) / 1000;
+  const resultAt = performance.now();
+  const seconds = (resultAt - t0) / 1000;
   if (process.stderr.isTTY) process.stderr.write("\r");
   writeFileSync(args.out, JSON.stringify(result, null, 1) + "\n");
   process.stdout.write(summary(result, seconds, threads) + "\n");
   process.stdout.write(`\nwrote ${args.out}\n`);
+  if (args.timings) {
+    const ms = (t: number) => Math.round(t).toLocaleString("en-US");
+    process.stderr.write(
+      `timings (ms since the process started): study handed to the engine ${ms(t0)} · first block back ${ms(firstBlockAt)} · last block back ${ms(lastBlockAt)} · result ${ms(resultAt)} · written ${ms(performance.now())}\n`,
+    );
+  }
 }
 
 main().catch((e) => fail([`study failed: ${e instanceof Error ? e.message : String(e)}`], 1));

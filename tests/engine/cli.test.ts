@@ -44,6 +44,26 @@ describe("npm run study", () => {
     expect(result.requirements).toHaveLength(3);
   });
 
+  it("--timings: one line on stderr, the study's moments in the order they happen", async () => {
+    const r = await run([
+      "tests/fixtures/stack-reference.json",
+      "tests/fixtures/study-reference.json",
+      "--out",
+      join(dir, "timed.json"),
+      "--trials",
+      "9000",
+      "--timings",
+    ]);
+    expect(r.code).toBe(0);
+    const m = r.stderr.match(
+      /^timings \(ms since the process started\): study handed to the engine ([\d,]+) · first block back ([\d,]+) · last block back ([\d,]+) · result ([\d,]+) · written ([\d,]+)\n$/,
+    );
+    expect(m, r.stderr).not.toBeNull();
+    const t = m!.slice(1).map((n) => Number(n.replace(/,/g, "")));
+    expect(t[0]).toBeGreaterThan(0);
+    for (let i = 1; i < t.length; i++) expect(t[i]).toBeGreaterThanOrEqual(t[i - 1]);
+  });
+
   it("a bad stack file: the validation messages on stderr, exit code 2", async () => {
     const bad = fixture("stack-reference.json") as { elements: { parent: string | null; size: { x: number } }[] };
     bad.elements[3].parent = "nowhere";
