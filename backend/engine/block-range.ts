@@ -152,9 +152,7 @@ export function partThreadsExecutor(engine: PartThreads): StudyExecutor {
     const step = prep.adaptive ? prep.adaptive.runBlocks : blocks;
     // folded as they come (the coordinator holds early blocks back until their turn)
     const onBlock = (b: BlockPartial) => {
-      const before = coord.trials;
-      coord.add(b);
-      if (coord.trials > before) onProgress?.(coord.trials, prep.plan.trials);
+      if (coord.add(b)) onProgress?.(coord.trials, prep.plan.trials);
     };
     for (let from = 0; from < blocks;) {
       const end = Math.min(blocks, from + step);

@@ -101,8 +101,8 @@ interface Job {
   failed: Error | null;
   wake: (() => void) | null;
   onProgress?: (p: Progress) => void;
-  /** the worker computing the result's model parts, and whom to tell (null: not asked) */
-  parts: { on: PoolWorker; resolve: (p: ResultParts | null) => void } | null;
+  /** the worker computing the result's model parts, and their promise (null: not asked) */
+  parts: { on: PoolWorker; promise: Promise<ResultParts | null>; resolve: (p: ResultParts | null) => void } | null;
 }
 
 export class EnginePool {
@@ -169,10 +169,9 @@ export class EnginePool {
         await this.until(job, () => job.coord.merged >= end);
         if (prep.adaptive && adaptiveDone(prep, job.coord)) break;
       }
-      let partsFromWorker: Promise<ResultParts | null> = Promise.resolve(null);
-      const states = await this.collectStates(job, (p) => (partsFromWorker = this.askParts(job, p)));
+      const states = await this.collectStates(job);
       const figures = stateFigures(prep, job.coord, mergeWorkerStates(states));
-      const fromWorker = await partsFromWorker;
+      const fromWorker = job.parts ? await job.parts.promise : null;
       if (job.failed) throw job.failed;
       if (!fromWorker) this.opts.log?.("engine: the result's model parts were computed on the pool's own thread");
       return assembleResult(prep, job.coord, figures, fromWorker ?? resultParts(prep, partsInput(job.coord)));
@@ -210,10 +209,7 @@ export class EnginePool {
       // a block run again after a worker died: its partial was folded the first time
       if (!job.delivered.has(partial.block)) {
         job.delivered.add(partial.block);
-        const before = job.coord.trials;
-        job.coord.add(partial);
-        // a block that came in before an earlier one waits in the coordinator: no progress yet
-        if (job.coord.trials > before) job.onProgress?.({ trialsDone: job.coord.trials, trialsTotal: job.prep.plan.trials });
+        if (job.coord.add(partial)) job.onProgress?.({ trialsDone: job.coord.trials, trialsTotal: job.prep.plan.trials });
       }
       this.notify(job);
     } else if (msg.type === "state" && job) {
@@ -301,7 +297,7 @@ export class EnginePool {
    * Asks every worker holding counts of the study for its state. A worker that dies before
    * answering had its blocks queued again (onExit); they run elsewhere and that worker is asked.
    */
-  private async collectStates(job: Job, partsFrom: (p: PoolWorker) => void): Promise<WorkerState[]> {
+  private async collectStates(job: Job): Promise<WorkerState[]> {
     const collected: WorkerState[] = [];
     for (;;) {
       // finish is sent after the runs on the same port, so a worker answers with every block
@@ -315,7 +311,7 @@ export class EnginePool {
               job.states.set(p, resolve);
               // the first holder of the first round computes the parts after its state
               const asked = i === 0 && !job.parts;
-              if (asked) partsFrom(p);
+              if (asked) this.askParts(job, p);
               p.w.postMessage({ type: "finish", job: job.id, parts: asked ? partsInput(job.coord) : undefined } satisfies ToWorker);
             }),
         ),
@@ -332,11 +328,11 @@ export class EnginePool {
     }
   }
 
-  /** Whom the parts come from: p, once it has sent them (null if it cannot). */
-  private askParts(job: Job, p: PoolWorker): Promise<ResultParts | null> {
-    return new Promise((resolve) => {
-      job.parts = { on: p, resolve };
-    });
+  /** The parts will come from p, once it has sent them (null if it cannot). */
+  private askParts(job: Job, p: PoolWorker): void {
+    let resolve!: (r: ResultParts | null) => void;
+    const promise = new Promise<ResultParts | null>((r) => (resolve = r));
+    job.parts = { on: p, promise, resolve };
   }
 
   private async until(job: Job, cond: () => boolean) {

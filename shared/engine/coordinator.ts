@@ -112,14 +112,19 @@ export class Coordinator {
     this.convergence = plan.tracked.map(() => []);
   }
 
-  /** Accept a partial in any order; folds every partial that is now next in line. */
-  add(p: BlockPartial): void {
+  /**
+   * Accept a partial in any order; folds every partial that is now next in line. True when the
+   * folded trials grew, false when the block waits for an earlier one (no progress to report).
+   */
+  add(p: BlockPartial): boolean {
     if (p.block < this.merged || this.pending.has(p.block)) throw new Error(`block ${p.block} delivered twice`);
     this.pending.set(p.block, p);
+    const before = this.merged;
     for (let next = this.pending.get(this.merged); next; next = this.pending.get(this.merged)) {
       this.pending.delete(this.merged);
       this.fold(next);
     }
+    return this.merged > before;
   }
 
   private fold(p: BlockPartial): void {

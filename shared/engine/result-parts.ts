@@ -37,7 +37,7 @@ export function partsInput(coord: Coordinator): PartsInput {
 }
 
 /** The metrics the result reports linearised contributions for: the regressed ones, then every other signed one. */
-export function linearisedMetrics(prep: PreparedStudy): number[] {
+function linearisedMetrics(prep: PreparedStudy): number[] {
   const reqMetrics = prep.plan.regression.metrics.map((r) => r.metric);
   const signed = prep.model.metrics.map((m, k) => (m.signed ? k : -1)).filter((k) => k >= 0 && !reqMetrics.includes(k));
   return [...reqMetrics, ...signed];
