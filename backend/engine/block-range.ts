@@ -6,16 +6,15 @@
  * protocol; they live as long as the worker process. Partials and states do not depend on the
  * thread, so the merged study equals the in-process runner's for the same files and seed.
  */
-import { pathToFileURL } from "node:url";
-import { Worker } from "node:worker_threads";
+import type { Worker } from "node:worker_threads";
 import { mergeWorkerStates, type BlockPartial, type WorkerState } from "@shared/engine/accumulate";
 import { adaptiveDone, finalizeStudy, newCoordinator, prepareStudy } from "@shared/engine/study";
 import type { StudyExecutor } from "@shared/whatif/executor";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
-import { ensureBundle } from "./bundle.mjs";
 import { StudyAbortedError } from "./pool";
-import type { FromWorker, ToWorker, WorkerInit } from "./worker";
+import { startEngineThread } from "./thread";
+import type { FromWorker, ToWorker } from "./worker";
 
 export type BlockRangeResult = { partials: BlockPartial[]; state: WorkerState };
 
@@ -35,7 +34,6 @@ type Slot = { w: Worker; busy: boolean };
 
 export class PartThreads {
   private readonly slots: Slot[] = [];
-  private readonly url = pathToFileURL(ensureBundle("worker"));
   private nextJob = 1;
   private waiting: (() => void)[] = [];
   private stopped = false;
@@ -48,7 +46,7 @@ export class PartThreads {
   }
 
   private spawn(): Worker {
-    return new Worker(this.url, { workerData: { nice: this.opts.nice ?? 0 } satisfies WorkerInit, execArgv: [] });
+    return startEngineThread(this.opts.nice);
   }
 
   async stop() {

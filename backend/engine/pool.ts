@@ -21,8 +21,7 @@
  * A person with one long study and a person with a short one each get every other block.
  */
 import { availableParallelism } from "node:os";
-import { pathToFileURL } from "node:url";
-import { Worker } from "node:worker_threads";
+import type { Worker } from "node:worker_threads";
 import { mergeWorkerStates, type BlockPartial, type WorkerState } from "@shared/engine/accumulate";
 import {
   adaptiveDone,
@@ -39,8 +38,8 @@ import type { Coordinator } from "@shared/engine/coordinator";
 import type { ResultFile } from "@shared/schemas/result-file";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
-import { ensureBundle } from "./bundle.mjs";
-import type { FromWorker, ToWorker, WorkerInit } from "./worker";
+import { startEngineThread } from "./thread";
+import type { FromWorker, ToWorker } from "./worker";
 
 export class StudyAbortedError extends Error {
   constructor(message = "the study was cancelled") {
@@ -113,12 +112,10 @@ export class EnginePool {
   private ownerTurn = 0;
   private jobTurn = new Map<string, number>();
   private stopped = false;
-  private readonly url: URL;
   readonly size: number;
 
   constructor(private readonly opts: PoolOptions = {}) {
     this.size = Math.max(1, opts.threads ?? defaultThreads());
-    this.url = pathToFileURL(ensureBundle("worker"));
     for (let i = 0; i < this.size; i++) this.workers.push(this.spawn());
   }
 
@@ -193,7 +190,7 @@ export class EnginePool {
   }
 
   private spawn(): PoolWorker {
-    const w = new Worker(this.url, { workerData: { nice: this.opts.nice ?? 0 } satisfies WorkerInit, execArgv: [] });
+    const w = startEngineThread(this.opts.nice);
     const p: PoolWorker = { w, inFlight: 0, open: new Set(), alive: true };
     w.on("message", (msg: FromWorker) => this.onMessage(p, msg));
     w.on("error", (e) => this.opts.log?.("engine worker error", e));
