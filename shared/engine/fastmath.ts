@@ -121,8 +121,13 @@ export function tanTo(a: Float64Array, aOff: number, scale: number, n: number, o
   }
 }
 
-/** out[i] = sinFast(a), out[i + 1] = cosFast(a) */
-export function sinCosTo(a: number, out: Float64Array, i: number): void {
+/**
+ * out[i] = sinFast(x), out[i + 1] = cosFast(x) for x = src[srcOff]·scale. The angle is read
+ * from an array, as in tanTo: where V8 does not inline this call, a number argument would be
+ * passed boxed (a heap allocation per call).
+ */
+export function sinCosTo(src: Float64Array, srcOff: number, scale: number, out: Float64Array, i: number): void {
+  const a = src[srcOff] * scale;
   if (a > 0.125 || a < -0.125) {
     out[i] = Math.sin(a);
     out[i + 1] = Math.cos(a);

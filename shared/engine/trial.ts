@@ -78,7 +78,7 @@ export function orientations(m: Model, draws: Float64Array, R: Float64Array, s: 
     const Z = bow ? Zb : T;
     // Rz(yaw + dYaw) by angle addition: the deviation is small, the nominal yaw exact
     if (e.yawOff >= 0) {
-      sinCosTo(draws[e.yawOff] * DEG, s.fm, 6);
+      sinCosTo(draws, e.yawOff, DEG, s.fm, 6);
       const sd = s.fm[6],
         cd = s.fm[7];
       const c = e.cosYaw * cd - e.sinYaw * sd,

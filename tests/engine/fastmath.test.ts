@@ -54,7 +54,11 @@ describe("out-parameter forms used by the trial loop", () => {
       tanTo(a, 0, Math.PI / 180, 6, out, 1);
       for (let k = 0; k < 6; k++) expect(out[1 + k]).toBe(tanFast(a[k] * (Math.PI / 180)));
       const t = rnd() * 0.3;
-      sinCosTo(t, out, 6);
+      sinCosTo(a, 2, Math.PI / 180, out, 6);
+      expect(out[6]).toBe(sinFast(a[2] * (Math.PI / 180)));
+      expect(out[7]).toBe(cosFast(a[2] * (Math.PI / 180)));
+      a[0] = t;
+      sinCosTo(a, 0, 1, out, 6);
       expect(out[6]).toBe(sinFast(t));
       expect(out[7]).toBe(cosFast(t));
     }
