@@ -31,6 +31,17 @@ import { validateStackFile } from "@shared/schemas/stack-file";
 import { validateStudy } from "@shared/schemas/study-file";
 
 const root = fileURLToPath(new URL("../../", import.meta.url));
+/**
+ * `npm run study` as package.json spells it, without npm: node's flags, then the launcher and
+ * its arguments (the command line the bench times is the one people run).
+ */
+const studyCommand = (() => {
+  const script: string = JSON.parse(readFileSync(join(root, "package.json"), "utf8")).scripts.study;
+  const [node, ...args] = script.split(/\s+/);
+  if (node !== "node" || !args.includes("backend/cli/launch.mjs"))
+    throw new Error(`package.json's study script is not "node … backend/cli/launch.mjs study": ${script}`);
+  return args.map((a) => (a === "backend/cli/launch.mjs" ? join(root, a) : a));
+})();
 const fixture = (name: string) => JSON.parse(readFileSync(join(root, "tests/fixtures", name), "utf8"));
 const args = process.argv.slice(2);
 const quick = args.includes("--quick");
@@ -84,8 +95,7 @@ async function engine() {
         const run = spawnSync(
           process.execPath,
           [
-            join(root, "backend/cli/launch.mjs"),
-            "study",
+            ...studyCommand,
             join(root, "tests/fixtures/stack-reference.json"),
             join(root, "tests/fixtures/study-reference.json"),
             "--trials",
@@ -104,7 +114,7 @@ async function engine() {
       const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[2];
       const phase = (k: number) => fmt(median(phases.map((p) => p[k])));
       out(
-        `${fmt(trials)} trials from the command line (node backend/cli/launch.mjs study, ${threadsLabel(trials)}), process start to exit: median ${median(walls).toFixed(2)} s (runs ${walls.map((w) => w.toFixed(2)).join(", ")}); medians in ms since process start: study handed to the engine ${phase(0)}, first block back ${phase(1)}, last block back ${phase(2)}, result ${phase(3)} · ${load()}`,
+        `${fmt(trials)} trials from the command line (npm run study without npm, ${threadsLabel(trials)}), process start to exit: median ${median(walls).toFixed(2)} s (runs ${walls.map((w) => w.toFixed(2)).join(", ")}); medians in ms since process start: study handed to the engine ${phase(0)}, first block back ${phase(1)}, last block back ${phase(2)}, result ${phase(3)} · ${load()}`,
       );
     }
   } finally {

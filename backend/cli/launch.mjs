@@ -1,5 +1,9 @@
 // `npm run study` / `npm run bench`: runs the command-line tool from its plain-JS bundle
 // (rebuilt only when a source changed), so the process starts without a TypeScript loader.
+// `npm run study` starts node with --no-concurrent-recompilation (package.json): the process
+// does nothing but the study, so its own thread, like the engine threads, compiles a hot
+// function at once instead of waiting for a background compiler thread that the two engine
+// threads leave little room (the result's statistics ~30 ms sooner; docs/engine.md).
 import { pathToFileURL } from "node:url";
 import { ensureBundle } from "../engine/bundle.mjs";
 
