@@ -101,7 +101,7 @@ export class PartThreads {
         if (inFlight === 0 && !queue.length) w.postMessage({ type: "finish", job } satisfies ToWorker);
       };
       const onMessage = (msg: FromWorker) => {
-        if (msg.job !== job) return;
+        if (msg.type === "estimate" || msg.job !== job) return;
         if (msg.type === "block") {
           inFlight--;
           partials.push(msg.partial as BlockPartial);

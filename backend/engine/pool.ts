@@ -35,6 +35,7 @@ import {
 } from "@shared/engine/study";
 import { partsInput, resultParts, unpackParts, type ResultParts } from "@shared/engine/result-parts";
 import type { Coordinator } from "@shared/engine/coordinator";
+import type { EstimateSummary, LiveStudy } from "@shared/engine/live-estimate";
 import type { ResultFile } from "@shared/schemas/result-file";
 import type { StackFile } from "@shared/schemas/stack-file";
 import type { StudyFile } from "@shared/schemas/study-file";
@@ -84,7 +85,12 @@ interface PoolWorker {
   inFlight: number;
   open: Set<number>;
   alive: boolean;
+  /** live estimates asked of this thread, by request number (null: the thread died) */
+  estimates: Map<number, (answer: { summary: EstimateSummary | null; message?: string } | null) => void>;
 }
+
+/** Threads a live estimate is tried on before it fails (one dying under it is replaced). */
+const ESTIMATE_TRIES = 3;
 
 interface Job {
   id: number;
@@ -112,6 +118,7 @@ export class EnginePool {
   private ownerTurn = 0;
   private jobTurn = new Map<string, number>();
   private stopped = false;
+  private nextEstimate = 1;
   readonly size: number;
 
   constructor(private readonly opts: PoolOptions = {}) {
@@ -178,6 +185,29 @@ export class EnginePool {
     }
   }
 
+  /**
+   * The live estimate of a validated stack (shared/engine/live-estimate.ts), on the least busy
+   * engine thread: the same figures as the editor's, without running trials on the caller's
+   * thread (on the server, the one that answers requests). Rejects with StudyAbortedError when
+   * the pool is stopped, with the engine's message when the estimate fails.
+   */
+  async estimate(stack: StackFile, live: LiveStudy): Promise<EstimateSummary> {
+    for (let tries = 0; tries < ESTIMATE_TRIES; tries++) {
+      if (this.stopped) throw new StudyAbortedError("the engine pool is stopped");
+      const p = this.workers.filter((w) => w.alive).sort((a, b) => a.inFlight + a.estimates.size - (b.inFlight + b.estimates.size))[0];
+      if (!p) break;
+      const request = this.nextEstimate++;
+      const answer = await new Promise<{ summary: EstimateSummary | null; message?: string } | null>((resolve) => {
+        p.estimates.set(request, resolve);
+        p.w.postMessage({ type: "estimate", request, stack, live } satisfies ToWorker);
+      });
+      if (answer?.summary) return answer.summary;
+      if (answer) throw new Error(`the live estimate failed: ${answer.message ?? "no figures"}`);
+      // the thread died under it: a replacement is starting, ask again
+    }
+    throw new StudyAbortedError("no engine thread could run the live estimate");
+  }
+
   /** Stops every worker; running studies reject with StudyAbortedError. */
   async stop(): Promise<void> {
     if (this.stopped) return;
@@ -185,13 +215,17 @@ export class EnginePool {
     for (const job of this.jobs.values()) this.fail(job, new StudyAbortedError("the engine pool stopped"));
     const ws = this.workers;
     this.workers = [];
-    for (const p of ws) p.alive = false;
+    for (const p of ws) {
+      p.alive = false;
+      for (const answer of p.estimates.values()) answer(null);
+      p.estimates.clear();
+    }
     await Promise.all(ws.map((p) => p.w.terminate()));
   }
 
   private spawn(): PoolWorker {
     const w = startEngineThread(this.opts.nice);
-    const p: PoolWorker = { w, inFlight: 0, open: new Set(), alive: true };
+    const p: PoolWorker = { w, inFlight: 0, open: new Set(), alive: true, estimates: new Map() };
     w.on("message", (msg: FromWorker) => this.onMessage(p, msg));
     w.on("error", (e) => this.opts.log?.("engine worker error", e));
     w.on("exit", () => this.onExit(p));
@@ -199,6 +233,12 @@ export class EnginePool {
   }
 
   private onMessage(p: PoolWorker, msg: FromWorker) {
+    if (msg.type === "estimate") {
+      const answer = p.estimates.get(msg.request);
+      p.estimates.delete(msg.request);
+      answer?.({ summary: msg.summary, message: msg.message });
+      return;
+    }
     const job = this.jobs.get(msg.job);
     if (msg.type === "block" || msg.type === "dropped" || (msg.type === "error" && msg.block !== undefined)) p.inFlight--;
     if (msg.type === "block" && job && !job.failed) {
@@ -226,6 +266,8 @@ export class EnginePool {
   private onExit(p: PoolWorker) {
     if (!p.alive) return;
     p.alive = false;
+    for (const answer of p.estimates.values()) answer(null);
+    p.estimates.clear();
     const i = this.workers.indexOf(p);
     if (i < 0) return;
     this.opts.log?.("an engine worker thread stopped; starting a replacement");

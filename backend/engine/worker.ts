@@ -3,7 +3,8 @@
  * holds one WorkerState per open study: "open" compiles the study, "run" adds a block's
  * integer counts to that study's state and posts the block's float partial back, "finish"
  * hands the state over (and, when asked, then computes the result's model parts) and forgets
- * the study, "close" forgets it (cancelled). The thread is
+ * the study, "close" forgets it (cancelled); "estimate" runs a live estimate and answers it,
+ * so the server's request thread never runs trials. The thread is
  * loaded from its plain-JS bundle (./bundle.mjs), so it starts without a TypeScript loader.
  */
 import { readlinkSync } from "node:fs";
@@ -12,6 +13,7 @@ import { parentPort, workerData } from "node:worker_threads";
 import { createWorkerState, runBlock, transferablesOf, type WorkerState } from "../../shared/engine/accumulate";
 import { prepareStudy, type PreparedStudy, type StudyOverrides } from "../../shared/engine/plan";
 import { packParts, resultParts, type PackedParts, type PartsInput } from "../../shared/engine/result-parts";
+import { estimate, type EstimateSummary, type LiveStudy } from "../../shared/engine/live-estimate";
 import type { StackFile } from "../../shared/schemas/stack-file";
 import type { StudyFile } from "../../shared/schemas/study-file";
 
@@ -25,14 +27,17 @@ export type ToWorker =
   | { type: "run"; job: number; block: number }
   /** hand over the state; with parts, then compute the study's ResultParts from those sums */
   | { type: "finish"; job: number; parts?: PartsInput }
-  | { type: "close"; job: number };
+  | { type: "close"; job: number }
+  /** the live estimate of a validated stack (shared/engine/live-estimate.ts), answered at once */
+  | { type: "estimate"; request: number; stack: StackFile; live: LiveStudy };
 export type FromWorker =
   | { type: "block"; job: number; partial: ReturnType<typeof runBlock> }
   | { type: "dropped"; job: number; block: number }
   | { type: "state"; job: number; state: WorkerState }
   /** null when they could not be computed here (the pool then computes them itself) */
   | { type: "parts"; job: number; parts: PackedParts | null }
-  | { type: "error"; job: number; block?: number; message: string };
+  | { type: "error"; job: number; block?: number; message: string }
+  | { type: "estimate"; request: number; summary: EstimateSummary | null; message?: string };
 
 const port = parentPort;
 if (!port) throw new Error("backend/engine/worker.ts must run as a worker thread");
@@ -57,6 +62,14 @@ structuredClone(spare, { transfer: [spare] });
 const jobs = new Map<number, { prep: PreparedStudy; state: WorkerState }>();
 
 port.on("message", (msg: ToWorker) => {
+  if (msg.type === "estimate") {
+    try {
+      port.postMessage({ type: "estimate", request: msg.request, summary: estimate(msg.stack, msg.live) } satisfies FromWorker);
+    } catch (e) {
+      port.postMessage({ type: "estimate", request: msg.request, summary: null, message: e instanceof Error ? e.message : String(e) } satisfies FromWorker);
+    }
+    return;
+  }
   try {
     if (msg.type === "open") {
       const prep = prepareStudy(msg.stack, msg.study, msg.overrides);

@@ -19,7 +19,7 @@ import { send } from "../lib/respond";
 import { parse } from "../lib/validate";
 import { sendVersioned, sentVersion } from "../lib/versions";
 import { actorOf, allow } from "../middleware/session";
-import { checkRevision } from "../services/requirement-check";
+import { checkRevision, type EstimateRunner } from "../services/requirement-check";
 import { notifyRevision } from "../services/review-notifications";
 import {
   addRevisionComment,
@@ -41,6 +41,7 @@ const safeFileName = (s: string) =>
 export function revisionsRouter(deps: AppDeps) {
   const { db } = deps;
   const r = Router();
+  const runEstimate: EstimateRunner = (stack, live) => deps.enginePool.estimate(stack, live);
 
   r.get("/projects/:id/revisions", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
@@ -72,7 +73,7 @@ export function revisionsRouter(deps: AppDeps) {
   r.post("/revisions/:id/submit", allow("revisions.write"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { note, confirmFailing } = parse(SubmitRevisionSchema, req);
-    const check = () => checkRevision(db, actorOf(req).workspaceId, id);
+    const check = () => checkRevision(db, actorOf(req).workspaceId, id, runEstimate);
     const revision = await transitionRevision(db, actorOf(req), id, "submit", sentVersion(req), { note, check, confirmFailing });
     await notifyRevision(deps, actorOf(req), id, "submit");
     sendVersioned(res, RevisionSchema, revision);
@@ -108,7 +109,7 @@ export function revisionsRouter(deps: AppDeps) {
 
   r.get("/revisions/:id/requirement-check", allow("projects.read"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
-    send(res, RevisionCheckSchema, await checkRevision(db, actorOf(req).workspaceId, id));
+    send(res, RevisionCheckSchema, await checkRevision(db, actorOf(req).workspaceId, id, runEstimate));
   });
 
   r.get("/revisions/:id/stack-file", allow("projects.read"), async (req, res) => {

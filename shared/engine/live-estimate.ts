@@ -14,15 +14,17 @@
  * two thirds of the time of a 3,000-trial run; the linearised contributors of the
  * requirement metrics (one sweep of the draws) it keeps. A test checks that both give the
  * same figures.
+ *
+ * The estimate's study comes from ./live-study.ts (it checks the requirements with zod); this
+ * module has no zod, so an engine thread can run `estimate` without loading it.
  */
 import { metricHistogram, runBlock } from "@shared/engine/accumulate";
 import { linearisedContributions } from "@shared/engine/contributors";
-import { metricIds } from "@shared/engine/model";
 import { wilson } from "@shared/engine/stats";
 import { newWorkerState, prepareStudy } from "@shared/engine/study";
 import type { ResultFile } from "@shared/schemas/result-file";
 import type { StackFile } from "@shared/schemas/stack-file";
-import { RequirementSchema, type Requirement, type StudyFile } from "@shared/schemas/study-file";
+import type { StudyFile } from "@shared/schemas/study-file";
 import { metricUnit, type MetricUnit } from "@shared/metrics";
 
 export const LIVE_TRIALS = 3000;
@@ -33,31 +35,6 @@ export interface LiveStudy {
   study: StudyFile;
   /** index in the document's requirement list of each requirement the study carries */
   requirementIndexes: number[];
-}
-
-/** The estimate's study; requirements that are incomplete or name no metric of the stack are left out. */
-export function liveStudy(stack: StackFile, requirements: Requirement[]): LiveStudy {
-  const ids = new Set(metricIds(stack, {}));
-  const kept: Requirement[] = [];
-  const requirementIndexes: number[] = [];
-  requirements.forEach((r, i) => {
-    const parsed = RequirementSchema.safeParse(r);
-    if (parsed.success && ids.has(parsed.data.metric)) {
-      kept.push({ metric: parsed.data.metric, max: parsed.data.max, yield: parsed.data.yield });
-      requirementIndexes.push(i);
-    }
-  });
-  return {
-    study: {
-      format: "orthostack.study/1",
-      trials: LIVE_TRIALS,
-      seed: LIVE_SEED,
-      inclinationDeg: LIVE_INCLINATION_DEG,
-      requirements: kept,
-      worstTrials: 1,
-    },
-    requirementIndexes,
-  };
 }
 
 export interface EstimateRequirement {

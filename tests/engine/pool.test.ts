@@ -4,6 +4,8 @@
 import { afterAll, describe, expect, it } from "vitest";
 import { EnginePool, StudyAbortedError } from "@backend/engine/pool";
 import { runStudy } from "@shared/engine/study";
+import { estimate } from "@shared/engine/live-estimate";
+import { liveStudy } from "@shared/engine/live-study";
 import { fixture, referenceStack, studyOf } from "./helpers";
 
 const stack = referenceStack();
@@ -82,5 +84,24 @@ describe("engine pool", () => {
     await expect(cancelled).rejects.toBeInstanceOf(StudyAbortedError);
     expect(JSON.stringify(await other)).toBe(JSON.stringify(runStudy(stack, base, { trials: 5 * 4096, seed: 8 })));
     expect(pool.activeStudies).toBe(0);
+  });
+
+  it("runs a live estimate on an engine thread, with the figures of the in-process estimate", async () => {
+    const live = liveStudy(stack, base.requirements ?? []);
+    expect(live.study.requirements?.length).toBeGreaterThan(0);
+    const inProcess = estimate(stack, live);
+    expect(await pool.estimate(stack, live)).toEqual(inProcess);
+    // the thread it went to dies before answering: asked again on another, the same figures
+    const replaced = logs.filter((l) => l.includes("starting a replacement")).length;
+    const pending = pool.estimate(stack, live);
+    void pool.threadsForTest()[0].terminate();
+    expect(await pending).toEqual(inProcess);
+    expect(logs.filter((l) => l.includes("starting a replacement")).length).toBe(replaced + 1);
+  });
+
+  it("refuses a live estimate once stopped", async () => {
+    const stopped = new EnginePool({ threads: 1 });
+    await stopped.stop();
+    await expect(stopped.estimate(stack, liveStudy(stack, base.requirements ?? []))).rejects.toBeInstanceOf(StudyAbortedError);
   });
 });
