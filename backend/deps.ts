@@ -3,6 +3,7 @@ import type { Auth } from "./auth";
 import type { Database } from "./db/client";
 import type { MailService } from "./services/mail";
 import type { EnginePool } from "./engine/pool";
+import type { ReportRenderer } from "./services/report-renderer";
 import type { StudyScheduler } from "./services/study-queue";
 import type { WhatIfScheduler } from "./services/what-if-queue";
 
@@ -33,6 +34,8 @@ export type AppDeps = {
   queueStatus?: () => Promise<QueueStatus>;
   /** The warm engine worker threads, created at start and stopped at shutdown; the queue runs on it. */
   enginePool: EnginePool;
+  /** Renders report files (PDF, spreadsheet, CSV) on a thread of its own; stopped at shutdown. */
+  reportRenderer: ReportRenderer;
   /** Sweeps and allocations (issue 12): the in-process queue on the same pool, or the job queue of server mode. */
   whatIfQueue: WhatIfScheduler;
   /** Room on disk and the workspace quota, checked before large writes (507 when short). */

@@ -17,6 +17,7 @@ import { StudyQueue, type StudyRunner, type StudyScheduler } from "./services/st
 import { jobSettingsOf, startServerMode } from "./services/server-mode";
 import { engineRunner } from "./services/study-runner";
 import { ENGINE_NICE, EnginePool } from "./engine/pool";
+import { ReportRenderer } from "./services/report-renderer";
 import { poolExecutor, WhatIfQueue, type WhatIfExecutorFactory, type WhatIfScheduler } from "./services/what-if-queue";
 
 /** Something that starts with the server and stops with it; stopped in reverse order. */
@@ -73,6 +74,7 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
   const enginePool = new EnginePool({ threads: parts.engineThreads, nice: ENGINE_NICE, log });
   const studyQueue = parts.serverMode?.studyQueue ?? new StudyQueue(handle.db, parts.runner ?? engineRunner(enginePool), log);
   const whatIfQueue = parts.serverMode?.whatIfQueue ?? new WhatIfQueue(handle.db, parts.whatIfExecutor ?? poolExecutor(enginePool), log);
+  const reportRenderer = new ReportRenderer(log);
   const deps: AppDeps = {
     db: handle.db,
     auth: parts.auth,
@@ -82,6 +84,7 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
     mail,
     studyQueue,
     enginePool,
+    reportRenderer,
     whatIfQueue,
     queueStatus: parts.serverMode?.queueStatus,
     storage: parts.storage ?? storageGuard({ paths: [tmpdir()], reserveBytes: 0, workspaceQuotaBytes: 2048 * 1024 * 1024 }),
@@ -92,6 +95,7 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
     { name: "database", stop: parts.ownsDatabase === false ? undefined : () => handle.close() },
     { name: "mail", stop: mail ? () => mail.close() : undefined },
     { name: "engine pool", stop: () => enginePool.stop() },
+    { name: "report renderer", stop: () => reportRenderer.stop() },
     { name: "job queue", stop: parts.serverMode ? () => parts.serverMode!.stop() : undefined },
     { name: "study queue", start: () => studyQueue.start(), stop: () => studyQueue.stop() },
     { name: "what-if queue", start: () => whatIfQueue.start(), stop: () => whatIfQueue.stop() },

@@ -20,6 +20,8 @@ export const ENTRIES = {
   worker: "backend/engine/worker.ts",
   study: "backend/cli/study.ts",
   bench: "backend/cli/bench.ts",
+  // not the engine's, but made the same way: the thread that renders report files
+  report: "backend/services/report-render-thread.ts",
 };
 
 /**

@@ -89,7 +89,7 @@ export function reportsRouter(deps: AppDeps) {
   r.post("/reports/:id/release", allow("reports.release"), async (req, res) => {
     const { id } = parse(IdParamsSchema, req, "params");
     const { comment } = parse(ReleaseReportSchema, req);
-    const report = await releaseReport(db, actorOf(req), id, comment, baseURL, sentVersion(req));
+    const report = await releaseReport(db, deps.reportRenderer, actorOf(req), id, comment, baseURL, sentVersion(req));
     await notifyReport(deps, actorOf(req), id, "released", comment);
     sendVersioned(res, ReportSchema, report);
   });
@@ -129,7 +129,7 @@ export function reportsRouter(deps: AppDeps) {
   for (const kind of REPORT_FILE_KINDS) {
     r.get(`/reports/:id/${kind}`, allow("reports.read"), async (req, res) => {
       const { id } = parse(IdParamsSchema, req, "params");
-      const file = await reportFile(db, actorOf(req), id, kind, baseURL);
+      const file = await reportFile(db, deps.reportRenderer, actorOf(req), id, kind, baseURL);
       res.setHeader("content-type", file.contentType);
       res.setHeader("content-disposition", disposition(file.fileName));
       res.setHeader("cache-control", "private, no-store");

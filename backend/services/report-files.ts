@@ -11,9 +11,9 @@ import { reportDownloads, reportFiles, users } from "../db/schema";
 import { found } from "../lib/errors";
 import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
-import { renderReportPdf, type ReportMeta } from "./report-pdf";
+import type { ReportMeta } from "./report-pdf";
 import { iso, reportLabel, reportLink, visibleRow, type ReportRow } from "./report-queries";
-import { renderReportCsv, renderReportXlsx } from "./report-sheets";
+import type { ReportRenderer } from "./report-renderer";
 import { safeFileName } from "./report-format";
 import { reportCode } from "@shared/reports/format";
 
@@ -52,18 +52,16 @@ export function fileName(row: ReportRow, kind: ReportFileKind) {
   return `${reportCode(row.number)}-r${row.revision}-${safeFileName(c.supplier.name)}.${kind}`;
 }
 
-export async function render(row: ReportRow, meta: ReportMeta, kind: ReportFileKind): Promise<Buffer> {
-  const c = row.content;
-  if (kind === "pdf") return renderReportPdf(c, meta);
-  if (kind === "xlsx") return renderReportXlsx(c, meta);
-  return renderReportCsv(c, meta);
+/** A report's file, rendered on the renderer's thread (./report-renderer.ts). */
+export function render(renderer: ReportRenderer, row: ReportRow, meta: ReportMeta, kind: ReportFileKind): Promise<Buffer> {
+  return renderer.render(row.content, meta, kind);
 }
 
 /**
  * A report file to download: a released report's stored bytes exactly, or a draft rendered
  * now (marked as a draft). Every download is recorded; a supplier's also in the project's activity.
  */
-export async function reportFile(db: Database, actor: Actor, id: string, kind: ReportFileKind, baseURL: string) {
+export async function reportFile(db: Database, renderer: ReportRenderer, actor: Actor, id: string, kind: ReportFileKind, baseURL: string) {
   const row = await visibleRow(db, actor, id);
   let file: { data: Buffer; sha256: string | null; fileName: string; contentType: string };
   if (row.status === "released") {
@@ -74,7 +72,7 @@ export async function reportFile(db: Database, actor: Actor, id: string, kind: R
     const f = found(stored, "The report file");
     file = { data: f.data, sha256: f.sha256, fileName: f.fileName, contentType: f.contentType };
   } else {
-    const data = await render(row, await metaFor(db, row, baseURL), kind);
+    const data = await render(renderer, row, await metaFor(db, row, baseURL), kind);
     file = { data, sha256: null, fileName: fileName(row, kind).replace(/(\.\w+)$/, "-DRAFT$1"), contentType: FILE_TYPES[kind] };
   }
   await db.transaction(async (tx) => {

@@ -15,6 +15,7 @@ import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
 import { buildReportContent } from "./report-content";
 import { FILE_TYPES, fileName, metaFor, render, sha256 } from "./report-files";
+import type { ReportRenderer } from "./report-renderer";
 import { getReport, reportLabel, visibleRow, type ReportRow } from "./report-queries";
 import { listComments } from "./revisions";
 import { getStudy } from "./studies";
@@ -211,6 +212,7 @@ export async function deleteReport(db: Database, actor: Actor, id: string, sent:
 
 export async function releaseReport(
   db: Database,
+  renderer: ReportRenderer,
   actor: Actor,
   id: string,
   comment: string | undefined,
@@ -234,7 +236,7 @@ export async function releaseReport(
   const releasedAt = new Date();
   const meta = await metaFor(db, row, baseURL, { status: "released", releasedAt: releasedAt.toISOString(), releasedByName: actor.name });
   const rendered = await Promise.all(
-    (["pdf", "xlsx", "csv"] as const).map(async (kind) => ({ kind, data: await render(row, meta, kind) })),
+    (["pdf", "xlsx", "csv"] as const).map(async (kind) => ({ kind, data: await render(renderer, row, meta, kind) })),
   );
   await db.transaction(async (tx) => {
     await writeVersioned(
