@@ -66,7 +66,12 @@ port.on("message", (msg: ToWorker) => {
     try {
       port.postMessage({ type: "estimate", request: msg.request, summary: estimate(msg.stack, msg.live) } satisfies FromWorker);
     } catch (e) {
-      port.postMessage({ type: "estimate", request: msg.request, summary: null, message: e instanceof Error ? e.message : String(e) } satisfies FromWorker);
+      port.postMessage({
+        type: "estimate",
+        request: msg.request,
+        summary: null,
+        message: e instanceof Error ? e.message : String(e),
+      } satisfies FromWorker);
     }
     return;
   }
