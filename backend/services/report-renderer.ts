@@ -20,6 +20,9 @@ export class ReportRenderer {
   private nextId = 1;
   private stopped = false;
 
+  /** the thread's bundle, built (when stale) at start rather than while someone waits for a file */
+  private readonly url = pathToFileURL(ensureBundle("report"));
+
   constructor(private readonly log?: (message: string, err?: unknown) => void) {}
 
   /** The file's bytes; rejects when the file cannot be rendered or the renderer is stopped. */
@@ -48,7 +51,7 @@ export class ReportRenderer {
 
   private start(): Worker {
     if (this.thread) return this.thread;
-    const t = new Worker(pathToFileURL(ensureBundle("report")), { execArgv: [] });
+    const t = new Worker(this.url, { execArgv: [] });
     t.on("message", (msg: FromRenderThread) => {
       const p = this.pending.get(msg.id);
       this.pending.delete(msg.id);
