@@ -6,7 +6,7 @@ import { join } from "node:path";
 import { crc32, deflateSync } from "node:zlib";
 import ExcelJS from "exceljs";
 import { eq } from "drizzle-orm";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { members, suppliers, supplierContacts } from "@backend/db/schema";
 import { SMTPServer } from "smtp-server";
 import { mailSettings } from "@backend/lib/env";
@@ -16,6 +16,15 @@ import { REPORT_CAUTIONS } from "@shared/reports/cautions";
 import { createAccount } from "@backend/lib/accounts";
 import { startTestApp, type TestApp } from "./harness";
 import { insertFinishedStudy, LARKFIELD, ownedStack, parseCsv, resultFor } from "./report-fixtures";
+
+// The server renders report files on a thread of its own (backend/services/report-renderer.ts),
+// never on the thread that answers requests: a file rendered here would fail every download
+// and release below.
+vi.mock("@backend/services/report-render", () => ({
+  renderFile: () => {
+    throw new Error("a report file was rendered on the thread that answers requests");
+  },
+}));
 
 const LARKFIELD_SOURCES = [
   "asic.bondLine",
