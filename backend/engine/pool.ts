@@ -19,6 +19,9 @@
  * Fairness: when a worker has room (two blocks in flight each), the next block goes to the
  * owner after the last one served, round robin, and within an owner to its studies in turn.
  * A person with one long study and a person with a short one each get every other block.
+ *
+ * The pool also runs the server's live estimates (`estimate`: the requirement check of a draft)
+ * on its least busy thread, so the thread that answers requests never runs trials.
  */
 import { availableParallelism } from "node:os";
 import type { Worker } from "node:worker_threads";
