@@ -52,11 +52,6 @@ export function fileName(row: ReportRow, kind: ReportFileKind) {
   return `${reportCode(row.number)}-r${row.revision}-${safeFileName(c.supplier.name)}.${kind}`;
 }
 
-/** A report's file, rendered on the renderer's thread (./report-renderer.ts). */
-export function render(renderer: ReportRenderer, row: ReportRow, meta: ReportMeta, kind: ReportFileKind): Promise<Buffer> {
-  return renderer.render(row.content, meta, kind);
-}
-
 /**
  * A report file to download: a released report's stored bytes exactly, or a draft rendered
  * now (marked as a draft). Every download is recorded; a supplier's also in the project's activity.
@@ -72,7 +67,7 @@ export async function reportFile(db: Database, renderer: ReportRenderer, actor: 
     const f = found(stored, "The report file");
     file = { data: f.data, sha256: f.sha256, fileName: f.fileName, contentType: f.contentType };
   } else {
-    const data = await render(renderer, row, await metaFor(db, row, baseURL), kind);
+    const data = await renderer.render(row.content, await metaFor(db, row, baseURL), kind);
     file = { data, sha256: null, fileName: fileName(row, kind).replace(/(\.\w+)$/, "-DRAFT$1"), contentType: FILE_TYPES[kind] };
   }
   await db.transaction(async (tx) => {

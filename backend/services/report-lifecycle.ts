@@ -14,7 +14,7 @@ import type { Actor } from "../middleware/session";
 import { recordActivity } from "./activity";
 import { assertProjectOpen } from "./project-records";
 import { buildReportContent } from "./report-content";
-import { FILE_TYPES, fileName, metaFor, render, sha256 } from "./report-files";
+import { FILE_TYPES, fileName, metaFor, sha256 } from "./report-files";
 import type { ReportRenderer } from "./report-renderer";
 import { getReport, reportLabel, visibleRow, type ReportRow } from "./report-queries";
 import { listComments } from "./revisions";
@@ -236,7 +236,7 @@ export async function releaseReport(
   const releasedAt = new Date();
   const meta = await metaFor(db, row, baseURL, { status: "released", releasedAt: releasedAt.toISOString(), releasedByName: actor.name });
   const rendered = await Promise.all(
-    (["pdf", "xlsx", "csv"] as const).map(async (kind) => ({ kind, data: await render(renderer, row, meta, kind) })),
+    (["pdf", "xlsx", "csv"] as const).map(async (kind) => ({ kind, data: await renderer.render(row.content, meta, kind) })),
   );
   await db.transaction(async (tx) => {
     await writeVersioned(

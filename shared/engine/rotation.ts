@@ -56,28 +56,10 @@ export function tiltTo(nx: number, ny: number, nz: number, out: Mat3): Mat3 {
   return out;
 }
 
-/**
- * tiltTo of the surface z = a + b·x + c·y, i.e. tiltTo(normalize(−b, −c, 1)), with tiltTo's
- * body written out (the same operations): the trial code calls this per element, and where
- * V8's inlining budget ran out before the inner call, each call passed three boxed doubles,
- * most of the trial loop's garbage.
- */
+/** tiltTo of the surface z = a + b·x + c·y, i.e. tiltTo(normalize(−b, −c, 1)). */
 export function tiltToSlope(b: number, c: number, out: Mat3): Mat3 {
   const inv = 1 / Math.sqrt(1 + b * b + c * c);
-  const nx = -b * inv,
-    ny = -c * inv,
-    nz = inv;
-  const k = 1 / (1 + nz);
-  out[0] = 1 - nx * nx * k;
-  out[1] = -nx * ny * k;
-  out[2] = nx;
-  out[3] = -nx * ny * k;
-  out[4] = 1 - ny * ny * k;
-  out[5] = ny;
-  out[6] = -nx;
-  out[7] = -ny;
-  out[8] = nz;
-  return out;
+  return tiltTo(-b * inv, -c * inv, inv, out);
 }
 
 export function rotZ(a: number, out: Mat3): Mat3 {
