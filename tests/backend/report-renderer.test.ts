@@ -3,6 +3,7 @@
  * bytes as rendering in process, a failure answered with its message, a thread that dies
  * replaced at the next file.
  */
+import ExcelJS from "exceljs";
 import { afterAll, describe, expect, it } from "vitest";
 import { buildReportContent } from "@backend/services/report-content";
 import type { ReportMeta } from "@backend/services/report-pdf";
@@ -55,17 +56,28 @@ const META: ReportMeta = {
   snapshot: null,
 };
 
+async function sheetValues(xlsx: Buffer) {
+  const wb = new ExcelJS.Workbook();
+  await wb.xlsx.load(xlsx as unknown as ArrayBuffer);
+  return wb.worksheets.map((ws) => ({ name: ws.name, values: JSON.stringify(ws.getSheetValues()) }));
+}
+
 const logs: string[] = [];
 const renderer = new ReportRenderer((m) => logs.push(m));
 afterAll(() => renderer.stop());
 
 describe("report renderer thread", () => {
   it("gives the bytes the same file has when rendered in process", async () => {
-    for (const kind of ["pdf", "xlsx", "csv"] as const) {
+    for (const kind of ["pdf", "csv"] as const) {
       const [there, here] = await Promise.all([renderer.render(content, META, kind), renderFile(content, META, kind)]);
       expect(there.length, kind).toBeGreaterThan(100);
       expect(there.equals(here), kind).toBe(true);
     }
+    // a spreadsheet is a zip whose entries carry the time they were written (2 s steps), so two
+    // renders straddling a step differ in those bytes: the sheets' cells are compared instead
+    const [there, here] = await Promise.all([renderer.render(content, META, "xlsx"), renderFile(content, META, "xlsx")]);
+    expect(await sheetValues(there)).toEqual(await sheetValues(here));
+    expect((await sheetValues(there)).length).toBeGreaterThan(0);
   });
 
   it("answers a file that cannot be rendered with its message, and goes on rendering", async () => {
