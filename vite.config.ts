@@ -77,8 +77,9 @@ export default defineConfig({
           environment: "node",
           setupFiles: failOnErrors,
           include: ["tests/backend/**/*.test.ts"],
-          // the role probes do not depend on the database driver; they run once, under PGlite
-          exclude: ["tests/backend/roles.test.ts"],
+          // the role probes do not depend on the database driver, and the PGlite client's own test
+          // has nothing of PostgreSQL's to test: they run once, under PGlite
+          exclude: ["tests/backend/roles.test.ts", "tests/backend/pglite-client.test.ts"],
           globalSetup: ["tests/setup/postgres-global.ts"],
           testTimeout: 60_000,
           hookTimeout: 120_000,

@@ -1,12 +1,12 @@
 import { mkdirSync } from "node:fs";
 import { fileURLToPath } from "node:url";
-import { PGlite } from "@electric-sql/pglite";
 import type { PgDatabase, PgQueryResultHKT } from "drizzle-orm/pg-core";
 import { drizzle as drizzlePglite } from "drizzle-orm/pglite";
 import { migrate as migratePglite } from "drizzle-orm/pglite/migrator";
 import { drizzle as drizzlePg } from "drizzle-orm/node-postgres";
 import { migrate as migratePg } from "drizzle-orm/node-postgres/migrator";
 import pg from "pg";
+import { DrizzlePGlite } from "./pglite-client";
 import * as schema from "./schema";
 
 /**
@@ -51,7 +51,7 @@ export async function openDatabase(location: string, opts: { poolSize?: number; 
   if (!inMemory) mkdirSync(location, { recursive: true });
   // An in-memory database can start from a copy of another one's data folder (PGlite's
   // dumpDataDir), which skips initdb: the test suite starts each app from one migrated snapshot.
-  const client = inMemory ? new PGlite(opts.snapshot ? { loadDataDir: opts.snapshot } : {}) : new PGlite(location);
+  const client = inMemory ? new DrizzlePGlite(undefined, opts.snapshot ? { loadDataDir: opts.snapshot } : {}) : new DrizzlePGlite(location);
   await client.waitReady;
   const db = drizzlePglite({ client, schema });
   await migratePglite(db, { migrationsFolder });
