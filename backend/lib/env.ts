@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 
 /** The environment, parsed once at start-up; a bad value stops the server with a clear message. */
 const EnvSchema = z.object({

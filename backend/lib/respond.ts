@@ -8,7 +8,7 @@
  * docs/decisions/035-checked-responses.md
  */
 import type { Response } from "express";
-import type { z } from "zod";
+import type * as z from "zod";
 import type { FieldError } from "@shared/schemas/common";
 import { formatPath } from "@shared/schemas/field-issues";
 

@@ -7,7 +7,7 @@
  * docs/decisions/034-record-versions.md
  */
 import type { Request, Response } from "express";
-import type { z } from "zod";
+import type * as z from "zod";
 import { and, eq, sql, type SQL } from "drizzle-orm";
 import type { PgColumn, PgTable, PgUpdateSetSource } from "drizzle-orm/pg-core";
 import { IfMatchSchema, VersionBodySchema, versionTag } from "@shared/schemas/common";

@@ -1,6 +1,6 @@
 import { randomBytes } from "node:crypto";
 import { and, asc, desc, eq, ne, sql } from "drizzle-orm";
-import type { z } from "zod";
+import type * as z from "zod";
 import type { CreateInvitationSchema, Invitation, Member, Role, UpdateMemberSchema } from "@shared/schemas/api";
 import type { Auth } from "../auth";
 import type { Database } from "../db/client";

@@ -3,7 +3,7 @@
  * and the supplier: the content is frozen into the report row, so the PDF, the spreadsheet
  * and the CSV all print the same numbers, today and after release.
  */
-import { z } from "zod";
+import * as z from "zod";
 import { capabilityAsk } from "@shared/reports/capability";
 import { REPORT_CAUTIONS } from "@shared/reports/cautions";
 import { unitText } from "@shared/format";

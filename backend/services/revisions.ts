@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { alias, type SelectedFields } from "drizzle-orm/pg-core";
-import type { z } from "zod";
+import type * as z from "zod";
 import { diffRevisions } from "@shared/revisions/diff";
 import type {
   Requirement,

@@ -1,5 +1,5 @@
 import { and, asc, eq, inArray } from "drizzle-orm";
-import type { z } from "zod";
+import type * as z from "zod";
 import type { CreateContactSchema, CreateSupplierSchema, Supplier, UpdateSupplierSchema } from "@shared/schemas/api";
 import type { Database } from "../db/client";
 import { members, supplierContacts, suppliers, users } from "../db/schema";

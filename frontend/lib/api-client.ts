@@ -1,4 +1,4 @@
-import type { z } from "zod";
+import type * as z from "zod";
 import { ApiErrorSchema, versionTag, type FieldError } from "@shared/schemas/common";
 
 export type { FieldError };

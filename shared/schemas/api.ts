@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { IdSchema, RoleSchema, text, VersionBodySchema, VersionSchema } from "./common";
 
 export * from "./common";

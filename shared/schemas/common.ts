@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 
 /** Roles of a workspace member (DESIGN.md, "People and roles"). */
 export const ROLES = ["admin", "engineer", "reviewer", "supplier"] as const;

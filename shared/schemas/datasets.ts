@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { MEASURE_UNITS } from "../datasets/units";
 import { IdSchema, text, VersionBodySchema, VersionSchema } from "./common";
 

@@ -2,7 +2,7 @@
  * Problems found in a file or body, as a JSON path and a sentence ("elements[2].size.x": "...").
  * Shared by the stack and study files and the API's field errors.
  */
-import type { z } from "zod";
+import type * as z from "zod";
 import type { FieldError } from "./common";
 
 export type { FieldError };

@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { IdSchema, text } from "./common";
 
 /** What a notification is about; each person can turn the e-mail of each kind off. */

@@ -2,7 +2,7 @@
  * Supplier tolerance reports: API bodies, responses, and the frozen content a report is
  * printed from. Limits are named so the client's forms and the server agree.
  */
-import { z } from "zod";
+import * as z from "zod";
 import { DEFAULT_CPK, MAX_CPK, MIN_CPK } from "../reports/capability";
 import { IdSchema, text, VersionBodySchema, VersionSchema } from "./common";
 import { EnvelopeSchema } from "./result-file";

@@ -3,7 +3,7 @@
  * command-line runner writes and the API returns for a finished study. The engine builds
  * values of this type; the API can parse its responses with it.
  */
-import { z } from "zod";
+import * as z from "zod";
 
 const num = z.number();
 

@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { IdSchema, text, VersionBodySchema, VersionSchema } from "./common";
 import { RequirementSchema, type Requirement } from "./study-file";
 import { GeometryWarningSchema } from "./stack-help";

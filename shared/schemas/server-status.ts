@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 
 /** One worker process of the job queue (server mode), as last seen. */
 export const QueueWorkerSchema = z.object({

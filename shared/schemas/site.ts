@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { isoDate, queryNumber } from "./common";
 
 /** The WMM2025 is valid 2025.0–2030.0; the npm package refuses dates after late 2029. */

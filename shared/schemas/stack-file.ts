@@ -6,7 +6,7 @@
  * Every problem is reported with a JSON path (`elements[2].size.x`) and a sentence a
  * packaging engineer understands, so the API can pass them on as field errors.
  */
-import { z } from "zod";
+import * as z from "zod";
 import { text } from "./common";
 import { isSensorKind, SENSOR_KINDS, supportPoints } from "../engine/elements";
 

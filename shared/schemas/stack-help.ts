@@ -2,7 +2,7 @@
  * Help for entering a stack: typical tolerances, stack templates and the geometry warnings
  * a revision carries (`GET /api/typical-tolerances`, `GET /api/stack-templates`).
  */
-import { z } from "zod";
+import * as z from "zod";
 import { TYPICAL_APPLIES, TYPICAL_KINDS } from "../typical-tolerances";
 import { StackFileObjectSchema } from "./stack-file";
 import { RequirementSchema } from "./study-file";

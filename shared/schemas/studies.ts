@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { IdSchema, text } from "./common";
 import { AsBuiltEntrySchema, AsBuiltRecordSchema } from "./datasets";
 import { ResultFileSchema } from "./result-file";

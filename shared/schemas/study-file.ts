@@ -5,7 +5,7 @@
  * trials kept. `site` belongs to the API, which resolves it to `inclinationDeg`; the
  * engine accepts it and ignores it.
  */
-import { z } from "zod";
+import * as z from "zod";
 import { text } from "./common";
 import { headingPair, metricIds } from "../engine/compile";
 import { type FieldError, type StackFile, dedupe, formatPath, fromZodError, isSensorKind, MetaSchema, ToleranceSchema } from "./stack-file";

@@ -4,7 +4,7 @@
  * validator, like an ordinary study); answers are what GET /api/sweeps/:id and
  * GET /api/allocations/:id send.
  */
-import { z } from "zod";
+import * as z from "zod";
 import { IdSchema } from "./common";
 import { SiteSchema } from "./site";
 import { StudyStatusSchema } from "./studies";

@@ -5,7 +5,7 @@
 import express from "express";
 import type { AddressInfo } from "node:net";
 import { describe, expect, it } from "vitest";
-import { z } from "zod";
+import * as z from "zod";
 import { errorHandler } from "@backend/lib/errors";
 import { CHECK_RESPONSES, send } from "@backend/lib/respond";
 

@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it, vi } from "vitest";
-import { z } from "zod";
+import * as z from "zod";
 import { api, ApiError, apiRequest, withQuery } from "@frontend/lib/api-client";
 import { jsonResponse, mockFetch } from "./helpers";
 

@@ -1,6 +1,6 @@
 import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
 import { InvitationPreviewSchema } from "@shared/schemas/api";
-import type { z } from "zod";
+import type * as z from "zod";
 import { api } from "@frontend/lib/api-client";
 import { invitationKeys } from "./keys";
 

@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
-import { z } from "zod";
+import * as z from "zod";
 import { UpdateMemberSchema, type Member, type Supplier } from "@shared/schemas/api";
 import { RoleSchema, type Role } from "@shared/schemas/common";
 import { Alert } from "@frontend/components/ui/alert";

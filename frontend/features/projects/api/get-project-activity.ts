@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import type { z } from "zod";
+import type * as z from "zod";
 import { ActivityListSchema, type ActivitySchema } from "@shared/schemas/api";
 import { api } from "@frontend/lib/api-client";
 import { projectKeys } from "./keys";

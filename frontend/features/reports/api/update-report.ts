@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import type { z } from "zod";
+import type * as z from "zod";
 import { ReportSchema, type Report, type UpdateReportSchema } from "@shared/schemas/reports";
 import { api } from "@frontend/lib/api-client";
 import { refreshAfter } from "./invalidate";

@@ -2,7 +2,7 @@ import { useEffect, useMemo } from "react";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
 import { Link } from "react-router";
-import { z } from "zod";
+import * as z from "zod";
 import { DEFAULT_CPK } from "@shared/reports/capability";
 import { CreateReportSchema, type Report } from "@shared/schemas/reports";
 import { Alert } from "@frontend/components/ui/alert";

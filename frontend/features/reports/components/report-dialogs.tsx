@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
-import { z } from "zod";
+import * as z from "zod";
 import { ReleaseReportSchema, UpdateReportSchema, type Report } from "@shared/schemas/reports";
 import { ReturnRevisionSchema } from "@shared/schemas/revisions";
 import { Alert } from "@frontend/components/ui/alert";

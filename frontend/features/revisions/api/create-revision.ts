@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import type { z } from "zod";
+import type * as z from "zod";
 import { RevisionSchema, type CreateRevisionSchema, type Revision } from "@shared/schemas/revisions";
 import { projectKeys } from "@frontend/features/projects";
 import { api } from "@frontend/lib/api-client";

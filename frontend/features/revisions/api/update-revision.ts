@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import type { z } from "zod";
+import type * as z from "zod";
 import { RevisionSchema, type Revision, type UpdateRevisionSchema } from "@shared/schemas/revisions";
 import { api } from "@frontend/lib/api-client";
 import { revisionKeys } from "./keys";

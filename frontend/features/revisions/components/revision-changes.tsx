@@ -1,4 +1,4 @@
-import type { z } from "zod";
+import type * as z from "zod";
 import type { StackChangeSchema } from "@shared/schemas/revisions";
 import { cn } from "@frontend/lib/cn";
 import { useRevisionDiff } from "../api/get-revision-diff";

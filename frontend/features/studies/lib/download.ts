@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { api } from "@frontend/lib/api-client";
 import { downloadBlob } from "@frontend/lib/download";
 

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import type { z } from "zod";
+import type * as z from "zod";
 import { SupplierContactSchema, type CreateContactSchema } from "@shared/schemas/api";
 import { api } from "@frontend/lib/api-client";
 import { supplierKeys } from "./keys";

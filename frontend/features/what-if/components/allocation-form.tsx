@@ -1,7 +1,7 @@
 import { useMemo } from "react";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
-import { z } from "zod";
+import * as z from "zod";
 import { stackSources } from "@shared/datasets/sources";
 import type { CreateAllocation } from "@shared/schemas/what-if";
 import type { StackFile } from "@shared/schemas/stack-file";

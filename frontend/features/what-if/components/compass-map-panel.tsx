@@ -1,7 +1,7 @@
 import { useMemo, useState } from "react";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
-import { z } from "zod";
+import * as z from "zod";
 import type { StudyFile } from "@shared/schemas/study-file";
 import { WMM_FIRST_DATE, WMM_LAST_DATE } from "@shared/schemas/site";
 import { INCLINATION } from "@shared/whatif/parameters";

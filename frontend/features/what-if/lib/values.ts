@@ -1,5 +1,5 @@
 /** Sweep values as the form takes them: a list typed by hand, or evenly spaced from a range. */
-import { z } from "zod";
+import * as z from "zod";
 import { MAX_SWEEP_VALUES } from "@shared/schemas/what-if";
 
 /** "0.2, 0.4 0.6" → [0.2, 0.4, 0.6]; an error names the first entry that is not a number. */
