@@ -100,6 +100,16 @@ export class DrizzlePGlite extends PGlite {
   }
 
   async #runPrepared<T>(query: string, params: unknown[], options: QueryOptions | undefined): Promise<Results<T>> {
+    try {
+      return await this.#bindAndExecute<T>(query, params, options);
+    } catch (e) {
+      // the statement was dropped behind the cache's back (DEALLOCATE, DISCARD): prepare it again
+      if (!(e instanceof protocol.messages.DatabaseError && e.code === "26000" && this.#statements.delete(query))) throw e;
+      return this.#bindAndExecute<T>(query, params, options);
+    }
+  }
+
+  async #bindAndExecute<T>(query: string, params: unknown[], options: QueryOptions | undefined): Promise<Results<T>> {
     const run = (message: Uint8Array) => this.execProtocolStream(message, { syncToFs: false, onNotice: options?.onNotice });
     const messages: BackendMessage[] = [];
     try {

@@ -106,6 +106,8 @@ describe("DrizzlePGlite (PGlite with drizzle's parsers and named statements)", (
     // an error in binding (not a uuid), then one in parsing (no such column)
     await expect(fast.query("select * from things where ref = $1", ["not-a-uuid"])).rejects.toMatchObject({ code: "22P02" });
     await expect(fast.query("select nothing from things where id = $1", [1])).rejects.toMatchObject({ code: "42703" });
+    // statements dropped behind the client's back are prepared again
+    await fast.exec("deallocate all");
     await fast.query(insert, ["another"]);
     const { rows: names } = await fast.query<{ name: string }>("select name from things where id > $1 order by id", [0]);
     expect(names.map((r) => r.name)).toEqual(["only once", "another"]);
