@@ -117,8 +117,9 @@ export interface BlockPartial {
   xty: Float64Array | null;
 }
 
+/** Metric k's store, its occupied buckets known from the state's extremes (no scan). */
 export function metricHistogram(st: WorkerState, k: number): LogHistogram {
-  return metricStore(st.hist.subarray(k * METRIC_LEN, (k + 1) * METRIC_LEN));
+  return metricStore(st.hist.subarray(k * METRIC_LEN, (k + 1) * METRIC_LEN)).knownExtremes(st.minAbs[k], st.maxAbs[k]);
 }
 
 export function envelopeHistogram(st: WorkerState, k: number): LogHistogram {
@@ -427,26 +428,25 @@ function accumulateTri(tri: Float64Array, z: Float64Array, len: number): void {
   }
 }
 
-/** Merge worker states (exact: integer counts, extremes, worst lists). */
+/**
+ * Merge worker states into the first, which is returned (exact: integer counts, extremes,
+ * worst lists); the others are left as they were. Callers hand over states they own (each
+ * engine thread's, received once). A metric's counts are added over the buckets its extremes
+ * say are occupied (histogram.ts knownExtremes), a few octaves of the forty.
+ */
 export function mergeWorkerStates(states: WorkerState[]): WorkerState {
-  const [first, ...rest] = states;
-  const out: WorkerState = {
-    ...first,
-    hist: first.hist.slice(),
-    minAbs: first.minAbs.slice(),
-    maxAbs: first.maxAbs.slice(),
-    min: first.min.slice(),
-    max: first.max.slice(),
-    pass: first.pass.slice(),
-    env: first.env.slice(),
-    envMin: first.envMin.slice(),
-    envMax: first.envMax.slice(),
-    worstVal: first.worstVal.slice(),
-    worstTrial: first.worstTrial.slice(),
-  };
+  const [out, ...rest] = states;
+  const perSign = METRIC_LEN / 2;
   for (const s of rest) {
     out.n += s.n;
-    for (let i = 0; i < out.hist.length; i++) out.hist[i] += s.hist[i];
+    for (let k = 0; k < out.nMetrics; k++) {
+      const o = k * METRIC_LEN;
+      const [first, last] = metricStore(s.hist.subarray(o, o + METRIC_LEN)).rangeOfExtremes(s.minAbs[k], s.maxAbs[k]);
+      for (let b = first; b <= last; b++) {
+        out.hist[o + b] += s.hist[o + b];
+        out.hist[o + perSign + b] += s.hist[o + perSign + b];
+      }
+    }
     for (let i = 0; i < out.env.length; i++) out.env[i] += s.env[i];
     for (let k = 0; k < out.nMetrics; k++) {
       out.minAbs[k] = Math.min(out.minAbs[k], s.minAbs[k]);

@@ -76,7 +76,7 @@ function addTrack(st: TrackState, v: number, limit: number): void {
 
 /** |v| percentiles of a tracked metric, from one pass over its buckets. */
 function trackPercentiles(t: TrackState, qs: number[]): number[] {
-  return t.hist.quantilesAbs(qs, t.minAbs, t.maxAbs);
+  return t.hist.knownExtremes(t.minAbs, t.maxAbs).quantilesAbs(qs, t.minAbs, t.maxAbs);
 }
 
 export class Coordinator {

@@ -67,6 +67,8 @@ export class LogHistogram {
   private readonly base: number;
   /** lower edge of each magnitude bucket (lowerEdgesOf) */
   private readonly lower: Float64Array;
+  /** occupied()'s answer while the counts stay as they are (add and merge forget it) */
+  private range: [number, number] | null = null;
 
   /** buckets of 2^-bits per octave for |v| in [2^lowExp, 2^(lowExp + octaves)) */
   constructor(bits: number, lowExp: number, octaves: number, counts?: Uint32Array) {
@@ -99,19 +101,44 @@ export class LogHistogram {
 
   add(v: number): void {
     this.counts[this.index(v)]++;
+    this.range = null;
   }
 
   merge(o: LogHistogram): void {
     const c = this.counts,
       d = o.counts;
     for (let i = 0; i < c.length; i++) c[i] += d[i];
+    this.range = null;
   }
 
   /**
    * First and last magnitude bucket holding any value (either sign), [0, −1] when empty:
-   * the scans below visit only these (a metric fills a few octaves of the forty).
+   * the scans below visit only these (a metric fills a few octaves of the forty). Found once
+   * and kept until the counts change, or taken from the extremes (knownExtremes).
    */
   occupied(): [number, number] {
+    return (this.range ??= this.scanOccupied());
+  }
+
+  /**
+   * The occupied buckets from the smallest and largest |v| counted, without a scan: exact
+   * when every value counted other than NaN has minAbs <= |v| <= maxAbs (a NaN counts in the
+   * overflow bucket, which is looked at), as the engine's stores keep them. Returns this.
+   */
+  knownExtremes(minAbs: number, maxAbs: number): this {
+    this.range = this.rangeOfExtremes(minAbs, maxAbs);
+    return this;
+  }
+
+  /** occupied() of the counts as knownExtremes describes them (no state kept). */
+  rangeOfExtremes(minAbs: number, maxAbs: number): [number, number] {
+    const P = this.perSign;
+    const nan = this.counts[P - 1] !== 0 || this.counts[2 * P - 1] !== 0;
+    if (!(minAbs <= maxAbs)) return nan ? [P - 1, P - 1] : [0, -1];
+    return [this.index(minAbs), nan ? P - 1 : this.index(maxAbs)];
+  }
+
+  private scanOccupied(): [number, number] {
     const P = this.perSign;
     const c = this.counts;
     let first = 0,
@@ -139,19 +166,7 @@ export class LogHistogram {
 
   /** Several |v| percentiles (as quantileAbs), from one pass over the buckets. */
   quantilesAbs(qs: number[], minAbs: number, maxAbs: number): number[] {
-    const P = this.perSign;
-    const c = this.counts;
-    const [first, last] = this.occupied();
-    const ranks = new RankedBuckets();
-    for (let b = first; b <= last; b++) ranks.push(b, c[b] + c[P + b]);
-    return qs.map((q) =>
-      ranks.quantile(q, minAbs, maxAbs, (j, idx) => {
-        const b = ranks.bucket[j];
-        const l = this.lower[b],
-          u = this.upper(b, maxAbs);
-        return l + ((idx - ranks.before[j] + 0.5) / ranks.count[j]) * (u - l);
-      }),
-    );
+    return this.quantiles(qs, minAbs, maxAbs, false, maxAbs);
   }
 
   /** Signed percentile, clamped to the observed [min, max]. */
@@ -161,30 +176,82 @@ export class LogHistogram {
 
   /** Several signed percentiles (as quantileSigned), from one pass over the buckets. */
   quantilesSigned(qs: number[], min: number, max: number): number[] {
+    return this.quantiles(qs, min, max, true, Math.max(Math.abs(min), Math.abs(max)));
+  }
+
+  /**
+   * Percentiles q (rank q·(n − 1), linear between neighbouring order statistics), the extreme
+   * order statistics taken exactly from lowest and highest, clamped to them; signed in value
+   * order, else of |v|. The ranks are looked up in one walk over the buckets (orderValues).
+   */
+  private quantiles(qs: number[], lowest: number, highest: number, signed: boolean, maxAbs: number): number[] {
+    const n = this.occupiedTotal();
+    if (n === 0) return qs.map(() => NaN);
+    // the order statistics each q needs (rank lo, and hi when between two), looked up together
+    const ranks: number[] = [];
+    for (const q of qs) {
+      const r = q * (n - 1);
+      const lo = Math.floor(r);
+      ranks.push(lo, Math.min(n - 1, lo + 1));
+    }
+    const inner = ranks.filter((idx) => idx > 0 && idx < n - 1);
+    const found = this.orderValues(inner, signed, maxAbs);
+    const at = (idx: number): number => {
+      if (idx >= n - 1) return highest;
+      if (idx <= 0) return lowest;
+      return found.get(idx) as number;
+    };
+    return qs.map((q, i) => {
+      const r = q * (n - 1);
+      const lo = ranks[2 * i],
+        hi = ranks[2 * i + 1],
+        frac = r - lo;
+      const v = frac === 0 ? at(lo) : at(lo) + frac * (at(hi) - at(lo));
+      return Math.min(highest, Math.max(lowest, v));
+    });
+  }
+
+  /** Number of values counted in the occupied buckets (all of them). */
+  private occupiedTotal(): number {
     const P = this.perSign;
     const c = this.counts;
-    const maxAbs = Math.max(Math.abs(min), Math.abs(max));
-    // value order: negative buckets from the largest magnitude down, then the positive ones
-    // (bucket numbers of the negative side stored as −1 − b)
     const [first, last] = this.occupied();
-    const ranks = new RankedBuckets();
-    for (let b = last; b >= first; b--) ranks.push(-1 - b, c[P + b]);
-    for (let b = first; b <= last; b++) ranks.push(b, c[b]);
-    return qs.map((q) =>
-      ranks.quantile(q, min, max, (j, idx) => {
-        const b = ranks.bucket[j];
-        const k = ranks.count[j];
-        const before = ranks.before[j];
-        if (b < 0) {
-          const l = this.lower[-1 - b],
-            u = this.upper(-1 - b, maxAbs);
-          return -(u - ((idx - before + 0.5) / k) * (u - l));
-        }
+    let n = 0;
+    for (let b = first; b <= last; b++) n += c[b] + c[P + b];
+    return n;
+  }
+
+  /**
+   * The order statistics of the given ranks (0 < idx < n − 1), in one walk over the occupied
+   * buckets in value order (signed: the negative side from the largest magnitude down, then
+   * the positive one; else by magnitude, both signs together): the value of rank idx lies in
+   * the first bucket whose count reaches past it, its values taken as evenly spread there.
+   * Counts are integers below 2^53: the running sums are exact.
+   */
+  private orderValues(ranks: number[], signed: boolean, maxAbs: number): Map<number, number> {
+    const P = this.perSign;
+    const c = this.counts;
+    const [first, last] = this.occupied();
+    const sorted = [...new Set(ranks)].sort((x, y) => x - y);
+    const out = new Map<number, number>();
+    let next = 0,
+      before = 0;
+    const visit = (b: number, k: number, negative: boolean) => {
+      while (next < sorted.length && sorted[next] < before + k) {
+        const idx = sorted[next++];
         const l = this.lower[b],
           u = this.upper(b, maxAbs);
-        return l + ((idx - before + 0.5) / k) * (u - l);
-      }),
-    );
+        out.set(idx, negative ? -(u - ((idx - before + 0.5) / k) * (u - l)) : l + ((idx - before + 0.5) / k) * (u - l));
+      }
+      before += k;
+    };
+    if (signed) {
+      for (let b = last; b >= first && next < sorted.length; b--) if (c[P + b]) visit(b, c[P + b], true);
+      for (let b = first; b <= last && next < sorted.length; b++) if (c[b]) visit(b, c[b], false);
+    } else {
+      for (let b = first; b <= last && next < sorted.length; b++) if (c[b] + c[P + b]) visit(b, c[b] + c[P + b], false);
+    }
+    return out;
   }
 
   /**
@@ -195,42 +262,32 @@ export class LogHistogram {
   shortestInterval(p: number, min: number, max: number): [number, number] {
     const P = this.perSign;
     const c = this.counts;
-    // non-empty buckets in value order, with their bounds and cumulative counts
-    const lo: number[] = [],
-      hi: number[] = [],
-      cum: number[] = [];
-    let n = 0;
     const maxAbs = Math.max(Math.abs(min), Math.abs(max));
     const [first, last] = this.occupied();
-    for (let b = last; b >= first; b--) {
-      const k = c[P + b];
-      if (!k) continue;
-      lo.push(-this.upper(b, maxAbs));
-      hi.push(-this.lower[b]);
-      n += k;
-      cum.push(n);
-    }
-    for (let b = first; b <= last; b++) {
-      const k = c[b];
-      if (!k) continue;
-      lo.push(this.lower[b]);
-      hi.push(this.upper(b, maxAbs));
-      n += k;
-      cum.push(n);
-    }
+    const n = this.occupiedTotal();
     if (n === 0) return [NaN, NaN];
-    // the value of rank q·(n − 1), for q that only grow: the bucket holding it (the first
-    // with cum > rank) is found by walking on from the last one, not by a search each time
+    // the buckets in value order, position t: the negative side (t < W) from the largest
+    // magnitude down, then the positive one; [lo, hi) its bounds, k its count
+    const W = last - first + 1;
+    const count = (t: number) => (t < W ? c[P + last - t] : c[first + t - W]);
+    // the value of rank q·(n − 1), for q that only grow: the bucket holding it (the first whose
+    // count reaches past the rank) is found by walking on from the last one, not by a search
     const cursor = () => {
-      let a = 0;
+      let t = 0,
+        before = 0,
+        k = count(0);
       return (q: number): number => {
         const idx = q * (n - 1);
         if (idx <= 0) return min;
         if (idx >= n - 1) return max;
-        while (cum[a] <= idx) a++;
-        const before = a > 0 ? cum[a - 1] : 0;
-        const k = cum[a] - before;
-        const v = lo[a] + ((idx - before + 0.5) / k) * (hi[a] - lo[a]);
+        while (before + k <= idx) {
+          before += k;
+          k = count(++t);
+        }
+        const b = t < W ? last - t : first + t - W;
+        const lo = t < W ? -this.upper(b, maxAbs) : this.lower[b],
+          hi = t < W ? -this.lower[b] : this.upper(b, maxAbs);
+        const v = lo + ((idx - before + 0.5) / k) * (hi - lo);
         return Math.min(max, Math.max(min, v));
       };
     };
@@ -294,57 +351,5 @@ export class LogHistogram {
     }
     const edges = Array.from({ length: nBins + 1 }, (_, i) => lo + i * width);
     return { edges, counts };
-  }
-}
-
-/**
- * The non-empty buckets of a histogram in value order, with the count before each, so that
- * the order statistic of rank idx is found by bisection instead of a scan per percentile.
- * Counts are integers below 2^53: the sums are exact, the same as a running scan's.
- */
-class RankedBuckets {
-  readonly bucket: number[] = [];
-  readonly count: number[] = [];
-  readonly before: number[] = [];
-  total = 0;
-
-  push(bucket: number, k: number): void {
-    if (k === 0) return;
-    this.bucket.push(bucket);
-    this.count.push(k);
-    this.before.push(this.total);
-    this.total += k;
-  }
-
-  /** index j of the bucket holding order statistic idx (0 ≤ idx < total) */
-  private find(idx: number): number {
-    let a = 0,
-      z = this.count.length - 1;
-    while (a < z) {
-      const mid = (a + z) >> 1;
-      if (idx < this.before[mid] + this.count[mid]) z = mid;
-      else a = mid + 1;
-    }
-    return a;
-  }
-
-  /**
-   * The percentile q (rank q·(n − 1), linear between neighbouring order statistics), the
-   * extreme order statistics taken exactly from lowest and highest, clamped to them.
-   */
-  quantile(q: number, lowest: number, highest: number, inBucket: (j: number, idx: number) => number): number {
-    const n = this.total;
-    if (n === 0) return NaN;
-    const r = q * (n - 1);
-    const lo = Math.floor(r),
-      hi = Math.min(n - 1, lo + 1),
-      frac = r - lo;
-    const at = (idx: number): number => {
-      if (idx >= n - 1) return highest;
-      if (idx <= 0) return lowest;
-      return inBucket(this.find(idx), idx);
-    };
-    const v = frac === 0 ? at(lo) : at(lo) + frac * (at(hi) - at(lo));
-    return Math.min(highest, Math.max(lowest, v));
   }
 }

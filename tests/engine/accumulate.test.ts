@@ -4,7 +4,15 @@
 // trials sorted by |value| (ties by trial index) and the heading envelope of the first
 // ENV_TRIALS_PER_BLOCK trials.
 import { describe, expect, it } from "vitest";
-import { createWorkerState, ENV_TRIALS_PER_BLOCK, envelopeStore, metricStore, runBlock, type WorkerState } from "@shared/engine/accumulate";
+import {
+  createWorkerState,
+  ENV_TRIALS_PER_BLOCK,
+  envelopeStore,
+  mergeWorkerStates,
+  metricStore,
+  runBlock,
+  type WorkerState,
+} from "@shared/engine/accumulate";
 import { prepareStudy } from "@shared/engine/plan";
 import { BLOCK_SIZE } from "@shared/engine/random";
 import { blockSampler, blockTrials } from "@shared/engine/sampling";
@@ -110,4 +118,34 @@ describe("a block's accumulation equals adding its trials one by one", () => {
       expect(partial.tracked.length).toBe(st.n * nT);
     });
   }
+});
+
+describe("merging worker states", () => {
+  const prep = prepareStudy(stack, study, { trials: 3 * BLOCK_SIZE, seed: 5 });
+  const run = (blocks: number[]) => {
+    const st = createWorkerState(prep.model, prep.plan);
+    for (const b of blocks) runBlock(prep.model, prep.plan, st, b);
+    return st;
+  };
+
+  it("adds into the first state exactly what one state running every block holds, and leaves the others as they were", () => {
+    const whole = run([0, 1, 2]);
+    const a = run([1]),
+      b = run([0, 2]);
+    const bBefore = structuredClone(b);
+    const merged = mergeWorkerStates([a, b]);
+    expect(merged).toBe(a);
+    // first index where two arrays differ, −1 if none (a deep equality of 1.9 million counts is slow)
+    const differsAt = (x: ArrayLike<number>, y: ArrayLike<number>) => {
+      if (x.length !== y.length) return -2;
+      for (let i = 0; i < x.length; i++) if (!Object.is(x[i], y[i])) return i;
+      return -1;
+    };
+    const arrays = ["hist", "env", "minAbs", "maxAbs", "min", "max", "pass", "envMin", "envMax", "worstVal", "worstTrial"] as const;
+    // counts added over only the buckets the extremes call occupied: every bucket must still agree
+    for (const key of arrays) expect(differsAt(merged[key], whole[key]), key).toBe(-1);
+    expect(merged.n).toBe(whole.n);
+    for (const key of arrays) expect(differsAt(b[key], bBefore[key]), key).toBe(-1);
+    expect(b.n).toBe(bBefore.n);
+  });
 });

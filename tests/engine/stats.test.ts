@@ -74,6 +74,40 @@ describe("bounded percentile store", () => {
     }
   });
 
+  it("the occupied buckets taken from the extremes are those a scan finds, NaN, zeros, infinities and empty stores included", () => {
+    const g = blockStream(3, 2);
+    const normal = compileDist({ dist: "normal", tol: 3 });
+    const sets: number[][] = [
+      [],
+      [NaN, NaN],
+      [0, -0],
+      [1e-30, -2e-9, 3, -7e5],
+      [NaN, 0.25, -0.5],
+      [Infinity, -1e-3, 2],
+      [-Infinity, NaN],
+      Array.from({ length: 20_000 }, () => sampleDist(normal, g.nextOpen01()) * 1e-3),
+    ];
+    for (const values of sets) {
+      const scanned = metricStore();
+      // the extremes as the engine keeps them: NaN leaves them alone
+      let minAbs = Infinity,
+        maxAbs = 0;
+      for (const v of values) {
+        scanned.add(v);
+        const a = Math.abs(v);
+        if (a < minAbs) minAbs = a;
+        if (a > maxAbs) maxAbs = a;
+      }
+      const known = metricStore(scanned.counts.slice()).knownExtremes(minAbs, maxAbs);
+      expect(known.occupied(), String(values.slice(0, 4))).toEqual(scanned.occupied());
+      if (values.length > 100) {
+        const [mn, mx] = [Math.min(...values), Math.max(...values)];
+        expect(known.quantilesSigned([0.025, 0.5, 0.975], mn, mx)).toEqual(scanned.quantilesSigned([0.025, 0.5, 0.975], mn, mx));
+        expect(known.shortestInterval(0.95, mn, mx)).toEqual(scanned.shortestInterval(0.95, mn, mx));
+      }
+    }
+  });
+
   it("merging stores adds counts exactly, in any order", () => {
     const a = metricStore(),
       b = metricStore(),
