@@ -7,9 +7,8 @@
  * does not validate gives the same field messages as the API, on stderr, exit code 2.
  */
 import { readFileSync, writeFileSync } from "node:fs";
-import { runStudyOnThreads, threadsForTrials } from "../engine/runner";
-import { validateStackFile, type FieldError } from "@shared/schemas/stack-file";
-import { validateStudy, MAX_TRIALS } from "@shared/schemas/study-file";
+import { runStudyOnThreads, startStudyThreads, threadsForTrials } from "../engine/runner";
+import type { FieldError } from "@shared/schemas/stack-file";
 import type { ResultFile } from "@shared/schemas/result-file";
 
 const USAGE = "usage: npm run study -- STACK.json STUDY.json --out RESULT.json [--threads N] [--trials N] [--seed S] [--timings]";
@@ -46,7 +45,8 @@ function parseArgs(argv: string[]) {
     studyPath: pos[1],
     out: opt.out,
     threads: int("threads", 1, 256),
-    trials: int("trials", 1, MAX_TRIALS),
+    // at most MAX_TRIALS: checked once the schemas are loaded (main)
+    trials: int("trials", 1, Number.MAX_SAFE_INTEGER),
     seed: int("seed", 0, Number.MAX_SAFE_INTEGER),
     timings,
   };
@@ -110,19 +110,32 @@ async function main() {
     throw e;
   });
   const args = parseArgs(process.argv.slice(2));
-  const stackV = validateStackFile(readJson(args.stackPath, "stack file"));
+  const stackJson = readJson(args.stackPath, "stack file");
+  const studyJson = readJson(args.studyPath, "study file");
+  // Unless told, as many threads as the study's size pays for (one for a small study), from
+  // the trials the file declares. They start before the schemas load (a dynamic import: the
+  // bundle evaluates zod's schemas only then) and the files are validated, which their start
+  // (about 0.1 s) overlaps; a file that does not validate ends the process, threads and all.
+  const declared = (studyJson as { trials?: unknown } | null)?.trials;
+  const threads =
+    args.threads ??
+    threadsForTrials(args.trials ?? (Number.isSafeInteger(declared) && (declared as number) > 0 ? (declared as number) : 1));
+  const pool = startStudyThreads(threads);
+  const { validateStackFile } = await import("@shared/schemas/stack-file");
+  const { validateStudy, MAX_TRIALS } = await import("@shared/schemas/study-file");
+  if (args.trials !== undefined && args.trials > MAX_TRIALS)
+    fail([`--trials must be a whole number from 1 to ${MAX_TRIALS}, got ${args.trials}`]);
+  const stackV = validateStackFile(stackJson);
   if (!stackV.ok) report("stack file", args.stackPath, stackV.issues);
-  const studyV = validateStudy(readJson(args.studyPath, "study file"), stackV.stack);
+  const studyV = validateStudy(studyJson, stackV.stack);
   if (!studyV.ok) report("study file", args.studyPath, studyV.issues);
-  // unless told, as many threads as the study's size pays for (one for a small study)
-  const threads = args.threads ?? threadsForTrials(args.trials ?? studyV.study.trials);
   const t0 = performance.now();
   let lastPct = -1;
   // ms since the process started (performance.timeOrigin)
   let firstBlockAt = NaN,
     lastBlockAt = NaN;
   const result = await runStudyOnThreads(stackV.stack, studyV.study, {
-    threads,
+    pool,
     trials: args.trials,
     seed: args.seed,
     onProgress: ({ trialsDone, trialsTotal }) => {

@@ -102,5 +102,26 @@ describe("npm run study", () => {
     ]);
     expect(o.code).toBe(2);
     expect(o.stderr).toMatch(/--trials must be a whole number/);
+    // the upper bound is the study schema's, checked once the schemas are loaded
+    const big = await run([
+      "tests/fixtures/stack-reference.json",
+      "tests/fixtures/study-reference.json",
+      "--out",
+      join(dir, "w.json"),
+      "--trials",
+      "10000001",
+    ]);
+    expect(big.code).toBe(2);
+    expect(big.stderr).toContain("--trials must be a whole number from 1 to 10000000, got 10000001");
+  });
+
+  it("without --trials, the threads follow the trials the study file declares", async () => {
+    // the threads start before the file is validated, from its raw trials field
+    const p = join(dir, "small-study.json");
+    writeFileSync(p, JSON.stringify({ ...(fixture("study-reference.json") as object), trials: 4096 }));
+    const r = await run(["tests/fixtures/stack-reference.json", p, "--out", join(dir, "s.json")]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain("4,096 trials");
+    expect(r.stdout).toContain("· 1 thread ·");
   });
 });
