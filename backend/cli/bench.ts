@@ -108,13 +108,13 @@ async function engine() {
         );
         walls.push((performance.now() - t) / 1000);
         if (run.status !== 0) throw new Error(`the study command failed: ${run.stderr}`);
-        // handed to the engine, first block back, last block back, result (ms since process start)
+        // handed to the engine, first trial started, first block back, last block back, result (ms since process start)
         phases.push(cliTimings(run.stderr));
       }
       const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[2];
       const phase = (k: number) => fmt(median(phases.map((p) => p[k])));
       out(
-        `${fmt(trials)} trials from the command line (npm run study without npm, ${threadsLabel(trials)}), process start to exit: median ${median(walls).toFixed(2)} s (runs ${walls.map((w) => w.toFixed(2)).join(", ")}); medians in ms since process start: study handed to the engine ${phase(0)}, first block back ${phase(1)}, last block back ${phase(2)}, result ${phase(3)} · ${load()}`,
+        `${fmt(trials)} trials from the command line (npm run study without npm, ${threadsLabel(trials)}), process start to exit: median ${median(walls).toFixed(2)} s (runs ${walls.map((w) => w.toFixed(2)).join(", ")}); medians in ms since process start: study handed to the engine ${phase(0)}, first trial started ${phase(1)}, first block back ${phase(2)}, last block back ${phase(3)}, result ${phase(4)} · ${load()}`,
       );
     }
   } finally {
@@ -238,8 +238,8 @@ async function api() {
 function cliTimings(stderr: string): number[] {
   const line = stderr.split("\n").find((l) => l.startsWith("timings"));
   const nums = line?.match(/[\d,]+(?= ·|$)/g)?.map((n) => Number(n.replace(/,/g, "")));
-  if (!nums || nums.length < 4) throw new Error(`no timings from the study command: ${stderr}`);
-  return nums.slice(0, 4);
+  if (!nums || nums.length < 5) throw new Error(`no timings from the study command: ${stderr}`);
+  return nums.slice(0, 5);
 }
 
 async function main() {

@@ -2,8 +2,9 @@
  * npm run study -- STACK.json STUDY.json --out RESULT.json [--threads N] [--trials N] [--seed S] [--timings]
  *
  * Writes the result file (MODEL.md section 11) and prints a short summary. --timings adds one
- * line on stderr: when the first and the last block came back and the result was written, in ms
- * since the process started (what `npm run bench` reports of a command-line study). A file that
+ * line on stderr: when the study was handed to the engine, its first trial started on an engine
+ * thread, the first and the last block came back and the result was written, in ms since the
+ * process started (what `npm run bench` reports of a command-line study). A file that
  * does not validate gives the same field messages as the API, on stderr, exit code 2.
  */
 import { readFileSync, writeFileSync } from "node:fs";
@@ -132,14 +133,16 @@ async function main() {
   const t0 = performance.now();
   let lastPct = -1;
   // ms since the process started (performance.timeOrigin)
-  let firstBlockAt = NaN,
+  let firstTrialAt = NaN,
+    firstBlockAt = NaN,
     lastBlockAt = NaN;
   const result = await runStudyOnThreads(stackV.stack, studyV.study, {
     pool,
     trials: args.trials,
     seed: args.seed,
-    onProgress: ({ trialsDone, trialsTotal }) => {
+    onProgress: ({ trialsDone, trialsTotal, firstTrialAt: started }) => {
       if (Number.isNaN(firstBlockAt)) firstBlockAt = performance.now();
+      if (started !== undefined) firstTrialAt = started - performance.timeOrigin;
       lastBlockAt = performance.now();
       const pct = Math.floor((100 * trialsDone) / trialsTotal / 10) * 10;
       if (pct > lastPct && process.stderr.isTTY) {
@@ -157,7 +160,7 @@ async function main() {
   if (args.timings) {
     const ms = (t: number) => Math.round(t).toLocaleString("en-US");
     process.stderr.write(
-      `timings (ms since the process started): study handed to the engine ${ms(t0)} · first block back ${ms(firstBlockAt)} · last block back ${ms(lastBlockAt)} · result ${ms(resultAt)} · written ${ms(performance.now())}\n`,
+      `timings (ms since the process started): study handed to the engine ${ms(t0)} · first trial started ${ms(firstTrialAt)} · first block back ${ms(firstBlockAt)} · last block back ${ms(lastBlockAt)} · result ${ms(resultAt)} · written ${ms(performance.now())}\n`,
     );
   }
 }

@@ -109,6 +109,8 @@ interface Job {
   failed: Error | null;
   wake: (() => void) | null;
   onProgress?: (p: Progress) => void;
+  /** when the first of its blocks started on a worker (ms since the epoch), NaN before */
+  firstTrialAt: number;
   /** the worker computing the result's model parts, and their promise (null: not asked) */
   parts: { on: PoolWorker; promise: Promise<ResultParts | null>; resolve: (p: ResultParts | null) => void } | null;
 }
@@ -157,6 +159,7 @@ export class EnginePool {
       failed: null,
       wake: null,
       onProgress: opts.onProgress,
+      firstTrialAt: NaN,
       parts: null,
     };
     this.jobs.set(job.id, job);
@@ -246,10 +249,12 @@ export class EnginePool {
     if (msg.type === "block" || msg.type === "dropped" || (msg.type === "error" && msg.block !== undefined)) p.inFlight--;
     if (msg.type === "block" && job && !job.failed) {
       const partial = msg.partial as BlockPartial;
+      if (!(msg.startedAt >= job.firstTrialAt)) job.firstTrialAt = msg.startedAt;
       // a block run again after a worker died: its partial was folded the first time
       if (!job.delivered.has(partial.block)) {
         job.delivered.add(partial.block);
-        if (job.coord.add(partial)) job.onProgress?.({ trialsDone: job.coord.trials, trialsTotal: job.prep.plan.trials });
+        if (job.coord.add(partial))
+          job.onProgress?.({ trialsDone: job.coord.trials, trialsTotal: job.prep.plan.trials, firstTrialAt: job.firstTrialAt });
       }
       this.notify(job);
     } else if (msg.type === "state" && job) {

@@ -31,7 +31,8 @@ export type ToWorker =
   /** the live estimate of a validated stack (shared/engine/live-estimate.ts), answered at once */
   | { type: "estimate"; request: number; stack: StackFile; live: LiveStudy };
 export type FromWorker =
-  | { type: "block"; job: number; partial: ReturnType<typeof runBlock> }
+  /** startedAt: when the block's first trial started, ms since the epoch (timeOrigin + now: comparable across threads) */
+  | { type: "block"; job: number; partial: ReturnType<typeof runBlock>; startedAt: number }
   | { type: "dropped"; job: number; block: number }
   | { type: "state"; job: number; state: WorkerState }
   /** null when they could not be computed here (the pool then computes them itself) */
@@ -83,8 +84,9 @@ port.on("message", (msg: ToWorker) => {
       const j = jobs.get(msg.job);
       // closed (cancelled) while the block waited: still answer, the pool counts replies
       if (!j) return port.postMessage({ type: "dropped", job: msg.job, block: msg.block } satisfies FromWorker);
+      const startedAt = performance.timeOrigin + performance.now();
       const partial = runBlock(j.prep.model, j.prep.plan, j.state, msg.block);
-      port.postMessage({ type: "block", job: msg.job, partial } satisfies FromWorker, transferablesOf(partial));
+      port.postMessage({ type: "block", job: msg.job, partial, startedAt } satisfies FromWorker, transferablesOf(partial));
     } else if (msg.type === "finish") {
       const j = jobs.get(msg.job);
       if (!j) throw new Error(`no open study ${msg.job}`);

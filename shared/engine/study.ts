@@ -35,6 +35,8 @@ export { prepareStudy, type PreparedStudy, type StudyOverrides } from "./plan";
 export interface Progress {
   trialsDone: number;
   trialsTotal: number;
+  /** when the study's first trial started on an engine thread, ms since the epoch (performance.timeOrigin + now); from the thread pool */
+  firstTrialAt?: number;
 }
 
 export interface RunOptions extends StudyOverrides {

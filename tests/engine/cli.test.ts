@@ -56,7 +56,7 @@ describe("npm run study", () => {
     ]);
     expect(r.code).toBe(0);
     const m = r.stderr.match(
-      /^timings \(ms since the process started\): study handed to the engine ([\d,]+) · first block back ([\d,]+) · last block back ([\d,]+) · result ([\d,]+) · written ([\d,]+)\n$/,
+      /^timings \(ms since the process started\): study handed to the engine ([\d,]+) · first trial started ([\d,]+) · first block back ([\d,]+) · last block back ([\d,]+) · result ([\d,]+) · written ([\d,]+)\n$/,
     );
     expect(m, r.stderr).not.toBeNull();
     const t = m!.slice(1).map((n) => Number(n.replace(/,/g, "")));
