@@ -1,6 +1,7 @@
 import type { DatabaseHandle } from "../db/client";
 import type { Env } from "../lib/env";
 import { defaultThreads } from "../engine/runner";
+import { ENGINE_NICE } from "../engine/pool";
 import { JobStudyQueue, openJobQueue, queueStatus, StudyJobWorker, type JobQueueSettings, type QueueStatus } from "./study-jobs";
 import { JobWhatIfQueue } from "./what-if-jobs";
 
@@ -39,7 +40,12 @@ export async function startServerMode(
   const studyQueue = new JobStudyQueue(handle.db, boss, opts.log, opts.settings);
   const whatIfQueue = new JobWhatIfQueue(handle.db, boss, opts.log, opts.settings.whatIfExpireSeconds);
   const worker = opts.runStudies
-    ? new StudyJobWorker(handle.db, boss, opts.log, { threads: opts.threads ?? defaultThreads(), settings: opts.settings })
+    ? // niced as the warm pool's threads: this process answers requests too
+      new StudyJobWorker(handle.db, boss, opts.log, {
+        threads: opts.threads ?? defaultThreads(),
+        settings: opts.settings,
+        nice: ENGINE_NICE,
+      })
     : undefined;
   await worker?.start();
   return {
