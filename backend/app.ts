@@ -8,7 +8,7 @@ import { acceptBodies, sameOrigin } from "./middleware/request-guard";
 import { refuseUnsafeInput, verifyJsonDepth } from "./middleware/json-guard";
 import { securityHeaders } from "./middleware/security-headers";
 import { requireSession } from "./middleware/session";
-import { SessionCache } from "./middleware/session-cache";
+import { SESSION_CACHE_SECONDS, SessionCache } from "./middleware/session-cache";
 import { datasetsRouter, UPLOAD_PATHS } from "./routes/datasets";
 import { meRouter } from "./routes/me";
 import { statusRouter } from "./routes/status";
@@ -36,9 +36,11 @@ export type AppOptions = {
   trustProxy?: string;
   /**
    * How long a resolved session cookie is reused in this process (SessionCache); 0 turns the cache
-   * off, as server mode must (several app processes). Default 30 s.
+   * off. Default SESSION_CACHE_SECONDS. Not read when sessionCache is given.
    */
   sessionCacheSeconds?: number;
+  /** The runtime's cache (server mode: shared with the other app processes through SessionWrites). */
+  sessionCache?: SessionCache;
 };
 
 /** Builds the Express app from its dependencies; `server.ts` listens, tests do not need to. */
@@ -67,7 +69,8 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express {
   app.use("/api", acceptBodies("application/json"));
 
   // Before better-auth's routes: a sign-out or password change must empty the session cache too.
-  const sessionCache = (options.sessionCacheSeconds ?? 30) > 0 ? new SessionCache((options.sessionCacheSeconds ?? 30) * 1000) : undefined;
+  const seconds = options.sessionCacheSeconds ?? SESSION_CACHE_SECONDS;
+  const sessionCache = options.sessionCache ?? (seconds > 0 ? new SessionCache(seconds * 1000) : undefined);
   if (sessionCache) app.use(sessionCache.clearOnWrites());
 
   app.all("/api/auth/{*splat}", toNodeHandler(deps.auth));

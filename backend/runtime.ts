@@ -18,6 +18,8 @@ import { jobSettingsOf, startServerMode } from "./services/server-mode";
 import { engineRunner } from "./services/study-runner";
 import { ENGINE_NICE, EnginePool } from "./engine/pool";
 import { ReportRenderer } from "./services/report-renderer";
+import { SESSION_CACHE_SECONDS, SessionCache } from "./middleware/session-cache";
+import { SessionWrites } from "./db/session-writes";
 import { poolExecutor, WhatIfQueue, type WhatIfExecutorFactory, type WhatIfScheduler } from "./services/what-if-queue";
 
 /** Something that starts with the server and stops with it; stopped in reverse order. */
@@ -29,6 +31,8 @@ export type Runtime = {
   /** The demo seed's steps; null when the demo is not seeded (SEED_DEMO=false). */
   seedSteps: readonly SeedStep[] | null;
   lifecycle: Lifecycle[];
+  /** The members that session cookies resolved to, for createApp (server mode: shared, see SessionWrites). */
+  sessionCache: SessionCache;
 };
 
 export type RuntimeParts = {
@@ -53,6 +57,8 @@ export type RuntimeParts = {
   supplierUploadsPerHour?: number;
   /** Parse every answer with its response schema (development, tests); default off, as in production. */
   checkResponses?: boolean;
+  /** Server mode: the app processes tell each other of their writes, for their session caches. */
+  sessionWrites?: SessionWrites;
   /** Server mode: the job queue takes the place of the in-process study queue (and, when given, of the what-if queue). */
   serverMode?: {
     studyQueue: StudyScheduler;
@@ -100,7 +106,10 @@ export async function assembleRuntime(parts: RuntimeParts): Promise<Runtime> {
     { name: "study queue", start: () => studyQueue.start(), stop: () => studyQueue.stop() },
     { name: "what-if queue", start: () => whatIfQueue.start(), stop: () => whatIfQueue.stop() },
   ];
-  return { deps, handle, seedSteps: parts.seedSteps, lifecycle };
+  const writes = parts.sessionWrites;
+  if (writes) lifecycle.push({ name: "session writes", start: () => writes.start(), stop: () => writes.stop() });
+  const sessionCache = writes?.cache ?? new SessionCache(SESSION_CACHE_SECONDS * 1000);
+  return { deps, handle, seedSteps: parts.seedSteps, lifecycle, sessionCache };
 }
 
 /** The runtime of `npm start`: everything from the environment. */
@@ -124,9 +133,13 @@ export async function createRuntime(env: Env, log: Log): Promise<Runtime> {
           log,
         })
       : undefined;
+  // several app processes may share a PostgreSQL server: a write in one must reach the others' caches
+  const sessionWrites =
+    handle.kind === "postgres" ? new SessionWrites(handle.url!, handle.db, new SessionCache(SESSION_CACHE_SECONDS * 1000), log) : undefined;
   return assembleRuntime({
     handle,
     auth,
+    sessionWrites,
     baseURL,
     log,
     serverMode,

@@ -20,8 +20,7 @@ const app = createApp(deps, {
   strictCsp: !dev,
   trustedOrigins: env.TRUSTED_ORIGINS,
   trustProxy: env.TRUST_PROXY,
-  // several app processes may share a PostgreSQL server: a write in one must reach the others' checks
-  sessionCacheSeconds: runtime.handle.kind === "postgres" ? 0 : 30,
+  sessionCache: runtime.sessionCache,
   mountClient: dev ? (a) => void (devApp = a) : mountStaticClient,
 });
 if (devApp) await mountDevClient(devApp);

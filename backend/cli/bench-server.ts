@@ -18,8 +18,7 @@ const runtime = await createRuntime(env, log);
 await startRuntime(runtime);
 const app = createApp(runtime.deps, {
   trustedOrigins: env.TRUSTED_ORIGINS,
-  // as server.ts: no in-process session cache when several processes may share the database
-  sessionCacheSeconds: runtime.handle.kind === "postgres" ? 0 : 30,
+  sessionCache: runtime.sessionCache,
 });
 const server = app.listen(0, "127.0.0.1", () => {
   const a = server.address();

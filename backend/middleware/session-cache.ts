@@ -3,6 +3,9 @@ import type { Actor } from "./session";
 
 type Entry = { actor: Actor; until: number };
 
+/** How long a resolved session cookie is reused in the app process (common practice: seconds, not minutes). */
+export const SESSION_CACHE_SECONDS = 30;
+
 /**
  * The member a session cookie resolved to, kept for a few seconds in this process so that a
  * read does not cost a session and a member query every time (issue 15 item 4).
@@ -13,12 +16,16 @@ type Entry = { actor: Actor; until: number };
  * not GET or HEAD empties the cache when it starts and again when its response is done. A lookup
  * that began before a write finished is not stored (the generation moved on). Entries are keyed by
  * the exact Cookie header better-auth accepted, end with the session at the latest, and are bounded
- * in number. Only one process may hold the cache: with several app processes on one PostgreSQL
- * server a write in one would not reach the others, so server mode runs without it.
+ * in number. With several app processes on one PostgreSQL server (server mode) a write in one must
+ * empty the others' caches too: each process tells the others when a write is done and empties its
+ * own when told (backend/db/session-writes.ts), and caches nothing while it cannot hear them
+ * (suspended).
  */
 export class SessionCache {
   private entries = new Map<string, Entry>();
   private gen = 0;
+  private suspended = false;
+  private onWriteDone: (() => void) | undefined;
 
   constructor(
     private readonly ttlMs: number,
@@ -31,6 +38,7 @@ export class SessionCache {
   }
 
   get(key: string): Actor | undefined {
+    if (this.suspended) return undefined;
     const e = this.entries.get(key);
     if (!e) return undefined;
     if (e.until <= this.now()) {
@@ -42,7 +50,7 @@ export class SessionCache {
 
   /** Stores the actor unless something was written since `generation` was read. */
   set(key: string, actor: Actor, sessionEnds: Date, generation: number): void {
-    if (generation !== this.gen) return;
+    if (generation !== this.gen || this.suspended) return;
     if (this.entries.size >= this.maxEntries) {
       // the oldest entry (Map keeps insertion order)
       const first = this.entries.keys().next();
@@ -56,12 +64,38 @@ export class SessionCache {
     this.entries.clear();
   }
 
+  /** Empty, and answer and keep nothing until resumed (server mode: while other processes' writes cannot be heard). */
+  suspend(): void {
+    this.suspended = true;
+    this.clear();
+  }
+
+  resume(): void {
+    this.clear();
+    this.suspended = false;
+  }
+
+  get isSuspended(): boolean {
+    return this.suspended;
+  }
+
+  /** Called once after every write request is done (server mode: to tell the other processes). */
+  afterWrites(fn: () => void): void {
+    this.onWriteDone = fn;
+  }
+
   /** Empties the cache around every request that may write (see the class comment). */
   clearOnWrites(): RequestHandler {
     return (req, res, next) => {
       if (req.method !== "GET" && req.method !== "HEAD") {
         this.clear();
-        const after = () => this.clear();
+        let done = false;
+        const after = () => {
+          this.clear();
+          if (done) return;
+          done = true;
+          this.onWriteDone?.();
+        };
         res.once("finish", after);
         res.once("close", after);
       }

@@ -7,6 +7,7 @@ import type { Database, DatabaseHandle } from "@backend/db/client";
 import { openTestDatabase } from "./test-database";
 import { TEST_AUTH_SECRET, TEST_BASE_URL } from "../setup/demo-seed";
 import { recordServerLog } from "../setup/logged-errors";
+import type { SessionCache } from "@backend/middleware/session-cache";
 import { studies } from "@backend/db/schema";
 import { DEMO_SEED_STEPS } from "@backend/demo/steps";
 import type { AppDeps, Clock } from "@backend/deps";
@@ -58,6 +59,8 @@ export type TestAppOptions = {
   /** Room on disk and the workspace quota (tests inject a full disk); the runtime's default otherwise. */
   storage?: AppDeps["storage"];
   supplierUploadsPerHour?: number;
+  /** The app's session cache (server mode's tests pass one shared through SessionWrites); default the app's own. */
+  sessionCache?: SessionCache;
 };
 
 // The seed queues the demo study; most tests want the queue to themselves.
@@ -102,7 +105,7 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
   const { deps } = runtime;
   const { studyQueue } = deps;
   await startRuntime(runtime);
-  const app = createApp(deps);
+  const app = createApp(deps, { sessionCache: opts.sessionCache });
   const server: Server = await new Promise((resolve) => {
     const s = keepConnectionsLonger(app.listen(0, "127.0.0.1", () => resolve(s)));
   });

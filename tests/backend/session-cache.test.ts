@@ -2,6 +2,8 @@
  * Issue 15 item 4: a session resolved a moment ago is answered from the in-process cache, and
  * every write still takes effect at once for the server's role checks.
  */
+import { EventEmitter } from "node:events";
+import type { Request, Response } from "express";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { members, users } from "@backend/db/schema";
@@ -39,6 +41,37 @@ describe("SessionCache", () => {
     c.clear(); // a write started (or ended) while the lookup ran
     c.set("a", actor("admin"), new Date(Date.now() + 60_000), before);
     expect(c.get("a")).toBeUndefined();
+  });
+
+  it("suspended, answers and keeps nothing; resumed, begins empty", () => {
+    const c = new SessionCache(30_000);
+    const end = new Date(Date.now() + 60_000);
+    c.set("a", actor("admin"), end, c.generation);
+    c.suspend();
+    expect(c.get("a")).toBeUndefined();
+    c.set("b", actor("admin"), end, c.generation);
+    c.resume();
+    expect([c.get("a"), c.get("b")]).toEqual([undefined, undefined]);
+    c.set("c", actor("admin"), end, c.generation);
+    expect(c.get("c")?.role).toBe("admin");
+  });
+
+  it("tells its listener once after each write request, never after a read", () => {
+    const c = new SessionCache(30_000);
+    let told = 0;
+    c.afterWrites(() => told++);
+    const request = (method: string) => {
+      const res = new EventEmitter();
+      c.clearOnWrites()({ method } as Request, res as unknown as Response, () => undefined);
+      res.emit("finish");
+      res.emit("close");
+    };
+    request("GET");
+    request("HEAD");
+    expect(told).toBe(0);
+    request("POST");
+    request("DELETE");
+    expect(told).toBe(2);
   });
 
   it("holds at most its bound, dropping the oldest", () => {
