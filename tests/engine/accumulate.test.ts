@@ -14,6 +14,7 @@ import {
   type WorkerState,
 } from "@shared/engine/accumulate";
 import { prepareStudy } from "@shared/engine/plan";
+import { packWorkerState, unpackWorkerState } from "@shared/engine/packed-state";
 import { BLOCK_SIZE } from "@shared/engine/random";
 import { blockSampler, blockTrials } from "@shared/engine/sampling";
 import { createScratch, evaluateTrial } from "@shared/engine/trial";
@@ -147,5 +148,29 @@ describe("merging worker states", () => {
     expect(merged.n).toBe(whole.n);
     for (const key of arrays) expect(differsAt(b[key], bBefore[key]), key).toBe(-1);
     expect(b.n).toBe(bBefore.n);
+  });
+});
+
+describe("a worker state packed for storage", () => {
+  const prep = prepareStudy(stack, study, { trials: 2 * BLOCK_SIZE, seed: 9 });
+
+  it("unpacks to the very same counts, with empty stores and a NaN in the overflow bucket, in under a third of the counts", () => {
+    const st = createWorkerState(prep.model, prep.plan);
+    const empty = structuredClone(st);
+    for (const b of [0, 1]) runBlock(prep.model, prep.plan, st, b);
+    // a NaN value is counted in the overflow bucket and left out of the extremes (countMetrics)
+    const len = st.hist.length / st.nMetrics;
+    st.hist[3 * len + len / 2 - 1] += 1;
+    for (const s of [st, empty]) {
+      const packed = packWorkerState(s);
+      const back = unpackWorkerState(structuredClone(packed));
+      expect(back.hist.length).toBe(s.hist.length);
+      let differs = -1;
+      for (let i = 0; i < s.hist.length && differs < 0; i++) if (back.hist[i] !== s.hist[i]) differs = i;
+      expect(differs).toBe(-1);
+      expect(Array.from(back.minAbs)).toEqual(Array.from(s.minAbs));
+      expect(back.n).toBe(s.n);
+      expect(packed.histCounts.length).toBeLessThan(s.hist.length / 3);
+    }
   });
 });
