@@ -14,7 +14,7 @@ import {
   type WorkerState,
 } from "@shared/engine/accumulate";
 import { prepareStudy } from "@shared/engine/plan";
-import { packWorkerState, unpackWorkerState } from "@shared/engine/packed-state";
+import { isPackedWorkerState, packWorkerState, unpackWorkerState } from "@shared/engine/packed-state";
 import { BLOCK_SIZE } from "@shared/engine/random";
 import { blockSampler, blockTrials } from "@shared/engine/sampling";
 import { createScratch, evaluateTrial } from "@shared/engine/trial";
@@ -163,6 +163,8 @@ describe("a worker state packed for storage", () => {
     st.hist[3 * len + len / 2 - 1] += 1;
     for (const s of [st, empty]) {
       const packed = packWorkerState(s);
+      // a part stored before packing holds the whole state: told apart when read back
+      expect([isPackedWorkerState(packed), isPackedWorkerState(s)]).toEqual([true, false]);
       const back = unpackWorkerState(structuredClone(packed));
       expect(back.hist.length).toBe(s.hist.length);
       let differs = -1;
