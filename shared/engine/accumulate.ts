@@ -441,7 +441,7 @@ export function mergeWorkerStates(states: WorkerState[]): WorkerState {
     out.n += s.n;
     for (let k = 0; k < out.nMetrics; k++) {
       const o = k * METRIC_LEN;
-      const [first, last] = metricStore(s.hist.subarray(o, o + METRIC_LEN)).rangeOfExtremes(s.minAbs[k], s.maxAbs[k]);
+      const [first, last] = metricHistogram(s, k).occupied();
       for (let b = first; b <= last; b++) {
         out.hist[o + b] += s.hist[o + b];
         out.hist[o + perSign + b] += s.hist[o + perSign + b];

@@ -130,8 +130,8 @@ export class LogHistogram {
     return this;
   }
 
-  /** occupied() of the counts as knownExtremes describes them (no state kept). */
-  rangeOfExtremes(minAbs: number, maxAbs: number): [number, number] {
+  /** occupied() of the counts as knownExtremes describes them. */
+  private rangeOfExtremes(minAbs: number, maxAbs: number): [number, number] {
     const P = this.perSign;
     const nan = this.counts[P - 1] !== 0 || this.counts[2 * P - 1] !== 0;
     if (!(minAbs <= maxAbs)) return nan ? [P - 1, P - 1] : [0, -1];

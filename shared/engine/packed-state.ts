@@ -1,11 +1,11 @@
 /**
  * A worker state for storage (server mode keeps each finished part's state in the database
  * until the study is merged): each metric's percentile store cut to the buckets its extremes
- * say are occupied (histogram.ts, rangeOfExtremes; exact), the rest of the state as it is. The
+ * say are occupied (accumulate.ts metricHistogram, histogram.ts knownExtremes; exact), the rest of the state as it is. The
  * reference study's 46 stores fill about a sixth of their 7.5 MB; unpacking gives back the
  * very same counts.
  */
-import { metricStore, type WorkerState } from "./accumulate";
+import { metricHistogram, metricStore, type WorkerState } from "./accumulate";
 
 export interface PackedWorkerState extends Omit<WorkerState, "hist"> {
   /** per metric: first and last occupied magnitude bucket (last < first: none) */
@@ -18,17 +18,12 @@ export function isPackedWorkerState(x: WorkerState | PackedWorkerState): x is Pa
   return "histRanges" in x;
 }
 
-function storeOf(st: WorkerState, k: number) {
-  const len = st.hist.length / st.nMetrics;
-  return metricStore(st.hist.subarray(k * len, (k + 1) * len));
-}
-
 export function packWorkerState(st: WorkerState): PackedWorkerState {
   const { hist, ...rest } = st;
   const ranges = new Int32Array(2 * st.nMetrics);
   let total = 0;
   for (let k = 0; k < st.nMetrics; k++) {
-    const [first, last] = storeOf(st, k).rangeOfExtremes(st.minAbs[k], st.maxAbs[k]);
+    const [first, last] = metricHistogram(st, k).occupied();
     ranges[2 * k] = first;
     ranges[2 * k + 1] = last;
     total += 2 * Math.max(0, last - first + 1);

@@ -8,7 +8,9 @@ import { openTestDatabase } from "./test-database";
 import { TEST_AUTH_SECRET, TEST_BASE_URL } from "../setup/demo-seed";
 import { recordServerLog } from "../setup/logged-errors";
 import type { SessionCache } from "@backend/middleware/session-cache";
-import { studies } from "@backend/db/schema";
+import { EventEmitter } from "node:events";
+import type { Request, Response } from "express";
+import { members, studies, users } from "@backend/db/schema";
 import { DEMO_SEED_STEPS } from "@backend/demo/steps";
 import type { AppDeps, Clock } from "@backend/deps";
 import { mailSettings } from "@backend/lib/env";
@@ -173,4 +175,22 @@ export async function startTestApp(opts: TestAppOptions = {}): Promise<TestApp> 
       await stopRuntime(runtime);
     },
   };
+}
+
+/** The member id of the user with this e-mail address in the test database, if any. */
+export async function memberIdOf(db: Database, email: string): Promise<string | undefined> {
+  const [row] = await db
+    .select({ id: members.id })
+    .from(members)
+    .innerJoin(users, eq(users.id, members.userId))
+    .where(eq(users.email, email));
+  return row?.id;
+}
+
+/** A request of this method through the session cache's own middleware, its response done at once. */
+export function throughSessionCache(cache: SessionCache, method: string): void {
+  const res = new EventEmitter();
+  cache.clearOnWrites()({ method } as Request, res as unknown as Response, () => undefined);
+  res.emit("finish");
+  res.emit("close");
 }

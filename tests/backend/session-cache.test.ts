@@ -2,14 +2,10 @@
  * Issue 15 item 4: a session resolved a moment ago is answered from the in-process cache, and
  * every write still takes effect at once for the server's role checks.
  */
-import { EventEmitter } from "node:events";
-import type { Request, Response } from "express";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { eq } from "drizzle-orm";
-import { members, users } from "@backend/db/schema";
 import { SessionCache } from "@backend/middleware/session-cache";
 import type { Actor } from "@backend/middleware/session";
-import { startTestApp, type TestApp } from "./harness";
+import { memberIdOf, startTestApp, throughSessionCache, type TestApp } from "./harness";
 
 const actor = (role: Actor["role"]): Actor => ({
   userId: "u1",
@@ -60,12 +56,7 @@ describe("SessionCache", () => {
     const c = new SessionCache(30_000);
     let told = 0;
     c.afterWrites(() => told++);
-    const request = (method: string) => {
-      const res = new EventEmitter();
-      c.clearOnWrites()({ method } as Request, res as unknown as Response, () => undefined);
-      res.emit("finish");
-      res.emit("close");
-    };
+    const request = (method: string) => throughSessionCache(c, method);
     request("GET");
     request("HEAD");
     expect(told).toBe(0);
@@ -98,17 +89,13 @@ describe("the session cache in the app", () => {
     // twice: the second read is answered from the cache
     expect((await t.call("GET", "/api/projects", { cookie: engineer })).status).toBe(200);
     expect((await t.call("GET", "/api/me", { cookie: engineer })).body.role).toBe("engineer");
-    const [row] = await t.handle.db
-      .select({ id: members.id })
-      .from(members)
-      .innerJoin(users, eq(users.id, members.userId))
-      .where(eq(users.email, "engineer@example.com"));
-    const down = await t.call("PATCH", `/api/members/${row!.id}`, { cookie: admin, body: { role: "reviewer" } });
+    const memberId = await memberIdOf(t.handle.db, "engineer@example.com");
+    const down = await t.call("PATCH", `/api/members/${memberId}`, { cookie: admin, body: { role: "reviewer" } });
     expect(down.status, JSON.stringify(down.body)).toBe(200);
     const create = await t.call("POST", "/api/projects", { cookie: engineer, body: { name: "Not allowed now" } });
     expect(create.status).toBe(403);
     expect((await t.call("GET", "/api/me", { cookie: engineer })).body.role).toBe("reviewer");
-    await t.call("PATCH", `/api/members/${row!.id}`, { cookie: admin, body: { role: "engineer" } });
+    await t.call("PATCH", `/api/members/${memberId}`, { cookie: admin, body: { role: "engineer" } });
     expect((await t.call("GET", "/api/me", { cookie: engineer })).body.role).toBe("engineer");
   });
 });

@@ -4,18 +4,14 @@
  * (backend/db/session-writes.ts). Runs in the "backend-pg" project; under PGlite there is no
  * second process to tell.
  */
-import { EventEmitter } from "node:events";
 import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { eq } from "drizzle-orm";
-import type { Request, Response } from "express";
 import type { DatabaseHandle } from "@backend/db/client";
-import { members, users } from "@backend/db/schema";
 import { SessionWrites } from "@backend/db/session-writes";
 import { SessionCache } from "@backend/middleware/session-cache";
 import type { Actor } from "@backend/middleware/session";
 import { recordServerLog } from "../setup/logged-errors";
-import { startTestApp, type TestApp } from "./harness";
+import { memberIdOf, startTestApp, throughSessionCache, type TestApp } from "./harness";
 import { openTestDatabase, testPostgresUrl } from "./test-database";
 
 const actor: Actor = {
@@ -36,14 +32,6 @@ async function until(ok: () => boolean | Promise<boolean>, ms = 10_000): Promise
     if (Date.now() > end) throw new Error("timed out");
     await new Promise((r) => setTimeout(r, 20));
   }
-}
-
-/** A write request through the cache's own middleware, done when its response finishes. */
-function writeRequest(cache: SessionCache): void {
-  const res = new EventEmitter();
-  cache.clearOnWrites()({ method: "POST" } as Request, res as unknown as Response, () => undefined);
-  res.emit("finish");
-  res.emit("close");
 }
 
 describe.skipIf(!testPostgresUrl())("session caches of several app processes", () => {
@@ -71,14 +59,12 @@ describe.skipIf(!testPostgresUrl())("session caches of several app processes", (
     a.cache.set("k", actor, later(), a.cache.generation);
     b.cache.set("k", actor, later(), b.cache.generation);
     expect(b.cache.get("k")?.role).toBe("engineer");
-    writeRequest(a.cache);
+    throughSessionCache(a.cache, "POST");
     expect(a.cache.get("k")).toBeUndefined(); // its own at once
     await until(() => b.cache.get("k") === undefined);
     // a read does not tell anyone
     b.cache.set("k", actor, later(), b.cache.generation);
-    const res = new EventEmitter();
-    a.cache.clearOnWrites()({ method: "GET" } as Request, res as unknown as Response, () => undefined);
-    res.emit("finish");
+    throughSessionCache(a.cache, "GET");
     await new Promise((r) => setTimeout(r, 200));
     expect(b.cache.get("k")?.role).toBe("engineer");
   });
@@ -130,17 +116,13 @@ describe.skipIf(!testPostgresUrl())("session caches of several app processes", (
       const cache = channels.at(-1)!.cache;
       expect((await two.call("GET", "/api/me", { cookie: engineer })).body.role).toBe("engineer");
       expect(cache.get(engineer)?.role).toBe("engineer"); // the second app answers from its cache
-      const [row] = await handle.db
-        .select({ id: members.id })
-        .from(members)
-        .innerJoin(users, eq(users.id, members.userId))
-        .where(eq(users.email, "engineer@example.com"));
-      const down = await one.call("PATCH", `/api/members/${row!.id}`, { cookie: admin, body: { role: "reviewer" } });
+      const memberId = await memberIdOf(handle.db, "engineer@example.com");
+      const down = await one.call("PATCH", `/api/members/${memberId}`, { cookie: admin, body: { role: "reviewer" } });
       expect(down.status, JSON.stringify(down.body)).toBe(200);
       await until(() => cache.get(engineer) === undefined, 5_000);
       expect((await two.call("GET", "/api/me", { cookie: engineer })).body.role).toBe("reviewer");
       expect((await two.call("POST", "/api/projects", { cookie: engineer, body: { name: "Not allowed now" } })).status).toBe(403);
-      await one.call("PATCH", `/api/members/${row!.id}`, { cookie: admin, body: { role: "engineer" } });
+      await one.call("PATCH", `/api/members/${memberId}`, { cookie: admin, body: { role: "engineer" } });
     });
   });
 });

@@ -7,8 +7,8 @@
 import { allowConsoleErrors } from "../../setup/logged-errors";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { eq } from "drizzle-orm";
-import { members, outboxMessages, users } from "@backend/db/schema";
-import { startTestApp, type TestApp } from "../harness";
+import { outboxMessages, users } from "@backend/db/schema";
+import { memberIdOf as harnessMemberIdOf, startTestApp, type TestApp } from "../harness";
 
 let t: TestApp;
 let admin: string;
@@ -35,14 +35,7 @@ async function join(email: string, password: string, name = "New Person") {
   return cookieOf(acc.headers);
 }
 
-async function memberIdOf(email: string) {
-  const [row] = await t.handle.db
-    .select({ id: members.id })
-    .from(members)
-    .innerJoin(users, eq(users.id, members.userId))
-    .where(eq(users.email, email));
-  return row?.id;
-}
+const memberIdOf = (email: string) => harnessMemberIdOf(t.handle.db, email);
 
 const me = (cookie: string) => t.call("GET", "/api/me", { cookie });
 
